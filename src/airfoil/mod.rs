@@ -1,0 +1,1 @@
+//! The `airfoil` stage (see DESIGN.md); filled in by its issue.

@@ -1,0 +1,1 @@
+//! The `blade` stage (see DESIGN.md); filled in by its issue.

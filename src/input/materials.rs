@@ -1,0 +1,247 @@
+//! `materials.toml`: `[lamina.NAME]` and `[isotropic.NAME]` records, converted to SI and
+//! validated.
+//!
+//! Lamina keys: `E1_GPa E2_GPa G12_GPa nu12 density_kg_m3 ply_thickness_mm Xt_MPa Xc_MPa Yt_MPa
+//! Yc_MPa S12_MPa` (required); `F12_star`, `S23_MPa`, `eps1t_ustrain eps1c_ustrain eps2t_ustrain
+//! eps2c_ustrain gamma12_ustrain` (all five or none), `a1_ustrain_K a2_ustrain_K` (both or none),
+//! `fibre_volume_fraction`, `resin_density_kg_m3`, `cost_per_kg`, `source` (optional).
+//!
+//! Isotropic keys: `E_GPa nu density_kg_m3` (required); `ply_thickness_mm`,
+//! `tensile_strength_MPa`, `compressive_strength_MPa`, `shear_strength_MPa`, `cte_ustrain_K`,
+//! `solidus_C liquidus_C` (both or none), `safety_note`, `cost_per_kg`, `source` (optional).
+
+use std::path::Path;
+
+use super::location::{InputError, Location, SourceText};
+use super::toml_table::TableReader;
+use crate::material::{
+    Isotropic, Lamina, LaminaKind, Material, MaterialError, MaterialLibrary, StrainLimits,
+    Strengths,
+};
+use crate::units::{GPA, MICROSTRAIN, MM, MPA};
+
+/// Reads and validates a materials file.
+pub fn read_materials(path: &Path) -> Result<MaterialLibrary, InputError> {
+    let display = path.display().to_string();
+    let source = SourceText::read(path, &display)?;
+    read_source(&source)
+}
+
+/// Reads materials from text held in memory; `name` is how messages name it.
+pub fn read_materials_str(text: &str, name: &str) -> Result<MaterialLibrary, InputError> {
+    read_source(&SourceText::new(name, text.to_string()))
+}
+
+fn read_source(source: &SourceText) -> Result<MaterialLibrary, InputError> {
+    let mut doc = TableReader::parse_document(source)?;
+    let mut library = MaterialLibrary::new();
+    if let Some(laminae) = doc.optional_table("lamina")? {
+        for (name, mut t) in laminae.named_tables()? {
+            let lamina = read_lamina(&name, &mut t)?;
+            insert(&mut library, Material::Lamina(lamina), &t)?;
+            t.finish()?;
+        }
+    }
+    if let Some(solids) = doc.optional_table("isotropic")? {
+        for (name, mut t) in solids.named_tables()? {
+            let iso = read_isotropic(&name, &mut t)?;
+            insert(&mut library, Material::Isotropic(iso), &t)?;
+            t.finish()?;
+        }
+    }
+    doc.finish()?;
+    if library.is_empty() {
+        return Err(InputError::at(
+            Location::file(source.name.clone()),
+            "no materials: expected at least one [lamina.NAME] or [isotropic.NAME] table",
+        ));
+    }
+    Ok(library)
+}
+
+fn insert(
+    library: &mut MaterialLibrary,
+    material: Material,
+    t: &TableReader<'_>,
+) -> Result<(), InputError> {
+    if library.iter().any(|m| m.name() == material.name()) {
+        return Err(InputError::at(
+            t.location(),
+            format!("material '{}' is defined twice", material.name()),
+        ));
+    }
+    library.insert(material).map_err(|e| material_error(e, t))
+}
+
+/// Points a physics check that failed at the key that carries the value.
+fn material_error(e: MaterialError, t: &TableReader<'_>) -> InputError {
+    match &e {
+        MaterialError::Invalid { field, isotropic, what, expected, found, .. } => {
+            t.error(field.key(*isotropic), format!("{what} must be {expected}, found {found}"))
+        }
+        _ => InputError::at(t.location(), e.to_string()),
+    }
+}
+
+fn read_lamina(name: &str, t: &mut TableReader<'_>) -> Result<Lamina, InputError> {
+    let mut l = Lamina::builder(name).build_unchecked();
+    l.e1 = t.required_f64("E1_GPa")? * GPA;
+    l.e2 = t.required_f64("E2_GPa")? * GPA;
+    l.g12 = t.required_f64("G12_GPa")? * GPA;
+    l.nu12 = t.required_f64("nu12")?;
+    l.density = t.required_f64("density_kg_m3")?;
+    l.ply_thickness = t.required_f64("ply_thickness_mm")? * MM;
+    l.strength = Some(Strengths {
+        xt: t.required_f64("Xt_MPa")? * MPA,
+        xc: t.required_f64("Xc_MPa")? * MPA,
+        yt: t.required_f64("Yt_MPa")? * MPA,
+        yc: t.required_f64("Yc_MPa")? * MPA,
+        s12: t.required_f64("S12_MPa")? * MPA,
+    });
+    if let Some(f) = t.optional_f64("F12_star")? {
+        l.f12_star = f;
+    }
+    l.s23 = t.optional_f64("S23_MPa")?.map(|v| v * MPA);
+    let strain_keys =
+        ["eps1t_ustrain", "eps1c_ustrain", "eps2t_ustrain", "eps2c_ustrain", "gamma12_ustrain"];
+    let strains: Vec<Option<f64>> =
+        strain_keys.iter().map(|k| t.optional_f64(k)).collect::<Result<_, _>>()?;
+    l.strain_limits = all_or_none(t, &strain_keys, &strains)?.map(|v| StrainLimits {
+        e1t: v[0] * MICROSTRAIN,
+        e1c: v[1] * MICROSTRAIN,
+        e2t: v[2] * MICROSTRAIN,
+        e2c: v[3] * MICROSTRAIN,
+        g12: v[4] * MICROSTRAIN,
+    });
+    let cte_keys = ["a1_ustrain_K", "a2_ustrain_K"];
+    let cte: Vec<Option<f64>> =
+        cte_keys.iter().map(|k| t.optional_f64(k)).collect::<Result<_, _>>()?;
+    l.cte = all_or_none(t, &cte_keys, &cte)?.map(|v| [v[0] * MICROSTRAIN, v[1] * MICROSTRAIN]);
+    l.fibre_volume_fraction = t.optional_f64("fibre_volume_fraction")?;
+    l.resin_density = t.optional_f64("resin_density_kg_m3")?;
+    l.cost_per_kg = t.optional_f64("cost_per_kg")?;
+    t.optional_str("source")?;
+    l.kind = LaminaKind::Orthotropic;
+    Ok(l)
+}
+
+fn read_isotropic(name: &str, t: &mut TableReader<'_>) -> Result<Isotropic, InputError> {
+    let e = t.required_f64("E_GPa")? * GPA;
+    let nu = t.required_f64("nu")?;
+    let density = t.required_f64("density_kg_m3")?;
+    let ply_thickness = t.optional_f64("ply_thickness_mm")?.map(|v| v * MM);
+    let tensile_strength = t.optional_f64("tensile_strength_MPa")?.map(|v| v * MPA);
+    let compressive_strength = t.optional_f64("compressive_strength_MPa")?.map(|v| v * MPA);
+    let shear_strength = t.optional_f64("shear_strength_MPa")?.map(|v| v * MPA);
+    if tensile_strength.is_none() && (compressive_strength.is_some() || shear_strength.is_some()) {
+        return Err(t.error(
+            "tensile_strength_MPa",
+            "missing key: a compressive or shear strength needs tensile_strength_MPa too",
+        ));
+    }
+    let cte = t.optional_f64("cte_ustrain_K")?.map(|v| v * MICROSTRAIN);
+    let melt_keys = ["solidus_C", "liquidus_C"];
+    let melt: Vec<Option<f64>> =
+        melt_keys.iter().map(|k| t.optional_f64(k)).collect::<Result<_, _>>()?;
+    let melting_range_c = all_or_none(t, &melt_keys, &melt)?.map(|v| [v[0], v[1]]);
+    let safety_note = t.optional_str("safety_note")?;
+    t.optional_f64("cost_per_kg")?;
+    t.optional_str("source")?;
+    Ok(Isotropic {
+        name: name.to_string(),
+        e,
+        nu,
+        density,
+        ply_thickness,
+        tensile_strength,
+        compressive_strength,
+        shear_strength,
+        cte,
+        melting_range_c,
+        safety_note,
+    })
+}
+
+/// Keys that go together: all given, or none.
+fn all_or_none(
+    t: &TableReader<'_>,
+    keys: &[&str],
+    values: &[Option<f64>],
+) -> Result<Option<Vec<f64>>, InputError> {
+    let given = values.iter().filter(|v| v.is_some()).count();
+    if given == 0 {
+        return Ok(None);
+    }
+    if given < values.len() {
+        let missing = keys.iter().zip(values).find(|(_, v)| v.is_none()).map(|(k, _)| *k);
+        let present = keys.iter().zip(values).find(|(_, v)| v.is_some()).map(|(k, _)| *k);
+        return Err(t.error(
+            present.unwrap_or(keys[0]),
+            format!(
+                "missing key '{}': the keys {} go together, give all or none",
+                missing.unwrap_or(keys[0]),
+                keys.join(", ")
+            ),
+        ));
+    }
+    Ok(Some(values.iter().map(|v| v.unwrap_or(0.0)).collect()))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    const GOOD: &str = r#"
+[lamina.t300]
+E1_GPa = 181
+E2_GPa = 10.3
+G12_GPa = 7.17
+nu12 = 0.28
+density_kg_m3 = 1600
+ply_thickness_mm = 0.125
+Xt_MPa = 1500
+Xc_MPa = 1500
+Yt_MPa = 40
+Yc_MPa = 246
+S12_MPa = 68
+a1_ustrain_K = 0.02
+a2_ustrain_K = 22.5
+
+[isotropic.bi58sn42]
+E_GPa = 12
+nu = 0.35
+density_kg_m3 = 8560
+solidus_C = 138
+liquidus_C = 138
+"#;
+
+    #[test]
+    fn a_good_file_converts_to_si() {
+        let lib = read_materials_str(GOOD, "m.toml").unwrap();
+        let l = lib.ply_material("t300").unwrap();
+        assert_eq!(l.e2, 10.3e9);
+        assert_eq!(l.ply_thickness, 0.125e-3);
+        let [a1, a2] = l.cte.unwrap();
+        assert!((a1 - 0.02e-6).abs() < 1e-15 && (a2 - 22.5e-6).abs() < 1e-15);
+        let core = lib.isotropic("bi58sn42").unwrap();
+        assert_eq!(core.melting_range_c, Some([138.0, 138.0]));
+    }
+
+    #[test]
+    fn unknown_key_names_its_line_and_the_closest_key() {
+        let bad = GOOD.replace("E2_GPa = 10.3", "E2_Gpa = 10.3");
+        let e = read_materials_str(&bad, "m.toml").unwrap_err().to_string();
+        assert!(e.starts_with("m.toml line"), "{e}");
+        assert!(e.contains("E2_GPa"), "{e}");
+    }
+
+    #[test]
+    fn negative_modulus_points_at_its_key() {
+        let bad = GOOD.replace("G12_GPa = 7.17", "G12_GPa = -7.17");
+        let e = read_materials_str(&bad, "m.toml").unwrap_err().to_string();
+        assert_eq!(
+            e,
+            "m.toml line 5, lamina.t300.G12_GPa: G12 (GPa) must be a positive number, found -7.17"
+        );
+    }
+}

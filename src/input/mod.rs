@@ -1,0 +1,40 @@
+//! Reading and validating layloft's input files: `materials.toml` here; the blade project
+//! (`blade.toml`, `stations.csv`, `plies.csv`, load files) in the files beside it.
+//!
+//! Every error names the file, the line and the key or column, says what was expected and what
+//! was found, and, for a misspelt key or name, suggests the closest valid one. Units are
+//! converted to SI here, once, from the unit each key carries in its name.
+//!
+//! ```
+//! use layloft::input::read_materials_str;
+//!
+//! # fn main() -> Result<(), layloft::Error> {
+//! let text = r#"
+//! [lamina.carbon-ud]
+//! E1_GPa = 135
+//! E2_GPa = 9.0
+//! G12_GPa = 5.0
+//! nu12 = 0.3
+//! density_kg_m3 = 1550
+//! ply_thickness_mm = 0.2
+//! Xt_MPa = 2000
+//! Xc_MPa = 1200
+//! Yt_MPa = 50
+//! Yc_MPa = 200
+//! S12_MPa = 80
+//! "#;
+//! let library = read_materials_str(text, "materials.toml")?;
+//! assert_eq!(library.ply_material("carbon-ud")?.e1, 135e9);
+//! # Ok(())
+//! # }
+//! ```
+
+mod csv_table;
+mod location;
+mod materials;
+mod toml_table;
+
+pub use csv_table::{CsvRecord, CsvTable};
+pub use location::{InputError, Location, SourceText, closest, project_path};
+pub use materials::{read_materials, read_materials_str};
+pub use toml_table::TableReader;

@@ -1,0 +1,1 @@
+//! The `loads` stage (see DESIGN.md); filled in by its issue.

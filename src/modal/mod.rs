@@ -1,0 +1,1 @@
+//! The `modal` stage (see DESIGN.md); filled in by its issue.

@@ -1,0 +1,1 @@
+//! The `report` stage (see DESIGN.md); filled in by its issue.

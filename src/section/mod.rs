@@ -1,0 +1,1 @@
+//! The `section` stage (see DESIGN.md); filled in by its issue.

@@ -1,0 +1,1 @@
+//! The `stress` stage (see DESIGN.md); filled in by its issue.

@@ -1,0 +1,1 @@
+//! The `tooling` stage (see DESIGN.md); filled in by its issue.
