@@ -1,5 +1,7 @@
 //! The `layloft` command: parse the arguments, run, map the result to an exit status.
 
-fn main() {
-    std::process::exit(0);
+mod cli;
+
+fn main() -> std::process::ExitCode {
+    cli::main()
 }

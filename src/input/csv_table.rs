@@ -115,17 +115,16 @@ impl CsvTable {
 /// The 1-based line of the first record-bearing line at or after `byte` (the csv crate places a
 /// record at the end of the previous one, before any blank or comment lines).
 fn line_number(text: &str, byte: usize) -> usize {
-    let mut start = byte.min(text.len());
-    let mut line = 1 + text.as_bytes()[..start].iter().filter(|&&b| b == b'\n').count();
-    for l in text[start..].split_inclusive('\n') {
-        let t = l.trim();
-        if !(t.is_empty() || t.starts_with('#')) {
-            break;
-        }
-        start += l.len();
-        line += 1;
-    }
-    line
+    let start = byte.min(text.len());
+    let line = 1 + text.as_bytes()[..start].iter().filter(|&&b| b == b'\n').count();
+    let skipped = text[start..]
+        .split_inclusive('\n')
+        .take_while(|l| {
+            let t = l.trim();
+            t.is_empty() || t.starts_with('#')
+        })
+        .count();
+    line + skipped
 }
 
 fn csv_error(display: &str, e: &csv::Error) -> InputError {

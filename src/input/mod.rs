@@ -32,9 +32,14 @@
 mod csv_table;
 mod location;
 mod materials;
+mod project;
 mod toml_table;
 
 pub use csv_table::{CsvRecord, CsvTable};
 pub use location::{InputError, Location, SourceText, closest, project_path};
 pub use materials::{read_materials, read_materials_str};
+pub use project::{
+    AirfoilSpec, Criteria, DistributedLoadRow, LoadCaseSpec, ModalSpec, PlySpec, PointMass,
+    Project, Region, RootSprings, Rotor, SectionSpec, Station, ToolingSpec, WebSpec,
+};
 pub use toml_table::TableReader;

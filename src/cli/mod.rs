@@ -1,0 +1,88 @@
+//! The command tree. The only part of layloft that prints or exits.
+//!
+//! Exit status: 0 success; 1 a design check failed; 2 invalid input or usage; 3 an output could
+//! not be written or a computation failed.
+
+mod materials;
+mod output;
+
+use std::process::ExitCode;
+
+use clap::{Parser, Subcommand};
+
+pub use output::Output;
+
+/// Composite blades for rotating machines: laminate and section stiffness, ply stresses,
+/// rotating modes and the Campbell diagram, tooling geometry as STL.
+///
+/// Design aid only: confirm by test, apply the governing code, have the design reviewed by a
+/// qualified engineer.
+#[derive(Debug, Parser)]
+#[command(name = "layloft", version, about, long_about = None, propagate_version = true)]
+pub struct Cli {
+    /// Print nothing on stderr but errors (no progress, no notes).
+    #[arg(long, short, global = true)]
+    pub quiet: bool,
+
+    #[command(subcommand)]
+    command: Command,
+}
+
+#[derive(Debug, Subcommand)]
+enum Command {
+    Materials(materials::Args),
+}
+
+/// How a command ended, other than by an error.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Outcome {
+    /// Done; everything asked for passed.
+    Success,
+    /// Done, and a design check failed.
+    CheckFailed,
+}
+
+/// Errors with the exit status they map to.
+#[derive(Debug)]
+pub enum Failure {
+    /// Bad input or usage: exit 2.
+    Input(anyhow::Error),
+    /// Output or computation: exit 3.
+    Run(anyhow::Error),
+}
+
+impl From<layloft::Error> for Failure {
+    fn from(e: layloft::Error) -> Self {
+        match e {
+            layloft::Error::Write { .. } => Failure::Run(e.into()),
+            _ => Failure::Input(e.into()),
+        }
+    }
+}
+
+/// Parses the arguments, runs the command and maps the result to the exit status.
+pub fn main() -> ExitCode {
+    let cli = match Cli::try_parse() {
+        Ok(c) => c,
+        Err(e) => {
+            let _ = e.print();
+            return ExitCode::from(if e.use_stderr() { 2 } else { 0 });
+        }
+    };
+    let out = Output::new(cli.quiet);
+    let result = match cli.command {
+        Command::Materials(args) => materials::run(args, &out),
+    };
+    match result {
+        Ok(Outcome::Success) => ExitCode::SUCCESS,
+        Ok(Outcome::CheckFailed) => ExitCode::from(1),
+        Err(Failure::Input(e)) => {
+            out.error(&e);
+            ExitCode::from(2)
+        }
+        Err(Failure::Run(e)) => {
+            out.error(&e);
+            ExitCode::from(3)
+        }
+    }
+}
