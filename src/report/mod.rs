@@ -1,1 +1,7 @@
-//! The `report` stage (see DESIGN.md); filled in by its issue.
+//! Outputs: JSON, CSV, SVG plots, the HTML report and terminal tables, and the one way files are
+//! written (atomically: a temporary file in the same folder, then a rename, so that a reader never
+//! sees half a file and a failed run leaves what was there before).
+
+mod write;
+
+pub use write::{write_atomic, write_atomic_with};
