@@ -50,6 +50,7 @@ pub mod blade;
 mod error;
 pub mod failure;
 pub mod input;
+mod interp;
 pub mod laminate;
 pub mod loads;
 pub mod material;

@@ -1,1 +1,91 @@
-//! The `airfoil` stage (see DESIGN.md); filled in by its issue.
+//! Airfoil outlines: NACA 4-digit sections (NACA Report 824), coordinate files, resampling at
+//! normalised arc length with clustering at the leading and trailing edges, and blending between
+//! stations.
+//!
+//! Outlines are in chord fractions with the leading edge at (0, 0) and the trailing edge at
+//! (1, 0); both surfaces run from the leading edge to the trailing edge. Coordinate files are read
+//! in the usual order (trailing edge, over the upper surface to the leading edge, back along the
+//! lower surface), normalised to that chord line, and checked: enough points, no repeated point,
+//! each surface advancing along the chord (no doubling back), no crossing.
+//!
+//! ```
+//! use layloft::airfoil::{Naca4, Outline, clustered_stations};
+//!
+//! # fn main() -> Result<(), layloft::airfoil::AirfoilError> {
+//! let section = Naca4::parse("0012", false)?;
+//! let outline = Outline::from_naca(&section, 400).resample(&clustered_stations(200));
+//! // Area of NACA 0012 with an open trailing edge: 0.08221 c² (integral of the Report 824
+//! // thickness formula).
+//! assert!((outline.area() - 0.08221).abs() < 2e-4);
+//! # Ok(())
+//! # }
+//! ```
+
+mod file;
+mod naca;
+mod outline;
+
+pub use file::{parse_coordinates, read_coordinates};
+pub use naca::Naca4;
+pub use outline::{Outline, clustered_stations};
+
+/// What can be wrong with an airfoil.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum AirfoilError {
+    /// A NACA code that is not four digits of a valid section.
+    #[error(
+        "'{code}' is not a NACA 4-digit code: expected four digits such as 0012 or 4415 (thickness above zero; camber needs its position)"
+    )]
+    NacaCode {
+        /// The code given.
+        code: String,
+    },
+    /// Too few points to describe an outline.
+    #[error("the outline has {found} points: expected at least {needed}")]
+    TooFewPoints {
+        /// Points found.
+        found: usize,
+        /// Points needed.
+        needed: usize,
+    },
+    /// Two consecutive points at the same place.
+    #[error("line {line}: the point repeats the one before it")]
+    Repeated {
+        /// Line of the repeated point.
+        line: usize,
+    },
+    /// The point farthest from the trailing edge is an end point.
+    #[error(
+        "no leading edge: the outline must run from the trailing edge round the leading edge and back"
+    )]
+    NoLeadingEdge,
+    /// A surface that goes backwards along the chord.
+    #[error("line {line}: the {surface} surface doubles back towards the leading edge")]
+    DoublesBack {
+        /// Which surface.
+        surface: String,
+        /// Line where it turns back.
+        line: usize,
+    },
+    /// The lower surface is given first.
+    #[error(
+        "the outline runs over the lower surface first: expected trailing edge, upper surface, leading edge, lower surface"
+    )]
+    LowerFirst,
+    /// Two segments of the outline cross.
+    #[error("the outline crosses itself between lines {line_a} and {line_b}")]
+    Crossing {
+        /// Line of one segment.
+        line_a: usize,
+        /// Line of the other.
+        line_b: usize,
+    },
+}
+
+impl Outline {
+    /// The outline of a NACA 4-digit section with `n` cosine-spaced points per surface.
+    pub fn from_naca(section: &Naca4, n: usize) -> Outline {
+        let (upper, lower) = section.surfaces(n);
+        Outline { upper, lower }
+    }
+}

@@ -1,1 +1,281 @@
-//! The `blade` stage (see DESIGN.md); filled in by its issue.
+//! The lofted blade: stations interpolated along the span, the ply schedule resolved into the
+//! laminate at any point of any section, webs, and the wall layout that the section solver takes.
+//!
+//! Chord, twist and pitch-axis position are interpolated between stations by a monotone
+//! piecewise cubic (Fritsch & Carlson 1980), so they never overshoot the given values; outlines
+//! are resampled at normalised arc length with clustering at both edges and blended linearly in
+//! radius between neighbouring stations (common practice for lofting blades).
+//!
+//! Ply coverage: the laminate at a point is the ordered stack (outermost first, as listed in
+//! `plies.csv`) of the plies whose span range holds the radius (`r_start <= r < r_end`, the tip
+//! included) and, for surface plies, whose chord range holds the chord fraction
+//! (`from <= x < to`, the trailing edge included). A ply that ends inside the span drops off there.
+//!
+//! Rotor frame (used for 3D geometry): origin on the rotor axis where the pitch axis meets it,
+//! `X` along the pitch axis, `Y` in the plane of rotation, `Z` along the rotor axis, downstream.
+//! A section's chord frame is turned about `X` by the chord angle `phi = twist + pitch`:
+//! `Y = y cos phi − z sin phi`, `Z = y sin phi + z cos phi`, so a positive chord angle moves the
+//! trailing edge downstream.
+//!
+//! ```no_run
+//! use layloft::blade::Blade;
+//! use layloft::input::read_project;
+//!
+//! # fn main() -> Result<(), layloft::Error> {
+//! let project = read_project("layups/mine-fan/blade.toml".as_ref())?;
+//! let blade = Blade::from_project(&project)?;
+//! let layout = blade.section_layout(0.6, 240)?;
+//! assert!(layout.outer.len() >= 240);
+//! # Ok(())
+//! # }
+//! ```
+
+mod coverage;
+mod layout;
+mod loft;
+
+pub use coverage::Surface;
+
+use std::sync::Arc;
+
+use crate::airfoil::{Naca4, Outline};
+use crate::input::{AirfoilSpec, InputError, Location, PlySpec, Project, Rotor, WebSpec};
+use crate::material::{Lamina, MaterialError};
+use crate::units::Angle;
+
+/// What can go wrong when building the blade or one of its sections.
+#[derive(Debug, thiserror::Error)]
+pub enum BladeError {
+    /// An input file (an airfoil coordinate file).
+    #[error(transparent)]
+    Input(#[from] InputError),
+    /// A material reference.
+    #[error(transparent)]
+    Material(#[from] MaterialError),
+    /// A radius outside the blade.
+    #[error("r = {r} m is outside the blade ({root}..{tip} m)")]
+    OutsideSpan {
+        /// The radius asked for.
+        r: f64,
+        /// Root radius.
+        root: f64,
+        /// Tip radius.
+        tip: f64,
+    },
+    /// A point of the skin that no ply covers.
+    #[error(
+        "{file}: no ply covers the {surface} surface at x/c = {x:.3}, r = {r:.4} m: the skin has a hole there"
+    )]
+    NoPlies {
+        /// The plies file.
+        file: String,
+        /// Which surface.
+        surface: Surface,
+        /// Chord fraction.
+        x: f64,
+        /// Radius, m.
+        r: f64,
+    },
+    /// A web that exists at a radius but has no plies there.
+    #[error(
+        "{file}: web '{web}' has no plies at r = {r:.4} m (give it web:{web} plies over its whole span)"
+    )]
+    WebWithoutPlies {
+        /// The plies file.
+        file: String,
+        /// The web.
+        web: String,
+        /// Radius, m.
+        r: f64,
+    },
+    /// Walls that fill the section depth where the section must be hollow.
+    #[error(
+        "{file}: at r = {r:.4} m (station near line {line}), x/c = {x:.3} the laminates are thicker than the section: upper {upper_mm:.2} mm + lower {lower_mm:.2} mm against a depth of {depth_mm:.2} mm"
+    )]
+    TooThick {
+        /// The plies file.
+        file: String,
+        /// Radius, m.
+        r: f64,
+        /// Line of the nearest station in stations.csv.
+        line: usize,
+        /// Chord fraction.
+        x: f64,
+        /// Upper wall laminate thickness, mm.
+        upper_mm: f64,
+        /// Lower wall laminate thickness, mm.
+        lower_mm: f64,
+        /// Local section depth normal to the chord, mm.
+        depth_mm: f64,
+    },
+}
+
+/// One station with its outline resolved.
+#[derive(Debug, Clone)]
+pub(crate) struct ResolvedStation {
+    pub(crate) r: f64,
+    pub(crate) line: usize,
+    pub(crate) outline: Outline,
+}
+
+/// A ply of the schedule with its material resolved.
+#[derive(Debug, Clone)]
+pub(crate) struct ResolvedPly {
+    pub(crate) spec: PlySpec,
+    pub(crate) material: Arc<Lamina>,
+}
+
+/// The lofted blade of a project.
+#[derive(Debug, Clone)]
+pub struct Blade {
+    name: String,
+    rotor: Rotor,
+    stations: Vec<ResolvedStation>,
+    loft: loft::SpanInterpolation,
+    plies: Vec<ResolvedPly>,
+    webs: Vec<WebSpec>,
+    plies_file: String,
+}
+
+impl Blade {
+    /// Resolves the project's airfoils and materials into a blade.
+    pub fn from_project(project: &Project) -> Result<Blade, BladeError> {
+        let mut stations = Vec::with_capacity(project.stations.len());
+        for s in &project.stations {
+            let outline = match &s.airfoil {
+                AirfoilSpec::Naca4 { code, closed_te } => {
+                    let naca = Naca4::parse(code, *closed_te).map_err(|e| {
+                        InputError::at(
+                            Location::line(&project.files.stations, s.line),
+                            e.to_string(),
+                        )
+                    })?;
+                    Outline::from_naca(&naca, 801)
+                }
+                AirfoilSpec::File(path) => {
+                    crate::airfoil::read_coordinates(path, &path.display().to_string())?
+                }
+            };
+            stations.push(ResolvedStation { r: s.r, line: s.line, outline });
+        }
+        let mut plies = Vec::with_capacity(project.plies.len());
+        for p in &project.plies {
+            plies.push(ResolvedPly {
+                spec: p.clone(),
+                material: Arc::new(project.materials.ply_material(&p.material)?),
+            });
+        }
+        Ok(Blade {
+            name: project.name.clone(),
+            rotor: project.rotor.clone(),
+            loft: loft::SpanInterpolation::new(&project.stations),
+            stations,
+            plies,
+            webs: project.webs.clone(),
+            plies_file: project.files.plies.clone(),
+        })
+    }
+
+    /// The project's name.
+    pub fn name(&self) -> &str {
+        &self.name
+    }
+
+    /// The rotor.
+    pub fn rotor(&self) -> &Rotor {
+        &self.rotor
+    }
+
+    /// Radius of the first station (the structural root), m.
+    pub fn root_radius(&self) -> f64 {
+        self.stations[0].r
+    }
+
+    /// Radius of the last station, m.
+    pub fn tip_radius(&self) -> f64 {
+        self.stations[self.stations.len() - 1].r
+    }
+
+    /// Radii of the project's stations, m.
+    pub fn station_radii(&self) -> Vec<f64> {
+        self.stations.iter().map(|s| s.r).collect()
+    }
+
+    /// `n` radii evenly spaced from root to tip, or the station radii when `n` is 0.
+    pub fn analysis_radii(&self, n: usize) -> Vec<f64> {
+        if n < 2 {
+            return self.station_radii();
+        }
+        let (a, b) = (self.root_radius(), self.tip_radius());
+        (0..n).map(|i| a + (b - a) * i as f64 / (n - 1) as f64).collect()
+    }
+
+    /// Chord at `r`, m.
+    pub fn chord(&self, r: f64) -> f64 {
+        self.loft.chord(r)
+    }
+
+    /// Station twist at `r` (before the pitch setting).
+    pub fn twist(&self, r: f64) -> Angle {
+        self.loft.twist(r)
+    }
+
+    /// Pitch axis at `r`, fraction of chord from the leading edge.
+    pub fn pitch_axis_frac(&self, r: f64) -> f64 {
+        self.loft.pitch_axis_frac(r)
+    }
+
+    /// Webs, leading edge first.
+    pub fn webs(&self) -> &[WebSpec] {
+        &self.webs
+    }
+
+    /// The outline at `r` in chord fractions, resampled with `n_per_surface` intervals per
+    /// surface and blended between the neighbouring stations.
+    pub fn outline(&self, r: f64, n_per_surface: usize) -> Result<Outline, BladeError> {
+        self.check_span(r)?;
+        Ok(self.loft.outline(&self.stations, r, n_per_surface))
+    }
+
+    /// A chord-frame point `(y, z)` of the section at `r` in the rotor frame at pitch setting
+    /// `pitch`, m.
+    pub fn to_rotor_frame(&self, r: f64, yz: [f64; 2], pitch: Angle) -> [f64; 3] {
+        let phi = (self.twist(r) + pitch).rad();
+        let (s, c) = phi.sin_cos();
+        [r, yz[0] * c - yz[1] * s, yz[0] * s + yz[1] * c]
+    }
+
+    /// Warnings about the blade as a whole where beam theory is strained.
+    pub fn warnings(&self) -> Vec<String> {
+        let span = self.tip_radius() - self.root_radius();
+        let radii = self.analysis_radii(21);
+        let mean_chord = radii.iter().map(|&r| self.chord(r)).sum::<f64>() / radii.len() as f64;
+        let mut w = Vec::new();
+        if span < 3.0 * mean_chord {
+            w.push(format!(
+                "the blade is short and stubby: span {span:.3} m is {:.1} mean chords; beam theory \
+                 is strained below about 3 (common practice) — check stiffness and modes by test or \
+                 a finer model",
+                span / mean_chord
+            ));
+        }
+        w
+    }
+
+    fn check_span(&self, r: f64) -> Result<(), BladeError> {
+        let (root, tip) = (self.root_radius(), self.tip_radius());
+        if r < root - 1e-9 || r > tip + 1e-9 || !r.is_finite() {
+            return Err(BladeError::OutsideSpan { r, root, tip });
+        }
+        Ok(())
+    }
+
+    /// The line in stations.csv of the station nearest `r`.
+    fn nearest_station_line(&self, r: f64) -> usize {
+        self.stations
+            .iter()
+            .min_by(|a, b| (a.r - r).abs().total_cmp(&(b.r - r).abs()))
+            .map(|s| s.line)
+            .unwrap_or(0)
+    }
+}

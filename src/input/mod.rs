@@ -33,6 +33,8 @@ mod csv_table;
 mod location;
 mod materials;
 mod project;
+mod project_files;
+mod project_reader;
 mod toml_table;
 
 pub use csv_table::{CsvRecord, CsvTable};
@@ -40,6 +42,7 @@ pub use location::{InputError, Location, SourceText, closest, project_path};
 pub use materials::{read_materials, read_materials_str};
 pub use project::{
     AirfoilSpec, Criteria, DistributedLoadRow, LoadCaseSpec, ModalSpec, PlySpec, PointMass,
-    Project, Region, RootSprings, Rotor, SectionSpec, Station, ToolingSpec, WebSpec,
+    Project, ProjectFiles, Region, RootSprings, Rotor, SectionSpec, Station, ToolingSpec, WebSpec,
 };
+pub use project_reader::read_project;
 pub use toml_table::TableReader;

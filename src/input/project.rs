@@ -19,14 +19,19 @@ pub struct Project {
     pub dir: PathBuf,
     /// Display name of `blade.toml` for messages.
     pub file: String,
+    /// Display names of the files the project names, for messages.
+    pub files: ProjectFiles,
     /// Rotor data.
     pub rotor: Rotor,
     /// Stations, root to tip, strictly increasing in `r`.
     pub stations: Vec<Station>,
     /// Plies, outermost first.
     pub plies: Vec<PlySpec>,
-    /// Shear webs.
+    /// Shear webs, leading edge first.
     pub webs: Vec<WebSpec>,
+    /// Point masses fixed to the blade (balance weights, root fittings), in every load case and
+    /// in the modal model.
+    pub point_masses: Vec<PointMass>,
     /// Load cases.
     pub load_cases: Vec<LoadCaseSpec>,
     /// What the design check demands.
@@ -39,6 +44,17 @@ pub struct Project {
     pub sections: SectionSpec,
     /// The materials file.
     pub materials: MaterialLibrary,
+}
+
+/// Display names (paths as joined to the project folder) of a project's files.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct ProjectFiles {
+    /// The stations file.
+    pub stations: String,
+    /// The plies file.
+    pub plies: String,
+    /// The materials file.
+    pub materials: String,
 }
 
 /// The rotor the blade belongs to (`[rotor]`).
@@ -186,11 +202,10 @@ pub struct LoadCaseSpec {
     pub distributed: Vec<DistributedLoadRow>,
     /// The file the distributed loads came from, for messages.
     pub distributed_file: Option<String>,
-    /// Gravity vector in the rotor frame, m/s² (x radial along the blade, y in the plane of
-    /// rotation, z along the rotor axis, downwind), when gravity is included.
+    /// Gravity vector in the rotor frame, m/s² (see DEVELOPERS.md: x radial along the pitch
+    /// axis, y in the plane of rotation, z along the rotor axis downstream), when gravity is
+    /// included.
     pub gravity: Option<[f64; 3]>,
-    /// Point masses on the blade.
-    pub point_masses: Vec<PointMass>,
     /// Factor on all loads of the case (1 unless given).
     pub load_factor: f64,
     /// Uniform temperature change from the stress-free state, K (0 unless given).

@@ -308,7 +308,7 @@ impl<'s> TableReader<'s> {
     }
 
     /// Refuses any key that was not read, with the closest key that was asked for as a hint.
-    pub fn finish(self) -> Result<(), InputError> {
+    pub fn finish(&self) -> Result<(), InputError> {
         for ((key, value), used) in self.entries.iter().zip(&self.used) {
             if !used {
                 let hint = closest(key, self.asked.iter().map(String::as_str))

@@ -1,0 +1,134 @@
+//! Which plies cover a point: the laminate of a surface point or a web at a radius.
+
+use std::fmt;
+
+use super::{Blade, ResolvedPly};
+use crate::input::Region;
+use crate::laminate::{Laminate, Ply};
+
+/// A surface of the blade.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Surface {
+    /// Upper (suction) surface, `z > 0` in the chord frame.
+    Upper,
+    /// Lower (pressure) surface.
+    Lower,
+}
+
+impl fmt::Display for Surface {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(match self {
+            Surface::Upper => "upper",
+            Surface::Lower => "lower",
+        })
+    }
+}
+
+/// Tolerance on radii and chord fractions at range ends.
+const EPS: f64 = 1e-9;
+
+fn covers_span(p: &ResolvedPly, r: f64, tip: f64) -> bool {
+    let s = &p.spec;
+    (r >= s.r_start - EPS && r < s.r_end - EPS) || (r >= tip - EPS && s.r_end >= tip - EPS)
+}
+
+fn covers_chord(p: &ResolvedPly, x: f64) -> bool {
+    let s = &p.spec;
+    (x >= s.from - EPS && x < s.to - EPS) || (x >= 1.0 - EPS && s.to >= 1.0 - EPS)
+}
+
+impl Blade {
+    /// Indices (in `plies.csv` order, outermost first) of the plies covering a surface point.
+    pub(crate) fn surface_ply_indices(&self, r: f64, surface: Surface, x: f64) -> Vec<usize> {
+        let tip = self.tip_radius();
+        self.plies
+            .iter()
+            .enumerate()
+            .filter(|(_, p)| {
+                let on_surface = match (&p.spec.region, surface) {
+                    (Region::Both, _) => true,
+                    (Region::Upper, Surface::Upper) | (Region::Lower, Surface::Lower) => true,
+                    _ => false,
+                };
+                on_surface && covers_span(p, r, tip) && covers_chord(p, x)
+            })
+            .map(|(i, _)| i)
+            .collect()
+    }
+
+    /// Indices of the plies of a web at a radius.
+    pub(crate) fn web_ply_indices(&self, r: f64, web: &str) -> Vec<usize> {
+        let tip = self.tip_radius();
+        self.plies
+            .iter()
+            .enumerate()
+            .filter(|(_, p)| {
+                matches!(&p.spec.region, Region::Web(w) if w == web) && covers_span(p, r, tip)
+            })
+            .map(|(i, _)| i)
+            .collect()
+    }
+
+    /// The laminate made of the given plies, in order.
+    pub(crate) fn laminate_of(&self, indices: &[usize]) -> Laminate {
+        Laminate::new(
+            indices
+                .iter()
+                .map(|&i| Ply::new(self.plies[i].material.clone(), self.plies[i].spec.angle))
+                .collect(),
+        )
+    }
+
+    /// The laminate of a surface point at radius `r` and chord fraction `x` (outermost ply first).
+    pub fn surface_laminate(&self, r: f64, surface: Surface, x: f64) -> Laminate {
+        self.laminate_of(&self.surface_ply_indices(r, surface, x))
+    }
+
+    /// Total laminate thickness of a surface point, m.
+    pub fn surface_thickness(&self, r: f64, surface: Surface, x: f64) -> f64 {
+        self.surface_ply_indices(r, surface, x)
+            .iter()
+            .map(|&i| self.plies[i].material.ply_thickness)
+            .sum()
+    }
+
+    /// The laminate of a web at radius `r`; empty where the web has no plies.
+    pub fn web_laminate(&self, r: f64, web: &str) -> Laminate {
+        self.laminate_of(&self.web_ply_indices(r, web))
+    }
+
+    /// Mass per unit length of the laminates by ply areas times densities at radius `r`, kg/m,
+    /// integrated over the outline with `n_per_surface` intervals per surface (walls at the outer
+    /// mould line, webs over the local depth): the check that the section solver's mass agrees.
+    pub fn ply_mass_per_length(
+        &self,
+        r: f64,
+        n_per_surface: usize,
+    ) -> Result<f64, super::BladeError> {
+        let outline = self.outline(r, n_per_surface)?;
+        let c = self.chord(r);
+        let mut m = 0.0;
+        for (surface, pts) in [(Surface::Upper, &outline.upper), (Surface::Lower, &outline.lower)] {
+            for w in pts.windows(2) {
+                let x = 0.5 * (w[0][0] + w[1][0]);
+                let len = c * (w[1][0] - w[0][0]).hypot(w[1][1] - w[0][1]);
+                m += len * self.surface_laminate(r, surface, x).areal_mass();
+            }
+        }
+        if outline.blunt_te() {
+            let (u, l) =
+                (outline.upper[outline.upper.len() - 1], outline.lower[outline.lower.len() - 1]);
+            m += c
+                * (u[0] - l[0]).hypot(u[1] - l[1])
+                * self.surface_laminate(r, Surface::Upper, 1.0).areal_mass();
+        }
+        for web in self.webs.iter().filter(|w| r >= w.r_start - EPS && r <= w.r_end + EPS) {
+            let depth = outline.depth_at(web.chord_frac) * c;
+            let lam = self.web_laminate(r, &web.name);
+            let walls = self.surface_thickness(r, Surface::Upper, web.chord_frac)
+                + self.surface_thickness(r, Surface::Lower, web.chord_frac);
+            m += (depth - walls).max(0.0) * lam.areal_mass();
+        }
+        Ok(m)
+    }
+}

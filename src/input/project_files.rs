@@ -1,0 +1,261 @@
+//! The CSV files of a blade project: `stations.csv`, `plies.csv` and distributed load files.
+
+use std::path::Path;
+
+use super::csv_table::{CsvRecord, CsvTable};
+use super::location::{InputError, Location, closest};
+use super::project::*;
+use crate::material::MaterialLibrary;
+use crate::units::Angle;
+
+/// Tolerance on radii when comparing against the blade's span, m.
+const R_EPS: f64 = 1e-9;
+
+/// `stations.csv`: `r_m, chord_m, twist_deg, pitch_axis_frac, airfoil`.
+pub(super) fn read_stations(dir: &Path, file: &str) -> Result<Vec<Station>, InputError> {
+    let path = dir.join(file);
+    let display = path.display().to_string();
+    let table = CsvTable::read(&path, &display)?;
+    table.check_columns(&["r_m", "chord_m", "twist_deg", "pitch_axis_frac", "airfoil"], &[])?;
+    if table.len() < 2 {
+        return Err(InputError::at(
+            Location::file(display),
+            format!("expected at least two stations (root and tip), found {}", table.len()),
+        ));
+    }
+    let mut stations: Vec<Station> = Vec::with_capacity(table.len());
+    for rec in table.records() {
+        let r = rec.number("r_m")?;
+        if let Some(prev) = stations.last() {
+            if r <= prev.r {
+                return Err(rec.error(
+                    "r_m",
+                    format!(
+                        "radii must increase from root to tip: found {r} after {} (line {})",
+                        prev.r, prev.line
+                    ),
+                ));
+            }
+        }
+        if r < 0.0 {
+            return Err(rec.error("r_m", format!("expected a radius of zero or more, found {r}")));
+        }
+        let chord = rec.number("chord_m")?;
+        if chord <= 0.0 {
+            return Err(rec.error("chord_m", format!("expected a positive chord, found {chord}")));
+        }
+        let twist = rec.number("twist_deg")?;
+        if twist.abs() > 90.0 {
+            return Err(rec.error(
+                "twist_deg",
+                format!("expected a twist within -90..90 degrees, found {twist}"),
+            ));
+        }
+        let pa = rec.number("pitch_axis_frac")?;
+        if !(pa > 0.0 && pa < 1.0) {
+            return Err(rec.error(
+                "pitch_axis_frac",
+                format!("the pitch axis lies outside the chord: expected a fraction between 0 and 1, found {pa}"),
+            ));
+        }
+        let airfoil = parse_airfoil(&rec, dir)?;
+        stations.push(Station {
+            r,
+            chord,
+            twist: Angle::from_deg(twist),
+            pitch_axis_frac: pa,
+            airfoil,
+            line: rec.line,
+        });
+    }
+    Ok(stations)
+}
+
+/// `0012`, `naca0012`, `NACA 4412`, with `-closed` for a closed trailing edge; anything else is
+/// a coordinate file relative to the project folder.
+fn parse_airfoil(rec: &CsvRecord<'_>, dir: &Path) -> Result<AirfoilSpec, InputError> {
+    let text = rec.required_text("airfoil")?;
+    let lower = text.to_ascii_lowercase();
+    let (body, closed_te) = match lower.strip_suffix("-closed") {
+        Some(b) => (b.to_string(), true),
+        None => (lower.clone(), false),
+    };
+    let digits = body.trim_start_matches("naca").trim();
+    let looks_naca = lower.starts_with("naca")
+        || (digits.len() == 4 && digits.chars().all(|c| c.is_ascii_digit()));
+    if looks_naca {
+        crate::airfoil::Naca4::parse(digits, closed_te)
+            .map_err(|e| rec.error("airfoil", e.to_string()))?;
+        return Ok(AirfoilSpec::Naca4 { code: digits.to_string(), closed_te });
+    }
+    let path = dir.join(text);
+    if !path.is_file() {
+        return Err(rec.error(
+            "airfoil",
+            format!(
+                "'{text}' is neither a NACA 4-digit code (such as naca0012) nor a coordinate file next to the project (no file {})",
+                path.display()
+            ),
+        ));
+    }
+    Ok(AirfoilSpec::File(path))
+}
+
+/// `plies.csv`: `ply, material, angle_deg, r_start_m, r_end_m, region, from, to`.
+pub(super) fn read_plies(
+    dir: &Path,
+    file: &str,
+    materials: &MaterialLibrary,
+    webs: &[WebSpec],
+    r_root: f64,
+    r_tip: f64,
+) -> Result<Vec<PlySpec>, InputError> {
+    let path = dir.join(file);
+    let display = path.display().to_string();
+    let table = CsvTable::read(&path, &display)?;
+    table.check_columns(
+        &["ply", "material", "angle_deg", "r_start_m", "r_end_m", "region", "from", "to"],
+        &[],
+    )?;
+    if table.is_empty() {
+        return Err(InputError::at(
+            Location::file(display),
+            "expected at least one ply, found none",
+        ));
+    }
+    let mut plies = Vec::with_capacity(table.len());
+    for rec in table.records() {
+        let id = rec.required_text("ply")?.to_string();
+        let material = rec.required_text("material")?.to_string();
+        if let Err(e) = materials.ply_material(&material) {
+            return Err(rec.error("material", e.to_string()));
+        }
+        let angle = rec.number("angle_deg")?;
+        if angle.abs() > 90.0 {
+            return Err(rec.error(
+                "angle_deg",
+                format!("expected a ply angle within -90..90 degrees, found {angle}"),
+            ));
+        }
+        let r_start = rec.number("r_start_m")?;
+        let r_end = rec.number("r_end_m")?;
+        if r_start >= r_end {
+            return Err(rec.error(
+                "r_end_m",
+                format!("expected r_end_m above r_start_m = {r_start}, found {r_end}"),
+            ));
+        }
+        if r_start < r_root - R_EPS || r_end > r_tip + R_EPS {
+            return Err(rec.error(
+                if r_start < r_root - R_EPS { "r_start_m" } else { "r_end_m" },
+                format!(
+                    "ply '{id}' covers r = {r_start}..{r_end} m, outside the blade ({r_root}..{r_tip} m)"
+                ),
+            ));
+        }
+        let region_text = rec.required_text("region")?;
+        let region = match region_text {
+            "upper" => Region::Upper,
+            "lower" => Region::Lower,
+            "both" => Region::Both,
+            other => match other.strip_prefix("web:") {
+                Some(name) => {
+                    let web = webs.iter().find(|w| w.name == name).ok_or_else(|| {
+                        let hint = closest(name, webs.iter().map(|w| w.name.as_str()))
+                            .map(|h| format!("; did you mean 'web:{h}'?"))
+                            .unwrap_or_else(|| {
+                                "; define it with a [[web]] table in blade.toml".to_string()
+                            });
+                        rec.error("region", format!("no web named '{name}'{hint}"))
+                    })?;
+                    if r_start < web.r_start - R_EPS || r_end > web.r_end + R_EPS {
+                        return Err(rec.error(
+                            "r_start_m",
+                            format!(
+                                "ply '{id}' covers r = {r_start}..{r_end} m but web '{name}' only spans {}..{} m",
+                                web.r_start, web.r_end
+                            ),
+                        ));
+                    }
+                    Region::Web(name.to_string())
+                }
+                None => {
+                    return Err(rec.error(
+                        "region",
+                        format!("expected upper, lower, both or web:NAME, found '{other}'"),
+                    ));
+                }
+            },
+        };
+        let (from, to) = match region {
+            Region::Web(_) => (
+                rec.optional_number("from")?.unwrap_or(0.0),
+                rec.optional_number("to")?.unwrap_or(1.0),
+            ),
+            _ => (rec.number("from")?, rec.number("to")?),
+        };
+        if !(0.0..=1.0).contains(&from) || !(0.0..=1.0).contains(&to) || from >= to {
+            return Err(rec.error(
+                "from",
+                format!(
+                    "expected chord fractions 0 <= from < to <= 1, found from = {from}, to = {to}"
+                ),
+            ));
+        }
+        plies.push(PlySpec {
+            id,
+            material,
+            angle: Angle::from_deg(angle),
+            r_start,
+            r_end,
+            region,
+            from,
+            to,
+            line: rec.line,
+        });
+    }
+    Ok(plies)
+}
+
+/// A distributed load file: `r_m, f_flap_N_m, f_edge_N_m, m_pitch_Nm_m`.
+pub(super) fn read_distributed(
+    dir: &Path,
+    file: &str,
+    r_root: f64,
+    r_tip: f64,
+) -> Result<Vec<DistributedLoadRow>, InputError> {
+    let path = dir.join(file);
+    let display = path.display().to_string();
+    let table = CsvTable::read(&path, &display)?;
+    table.check_columns(&["r_m", "f_flap_N_m", "f_edge_N_m"], &["m_pitch_Nm_m"])?;
+    if table.len() < 2 {
+        return Err(InputError::at(
+            Location::file(display),
+            format!("expected at least two rows of distributed load, found {}", table.len()),
+        ));
+    }
+    let mut rows: Vec<DistributedLoadRow> = Vec::with_capacity(table.len());
+    for rec in table.records() {
+        let r = rec.number("r_m")?;
+        if r < r_root - R_EPS || r > r_tip + R_EPS {
+            return Err(rec.error(
+                "r_m",
+                format!("the load runs outside the blade: expected a radius in {r_root}..{r_tip} m, found {r}"),
+            ));
+        }
+        if let Some(prev) = rows.last() {
+            if r <= prev.r {
+                return Err(
+                    rec.error("r_m", format!("radii must increase: found {r} after {}", prev.r))
+                );
+            }
+        }
+        rows.push(DistributedLoadRow {
+            r,
+            f_flap: rec.number("f_flap_N_m")?,
+            f_edge: rec.number("f_edge_N_m")?,
+            m_pitch: rec.optional_number("m_pitch_Nm_m")?.unwrap_or(0.0),
+        });
+    }
+    Ok(rows)
+}

@@ -1,0 +1,94 @@
+//! The blade project reader and the lofted blade: interpolation, ply coverage, section layouts.
+
+use layloft::blade::{Blade, BladeError, Surface};
+use layloft::input::read_project;
+
+fn fixture() -> Blade {
+    let p = read_project("tests/data/blade-basic/blade.toml".as_ref()).unwrap();
+    Blade::from_project(&p).unwrap()
+}
+
+#[test]
+fn fixture_project_reads_with_defaults() {
+    let p = read_project("tests/data/blade-basic/blade.toml".as_ref()).unwrap();
+    assert_eq!(p.stations.len(), 3);
+    assert_eq!(p.plies.len(), 3);
+    assert_eq!(p.webs[0].r_start, 0.5);
+    assert_eq!(p.webs[0].r_end, 2.5);
+    assert_eq!(p.criteria.harmonics, 12);
+    assert!(p.tooling.is_none());
+    assert_eq!(p.load_cases[0].load_factor, 1.0);
+}
+
+#[test]
+fn ply_coverage_follows_the_schedule() {
+    let b = fixture();
+    // Cap (2 mm carbon) on the upper surface between 20 % and 40 % chord, inboard of r = 1.5.
+    assert!((b.surface_thickness(1.0, Surface::Upper, 0.3) - 3e-3).abs() < 1e-12);
+    assert!((b.surface_thickness(1.0, Surface::Lower, 0.3) - 1e-3).abs() < 1e-12);
+    assert!((b.surface_thickness(1.0, Surface::Upper, 0.5) - 1e-3).abs() < 1e-12);
+    // The cap drops off at r = 1.5.
+    assert!((b.surface_thickness(1.5, Surface::Upper, 0.3) - 1e-3).abs() < 1e-12);
+    // The skin covers the tip.
+    assert!((b.surface_thickness(2.5, Surface::Lower, 1.0) - 1e-3).abs() < 1e-12);
+    // Outermost first: the skin is ply 1, the cap ply 2.
+    let lam = b.surface_laminate(1.0, Surface::Upper, 0.3);
+    assert_eq!(lam.plies()[0].material.name, "glass");
+    assert_eq!(lam.plies()[1].material.name, "carbon");
+}
+
+#[test]
+fn section_layout_is_a_closed_contour_with_a_laminate_per_segment() {
+    let b = fixture();
+    let layout = b.section_layout(1.0, 200).unwrap();
+    assert_eq!(layout.outer.len(), layout.segment_laminate.len());
+    // The NACA 0015 open trailing edge gives a blunt base: 101 upper + 100 lower points.
+    assert_eq!(layout.outer.len(), 201);
+    // Leading edge at y = -0.3 c on the pitch axis frame, trailing edge at +0.7 c.
+    assert!((layout.outer[0][0] + 0.12).abs() < 1e-12 && layout.outer[0][1].abs() < 1e-12);
+    assert!((layout.outer[100][0] - 0.28).abs() < 1e-3);
+    // Distinct laminates: skin, skin + cap, web.
+    assert_eq!(layout.laminates.len(), 3);
+    assert_eq!(layout.webs.len(), 1);
+    assert!((layout.webs[0].y - 0.0).abs() < 1e-12);
+    // Contour runs over the upper surface first (z > 0 at the quarter of the points).
+    assert!(layout.outer[50][1] > 0.0 && layout.outer[150][1] < 0.0);
+}
+
+#[test]
+fn section_mass_by_ply_areas() {
+    // Outer-line integral of areal mass: skin 2 kg/m² (1 mm glass at 2000 kg/m³) round the
+    // NACA 0015 perimeter (2.0493 c by the same outline) plus cap 3.1 kg/m² over 0.2 c of the
+    // upper surface plus the web; a hand estimate within 1 %.
+    let b = fixture();
+    let m = b.ply_mass_per_length(1.0, 200).unwrap();
+    let c = 0.4;
+    let outline = b.outline(1.0, 200).unwrap();
+    let skin = 2.0 * outline.perimeter_without_base() * c;
+    let cap_len = c * 0.2 * 1.0012; // arc length over 20..40 % chord, nearly flat there
+    let cap = 3.1 * cap_len;
+    let web_depth = outline.depth_at(0.3) * c - 3e-3 - 1e-3;
+    let web = 2.0 * web_depth;
+    let estimate = skin + cap + web;
+    assert!((m - estimate).abs() / estimate < 0.01, "{m} vs {estimate}");
+}
+
+#[test]
+fn radius_outside_the_blade_is_refused() {
+    let b = fixture();
+    match b.section_layout(2.6, 100) {
+        Err(BladeError::OutsideSpan { r, .. }) => assert_eq!(r, 2.6),
+        other => panic!("expected OutsideSpan, got {other:?}"),
+    }
+}
+
+#[test]
+fn interpolation_between_stations_is_monotone() {
+    let p = read_project("tests/data/blade-basic/blade.toml".as_ref()).unwrap();
+    let b = Blade::from_project(&p).unwrap();
+    for i in 0..=20 {
+        let r = 0.5 + 0.1 * i as f64;
+        assert!((b.chord(r) - 0.4).abs() < 1e-12);
+        assert!(b.twist(r).deg().abs() < 1e-12);
+    }
+}
