@@ -95,7 +95,7 @@ mod tests {
         assert!((peak - 0.30).abs() < 0.01, "{peak}");
         assert!((s.half_thickness(peak) - 0.06).abs() < 1e-4);
         // Open trailing edge thickness 2 y_t(1) = 10 t (0.2969 - 0.126 - 0.3516 + 0.2843 - 0.1015).
-        assert!((2.0 * s.half_thickness(1.0) - 0.12 * 0.0126).abs() < 1e-12);
+        assert!((2.0 * s.half_thickness(1.0) - 10.0 * 0.12 * 0.0021).abs() < 1e-12);
         let closed = Naca4::parse("0012", true).unwrap();
         assert!(closed.half_thickness(1.0).abs() < 1e-4);
     }

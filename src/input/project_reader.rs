@@ -355,7 +355,9 @@ fn read_tooling(
     let tolerance = match t.optional_f64("tolerance_mm")? {
         Some(v) if v > 0.0 => v * MM,
         Some(v) => {
-            return Err(t.error("tolerance_mm", format!("expected a positive tolerance, found {v}")));
+            return Err(
+                t.error("tolerance_mm", format!("expected a positive tolerance, found {v}"))
+            );
         }
         None => d.tolerance,
     };

@@ -303,6 +303,17 @@ impl<'s> TableReader<'s> {
     }
 
     fn missing(&self, key: &str, what: impl std::fmt::Display) -> InputError {
+        // A misspelling of the missing key is the likelier fault: point at it.
+        let unused = self.entries.iter().zip(&self.used).filter(|(_, used)| !**used);
+        for ((other, value), _) in unused {
+            if closest(other, std::iter::once(key)).is_some() {
+                let loc = self.source.location(value.span().start).with_field(self.full_key(other));
+                return InputError::at(
+                    loc,
+                    format!("unknown key '{other}'; did you mean '{key}'?"),
+                );
+            }
+        }
         let loc = self.location().with_field(self.full_key(key));
         InputError::at(loc, format!("missing key: expected {what}"))
     }
