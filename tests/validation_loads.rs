@@ -1,0 +1,165 @@
+//! Load resultants and deflections against closed-form statics.
+
+mod support;
+
+use approx::assert_relative_eq;
+use layloft::input::{DistributedLoadRow, LoadCaseSpec, PointMass};
+use layloft::loads::{LoadDistribution, span_loads, tip_deflection};
+use layloft::section::MassInertia;
+use layloft::units::{Angle, rpm_to_rad_s};
+use support::{beam_section, uniform_blade};
+
+fn case(rpm: f64) -> LoadCaseSpec {
+    LoadCaseSpec {
+        name: "test".into(),
+        rpm,
+        pitch: None,
+        distributed: Vec::new(),
+        distributed_file: None,
+        gravity: None,
+        load_factor: 1.0,
+        delta_t: 0.0,
+    }
+}
+
+fn plain(r: f64, m: f64) -> layloft::section::SectionProperties {
+    beam_section(r, 1e8, 1e4, 1e5, 1e6, m, [0.0, 0.0], MassInertia::default(), 0.0)
+}
+
+#[test]
+fn centrifugal_tension_of_a_uniform_bar() {
+    // N(r) = m Omega² (R² - r²) / 2 with r from the rotor axis: direct integration of the
+    // centrifugal force density m Omega² rho (e.g. Timoshenko, Strength of Materials, Part II,
+    // rotating bar; from memory). Simpson's rule on a linear density is exact.
+    let (m, r0, r1) = (3.0, 0.4, 2.0);
+    let sections = uniform_blade(r0, r1, 9, |r| plain(r, m));
+    let c = case(600.0);
+    let loads = span_loads(&LoadDistribution::new(&sections, &[], &c, Angle::ZERO).unwrap());
+    let w = rpm_to_rad_s(600.0);
+    for (r, res) in loads.r.iter().zip(&loads.rotor) {
+        let exact = m * w * w * (r1 * r1 - r * r) / 2.0;
+        assert_relative_eq!(res.force[0], exact, max_relative = 1e-12, epsilon = 1e-9);
+        assert_relative_eq!(loads.chord_at(*r).n, exact, max_relative = 1e-12, epsilon = 1e-9);
+    }
+}
+
+#[test]
+fn cantilever_under_uniform_and_tip_loads() {
+    // Cantilever of length L under uniform load w: V(x) = w (L - x), M(x) = w (L - x)² / 2; tip
+    // load P: V = P, M = P (L - x) (Roark's Formulas for Stress and Strain, 7th ed., 2002,
+    // Table 8.1 cases 1a and 2a; from memory). Tip deflections P L³ / (3 EI) and
+    // w L⁴ / (8 EI) (same table).
+    let (r0, r1, ei) = (1.0, 3.0, 2.0e5);
+    let len = r1 - r0;
+    let sections = uniform_blade(r0, r1, 5, |r| {
+        beam_section(r, 1e9, 1e5, ei, 1e9, 1e-9, [0.0, 0.0], MassInertia::default(), 0.0)
+    });
+    let w = 120.0;
+    let mut c = case(0.0);
+    c.distributed = vec![
+        DistributedLoadRow { r: r0, f_flap: w, f_edge: 0.0, m_pitch: 0.0 },
+        DistributedLoadRow { r: r1, f_flap: w, f_edge: 0.0, m_pitch: 0.0 },
+    ];
+    let loads = span_loads(&LoadDistribution::new(&sections, &[], &c, Angle::ZERO).unwrap());
+    for (r, res) in loads.r.iter().zip(&loads.rotor) {
+        let x = r - r0;
+        assert_relative_eq!(res.force[2], w * (len - x), max_relative = 1e-12, epsilon = 1e-9);
+        // Force along +Z outboard: the moment about +Y of (rho - r) x f_Z is -(rho - r) f_Z.
+        assert_relative_eq!(
+            res.moment[1],
+            -w * (len - x).powi(2) / 2.0,
+            max_relative = 1e-12,
+            epsilon = 1e-9
+        );
+    }
+    let fine =
+        span_loads(&LoadDistribution::new(&sections, &[], &c, Angle::ZERO).unwrap().refine(64));
+    let d = tip_deflection(&sections, &fine).unwrap();
+    assert_relative_eq!(d.out_of_plane, w * len.powi(4) / (8.0 * ei), max_relative = 1e-3);
+
+    // Tip load: a point mass under gravity along +Z at the tip.
+    let mut c = case(0.0);
+    c.gravity = Some([0.0, 0.0, 9.81]);
+    let pm = PointMass { name: "tip".into(), r: r1, mass: 10.0, y: 0.0, z: 0.0 };
+    let loads =
+        span_loads(&LoadDistribution::new(&sections, &[pm.clone()], &c, Angle::ZERO).unwrap());
+    let p = 98.1;
+    for (r, res) in loads.r.iter().zip(&loads.rotor) {
+        assert_relative_eq!(res.force[2], p, max_relative = 1e-9);
+        assert_relative_eq!(res.moment[1], -p * (r1 - r), max_relative = 1e-9, epsilon = 1e-9);
+    }
+    let fine =
+        span_loads(&LoadDistribution::new(&sections, &[pm], &c, Angle::ZERO).unwrap().refine(64));
+    let d = tip_deflection(&sections, &fine).unwrap();
+    assert_relative_eq!(d.out_of_plane, p * len.powi(3) / (3.0 * ei), max_relative = 1e-3);
+}
+
+#[test]
+fn centrifugal_twisting_moment_of_a_flat_plate() {
+    // A thin flat plate of chord c and thickness t at angle beta to the plane of rotation feels
+    // a moment about its spanwise axis M = -(Omega² / 2) (I_c - I_t) sin 2 beta per unit length,
+    // with I_c = rho t c³ / 12 and I_t = rho c t³ / 12 the mass moments about the chord and
+    // thickness axes: the steady propeller moment of the torsion equation of Houbolt & Brooks,
+    // NACA Report 1346 (1958) (from memory). It turns the chord towards the plane of rotation.
+    let (rho, c, t): (f64, f64, f64) = (1600.0, 0.2, 0.004);
+    let m = rho * c * t;
+    let i_c = rho * t * c.powi(3) / 12.0;
+    let i_t = rho * c * t.powi(3) / 12.0;
+    let inertia = MassInertia { flap: i_t, edge: i_c, polar: i_c + i_t, product: 0.0 };
+    let (r0, r1) = (0.3, 1.1);
+    let sections = uniform_blade(r0, r1, 5, |r| {
+        beam_section(r, 1e8, 1e4, 1e5, 1e6, m, [0.0, 0.0], inertia, 0.0)
+    });
+    let c_spin = case(1200.0);
+    let w = rpm_to_rad_s(1200.0);
+    for beta in [10.0f64, 30.0, 45.0, 70.0] {
+        let loads = span_loads(
+            &LoadDistribution::new(&sections, &[], &c_spin, Angle::from_deg(beta)).unwrap(),
+        );
+        let exact = -0.5 * w * w * (i_c - i_t) * (2.0 * beta.to_radians()).sin() * (r1 - r0);
+        assert_relative_eq!(loads.root().moment[0], exact, max_relative = 1e-10);
+    }
+}
+
+#[test]
+fn root_reaction_matches_the_total_applied_load() {
+    // Statics: the root force equals the integral of the applied loads (here checked by a fine
+    // independent midpoint sum) and the point loads.
+    let (r0, r1) = (0.5, 2.5);
+    let sections = uniform_blade(r0, r1, 11, |r| {
+        beam_section(
+            r,
+            1e8,
+            1e4,
+            1e5,
+            1e6,
+            2.0 + r,
+            [0.01 * r, -0.005],
+            MassInertia::default(),
+            20.0 - 5.0 * r,
+        )
+    });
+    let mut c = case(300.0);
+    c.gravity = Some([0.0, -9.81, 0.0]);
+    c.load_factor = 1.5;
+    c.distributed = vec![
+        DistributedLoadRow { r: 0.5, f_flap: 100.0, f_edge: 20.0, m_pitch: 1.0 },
+        DistributedLoadRow { r: 1.7, f_flap: 300.0, f_edge: 50.0, m_pitch: 2.0 },
+        DistributedLoadRow { r: 2.5, f_flap: 400.0, f_edge: 60.0, m_pitch: 0.5 },
+    ];
+    let loads =
+        span_loads(&LoadDistribution::new(&sections, &[], &c, Angle::from_deg(3.0)).unwrap());
+    let w = rpm_to_rad_s(300.0);
+    let n = 20_000;
+    let h = (r1 - r0) / n as f64;
+    let (mut fx, mut fz) = (0.0, 0.0);
+    for i in 0..n {
+        let r = r0 + (i as f64 + 0.5) * h;
+        fx += 1.5 * (2.0 + r) * w * w * r * h;
+        let flap =
+            if r < 1.7 { 100.0 + (r - 0.5) / 1.2 * 200.0 } else { 300.0 + (r - 1.7) / 0.8 * 100.0 };
+        fz += 1.5 * flap * h;
+    }
+    assert_relative_eq!(loads.root().force[0], fx, max_relative = 1e-6);
+    assert_relative_eq!(loads.root().force[2], fz, max_relative = 1e-6);
+}
