@@ -92,3 +92,18 @@ fn interpolation_between_stations_is_monotone() {
         assert!(b.twist(r).deg().abs() < 1e-12);
     }
 }
+
+#[test]
+fn demo_projects_build_every_section() {
+    for demo in ["layups/small-wind/blade.toml"] {
+        let p = read_project(demo.as_ref()).unwrap_or_else(|e| panic!("{demo}: {e}"));
+        let b = Blade::from_project(&p).unwrap();
+        for r in b.analysis_radii(41) {
+            let layout = b
+                .section_layout(r, p.sections.contour_points)
+                .unwrap_or_else(|e| panic!("{demo}: {e}"));
+            assert!(layout.laminates.iter().all(|l| !l.is_empty()));
+        }
+        assert!(b.warnings().is_empty(), "{:?}", b.warnings());
+    }
+}

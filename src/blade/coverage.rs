@@ -34,6 +34,8 @@ fn covers_span(p: &ResolvedPly, r: f64, tip: f64) -> bool {
 
 fn covers_chord(p: &ResolvedPly, x: f64) -> bool {
     let s = &p.spec;
+    // The upper surface of a cambered section reaches slightly ahead of the chord line's end.
+    let x = x.clamp(0.0, 1.0);
     (x >= s.from - EPS && x < s.to - EPS) || (x >= 1.0 - EPS && s.to >= 1.0 - EPS)
 }
 
