@@ -47,6 +47,7 @@
 
 pub mod airfoil;
 pub mod blade;
+pub mod check;
 mod error;
 pub mod failure;
 pub mod input;
