@@ -5,3 +5,6 @@
 mod write;
 
 pub use write::{write_atomic, write_atomic_with};
+mod laminate;
+
+pub use laminate::LaminateReport;
