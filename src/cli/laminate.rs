@@ -66,7 +66,7 @@ pub struct Args {
     pub delta_t: Option<String>,
 
     /// Thickness of every ply in mm, in place of the materials' cured ply thickness.
-    #[arg(long = "ply-thickness-mm", value_name = "MM")]
+    #[arg(long = "ply-thickness-mm", value_name = "MM", allow_hyphen_values = true)]
     pub ply_thickness_mm: Option<String>,
 
     /// Write one JSON object on stdout (SI units in every key) instead of the summary.

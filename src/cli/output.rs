@@ -37,8 +37,14 @@ impl Output {
     pub fn error(&self, e: &anyhow::Error) {
         let mut err = std::io::stderr().lock();
         let _ = writeln!(err, "{} {e}", self.paint("1;31", "layloft: error:"));
+        let mut said = e.to_string();
         for cause in e.chain().skip(1) {
-            let _ = writeln!(err, "  caused by: {cause}");
+            // A message that already quotes its cause (`{source}` in the text) says it once.
+            let text = cause.to_string();
+            if !said.contains(&text) {
+                let _ = writeln!(err, "  caused by: {text}");
+                said.push_str(&text);
+            }
         }
     }
 
