@@ -52,9 +52,8 @@ fn cases() -> Vec<PathBuf> {
 
 /// Runs one case; returns what went wrong, if anything.
 fn check(case: &Path) -> Result<(), String> {
-    let read = |f: &str| {
-        fs::read_to_string(case.join(f)).map_err(|e| format!("cannot read {f}: {e}"))
-    };
+    let read =
+        |f: &str| fs::read_to_string(case.join(f)).map_err(|e| format!("cannot read {f}: {e}"));
     let args = split_args(read("args")?.lines().next().unwrap_or_default())?;
     let expected = read("expected")?;
     let out = Command::cargo_bin("layloft")
