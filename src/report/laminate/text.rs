@@ -45,6 +45,15 @@ fn wrap(out: &mut String, first: &str, indent: &str, text: &str, width: usize) {
     let _ = writeln!(out, "{}", line.trim_end());
 }
 
+/// Fixed `digits` decimals, without a "-0.00" for a value that rounds to zero.
+fn fixed(v: f64, digits: usize) -> String {
+    let s = format!("{v:.digits$}");
+    match s.strip_prefix('-') {
+        Some(rest) if rest.chars().all(|c| c == '0' || c == '.') => rest.to_string(),
+        _ => s,
+    }
+}
+
 fn short_mode(m: FailureMode) -> &'static str {
     match m {
         FailureMode::FibreTension => "FT",
@@ -138,13 +147,13 @@ pub(super) fn report(r: &LaminateReport) -> String {
     for (i, (p, (zt, zb))) in lam.plies().iter().zip(lam.ply_bounds()).enumerate() {
         let _ = writeln!(
             out,
-            "  {:>4} {:>8}  {:<16} {:>8.4} {:>10.4} {:>12.4}",
+            "  {:>4} {:>8}  {:<16} {:>8} {:>10} {:>12}",
             i + 1,
             angle(p.angle.deg()),
             p.material.name,
-            p.thickness * 1e3,
-            zt * 1e3,
-            zb * 1e3
+            fixed(p.thickness * 1e3, 4),
+            fixed(zt * 1e3, 4),
+            fixed(zb * 1e3, 4)
         );
     }
 
@@ -232,13 +241,13 @@ pub(super) fn report(r: &LaminateReport) -> String {
                 (String::new(), String::new())
             };
             let line = format!(
-                "  {:>4} {:>7} {:<6} {:>9.2} {:>9.2} {:>9.2}  {}",
+                "  {:>4} {:>7} {:<6} {:>9} {:>9} {:>9}  {}",
                 ply_col,
                 angle_col,
                 name,
-                s.x,
-                s.y,
-                s.z,
+                fixed(s.x, 2),
+                fixed(s.y, 2),
+                fixed(s.z, 2),
                 cells.join(" ")
             );
             let _ = writeln!(out, "{}", line.trim_end());
@@ -284,7 +293,7 @@ pub(super) fn report(r: &LaminateReport) -> String {
 
 #[cfg(test)]
 mod tests {
-    use super::g;
+    use super::{fixed, g};
 
     #[test]
     fn numbers_read_with_four_significant_digits() {
@@ -294,5 +303,7 @@ mod tests {
         assert_eq!(g(-0.0), "0");
         assert_eq!(g(1.5e-6), "1.500e-6");
         assert_eq!(g(2.5e7), "2.500e7");
+        assert_eq!(fixed(-1e-19, 4), "0.0000");
+        assert_eq!(fixed(-0.25, 2), "-0.25");
     }
 }
