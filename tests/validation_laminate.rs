@@ -93,9 +93,9 @@ fn abd_of_kaw_example_4_2() {
     }
     // Sign of B in our convention: Kaw's B11 is -3.129e6 with z running from the top ply
     // downward; our z runs the other way, which negates B.
-    for i in 0..3 {
-        for j in 0..3 {
-            assert_relative_eq!(abd.b[(i, j)], -b[i][j], max_relative = 2e-3);
+    for (i, row) in b.iter().enumerate() {
+        for (j, kaw) in row.iter().enumerate() {
+            assert_relative_eq!(abd.b[(i, j)], -kaw, max_relative = 2e-3);
         }
     }
 }

@@ -1,5 +1,8 @@
 //! Where text goes: data on stdout, messages on stderr, colour only on a terminal.
 
+// Progress bars, notes and coloured tables serve commands still to come.
+#![allow(dead_code)]
+
 use std::io::{IsTerminal, Write};
 
 /// The terminal side of a run.

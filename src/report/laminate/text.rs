@@ -33,7 +33,7 @@ fn angle(deg: f64) -> String {
 fn wrap(out: &mut String, first: &str, indent: &str, text: &str, width: usize) {
     let mut line = first.to_string();
     for word in text.split_whitespace() {
-        if line.chars().count() + word.chars().count() + 1 > width && line.trim().len() > 0 {
+        if line.chars().count() + word.chars().count() + 1 > width && !line.trim().is_empty() {
             let _ = writeln!(out, "{}", line.trim_end());
             line = indent.to_string();
         }
@@ -213,17 +213,8 @@ pub(super) fn report(r: &LaminateReport) -> String {
     );
     let _ = writeln!(
         out,
-        "  {:>4} {:>7} {:<6} {:>9} {:>9} {:>9}  {:<10} {:<10} {:<10} {}",
-        "ply",
-        "angle°",
-        "face",
-        "sigma1",
-        "sigma2",
-        "tau12",
-        "Tsai-Wu",
-        "max stress",
-        "max strain",
-        "Hashin"
+        "  {:>4} {:>7} {:<6} {:>9} {:>9} {:>9}  {:<10} {:<10} {:<10} Hashin",
+        "ply", "angle°", "face", "sigma1", "sigma2", "tau12", "Tsai-Wu", "max stress", "max strain",
     );
     for (i, (state, ratios)) in resp.plies.iter().zip(&strength.plies).enumerate() {
         let angle = angle(lam.plies()[i].angle.deg());
