@@ -210,6 +210,7 @@ fn the_demo_materials_are_valid_and_a_hybrid_code_runs() {
     {
         assert!(out.contains(name), "{name} missing from\n{out}");
     }
+    assert!(out.contains("safety: contains lead and cadmium"), "{out}");
     let (code, v) = json(&[
         "laminate",
         "--materials",
