@@ -46,6 +46,11 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
                     .unwrap_or_default()
             ),
         };
+        if let Material::Isotropic(i) = m {
+            if let Some(note) = &i.safety_note {
+                let _ = writeln!(text, "             safety: {note}");
+            }
+        }
     }
     out.data(&text);
     Ok(Outcome::Success)

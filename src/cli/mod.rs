@@ -3,8 +3,10 @@
 //! Exit status: 0 success; 1 a design check failed; 2 invalid input or usage; 3 an output could
 //! not be written or a computation failed.
 
+mod laminate;
 mod materials;
 mod output;
+mod pairs;
 
 use std::process::ExitCode;
 
@@ -31,6 +33,7 @@ pub struct Cli {
 #[derive(Debug, Subcommand)]
 enum Command {
     Materials(materials::Args),
+    Laminate(laminate::Args),
 }
 
 /// How a command ended, other than by an error.
@@ -72,6 +75,7 @@ pub fn main() -> ExitCode {
     let out = Output::new(cli.quiet);
     let result = match cli.command {
         Command::Materials(args) => materials::run(args, &out),
+        Command::Laminate(args) => laminate::run(args, &out),
     };
     match result {
         Ok(Outcome::Success) => ExitCode::SUCCESS,

@@ -1,5 +1,8 @@
 //! Where text goes: data on stdout, messages on stderr, colour only on a terminal.
 
+// Progress bars, notes and coloured tables serve commands still to come.
+#![allow(dead_code)]
+
 use std::io::{IsTerminal, Write};
 
 /// The terminal side of a run.
@@ -37,8 +40,14 @@ impl Output {
     pub fn error(&self, e: &anyhow::Error) {
         let mut err = std::io::stderr().lock();
         let _ = writeln!(err, "{} {e}", self.paint("1;31", "layloft: error:"));
+        let mut said = e.to_string();
         for cause in e.chain().skip(1) {
-            let _ = writeln!(err, "  caused by: {cause}");
+            // A message that already quotes its cause (`{source}` in the text) says it once.
+            let text = cause.to_string();
+            if !said.contains(&text) {
+                let _ = writeln!(err, "  caused by: {text}");
+                said.push_str(&text);
+            }
         }
     }
 

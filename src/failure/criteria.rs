@@ -53,12 +53,6 @@ fn sign_change(p: f64, q: f64) -> Option<f64> {
     (q != 0.0 && r0 > 0.0 && r0.is_finite()).then_some(r0)
 }
 
-/// Sign of `p + R q` just after `r`.
-fn sign_after(p: f64, q: f64, r: f64) -> f64 {
-    let v = p + r * q;
-    if v != 0.0 { v.signum() } else { q.signum() }
-}
-
 fn mode_for(lamina: &Lamina, m: FailureMode) -> FailureMode {
     if lamina.kind == LaminaKind::Isotropic {
         match m {
@@ -196,15 +190,16 @@ fn signed_family(
     tension: Quadratic,
     compression: Quadratic,
 ) -> (Option<f64>, bool) {
-    let mut bounds = vec![0.0];
-    if let Some(r0) = sign_change(p, q) {
-        bounds.push(r0);
-    }
-    bounds.push(f64::INFINITY);
-    for w in bounds.windows(2) {
-        let tensile = sign_after(p, q, w[0]) >= 0.0;
+    // The sign on the first stretch is that of p (of q when p = 0); it flips at the sign
+    // change. Deciding it from p + R q at the boundary would let round-off pick the wrong form.
+    let first_tensile = if p != 0.0 { p > 0.0 } else { q >= 0.0 };
+    let windows = match sign_change(p, q) {
+        Some(r0) => vec![(0.0, r0, first_tensile), (r0, f64::INFINITY, !first_tensile)],
+        None => vec![(0.0, f64::INFINITY, first_tensile)],
+    };
+    for (lo, hi, tensile) in windows {
         let quad = if tensile { tension } else { compression };
-        if let Some(r) = quad.first_failure(w[0], w[1]) {
+        if let Some(r) = quad.first_failure(lo, hi) {
             return (Some(r), tensile);
         }
     }
@@ -265,6 +260,38 @@ pub fn hashin(lamina: &Lamina, load: &Vector3<f64>, fixed: &Vector3<f64>) -> Opt
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    fn t300() -> Lamina {
+        // T300/5208 (Kaw, Mechanics of Composite Materials, 2nd ed., 2006, Table 2.1).
+        Lamina::builder("t300")
+            .elastic(181e9, 10.3e9, 7.17e9, 0.28)
+            .ply_thickness(0.125e-3)
+            .strengths(1500e6, 1500e6, 40e6, 246e6, 68e6)
+            .build()
+            .unwrap()
+    }
+
+    #[test]
+    fn hashin_follows_a_path_from_residual_compression_into_tension() {
+        // Residual sigma1 = -54.6 MPa, load part +188.9 MPa per unit multiplier: the fibre
+        // stress passes through zero at R = 0.289 and then fails in tension at sigma1 = Xt,
+        // R = (1500 + 54.6)/188.9 = 8.230 (by hand). With Xc = 1200 MPa the compressive form,
+        // wrongly applied past the sign change, would give (1200 + 54.6)/188.9 = 6.642.
+        let l = Lamina {
+            strength: Some(Strengths { xc: 1200e6, ..t300().strength.unwrap() }),
+            ..t300()
+        };
+        let fixed = Vector3::new(-54.6e6, 0.0, 0.0);
+        let load = Vector3::new(188.9e6, 0.0, 0.0);
+        let r = hashin(&l, &load, &fixed).unwrap();
+        assert!((r.ratio - (1500.0 + 54.6) / 188.9).abs() < 1e-9, "{r:?}");
+        assert_eq!(r.mode, FailureMode::FibreTension);
+        // The same for the matrix family: residual sigma2 = -20 MPa, load +30 MPa: tension
+        // failure at sigma2 = Yt, R = (40 + 20)/30 = 2.
+        let r = hashin(&l, &Vector3::new(0.0, 30e6, 0.0), &Vector3::new(0.0, -20e6, 0.0)).unwrap();
+        assert!((r.ratio - 2.0).abs() < 1e-9, "{r:?}");
+        assert_eq!(r.mode, FailureMode::MatrixTension);
+    }
 
     #[test]
     fn quadratic_first_failure_finds_the_positive_root() {

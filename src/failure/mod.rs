@@ -12,10 +12,41 @@
 //! `sigma(R) = fixed + R * load`. Without a fixed part every ratio scales as 1/k when the load is
 //! scaled by k. A ratio of infinity means no multiple of the load fails the ply; a ratio of zero
 //! means the fixed part alone already fails it.
+//!
+//! [`LaminateStrength`] applies every criterion at the top and bottom face of every ply of a
+//! laminate response and finds the first-ply failure: which ply, which face, which criterion,
+//! which mode, and the load multiplier.
+//!
+//! ```
+//! use layloft::failure::{Criterion, LaminateStrength};
+//! use layloft::laminate::{Laminate, LaminateLoad, LayupCode, Resultants};
+//! use layloft::material::Lamina;
+//! use nalgebra::Vector3;
+//!
+//! # fn main() -> Result<(), layloft::Error> {
+//! // T300/5208 (Kaw, Mechanics of Composite Materials, 2nd ed., 2006, Table 2.1).
+//! let tape = Lamina::builder("T300/5208")
+//!     .elastic(181e9, 10.3e9, 7.17e9, 0.28)
+//!     .ply_thickness(0.125e-3)
+//!     .strengths(1500e6, 1500e6, 40e6, 246e6, 68e6)
+//!     .build()?;
+//! let laminate = Laminate::from_code(&"[0/90]s".parse::<LayupCode>()?, &tape).checked()?;
+//! let pull = Resultants { n: Vector3::new(50e3, 0.0, 0.0), m: Vector3::zeros() };
+//! let response = laminate.response(&LaminateLoad::Resultants(pull), 0.0)?;
+//! let strength = LaminateStrength::evaluate(&laminate, &response);
+//! let first = strength.first_ply_failure().expect("a tensile load fails some ply");
+//! // The 90° plies crack first.
+//! assert_eq!(laminate.plies()[first.ply].angle.deg().round(), 90.0);
+//! assert!(strength.first_ply_failure_by(Criterion::MaxStress).is_some());
+//! # Ok(())
+//! # }
+//! ```
 
 mod criteria;
+mod first_ply;
 
 pub use criteria::{hashin, max_strain, max_stress, tsai_wu};
+pub use first_ply::{Face, FirstPlyFailure, LaminateStrength, PlyRatios};
 
 use std::fmt;
 

@@ -315,7 +315,23 @@ impl<'s> TableReader<'s> {
             }
         }
         let loc = self.location().with_field(self.full_key(key));
-        InputError::at(loc, format!("missing key: expected {what}"))
+        InputError::at(loc, format!("missing key '{key}': expected {what}"))
+    }
+
+    /// Refuses, before any key is read, a key that is not one of `known`, with the closest known
+    /// key as a hint; so that a misspelt required key (`E2_Gpa`) is reported as what it is rather
+    /// than as a missing `E2_GPa`.
+    pub fn expect_keys(&self, known: &[&str]) -> Result<(), InputError> {
+        for (key, value) in &self.entries {
+            if !known.contains(&key.as_str()) {
+                let hint = closest(key, known.iter().copied())
+                    .map(|h| format!("; did you mean '{h}'?"))
+                    .unwrap_or_else(|| format!("; known keys here: {}", known.join(", ")));
+                let loc = self.source.location(value.span().start).with_field(self.full_key(key));
+                return Err(InputError::at(loc, format!("unknown key '{key}'{hint}")));
+            }
+        }
+        Ok(())
     }
 
     /// Refuses any key that was not read, with the closest key that was asked for as a hint.

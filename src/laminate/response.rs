@@ -120,7 +120,9 @@ impl Laminate {
         let thermal =
             Deformation::from_stacked(c * Vector6::new(nt.x, nt.y, nt.z, mt.x, mt.y, mt.z));
         let mechanical = match load {
-            LaminateLoad::Resultants(r) => self.deformation(r)?,
+            LaminateLoad::Resultants(r) => Deformation::from_stacked(
+                c * Vector6::new(r.n.x, r.n.y, r.n.z, r.m.x, r.m.y, r.m.z),
+            ),
             LaminateLoad::Deformation(d) => {
                 Deformation::from_stacked(d.stacked() - thermal.stacked())
             }

@@ -91,6 +91,15 @@ impl Laminate {
         Ok(Laminate::new(plies))
     }
 
+    /// The same plies, every one `thickness` thick (m), overriding the materials' cured ply
+    /// thickness (a different areal weight or compaction).
+    pub fn with_ply_thickness(mut self, thickness: f64) -> Self {
+        for p in &mut self.plies {
+            p.thickness = thickness;
+        }
+        self
+    }
+
     /// The plies, outer face first.
     pub fn plies(&self) -> &[Ply] {
         &self.plies

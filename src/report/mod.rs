@@ -7,3 +7,6 @@ mod write;
 
 pub use table::{Align, Table, fixed, sig4};
 pub use write::{write_atomic, write_atomic_with};
+mod laminate;
+
+pub use laminate::LaminateReport;
