@@ -1,7 +1,9 @@
 //! The crate-level error: every module's error, wrapped so that `?` carries the reason up.
 
+use crate::blade::BladeError;
 use crate::input::InputError;
 use crate::laminate::LaminateError;
+use crate::loads::LoadsError;
 use crate::material::MaterialError;
 
 /// Any error layloft's library can return.
@@ -16,6 +18,12 @@ pub enum Error {
     /// A laminate code or laminate.
     #[error(transparent)]
     Laminate(#[from] LaminateError),
+    /// The blade geometry or ply schedule.
+    #[error(transparent)]
+    Blade(#[from] BladeError),
+    /// Load cases.
+    #[error(transparent)]
+    Loads(#[from] LoadsError),
     /// Writing an output file.
     #[error("cannot write {path}: {source}")]
     Write {

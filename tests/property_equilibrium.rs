@@ -92,7 +92,7 @@ proptest! {
         };
         let pm = PointMass { name: "p".into(), r: b.r0 + b.point.0 * b.len, mass: b.point.1, y: 0.0, z: 0.0 };
         let pitch = Angle::from_deg(b.pitch);
-        let loads = span_loads(&LoadDistribution::new(&sections, &[pm.clone()], &case, pitch).unwrap());
+        let loads = span_loads(&LoadDistribution::new(&sections, std::slice::from_ref(&pm), &case, pitch).unwrap());
         let root = loads.root();
 
         // Independent sum: force density and its moment about the root point on the pitch axis.

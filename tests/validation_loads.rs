@@ -81,8 +81,9 @@ fn cantilever_under_uniform_and_tip_loads() {
     let mut c = case(0.0);
     c.gravity = Some([0.0, 0.0, 9.81]);
     let pm = PointMass { name: "tip".into(), r: r1, mass: 10.0, y: 0.0, z: 0.0 };
-    let loads =
-        span_loads(&LoadDistribution::new(&sections, &[pm.clone()], &c, Angle::ZERO).unwrap());
+    let loads = span_loads(
+        &LoadDistribution::new(&sections, std::slice::from_ref(&pm), &c, Angle::ZERO).unwrap(),
+    );
     let p = 98.1;
     for (r, res) in loads.r.iter().zip(&loads.rotor) {
         assert_relative_eq!(res.force[2], p, max_relative = 1e-9);

@@ -47,11 +47,12 @@ impl Blade {
             .iter()
             .enumerate()
             .filter(|(_, p)| {
-                let on_surface = match (&p.spec.region, surface) {
-                    (Region::Both, _) => true,
-                    (Region::Upper, Surface::Upper) | (Region::Lower, Surface::Lower) => true,
-                    _ => false,
-                };
+                let on_surface = matches!(
+                    (&p.spec.region, surface),
+                    (Region::Both, _)
+                        | (Region::Upper, Surface::Upper)
+                        | (Region::Lower, Surface::Lower)
+                );
                 on_surface && covers_span(p, r, tip) && covers_chord(p, x)
             })
             .map(|(i, _)| i)

@@ -251,10 +251,10 @@ impl Blade {
         let radii = self.analysis_radii(21);
         let mean_chord = radii.iter().map(|&r| self.chord(r)).sum::<f64>() / radii.len() as f64;
         let mut w = Vec::new();
-        if span < 3.0 * mean_chord {
+        if span < 2.0 * mean_chord {
             w.push(format!(
                 "the blade is short and stubby: span {span:.3} m is {:.1} mean chords; beam theory \
-                 is strained below about 3 (common practice) — check stiffness and modes by test or \
+                 is strained below about 2 (common practice) — check stiffness and modes by test or \
                  a finer model",
                 span / mean_chord
             ));
