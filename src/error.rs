@@ -3,6 +3,7 @@
 use crate::input::InputError;
 use crate::laminate::LaminateError;
 use crate::material::MaterialError;
+use crate::section::SectionError;
 
 /// Any error layloft's library can return.
 #[derive(Debug, thiserror::Error)]
@@ -16,6 +17,9 @@ pub enum Error {
     /// A laminate code or laminate.
     #[error(transparent)]
     Laminate(#[from] LaminateError),
+    /// A section that cannot be solved.
+    #[error(transparent)]
+    Section(#[from] SectionError),
     /// Writing an output file.
     #[error("cannot write {path}: {source}")]
     Write {
