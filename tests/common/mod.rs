@@ -43,7 +43,11 @@ pub fn as4_chandra() -> Lamina {
         .expect("valid lamina")
 }
 
-fn layout(outer: Vec<[f64; 2]>, segment_laminate: Vec<usize>, laminates: Vec<Laminate>) -> SectionLayout {
+fn layout(
+    outer: Vec<[f64; 2]>,
+    segment_laminate: Vec<usize>,
+    laminates: Vec<Laminate>,
+) -> SectionLayout {
     let ymin = outer.iter().map(|p| p[0]).fold(f64::INFINITY, f64::min);
     let ymax = outer.iter().map(|p| p[0]).fold(f64::NEG_INFINITY, f64::max);
     let chord = ymax - ymin;
@@ -74,7 +78,13 @@ pub fn tube(ro: f64, n: usize, wall: Laminate) -> SectionLayout {
 /// A rectangular box, outer width `w` (y from 0 to w) and height `h` (z from -h/2 to h/2), each
 /// side split into `m` edges. Laminates by side: `[top, aft, bottom, front]` indices into
 /// `laminates`.
-pub fn rect(w: f64, h: f64, m: usize, sides: [usize; 4], laminates: Vec<Laminate>) -> SectionLayout {
+pub fn rect(
+    w: f64,
+    h: f64,
+    m: usize,
+    sides: [usize; 4],
+    laminates: Vec<Laminate>,
+) -> SectionLayout {
     let corners = [[0.0, h / 2.0], [w, h / 2.0], [w, -h / 2.0], [0.0, -h / 2.0]];
     let mut outer = Vec::new();
     let mut seg = Vec::new();
@@ -109,32 +119,42 @@ pub fn with_web(mut l: SectionLayout, name: &str, y: f64, laminate: usize) -> Se
 /// NACA 00xx half thickness (NACA Report 824; Abbott & von Doenhoff, Theory of Wing Sections,
 /// §6.4), closed trailing edge (-0.1036), as a fraction of chord.
 pub fn naca00_half(t: f64, x: f64) -> f64 {
-    5.0 * t * (0.2969 * x.sqrt() - 0.1260 * x - 0.3516 * x * x + 0.2843 * x.powi(3) - 0.1036 * x.powi(4))
+    5.0 * t
+        * (0.2969 * x.sqrt() - 0.1260 * x - 0.3516 * x * x + 0.2843 * x.powi(3)
+            - 0.1036 * x.powi(4))
 }
 
-/// A NACA 00xx outline of `chord` with `n` points (cosine spacing), leading edge at y = -0.25 c
-/// (pitch axis at quarter chord), one laminate per segment chosen by `pick(x/c, upper)`.
+/// A NACA 00xx outline of `chord` with `n` points (cosine spacing, plus a point at every x/c in
+/// `breaks` on both surfaces so that laminate boundaries fall on vertices), leading edge at
+/// y = -0.25 c (pitch axis at quarter chord), one laminate per segment chosen by
+/// `pick(x/c, upper)` at the segment's middle.
 pub fn naca00(
     t: f64,
     chord: f64,
     n: usize,
+    breaks: &[f64],
     laminates: Vec<Laminate>,
     pick: impl Fn(f64, bool) -> usize,
 ) -> SectionLayout {
     let m = n / 2;
-    let x = |k: usize| 0.5 * (1.0 - (PI * k as f64 / m as f64).cos());
-    let mut outer = Vec::with_capacity(2 * m);
-    for k in 0..=m {
-        outer.push([(x(k) - 0.25) * chord, naca00_half(t, x(k)) * chord]);
+    let mut xs: Vec<f64> =
+        (0..=m).map(|k| 0.5 * (1.0 - (PI * k as f64 / m as f64).cos())).collect();
+    xs.extend(breaks.iter().copied().filter(|x| *x > 0.0 && *x < 1.0));
+    xs.sort_by(f64::total_cmp);
+    xs.dedup_by(|a, b| (*a - *b).abs() < 1e-9);
+    let last = xs.len() - 1;
+    let mut outer = Vec::with_capacity(2 * last);
+    for &x in &xs {
+        outer.push([(x - 0.25) * chord, naca00_half(t, x) * chord]);
     }
-    for k in (1..m).rev() {
-        outer.push([(x(k) - 0.25) * chord, -naca00_half(t, x(k)) * chord]);
+    for &x in xs[1..last].iter().rev() {
+        outer.push([(x - 0.25) * chord, -naca00_half(t, x) * chord]);
     }
     let nn = outer.len();
     let seg = (0..nn)
         .map(|i| {
             let (a, b) = (outer[i], outer[(i + 1) % nn]);
-            pick(0.5 * (a[0] + b[0]) / chord + 0.25, i < m)
+            pick(0.5 * (a[0] + b[0]) / chord + 0.25, i < last)
         })
         .collect();
     let mut l = layout(outer, seg, laminates);
