@@ -317,3 +317,50 @@ fn doubling_contour_points_changes_stiffness_by_less_than_half_a_percent() {
     // The sharp trailing edge is reported, not hidden.
     assert!(b.warnings.iter().any(|w| w.contains("walls meet")), "{:?}", b.warnings);
 }
+
+/// Stress recovery on the 160 × 80 × 6 mm box: under a flapwise moment the wall axial force is
+/// Navier's `M z t / I` (elementary beam bending), under a torque the shear flow is Bredt's
+/// `T / (2 A_e)`, and the ply stress from `Laminate::response` is `N / t`. Exact for straight
+/// isotropic walls: 1e-9.
+#[test]
+fn wall_states_recover_navier_and_bredt() {
+    let (e, nu) = (210e9, 0.3);
+    let lam = single(&isotropic("steel", e, nu, 6e-3, 7850.0));
+    let s = solve(&rect(0.160, 0.080, 4, [0; 4], vec![lam.clone()]));
+    let (b, h, t): (f64, f64, f64) = (0.154, 0.074, 6e-3);
+    let i = 2.0 * b * t * (h / 2.0).powi(2) + 2.0 * t * h.powi(3) / 12.0;
+    let (m, torque) = (1.5e3, 2.0e3);
+    let strains = s.strains(&Vector4::new(0.0, torque, m, 0.0));
+    for st in s.wall_states(&strains, [0.0, 0.0]) {
+        let z = st.position[1];
+        assert_relative_eq!(st.n_x, m * z * t / i, max_relative = 1e-9, epsilon = 1e-6);
+        // Skins run clockwise, so a positive torque gives a negative flow along them.
+        assert_relative_eq!(st.n_xs, -torque / (2.0 * b * h), max_relative = 1e-9);
+        let r = lam.response(&st.load(), 0.0).expect("response");
+        assert_relative_eq!(
+            r.plies[0].top.stress_xy.x,
+            st.n_x / t,
+            max_relative = 1e-6,
+            epsilon = 1e-3
+        );
+        assert_relative_eq!(r.plies[0].top.stress_xy.z, st.n_xs / t, max_relative = 1e-6);
+        assert!(r.plies[0].top.stress_xy.y.abs() < 1e-6 * (st.n_x.abs() + st.n_xs.abs()) / t);
+    }
+    // A vertical shear force through the shear centre: at the neutral axis of the side walls
+    // the flow is V Q / I with Q = b t h/2 + t h²/8 per side, shared by two walls (elementary
+    // shear flow in a doubly symmetric box).
+    let v = 1.0e3;
+    let q = s.shear_flows([v, 0.0]);
+    let q_na = v * (b * t * h / 2.0 / 2.0 + t * h * h / 8.0) / i;
+    let mut checked = 0;
+    for (e, q) in s.elements().iter().zip(q) {
+        let mid = e.midpoint();
+        if e.tangent()[0].abs() < 1e-12 && mid[1].abs() < 0.015 {
+            // Element midpoint 10 mm from the axis: q is below the peak by t z²/2 · V/I.
+            let at = q_na - v * t * mid[1].powi(2) / 2.0 / i;
+            assert_relative_eq!(q.abs(), at, max_relative = 1e-9);
+            checked += 1;
+        }
+    }
+    assert_eq!(checked, 4, "two elements on each side wall next to the neutral axis");
+}
