@@ -149,7 +149,7 @@ pub(crate) fn build_contour(
     for i in 0..n {
         let d = sub(pts[(i + 1) % n], pts[i]);
         let l = norm(d);
-        if !(l > tiny) {
+        if l.is_nan() || l <= tiny {
             return Err(degenerate(format!(
                 "edge {i} at y/c = {:.4} has no length (repeated point)",
                 y_c(layout, pts[i][0])
@@ -307,7 +307,7 @@ pub(crate) fn build_contour(
             cell_areas[c] += 0.5 * sign * cross(e.start, e.end);
         }
     }
-    if let Some(j) = cell_areas.iter().position(|&a| !(a > tiny * layout.chord)) {
+    if let Some(j) = cell_areas.iter().position(|&a| a.is_nan() || a <= tiny * layout.chord) {
         return Err(degenerate(format!("cell {j} of the wall midline encloses no area")));
     }
 

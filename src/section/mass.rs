@@ -50,7 +50,7 @@ pub(crate) fn mass_properties(contour: &Contour, walls: &[WallStiffness]) -> Mas
         first[1] += m * p[1];
         second += outer(p, p) * m;
     }
-    if !(mass > 0.0) {
+    if mass.is_nan() || mass <= 0.0 {
         return MassProperties {
             mass: mass.max(0.0),
             centre: [0.0; 2],

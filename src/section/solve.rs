@@ -107,7 +107,7 @@ impl SolvedSection {
                 100.0 * params.thick_wall_ratio
             ));
         }
-        if !(mass.mass > 0.0) {
+        if mass.mass.is_nan() || mass.mass <= 0.0 {
             warnings
                 .push("the walls have no mass: the mass centre is put at the pitch axis".into());
         }
@@ -191,7 +191,7 @@ pub fn solve_section(
 
 fn spd_inverse(s: &Matrix4<f64>) -> Option<Matrix4<f64>> {
     let d = s.diagonal();
-    if d.iter().any(|&v| !(v > 0.0) || !v.is_finite()) {
+    if d.iter().any(|&v| !v.is_finite() || v <= 0.0) {
         return None;
     }
     let scale = Matrix4::from_diagonal(&d.map(|v| 1.0 / v.sqrt()));

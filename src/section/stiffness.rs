@@ -84,7 +84,7 @@ pub(crate) fn shift(p: [f64; 2]) -> Matrix4<f64> {
 pub(crate) fn elastic_centre(compliance: &Matrix4<f64>) -> Option<[f64; 2]> {
     let c = compliance;
     let det = c[(2, 2)] * c[(3, 3)] - c[(2, 3)] * c[(3, 2)];
-    if !(det.abs() > 0.0) {
+    if !det.is_finite() || det == 0.0 {
         return None;
     }
     // [c22 c23; c32 c33] [z; y] = -[c20; c30]
