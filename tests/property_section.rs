@@ -145,3 +145,29 @@ proptest! {
         prop_assert!((fy - ve).abs() < 2e-2 * scale, "{fy} vs {ve}");
     }
 }
+
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 64, .. ProptestConfig::default() })]
+
+    /// Any outline, however rough or thick-walled, gives a result with finite numbers or an
+    /// error, never a panic.
+    #[test]
+    fn rough_outlines_never_panic(
+        radii in prop::collection::vec(0.2..1.0f64, 8..40),
+        t in 1e-4..0.3f64,
+        web in -0.5..1.5f64,
+    ) {
+        let n = radii.len();
+        let outer: Vec<[f64; 2]> = radii.iter().enumerate().map(|(i, r)| {
+            let a = std::f64::consts::PI - 2.0 * std::f64::consts::PI * i as f64 / n as f64;
+            [r * a.cos(), 0.3 * r * a.sin()]
+        }).collect();
+        let mut l = tube(1.0, n, single(&isotropic("x", 50e9, 0.3, t, 1800.0)));
+        l.outer = outer;
+        let l = with_web(l, "w", web, 0);
+        if let Ok(p) = layloft::section::solve_section(&l, &SectionParams::default()) {
+            prop_assert!(p.stiffness.iter().all(|v| v.is_finite()));
+            prop_assert!(p.ea > 0.0 && p.gj > 0.0 && p.mass_per_length > 0.0);
+        }
+    }
+}
