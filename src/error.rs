@@ -5,6 +5,7 @@ use crate::input::InputError;
 use crate::laminate::LaminateError;
 use crate::loads::LoadsError;
 use crate::material::MaterialError;
+use crate::section::SectionError;
 
 /// Any error layloft's library can return.
 #[derive(Debug, thiserror::Error)]
@@ -24,6 +25,9 @@ pub enum Error {
     /// Load cases.
     #[error(transparent)]
     Loads(#[from] LoadsError),
+    /// A section that cannot be solved.
+    #[error(transparent)]
+    Section(#[from] SectionError),
     /// Writing an output file.
     #[error("cannot write {path}: {source}")]
     Write {

@@ -1,0 +1,439 @@
+//! The wall midline of a section: the outer mould line offset inward by half the local laminate
+//! thickness, cleaned where the walls of a thin trailing edge meet, webs joined to the upper and
+//! lower midlines, and the closed wall split into cells.
+//!
+//! Offset: each outer edge moves inward by half its laminate thickness; neighbouring offset edges
+//! meet at their crossing (exact at corners), or, where the thickness changes along a nearly
+//! straight wall, at the mean offset along the mitre (see `outline::offset_vertex`).
+//!
+//! Thin trailing edge: where the offset upper and lower midlines cross ahead of the trailing edge,
+//! the loop is closed at that crossing and the walls aft of it become open branches lying on the
+//! line from the crossing to the trailing-edge point (the solid, bonded trailing edge). They carry
+//! mass, axial and bending stiffness and transverse shear, but no torsional shear flow.
+//!
+//! Cells: cell 0 lies ahead of the first web, cell `k` between webs `k-1` and `k` (sorted by
+//! chordwise position), the last one behind the last web. Cell shear flows are positive
+//! counter-clockwise seen from the tip (right-handed about +x); the outer wall runs clockwise,
+//! a web runs from its lower end up.
+
+use std::ops::Range;
+
+use super::error::SectionError;
+use super::layout::SectionLayout;
+use super::outline::{
+    Point, add, cross, dot, lerp, norm, offset_vertex, scale, self_crossings, sub,
+    twice_signed_area,
+};
+
+/// Which part of the section a wall element models.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum WallPart {
+    /// A piece of the closed outer wall, from outer segment `segment` of the layout.
+    Skin {
+        /// Index of the outer segment (`SectionLayout::outer`, `segment_laminate`).
+        segment: usize,
+    },
+    /// A piece of a shear web.
+    Web {
+        /// Index into `SectionLayout::webs`.
+        web: usize,
+    },
+    /// Outer segment `segment` aft of the place where the trailing-edge walls meet: an open
+    /// branch of solid laminate without torsional shear flow.
+    TrailingEdge {
+        /// Index of the outer segment.
+        segment: usize,
+    },
+}
+
+/// One straight wall element of the solved section: a piece of midline with one laminate.
+///
+/// The element runs from `start` to `end` along the wall's axis 2 (`s`): clockwise round the
+/// outer wall seen from the tip, upward (+z) on a web. Its outward normal is `s` turned a quarter
+/// turn counter-clockwise; for a web that is towards the leading edge, where the web laminate's
+/// first ply lies.
+#[derive(Debug, Clone, PartialEq)]
+pub struct WallElement {
+    /// Start of the midline piece (y, z), m, chord frame from the pitch axis.
+    pub start: [f64; 2],
+    /// End of the midline piece (y, z), m.
+    pub end: [f64; 2],
+    /// Index into `SectionLayout::laminates`.
+    pub laminate: usize,
+    /// What the element models.
+    pub part: WallPart,
+    pub(crate) cells: [Option<(usize, f64)>; 2],
+}
+
+impl WallElement {
+    /// Length, m.
+    pub fn length(&self) -> f64 {
+        norm(sub(self.end, self.start))
+    }
+
+    /// Midpoint (y, z), m.
+    pub fn midpoint(&self) -> [f64; 2] {
+        lerp(self.start, self.end, 0.5)
+    }
+
+    /// Unit tangent (direction of wall axis 2), zero for a zero-length element.
+    pub fn tangent(&self) -> [f64; 2] {
+        let d = sub(self.end, self.start);
+        let l = norm(d);
+        if l > 0.0 { scale(d, 1.0 / l) } else { [0.0, 0.0] }
+    }
+
+    /// Unit outward normal (wall axis 3).
+    pub fn normal(&self) -> [f64; 2] {
+        let t = self.tangent();
+        [-t[1], t[0]]
+    }
+
+    /// The cells this element bounds, with the sign of the element direction against the
+    /// counter-clockwise sense of each cell.
+    pub fn cells(&self) -> impl Iterator<Item = (usize, f64)> + '_ {
+        self.cells.iter().flatten().copied()
+    }
+}
+
+/// A node of the closed midline loop.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub(crate) enum Node {
+    Plain,
+    /// Upper end of the web with this sorted index.
+    WebTop(usize),
+    /// Lower end of the web with this sorted index.
+    WebBottom(usize),
+    /// The trailing-edge vertex of a loop that closes there.
+    TrailingEdge,
+    /// The place where the trailing-edge walls meet; the open branches start here.
+    Merge,
+}
+
+/// The solved geometry of a section.
+#[derive(Debug, Clone)]
+pub(crate) struct Contour {
+    pub elements: Vec<WallElement>,
+    /// `elements[..loop_len]` is the closed outer loop, element `k` starting at node `k`.
+    pub loop_len: usize,
+    pub loop_nodes: Vec<Node>,
+    /// Element ranges of each web in sorted order, lower end first.
+    pub webs: Vec<Range<usize>>,
+    /// Upper trailing-edge branch, from the meeting point aft; lower branch, towards it.
+    pub tail_upper: Range<usize>,
+    pub tail_lower: Range<usize>,
+    pub cell_areas: Vec<f64>,
+    /// Vertex corrections for the mass of an offset wall: (vertex, 2 tan(turn/2), laminates).
+    pub corners: Vec<(Point, f64, usize, usize)>,
+    /// Where the trailing-edge walls meet, if they do.
+    pub merge: Option<Point>,
+}
+
+pub(crate) fn y_c(layout: &SectionLayout, y: f64) -> f64 {
+    y / layout.chord + layout.pitch_axis_frac
+}
+
+/// Builds the midline, cells and elements. `thickness[k]` is the thickness of laminate `k`.
+pub(crate) fn build_contour(
+    layout: &SectionLayout,
+    thickness: &[f64],
+    web_elements: usize,
+    max_mitre: f64,
+) -> Result<Contour, SectionError> {
+    let r = layout.r;
+    let pts = &layout.outer;
+    let n = pts.len();
+    let tiny = 1e-9 * layout.chord;
+    let degenerate = |reason: String| SectionError::Degenerate { r, reason };
+    let (mut tang, mut len) = (Vec::with_capacity(n), Vec::with_capacity(n));
+    for i in 0..n {
+        let d = sub(pts[(i + 1) % n], pts[i]);
+        let l = norm(d);
+        if l.is_nan() || l <= tiny {
+            return Err(degenerate(format!(
+                "edge {i} at y/c = {:.4} has no length (repeated point)",
+                y_c(layout, pts[i][0])
+            )));
+        }
+        tang.push(scale(d, 1.0 / l));
+        len.push(l);
+    }
+    let area2 = twice_signed_area(pts);
+    if area2.abs() <= tiny * layout.chord {
+        return Err(degenerate("the outline encloses no area".into()));
+    }
+    if area2 > 0.0 {
+        return Err(SectionError::Orientation { r });
+    }
+    if let Some(c) = self_crossings(pts).first() {
+        return Err(SectionError::SelfCrossing { r, y_c: y_c(layout, c.point[0]) });
+    }
+    let half: Vec<f64> = layout.segment_laminate.iter().map(|&k| thickness[k] / 2.0).collect();
+    let i_te = (0..n).fold(0, |b, i| if pts[i][0] > pts[b][0] { i } else { b });
+    if i_te == 0 {
+        return Err(degenerate("the leading-edge point is also the trailing-edge point".into()));
+    }
+    let v: Vec<Point> = (0..n)
+        .map(|i| {
+            let a = (i + n - 1) % n;
+            offset_vertex(pts[i], (tang[a], len[a], half[a]), (tang[i], len[i], half[i]), max_mitre)
+        })
+        .collect();
+
+    // Where the midline crosses itself: a swallowtail behind a thin trailing edge is cut off;
+    // any other crossing means walls thicker than the section is deep.
+    let crossings = self_crossings(&v);
+    let merge = crossings.iter().filter(|c| c.i < i_te && i_te <= c.j).max_by_key(|c| c.j - c.i);
+    if let Some(c) = merge {
+        let mut cut = vec![c.point];
+        cut.extend_from_slice(&v[c.i + 1..=c.j]);
+        if twice_signed_area(&cut) < -0.01 * area2.abs() {
+            return Err(SectionError::WallsMeet { r, y_c: y_c(layout, c.point[0]) });
+        }
+    }
+    if let Some(c) = crossings.iter().find(|c| !merge.is_some_and(|m| m.i <= c.i && c.j <= m.j)) {
+        return Err(SectionError::WallsMeet { r, y_c: y_c(layout, c.point[0]) });
+    }
+
+    // Loop nodes: (point, kind, outer segment of the element starting there).
+    let mut nodes: Vec<(Point, Node, usize)> = Vec::with_capacity(n + 2 * layout.webs.len() + 1);
+    match merge {
+        None => nodes.extend(
+            (0..n).map(|k| (v[k], if k == i_te { Node::TrailingEdge } else { Node::Plain }, k)),
+        ),
+        Some(c) => {
+            nodes.extend((0..=c.i).map(|k| (v[k], Node::Plain, k)));
+            nodes.push((c.point, Node::Merge, c.j));
+            nodes.extend((c.j + 1..n).map(|k| (v[k], Node::Plain, k)));
+        }
+    }
+    let merge_point = merge.map(|c| c.point);
+    let order = web_order(layout, merge_point)?;
+    insert_web_nodes(layout, &order, &mut nodes)?;
+
+    // Cells along the loop.
+    let ncells = order.len() + 1;
+    let m = nodes.len();
+    let mut elements = Vec::with_capacity(m + order.len() * web_elements + 16);
+    let (mut cell, mut upper) = (0usize, true);
+    let order_err = |w: usize, reason: &str| SectionError::WebPlacement {
+        r,
+        web: layout.webs[order[w]].name.clone(),
+        y_c: y_c(layout, layout.webs[order[w]].y),
+        reason: reason.to_string(),
+    };
+    for k in 0..m {
+        match nodes[k].1 {
+            Node::TrailingEdge | Node::Merge => {
+                upper = false;
+                cell = ncells - 1;
+            }
+            Node::WebTop(w) if upper && w == cell => cell += 1,
+            Node::WebBottom(w) if !upper && w + 1 == cell => cell -= 1,
+            Node::WebTop(w) | Node::WebBottom(w) => {
+                return Err(order_err(w, "the web meets the walls out of chordwise order"));
+            }
+            Node::Plain => {}
+        }
+        let seg = nodes[k].2;
+        elements.push(WallElement {
+            start: nodes[k].0,
+            end: nodes[(k + 1) % m].0,
+            laminate: layout.segment_laminate[seg],
+            part: WallPart::Skin { segment: seg },
+            cells: [Some((cell, -1.0)), None],
+        });
+    }
+    let loop_nodes: Vec<Node> = nodes.iter().map(|n| n.1).collect();
+
+    // Webs, lower end first.
+    let mut webs = Vec::with_capacity(order.len());
+    for (k, &w) in order.iter().enumerate() {
+        let find = |kind: Node| nodes.iter().find(|n| n.1 == kind).map(|n| n.0);
+        let (Some(bottom), Some(top)) = (find(Node::WebBottom(k)), find(Node::WebTop(k))) else {
+            return Err(order_err(k, "the web ends were lost"));
+        };
+        let first = elements.len();
+        let pieces = web_elements.max(1);
+        for p in 0..pieces {
+            elements.push(WallElement {
+                start: lerp(bottom, top, p as f64 / pieces as f64),
+                end: lerp(bottom, top, (p + 1) as f64 / pieces as f64),
+                laminate: layout.webs[w].laminate,
+                part: WallPart::Web { web: w },
+                cells: [Some((k, 1.0)), Some((k + 1, -1.0))],
+            });
+        }
+        webs.push(first..elements.len());
+    }
+
+    // Trailing-edge branches on the line from the meeting point to the trailing-edge point.
+    let (mut tail_upper, mut tail_lower) = (elements.len()..elements.len(), 0..0);
+    if let Some(c) = merge {
+        let ymax = pts[i_te][0];
+        let tips: Vec<Point> =
+            pts.iter().copied().filter(|p| p[0] >= ymax - 1e-6 * layout.chord).collect();
+        let tip = scale(tips.iter().fold([0.0, 0.0], |a, &p| add(a, p)), 1.0 / tips.len() as f64);
+        let axis = sub(tip, c.point);
+        let l = norm(axis);
+        let u = if l > tiny { scale(axis, 1.0 / l) } else { [1.0, 0.0] };
+        let proj = |p: Point| add(c.point, scale(u, dot(sub(p, c.point), u)));
+        let push = |start: Point, end: Point, seg: usize, elements: &mut Vec<WallElement>| {
+            if norm(sub(end, start)) > tiny {
+                elements.push(WallElement {
+                    start,
+                    end,
+                    laminate: layout.segment_laminate[seg],
+                    part: WallPart::TrailingEdge { segment: seg },
+                    cells: [None, None],
+                });
+            }
+        };
+        for k in c.i..i_te {
+            let start = if k == c.i { c.point } else { proj(pts[k]) };
+            push(start, proj(pts[k + 1]), k, &mut elements);
+        }
+        tail_upper = tail_upper.start..elements.len();
+        for k in i_te..=c.j {
+            let end = if k == c.j { c.point } else { proj(pts[(k + 1) % n]) };
+            push(proj(pts[k]), end, k, &mut elements);
+        }
+        tail_lower = tail_upper.end..elements.len();
+    }
+
+    let mut cell_areas = vec![0.0; ncells];
+    for e in &elements {
+        for (c, sign) in e.cells() {
+            cell_areas[c] += 0.5 * sign * cross(e.start, e.end);
+        }
+    }
+    if let Some(j) = cell_areas.iter().position(|&a| a.is_nan() || a <= tiny * layout.chord) {
+        return Err(degenerate(format!("cell {j} of the wall midline encloses no area")));
+    }
+
+    let mut corners = Vec::new();
+    for k in 0..m {
+        if !matches!(loop_nodes[k], Node::Plain | Node::TrailingEdge) {
+            continue;
+        }
+        let (a, b) = (&elements[(k + m - 1) % m], &elements[k]);
+        let (ta, tb) = (a.tangent(), b.tangent());
+        let turn = -cross(ta, tb).atan2(dot(ta, tb));
+        if turn.abs() <= 150f64.to_radians() && turn != 0.0 {
+            corners.push((b.start, 2.0 * (turn / 2.0).tan(), a.laminate, b.laminate));
+        }
+    }
+
+    Ok(Contour {
+        elements,
+        loop_len: m,
+        loop_nodes,
+        webs,
+        tail_upper,
+        tail_lower,
+        cell_areas,
+        corners,
+        merge: merge_point,
+    })
+}
+
+/// Webs sorted by chordwise position, checked for place.
+fn web_order(layout: &SectionLayout, merge: Option<Point>) -> Result<Vec<usize>, SectionError> {
+    let r = layout.r;
+    let place = |w: usize, reason: String| SectionError::WebPlacement {
+        r,
+        web: layout.webs[w].name.clone(),
+        y_c: y_c(layout, layout.webs[w].y),
+        reason,
+    };
+    if let Some(w) = layout.webs.iter().position(|w| !w.y.is_finite()) {
+        return Err(place(w, "the position is not a finite number".into()));
+    }
+    let mut order: Vec<usize> = (0..layout.webs.len()).collect();
+    order.sort_by(|a, b| layout.webs[*a].y.total_cmp(&layout.webs[*b].y));
+    for pair in order.windows(2) {
+        if layout.webs[pair[1]].y - layout.webs[pair[0]].y <= 1e-6 * layout.chord {
+            let other = &layout.webs[pair[0]].name;
+            return Err(place(pair[1], format!("it stands at the same place as web '{other}'")));
+        }
+    }
+    if let (Some(x), Some(&w)) = (merge, order.last())
+        && layout.webs[w].y >= x[0]
+    {
+        let reason = format!(
+            "it stands behind y/c = {:.4}, where the trailing-edge walls meet",
+            y_c(layout, x[0])
+        );
+        return Err(place(w, reason));
+    }
+    Ok(order)
+}
+
+/// Splits the loop where each web line crosses the upper and lower midlines.
+fn insert_web_nodes(
+    layout: &SectionLayout,
+    order: &[usize],
+    nodes: &mut Vec<(Point, Node, usize)>,
+) -> Result<(), SectionError> {
+    let m = nodes.len();
+    let te =
+        nodes.iter().position(|n| matches!(n.1, Node::TrailingEdge | Node::Merge)).unwrap_or(m);
+    let mut splits: Vec<(usize, f64, Node, usize)> = Vec::with_capacity(2 * order.len());
+    for (k, &w) in order.iter().enumerate() {
+        let y = layout.webs[w].y;
+        let hit = |range: Range<usize>, better: fn(f64, f64) -> bool| {
+            let mut best: Option<(usize, f64, f64)> = None;
+            for p in range {
+                let (a, b) = (nodes[p].0, nodes[(p + 1) % m].0);
+                let (da, db) = (a[0] - y, b[0] - y);
+                if da == db || da * db > 0.0 {
+                    continue;
+                }
+                let t = da / (da - db);
+                let z = a[1] + (b[1] - a[1]) * t;
+                if best.is_none_or(|(_, _, zb)| better(z, zb)) {
+                    best = Some((p, t, z));
+                }
+            }
+            best
+        };
+        let miss = |side| SectionError::WebMissesWall {
+            r: layout.r,
+            web: layout.webs[w].name.clone(),
+            y_c: y_c(layout, y),
+            side,
+        };
+        let top = hit(0..te, |z, zb| z > zb).ok_or_else(|| miss("upper"))?;
+        let bottom = hit(te..m, |z, zb| z < zb).ok_or_else(|| miss("lower"))?;
+        if top.2 <= bottom.2 {
+            return Err(miss("upper"));
+        }
+        splits.push((top.0, top.1, Node::WebTop(k), k));
+        splits.push((bottom.0, bottom.1, Node::WebBottom(k), k));
+    }
+    // A crossing at the very end of an element is a crossing at the start of the next one.
+    for s in &mut splits {
+        if s.1 > 1.0 - 1e-9 {
+            *s = ((s.0 + 1) % m, 0.0, s.2, s.3);
+        }
+    }
+    // From the back, so that inserting a node never moves one still to be visited.
+    splits.sort_by(|a, b| b.0.cmp(&a.0).then(b.1.total_cmp(&a.1)));
+    for (p, t, kind, k) in splits {
+        if t >= 1e-9 {
+            let point = lerp(nodes[p].0, nodes[(p + 1) % m].0, t);
+            nodes.insert(p + 1, (point, kind, nodes[p].2));
+        } else if nodes[p].1 == Node::Plain {
+            nodes[p].1 = kind;
+        } else {
+            let w = &layout.webs[order[k]];
+            return Err(SectionError::WebPlacement {
+                r: layout.r,
+                web: w.name.clone(),
+                y_c: y_c(layout, w.y),
+                reason: "it meets the wall at the trailing edge or at another web".into(),
+            });
+        }
+    }
+    Ok(())
+}

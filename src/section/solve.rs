@@ -1,0 +1,307 @@
+//! The solver's entry point: checks the layout, runs the stages and gathers the properties.
+
+use nalgebra::{DMatrix, Matrix4};
+
+use super::contour::{Contour, WallElement, build_contour, y_c};
+use super::error::SectionError;
+use super::layout::{SectionLayout, SectionProperties};
+use super::mass::mass_properties;
+use super::outline::{Point, chain_z_at, lerp, norm, sub};
+use super::shear_flow::{ShearSolution, solve_shear};
+use super::stiffness::{assemble, elastic_centre, principal, shift};
+use super::wall::WallStiffness;
+use crate::units::Angle;
+
+/// Tuning of the section solver.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct SectionParams {
+    /// Straight elements along the depth of each shear web (its stress recovery points).
+    pub web_elements: usize,
+    /// Wall thickness over local section depth above which a warning is given; 0.10 by default
+    /// (common practice for thin-wall theory, no standard clause).
+    pub thick_wall_ratio: f64,
+    /// Longest mitre at a sharp corner of the offset midline, in half wall thicknesses (20 by
+    /// default, a corner of about 6°); sharper corners are where walls meet and are cut away.
+    pub max_mitre: f64,
+}
+
+impl Default for SectionParams {
+    fn default() -> Self {
+        SectionParams { web_elements: 8, thick_wall_ratio: 0.10, max_mitre: 20.0 }
+    }
+}
+
+/// A solved section: its properties together with the wall elements and the kernels that stress
+/// recovery needs (see [`SolvedSection::wall_states`]).
+#[derive(Debug, Clone)]
+pub struct SolvedSection {
+    /// Stiffness, centres and mass properties.
+    pub properties: SectionProperties,
+    pub(crate) contour: Contour,
+    pub(crate) walls: Vec<WallStiffness>,
+    pub(crate) cell_flow: DMatrix<f64>,
+    pub(crate) shear: ShearSolution,
+    pub(crate) compliance: Matrix4<f64>,
+}
+
+impl SolvedSection {
+    /// Solves the section; see the module documentation for the method.
+    pub fn solve(layout: &SectionLayout, params: &SectionParams) -> Result<Self, SectionError> {
+        check_layout(layout)?;
+        let r = layout.r;
+        let walls = layout
+            .laminates
+            .iter()
+            .enumerate()
+            .map(|(index, l)| {
+                WallStiffness::from_laminate(l).map_err(|source| SectionError::Laminate {
+                    r,
+                    index,
+                    source,
+                })
+            })
+            .collect::<Result<Vec<_>, _>>()?;
+        let thickness: Vec<f64> = walls.iter().map(|w| w.thickness).collect();
+        let contour = build_contour(layout, &thickness, params.web_elements, params.max_mitre)?;
+        let bad = |reason: &str| SectionError::Stiffness { r, reason: reason.to_string() };
+        let asm = assemble(&contour, &walls)
+            .ok_or_else(|| bad("singular: a cell wall has no shear stiffness"))?;
+        let s0 = asm.stiffness;
+        let compliance0 = spd_inverse(&s0).ok_or_else(|| bad("not positive definite"))?;
+        let ec = elastic_centre(&compliance0).ok_or_else(|| bad("without bending stiffness"))?;
+        let t = shift(ec);
+        let stiffness = t.transpose() * s0 * t;
+        let compliance = spd_inverse(&stiffness).ok_or_else(|| bad("not positive definite"))?;
+        let shear = solve_shear(&contour, &walls, &asm, &compliance0)
+            .ok_or_else(|| bad("without a finite shear centre"))?;
+        let mass = mass_properties(&contour, &walls);
+        let (ei_principal, angle) =
+            principal(stiffness[(2, 2)], stiffness[(3, 3)], stiffness[(2, 3)]);
+        let used = contour.elements.iter().map(|e| thickness[e.laminate]);
+        let wall_thickness = used.fold([f64::INFINITY, 0.0], |[lo, hi], t| [lo.min(t), hi.max(t)]);
+
+        let mut warnings = Vec::new();
+        let depth = depth_check(layout, &thickness, contour.merge, params.thick_wall_ratio);
+        if let Some(x) = contour.merge {
+            let strained = depth.converging.map_or(String::new(), |y| {
+                format!(
+                    "; the walls pass {:.0} % of the local depth from y/c = {:.3} aft",
+                    100.0 * params.thick_wall_ratio,
+                    y_c(layout, y)
+                )
+            });
+            warnings.push(format!(
+                "the upper and lower walls meet at y/c = {:.3}, ahead of the trailing edge: aft of \
+                 it the walls are taken as solid laminate on the mean line, carrying no torsional \
+                 shear flow{strained}",
+                y_c(layout, x[0])
+            ));
+        }
+        if let Some((ratio, y)) = depth.worst {
+            warnings.push(format!(
+                "wall thickness reaches {:.0} % of the local depth at y/c = {:.3}; thin-wall theory \
+                 is usually trusted below about {:.0} % (common practice), so the stiffness there \
+                 is approximate",
+                100.0 * ratio,
+                y_c(layout, y),
+                100.0 * params.thick_wall_ratio
+            ));
+        }
+        if mass.mass.is_nan() || mass.mass <= 0.0 {
+            warnings
+                .push("the walls have no mass: the mass centre is put at the pitch axis".into());
+        }
+
+        let properties = SectionProperties {
+            r,
+            chord: layout.chord,
+            twist: layout.twist,
+            stiffness,
+            stiffness_pitch_axis: s0,
+            ea: stiffness[(0, 0)],
+            ei_flap: stiffness[(2, 2)],
+            ei_edge: stiffness[(3, 3)],
+            ei_cross: stiffness[(2, 3)],
+            gj: stiffness[(1, 1)],
+            extension_twist: stiffness[(0, 1)],
+            flap_twist: stiffness[(1, 2)],
+            edge_twist: stiffness[(1, 3)],
+            ei_principal,
+            principal_angle: Angle::from_rad(angle),
+            elastic_centre: ec,
+            shear_centre: shear.centre,
+            mass_centre: mass.centre,
+            mass_per_length: mass.mass,
+            inertia: mass.inertia,
+            wall_thickness,
+            enclosed_area: contour.cell_areas.iter().sum(),
+            warnings,
+        };
+        let p = &properties;
+        let scalars = [p.mass_per_length, p.inertia.flap, p.inertia.edge, p.inertia.product];
+        let finite = p.stiffness.iter().chain(p.stiffness_pitch_axis.iter()).all(|v| v.is_finite())
+            && scalars.iter().chain(&p.ei_principal).all(|v| v.is_finite())
+            && [p.elastic_centre, p.shear_centre, p.mass_centre]
+                .iter()
+                .flatten()
+                .all(|v| v.is_finite());
+        if !finite {
+            return Err(bad("not finite"));
+        }
+        Ok(SolvedSection {
+            properties,
+            contour,
+            walls,
+            cell_flow: asm.cell_flow,
+            shear,
+            compliance,
+        })
+    }
+
+    /// The wall elements: the closed outer loop first (from the leading edge, clockwise seen from
+    /// the tip), then each web from its lower end, then any trailing-edge branches.
+    pub fn elements(&self) -> &[WallElement] {
+        &self.contour.elements
+    }
+
+    /// The beam-wall reduction of laminate `index` of the layout.
+    pub fn wall_stiffness(&self, index: usize) -> Option<&WallStiffness> {
+        self.walls.get(index)
+    }
+
+    /// Number of closed cells.
+    pub fn cells(&self) -> usize {
+        self.contour.cell_areas.len()
+    }
+
+    /// Area enclosed by the midline of each cell, m², leading-edge cell first.
+    pub fn cell_areas(&self) -> &[f64] {
+        &self.contour.cell_areas
+    }
+}
+
+/// Solves one section and returns its properties; [`SolvedSection::solve`] keeps the wall data
+/// for stress recovery as well.
+pub fn solve_section(
+    layout: &SectionLayout,
+    params: &SectionParams,
+) -> Result<SectionProperties, SectionError> {
+    SolvedSection::solve(layout, params).map(|s| s.properties)
+}
+
+fn spd_inverse(s: &Matrix4<f64>) -> Option<Matrix4<f64>> {
+    let d = s.diagonal();
+    if d.iter().any(|&v| !v.is_finite() || v <= 0.0) {
+        return None;
+    }
+    let scale = Matrix4::from_diagonal(&d.map(|v| 1.0 / v.sqrt()));
+    let chol = (scale * s * scale).cholesky()?;
+    Some(scale * chol.inverse() * scale)
+}
+
+fn check_layout(layout: &SectionLayout) -> Result<(), SectionError> {
+    let r = layout.r;
+    let degenerate = |reason: String| SectionError::Degenerate { r, reason };
+    let layout_err = |what: String, expected: String, found: String| SectionError::Layout {
+        r,
+        what,
+        expected,
+        found,
+    };
+    if !r.is_finite() || !layout.pitch_axis_frac.is_finite() || !layout.twist.rad().is_finite() {
+        return Err(degenerate("radius, twist or pitch axis is not a finite number".into()));
+    }
+    if !(layout.chord > 0.0 && layout.chord.is_finite()) {
+        return Err(layout_err(
+            "chord".into(),
+            "a positive length".into(),
+            layout.chord.to_string(),
+        ));
+    }
+    let n = layout.outer.len();
+    if n < 3 {
+        return Err(degenerate(format!("{n} points; at least 3 are needed")));
+    }
+    if let Some(i) = layout.outer.iter().position(|p| !p[0].is_finite() || !p[1].is_finite()) {
+        return Err(degenerate(format!("point {i} is not finite")));
+    }
+    if layout.segment_laminate.len() != n {
+        return Err(layout_err(
+            "segment_laminate".into(),
+            format!("one laminate per outer segment ({n})"),
+            layout.segment_laminate.len().to_string(),
+        ));
+    }
+    let count = layout.laminates.len();
+    let expected = || format!("a laminate index below {count}");
+    if let Some(i) = layout.segment_laminate.iter().position(|&k| k >= count) {
+        let found = layout.segment_laminate[i].to_string();
+        return Err(layout_err(format!("laminate of outer segment {i}"), expected(), found));
+    }
+    if let Some(w) = layout.webs.iter().find(|w| w.laminate >= count) {
+        let what = format!("laminate of web '{}'", w.name);
+        return Err(layout_err(what, expected(), w.laminate.to_string()));
+    }
+    Ok(())
+}
+
+/// Where walls are thick against the local depth normal to the chord.
+struct DepthCheck {
+    /// The worst ratio above the limit and its place `y`, away from a converging trailing edge.
+    worst: Option<(f64, f64)>,
+    /// With walls meeting at the trailing edge: the foremost `y` behind the deepest place from
+    /// which the ratio stays above the limit (reported with the meeting point instead).
+    converging: Option<f64>,
+}
+
+/// Wall thickness against the local depth normal to the chord, over the mostly chordwise walls.
+fn depth_check(
+    layout: &SectionLayout,
+    thickness: &[f64],
+    merge: Option<Point>,
+    limit: f64,
+) -> DepthCheck {
+    let pts = &layout.outer;
+    let n = pts.len();
+    let i_te = (0..n).fold(0, |b, i| if pts[i][0] > pts[b][0] { i } else { b });
+    let upper: Vec<Point> = pts[..=i_te].to_vec();
+    let mut lower: Vec<Point> = pts[i_te..].to_vec();
+    lower.push(pts[0]);
+    lower.reverse();
+    let mut samples: Vec<(f64, f64, f64)> = Vec::with_capacity(n); // (y, depth, ratio)
+    for i in 0..n {
+        let (a, b) = (pts[i], pts[(i + 1) % n]);
+        let d = sub(b, a);
+        if (d[0] / norm(d)).abs() < 0.7 {
+            continue;
+        }
+        let mid = lerp(a, b, 0.5);
+        let other = if i < i_te { &lower } else { &upper };
+        let Some(z) = chain_z_at(other, mid[0]) else { continue };
+        let depth = (mid[1] - z).abs();
+        if depth > 0.0 {
+            samples.push((mid[0], depth, thickness[layout.segment_laminate[i]] / depth));
+        }
+    }
+    let deepest = samples
+        .iter()
+        .fold((f64::NEG_INFINITY, 0.0), |b, s| if s.1 > b.0 { (s.1, s.0) } else { b })
+        .1;
+    let mut converging = None;
+    if merge.is_some() {
+        // Walk forward from the trailing edge while the ratio stays above the limit.
+        let mut aft: Vec<&(f64, f64, f64)> = samples.iter().filter(|s| s.0 > deepest).collect();
+        aft.sort_by(|a, b| b.0.total_cmp(&a.0));
+        for s in aft {
+            if s.2 <= limit {
+                break;
+            }
+            converging = Some(s.0);
+        }
+    }
+    let worst = samples.iter().filter(|s| s.2 > limit && converging.is_none_or(|y| s.0 < y)).fold(
+        None,
+        |b: Option<(f64, f64)>, s| if b.is_none_or(|b| s.2 > b.0) { Some((s.2, s.0)) } else { b },
+    );
+    DepthCheck { worst, converging }
+}

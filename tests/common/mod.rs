@@ -1,0 +1,163 @@
+//! Section layouts for the tests and benchmarks: tubes, boxes and NACA 00xx outlines built from
+//! their defining formulas. All are test geometry, not blade data.
+#![allow(dead_code)]
+
+use std::f64::consts::PI;
+use std::sync::Arc;
+
+use layloft::laminate::{Laminate, LayupCode, Ply};
+use layloft::material::Lamina;
+use layloft::section::{SectionLayout, WebLayout};
+use layloft::units::Angle;
+
+/// An isotropic layer as a lamina: E, nu, sheet thickness (m), density (kg/m³).
+pub fn isotropic(name: &str, e: f64, nu: f64, t: f64, rho: f64) -> Lamina {
+    Lamina::builder(name)
+        .elastic(e, e, e / (2.0 * (1.0 + nu)), nu)
+        .ply_thickness(t)
+        .density(rho)
+        .build()
+        .expect("valid isotropic layer")
+}
+
+/// One layer of `lamina`.
+pub fn single(lamina: &Lamina) -> Laminate {
+    Laminate::from_code(&"[0]".parse::<LayupCode>().expect("code"), lamina)
+}
+
+/// Plies at the given angles (degrees), outer face first.
+pub fn plies(lamina: &Lamina, angles_deg: &[f64]) -> Laminate {
+    let m = Arc::new(lamina.clone());
+    Laminate::new(angles_deg.iter().map(|&a| Ply::new(m.clone(), Angle::from_deg(a))).collect())
+}
+
+/// AS4/3501-6 as used by Chandra, Stemple & Chopra, J. Aircraft 27(7) (1990) 619–626:
+/// E11 = 20.59 Msi, E22 = 1.42 Msi, G12 = 0.87 Msi, nu12 = 0.42, ply 0.005 in (from memory).
+pub fn as4_chandra() -> Lamina {
+    let msi = 6.894_757e9;
+    Lamina::builder("AS4/3501-6")
+        .elastic(20.59 * msi, 1.42 * msi, 0.87 * msi, 0.42)
+        .ply_thickness(0.005 * 0.0254)
+        .density(1550.0)
+        .build()
+        .expect("valid lamina")
+}
+
+fn layout(
+    outer: Vec<[f64; 2]>,
+    segment_laminate: Vec<usize>,
+    laminates: Vec<Laminate>,
+) -> SectionLayout {
+    let ymin = outer.iter().map(|p| p[0]).fold(f64::INFINITY, f64::min);
+    let ymax = outer.iter().map(|p| p[0]).fold(f64::NEG_INFINITY, f64::max);
+    let chord = ymax - ymin;
+    SectionLayout {
+        r: 1.0,
+        chord,
+        twist: Angle::ZERO,
+        pitch_axis_frac: -ymin / chord,
+        outer,
+        laminates,
+        segment_laminate,
+        webs: vec![],
+    }
+}
+
+/// A circular tube of outer radius `ro` centred at the origin, `n` points from the leading edge
+/// over the top (clockwise seen from the tip).
+pub fn tube(ro: f64, n: usize, wall: Laminate) -> SectionLayout {
+    let outer = (0..n)
+        .map(|i| {
+            let a = PI - 2.0 * PI * i as f64 / n as f64;
+            [ro * a.cos(), ro * a.sin()]
+        })
+        .collect();
+    layout(outer, vec![0; n], vec![wall])
+}
+
+/// A rectangular box, outer width `w` (y from 0 to w) and height `h` (z from -h/2 to h/2), each
+/// side split into `m` edges. Laminates by side: `[top, aft, bottom, front]` indices into
+/// `laminates`.
+pub fn rect(
+    w: f64,
+    h: f64,
+    m: usize,
+    sides: [usize; 4],
+    laminates: Vec<Laminate>,
+) -> SectionLayout {
+    let corners = [[0.0, h / 2.0], [w, h / 2.0], [w, -h / 2.0], [0.0, -h / 2.0]];
+    let mut outer = Vec::new();
+    let mut seg = Vec::new();
+    // Front side upper half first: the outline starts at the leading edge (front side middle).
+    let half = m.div_ceil(2).max(1);
+    for k in 0..half {
+        outer.push([0.0, h / 2.0 * k as f64 / half as f64]);
+        seg.push(sides[3]);
+    }
+    for (s, c) in corners.iter().enumerate().take(3) {
+        let next = corners[s + 1];
+        for k in 0..m {
+            let t = k as f64 / m as f64;
+            outer.push([c[0] + (next[0] - c[0]) * t, c[1] + (next[1] - c[1]) * t]);
+            seg.push(sides[s]);
+        }
+    }
+    for k in 0..half {
+        outer.push([0.0, -h / 2.0 + h / 2.0 * k as f64 / half as f64]);
+        seg.push(sides[3]);
+    }
+    layout(outer, seg, laminates)
+}
+
+/// Adds a web at `y` (m, chord frame) with laminate `laminate`.
+pub fn with_web(mut l: SectionLayout, name: &str, y: f64, laminate: usize) -> SectionLayout {
+    l.webs.push(WebLayout { name: name.into(), y, laminate });
+    l.webs.sort_by(|a, b| a.y.total_cmp(&b.y));
+    l
+}
+
+/// NACA 00xx half thickness (NACA Report 824; Abbott & von Doenhoff, Theory of Wing Sections,
+/// §6.4), closed trailing edge (-0.1036), as a fraction of chord.
+pub fn naca00_half(t: f64, x: f64) -> f64 {
+    5.0 * t
+        * (0.2969 * x.sqrt() - 0.1260 * x - 0.3516 * x * x + 0.2843 * x.powi(3)
+            - 0.1036 * x.powi(4))
+}
+
+/// A NACA 00xx outline of `chord` with `n` points (cosine spacing, plus a point at every x/c in
+/// `breaks` on both surfaces so that laminate boundaries fall on vertices), leading edge at
+/// y = -0.25 c (pitch axis at quarter chord), one laminate per segment chosen by
+/// `pick(x/c, upper)` at the segment's middle.
+pub fn naca00(
+    t: f64,
+    chord: f64,
+    n: usize,
+    breaks: &[f64],
+    laminates: Vec<Laminate>,
+    pick: impl Fn(f64, bool) -> usize,
+) -> SectionLayout {
+    let m = n / 2;
+    let mut xs: Vec<f64> =
+        (0..=m).map(|k| 0.5 * (1.0 - (PI * k as f64 / m as f64).cos())).collect();
+    xs.extend(breaks.iter().copied().filter(|x| *x > 0.0 && *x < 1.0));
+    xs.sort_by(f64::total_cmp);
+    xs.dedup_by(|a, b| (*a - *b).abs() < 1e-9);
+    let last = xs.len() - 1;
+    let mut outer = Vec::with_capacity(2 * last);
+    for &x in &xs {
+        outer.push([(x - 0.25) * chord, naca00_half(t, x) * chord]);
+    }
+    for &x in xs[1..last].iter().rev() {
+        outer.push([(x - 0.25) * chord, -naca00_half(t, x) * chord]);
+    }
+    let nn = outer.len();
+    let seg = (0..nn)
+        .map(|i| {
+            let (a, b) = (outer[i], outer[(i + 1) % nn]);
+            pick(0.5 * (a[0] + b[0]) / chord + 0.25, i < last)
+        })
+        .collect();
+    let mut l = layout(outer, seg, laminates);
+    l.pitch_axis_frac = 0.25;
+    l
+}
