@@ -42,11 +42,13 @@ fn section_layout_is_a_closed_contour_with_a_laminate_per_segment() {
     let b = fixture();
     let layout = b.section_layout(1.0, 200).unwrap();
     assert_eq!(layout.outer.len(), layout.segment_laminate.len());
-    // The NACA 0015 open trailing edge gives a blunt base: 101 upper + 100 lower points.
-    assert_eq!(layout.outer.len(), 201);
+    // The NACA 0015 open trailing edge gives a blunt base: 101 upper + 100 lower points, plus
+    // vertices at the cap's edges (x/c = 0.2 and 0.4 on the upper surface).
+    assert_eq!(layout.outer.len(), 203);
+    assert!(layout.outer.iter().any(|p| (p[0] - (0.2 - 0.3) * 0.4).abs() < 1e-12 && p[1] > 0.0));
     // Leading edge at y = -0.3 c on the pitch axis frame, trailing edge at +0.7 c.
     assert!((layout.outer[0][0] + 0.12).abs() < 1e-12 && layout.outer[0][1].abs() < 1e-12);
-    assert!((layout.outer[100][0] - 0.28).abs() < 1e-3);
+    assert!((layout.outer[102][0] - 0.28).abs() < 1e-3);
     // Distinct laminates: skin, skin + cap, web.
     assert_eq!(layout.laminates.len(), 3);
     assert_eq!(layout.webs.len(), 1);
@@ -106,6 +108,31 @@ fn demo_projects_build_every_section() {
         }
         if demo.contains("small-wind") {
             assert!(b.warnings().is_empty(), "{:?}", b.warnings());
+        }
+    }
+}
+
+#[test]
+fn demo_sections_solve() {
+    use layloft::section::{SectionParams, solve_section};
+    for demo in ["layups/mine-fan/blade.toml", "layups/small-wind/blade.toml"] {
+        let p = read_project(demo.as_ref()).unwrap();
+        let b = Blade::from_project(&p).unwrap();
+        for r in b.analysis_radii(21) {
+            let layout = b.section_layout(r, p.sections.contour_points).unwrap();
+            let s = solve_section(&layout, &SectionParams::default())
+                .unwrap_or_else(|e| panic!("{demo} r={r}: {e}"));
+            eprintln!(
+                "{demo} r={r:.3} EA={:.3e} EIf={:.3e} EIe={:.3e} GJ={:.3e} m={:.4} ec={:?} sc={:?} warn={:?}",
+                s.ea,
+                s.ei_flap,
+                s.ei_edge,
+                s.gj,
+                s.mass_per_length,
+                s.elastic_centre,
+                s.shear_centre,
+                s.warnings
+            );
         }
     }
 }

@@ -4,6 +4,7 @@ use std::collections::HashMap;
 
 use super::coverage::Surface;
 use super::{Blade, BladeError};
+use crate::input::Region;
 use crate::section::{SectionLayout, WebLayout};
 
 impl Blade {
@@ -20,7 +21,30 @@ impl Blade {
         contour_points: usize,
     ) -> Result<SectionLayout, BladeError> {
         let n = (contour_points / 2).max(8);
-        let outline = self.outline(r, n)?;
+        let mut outline = self.outline(r, n)?;
+        // A vertex at every ply edge, so that each segment lies under one laminate.
+        let edges = |surface: Surface| -> Vec<f64> {
+            let mut e: Vec<f64> = self
+                .plies
+                .iter()
+                .filter(|p| p.spec.r_start <= r + 1e-9 && r <= p.spec.r_end + 1e-9)
+                .filter(|p| {
+                    matches!(
+                        (&p.spec.region, surface),
+                        (Region::Both, _)
+                            | (Region::Upper, Surface::Upper)
+                            | (Region::Lower, Surface::Lower)
+                    )
+                })
+                .flat_map(|p| [p.spec.from, p.spec.to])
+                .filter(|&x| x > 1e-6 && x < 1.0 - 1e-6)
+                .collect();
+            e.sort_by(f64::total_cmp);
+            e.dedup_by(|a, b| (*a - *b).abs() < 1e-9);
+            e
+        };
+        insert_edges(&mut outline.upper, &edges(Surface::Upper));
+        insert_edges(&mut outline.lower, &edges(Surface::Lower));
         let chord = self.chord(r);
         let pa = self.pitch_axis_frac(r);
         let to_frame = |p: [f64; 2]| [(p[0] - pa) * chord, p[1] * chord];
@@ -113,5 +137,22 @@ impl Blade {
             segment_laminate,
             webs,
         })
+    }
+}
+
+/// Inserts a point at each chord fraction in `edges` (sorted) on a surface running from the
+/// leading edge to the trailing edge, on the straight segment that straddles it; a point within
+/// 1e-6 chord of an existing one is taken as already there.
+fn insert_edges(surface: &mut Vec<[f64; 2]>, edges: &[f64]) {
+    for &x in edges {
+        let Some(i) = surface.windows(2).position(|w| w[0][0] <= x && x < w[1][0]) else {
+            continue;
+        };
+        let (a, b) = (surface[i], surface[i + 1]);
+        if (x - a[0]).abs() < 1e-6 || (b[0] - x).abs() < 1e-6 {
+            continue;
+        }
+        let w = (x - a[0]) / (b[0] - a[0]);
+        surface.insert(i + 1, [x, a[1] + w * (b[1] - a[1])]);
     }
 }

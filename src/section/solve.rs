@@ -255,6 +255,9 @@ struct DepthCheck {
 }
 
 /// Wall thickness against the local depth normal to the chord, over the mostly chordwise walls.
+/// Chord fraction behind the leading edge where the depth test of wall thickness begins.
+const NOSE_FRACTION: f64 = 0.05;
+
 fn depth_check(
     layout: &SectionLayout,
     thickness: &[f64],
@@ -276,6 +279,10 @@ fn depth_check(
             continue;
         }
         let mid = lerp(a, b, 0.5);
+        // The rounded nose is judged by its radius, not by a depth normal to the chord.
+        if y_c(layout, mid[0]) < NOSE_FRACTION {
+            continue;
+        }
         let other = if i < i_te { &lower } else { &upper };
         let Some(z) = chain_z_at(other, mid[0]) else { continue };
         let depth = (mid[1] - z).abs();
