@@ -46,6 +46,7 @@
 #![warn(missing_docs)]
 
 pub mod airfoil;
+pub mod analysis;
 pub mod blade;
 pub mod check;
 mod error;

@@ -113,26 +113,34 @@ fn demo_projects_build_every_section() {
 }
 
 #[test]
-fn demo_sections_solve() {
-    use layloft::section::{SectionParams, solve_section};
+fn demo_models_build_and_their_mass_matches_the_sections() {
+    use layloft::analysis::BladeModel;
     for demo in ["layups/mine-fan/blade.toml", "layups/small-wind/blade.toml"] {
-        let p = read_project(demo.as_ref()).unwrap();
-        let b = Blade::from_project(&p).unwrap();
-        for r in b.analysis_radii(21) {
-            let layout = b.section_layout(r, p.sections.contour_points).unwrap();
-            let s = solve_section(&layout, &SectionParams::default())
-                .unwrap_or_else(|e| panic!("{demo} r={r}: {e}"));
-            eprintln!(
-                "{demo} r={r:.3} EA={:.3e} EIf={:.3e} EIe={:.3e} GJ={:.3e} m={:.4} ec={:?} sc={:?} warn={:?}",
-                s.ea,
-                s.ei_flap,
-                s.ei_edge,
-                s.gj,
-                s.mass_per_length,
-                s.elastic_centre,
-                s.shear_centre,
-                s.warnings
-            );
+        let model = BladeModel::build(read_project(demo.as_ref()).unwrap()).unwrap();
+        let props = model.properties();
+        assert_eq!(props.len(), model.project.sections.analysis_stations);
+        // The fine ply-area integral and a trapezoid over the solved sections' mass per length
+        // agree within the coarse grid's error at drop-offs (5 %).
+        let trap: f64 = props
+            .windows(2)
+            .map(|w| 0.5 * (w[0].mass_per_length + w[1].mass_per_length) * (w[1].r - w[0].r))
+            .sum();
+        let mass = model.mass();
+        assert!(
+            (mass.laminate_kg - trap).abs() / trap < 0.05,
+            "{demo}: {} vs {trap}",
+            mass.laminate_kg
+        );
+        assert!(
+            mass.centre_radius_m > model.blade.root_radius()
+                && mass.centre_radius_m < model.blade.tip_radius()
+        );
+        for w in model.warnings() {
+            eprintln!("{demo}: {w}");
         }
+        eprintln!(
+            "{demo}: mass {:.3} kg, centre at r = {:.3} m",
+            mass.total_kg, mass.centre_radius_m
+        );
     }
 }

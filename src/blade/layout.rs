@@ -20,6 +20,17 @@ impl Blade {
         r: f64,
         contour_points: usize,
     ) -> Result<SectionLayout, BladeError> {
+        self.section_layout_with_plies(r, contour_points).map(|(layout, _)| layout)
+    }
+
+    /// [`Blade::section_layout`] together with, for each of the layout's laminates, the indices
+    /// of its plies in the schedule (outermost first), for reports that name plies
+    /// ([`Blade::ply`]).
+    pub fn section_layout_with_plies(
+        &self,
+        r: f64,
+        contour_points: usize,
+    ) -> Result<(SectionLayout, Vec<Vec<usize>>), BladeError> {
         let n = (contour_points / 2).max(8);
         let mut outline = self.outline(r, n)?;
         // A vertex at every ply edge, so that each segment lies under one laminate.
@@ -127,7 +138,7 @@ impl Blade {
         }
 
         let laminates = keys.iter().map(|k| self.laminate_of(k)).collect();
-        Ok(SectionLayout {
+        let layout = SectionLayout {
             r,
             chord,
             twist: self.twist(r),
@@ -136,7 +147,8 @@ impl Blade {
             laminates,
             segment_laminate,
             webs,
-        })
+        };
+        Ok((layout, keys))
     }
 }
 

@@ -225,6 +225,16 @@ impl Blade {
         self.loft.pitch_axis_frac(r)
     }
 
+    /// The ply of the schedule with that index (as in `plies.csv`, outermost first).
+    pub fn ply(&self, index: usize) -> Option<&PlySpec> {
+        self.plies.get(index).map(|p| &p.spec)
+    }
+
+    /// Number of plies in the schedule.
+    pub fn ply_count(&self) -> usize {
+        self.plies.len()
+    }
+
     /// Webs, leading edge first.
     pub fn webs(&self) -> &[WebSpec] {
         &self.webs

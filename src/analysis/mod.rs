@@ -1,0 +1,175 @@
+//! The chain every command shares: a project read and checked, its lofted blade, and the solved
+//! section at every analysis station, with the blade's mass.
+//!
+//! ```no_run
+//! use layloft::analysis::BladeModel;
+//! use layloft::input::read_project;
+//!
+//! # fn main() -> Result<(), layloft::Error> {
+//! let model = BladeModel::build(read_project("layups/mine-fan/blade.toml".as_ref())?)?;
+//! for s in model.properties() {
+//!     println!("r = {:.3} m  EI_flap = {:.3e} N·m²", s.r, s.ei_flap);
+//! }
+//! println!("blade mass {:.3} kg", model.mass().total_kg);
+//! # Ok(())
+//! # }
+//! ```
+
+use crate::Error;
+use crate::blade::Blade;
+use crate::input::Project;
+use crate::section::{SectionLayout, SectionParams, SectionProperties, SolvedSection};
+
+/// One analysis station: its wall layout, the schedule's plies in each of its laminates, and the
+/// solved section.
+#[derive(Debug, Clone)]
+pub struct AnalysisStation {
+    /// The wall layout.
+    pub layout: SectionLayout,
+    /// For each laminate of the layout, the indices of its plies in the schedule.
+    pub plies: Vec<Vec<usize>>,
+    /// The solved section.
+    pub section: SolvedSection,
+}
+
+/// Mass of the blade.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct BladeMass {
+    /// Laminates (ply areas times densities) and point masses, kg.
+    pub total_kg: f64,
+    /// Laminates alone, kg.
+    pub laminate_kg: f64,
+    /// Point masses, kg.
+    pub point_masses_kg: f64,
+    /// Radius of the mass centre from the rotor axis, m.
+    pub centre_radius_m: f64,
+    /// First moment of mass about the rotor axis (the static moment that balancing works
+    /// against), kg·m.
+    pub static_moment_kg_m: f64,
+}
+
+/// A project with its blade and solved sections.
+#[derive(Debug, Clone)]
+pub struct BladeModel {
+    /// The project.
+    pub project: Project,
+    /// The lofted blade.
+    pub blade: Blade,
+    /// The analysis stations, root to tip.
+    pub stations: Vec<AnalysisStation>,
+}
+
+impl BladeModel {
+    /// Lofts the blade and solves every analysis station.
+    pub fn build(project: Project) -> Result<Self, Error> {
+        Self::build_with_progress(project, &mut |_, _| {})
+    }
+
+    /// [`BladeModel::build`], calling `progress(done, total)` after each station.
+    pub fn build_with_progress(
+        project: Project,
+        progress: &mut dyn FnMut(usize, usize),
+    ) -> Result<Self, Error> {
+        let blade = Blade::from_project(&project)?;
+        let radii = blade.analysis_radii(project.sections.analysis_stations);
+        let params = SectionParams::default();
+        let mut stations = Vec::with_capacity(radii.len());
+        for (i, &r) in radii.iter().enumerate() {
+            let (layout, plies) =
+                blade.section_layout_with_plies(r, project.sections.contour_points)?;
+            let section = SolvedSection::solve(&layout, &params)?;
+            stations.push(AnalysisStation { layout, plies, section });
+            progress(i + 1, radii.len());
+        }
+        Ok(BladeModel { project, blade, stations })
+    }
+
+    /// The sections' properties, root to tip.
+    pub fn properties(&self) -> Vec<SectionProperties> {
+        self.stations.iter().map(|s| s.section.properties.clone()).collect()
+    }
+
+    /// The analysis radii, m.
+    pub fn radii(&self) -> Vec<f64> {
+        self.stations.iter().map(|s| s.layout.r).collect()
+    }
+
+    /// Mass of the blade: laminates by ply areas times densities on a fine spanwise grid (so that
+    /// drop-offs fall where they are), plus the point masses.
+    pub fn mass(&self) -> BladeMass {
+        let (r0, r1) = (self.blade.root_radius(), self.blade.tip_radius());
+        let n = 400;
+        let h = (r1 - r0) / n as f64;
+        let (mut m, mut s) = (0.0, 0.0);
+        for i in 0..n {
+            // Midpoint rule: never samples exactly at a drop-off.
+            let r = r0 + (i as f64 + 0.5) * h;
+            let w = self.blade.ply_mass_per_length(r, 120).unwrap_or(0.0) * h;
+            m += w;
+            s += w * r;
+        }
+        let pm: f64 = self.project.point_masses.iter().map(|p| p.mass).sum();
+        let pm_moment: f64 = self.project.point_masses.iter().map(|p| p.mass * p.r).sum();
+        let total = m + pm;
+        BladeMass {
+            total_kg: total,
+            laminate_kg: m,
+            point_masses_kg: pm,
+            centre_radius_m: if total > 0.0 { (s + pm_moment) / total } else { 0.0 },
+            static_moment_kg_m: s + pm_moment,
+        }
+    }
+
+    /// Warnings of the blade and its sections, alike ones grouped: each with the radii where it
+    /// occurs.
+    pub fn warnings(&self) -> Vec<GroupedWarning> {
+        let mut groups: Vec<GroupedWarning> = self
+            .blade
+            .warnings()
+            .into_iter()
+            .map(|w| GroupedWarning { first: w, radii: vec![] })
+            .collect();
+        for st in &self.stations {
+            for w in &st.section.properties.warnings {
+                let key = shape_of(w);
+                match groups.iter_mut().find(|g| !g.radii.is_empty() && shape_of(&g.first) == key) {
+                    Some(g) => g.radii.push(st.layout.r),
+                    None => {
+                        groups.push(GroupedWarning { first: w.clone(), radii: vec![st.layout.r] })
+                    }
+                }
+            }
+        }
+        groups
+    }
+}
+
+/// A warning and the radii where it (or one like it with other numbers) occurs; no radii for a
+/// warning about the whole blade.
+#[derive(Debug, Clone, PartialEq)]
+pub struct GroupedWarning {
+    /// The first occurrence, in full.
+    pub first: String,
+    /// Radii where it occurs, m.
+    pub radii: Vec<f64>,
+}
+
+impl std::fmt::Display for GroupedWarning {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self.radii.as_slice() {
+            [] => write!(f, "{}", self.first),
+            [r] => write!(f, "r = {r:.3} m: {}", self.first),
+            [r, .., last] => write!(
+                f,
+                "r = {r:.3} m: {} (and alike at {} more stations up to r = {last:.3} m)",
+                self.first,
+                self.radii.len() - 1
+            ),
+        }
+    }
+}
+
+/// The words of a message without its numbers, to group alike messages.
+fn shape_of(message: &str) -> String {
+    message.chars().filter(|c| !c.is_ascii_digit() && *c != '.' && *c != '-').collect()
+}
