@@ -6,6 +6,7 @@ use crate::laminate::LaminateError;
 use crate::loads::LoadsError;
 use crate::material::MaterialError;
 use crate::section::SectionError;
+use crate::stress::StressError;
 
 /// Any error layloft's library can return.
 #[derive(Debug, thiserror::Error)]
@@ -28,6 +29,9 @@ pub enum Error {
     /// A section that cannot be solved.
     #[error(transparent)]
     Section(#[from] SectionError),
+    /// Stress recovery.
+    #[error(transparent)]
+    Stress(#[from] StressError),
     /// Writing an output file.
     #[error("cannot write {path}: {source}")]
     Write {

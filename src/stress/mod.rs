@@ -1,1 +1,241 @@
-//! The `stress` stage (see DESIGN.md); filled in by its issue.
+//! Ply-level stress recovery along the blade: for every load case, at every analysis station,
+//! wall point and ply, the ply stresses in material axes and the strength ratio by every failure
+//! criterion; and for each case the lowest reserve factor with where it occurs.
+//!
+//! Method: the case's resultants at each station (see [`crate::loads`]) are moved from the pitch
+//! axis to the elastic centre (torque to the shear centre), turned into generalised beam strains
+//! by the section compliance, then into wall resultants `(N_x, N_xs)` at the midpoint of every wall
+//! element by the thin-walled section theory of [`crate::section`] (closed-cell and transverse
+//! shear flows), then into ply stresses by classical laminate theory with the wall's hoop force
+//! and moments free, and a uniform temperature change `delta_T_K` of the case as a fixed
+//! residual part. The reserve factor is the strength ratio of the governing criterion at the
+//! factored load: the factor on the case's (already factored) loads that brings the first ply to
+//! failure; below 1 the ply fails under the factored load.
+//!
+//! ```no_run
+//! use layloft::analysis::BladeModel;
+//! use layloft::input::read_project;
+//! use layloft::stress::analyse_cases;
+//!
+//! # fn main() -> Result<(), layloft::Error> {
+//! let model = BladeModel::build(read_project("layups/mine-fan/blade.toml".as_ref())?)?;
+//! for case in analyse_cases(&model, None)? {
+//!     if let Some(c) = &case.critical {
+//!         println!("{}: reserve factor {:.2} at r = {:.3} m", case.name, c.reserve_factor, c.r);
+//!     }
+//! }
+//! # Ok(())
+//! # }
+//! ```
+
+mod recover;
+mod summary;
+
+pub use summary::{Critical, PlyWorst};
+
+use nalgebra::Vector3;
+
+use crate::analysis::BladeModel;
+use crate::failure::CriteriaRatios;
+use crate::input::LoadCaseSpec;
+use crate::laminate::LaminateError;
+use crate::loads::{LoadDistribution, LoadsError, PitchReaction, Resultant, TipDeflection, span_loads};
+use recover::{UnitResponse, recover_section};
+
+/// What can go wrong in stress recovery.
+#[derive(Debug, thiserror::Error)]
+pub enum StressError {
+    /// A laminate that cannot be loaded.
+    #[error(transparent)]
+    Laminate(#[from] LaminateError),
+    /// Load case trouble.
+    #[error(transparent)]
+    Loads(#[from] LoadsError),
+    /// A temperature change on plies without expansion coefficients.
+    #[error("load case '{case}' has delta_T_K = {delta_t} but material '{material}' gives no a1_ustrain_K/a2_ustrain_K: give the CTEs or remove delta_T_K")]
+    NoCte {
+        /// The case.
+        case: String,
+        /// Its temperature change, K.
+        delta_t: f64,
+        /// A material without CTEs.
+        material: String,
+    },
+}
+
+/// Where on a section a wall point lies.
+#[derive(Debug, Clone, PartialEq)]
+pub enum WallLocation {
+    /// On the skin.
+    Surface {
+        /// Upper (true) or lower surface.
+        upper: bool,
+        /// Chord fraction from the leading edge.
+        x_c: f64,
+        /// Whether this is the solid trailing-edge laminate aft of where the walls meet.
+        solid: bool,
+    },
+    /// On a shear web.
+    Web {
+        /// The web's name.
+        name: String,
+        /// Height of the point in the chord frame, m.
+        z: f64,
+    },
+}
+
+impl std::fmt::Display for WallLocation {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self {
+            WallLocation::Surface { upper, x_c, solid } => write!(
+                f,
+                "{} surface at x/c = {x_c:.3}{}",
+                if *upper { "upper" } else { "lower" },
+                if *solid { " (solid trailing edge)" } else { "" }
+            ),
+            WallLocation::Web { name, z } => write!(f, "web '{name}' at z = {:.1} mm", z * 1e3),
+        }
+    }
+}
+
+/// Strength ratios of one ply at one wall point (the worse of its two faces).
+#[derive(Debug, Clone, PartialEq)]
+pub struct PlyPoint {
+    /// Position of the ply in its laminate (0 = outermost).
+    pub ply_in_laminate: usize,
+    /// Ratios by every criterion.
+    pub ratios: CriteriaRatios,
+    /// Material-axis stresses (sigma1, sigma2, tau12), Pa, at the face with the lower ratio,
+    /// residual part included.
+    pub stress_12: Vector3<f64>,
+}
+
+/// The state at one wall point.
+#[derive(Debug, Clone, PartialEq)]
+pub struct PointStress {
+    /// Wall element index in the solved section.
+    pub element: usize,
+    /// Laminate index in the layout.
+    pub laminate: usize,
+    /// Position (y, z) on the midline, m, chord frame.
+    pub position: [f64; 2],
+    /// Where that is.
+    pub location: WallLocation,
+    /// Wall axial force per width, N/m.
+    pub n_x: f64,
+    /// Wall shear flow, N/m.
+    pub n_xs: f64,
+    /// Every ply of the wall.
+    pub plies: Vec<PlyPoint>,
+}
+
+impl PointStress {
+    /// The lowest strength ratio of the point over plies and criteria.
+    pub fn reserve_factor(&self) -> f64 {
+        self.plies
+            .iter()
+            .filter_map(|p| p.ratios.governing().map(|(_, r)| r.ratio))
+            .fold(f64::INFINITY, f64::min)
+    }
+}
+
+/// One station's points.
+#[derive(Debug, Clone, PartialEq)]
+pub struct StationStress {
+    /// Radius, m.
+    pub r: f64,
+    /// Every wall point.
+    pub points: Vec<PointStress>,
+}
+
+/// Stress recovery of one load case.
+#[derive(Debug, Clone, PartialEq)]
+pub struct CaseStress {
+    /// Case name.
+    pub name: String,
+    /// Rotor speed, rpm.
+    pub rpm: f64,
+    /// Load factor applied.
+    pub load_factor: f64,
+    /// Root reaction (rotor frame, about the pitch axis at the root).
+    pub root: Resultant,
+    /// Tip deflection under the factored loads.
+    pub tip_deflection: TipDeflection,
+    /// Per analysis station.
+    pub stations: Vec<StationStress>,
+    /// The lowest reserve factor and where it occurs (`None` when no ply can fail).
+    pub critical: Option<Critical>,
+    /// The worst value of every schedule ply at every station.
+    pub ply_worst: Vec<PlyWorst>,
+    /// Root reactions across the pitch range.
+    pub pitch_sweep: Vec<PitchReaction>,
+}
+
+fn check_cte(model: &BladeModel, case: &LoadCaseSpec) -> Result<(), StressError> {
+    if case.delta_t == 0.0 {
+        return Ok(());
+    }
+    for st in &model.stations {
+        for lam in &st.layout.laminates {
+            if let Some(p) = lam.plies().iter().find(|p| p.material.cte.is_none()) {
+                return Err(StressError::NoCte {
+                    case: case.name.clone(),
+                    delta_t: case.delta_t,
+                    material: p.material.name.clone(),
+                });
+            }
+        }
+    }
+    Ok(())
+}
+
+/// Stress recovery of one load case of the model.
+pub fn analyse_case(model: &BladeModel, case: &LoadCaseSpec) -> Result<CaseStress, StressError> {
+    check_cte(model, case)?;
+    let props = model.properties();
+    let pitch = case.pitch.unwrap_or(model.project.rotor.pitch);
+    let dist = LoadDistribution::new(&props, &model.project.point_masses, case, pitch)?;
+    let loads = span_loads(&dist);
+    let fine = span_loads(&dist.clone().refine(8));
+    let tip_deflection = crate::loads::tip_deflection(&props, &fine)?;
+    let mut stations = Vec::with_capacity(model.stations.len());
+    for st in &model.stations {
+        let units = st
+            .layout
+            .laminates
+            .iter()
+            .map(|l| UnitResponse::new(l, case.delta_t))
+            .collect::<Result<Vec<_>, _>>()?;
+        let resultants = loads.chord_at(st.layout.r);
+        let points = recover_section(&st.layout, &st.section, &units, &resultants);
+        stations.push(StationStress { r: st.layout.r, points });
+    }
+    let critical = summary::critical(model, &stations);
+    let ply_worst = summary::ply_worst(model, &stations);
+    let pitch_sweep = crate::loads::root_reactions_over_pitch(
+        &props,
+        &model.project.rotor,
+        &model.project.point_masses,
+        case,
+        11,
+    )?;
+    Ok(CaseStress {
+        name: case.name.clone(),
+        rpm: case.rpm,
+        load_factor: case.load_factor,
+        root: loads.root(),
+        tip_deflection,
+        stations,
+        critical,
+        ply_worst,
+        pitch_sweep,
+    })
+}
+
+/// Stress recovery of the named case, or of every case of the project when `only` is `None`.
+pub fn analyse_cases(model: &BladeModel, only: Option<&str>) -> Result<Vec<CaseStress>, StressError> {
+    match only {
+        Some(name) => Ok(vec![analyse_case(model, crate::loads::find_case(&model.project, name)?)?]),
+        None => model.project.load_cases.iter().map(|c| analyse_case(model, c)).collect(),
+    }
+}
