@@ -3,6 +3,7 @@
 use crate::input::InputError;
 use crate::laminate::LaminateError;
 use crate::material::MaterialError;
+use crate::tooling::MeshError;
 
 /// Any error layloft's library can return.
 #[derive(Debug, thiserror::Error)]
@@ -16,6 +17,9 @@ pub enum Error {
     /// A laminate code or laminate.
     #[error(transparent)]
     Laminate(#[from] LaminateError),
+    /// A tooling mesh that cannot be built or fails its checks.
+    #[error(transparent)]
+    Mesh(#[from] MeshError),
     /// Writing an output file.
     #[error("cannot write {path}: {source}")]
     Write {
