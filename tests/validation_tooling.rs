@@ -488,3 +488,29 @@ fn a_folder_that_cannot_be_written_or_a_failed_check_writes_nothing() {
     assert!(e.to_string().starts_with("shell: the surface is open"), "{e}");
     assert!(!out.exists());
 }
+
+#[test]
+fn parts_that_single_precision_cannot_hold_or_that_share_a_name_are_refused() {
+    // A box 1 µm long at 10 km: its ends are 1e-3 mm apart at 1e7 mm, where single precision
+    // steps by 1 mm (IEEE 754 binary32: 24-bit significand), so they would merge in the file.
+    let sliver = box_mesh([1e4, 0.0, 0.0], [1e4 + 1e-6, 1.0, 1.0]);
+    let dir = tempfile::tempdir().unwrap();
+    let out = dir.path().join("parts");
+    let e =
+        write_parts(&out, &[("core", &sliver)], &StlOptions::default(), &CheckParams::default())
+            .unwrap_err();
+    assert!(
+        e.to_string().contains("coincide") && e.to_string().starts_with("core: vertices"),
+        "{e}"
+    );
+    let good = tube_mesh();
+    let e = write_parts(
+        &out,
+        &[("core", &good), ("core", &good)],
+        &StlOptions::default(),
+        &CheckParams::default(),
+    )
+    .unwrap_err();
+    assert_eq!(e.to_string(), "two parts are named 'core'; each part needs its own file name");
+    assert!(!out.exists());
+}

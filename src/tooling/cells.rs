@@ -136,3 +136,17 @@ impl SpanSurface for Cell<'_> {
         self.parent.sample_radii()
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn crossing_finds_the_parameter_of_a_web() {
+        // y = u² + u reaches y at u = (−1 + √(1 + 4y)) / 2 (quadratic formula).
+        for y in [0.01, 0.5, 1.3, 1.99] {
+            let u = crossing(|u| [u * u + u, 0.0], y);
+            assert!((u - (-1.0 + (1.0 + 4.0 * y).sqrt()) / 2.0).abs() < 1e-13, "{y}");
+        }
+    }
+}

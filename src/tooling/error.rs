@@ -195,6 +195,24 @@ pub enum MeshError {
         /// The unit symbol.
         unit: &'static str,
     },
+    /// Two vertices that become one when rounded to the single precision of STL.
+    #[error(
+        "{part}: vertices {a} and {b} coincide at {at} once rounded to single precision in the \
+         file; the surface is meshed more finely than STL can hold: loosen the tolerance"
+    )]
+    Coincident {
+        /// The part.
+        part: String,
+        /// One vertex index.
+        a: usize,
+        /// The other.
+        b: usize,
+        /// Where.
+        at: Place,
+    },
+    /// Two parts given the same name (they would be written to one file).
+    #[error("two parts are named '{0}'; each part needs its own file name")]
+    DuplicatePart(String),
     /// Two facets of the surface cross or touch.
     #[error("{part}: the surface intersects itself: triangles {a} and {b} meet near {at}")]
     SelfIntersection {

@@ -5,12 +5,13 @@
 //! default) is the scale applied here. Facet normals are the unit normals of the triangles as
 //! they wind (outward for a checked solid).
 
+use std::collections::HashMap;
 use std::io::Write;
 use std::path::{Path, PathBuf};
 use std::str::FromStr;
 
 use super::check::{CheckParams, MeshSummary, check_solid};
-use super::error::MeshError;
+use super::error::{MeshError, Place};
 use super::mesh::Mesh;
 use crate::Error;
 use crate::report::write_atomic_with;
@@ -158,7 +159,39 @@ pub struct WrittenPart {
     pub summary: MeshSummary,
 }
 
-/// Checks every part (see [`check_solid`]), and only when all pass writes each to
+/// The mesh as the file will hold it: coordinates rounded to single precision in `unit`.
+/// Fails when two used vertices round to the same point (a reader would join them).
+fn as_written(mesh: &Mesh, part: &str, unit: LengthUnit) -> Result<Mesh, MeshError> {
+    let s = unit.per_metre();
+    let mut seen: HashMap<[u32; 3], usize> = HashMap::with_capacity(mesh.vertices.len());
+    let mut used = vec![false; mesh.vertices.len()];
+    mesh.triangles.iter().flatten().for_each(|&i| used[i as usize] = true);
+    let mut rounded = Mesh {
+        vertices: Vec::with_capacity(mesh.vertices.len()),
+        triangles: mesh.triangles.clone(),
+    };
+    for (i, p) in mesh.vertices.iter().enumerate() {
+        let q = p.map(|c| (c * s) as f32);
+        if used[i]
+            && let Some(&j) = seen.get(&q.map(f32::to_bits))
+        {
+            return Err(MeshError::Coincident {
+                part: part.into(),
+                a: j,
+                b: i,
+                at: Place { point: *p, unit },
+            });
+        }
+        if used[i] {
+            seen.insert(q.map(f32::to_bits), i);
+        }
+        rounded.vertices.push(q.map(|c| f64::from(c) / s));
+    }
+    Ok(rounded)
+}
+
+/// Checks every part (see [`check_solid`]) as computed and, except for self-intersection, as
+/// rounded to single precision for the file; only when all pass writes each to
 /// `DIR/NAME.stl`, creating `dir` if needed. A failed check writes nothing; each file is written
 /// atomically, so none is ever half written (if the disk fails part-way, the files already
 /// renamed into place are whole and the rest are untouched).
@@ -170,9 +203,14 @@ pub fn write_parts(
 ) -> Result<Vec<WrittenPart>, Error> {
     let check = CheckParams { unit: options.unit, ..check.clone() };
     let mut done = Vec::with_capacity(parts.len());
-    for &(name, mesh) in parts {
+    for (i, &(name, mesh)) in parts.iter().enumerate() {
         check_part_name(name)?;
+        if parts[..i].iter().any(|&(other, _)| other == name) {
+            return Err(MeshError::DuplicatePart(name.into()).into());
+        }
         let summary = check_solid(mesh, name, &check)?;
+        let rounded = as_written(mesh, name, options.unit)?;
+        check_solid(&rounded, name, &CheckParams { self_intersection: false, ..check.clone() })?;
         done.push(WrittenPart {
             name: name.into(),
             path: dir.join(format!("{name}.stl")),

@@ -179,3 +179,28 @@ pub(crate) fn solve_end(
     }
     Err(fail(format!("did not converge on the {line} line between x = {a:.9} and {b:.9} m")))
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn line_ends_land_on_the_sphere_and_the_plane() {
+        // A line parallel to x at distance 0.05 m: |p| = R at x = sqrt(R² − 0.05²) (Pythagoras).
+        let c = |_x: f64| [0.03, -0.04];
+        let sphere = EndTrim::Sphere { radius: 0.5 };
+        let x = solve_end(&c, [0.1, 1.0], sphere, End::Tip, "test").unwrap();
+        assert!((x - (0.25f64 - 0.0025).sqrt()).abs() < 1e-15);
+        // A cone c = (0.1 x, 0): |p| = x √1.01.
+        let cone = |x: f64| [0.1 * x, 0.0];
+        let x = solve_end(&cone, [0.1, 1.0], sphere, End::Root, "test").unwrap();
+        assert!((x * 1.01f64.sqrt() / 0.5 - 1.0).abs() < 1e-14);
+        let plane = EndTrim::Plane { x: 0.3 };
+        assert_eq!(solve_end(&cone, [0.1, 1.0], plane, End::Root, "test").unwrap(), 0.3);
+        // Lifting puts a point exactly on the trim surface.
+        let p = sphere.lift([0.4, 0.1, -0.2]);
+        assert!((vec3::norm(p) - 0.5).abs() < 1e-15);
+        assert!(solve_end(&c, [0.6, 1.0], sphere, End::Tip, "upper u = 0").is_err());
+        assert!(solve_end(&c, [0.1, 0.4], sphere, End::Tip, "upper u = 0").is_err());
+    }
+}
