@@ -9,8 +9,10 @@
 //! → front, the direction of wall axis 2 in DESIGN.md (clockwise in the `(y, z)` plane).
 //!
 //! The section is turned about x by the chord angle φ(x) (twist + pitch) into the rotor frame:
-//! `(x, y, z)_rotor = (x, y cos φ − z sin φ, y sin φ + z cos φ)`. Because this is a rotation about
-//! the pitch axis through the rotor centre, `|p|` does not depend on φ.
+//! `(x, y, z)_rotor = (x, y cos φ − z sin φ, y sin φ + z cos φ)`, where the rotor frame's y lies
+//! in the plane of rotation and its z along the rotor axis, so φ = 0 puts the chord in the plane of
+//! rotation (DESIGN.md measures the chord angle from it). Because this is a rotation about the
+//! pitch axis through the rotor centre, `|p|` does not depend on φ.
 
 use crate::units::Angle;
 
