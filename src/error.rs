@@ -7,6 +7,7 @@ use crate::loads::LoadsError;
 use crate::material::MaterialError;
 use crate::section::SectionError;
 use crate::stress::StressError;
+use crate::tooling::MeshError;
 
 /// Any error layloft's library can return.
 #[derive(Debug, thiserror::Error)]
@@ -32,6 +33,9 @@ pub enum Error {
     /// Stress recovery.
     #[error(transparent)]
     Stress(#[from] StressError),
+    /// A tooling mesh that cannot be built or fails its checks.
+    #[error(transparent)]
+    Mesh(#[from] MeshError),
     /// Writing an output file.
     #[error("cannot write {path}: {source}")]
     Write {

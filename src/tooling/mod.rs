@@ -1,1 +1,67 @@
-//! The `tooling` stage (see DESIGN.md); filled in by its issue.
+//! Tooling geometry: closed, outward-facing triangle meshes of the parts a blade is made with
+//! (cores, the laminate shell, mould halves), their checks, and STL output.
+//!
+//! The kernel lofts a span-wise family of closed contours ([`SpanSurface`]: an upper and a lower
+//! chain in the chord frame, turned by the chord angle about the pitch axis) into a tube whose
+//! spacing follows a chordal tolerance in both directions, trims each end by a sphere about the
+//! rotor centre (or a plane) with every end vertex exactly on it, and closes the ends with caps
+//! lifted onto the trim surfaces ([`loft_solid`], [`loft_annulus`], [`loft_hollow`]). Webs cut a
+//! family into cells ([`split_cells`]). Meshes are checked ([`check_solid`]: closed 2-manifold,
+//! outward, no degenerate facets, no self-intersection) before they are written as STL
+//! ([`write_parts`]).
+//!
+//! Frames: the rotor frame has its origin on the rotor axis where the pitch axis meets it, x along
+//! the pitch axis from root to tip; the section plane at radius x is (y, z). Pitching turns the
+//! blade about x through the origin, so `|p|` is unchanged and a spherical end keeps its clearance
+//! to the hub or the duct at every pitch angle (common practice). Lengths are metres inside and
+//! scaled to the output unit only when written.
+//!
+//! ```
+//! use layloft::tooling::{CheckParams, ChainEnds, EndKind, FnSurface, LoftParams, Trims};
+//! use layloft::tooling::{check_solid, loft_solid};
+//! use layloft::units::Angle;
+//!
+//! # fn main() -> Result<(), layloft::Error> {
+//! // An invented lens-shaped section, 60 mm chord, twisted 10 degrees over the span.
+//! let lens = |sign: f64| move |_x: f64, u: f64| [0.06 * u - 0.02, sign * 0.024 * u * (1.0 - u)];
+//! let surface = FnSurface {
+//!     span: [0.15, 0.6],
+//!     upper: lens(1.0),
+//!     lower: lens(-1.0),
+//!     chord_angle: |x: f64| Angle::from_deg(20.0 * x),
+//!     ends: ChainEnds { front: EndKind::Point, back: EndKind::Point },
+//! };
+//! let solid = loft_solid(&surface, &Trims::spheres(0.2, 0.55), &LoftParams::default())?;
+//! let summary = check_solid(&solid.mesh, "core", &CheckParams::default())?;
+//! assert!(summary.volume > 0.0 && summary.shells == 1);
+//! # Ok(())
+//! # }
+//! ```
+
+mod cap;
+mod cells;
+mod check;
+mod draft;
+mod error;
+mod grid;
+mod intersect;
+mod loft;
+mod mesh;
+mod polygon;
+mod spatial;
+mod stl;
+mod surface;
+mod trim;
+mod vec3;
+
+pub use cells::{Cell, WebPosition, split_cells};
+pub use check::{CheckParams, MeshSummary, check_solid};
+pub use draft::{DraftReport, evaluate_draft};
+pub use error::{End, MeshError, Place};
+pub use grid::LoftParams;
+pub use loft::{LoftedSolid, loft_annulus, loft_hollow, loft_solid};
+pub use mesh::{BoundingBox, Mesh, box_mesh};
+pub use polygon::{loft_polygons, triangulate_polygon};
+pub use stl::{LengthUnit, StlFormat, StlOptions, WrittenPart, encode_stl, write_parts, write_stl};
+pub use surface::{ChainEnds, EndKind, FnSurface, SpanSurface, contour_polygon, polygon_area};
+pub use trim::{EndTrim, Trims};

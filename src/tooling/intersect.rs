@@ -1,0 +1,215 @@
+//! Self-intersection of a triangle surface: candidate pairs from a uniform grid of cells,
+//! exact-in-structure tests by orientation predicates.
+//!
+//! Two triangles that do not lie in one plane intersect exactly when an edge of one crosses the
+//! other (the segment where they meet ends on their edges). A segment `pq` crosses the triangle
+//! `abc` when `p` and `q` are not strictly on one side of its plane and the three tetrahedra
+//! `pqab`, `pqbc`, `pqca` have one orientation sign. Coplanar pairs are tested in the plane
+//! (edge crossings and containment). Neighbours are tested for what sharing allows: a pair that
+//! shares a vertex intersects only if the edge of one opposite that vertex meets the other;
+//! a pair that shares an edge only if it is folded flat onto itself. Orientations smaller than
+//! `1e-12` of the product of the edge lengths count as zero (touching counts as meeting).
+
+use super::mesh::Mesh;
+use super::vec3::{self, P3};
+
+const COPLANAR: f64 = 1e-12;
+
+/// A triangle with what the tests reuse: corners, vertex indices, area vector and the squared
+/// product of its two edge lengths from corner 0.
+#[derive(Debug, Clone, Copy)]
+pub(crate) struct Facet {
+    pub v: [u32; 3],
+    pub p: [P3; 3],
+    n: P3,
+    uv2: f64,
+}
+
+impl Facet {
+    pub fn new(mesh: &Mesh, t: usize) -> Self {
+        let p = mesh.corners(t);
+        let (u, v) = (vec3::sub(p[1], p[0]), vec3::sub(p[2], p[0]));
+        Facet {
+            v: mesh.triangles[t],
+            p,
+            n: vec3::cross(u, v),
+            uv2: vec3::dot(u, u) * vec3::dot(v, v),
+        }
+    }
+
+    /// `orient(p0, p1, p2, q)` from the stored area vector.
+    fn side(&self, q: P3) -> f64 {
+        let w = vec3::sub(q, self.p[0]);
+        let det = vec3::dot(self.n, w);
+        if det * det <= COPLANAR * COPLANAR * self.uv2 * vec3::dot(w, w) { 0.0 } else { det }
+    }
+}
+
+/// Orientation of `d` against the plane `abc`: positive when `abc` winds counter-clockwise
+/// seen from `d`; zero (within `COPLANAR`) when the four points are coplanar.
+fn orient(a: P3, b: P3, c: P3, d: P3) -> f64 {
+    let (u, v, w) = (vec3::sub(b, a), vec3::sub(c, a), vec3::sub(d, a));
+    let det = vec3::dot(u, vec3::cross(v, w));
+    let scale2 = vec3::dot(u, u) * vec3::dot(v, v) * vec3::dot(w, w);
+    if det * det <= COPLANAR * COPLANAR * scale2 { 0.0 } else { det }
+}
+
+fn orient_2d(a: [f64; 2], b: [f64; 2], c: [f64; 2]) -> f64 {
+    let det = (b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0]);
+    let scale = vec3::dist_2d(a, b) * vec3::dist_2d(a, c);
+    if det.abs() <= COPLANAR * scale { 0.0 } else { det }
+}
+
+fn same_strict_sign(a: f64, b: f64) -> bool {
+    (a > 0.0 && b > 0.0) || (a < 0.0 && b < 0.0)
+}
+
+/// Whether the segment `pq` meets the triangle, given the orientations of `p` and `q` against
+/// the triangle's plane.
+fn segment_meets(p: P3, q: P3, t: &[P3; 3], op: f64, oq: f64) -> bool {
+    if same_strict_sign(op, oq) {
+        return false;
+    }
+    if op == 0.0 && oq == 0.0 {
+        let axes = drop_axis(t);
+        let t2 = t.map(|v| project(v, axes));
+        return segment_meets_triangle_2d(project(p, axes), project(q, axes), &t2);
+    }
+    let s = [orient(p, q, t[0], t[1]), orient(p, q, t[1], t[2]), orient(p, q, t[2], t[0])];
+    s.iter().all(|&x| x >= 0.0) || s.iter().all(|&x| x <= 0.0)
+}
+
+/// The two axes to keep when projecting a plane: drop the dominant normal component.
+fn drop_axis(t: &[P3; 3]) -> [usize; 2] {
+    let n = vec3::area_vector(t[0], t[1], t[2]).map(f64::abs);
+    if n[0] >= n[1] && n[0] >= n[2] {
+        [1, 2]
+    } else if n[1] >= n[2] {
+        [2, 0]
+    } else {
+        [0, 1]
+    }
+}
+
+fn project(p: P3, [i, j]: [usize; 2]) -> [f64; 2] {
+    [p[i], p[j]]
+}
+
+fn segments_meet_2d(p: [f64; 2], q: [f64; 2], a: [f64; 2], b: [f64; 2]) -> bool {
+    let (d1, d2) = (orient_2d(a, b, p), orient_2d(a, b, q));
+    let (d3, d4) = (orient_2d(p, q, a), orient_2d(p, q, b));
+    if same_strict_sign(d1, d2) || same_strict_sign(d3, d4) {
+        return false;
+    }
+    if d1 == 0.0 && d2 == 0.0 {
+        // Collinear: overlap of the projections on the line.
+        let k = if (b[0] - a[0]).abs() >= (b[1] - a[1]).abs() { 0 } else { 1 };
+        let (lo1, hi1) = (p[k].min(q[k]), p[k].max(q[k]));
+        let (lo2, hi2) = (a[k].min(b[k]), a[k].max(b[k]));
+        return lo1 <= hi2 && lo2 <= hi1;
+    }
+    true
+}
+
+fn inside_triangle_2d(p: [f64; 2], t: &[[f64; 2]; 3]) -> bool {
+    let s = [orient_2d(t[0], t[1], p), orient_2d(t[1], t[2], p), orient_2d(t[2], t[0], p)];
+    s.iter().all(|&x| x >= 0.0) || s.iter().all(|&x| x <= 0.0)
+}
+
+fn segment_meets_triangle_2d(p: [f64; 2], q: [f64; 2], t: &[[f64; 2]; 3]) -> bool {
+    inside_triangle_2d(p, t)
+        || inside_triangle_2d(q, t)
+        || (0..3).any(|k| segments_meet_2d(p, q, t[k], t[(k + 1) % 3]))
+}
+
+/// Whether two triangles with no vertex in common meet.
+fn triangles_meet(fa: &Facet, fb: &Facet) -> bool {
+    let (a, b) = (&fa.p, &fb.p);
+    let da = b.map(|v| fa.side(v));
+    if (da.iter().all(|&x| x > 0.0)) || da.iter().all(|&x| x < 0.0) {
+        return false;
+    }
+    let db = a.map(|v| fb.side(v));
+    if (db.iter().all(|&x| x > 0.0)) || db.iter().all(|&x| x < 0.0) {
+        return false;
+    }
+    if da.iter().all(|&x| x == 0.0) {
+        let axes = drop_axis(a);
+        let (a2, b2) = (a.map(|v| project(v, axes)), b.map(|v| project(v, axes)));
+        return (0..3).any(|k| segment_meets_triangle_2d(a2[k], a2[(k + 1) % 3], &b2))
+            || inside_triangle_2d(b2[0], &a2);
+    }
+    (0..3).any(|k| segment_meets(a[k], a[(k + 1) % 3], b, db[k], db[(k + 1) % 3]))
+        || (0..3).any(|k| segment_meets(b[k], b[(k + 1) % 3], a, da[k], da[(k + 1) % 3]))
+}
+
+/// Whether two triangles sharing exactly the corner `a[ia] == b[ib]` meet anywhere else.
+fn triangles_meet_at_corner(a: &Facet, ia: usize, b: &Facet, ib: usize) -> bool {
+    let opposite = |t: &[P3; 3], i: usize| (t[(i + 1) % 3], t[(i + 2) % 3]);
+    let (p, q) = opposite(&a.p, ia);
+    let (r, s) = opposite(&b.p, ib);
+    segment_meets(p, q, &b.p, b.side(p), b.side(q))
+        || segment_meets(r, s, &a.p, a.side(r), a.side(s))
+}
+
+/// Whether two triangles sharing an edge are folded flat onto each other.
+fn folded(a: &Facet, b: &Facet) -> bool {
+    let (na, nb) = (a.n, b.n);
+    let d = vec3::dot(na, nb);
+    d < 0.0 && d * d >= (1.0 - 1e-12) * vec3::dot(na, na) * vec3::dot(nb, nb)
+}
+
+/// Tests a pair of facets by what they share.
+pub(crate) fn facets_meet(a: &Facet, b: &Facet) -> bool {
+    let mut shared = [(0, 0); 3];
+    let mut count = 0;
+    for (ia, vi) in a.v.iter().enumerate() {
+        if let Some(ib) = b.v.iter().position(|vj| vj == vi) {
+            shared[count] = (ia, ib);
+            count += 1;
+        }
+    }
+    match count {
+        0 => triangles_meet(a, b),
+        1 => triangles_meet_at_corner(a, shared[0].0, b, shared[0].1),
+        2 => folded(a, b),
+        _ => true,
+    }
+}
+
+/// Tests triangles `i` and `j` of `mesh` by what they share.
+#[cfg(test)]
+pub(crate) fn pair_meets(mesh: &Mesh, i: usize, j: usize) -> bool {
+    facets_meet(&Facet::new(mesh, i), &Facet::new(mesh, j))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn tri(p: [[f64; 3]; 3]) -> Facet {
+        let mut m = Mesh::new();
+        for q in p {
+            m.push_vertex(q);
+        }
+        m.triangles.push([0, 1, 2]);
+        Facet::new(&m, 0)
+    }
+
+    #[test]
+    fn crossing_and_separate_triangles() {
+        // Closed-form cases: a triangle in z = 0 and one piercing it along z.
+        let a = tri([[0.0, 0.0, 0.0], [1.0, 0.0, 0.0], [0.0, 1.0, 0.0]]);
+        let pierce = tri([[0.2, 0.2, -1.0], [0.2, 0.2, 1.0], [0.3, 0.25, 1.0]]);
+        assert!(triangles_meet(&a, &pierce));
+        let beside = tri([[2.0, 2.0, -1.0], [2.0, 2.0, 1.0], [2.1, 2.05, 1.0]]);
+        assert!(!triangles_meet(&a, &beside));
+        let above = tri([[0.0, 0.0, 1e-3], [1.0, 0.0, 1e-3], [0.0, 1.0, 2e-3]]);
+        assert!(!triangles_meet(&a, &above));
+        // Coplanar: overlapping and apart.
+        let over = tri([[0.2, 0.2, 0.0], [1.2, 0.2, 0.0], [0.2, 1.2, 0.0]]);
+        assert!(triangles_meet(&a, &over));
+        let apart = tri([[1.0, 1.0, 0.0], [2.0, 1.0, 0.0], [1.0, 2.0, 0.0]]);
+        assert!(!triangles_meet(&a, &apart));
+    }
+}
