@@ -39,7 +39,9 @@ use crate::analysis::BladeModel;
 use crate::failure::CriteriaRatios;
 use crate::input::LoadCaseSpec;
 use crate::laminate::LaminateError;
-use crate::loads::{LoadDistribution, LoadsError, PitchReaction, Resultant, TipDeflection, span_loads};
+use crate::loads::{
+    LoadDistribution, LoadsError, PitchReaction, Resultant, TipDeflection, span_loads,
+};
 use recover::{UnitResponse, recover_section};
 
 /// What can go wrong in stress recovery.
@@ -52,7 +54,9 @@ pub enum StressError {
     #[error(transparent)]
     Loads(#[from] LoadsError),
     /// A temperature change on plies without expansion coefficients.
-    #[error("load case '{case}' has delta_T_K = {delta_t} but material '{material}' gives no a1_ustrain_K/a2_ustrain_K: give the CTEs or remove delta_T_K")]
+    #[error(
+        "load case '{case}' has delta_T_K = {delta_t} but material '{material}' gives no a1_ustrain_K/a2_ustrain_K: give the CTEs or remove delta_T_K"
+    )]
     NoCte {
         /// The case.
         case: String,
@@ -233,9 +237,14 @@ pub fn analyse_case(model: &BladeModel, case: &LoadCaseSpec) -> Result<CaseStres
 }
 
 /// Stress recovery of the named case, or of every case of the project when `only` is `None`.
-pub fn analyse_cases(model: &BladeModel, only: Option<&str>) -> Result<Vec<CaseStress>, StressError> {
+pub fn analyse_cases(
+    model: &BladeModel,
+    only: Option<&str>,
+) -> Result<Vec<CaseStress>, StressError> {
     match only {
-        Some(name) => Ok(vec![analyse_case(model, crate::loads::find_case(&model.project, name)?)?]),
+        Some(name) => {
+            Ok(vec![analyse_case(model, crate::loads::find_case(&model.project, name)?)?])
+        }
         None => model.project.load_cases.iter().map(|c| analyse_case(model, c)).collect(),
     }
 }

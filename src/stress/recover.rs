@@ -122,7 +122,11 @@ pub(crate) fn locate(layout: &SectionLayout, part: &WallPart, midpoint: [f64; 2]
     match part {
         WallPart::Skin { segment } | WallPart::TrailingEdge { segment } => {
             let upper = *segment < upper_end;
-            WallLocation::Surface { upper, x_c: x.clamp(0.0, 1.0), solid: matches!(part, WallPart::TrailingEdge { .. }) }
+            WallLocation::Surface {
+                upper,
+                x_c: x.clamp(0.0, 1.0),
+                solid: matches!(part, WallPart::TrailingEdge { .. }),
+            }
         }
         WallPart::Web { web } => {
             let name = layout.webs.get(*web).map(|w| w.name.clone()).unwrap_or_default();

@@ -107,8 +107,8 @@ pub(super) fn ply_worst(model: &BladeModel, stations: &[StationStress]) -> Vec<P
                 let rf = governing.map(|(_, r)| r.ratio).unwrap_or(f64::INFINITY);
                 match rows.iter_mut().find(|w| w.ply == index) {
                     Some(w) => {
-                        for k in 0..4 {
-                            w.by_criterion[k] = w.by_criterion[k].min(by[k]);
+                        for (worst, v) in w.by_criterion.iter_mut().zip(by) {
+                            *worst = worst.min(v);
                         }
                         if rf < w.reserve_factor {
                             w.reserve_factor = rf;
