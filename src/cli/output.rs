@@ -1,9 +1,12 @@
 //! Where text goes: data on stdout, messages on stderr, colour only on a terminal.
 
-// Progress bars, notes and coloured tables serve commands still to come.
+// Progress bars, notes and coloured tables serve commands still to come (sweeps, meshes, the
+// report); the unit tests below exercise them until a command does.
 #![allow(dead_code)]
 
 use std::io::{IsTerminal, Write};
+
+use indicatif::{ProgressBar, ProgressStyle};
 
 /// The terminal side of a run.
 #[derive(Debug, Clone)]
@@ -20,6 +23,27 @@ impl Output {
         let stderr_is_terminal = std::io::stderr().is_terminal();
         let colour = stderr_is_terminal && std::env::var_os("NO_COLOR").is_none();
         Output { quiet, colour, stderr_is_terminal }
+    }
+
+    /// A progress bar of `len` steps on stderr, labelled `message`. It is drawn only when stderr
+    /// is a terminal and the run is not `--quiet` (see [`Output::progress_allowed`]); otherwise
+    /// every call on it does nothing.
+    pub fn progress(&self, len: u64, message: &str) -> Progress {
+        if !self.progress_allowed() {
+            return Progress { bar: None };
+        }
+        let template = if self.colour {
+            "{prefix:.cyan} {msg} {bar:36.cyan/blue} {pos}/{len} {elapsed}, about {eta} left"
+        } else {
+            "{prefix} {msg} {bar:36} {pos}/{len} {elapsed}, about {eta} left"
+        };
+        // The templates are fixed text: should one ever fail to parse, the plain bar serves.
+        let style = ProgressStyle::with_template(template)
+            .unwrap_or_else(|_| ProgressStyle::default_bar())
+            .progress_chars("=> ");
+        let bar = ProgressBar::new(len).with_style(style).with_prefix("layloft:");
+        bar.set_message(message.to_string());
+        Progress { bar: Some(bar) }
     }
 
     /// Whether progress bars may be drawn.
@@ -77,5 +101,79 @@ impl Output {
             let _ = out.write_all(b"\n");
         }
         let _ = out.flush();
+    }
+}
+
+/// A progress bar from [`Output::progress`], or nothing when bars are not shown. The bar is
+/// cleared from the terminal when finished or dropped, so a message printed after it (an error
+/// on the way out included) starts on a clean line.
+#[derive(Debug)]
+pub struct Progress {
+    bar: Option<ProgressBar>,
+}
+
+impl Progress {
+    /// Advances by `steps`.
+    pub fn inc(&self, steps: u64) {
+        if let Some(bar) = &self.bar {
+            bar.inc(steps);
+        }
+    }
+
+    /// Changes the label (e.g. the load case or station being worked on).
+    pub fn set_message(&self, message: &str) {
+        if let Some(bar) = &self.bar {
+            bar.set_message(message.to_string());
+        }
+    }
+
+    /// Steps done so far (0 when not shown).
+    pub fn position(&self) -> u64 {
+        self.bar.as_ref().map_or(0, ProgressBar::position)
+    }
+
+    /// Whether a bar is shown.
+    pub fn is_visible(&self) -> bool {
+        self.bar.is_some()
+    }
+
+    /// Ends the bar and clears it from the terminal.
+    pub fn finish(self) {}
+}
+
+impl Drop for Progress {
+    fn drop(&mut self) {
+        if let Some(bar) = &self.bar {
+            bar.finish_and_clear();
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn output(quiet: bool, terminal: bool) -> Output {
+        Output { quiet, colour: terminal, stderr_is_terminal: terminal }
+    }
+
+    #[test]
+    fn bars_show_only_on_a_terminal_and_not_when_quiet() {
+        assert!(output(false, true).progress(10, "stations").is_visible());
+        assert!(!output(true, true).progress(10, "stations").is_visible());
+        assert!(!output(false, false).progress(10, "stations").is_visible());
+    }
+
+    #[test]
+    fn a_bar_counts_its_steps_and_a_hidden_one_does_nothing() {
+        let shown = output(false, true).progress(10, "speeds");
+        shown.inc(3);
+        shown.set_message("speeds, 990 rpm");
+        shown.inc(2);
+        assert_eq!(shown.position(), 5);
+        shown.finish();
+        let hidden = output(false, false).progress(10, "speeds");
+        hidden.inc(3);
+        assert_eq!(hidden.position(), 0);
     }
 }

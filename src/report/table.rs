@@ -40,6 +40,16 @@ impl Table {
         self.rows.is_empty()
     }
 
+    /// The column headers with their alignment.
+    pub(crate) fn headers(&self) -> &[(String, Align)] {
+        &self.headers
+    }
+
+    /// The rows, each with one cell per column.
+    pub(crate) fn rows(&self) -> &[Vec<String>] {
+        &self.rows
+    }
+
     /// The table as text, each line indented by `indent` spaces.
     pub fn render(&self, indent: usize) -> String {
         let widths: Vec<usize> = (0..self.headers.len())

@@ -22,11 +22,16 @@ pub fn write_atomic_with(
         Some(d) if !d.as_os_str().is_empty() => d,
         _ => Path::new("."),
     };
-    let mut tmp = tempfile::Builder::new()
-        .prefix(".layloft-")
-        .suffix(".tmp")
-        .tempfile_in(dir)
-        .map_err(err)?;
+    let mut builder = tempfile::Builder::new();
+    builder.prefix(".layloft-").suffix(".tmp");
+    // A temporary file is private (0600) by default; an output gets the mode `File::create`
+    // would give it (0666 less the umask), so that a report can be shared like any file.
+    #[cfg(unix)]
+    {
+        use std::os::unix::fs::PermissionsExt;
+        builder.permissions(std::fs::Permissions::from_mode(0o666));
+    }
+    let mut tmp = builder.tempfile_in(dir).map_err(err)?;
     {
         let mut w = std::io::BufWriter::new(tmp.as_file_mut());
         fill(&mut w).map_err(err)?;
@@ -53,6 +58,19 @@ mod tests {
         assert!(failed.is_err());
         assert_eq!(std::fs::read(&path).unwrap(), b"first");
         assert_eq!(std::fs::read_dir(dir.path()).unwrap().count(), 1);
+    }
+
+    #[cfg(unix)]
+    #[test]
+    fn an_output_gets_the_mode_of_an_ordinary_new_file() {
+        use std::os::unix::fs::PermissionsExt;
+        let dir = tempfile::tempdir().unwrap();
+        let plain = dir.path().join("plain.txt");
+        std::fs::File::create(&plain).unwrap();
+        let atomic = dir.path().join("atomic.txt");
+        write_atomic(&atomic, b"x").unwrap();
+        let mode = |p: &Path| std::fs::metadata(p).unwrap().permissions().mode() & 0o777;
+        assert_eq!(mode(&atomic), mode(&plain));
     }
 
     #[test]

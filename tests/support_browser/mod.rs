@@ -1,0 +1,60 @@
+//! Checks of a rendered HTML report for integration tests: a static check of the markup that
+//! needs nothing installed, and a run of Debian's headless Chromium that loads the page, dumps
+//! the DOM, takes a screenshot and prints it to PDF, and reports the console messages.
+//!
+//! Whether a missing browser fails a test is decided by [`browser_required`]: the variable
+//! `LAYLOFT_REQUIRE_BROWSER=1` (set by `.ci/run`) makes it a failure; without it the browser part
+//! is skipped with a note and only the static check runs.
+#![allow(dead_code)]
+
+mod chromium;
+pub mod sketch;
+mod static_check;
+
+pub use chromium::{Chromium, console_messages, drawn_figures};
+pub use static_check::static_problems;
+
+use std::io::Write as _;
+use std::path::PathBuf;
+
+/// Whether the environment demands the browser part (`LAYLOFT_REQUIRE_BROWSER=1`).
+pub fn browser_required() -> bool {
+    std::env::var("LAYLOFT_REQUIRE_BROWSER").is_ok_and(|v| v.trim() == "1")
+}
+
+/// The browser to use, or `None` after printing why the browser part is skipped. Panics with a
+/// clear message when none is found and [`browser_required`] says it must be there.
+pub fn browser_or_skip(test: &str) -> Option<Chromium> {
+    match Chromium::find() {
+        Some(c) => Some(c),
+        None if browser_required() => panic!(
+            "{test}: LAYLOFT_REQUIRE_BROWSER=1 but no Chromium was found (tried {}); install \
+             Debian's chromium package (`apt-get install --no-install-recommends chromium`) or \
+             unset LAYLOFT_REQUIRE_BROWSER to run the static check only",
+            chromium::CANDIDATES.join(", ")
+        ),
+        None => {
+            // Written to the stderr handle rather than with eprintln!, which the test harness
+            // captures: the note is seen in every run, not only with --nocapture.
+            let _ = writeln!(
+                std::io::stderr().lock(),
+                "note: {test}: the headless-browser part was skipped because chromium is not \
+                 installed (tried {}); only the static check ran. Set LAYLOFT_REQUIRE_BROWSER=1 \
+                 to make this a failure.",
+                chromium::CANDIDATES.join(", ")
+            );
+            None
+        }
+    }
+}
+
+/// `target/report-screenshots/`, created if needed: rendered pages, screenshots and PDFs are
+/// kept there for people to look at.
+pub fn screenshot_dir() -> PathBuf {
+    // CARGO_TARGET_TMPDIR is `<target>/tmp`; its parent is the target folder in use.
+    let tmp = PathBuf::from(env!("CARGO_TARGET_TMPDIR"));
+    let dir = tmp.parent().map(|p| p.join("report-screenshots")).unwrap_or(tmp);
+    std::fs::create_dir_all(&dir)
+        .unwrap_or_else(|e| panic!("cannot create {}: {e}", dir.display()));
+    dir
+}
