@@ -3,6 +3,7 @@
 use crate::input::InputError;
 use crate::laminate::LaminateError;
 use crate::material::MaterialError;
+use crate::modal::ModalError;
 
 /// Any error layloft's library can return.
 #[derive(Debug, thiserror::Error)]
@@ -16,6 +17,9 @@ pub enum Error {
     /// A laminate code or laminate.
     #[error(transparent)]
     Laminate(#[from] LaminateError),
+    /// The modal analysis: bad model data or speeds, or an eigen solution that failed.
+    #[error(transparent)]
+    Modal(#[from] ModalError),
     /// Writing an output file.
     #[error("cannot write {path}: {source}")]
     Write {

@@ -20,7 +20,8 @@ pub struct Args {
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let library = read_materials(&args.file).map_err(layloft::Error::from)?;
     let mut text = String::new();
-    let _ = writeln!(text, "{}: {} materials, all values valid", args.file.display(), library.len());
+    let _ =
+        writeln!(text, "{}: {} materials, all values valid", args.file.display(), library.len());
     for m in library.iter() {
         let _ = match m {
             Material::Lamina(l) => writeln!(
