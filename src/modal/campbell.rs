@@ -213,7 +213,7 @@ impl BeamModel {
         let mut speeds: Vec<ModeSet> = Vec::with_capacity(rpms.len());
         let mut next_track = 0;
         for (i, &rpm) in rpms.iter().enumerate() {
-            let mut set = self.modes_from(rpm, solved, speeds.last())?;
+            let mut set = self.modes(rpm, solved)?;
             match speeds.last() {
                 Some(prev) => {
                     continue_tracks(self.mass(), &prev.modes, &mut set.modes, &mut next_track)

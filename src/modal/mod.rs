@@ -98,6 +98,7 @@ mod modes;
 mod solve;
 mod span;
 mod track;
+mod tridiagonal;
 
 pub use assemble::{BeamModel, Dof, DofKind, MAX_ELEMENTS, SystemMatrices};
 pub use band::BandMatrix;

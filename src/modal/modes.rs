@@ -11,7 +11,7 @@ use nalgebra::DVector;
 use serde::Serialize;
 
 use super::assemble::{BeamModel, DofKind, check_rpm};
-use super::solve::{LanczosParams, solve_lowest_from};
+use super::solve::{LanczosParams, solve_lowest};
 use super::{ModalError, band::BandMatrix};
 
 /// The least kinetic energy share for a mode to be named after one family (common practice for
@@ -121,29 +121,13 @@ pub struct ModeSet {
 impl BeamModel {
     /// The `count` lowest modes at `rpm`.
     pub fn modes(&self, rpm: f64, count: usize) -> Result<ModeSet, ModalError> {
-        self.modes_from(rpm, count, None)
-    }
-
-    /// As [`BeamModel::modes`], starting the solver from the modes of a neighbouring speed.
-    pub(crate) fn modes_from(
-        &self,
-        rpm: f64,
-        count: usize,
-        guess: Option<&ModeSet>,
-    ) -> Result<ModeSet, ModalError> {
         check_rpm(rpm)?;
         if count == 0 || count > self.dof_count() {
             return Err(ModalError::TooManyModes { asked: count, dofs: self.dof_count() });
         }
         let k = self.stiffness_at(rpm);
-        let guess = guess.filter(|g| !g.modes.is_empty()).map(|g| {
-            nalgebra::DMatrix::from_columns(
-                &g.modes.iter().map(|m| m.vector.clone()).collect::<Vec<_>>(),
-            )
-        });
-        let solution =
-            solve_lowest_from(&k, self.mass(), count, &LanczosParams::default(), guess.as_ref())
-                .map_err(|source| ModalError::Eigen { rpm, source })?;
+        let solution = solve_lowest(&k, self.mass(), count, &LanczosParams::default())
+            .map_err(|source| ModalError::Eigen { rpm, source })?;
         let modes = solution
             .eigenvalues
             .iter()

@@ -16,6 +16,7 @@
 use nalgebra::{DMatrix, DVector, SymmetricEigen};
 
 use super::band::{BandCholesky, BandMatrix, count_negative_pivots};
+use super::tridiagonal::eigen_last_row;
 
 /// Eigenpairs of `K x = lambda M x`, lowest first.
 #[derive(Debug, Clone)]
@@ -24,6 +25,8 @@ pub struct EigenSolution {
     pub eigenvalues: Vec<f64>,
     /// Eigenvectors as columns, in the same order, normalised so that `xᵀ M x = 1`.
     pub vectors: DMatrix<f64>,
+    /// Lanczos steps taken (0 for the dense solver).
+    pub steps: usize,
 }
 
 /// Tuning of the Lanczos solver.
@@ -82,23 +85,14 @@ pub enum EigenError {
 
 /// The `count` lowest eigenpairs of `K x = lambda M x` for band matrices `k` (positive definite)
 /// and `m` (positive semi-definite) by shift-invert Lanczos (see the module docs).
+///
+/// The start vector is pseudo-random (seeded): starting from the modes of a neighbouring speed
+/// was measured to save no steps, since the last digits take as many steps as the first.
 pub fn solve_lowest(
     k: &BandMatrix,
     m: &BandMatrix,
     count: usize,
     params: &LanczosParams,
-) -> Result<EigenSolution, EigenError> {
-    solve_lowest_from(k, m, count, params, None)
-}
-
-/// As [`solve_lowest`], starting from the combined guess `guess` (columns, e.g. the modes at a
-/// neighbouring speed) instead of a random vector.
-pub(crate) fn solve_lowest_from(
-    k: &BandMatrix,
-    m: &BandMatrix,
-    count: usize,
-    params: &LanczosParams,
-    guess: Option<&DMatrix<f64>>,
 ) -> Result<EigenSolution, EigenError> {
     let n = k.dim();
     assert_eq!(m.dim(), n, "stiffness and mass of different dimension");
@@ -106,30 +100,17 @@ pub(crate) fn solve_lowest_from(
         return Err(EigenError::TooManyModes { asked: count, available: n });
     }
     if count == 0 {
-        return Ok(EigenSolution { eigenvalues: vec![], vectors: DMatrix::zeros(n, 0) });
+        return Ok(EigenSolution { eigenvalues: vec![], vectors: DMatrix::zeros(n, 0), steps: 0 });
     }
     let chol = BandCholesky::factor(k)
         .map_err(|e| EigenError::NotPositiveDefinite { index: e.index, pivot: e.pivot })?;
-    let op = Operator { chol: &chol, m, scratch: vec![0.0; n] };
+    let mut op = Operator { chol: &chol, m, scratch: vec![0.0; n] };
     let mut rng = XorShift(params.seed | 1);
-    let mut start = match guess {
-        Some(g) if g.ncols() > 0 && g.nrows() == n => {
-            let sum: DVector<f64> = g.column_sum();
-            let mut y = vec![0.0; n];
-            chol.mul_upper(sum.as_slice(), &mut y);
-            // A little noise keeps every direction present in the start vector.
-            let norm = y.iter().map(|v| v * v).sum::<f64>().sqrt().max(f64::MIN_POSITIVE);
-            y.iter_mut().for_each(|v| *v = *v / norm + 1e-3 * rng.next());
-            Some(y)
-        }
-        _ => None,
-    };
-    let mut op = op;
     let mut found: Vec<(f64, Vec<f64>)> = Vec::new();
     let mut steps = 0;
     for restart in 0..=params.max_restarts {
         let basis: Vec<&[f64]> = found.iter().map(|(_, y)| y.as_slice()).collect();
-        let run = lanczos(&mut op, &basis, count, params.tolerance, &mut rng, start.take());
+        let run = lanczos(&mut op, &basis, count, params.tolerance, &mut rng);
         steps += run.steps;
         found.extend(run.pairs);
         found.sort_by(|a, b| b.0.total_cmp(&a.0));
@@ -146,7 +127,9 @@ pub(crate) fn solve_lowest_from(
         let below = found.iter().filter(|p| 1.0 / p.0 < sigma).count();
         let sturm = count_negative_pivots(&k.plus_scaled(-sigma, m));
         if sturm <= below {
-            return Ok(ritz_to_modes(&chol, &found[..count]));
+            let mut solution = ritz_to_modes(&chol, &found[..count]);
+            solution.steps = steps;
+            return Ok(solution);
         }
         if restart == params.max_restarts {
             break;
@@ -192,7 +175,6 @@ fn lanczos(
     want: usize,
     tol: f64,
     rng: &mut XorShift,
-    start: Option<Vec<f64>>,
 ) -> LanczosRun {
     let n = op.m.dim();
     let max_dim = n - locked.len();
@@ -202,7 +184,7 @@ fn lanczos(
     let want = want.min(max_dim);
     let mut q: Vec<Vec<f64>> = Vec::with_capacity(want * 3 + 10);
     let (mut alpha, mut beta): (Vec<f64>, Vec<f64>) = (Vec::new(), Vec::new());
-    let mut v = start.unwrap_or_else(|| (0..n).map(|_| rng.next()).collect());
+    let mut v: Vec<f64> = (0..n).map(|_| rng.next()).collect();
     if !orthonormalise(&mut v, locked, &q) {
         v = fresh_direction(n, locked, &q, rng);
     }
@@ -218,13 +200,20 @@ fn lanczos(
         q.push(std::mem::take(&mut v));
         alpha.push(a);
         let scale = a.abs().max(alpha.iter().fold(0.0_f64, |s, x| s.max(x.abs())));
+        // Classical Gram–Schmidt, repeated when it removed much (Daniel, Gragg, Kaufman &
+        // Stewart, Math. Comp. 30 (1976) 772–795: "twice is enough").
+        let mut b = dot(&w, &w).sqrt();
         for _ in 0..2 {
+            let before = b;
             for basis in locked.iter().copied().chain(q.iter().map(Vec::as_slice)) {
                 let c = dot(basis, &w);
                 axpy(-c, basis, &mut w);
             }
+            b = dot(&w, &w).sqrt();
+            if b > std::f64::consts::FRAC_1_SQRT_2 * before {
+                break;
+            }
         }
-        let mut b = dot(&w, &w).sqrt();
         let j = q.len();
         let breakdown = b <= 1e-13 * scale;
         let exhausted = j == max_dim;
@@ -256,6 +245,22 @@ fn ritz_pairs(
     finished: bool,
 ) -> Option<Vec<(f64, Vec<f64>)>> {
     let j = alpha.len();
+    let b_last = beta[j - 1];
+    if !finished {
+        // Cheap test first: eigenvalues and last eigenvector components only.
+        if let Some((theta, last)) = eigen_last_row(alpha, beta) {
+            let mut order: Vec<usize> = (0..j).collect();
+            order.sort_by(|&a, &b| theta[b].total_cmp(&theta[a]));
+            let top = theta[order[0]].abs();
+            let converged = order
+                .iter()
+                .take(want)
+                .all(|&i| (b_last * last[i]).abs() <= tol * theta[i].abs().max(1e-14 * top));
+            if !converged {
+                return None;
+            }
+        }
+    }
     let t = DMatrix::from_fn(j, j, |r, c| match r.abs_diff(c) {
         0 => alpha[r],
         1 => beta[r.min(c)],
@@ -264,7 +269,6 @@ fn ritz_pairs(
     let eig = SymmetricEigen::new(t);
     let mut order: Vec<usize> = (0..j).collect();
     order.sort_by(|&a, &b| eig.eigenvalues[b].total_cmp(&eig.eigenvalues[a]));
-    let b_last = beta[j - 1];
     let top = eig.eigenvalues[order[0]].abs();
     let ok = |i: usize| {
         let mu = eig.eigenvalues[i];
@@ -304,7 +308,7 @@ fn ritz_to_modes(chol: &BandCholesky, pairs: &[(f64, Vec<f64>)]) -> EigenSolutio
         }
         eigenvalues.push(1.0 / mu);
     }
-    EigenSolution { eigenvalues, vectors }
+    EigenSolution { eigenvalues, vectors, steps: 0 }
 }
 
 /// All finite eigenpairs of `K x = lambda M x` with dense matrices (`K` positive definite): the
@@ -334,7 +338,7 @@ pub fn solve_dense(k: &DMatrix<f64>, m: &DMatrix<f64>) -> Result<EigenSolution, 
         vectors.set_column(c, &x);
         eigenvalues.push(1.0 / mu);
     }
-    Ok(EigenSolution { eigenvalues, vectors })
+    Ok(EigenSolution { eigenvalues, vectors, steps: 0 })
 }
 
 fn dot(a: &[f64], b: &[f64]) -> f64 {
