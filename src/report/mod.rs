@@ -2,6 +2,11 @@
 //! written (atomically: a temporary file in the same folder, then a rename, so that a reader never
 //! sees half a file and a failed run leaves what was there before).
 
+mod campbell;
+mod modal;
+pub mod svg;
 mod write;
 
+pub use campbell::{campbell_svg, kind_colour};
+pub use modal::{campbell_csv, modal_json, mode_shapes_csv};
 pub use write::{write_atomic, write_atomic_with};
