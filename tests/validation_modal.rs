@@ -202,18 +202,14 @@ fn the_propeller_moment_shifts_torsion_by_the_inertia_difference() {
             .filter(|m| m.kind == ModeKind::Torsion)
             .map(|m| 2.0 * PI * m.frequency_hz)
             .collect();
-        let phi = (pitch_deg as f64).to_radians();
+        let phi = pitch_deg.to_radians();
         let dj = (2.5e-3 - 0.5e-3) * (2.0 * phi).cos() - 2.0 * 0.2e-3 * (2.0 * phi).sin();
-        for n in 0..2 {
+        assert!(torsion.len() >= 2, "{torsion:?}");
+        for (n, &found) in torsion.iter().take(2).enumerate() {
             let w0 = (2 * n + 1) as f64 * PI / 2.0 * (gj / (ip * l * l)).sqrt();
             let expected = (w0 * w0 + omega_rot * omega_rot * dj / ip).sqrt();
-            let rel = (torsion[n] / expected - 1.0).abs();
-            assert!(
-                rel < 1e-5,
-                "pitch {pitch_deg}, torsion {}: {} vs {expected}",
-                n + 1,
-                torsion[n]
-            );
+            let rel = (found / expected - 1.0).abs();
+            assert!(rel < 1e-5, "pitch {pitch_deg}, torsion {}: {found} vs {expected}", n + 1);
         }
     }
 }

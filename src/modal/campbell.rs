@@ -205,7 +205,9 @@ impl BeamModel {
         if rpms.is_empty() {
             return Err(ModalError::NoSpeeds);
         }
-        if let Some(w) = rpms.windows(2).find(|w| !(w[1] > w[0])) {
+        if let Some(w) =
+            rpms.windows(2).find(|w| w[1].partial_cmp(&w[0]) != Some(std::cmp::Ordering::Greater))
+        {
             return Err(ModalError::SpeedOrder { rpm: w[1], previous: w[0] });
         }
         // A few modes above those asked for keep tracks continuous where modes cross the top.

@@ -30,10 +30,11 @@
 //! # Rotating terms (all proportional to `Omega²`)
 //!
 //! - Centrifugal stiffening: the tension `N(r) = Omega² ∫_r^tip m rho drho` acts at the elastic
-//!   centre as a uniform strain, giving `½ N [v'² + w'² + 2 theta' (eta_c w' - zeta_c v')
-//!   + k_A² theta'²]` with `k_A² = (S_22 + S_33) / S_00` of the pitch-axis stiffness, the
-//!   modulus-weighted polar radius of gyration (the `T k_A²` torsion term of Hodges & Dowell,
-//!   NASA TN D-7818, 1974, from memory).
+//!   centre as a uniform strain, giving
+//!   `½ N [v'² + w'² + 2 theta' (eta_c w' - zeta_c v') + k_A² theta'²]`, where
+//!   `k_A² = (S_22 + S_33) / S_00` of the pitch-axis stiffness is the modulus-weighted polar
+//!   radius of gyration (the `T k_A²` torsion term of Hodges & Dowell, NASA TN D-7818, 1974,
+//!   from memory).
 //! - Spin softening: `-½ Omega² ∫ rho (U² + V²) dA`, the centrifugal potential of radial and
 //!   in-plane motion (`omega_lag² = omega_flap² - Omega²` for a uniform beam).
 //! - Propeller moment: the second-order part of the section's rotation in the centrifugal field

@@ -200,8 +200,8 @@ fn shape(model: &BeamModel, x: &DVector<f64>) -> ModeShape {
     let chords = model.node_chords();
     let mut largest = 0.0_f64;
     let mut signed = 0.0;
-    for i in 0..n {
-        for v in [s.axial[i], s.in_plane[i], s.out_of_plane[i], s.twist[i] * 0.5 * chords[i]] {
+    for (i, chord) in chords.iter().enumerate().take(n) {
+        for v in [s.axial[i], s.in_plane[i], s.out_of_plane[i], s.twist[i] * 0.5 * chord] {
             if v.abs() > largest {
                 largest = v.abs();
                 signed = v;

@@ -360,7 +360,7 @@ fn orthonormalise(v: &mut [f64], locked: &[&[f64]], q: &[Vec<f64>]) -> bool {
         }
     }
     let norm = dot(v, v).sqrt();
-    if !(norm > 1e-10 * norm0) {
+    if norm.is_nan() || norm <= 1e-10 * norm0 {
         return false;
     }
     v.iter_mut().for_each(|x| *x /= norm);

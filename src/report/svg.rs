@@ -642,7 +642,12 @@ mod tests {
             nice_ticks(0.0, 1090.0, 8),
             vec![0.0, 200.0, 400.0, 600.0, 800.0, 1000.0, 1200.0]
         );
-        assert_eq!(nice_ticks(0.13, 0.87, 5), vec![0.0, 0.25, 0.5, 0.75, 1.0]);
+        let t = nice_ticks(0.13, 0.87, 5);
+        let expected = [0.0, 0.2, 0.4, 0.6, 0.8, 1.0];
+        assert_eq!(t.len(), expected.len());
+        assert!(t.iter().zip(expected).all(|(a, b)| (a - b).abs() < 1e-12), "{t:?}");
+        assert_eq!(tick_text(t[3], 0.2), "0.6");
+        assert_eq!(nice_ticks(0.0, 0.7, 4), vec![0.0, 0.25, 0.5, 0.75]);
         assert!(nice_ticks(1.0, 1.0, 5).is_empty());
         assert!(nice_ticks(f64::NAN, 1.0, 5).is_empty());
     }
