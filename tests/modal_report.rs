@@ -3,7 +3,8 @@
 
 mod modal_support;
 
-use layloft::modal::{BeamModel, SpeedRange, excitation_orders};
+use layloft::input::Criteria;
+use layloft::modal::{BeamModel, ModalAnalysis, SpeedRange, excitation_orders};
 use layloft::report::{campbell_csv, campbell_svg, modal_json, mode_shapes_csv};
 use modal_support::*;
 
@@ -97,4 +98,58 @@ fn the_campbell_diagram_is_well_formed_and_labelled() {
         "mode,track,frequency_hz,kind,r_m,axial_m,in_plane_m,out_of_plane_m,twist_rad\n"
     ));
     assert_eq!(shapes.lines().count(), 1 + 6 * 21);
+}
+
+#[test]
+fn the_whole_stage_runs_in_one_call_and_gives_a_verdict() {
+    let r = rotor(5, 3000.0, 3600.0, 8.0);
+    let criteria = |pct: Option<f64>| Criteria {
+        frequency_margin_pct: pct,
+        harmonics: 12,
+        ..Criteria::default()
+    };
+    let sections = twisted_blade(6);
+    let mut calls = 0;
+    let run = ModalAnalysis::run(
+        &sections,
+        &r,
+        &spec(16),
+        &criteria(Some(3.0)),
+        None,
+        Some(5),
+        &mut |_, _| calls += 1,
+    )
+    .unwrap();
+    // 0..3600 rpm in 60 steps, nominal 3000 rpm already on the grid: 61 speeds.
+    assert_eq!(calls, 61);
+    assert_eq!(run.campbell.speeds.len(), 61);
+    assert!(run.campbell.speeds.iter().all(|s| s.modes.len() == 5));
+    assert_eq!(run.margins.len(), 2);
+    let all_pass = run.margins.iter().all(|m| m.modes.iter().all(|x| x.margin_pct >= 3.0));
+    assert_eq!(run.pass(), Some(all_pass));
+    // No margin asked: no verdict. A range below the nominal speed: no margins checked there.
+    let none = ModalAnalysis::run(
+        &sections,
+        &r,
+        &spec(16),
+        &criteria(None),
+        None,
+        Some(3),
+        &mut |_, _| {},
+    )
+    .unwrap();
+    assert_eq!(none.pass(), None);
+    let low = SpeedRange::new(0.0, 2000.0, 500.0).unwrap();
+    let part = ModalAnalysis::run(
+        &sections,
+        &r,
+        &spec(16),
+        &criteria(Some(3.0)),
+        Some(low),
+        Some(3),
+        &mut |_, _| {},
+    )
+    .unwrap();
+    assert!(part.margins.is_empty());
+    assert_eq!(part.pass(), None);
 }

@@ -258,3 +258,26 @@ fn fifteen_blades_at_1500_rpm_give_25_hz_and_375_hz() {
     assert!(orders.iter().any(|e| e.order == 30 && e.blade_passing));
     assert_eq!(orders.len(), 14);
 }
+
+#[test]
+fn a_blade_pitched_to_90_degrees_bends_its_weak_axis_in_the_plane_of_rotation() {
+    // Frame check: at phi = 90° the chord normal (the weak, flapwise section axis) lies in the
+    // plane of rotation, so the weak-axis modes soften: omega² = omega_table² - Omega²
+    // (Wright et al. 1982 table with the spin-softening relation, as above), and are classed
+    // as in-plane (edge) in the rotor frame.
+    let beam = unit_flap_beam();
+    let model = BeamModel::new(&uniform(&beam, 0.0, 1.0), &rotor(2, 100.0, 200.0, 90.0), &spec(40))
+        .unwrap();
+    let lambda = 4.0;
+    let edge = omegas(&model, rpm_of(lambda), 3, ModeKind::Edge);
+    assert_eq!(edge.len(), 3);
+    for (n, &found) in edge.iter().enumerate() {
+        let expected = (ROTATING_FLAP[n][3].powi(2) - lambda * lambda).sqrt();
+        assert!((found / expected - 1.0).abs() < 2e-5, "mode {}: {found} vs {expected}", n + 1);
+    }
+    // At rest the pitch changes nothing (a rigid turn of the whole beam).
+    let still = omegas(&model, 0.0, 3, ModeKind::Edge);
+    for (n, &found) in still.iter().enumerate() {
+        assert!((found / ROTATING_FLAP[n][0] - 1.0).abs() < 2e-5, "mode {}: {found}", n + 1);
+    }
+}

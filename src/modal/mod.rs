@@ -89,6 +89,7 @@
 //! # }
 //! ```
 
+mod analysis;
 mod assemble;
 mod band;
 mod beam_section;
@@ -101,6 +102,7 @@ mod span;
 mod track;
 mod tridiagonal;
 
+pub use analysis::{BLADE_PASSING_MULTIPLES, ModalAnalysis};
 pub use assemble::{BeamModel, Dof, DofKind, MAX_ELEMENTS, SystemMatrices};
 pub use band::BandMatrix;
 pub use beam_section::BeamSection;
