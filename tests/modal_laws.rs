@@ -279,3 +279,22 @@ fn a_statically_unstable_blade_is_a_computation_error() {
     assert!(!e.is_input());
     assert!(e.to_string().contains("not positive definite"), "{e}");
 }
+
+#[test]
+fn massless_degrees_of_freedom_give_no_modes() {
+    // No mass moment of inertia: twist carries no kinetic energy, so the 4-element model
+    // (32 free dofs, 8 of them twist) has 24 finite modes; asking for more is an error, not
+    // a hang or a mode at infinite frequency.
+    let beam = BeamSection::uniform(0.0, 1e8, 1e6, 1.0, 1e4, 1.0);
+    let model =
+        BeamModel::new(&uniform(&beam, 0.0, 1.0), &rotor(2, 10.0, 20.0, 0.0), &spec(4)).unwrap();
+    assert_eq!(model.dof_count(), 32);
+    let set = model.modes(0.0, 24).unwrap();
+    assert!(set.modes.iter().all(|m| m.frequency_hz.is_finite() && m.shares.torsion < 1e-9));
+    let e = model.modes(0.0, 25).unwrap_err();
+    assert!(
+        e.to_string().contains("25 modes asked for, but the model has only 24 with mass"),
+        "{e}"
+    );
+    assert!(e.is_input());
+}

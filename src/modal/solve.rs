@@ -184,12 +184,15 @@ fn lanczos(
     let want = want.min(max_dim);
     let mut q: Vec<Vec<f64>> = Vec::with_capacity(want * 3 + 10);
     let (mut alpha, mut beta): (Vec<f64>, Vec<f64>) = (Vec::new(), Vec::new());
-    let mut v: Vec<f64> = (0..n).map(|_| rng.next()).collect();
-    if !orthonormalise(&mut v, locked, &q) {
-        v = fresh_direction(n, locked, &q, rng);
-    }
+    let Some(mut v) = fresh_direction(n, locked, &q, rng) else {
+        return LanczosRun { pairs: vec![], steps: 0, exhausted: true };
+    };
     let mut w = vec![0.0; n];
     let check_every = 4;
+    // After a breakdown, a fresh random direction that the operator maps to nothing shows that
+    // the rest of the space holds no finite eigenvalue (massless degrees of freedom only).
+    let mut restarted = false;
+    let mut scale = 0.0_f64;
     loop {
         op.apply(&v, &mut w);
         let a = dot(&v, &w);
@@ -199,7 +202,7 @@ fn lanczos(
         }
         q.push(std::mem::take(&mut v));
         alpha.push(a);
-        let scale = a.abs().max(alpha.iter().fold(0.0_f64, |s, x| s.max(x.abs())));
+        scale = scale.max(a.abs());
         // Classical Gram–Schmidt, repeated when it removed much (Daniel, Gragg, Kaufman &
         // Stewart, Math. Comp. 30 (1976) 772–795: "twice is enough").
         let mut b = dot(&w, &w).sqrt();
@@ -216,7 +219,8 @@ fn lanczos(
         }
         let j = q.len();
         let breakdown = b <= 1e-13 * scale;
-        let exhausted = j == max_dim;
+        let exhausted = j == max_dim || (restarted && breakdown && a.abs() <= 1e-13 * scale);
+        restarted = false;
         if breakdown {
             b = 0.0;
         }
@@ -227,7 +231,14 @@ fn lanczos(
             }
         }
         v = if breakdown {
-            fresh_direction(n, locked, &q, rng)
+            restarted = true;
+            match fresh_direction(n, locked, &q, rng) {
+                Some(v) => v,
+                None => {
+                    let pairs = ritz_pairs(&alpha, &beta, &q, want, tol, true).unwrap_or_default();
+                    return LanczosRun { pairs, steps: j, exhausted: true };
+                }
+            }
         } else {
             w.iter().map(|x| x / b).collect()
         };
@@ -367,14 +378,18 @@ fn orthonormalise(v: &mut [f64], locked: &[&[f64]], q: &[Vec<f64>]) -> bool {
     true
 }
 
-/// A random unit vector orthogonal to `locked` and `q` (which together span less than the space).
-fn fresh_direction(n: usize, locked: &[&[f64]], q: &[Vec<f64>], rng: &mut XorShift) -> Vec<f64> {
-    loop {
+/// A random unit vector orthogonal to `locked` and `q`; `None` when five tries leave nothing
+/// (they span the space to round-off).
+fn fresh_direction(
+    n: usize,
+    locked: &[&[f64]],
+    q: &[Vec<f64>],
+    rng: &mut XorShift,
+) -> Option<Vec<f64>> {
+    (0..5).find_map(|_| {
         let mut v: Vec<f64> = (0..n).map(|_| rng.next()).collect();
-        if orthonormalise(&mut v, locked, q) {
-            return v;
-        }
-    }
+        orthonormalise(&mut v, locked, q).then_some(v)
+    })
 }
 
 /// A small deterministic generator for start vectors (xorshift64, Marsaglia 2003).

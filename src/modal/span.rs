@@ -150,10 +150,10 @@ fn check_section(s: &SectionProperties, pitch: f64) -> Result<SpanSection, Modal
             return Err(ModalError::ZeroStiffness { r, term: name, value: k[(i, i)] });
         }
     }
-    let scale = 1e-9 * k.diagonal().max();
     for i in 0..4 {
         for j in 0..i {
-            if (k[(i, j)] - k[(j, i)]).abs() > scale.max(1e-9 * k[(i, j)].abs()) {
+            let scale = 1e-9 * (k[(i, i)] * k[(j, j)]).sqrt();
+            if (k[(i, j)] - k[(j, i)]).abs() > scale {
                 return Err(ModalError::AsymmetricStiffness { r, row: i, col: j });
             }
         }
