@@ -96,6 +96,19 @@ pub struct BeamModel {
     elastic: BandMatrix,
     spin: BandMatrix,
     mass: BandMatrix,
+    /// Mass entries `(i, j, value, family)` coupling two dofs of one family (flap 0, edge 1,
+    /// torsion 2, axial 3), off-diagonal ones doubled: `Σ v x_i x_j` is that family's energy.
+    family_mass: Vec<(usize, usize, f64, usize)>,
+}
+
+/// The energy family of a degree of freedom: 0 out of plane, 1 in plane, 2 twist, 3 radial.
+fn family(kind: DofKind) -> usize {
+    match kind {
+        DofKind::OutOfPlane | DofKind::OutOfPlaneSlope => 0,
+        DofKind::InPlane | DofKind::InPlaneSlope => 1,
+        DofKind::Twist => 2,
+        DofKind::Axial => 3,
+    }
 }
 
 impl BeamModel {
@@ -160,6 +173,11 @@ impl BeamModel {
         }
         let node_phi = nodes.iter().map(|&r| span.at(r).phi).collect();
         let node_chord = nodes.iter().map(|&r| span.at(r).chord).collect();
+        let family_mass = mass
+            .lower_entries()
+            .filter(|&(i, j, _)| family(dofs[i].kind) == family(dofs[j].kind))
+            .map(|(i, j, v)| (i, j, if i == j { v } else { 2.0 * v }, family(dofs[i].kind)))
+            .collect();
         Ok(BeamModel {
             span,
             rotor: rotor.clone(),
@@ -170,6 +188,7 @@ impl BeamModel {
             elastic,
             spin,
             mass,
+            family_mass,
         })
     }
 
@@ -228,6 +247,11 @@ impl BeamModel {
     /// The mass matrix.
     pub(crate) fn mass(&self) -> &BandMatrix {
         &self.mass
+    }
+
+    /// Same-family mass entries for energy shares.
+    pub(crate) fn family_mass(&self) -> &[(usize, usize, f64, usize)] {
+        &self.family_mass
     }
 }
 

@@ -10,9 +10,9 @@
 use nalgebra::DVector;
 use serde::Serialize;
 
+use super::ModalError;
 use super::assemble::{BeamModel, DofKind, check_rpm};
 use super::solve::{LanczosParams, solve_lowest};
-use super::{ModalError, band::BandMatrix};
 
 /// The least kinetic energy share for a mode to be named after one family (common practice for
 /// automatic mode labels; 0.6 keeps strongly coupled modes "mixed").
@@ -134,7 +134,7 @@ impl BeamModel {
             .enumerate()
             .map(|(i, &lambda)| {
                 let vector = solution.vectors.column(i).into_owned();
-                let shares = energy_shares(self, self.mass(), &vector);
+                let shares = energy_shares(self, &vector);
                 Mode {
                     frequency_hz: lambda.max(0.0).sqrt() / (2.0 * std::f64::consts::PI),
                     kind: shares.kind(),
@@ -149,21 +149,11 @@ impl BeamModel {
     }
 }
 
-/// Kinetic energy shares of `x` by family, from the diagonal blocks of `m`.
-fn energy_shares(model: &BeamModel, m: &BandMatrix, x: &DVector<f64>) -> EnergyShares {
-    let family = |k: DofKind| match k {
-        DofKind::OutOfPlane | DofKind::OutOfPlaneSlope => 0,
-        DofKind::InPlane | DofKind::InPlaneSlope => 1,
-        DofKind::Twist => 2,
-        DofKind::Axial => 3,
-    };
-    let dofs = model.dofs();
+/// Kinetic energy shares of `x` by family, from the diagonal blocks of the mass matrix.
+fn energy_shares(model: &BeamModel, x: &DVector<f64>) -> EnergyShares {
     let mut e = [0.0; 4];
-    for (i, j, v) in m.lower_entries() {
-        let (fi, fj) = (family(dofs[i].kind), family(dofs[j].kind));
-        if fi == fj {
-            e[fi] += if i == j { v * x[i] * x[i] } else { 2.0 * v * x[i] * x[j] };
-        }
+    for &(i, j, v, family) in model.family_mass() {
+        e[family] += v * x[i] * x[j];
     }
     let e = e.map(|v: f64| v.max(0.0));
     let total: f64 = e.iter().sum();

@@ -32,21 +32,22 @@ fn m_times(m: &BandMatrix, x: &DVector<f64>) -> DVector<f64> {
 }
 
 /// Gives every mode of `current` the track of its best match in `previous` (whose tracks are
-/// set); unmatched modes get new tracks from `next_track`.
+/// set); unmatched modes get new tracks from `next_track`. Both sets are M-normalised (as the
+/// solver returns them), so `MAC = (x_iᵀ M y_j)² / (y_jᵀ M y_j)` with one product per current
+/// mode.
 pub(crate) fn continue_tracks(
     m: &BandMatrix,
     previous: &[Mode],
     current: &mut [Mode],
     next_track: &mut usize,
 ) {
-    let m_prev: Vec<DVector<f64>> = previous.iter().map(|p| m_times(m, &p.vector)).collect();
-    let cc: Vec<f64> = current.iter().map(|c| m_times(m, &c.vector).dot(&c.vector)).collect();
     let mut pairs = Vec::with_capacity(previous.len() * current.len());
-    for (i, (p, mp)) in previous.iter().zip(&m_prev).enumerate() {
-        let pp = mp.dot(&p.vector);
-        for (j, (c, &cc)) in current.iter().zip(&cc).enumerate() {
-            let pc = mp.dot(&c.vector);
-            let value = if pp > 0.0 && cc > 0.0 { pc * pc / (pp * cc) } else { 0.0 };
+    for (j, c) in current.iter().enumerate() {
+        let my = m_times(m, &c.vector);
+        let cc = my.dot(&c.vector);
+        for (i, p) in previous.iter().enumerate() {
+            let pc = my.dot(&p.vector);
+            let value = if cc > 0.0 { pc * pc / cc } else { 0.0 };
             if value >= MIN_TRACK_MAC {
                 pairs.push((value, i, j));
             }

@@ -33,14 +33,14 @@ pub(crate) fn eigen_last_row(diag: &[f64], off: &[f64]) -> Option<(Vec<f64>, Vec
                 return None;
             }
             let mut g = (d[l + 1] - d[l]) / (2.0 * e[l]);
-            let mut r = g.hypot(1.0);
+            let mut r = (g * g + 1.0).sqrt();
             g = d[m] - d[l] + e[l] / (g + r.copysign(g));
             let (mut s, mut c, mut p) = (1.0, 1.0, 0.0);
             let mut underflow = false;
             for i in (l..m).rev() {
                 let f = s * e[i];
                 let b = c * e[i];
-                r = f.hypot(g);
+                r = (f * f + g * g).sqrt();
                 e[i + 1] = r;
                 if r == 0.0 {
                     d[i + 1] -= p;
