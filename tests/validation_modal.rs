@@ -281,3 +281,40 @@ fn a_blade_pitched_to_90_degrees_bends_its_weak_axis_in_the_plane_of_rotation() 
         assert!((found / ROTATING_FLAP[n][0] - 1.0).abs() < 2e-5, "mode {}: {found}", n + 1);
     }
 }
+
+#[test]
+fn torsion_under_centrifugal_tension_agrees_with_an_independent_shooting_solution() {
+    // The tension term N k_A² theta'² (Hodges & Dowell, NASA TN D-7818, 1974, from memory) and
+    // the propeller moment together, checked against RK4 shooting of
+    // [(GJ + N k²) theta']' + (I_p omega² - Omega² dJ) theta = 0 (tests/modal_support).
+    // Invented data chosen so that N k² is about half of GJ at the root.
+    let (gj, m, l, omega_rot) = (1.0, 1.0, 1.0, 10.0);
+    let mut beam = BeamSection::uniform(0.0, 1000.0, gj, 1.0, 10.0, m);
+    beam.inertia = MassInertia { flap: 0.002, edge: 0.008, polar: 0.01, product: 0.0 };
+    let k2 = (1.0 + 10.0) / 1000.0;
+    let model =
+        BeamModel::new(&uniform(&beam, 0.0, l), &rotor(2, 10.0, 200.0, 0.0), &spec(40)).unwrap();
+    let set = model.modes(omega_rot / RAD_S_PER_RPM, 12).unwrap();
+    let torsion: Vec<f64> = set
+        .modes
+        .iter()
+        .filter(|m| m.kind == ModeKind::Torsion)
+        .map(|m| 2.0 * PI * m.frequency_hz)
+        .collect();
+    let reference = shooting_torsion(gj, 0.01, 0.008 - 0.002, m * k2, l, omega_rot, 2);
+    assert!(torsion.len() >= 2, "{torsion:?}");
+    for n in 0..2 {
+        // RK4 (4000 steps) and quadratic elements (40): both better than 1e-6.
+        let rel = (torsion[n] / reference[n] - 1.0).abs();
+        assert!(
+            rel < 1e-5,
+            "torsion {}: {} vs {} rad/s ({rel:e})",
+            n + 1,
+            torsion[n],
+            reference[n]
+        );
+    }
+    // The tension term matters here: without it the first frequency would be far lower.
+    let without = shooting_torsion(gj, 0.01, 0.006, 0.0, l, omega_rot, 1);
+    assert!(torsion[0] > 1.1 * without[0]);
+}

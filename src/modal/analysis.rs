@@ -3,7 +3,9 @@
 
 use super::ModalError;
 use super::assemble::BeamModel;
-use super::campbell::{Campbell, Crossing, Excitation, MarginCheck, SpeedRange, excitation_orders};
+use super::campbell::{
+    Campbell, Crossing, Excitation, MarginCheck, SpeedRange, SweepProgress, excitation_orders,
+};
 use crate::input::{Criteria, ModalSpec, Rotor};
 use crate::section::SectionProperties;
 
@@ -39,7 +41,7 @@ impl ModalAnalysis {
         criteria: &Criteria,
         range: Option<SpeedRange>,
         modes: Option<usize>,
-        progress: &mut dyn FnMut(usize, usize),
+        progress: SweepProgress,
     ) -> Result<ModalAnalysis, ModalError> {
         let model = BeamModel::new(sections, rotor, spec)?;
         let range = match range {

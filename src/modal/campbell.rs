@@ -16,6 +16,10 @@ use super::modes::{ModeKind, ModeSet};
 use super::track::{continue_tracks, start_tracks};
 use crate::input::Rotor;
 
+/// Progress of a sweep: called with (speeds done, speeds in all) after each speed, so that a
+/// caller can show a progress bar.
+pub type SweepProgress<'a> = &'a mut dyn FnMut(usize, usize);
+
 /// Most speeds a sweep may hold.
 pub const MAX_SPEEDS: usize = 100_000;
 
@@ -200,7 +204,7 @@ impl BeamModel {
         &self,
         rpms: &[f64],
         count: usize,
-        progress: &mut dyn FnMut(usize, usize),
+        progress: SweepProgress,
     ) -> Result<Campbell, ModalError> {
         if rpms.is_empty() {
             return Err(ModalError::NoSpeeds);

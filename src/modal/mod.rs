@@ -107,8 +107,8 @@ pub use assemble::{BeamModel, Dof, DofKind, MAX_ELEMENTS, SystemMatrices};
 pub use band::BandMatrix;
 pub use beam_section::BeamSection;
 pub use campbell::{
-    Campbell, Crossing, Excitation, MAX_SPEEDS, MarginCheck, ModeMargin, SpeedRange, Track,
-    excitation_orders,
+    Campbell, Crossing, Excitation, MAX_SPEEDS, MarginCheck, ModeMargin, SpeedRange, SweepProgress,
+    Track, excitation_orders,
 };
 pub use export::{export_matrix_market, write_matrix_market};
 pub use modes::{DOMINANT_SHARE, EnergyShares, Mode, ModeKind, ModeSet, ModeShape};

@@ -154,3 +154,60 @@ pub fn shooting_frequencies(
 fn add(y: [f64; 4], k: [f64; 4], h: f64) -> [f64; 4] {
     [y[0] + h * k[0], y[1] + h * k[1], y[2] + h * k[2], y[3] + h * k[3]]
 }
+
+/// Roots `omega` of uniform torsion under centrifugal tension (hub radius zero):
+/// `[(GJ + N(x) k²) theta']' + (I_p omega² - Omega² dj) theta = 0`, `theta(0) = 0`, torque free
+/// at `x = L`, with `N = Omega² m (L² - x²) / 2`; `m_k2` is `m k²`. RK4 shooting over 4000
+/// steps, bisection.
+pub fn shooting_torsion(
+    gj: f64,
+    ip: f64,
+    dj: f64,
+    m_k2: f64,
+    length: f64,
+    omega_rot: f64,
+    count: usize,
+) -> Vec<f64> {
+    let stiff = |x: f64| gj + omega_rot.powi(2) * 0.5 * (length * length - x * x) * m_k2;
+    let end_torque = |omega: f64| {
+        let q = ip * omega * omega - omega_rot.powi(2) * dj;
+        let rhs = |x: f64, y: [f64; 2]| [y[1] / stiff(x), -q * y[0]];
+        let steps = 4000;
+        let h = length / steps as f64;
+        let mut y = [0.0, 1.0];
+        for s in 0..steps {
+            let x = s as f64 * h;
+            let k1 = rhs(x, y);
+            let k2 = rhs(x + h / 2.0, [y[0] + h / 2.0 * k1[0], y[1] + h / 2.0 * k1[1]]);
+            let k3 = rhs(x + h / 2.0, [y[0] + h / 2.0 * k2[0], y[1] + h / 2.0 * k2[1]]);
+            let k4 = rhs(x + h, [y[0] + h * k3[0], y[1] + h * k3[1]]);
+            y[0] += h / 6.0 * (k1[0] + 2.0 * k2[0] + 2.0 * k3[0] + k4[0]);
+            y[1] += h / 6.0 * (k1[1] + 2.0 * k2[1] + 2.0 * k3[1] + k4[1]);
+        }
+        y[1]
+    };
+    let step = 0.02 * (gj / (ip * length * length)).sqrt();
+    let mut roots = Vec::new();
+    let (mut a, mut fa) = (step, end_torque(step));
+    while roots.len() < count {
+        let b = a + step;
+        let fb = end_torque(b);
+        if fa.signum() != fb.signum() {
+            let (mut lo, mut hi, mut flo) = (a, b, fa);
+            for _ in 0..60 {
+                let mid = 0.5 * (lo + hi);
+                let fm = end_torque(mid);
+                if fm.signum() == flo.signum() {
+                    lo = mid;
+                    flo = fm;
+                } else {
+                    hi = mid;
+                }
+            }
+            roots.push(0.5 * (lo + hi));
+        }
+        a = b;
+        fa = fb;
+    }
+    roots
+}
