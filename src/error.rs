@@ -8,6 +8,7 @@ use crate::material::MaterialError;
 use crate::section::SectionError;
 use crate::stress::StressError;
 use crate::tooling::MeshError;
+use crate::modal::ModalError;
 
 /// Any error layloft's library can return.
 #[derive(Debug, thiserror::Error)]
@@ -36,6 +37,9 @@ pub enum Error {
     /// A tooling mesh that cannot be built or fails its checks.
     #[error(transparent)]
     Mesh(#[from] MeshError),
+    /// The modal analysis: bad model data or speeds, or an eigen solution that failed.
+    #[error(transparent)]
+    Modal(#[from] ModalError),
     /// Writing an output file.
     #[error("cannot write {path}: {source}")]
     Write {

@@ -58,6 +58,7 @@ impl From<layloft::Error> for Failure {
     fn from(e: layloft::Error) -> Self {
         match e {
             layloft::Error::Write { .. } => Failure::Run(e.into()),
+            layloft::Error::Modal(ref m) if !m.is_input() => Failure::Run(e.into()),
             _ => Failure::Input(e.into()),
         }
     }

@@ -2,11 +2,16 @@
 //! written (atomically: a temporary file in the same folder, then a rename, so that a reader never
 //! sees half a file and a failed run leaves what was there before).
 
+mod campbell;
 pub mod html;
+mod modal;
+pub mod svg;
 mod table;
 mod write;
 
+pub use campbell::{campbell_svg, kind_colour};
 pub use html::HtmlReport;
+pub use modal::{campbell_csv, modal_json, mode_shapes_csv};
 pub use table::{Align, Table, fixed, sig4};
 pub use write::{write_atomic, write_atomic_with};
 mod laminate;

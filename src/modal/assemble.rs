@@ -1,0 +1,272 @@
+//! The beam model: a uniform mesh along the pitch axis, element matrices assembled into band
+//! matrices, root constraints or root springs.
+//!
+//! Global numbering, node by node: node `i` carries `(u, v, w, theta, v', w')` at `8 i .. 8 i + 6`
+//! and element `i`'s interior node `(u_m, theta_m)` at `8 i + 6, 8 i + 7`, so element `i`'s 14
+//! local degrees of freedom are the global `8 i .. 8 i + 14` and the half-bandwidth is 13. The
+//! root node is clamped (all six removed); with root springs only `v` and `w` are removed and
+//! springs act on `u`, `w'` (flap), `v'` (edge) and `theta` (torsion), in the rotor frame.
+
+use super::ModalError;
+use super::band::BandMatrix;
+use super::element::{NE, element_matrices};
+use super::span::Span;
+use crate::input::{ModalSpec, RootSprings, Rotor};
+use crate::section::SectionProperties;
+use crate::units::rpm_to_rad_s;
+
+/// Most elements a model may have.
+pub const MAX_ELEMENTS: usize = 10_000;
+
+/// What a degree of freedom is, rotor frame (`x` radial along the pitch axis, `y` in the plane
+/// of rotation, `z` along the rotor axis).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+pub enum DofKind {
+    /// Radial (axial) displacement `u`, m.
+    Axial,
+    /// Displacement in the plane of rotation `v` (y), m.
+    InPlane,
+    /// Displacement out of the plane of rotation `w` (z), m.
+    OutOfPlane,
+    /// Twist `theta` about the pitch axis, rad.
+    Twist,
+    /// In-plane slope `dv/dx`.
+    InPlaneSlope,
+    /// Out-of-plane slope `dw/dx`.
+    OutOfPlaneSlope,
+}
+
+impl DofKind {
+    /// A short name with its unit, for files: `u_m`, `v_m`, `w_m`, `theta_rad`, `dv_dx`, `dw_dx`.
+    pub fn key(self) -> &'static str {
+        match self {
+            DofKind::Axial => "u_m",
+            DofKind::InPlane => "v_m",
+            DofKind::OutOfPlane => "w_m",
+            DofKind::Twist => "theta_rad",
+            DofKind::InPlaneSlope => "dv_dx",
+            DofKind::OutOfPlaneSlope => "dw_dx",
+        }
+    }
+}
+
+const NODE_KINDS: [DofKind; 6] = [
+    DofKind::Axial,
+    DofKind::InPlane,
+    DofKind::OutOfPlane,
+    DofKind::Twist,
+    DofKind::InPlaneSlope,
+    DofKind::OutOfPlaneSlope,
+];
+
+/// One unconstrained degree of freedom of the model.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Dof {
+    /// Radius of its node, m.
+    pub r: f64,
+    /// What it is.
+    pub kind: DofKind,
+    /// Its mesh node (0 at the root), or `None` for an element's interior node.
+    pub node: Option<usize>,
+}
+
+/// The constrained stiffness and mass matrices at one speed.
+#[derive(Debug, Clone)]
+pub struct SystemMatrices {
+    /// Rotor speed, rpm.
+    pub rpm: f64,
+    /// Stiffness `K = K_elastic + Omega² K_spin`, N/m, N, N·m per unit of the degrees of freedom.
+    pub stiffness: BandMatrix,
+    /// Mass, kg, kg·m, kg·m².
+    pub mass: BandMatrix,
+    /// The degree of freedom of every row.
+    pub dofs: Vec<Dof>,
+}
+
+/// A rotating blade as a beam of finite elements along its pitch axis (see the module docs of
+/// [`crate::modal`]).
+#[derive(Debug, Clone)]
+pub struct BeamModel {
+    span: Span,
+    rotor: Rotor,
+    nodes: Vec<f64>,
+    node_phi: Vec<f64>,
+    node_chord: Vec<f64>,
+    dofs: Vec<Dof>,
+    elastic: BandMatrix,
+    spin: BandMatrix,
+    mass: BandMatrix,
+    /// Mass entries `(i, j, value, family)` coupling two dofs of one family (flap 0, edge 1,
+    /// torsion 2, axial 3), off-diagonal ones doubled: `Σ v x_i x_j` is that family's energy.
+    family_mass: Vec<(usize, usize, f64, usize)>,
+}
+
+/// The energy family of a degree of freedom: 0 out of plane, 1 in plane, 2 twist, 3 radial.
+fn family(kind: DofKind) -> usize {
+    match kind {
+        DofKind::OutOfPlane | DofKind::OutOfPlaneSlope => 0,
+        DofKind::InPlane | DofKind::InPlaneSlope => 1,
+        DofKind::Twist => 2,
+        DofKind::Axial => 3,
+    }
+}
+
+impl BeamModel {
+    /// Builds the model from sections ordered root to tip (the first is the clamp; hub radius
+    /// zero is allowed), the rotor (its pitch setting turns every section) and the modal settings
+    /// (`elements` equal elements from the first to the last section; optional root springs).
+    pub fn new(
+        sections: &[SectionProperties],
+        rotor: &Rotor,
+        spec: &ModalSpec,
+    ) -> Result<BeamModel, ModalError> {
+        if spec.elements == 0 || spec.elements > MAX_ELEMENTS {
+            return Err(ModalError::ElementCount { elements: spec.elements });
+        }
+        if let Some(springs) = &spec.root_springs {
+            check_springs(springs)?;
+        }
+        let span = Span::new(sections, rotor.pitch.rad())?;
+        let n_el = spec.elements;
+        let (root, tip) = (span.root(), span.tip());
+        let nodes: Vec<f64> =
+            (0..=n_el).map(|i| root + (tip - root) * i as f64 / n_el as f64).collect();
+        let total = 8 * n_el + 6;
+        let clamped: &[usize] =
+            if spec.root_springs.is_some() { &[1, 2] } else { &[0, 1, 2, 3, 4, 5] };
+        let mut free = vec![None; total];
+        let mut dofs = Vec::with_capacity(total);
+        for (g, slot) in free.iter_mut().enumerate() {
+            if g < 6 && clamped.contains(&g) {
+                continue;
+            }
+            *slot = Some(dofs.len());
+            let (e, l) = (g / 8, g % 8);
+            dofs.push(match l {
+                6 => Dof { r: 0.5 * (nodes[e] + nodes[e + 1]), kind: DofKind::Axial, node: None },
+                7 => Dof { r: 0.5 * (nodes[e] + nodes[e + 1]), kind: DofKind::Twist, node: None },
+                _ => Dof { r: nodes[e], kind: NODE_KINDS[l], node: Some(e) },
+            });
+        }
+        let n = dofs.len();
+        let mut elastic = BandMatrix::zeros(n, 13);
+        let mut spin = BandMatrix::zeros(n, 13);
+        let mut mass = BandMatrix::zeros(n, 13);
+        for e in 0..n_el {
+            let em = element_matrices(&span, nodes[e], nodes[e + 1]);
+            for a in 0..NE {
+                let Some(fa) = free[8 * e + a] else { continue };
+                for b in 0..=a {
+                    let Some(fb) = free[8 * e + b] else { continue };
+                    elastic.add(fa, fb, em.elastic[(a, b)]);
+                    spin.add(fa, fb, em.spin[(a, b)]);
+                    mass.add(fa, fb, em.mass[(a, b)]);
+                }
+            }
+        }
+        if let Some(k) = &spec.root_springs {
+            // Free root dofs in order: u, theta, v', w'.
+            elastic.add(0, 0, k.axial);
+            elastic.add(1, 1, k.torsion);
+            elastic.add(2, 2, k.edge);
+            elastic.add(3, 3, k.flap);
+        }
+        let node_phi = nodes.iter().map(|&r| span.at(r).phi).collect();
+        let node_chord = nodes.iter().map(|&r| span.at(r).chord).collect();
+        let family_mass = mass
+            .lower_entries()
+            .filter(|&(i, j, _)| family(dofs[i].kind) == family(dofs[j].kind))
+            .map(|(i, j, v)| (i, j, if i == j { v } else { 2.0 * v }, family(dofs[i].kind)))
+            .collect();
+        Ok(BeamModel {
+            span,
+            rotor: rotor.clone(),
+            nodes,
+            node_phi,
+            node_chord,
+            dofs,
+            elastic,
+            spin,
+            mass,
+            family_mass,
+        })
+    }
+
+    /// Number of unconstrained degrees of freedom.
+    pub fn dof_count(&self) -> usize {
+        self.dofs.len()
+    }
+
+    /// The unconstrained degrees of freedom in matrix order.
+    pub fn dofs(&self) -> &[Dof] {
+        &self.dofs
+    }
+
+    /// Radii of the mesh nodes, root to tip, m.
+    pub fn node_radii(&self) -> &[f64] {
+        &self.nodes
+    }
+
+    /// Chord angle (twist + pitch) at each node, rad from the plane of rotation.
+    pub fn node_chord_angles(&self) -> &[f64] {
+        &self.node_phi
+    }
+
+    /// Chord at each node, m.
+    pub(crate) fn node_chords(&self) -> &[f64] {
+        &self.node_chord
+    }
+
+    /// The rotor the model was built for.
+    pub fn rotor(&self) -> &Rotor {
+        &self.rotor
+    }
+
+    /// Radius of the clamp (first station) and of the tip, m.
+    pub fn span(&self) -> (f64, f64) {
+        (self.span.root(), self.span.tip())
+    }
+
+    /// The constrained stiffness (at `rpm`) and mass matrices.
+    pub fn system_matrices(&self, rpm: f64) -> Result<SystemMatrices, ModalError> {
+        check_rpm(rpm)?;
+        Ok(SystemMatrices {
+            rpm,
+            stiffness: self.stiffness_at(rpm),
+            mass: self.mass.clone(),
+            dofs: self.dofs.clone(),
+        })
+    }
+
+    /// `K(Omega) = K_elastic + Omega² K_spin` at `rpm`.
+    pub(crate) fn stiffness_at(&self, rpm: f64) -> BandMatrix {
+        let omega = rpm_to_rad_s(rpm);
+        self.elastic.plus_scaled(omega * omega, &self.spin)
+    }
+
+    /// The mass matrix.
+    pub(crate) fn mass(&self) -> &BandMatrix {
+        &self.mass
+    }
+
+    /// Same-family mass entries for energy shares.
+    pub(crate) fn family_mass(&self) -> &[(usize, usize, f64, usize)] {
+        &self.family_mass
+    }
+}
+
+/// A rotor speed must be finite and not negative.
+pub(crate) fn check_rpm(rpm: f64) -> Result<(), ModalError> {
+    if rpm.is_finite() && rpm >= 0.0 { Ok(()) } else { Err(ModalError::Speed { rpm }) }
+}
+
+fn check_springs(k: &RootSprings) -> Result<(), ModalError> {
+    for (field, v) in
+        [("axial", k.axial), ("flap", k.flap), ("edge", k.edge), ("torsion", k.torsion)]
+    {
+        if !(v.is_finite() && v > 0.0) {
+            return Err(ModalError::RootSpring { field, value: v });
+        }
+    }
+    Ok(())
+}

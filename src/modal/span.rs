@@ -1,0 +1,201 @@
+//! Section properties along the span: checked once, interpolated linearly in radius between
+//! stations, and the centrifugal tension integral.
+//!
+//! Everything here is in the chord frame of each station and referred to the pitch axis (the
+//! origin of the chord frame); the element turns it into the rotor frame with the local chord
+//! angle. Linear interpolation of the 4x4 stiffness keeps it positive definite between stations
+//! (a convex combination of positive definite matrices).
+
+use nalgebra::Matrix4;
+
+use super::ModalError;
+use crate::section::SectionProperties;
+
+/// Section properties at one radius, chord frame, about the pitch axis.
+#[derive(Debug, Clone, Copy)]
+pub(crate) struct SpanSection {
+    /// Radius, m.
+    pub r: f64,
+    /// Chord, m.
+    pub chord: f64,
+    /// Chord angle from the plane of rotation (twist + pitch), rad.
+    pub phi: f64,
+    /// Stiffness about the pitch axis, `(eps, kappa_t, kappa_f, kappa_e)` order.
+    pub stiffness: Matrix4<f64>,
+    /// Mass per length, kg/m.
+    pub mass: f64,
+    /// Mass centre (y, z) from the pitch axis, m.
+    pub mass_centre: [f64; 2],
+    /// Second moments of mass per length about the pitch axis, kg·m: `∫ρ y²`, `∫ρ z²`, `∫ρ yz`.
+    pub second_moments: [f64; 3],
+}
+
+impl SpanSection {
+    fn lerp(a: &SpanSection, b: &SpanSection, t: f64, r: f64) -> SpanSection {
+        let mix = |x: f64, y: f64| x + t * (y - x);
+        SpanSection {
+            r,
+            chord: mix(a.chord, b.chord),
+            phi: mix(a.phi, b.phi),
+            stiffness: a.stiffness + (b.stiffness - a.stiffness) * t,
+            mass: mix(a.mass, b.mass),
+            mass_centre: [
+                mix(a.mass_centre[0], b.mass_centre[0]),
+                mix(a.mass_centre[1], b.mass_centre[1]),
+            ],
+            second_moments: [
+                mix(a.second_moments[0], b.second_moments[0]),
+                mix(a.second_moments[1], b.second_moments[1]),
+                mix(a.second_moments[2], b.second_moments[2]),
+            ],
+        }
+    }
+}
+
+/// The checked stations and the tension integral at each.
+#[derive(Debug, Clone)]
+pub(crate) struct Span {
+    stations: Vec<SpanSection>,
+    /// `∫_{r_i}^{tip} m rho drho` at each station, kg·m (times Omega² gives the tension, N).
+    tension: Vec<f64>,
+}
+
+impl Span {
+    /// Checks and converts the sections; `pitch` (rad) is added to every station twist.
+    pub fn new(sections: &[SectionProperties], pitch: f64) -> Result<Span, ModalError> {
+        if sections.len() < 2 {
+            return Err(ModalError::TooFewSections { found: sections.len() });
+        }
+        if !pitch.is_finite() {
+            return Err(ModalError::NotFinite { r: sections[0].r, field: "pitch" });
+        }
+        let mut stations = Vec::with_capacity(sections.len());
+        for (i, s) in sections.iter().enumerate() {
+            let station = check_section(s, pitch)?;
+            if i == 0 && s.r < 0.0 {
+                return Err(ModalError::NegativeRadius { r: s.r });
+            }
+            if let Some(prev) = stations.last().map(|p: &SpanSection| p.r)
+                && s.r <= prev
+            {
+                return Err(ModalError::RadiusOrder { index: i, r: s.r, previous: prev });
+            }
+            stations.push(station);
+        }
+        let mut tension = vec![0.0; stations.len()];
+        for i in (0..stations.len() - 1).rev() {
+            let (a, b) = (&stations[i], &stations[i + 1]);
+            tension[i] = tension[i + 1] + moment_of_mass(a, b, a.r);
+        }
+        Ok(Span { stations, tension })
+    }
+
+    /// Radius of the root (first) station, m.
+    pub fn root(&self) -> f64 {
+        self.stations[0].r
+    }
+
+    /// Radius of the tip (last) station, m.
+    pub fn tip(&self) -> f64 {
+        self.stations[self.stations.len() - 1].r
+    }
+
+    /// Index `i` of the interval `[r_i, r_i+1]` holding `r` (clamped to the span).
+    fn interval(&self, r: f64) -> usize {
+        let last = self.stations.len() - 2;
+        self.stations[1..=last].partition_point(|s| s.r <= r).min(last)
+    }
+
+    /// Properties at radius `r` by linear interpolation.
+    pub fn at(&self, r: f64) -> SpanSection {
+        let i = self.interval(r);
+        let (a, b) = (&self.stations[i], &self.stations[i + 1]);
+        let t = ((r - a.r) / (b.r - a.r)).clamp(0.0, 1.0);
+        SpanSection::lerp(a, b, t, r)
+    }
+
+    /// `∫_r^{tip} m rho drho`, kg·m: the centrifugal tension at `r` per unit Omega².
+    pub fn tension_per_omega2(&self, r: f64) -> f64 {
+        let i = self.interval(r);
+        let (a, b) = (&self.stations[i], &self.stations[i + 1]);
+        self.tension[i + 1] + moment_of_mass(a, b, r.clamp(a.r, b.r))
+    }
+}
+
+/// `∫_x^{b.r} m(rho) rho drho` with `m` linear between `a` and `b`: Simpson's rule, exact for
+/// the quadratic integrand.
+fn moment_of_mass(a: &SpanSection, b: &SpanSection, x: f64) -> f64 {
+    let m = |r: f64| a.mass + (b.mass - a.mass) * (r - a.r) / (b.r - a.r);
+    let f = |r: f64| m(r) * r;
+    let mid = 0.5 * (x + b.r);
+    (b.r - x) / 6.0 * (f(x) + 4.0 * f(mid) + f(b.r))
+}
+
+/// Checks one section and converts it; errors name the station radius.
+fn check_section(s: &SectionProperties, pitch: f64) -> Result<SpanSection, ModalError> {
+    let r = s.r;
+    let finite = |field: &'static str, v: f64| {
+        if v.is_finite() { Ok(v) } else { Err(ModalError::NotFinite { r, field }) }
+    };
+    finite("r", r)?;
+    finite("chord", s.chord)?;
+    finite("twist", s.twist.rad())?;
+    if s.stiffness_pitch_axis.iter().any(|v| !v.is_finite()) {
+        return Err(ModalError::NotFinite { r, field: "stiffness_pitch_axis" });
+    }
+    let k = s.stiffness_pitch_axis;
+    let names = ["EA", "GJ", "EI_flap", "EI_edge"];
+    for (i, name) in names.iter().enumerate() {
+        if k[(i, i)] <= 0.0 {
+            return Err(ModalError::ZeroStiffness { r, term: name, value: k[(i, i)] });
+        }
+    }
+    for i in 0..4 {
+        for j in 0..i {
+            let scale = 1e-9 * (k[(i, i)] * k[(j, j)]).sqrt();
+            if (k[(i, j)] - k[(j, i)]).abs() > scale {
+                return Err(ModalError::AsymmetricStiffness { r, row: i, col: j });
+            }
+        }
+    }
+    // Positive definite after scaling to a unit diagonal (units differ by entry).
+    let d = k.diagonal().map(|v| 1.0 / v.sqrt());
+    let scaled = Matrix4::from_fn(|i, j| k[(i, j)] * d[i] * d[j]);
+    if scaled.cholesky().is_none() {
+        return Err(ModalError::IndefiniteStiffness { r });
+    }
+    let m = finite("mass_per_length", s.mass_per_length)?;
+    if m <= 0.0 {
+        return Err(ModalError::ZeroMass { r, value: m });
+    }
+    let [ym, zm] = s.mass_centre;
+    finite("mass_centre", ym)?;
+    finite("mass_centre", zm)?;
+    let inertia = s.inertia;
+    for (field, v) in [("inertia.flap", inertia.flap), ("inertia.edge", inertia.edge)] {
+        if finite(field, v)? < 0.0 {
+            return Err(ModalError::NegativeInertia { r, field, value: v });
+        }
+    }
+    finite("inertia.product", inertia.product)?;
+    if inertia.product * inertia.product > inertia.flap * inertia.edge * (1.0 + 1e-9) + 1e-300 {
+        return Err(ModalError::NegativeInertia {
+            r,
+            field: "inertia.product",
+            value: inertia.product,
+        });
+    }
+    Ok(SpanSection {
+        r,
+        chord: s.chord,
+        phi: s.twist.rad() + pitch,
+        stiffness: (k + k.transpose()) * 0.5,
+        mass: m,
+        mass_centre: [ym, zm],
+        second_moments: [
+            inertia.edge + m * ym * ym,
+            inertia.flap + m * zm * zm,
+            inertia.product + m * ym * zm,
+        ],
+    })
+}

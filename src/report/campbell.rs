@@ -1,0 +1,98 @@
+//! The Campbell diagram as SVG: every track a line coloured by its kind, the rotor orders as
+//! dashed lines labelled `nP`, blade-passing orders in a heavier dash-dot, crossings marked (filled
+//! inside the operating range), the operating range shaded, axes "rotor speed (rpm)" and
+//! "frequency (Hz)".
+
+use super::svg::{Anchor, Figure, LineStyle, Marker, palette};
+use crate::modal::{Campbell, Crossing, Excitation, ModeKind};
+
+/// Colour of a mode kind.
+pub fn kind_colour(kind: ModeKind) -> &'static str {
+    match kind {
+        ModeKind::Flap => palette::SERIES[0],
+        ModeKind::Edge => palette::SERIES[1],
+        ModeKind::Torsion => palette::SERIES[2],
+        ModeKind::Axial => palette::SERIES[3],
+        ModeKind::Mixed => palette::SERIES[4],
+    }
+}
+
+/// The Campbell diagram of `campbell` with its excitation lines and crossings; `operating` is
+/// the shaded speed range (rpm), e.g. nominal to maximum.
+pub fn campbell_svg(
+    campbell: &Campbell,
+    excitations: &[Excitation],
+    crossings: &[Crossing],
+    operating: (f64, f64),
+    title: &str,
+) -> String {
+    let mut fig = Figure::new(title, "rotor speed (rpm)", "frequency (Hz)");
+    let rpm_max = campbell.speeds.last().map_or(1.0, |s| s.rpm).max(1e-9);
+    let rpm_min = campbell.speeds.first().map_or(0.0, |s| s.rpm).min(rpm_max - 1e-9);
+    let f_max = campbell
+        .speeds
+        .iter()
+        .flat_map(|s| s.modes.iter().map(|m| m.frequency_hz))
+        .filter(|f| f.is_finite())
+        .fold(0.0, f64::max);
+    let y_top = if f_max > 0.0 { f_max * 1.08 } else { 1.0 };
+    fig.x_range(rpm_min, rpm_max).y_range(0.0, y_top);
+    let (lo, hi) = (operating.0.min(operating.1), operating.0.max(operating.1));
+    fig.band_x(lo, hi, palette::BAND, 0.55);
+    let order_style = LineStyle::dashed(palette::MUTED, 1.0, "5 4");
+    let passing_style = LineStyle::dashed(palette::INK, 1.6, "10 3 2 3");
+    for e in excitations {
+        let style = if e.blade_passing { &passing_style } else { &order_style };
+        let f_end = e.frequency_hz(rpm_max);
+        fig.line(&[(rpm_min, e.frequency_hz(rpm_min)), (rpm_max, f_end)], style);
+        // Label where the line leaves the plot: at the right edge or at the top.
+        let (x, y) =
+            if f_end <= y_top { (rpm_max, f_end) } else { (y_top * 60.0 / e.order as f64, y_top) };
+        if x >= rpm_min {
+            let colour = if e.blade_passing { palette::INK } else { palette::MUTED };
+            fig.label(x, y, &format!("{}P", e.order), colour, Anchor::End);
+        }
+    }
+    for track in &campbell.tracks {
+        let style = LineStyle::solid(kind_colour(track.kind), 2.0);
+        let runs = campbell.track_runs(track.id);
+        for run in &runs {
+            fig.line(run, &style);
+        }
+        // Track labels sit just above the start of each track, clear of the order labels at
+        // the right and top edges.
+        if let Some(&(x, y)) = runs.first().and_then(|r| r.first()) {
+            let x = x + 0.01 * (rpm_max - rpm_min);
+            fig.label(x, y + 0.015 * y_top, &track.label, kind_colour(track.kind), Anchor::Start);
+        }
+    }
+    let inside: Vec<(f64, f64)> = crossings
+        .iter()
+        .filter(|c| c.rpm >= lo && c.rpm <= hi)
+        .map(|c| (c.rpm, c.frequency_hz))
+        .collect();
+    let outside: Vec<(f64, f64)> = crossings
+        .iter()
+        .filter(|c| !(c.rpm >= lo && c.rpm <= hi))
+        .map(|c| (c.rpm, c.frequency_hz))
+        .collect();
+    fig.markers(&outside, Marker::Ring, 9.0, palette::INK);
+    fig.markers(&inside, Marker::Dot, 9.0, palette::SERIES[1]);
+    let mut kinds: Vec<ModeKind> = campbell.tracks.iter().map(|t| t.kind).collect();
+    kinds.sort();
+    kinds.dedup();
+    for kind in kinds {
+        fig.legend_line(
+            &format!("{} mode", kind.name()),
+            &LineStyle::solid(kind_colour(kind), 2.0),
+        );
+    }
+    fig.legend_line("rotor order nP", &order_style);
+    if excitations.iter().any(|e| e.blade_passing) {
+        fig.legend_line("blade passing", &passing_style);
+    }
+    fig.legend_marker("crossing", Marker::Ring, palette::INK);
+    fig.legend_marker("crossing in operating range", Marker::Dot, palette::SERIES[1]);
+    fig.legend_band("operating range", palette::BAND, 0.55);
+    fig.render()
+}
