@@ -5,10 +5,10 @@ use crate::input::InputError;
 use crate::laminate::LaminateError;
 use crate::loads::LoadsError;
 use crate::material::MaterialError;
+use crate::modal::ModalError;
 use crate::section::SectionError;
 use crate::stress::StressError;
 use crate::tooling::MeshError;
-use crate::modal::ModalError;
 
 /// Any error layloft's library can return.
 #[derive(Debug, thiserror::Error)]

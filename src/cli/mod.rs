@@ -7,6 +7,8 @@ mod laminate;
 mod materials;
 mod output;
 mod pairs;
+mod project;
+mod stress;
 
 use std::process::ExitCode;
 
@@ -34,6 +36,7 @@ pub struct Cli {
 enum Command {
     Materials(materials::Args),
     Laminate(laminate::Args),
+    Stress(stress::Args),
 }
 
 /// How a command ended, other than by an error.
@@ -57,7 +60,7 @@ pub enum Failure {
 impl From<layloft::Error> for Failure {
     fn from(e: layloft::Error) -> Self {
         match e {
-            layloft::Error::Write { .. } => Failure::Run(e.into()),
+            layloft::Error::Write { .. } | layloft::Error::Mesh(_) => Failure::Run(e.into()),
             layloft::Error::Modal(ref m) if !m.is_input() => Failure::Run(e.into()),
             _ => Failure::Input(e.into()),
         }
@@ -77,6 +80,7 @@ pub fn main() -> ExitCode {
     let result = match cli.command {
         Command::Materials(args) => materials::run(args, &out),
         Command::Laminate(args) => laminate::run(args, &out),
+        Command::Stress(args) => stress::run(args, &out),
     };
     match result {
         Ok(Outcome::Success) => ExitCode::SUCCESS,

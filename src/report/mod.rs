@@ -15,5 +15,9 @@ pub use modal::{campbell_csv, modal_json, mode_shapes_csv};
 pub use table::{Align, Table, fixed, sig4};
 pub use write::{write_atomic, write_atomic_with};
 mod laminate;
+mod stress;
+mod stress_map;
 
 pub use laminate::LaminateReport;
+pub use stress::{stress_csv, stress_json, stress_text};
+pub use stress_map::stress_svg;

@@ -91,6 +91,7 @@ enum Item {
     Line(Vec<(f64, f64)>, LineStyle),
     Markers(Vec<(f64, f64)>, Marker, f64, String),
     BandX(f64, f64, String, f64),
+    Rect([f64; 4], String, f64),
     Label(f64, f64, String, String, Anchor),
 }
 
@@ -179,6 +180,20 @@ impl Figure {
         self
     }
 
+    /// A filled rectangle between data corners `(x0, y0)` and `(x1, y1)` (cells of a map).
+    pub fn rect(
+        &mut self,
+        x0: f64,
+        y0: f64,
+        x1: f64,
+        y1: f64,
+        fill: &str,
+        opacity: f64,
+    ) -> &mut Self {
+        self.items.push(Item::Rect([x0, y0, x1, y1], fill.to_string(), opacity));
+        self
+    }
+
     /// Text at a data point, clamped into the plot area.
     pub fn label(&mut self, x: f64, y: f64, text: &str, colour: &str, anchor: Anchor) -> &mut Self {
         self.items.push(Item::Label(x, y, text.to_string(), colour.to_string(), anchor));
@@ -209,6 +224,14 @@ impl Figure {
         for item in &self.items {
             if let Item::Line(p, _) | Item::Markers(p, ..) = item {
                 for v in p.iter().map(&pick).filter(|v| v.is_finite()) {
+                    lo = lo.min(v);
+                    hi = hi.max(v);
+                }
+            }
+            if let Item::Rect(c, ..) = item {
+                for v in
+                    [pick(&(c[0], c[1])), pick(&(c[2], c[3]))].into_iter().filter(|v| v.is_finite())
+                {
                     lo = lo.min(v);
                     hi = hi.max(v);
                 }
@@ -476,6 +499,22 @@ fn draw_item(s: &mut String, f: &Frame, item: &Item) {
                         num(*opacity)
                     );
                 }
+            }
+        }
+        Item::Rect(c, fill, opacity) => {
+            if c.iter().all(|v| v.is_finite()) {
+                let (xa, xb) = (f.px(c[0].min(c[2])), f.px(c[0].max(c[2])));
+                let (ya, yb) = (f.py(c[1].max(c[3])), f.py(c[1].min(c[3])));
+                let _ = writeln!(
+                    s,
+                    r#"<rect x="{}" y="{}" width="{}" height="{}" fill="{}" fill-opacity="{}" shape-rendering="crispEdges"/>"#,
+                    num(xa),
+                    num(ya),
+                    num(xb - xa),
+                    num(yb - ya),
+                    escape(fill),
+                    num(*opacity)
+                );
             }
         }
         Item::Label(..) => {}

@@ -236,6 +236,23 @@ pub fn analyse_case(model: &BladeModel, case: &LoadCaseSpec) -> Result<CaseStres
     })
 }
 
+/// Ply strength ratios at the midpoint of every wall element of one section under beam
+/// resultants about the pitch axis in its chord frame (see [`crate::loads::BeamResultants`]),
+/// with a uniform temperature change `delta_t` (K) as a fixed residual part.
+pub fn recover_at(
+    layout: &crate::section::SectionLayout,
+    section: &crate::section::SolvedSection,
+    resultants: &crate::loads::BeamResultants,
+    delta_t: f64,
+) -> Result<Vec<PointStress>, StressError> {
+    let units = layout
+        .laminates
+        .iter()
+        .map(|l| UnitResponse::new(l, delta_t))
+        .collect::<Result<Vec<_>, _>>()?;
+    Ok(recover_section(layout, section, &units, resultants))
+}
+
 /// Stress recovery of the named case, or of every case of the project when `only` is `None`.
 pub fn analyse_cases(
     model: &BladeModel,

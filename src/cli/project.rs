@@ -1,0 +1,22 @@
+//! Reading a blade project and building its model, shared by the commands that take `BLADE.toml`.
+
+use std::path::Path;
+
+use layloft::analysis::BladeModel;
+use layloft::input::read_project;
+
+use super::{Failure, Output};
+
+/// Reads the project and solves its sections, with a progress bar on a terminal; prints the
+/// grouped warnings of the blade and its sections as notes on stderr.
+pub fn load_model(path: &Path, out: &Output) -> Result<BladeModel, Failure> {
+    let project = read_project(path).map_err(layloft::Error::from)?;
+    let total = project.sections.analysis_stations.max(project.stations.len()) as u64;
+    let bar = out.progress(total, "sections");
+    let model = BladeModel::build_with_progress(project, &mut |_, _| bar.inc(1))?;
+    bar.finish();
+    for w in model.warnings() {
+        out.warn(&w.to_string());
+    }
+    Ok(model)
+}

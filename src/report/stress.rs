@@ -1,0 +1,237 @@
+//! The stress report: JSON, the station-by-ply CSV and the terminal summary of
+//! [`crate::stress::CaseStress`] results.
+
+use std::fmt::Write as _;
+
+use serde_json::{Value, json};
+
+use super::{Align, Table, fixed, sig4};
+use crate::analysis::BladeModel;
+use crate::stress::{CaseStress, Critical, WallLocation};
+
+fn finite(v: f64) -> Value {
+    if v.is_finite() { json!(v) } else { Value::Null }
+}
+
+fn location_json(l: &WallLocation) -> Value {
+    match l {
+        WallLocation::Surface { upper, x_c, solid } => json!({
+            "part": if *solid { "solid_trailing_edge" } else { "skin" },
+            "surface": if *upper { "upper" } else { "lower" },
+            "x_c": x_c,
+        }),
+        WallLocation::Web { name, z } => json!({ "part": "web", "web": name, "z_m": z }),
+    }
+}
+
+fn critical_json(c: &Critical) -> Value {
+    json!({
+        "reserve_factor": c.reserve_factor,
+        "r_m": c.r,
+        "location": location_json(&c.location),
+        "ply": c.ply + 1,
+        "ply_id": c.ply_id,
+        "material": c.material,
+        "angle_deg": c.angle_deg,
+        "criterion": c.criterion.key(),
+        "mode": c.mode.key(),
+        "sigma1_Pa": c.stress_12.x,
+        "sigma2_Pa": c.stress_12.y,
+        "tau12_Pa": c.stress_12.z,
+    })
+}
+
+/// The JSON object of `layloft stress`: `cases`, each with `name`, `min_reserve_factor` and where
+/// it occurs, `root` reactions, tip deflection, the pitch sweep and per-station minima.
+pub fn stress_json(model: &BladeModel, cases: &[CaseStress]) -> Value {
+    let cases: Vec<Value> = cases
+        .iter()
+        .map(|c| {
+            let stations: Vec<Value> = c
+                .stations
+                .iter()
+                .map(|s| {
+                    let rf = s.points.iter().map(|p| p.reserve_factor()).fold(f64::INFINITY, f64::min);
+                    json!({ "r_m": s.r, "min_reserve_factor": finite(rf) })
+                })
+                .collect();
+            json!({
+                "name": c.name,
+                "rpm": c.rpm,
+                "load_factor": c.load_factor,
+                "min_reserve_factor": c.critical.as_ref().map(|k| json!(k.reserve_factor)).unwrap_or(Value::Null),
+                "critical": c.critical.as_ref().map(critical_json).unwrap_or(Value::Null),
+                "root": {
+                    "radial_force_N": c.root.force[0],
+                    "shear_in_plane_N": c.root.force[1],
+                    "shear_out_of_plane_N": c.root.force[2],
+                    "flap_moment_Nm": c.root.moment[1],
+                    "edge_moment_Nm": c.root.moment[2],
+                    "pitch_moment_Nm": c.root.moment[0],
+                },
+                "tip_deflection_m": c.tip_deflection.total,
+                "tip_deflection_in_plane_m": c.tip_deflection.in_plane,
+                "tip_deflection_out_of_plane_m": c.tip_deflection.out_of_plane,
+                "tip_twist_deg": c.tip_deflection.twist.to_degrees(),
+                "pitch_sweep": c.pitch_sweep.iter().map(|p| json!({
+                    "pitch_deg": p.pitch.deg(),
+                    "radial_force_N": p.radial_force,
+                    "flap_moment_Nm": p.flap_moment,
+                    "edge_moment_Nm": p.edge_moment,
+                    "pitch_moment_Nm": p.pitch_moment,
+                    "centrifugal_twisting_moment_Nm": p.centrifugal_twisting_moment,
+                })).collect::<Vec<_>>(),
+                "stations": stations,
+            })
+        })
+        .collect();
+    json!({
+        "project": model.project.name,
+        "cases": cases,
+        "cautions": crate::CAUTIONS,
+    })
+}
+
+/// One row per load case, station and schedule ply: the ply's worst reserve factor at that
+/// station, by the governing criterion and by each criterion, with where it occurs.
+pub fn stress_csv(cases: &[CaseStress]) -> String {
+    let mut out = String::from(
+        "case,r_m,ply,ply_id,reserve_factor,criterion,mode,part,surface_or_web,x_c,z_m,\
+         tsai_wu,max_stress,max_strain,hashin\n",
+    );
+    let cell = |v: f64| if v.is_finite() { format!("{v:.6}") } else { String::new() };
+    for c in cases {
+        for w in &c.ply_worst {
+            let (part, place, x, z) = match &w.location {
+                WallLocation::Surface { upper, x_c, solid } => (
+                    if *solid { "solid_trailing_edge" } else { "skin" },
+                    if *upper { "upper".to_string() } else { "lower".to_string() },
+                    format!("{x_c:.4}"),
+                    String::new(),
+                ),
+                WallLocation::Web { name, z } => {
+                    ("web", name.clone(), String::new(), format!("{z:.5}"))
+                }
+            };
+            let _ = writeln!(
+                out,
+                "{},{:.5},{},{},{},{},{},{},{},{},{},{},{},{},{}",
+                csv_text(&c.name),
+                w.r,
+                w.ply + 1,
+                csv_text(&w.ply_id),
+                cell(w.reserve_factor),
+                w.criterion.map(|k| k.key()).unwrap_or(""),
+                w.mode.key(),
+                part,
+                csv_text(&place),
+                x,
+                z,
+                cell(w.by_criterion[0]),
+                cell(w.by_criterion[1]),
+                cell(w.by_criterion[2]),
+                cell(w.by_criterion[3]),
+            );
+        }
+    }
+    out
+}
+
+fn csv_text(s: &str) -> String {
+    if s.contains([',', '"', '\n']) {
+        format!("\"{}\"", s.replace('"', "\"\""))
+    } else {
+        s.to_string()
+    }
+}
+
+/// The terminal summary of `layloft stress`.
+pub fn stress_text(model: &BladeModel, cases: &[CaseStress]) -> String {
+    let mut out = String::new();
+    let _ = writeln!(out, "layloft stress — {}", model.project.name);
+    for c in crate::CAUTIONS {
+        let _ = writeln!(out, "  ! {c}");
+    }
+    let _ = writeln!(out);
+    let mut t = Table::new(&[
+        ("case", Align::Left),
+        ("rpm", Align::Right),
+        ("factor", Align::Right),
+        ("min RF", Align::Right),
+        ("r (m)", Align::Right),
+        ("where", Align::Left),
+        ("ply", Align::Left),
+        ("criterion / mode", Align::Left),
+    ]);
+    for c in cases {
+        match &c.critical {
+            Some(k) => t.row(vec![
+                c.name.clone(),
+                fixed(c.rpm, 0),
+                fixed(c.load_factor, 2),
+                fixed(k.reserve_factor, 2),
+                fixed(k.r, 3),
+                k.location.to_string(),
+                format!("{} ({} {}°)", k.ply_id, k.material, fixed(k.angle_deg, 0)),
+                format!("{} / {}", k.criterion.label(), k.mode.label()),
+            ]),
+            None => {
+                t.row(vec![c.name.clone(), fixed(c.rpm, 0), fixed(c.load_factor, 2), "none".into()])
+            }
+        }
+    }
+    let _ =
+        writeln!(out, "Lowest reserve factor per load case (strength ratio at the factored load):");
+    out.push_str(&t.render(2));
+    let _ = writeln!(out);
+    let mut t = Table::new(&[
+        ("case", Align::Left),
+        ("radial (kN)", Align::Right),
+        ("flap M (N·m)", Align::Right),
+        ("edge M (N·m)", Align::Right),
+        ("pitch M (N·m)", Align::Right),
+        ("tip defl. (mm)", Align::Right),
+        ("tip twist (°)", Align::Right),
+    ]);
+    for c in cases {
+        t.row(vec![
+            c.name.clone(),
+            sig4(c.root.force[0] / 1e3),
+            sig4(c.root.moment[1]),
+            sig4(c.root.moment[2]),
+            sig4(c.root.moment[0]),
+            sig4(c.tip_deflection.total * 1e3),
+            fixed(c.tip_deflection.twist.to_degrees(), 3),
+        ]);
+    }
+    let _ = writeln!(out, "Root reactions (rotor frame, about the pitch axis) and tip deflection:");
+    out.push_str(&t.render(2));
+    // The pitching moment over the pitch range of the case that demands most of the actuator.
+    let sizing = cases.iter().filter(|c| c.pitch_sweep.len() > 1).max_by(|a, b| {
+        let peak =
+            |c: &CaseStress| c.pitch_sweep.iter().map(|p| p.pitch_moment.abs()).fold(0.0, f64::max);
+        peak(a).total_cmp(&peak(b))
+    });
+    if let Some(c) = sizing {
+        let _ = writeln!(out);
+        let _ = writeln!(
+            out,
+            "Pitching moment over the pitch range, case '{}' (the largest; every case in --json):",
+            c.name
+        );
+        let mut t = Table::new(&[
+            ("pitch (°)", Align::Right),
+            ("pitch M (N·m)", Align::Right),
+            ("of which centrifugal (N·m)", Align::Right),
+        ]);
+        for p in &c.pitch_sweep {
+            t.row(vec![
+                fixed(p.pitch.deg(), 1),
+                sig4(p.pitch_moment),
+                sig4(p.centrifugal_twisting_moment),
+            ]);
+        }
+        out.push_str(&t.render(2));
+    }
+    out
+}
