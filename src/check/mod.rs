@@ -2,6 +2,10 @@
 //! found, with PASS or FAIL. A criterion the project does not set is not checked; a criterion whose
 //! value could not be computed fails (a check that cannot be made is not a pass).
 
+mod evaluate;
+
+pub use evaluate::evaluate;
+
 use std::fmt;
 
 /// Outcome of one criterion.

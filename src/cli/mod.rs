@@ -3,8 +3,10 @@
 //! Exit status: 0 success; 1 a design check failed; 2 invalid input or usage; 3 an output could
 //! not be written or a computation failed.
 
+mod check;
 mod laminate;
 mod materials;
+mod modes;
 mod output;
 mod pairs;
 mod project;
@@ -34,8 +36,10 @@ pub struct Cli {
 
 #[derive(Debug, Subcommand)]
 enum Command {
+    Check(check::Args),
     Materials(materials::Args),
     Laminate(laminate::Args),
+    Modes(modes::Args),
     Stress(stress::Args),
 }
 
@@ -78,8 +82,10 @@ pub fn main() -> ExitCode {
     };
     let out = Output::new(cli.quiet);
     let result = match cli.command {
+        Command::Check(args) => check::run(args, &out),
         Command::Materials(args) => materials::run(args, &out),
         Command::Laminate(args) => laminate::run(args, &out),
+        Command::Modes(args) => modes::run(args, &out),
         Command::Stress(args) => stress::run(args, &out),
     };
     match result {

@@ -120,6 +120,13 @@ impl Progress {
         }
     }
 
+    /// Changes the number of steps (when it is known only once the work starts).
+    pub fn set_length(&self, len: u64) {
+        if let Some(bar) = &self.bar {
+            bar.set_length(len);
+        }
+    }
+
     /// Changes the label (e.g. the load case or station being worked on).
     pub fn set_message(&self, message: &str) {
         if let Some(bar) = &self.bar {

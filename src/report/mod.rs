@@ -5,6 +5,7 @@
 mod campbell;
 pub mod html;
 mod modal;
+mod modal_text;
 pub mod svg;
 mod table;
 mod write;
@@ -12,6 +13,7 @@ mod write;
 pub use campbell::{campbell_svg, kind_colour};
 pub use html::HtmlReport;
 pub use modal::{campbell_csv, modal_json, mode_shapes_csv};
+pub use modal_text::modal_text;
 pub use table::{Align, Table, fixed, sig4};
 pub use write::{write_atomic, write_atomic_with};
 mod laminate;

@@ -1,0 +1,106 @@
+//! The design check of a blade model from its stress and modal results.
+
+use super::{Bound, CheckRow, DesignCheck};
+
+/// The design check of a model against its project's `[criteria]`, from the stress results of
+/// every load case and the modal analysis (either may be absent when its criterion is not set).
+pub fn evaluate(
+    model: &crate::analysis::BladeModel,
+    stress: &[crate::stress::CaseStress],
+    modal: Option<&crate::modal::ModalAnalysis>,
+) -> DesignCheck {
+    let c = &model.project.criteria;
+    let mut rows = Vec::new();
+    if let Some(limit) = c.min_reserve_factor {
+        let worst = stress
+            .iter()
+            .filter_map(|s| s.critical.as_ref().map(|k| (s, k)))
+            .min_by(|a, b| a.1.reserve_factor.total_cmp(&b.1.reserve_factor));
+        let (found, location) = match worst {
+            Some((s, k)) => (
+                Some(k.reserve_factor),
+                format!("case '{}', r = {:.3} m, {}, ply {}", s.name, k.r, k.location, k.ply_id),
+            ),
+            None if !stress.is_empty() => (Some(f64::INFINITY), "no ply can fail".to_string()),
+            None => (None, "no load case".to_string()),
+        };
+        rows.push(CheckRow::new(
+            "min_reserve_factor",
+            "least reserve factor",
+            limit,
+            Bound::AtLeast,
+            found,
+            "",
+            location,
+        ));
+    }
+    if let Some(limit) = c.frequency_margin_pct {
+        let least = modal.and_then(|m| {
+            m.margins
+                .iter()
+                .flat_map(|check| check.modes.iter().map(move |mm| (check, mm)))
+                .min_by(|a, b| a.1.margin_pct.total_cmp(&b.1.margin_pct))
+        });
+        let (found, location) = match (modal, least) {
+            (Some(m), Some((check, mm))) => {
+                let label = m
+                    .campbell
+                    .tracks
+                    .iter()
+                    .find(|t| t.id == mm.track)
+                    .map_or(String::from("a mode"), |t| t.label.clone());
+                (
+                    Some(mm.margin_pct),
+                    format!(
+                        "{label} at {:.1} Hz against {} ({:.1} Hz), {} speed {:.0} rpm",
+                        mm.frequency_hz,
+                        mm.excitation.label(),
+                        mm.excitation_hz,
+                        check.name,
+                        check.rpm
+                    ),
+                )
+            }
+            _ => (None, "modal analysis not run".to_string()),
+        };
+        rows.push(CheckRow::new(
+            "frequency_margin_pct",
+            "least frequency margin",
+            limit,
+            Bound::AtLeast,
+            found,
+            "%",
+            location,
+        ));
+    }
+    if let Some(limit) = c.max_mass_kg {
+        let m = model.mass();
+        rows.push(CheckRow::new(
+            "max_mass_kg",
+            "blade mass",
+            limit,
+            Bound::AtMost,
+            Some(m.total_kg),
+            "kg",
+            format!("laminates {:.3} kg + point masses {:.3} kg", m.laminate_kg, m.point_masses_kg),
+        ));
+    }
+    if let Some(limit) = c.max_tip_deflection_m {
+        let worst =
+            stress.iter().max_by(|a, b| a.tip_deflection.total.total_cmp(&b.tip_deflection.total));
+        let (found, location) = match worst {
+            Some(s) => (Some(s.tip_deflection.total), format!("case '{}'", s.name)),
+            None => (None, "no load case".to_string()),
+        };
+        rows.push(CheckRow::new(
+            "max_tip_deflection_m",
+            "tip deflection",
+            limit,
+            Bound::AtMost,
+            found,
+            "m",
+            location,
+        ));
+    }
+    DesignCheck { rows }
+}

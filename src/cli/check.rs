@@ -1,0 +1,152 @@
+//! `layloft check`: the design check against the project's `[criteria]`, PASS or FAIL, with an
+//! exit status a shop's own CI can use.
+
+use std::fmt::Write as _;
+use std::path::PathBuf;
+
+use anyhow::anyhow;
+use serde_json::json;
+
+use layloft::check::{DesignCheck, Status, evaluate};
+use layloft::modal::ModalAnalysis;
+use layloft::report::{Align, Table, sig4};
+use layloft::stress::analyse_cases;
+
+use super::project::load_model;
+use super::{Failure, Outcome, Output};
+
+const EXAMPLES: &str = "\
+Examples:
+  layloft check layups/mine-fan/blade.toml
+  layloft check layups/small-wind/blade.toml --json
+
+Exit status: 0 when every criterion passes, 1 when any fails, 2 when the input is invalid
+(3 when a computation fails). Criteria are those of the project's [criteria] table:
+min_reserve_factor, frequency_margin_pct, max_mass_kg, max_tip_deflection_m.";
+
+/// Checks the blade against the project's [criteria]: least reserve factor over every load
+/// case, frequency margin to the rotor harmonics, blade mass, tip deflection.
+#[derive(Debug, clap::Args)]
+#[command(after_help = EXAMPLES)]
+pub struct Args {
+    /// The blade project (blade.toml).
+    pub blade: PathBuf,
+
+    /// Write one JSON object on stdout instead of the table.
+    #[arg(long)]
+    pub json: bool,
+}
+
+fn text(project: &str, check: &DesignCheck) -> String {
+    let mut out = String::new();
+    let _ = writeln!(out, "layloft check — {project}");
+    for c in layloft::CAUTIONS {
+        let _ = writeln!(out, "  ! {c}");
+    }
+    let _ = writeln!(out);
+    let mut t = Table::new(&[
+        ("criterion", Align::Left),
+        ("demand", Align::Right),
+        ("found", Align::Right),
+        ("verdict", Align::Left),
+        ("where", Align::Left),
+    ]);
+    for r in &check.rows {
+        let found = match r.found {
+            Some(v) if v.is_finite() => {
+                format!(
+                    "{}{}",
+                    sig4(v),
+                    if r.unit.is_empty() { String::new() } else { format!(" {}", r.unit) }
+                )
+            }
+            Some(_) => "none".to_string(),
+            None => "not computed".to_string(),
+        };
+        t.row(vec![
+            r.label.to_string(),
+            r.demand(),
+            found,
+            r.status.to_string(),
+            r.location.clone(),
+        ]);
+    }
+    if t.is_empty() {
+        let _ = writeln!(out, "The project sets no [criteria]: nothing to check.");
+    } else {
+        out.push_str(&t.render(2));
+        let _ = writeln!(out);
+        let _ = writeln!(
+            out,
+            "Design check: {}",
+            if check.passed() { "PASS (every criterion met)" } else { "FAIL" }
+        );
+    }
+    out
+}
+
+pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
+    let model = load_model(&args.blade, out)?;
+    let criteria = &model.project.criteria;
+    let needs_stress =
+        criteria.min_reserve_factor.is_some() || criteria.max_tip_deflection_m.is_some();
+    let stress = if needs_stress && !model.project.load_cases.is_empty() {
+        analyse_cases(&model, None).map_err(layloft::Error::from)?
+    } else {
+        Vec::new()
+    };
+    let modal = match criteria.frequency_margin_pct {
+        Some(_) => {
+            let p = &model.project;
+            let sections = model.properties();
+            let bar = out.progress(1, "speeds");
+            let a = ModalAnalysis::run(
+                &sections,
+                &p.rotor,
+                &p.modal,
+                &p.criteria,
+                None,
+                None,
+                &mut |_, total| {
+                    bar.set_length(total as u64);
+                    bar.inc(1)
+                },
+            )
+            .map_err(layloft::Error::from)?;
+            bar.finish();
+            Some(a)
+        }
+        None => None,
+    };
+    let check = evaluate(&model, &stress, modal.as_ref());
+    if args.json {
+        let rows: Vec<serde_json::Value> = check
+            .rows
+            .iter()
+            .map(|r| {
+                json!({
+                    "criterion": r.key,
+                    "label": r.label,
+                    "limit": r.limit,
+                    "bound": match r.bound { layloft::check::Bound::AtLeast => "at_least", layloft::check::Bound::AtMost => "at_most" },
+                    "found": r.found.filter(|v| v.is_finite()),
+                    "unit": r.unit,
+                    "where": r.location,
+                    "pass": r.status == Status::Pass,
+                })
+            })
+            .collect();
+        let doc = json!({
+            "project": model.project.name,
+            "pass": check.passed(),
+            "criteria": rows,
+            "cautions": layloft::CAUTIONS,
+        });
+        let text = serde_json::to_string_pretty(&doc)
+            .map_err(|e| Failure::Run(anyhow!("cannot format the JSON report: {e}")))?;
+        out.data(&text);
+    } else {
+        out.data(&text(&model.project.name, &check));
+    }
+    Ok(if check.passed() { Outcome::Success } else { Outcome::CheckFailed })
+}

@@ -1,0 +1,155 @@
+//! `layloft modes`: natural frequencies of the spinning blade, the Campbell diagram, crossings
+//! with the rotor harmonics and the margins at nominal and maximum speed.
+
+use std::path::PathBuf;
+
+use anyhow::anyhow;
+
+use layloft::modal::{ModalAnalysis, SpeedRange, export_matrix_market};
+use layloft::report::{
+    campbell_csv, campbell_svg, modal_json, modal_text, mode_shapes_csv, write_atomic,
+};
+
+use super::project::load_model;
+use super::{Failure, Outcome, Output};
+
+const EXAMPLES: &str = "\
+Examples:
+  layloft modes layups/mine-fan/blade.toml
+  layloft modes layups/mine-fan/blade.toml --rpm 0:1200:20 --modes 6 --svg campbell.svg
+  layloft modes layups/small-wind/blade.toml --json --shapes shapes.csv --export-matrices mtx/
+
+Excitations are the rotor orders nP (n = 1 to [criteria] harmonics) and the blade-passing
+orders; the margin of a mode is |f - f_excitation| / f_excitation of its nearest excitation.
+Exit status 1 when a mode lies within the required margin ([criteria] frequency_margin_pct).";
+
+/// Rotating-blade modes over the speed range, tracked into Campbell curves; crossings and
+/// margins to the rotor harmonics.
+#[derive(Debug, clap::Args)]
+#[command(after_help = EXAMPLES)]
+pub struct Args {
+    /// The blade project (blade.toml).
+    pub blade: PathBuf,
+
+    /// Speed sweep FROM:TO:STEP in rpm (0 to the rotor's rpm_max by default).
+    #[arg(long, value_name = "FROM:TO:STEP")]
+    pub rpm: Option<String>,
+
+    /// Number of modes at each speed ([modal] modes by default).
+    #[arg(long, value_name = "N")]
+    pub modes: Option<usize>,
+
+    /// Write one JSON object on stdout (SI units in every key) instead of the summary.
+    #[arg(long)]
+    pub json: bool,
+
+    /// Also write the Campbell diagram as SVG to FILE.
+    #[arg(long, value_name = "FILE")]
+    pub svg: Option<PathBuf>,
+
+    /// Also write the Campbell data (one row per speed and mode) as CSV to FILE.
+    #[arg(long, value_name = "FILE")]
+    pub csv: Option<PathBuf>,
+
+    /// Also write the mode shapes at the nominal speed as CSV to FILE.
+    #[arg(long, value_name = "FILE")]
+    pub shapes: Option<PathBuf>,
+
+    /// Write the constrained stiffness and mass matrices (Matrix Market) to DIR.
+    #[arg(long = "export-matrices", value_name = "DIR")]
+    pub export_matrices: Option<PathBuf>,
+
+    /// Speed of the exported matrices, rpm (the nominal speed by default).
+    #[arg(long = "matrices-rpm", value_name = "RPM", requires = "export_matrices")]
+    pub matrices_rpm: Option<f64>,
+}
+
+fn parse_range(text: &str) -> Result<SpeedRange, Failure> {
+    let parts: Vec<&str> = text.split(':').collect();
+    let bad =
+        || Failure::Input(anyhow!("--rpm '{text}': expected FROM:TO:STEP in rpm, e.g. 0:1200:20"));
+    if parts.len() != 3 {
+        return Err(bad());
+    }
+    let v: Vec<f64> = parts
+        .iter()
+        .map(|p| p.trim().parse::<f64>().ok().filter(|x| x.is_finite()))
+        .collect::<Option<_>>()
+        .ok_or_else(bad)?;
+    SpeedRange::new(v[0], v[1], v[2]).map_err(|e| Failure::Input(anyhow!("--rpm '{text}': {e}")))
+}
+
+pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
+    let range = args.rpm.as_deref().map(parse_range).transpose()?;
+    let model = load_model(&args.blade, out)?;
+    let p = &model.project;
+    let sections = model.properties();
+    let steps = range.as_ref().map(|r| r.speeds(&[]).len()).unwrap_or(0).max(1) as u64;
+    let bar = out.progress(steps, "speeds");
+    let analysis = ModalAnalysis::run(
+        &sections,
+        &p.rotor,
+        &p.modal,
+        &p.criteria,
+        range,
+        args.modes,
+        &mut |_, total| {
+            bar.set_length(total as u64);
+            bar.inc(1)
+        },
+    )
+    .map_err(layloft::Error::from)?;
+    bar.finish();
+    let title = format!("Campbell diagram — {}", p.name);
+    if let Some(path) = &args.svg {
+        let svg = campbell_svg(
+            &analysis.campbell,
+            &analysis.excitations,
+            &analysis.crossings,
+            (p.rotor.rpm_nominal, p.rotor.rpm_max),
+            &title,
+        );
+        write_atomic(path, svg.as_bytes())?;
+    }
+    if let Some(path) = &args.csv {
+        write_atomic(path, campbell_csv(&analysis.campbell).as_bytes())?;
+    }
+    if let Some(path) = &args.shapes {
+        let set = analysis
+            .model
+            .modes(p.rotor.rpm_nominal, args.modes.unwrap_or(p.modal.modes))
+            .map_err(layloft::Error::from)?;
+        write_atomic(path, mode_shapes_csv(&set).as_bytes())?;
+    }
+    if let Some(dir) = &args.export_matrices {
+        let rpm = args.matrices_rpm.unwrap_or(p.rotor.rpm_nominal);
+        let m = analysis.model.system_matrices(rpm).map_err(layloft::Error::from)?;
+        let files = export_matrix_market(dir, &m)?;
+        out.note(&format!(
+            "wrote {} files to {} (matrices at {rpm} rpm)",
+            files.len(),
+            dir.display()
+        ));
+    }
+    if args.json {
+        let json = modal_json(
+            &analysis.campbell,
+            &p.rotor,
+            &analysis.excitations,
+            &analysis.crossings,
+            &analysis.margins,
+        );
+        let text = serde_json::to_string_pretty(&json)
+            .map_err(|e| Failure::Run(anyhow!("cannot format the JSON report: {e}")))?;
+        out.data(&text);
+    } else {
+        out.data(&modal_text(&p.name, &analysis));
+    }
+    match analysis.pass() {
+        Some(false) => {
+            out.warn("a mode lies within the required frequency margin of an excitation");
+            Ok(Outcome::CheckFailed)
+        }
+        _ => Ok(Outcome::Success),
+    }
+}
