@@ -32,7 +32,7 @@ pub struct Args {
     pub blade: PathBuf,
 
     /// Speed sweep FROM:TO:STEP in rpm (0 to the rotor's rpm_max by default).
-    #[arg(long, value_name = "FROM:TO:STEP")]
+    #[arg(long, value_name = "FROM:TO:STEP", allow_hyphen_values = true)]
     pub rpm: Option<String>,
 
     /// Number of modes at each speed ([modal] modes by default).

@@ -1,0 +1,156 @@
+//! The `stress`, `modes` and `check` commands as a user meets them: output, files, JSON keys and
+//! exit status.
+
+use std::fs;
+
+use assert_cmd::Command;
+use predicates::prelude::*;
+
+const FAN: &str = "layups/mine-fan/blade.toml";
+
+fn layloft() -> Command {
+    Command::cargo_bin("layloft").unwrap()
+}
+
+fn json_of(args: &[&str]) -> serde_json::Value {
+    let out = layloft().args(args).output().unwrap();
+    assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
+    serde_json::from_slice(&out.stdout).unwrap()
+}
+
+#[test]
+fn stress_json_carries_the_contract_keys() {
+    let j = json_of(&["stress", FAN, "--json"]);
+    let cases = j["cases"].as_array().unwrap();
+    assert_eq!(cases.len(), 3);
+    for c in cases {
+        assert!(c["name"].is_string());
+        assert!(c["min_reserve_factor"].as_f64().unwrap() > 1.0);
+        for key in ["radial_force_N", "flap_moment_Nm", "edge_moment_Nm", "pitch_moment_Nm"] {
+            assert!(c["root"][key].as_f64().unwrap().is_finite(), "{key}");
+        }
+        assert!(c["critical"]["r_m"].as_f64().is_some());
+        assert!(c["critical"]["ply_id"].is_string());
+    }
+    // Centrifugal tension at the root grows with the square of speed between the nominal
+    // (990 rpm, factor 1) and overspeed (1090 rpm, factor 1.35) cases: statics, N ~ Omega².
+    let n0 = cases[0]["root"]["radial_force_N"].as_f64().unwrap();
+    let n1 = cases[1]["root"]["radial_force_N"].as_f64().unwrap();
+    let ratio = n1 / n0;
+    let expected = 1.35 * (1090.0f64 / 990.0).powi(2);
+    assert!((ratio - expected).abs() / expected < 0.02, "{ratio} vs {expected}");
+}
+
+#[test]
+fn stress_writes_the_ply_csv_and_the_map() {
+    let dir = tempfile::tempdir().unwrap();
+    let csv = dir.path().join("plies.csv");
+    let svg = dir.path().join("map.svg");
+    layloft()
+        .args(["stress", FAN, "--case", "surge"])
+        .arg("--csv")
+        .arg(&csv)
+        .arg("--svg")
+        .arg(&svg)
+        .assert()
+        .success()
+        .stdout(predicate::str::contains("Lowest reserve factor per load case"));
+    let text = fs::read_to_string(&csv).unwrap();
+    assert!(text.starts_with("case,r_m,ply,ply_id,reserve_factor,criterion,mode"));
+    assert!(text.lines().count() > 50);
+    let map = fs::read_to_string(&svg).unwrap();
+    assert!(map.starts_with("<svg") && map.trim_end().ends_with("</svg>"));
+    assert!(map.contains("radius from the rotor axis (m)") && map.contains("lowest reserve factor"));
+    assert!(!map.contains("NaN"));
+}
+
+#[test]
+fn a_case_naming_nothing_is_refused_with_a_hint() {
+    layloft()
+        .args(["stress", FAN, "--case", "overspeeed"])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("no load case named 'overspeeed'; did you mean 'overspeed'?"));
+    layloft()
+        .args(["stress", FAN, "--case", "zz"])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("the project has nominal, overspeed, surge"));
+}
+
+#[test]
+fn modes_json_svg_and_matrices() {
+    let dir = tempfile::tempdir().unwrap();
+    let svg = dir.path().join("campbell.svg");
+    let out = layloft()
+        .args(["modes", FAN, "--json", "--rpm", "0:1090:109", "--svg"])
+        .arg(&svg)
+        .arg("--export-matrices")
+        .arg(dir.path())
+        .output()
+        .unwrap();
+    assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
+    let j: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    let speeds = j["speeds"].as_array().unwrap();
+    // 0 to 1090 in steps of 109 plus the nominal speed.
+    assert_eq!(speeds.len(), 12);
+    let m = &speeds[0]["modes"][0];
+    assert!(m["frequency_hz"].as_f64().unwrap() > 0.0 && m["kind"].is_string() && m["track"].is_number());
+    for c in j["crossings"].as_array().unwrap() {
+        assert!(c["track"].is_number() && c["harmonic"].is_number() && c["rpm"].is_number());
+    }
+    let drawing = fs::read_to_string(&svg).unwrap();
+    assert!(drawing.contains("rotor speed (rpm)") && drawing.contains("frequency (Hz)"));
+    for f in ["stiffness.mtx", "mass.mtx"] {
+        let text = fs::read_to_string(dir.path().join(f)).unwrap();
+        assert!(text.starts_with("%%MatrixMarket matrix coordinate real symmetric"), "{f}");
+    }
+}
+
+#[test]
+fn modes_refuses_bad_speed_ranges_and_too_many_modes() {
+    layloft()
+        .args(["modes", FAN, "--rpm", "0:fast:10"])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("--rpm '0:fast:10': expected FROM:TO:STEP in rpm"));
+    layloft().args(["modes", FAN, "--rpm", "500:100:10"]).assert().code(2).stderr(predicate::str::contains("--rpm '500:100:10'"));
+    layloft().args(["modes", FAN, "--rpm", "-10:100:10"]).assert().code(2).stderr(predicate::str::contains("--rpm '-10:100:10'"));
+    layloft()
+        .args(["modes", FAN, "--modes", "100000"])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("100000"));
+}
+
+#[test]
+fn check_passes_the_demos_and_fails_an_impossible_demand() {
+    layloft()
+        .args(["check", FAN])
+        .assert()
+        .success()
+        .stdout(predicate::str::contains("Design check: PASS"));
+    // The same blade held to a reserve factor it cannot reach and a mass it cannot meet.
+    let dir = tempfile::tempdir().unwrap();
+    for entry in fs::read_dir("layups/mine-fan").unwrap() {
+        let entry = entry.unwrap();
+        fs::copy(entry.path(), dir.path().join(entry.file_name())).unwrap();
+    }
+    let toml = fs::read_to_string(dir.path().join("blade.toml")).unwrap();
+    let toml = toml.replace("min_reserve_factor = 1.5", "min_reserve_factor = 500").replace("max_mass_kg = 1.2", "max_mass_kg = 0.1");
+    fs::write(dir.path().join("blade.toml"), toml).unwrap();
+    let out = layloft().arg("check").arg(dir.path().join("blade.toml")).arg("--json").output().unwrap();
+    assert_eq!(out.status.code(), Some(1));
+    let j: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    assert_eq!(j["pass"], false);
+    let failed: Vec<&str> = j["criteria"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .filter(|c| c["pass"] == false)
+        .map(|c| c["criterion"].as_str().unwrap())
+        .collect();
+    assert_eq!(failed, ["min_reserve_factor", "max_mass_kg"]);
+    // Invalid input: exit 2.
+    layloft().args(["check", "no/such/blade.toml"]).assert().code(2).stderr(predicate::str::contains("no/such/blade.toml"));
+}
