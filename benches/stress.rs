@@ -10,18 +10,22 @@ use layloft::loads::{LoadDistribution, span_loads};
 use layloft::stress::{analyse_cases, recover_at};
 
 fn bench(c: &mut Criterion) {
-    let model = BladeModel::build(read_project("layups/mine-fan/blade.toml".as_ref()).expect("demo"))
-        .expect("demo model");
+    let model =
+        BladeModel::build(read_project("layups/mine-fan/blade.toml".as_ref()).expect("demo"))
+            .expect("demo model");
     let mut g = c.benchmark_group("stress");
     g.sample_size(20);
-    g.bench_function("mine-fan, all cases", |b| b.iter(|| analyse_cases(&model, None).expect("stress")));
+    g.bench_function("mine-fan, all cases", |b| {
+        b.iter(|| analyse_cases(&model, None).expect("stress"))
+    });
     let props = model.properties();
     g.bench_function("mine-fan, recovery only", |b| {
         b.iter(|| {
             for case in &model.project.load_cases {
                 let pitch = case.pitch.unwrap_or(model.project.rotor.pitch);
                 let loads = span_loads(
-                    &LoadDistribution::new(&props, &model.project.point_masses, case, pitch).expect("loads"),
+                    &LoadDistribution::new(&props, &model.project.point_masses, case, pitch)
+                        .expect("loads"),
                 );
                 for st in &model.stations {
                     let res = loads.chord_at(st.layout.r);

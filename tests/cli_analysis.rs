@@ -60,17 +60,17 @@ fn stress_writes_the_ply_csv_and_the_map() {
     assert!(text.lines().count() > 50);
     let map = fs::read_to_string(&svg).unwrap();
     assert!(map.starts_with("<svg") && map.trim_end().ends_with("</svg>"));
-    assert!(map.contains("radius from the rotor axis (m)") && map.contains("lowest reserve factor"));
+    assert!(
+        map.contains("radius from the rotor axis (m)") && map.contains("lowest reserve factor")
+    );
     assert!(!map.contains("NaN"));
 }
 
 #[test]
 fn a_case_naming_nothing_is_refused_with_a_hint() {
-    layloft()
-        .args(["stress", FAN, "--case", "overspeeed"])
-        .assert()
-        .code(2)
-        .stderr(predicate::str::contains("no load case named 'overspeeed'; did you mean 'overspeed'?"));
+    layloft().args(["stress", FAN, "--case", "overspeeed"]).assert().code(2).stderr(
+        predicate::str::contains("no load case named 'overspeeed'; did you mean 'overspeed'?"),
+    );
     layloft()
         .args(["stress", FAN, "--case", "zz"])
         .assert()
@@ -95,7 +95,11 @@ fn modes_json_svg_and_matrices() {
     // 0 to 1090 in steps of 109 plus the nominal speed.
     assert_eq!(speeds.len(), 12);
     let m = &speeds[0]["modes"][0];
-    assert!(m["frequency_hz"].as_f64().unwrap() > 0.0 && m["kind"].is_string() && m["track"].is_number());
+    assert!(
+        m["frequency_hz"].as_f64().unwrap() > 0.0
+            && m["kind"].is_string()
+            && m["track"].is_number()
+    );
     for c in j["crossings"].as_array().unwrap() {
         assert!(c["track"].is_number() && c["harmonic"].is_number() && c["rpm"].is_number());
     }
@@ -114,8 +118,16 @@ fn modes_refuses_bad_speed_ranges_and_too_many_modes() {
         .assert()
         .code(2)
         .stderr(predicate::str::contains("--rpm '0:fast:10': expected FROM:TO:STEP in rpm"));
-    layloft().args(["modes", FAN, "--rpm", "500:100:10"]).assert().code(2).stderr(predicate::str::contains("--rpm '500:100:10'"));
-    layloft().args(["modes", FAN, "--rpm", "-10:100:10"]).assert().code(2).stderr(predicate::str::contains("--rpm '-10:100:10'"));
+    layloft()
+        .args(["modes", FAN, "--rpm", "500:100:10"])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("--rpm '500:100:10'"));
+    layloft()
+        .args(["modes", FAN, "--rpm", "-10:100:10"])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("--rpm '-10:100:10'"));
     layloft()
         .args(["modes", FAN, "--modes", "100000"])
         .assert()
@@ -137,9 +149,12 @@ fn check_passes_the_demos_and_fails_an_impossible_demand() {
         fs::copy(entry.path(), dir.path().join(entry.file_name())).unwrap();
     }
     let toml = fs::read_to_string(dir.path().join("blade.toml")).unwrap();
-    let toml = toml.replace("min_reserve_factor = 1.5", "min_reserve_factor = 500").replace("max_mass_kg = 1.2", "max_mass_kg = 0.1");
+    let toml = toml
+        .replace("min_reserve_factor = 1.5", "min_reserve_factor = 500")
+        .replace("max_mass_kg = 1.2", "max_mass_kg = 0.1");
     fs::write(dir.path().join("blade.toml"), toml).unwrap();
-    let out = layloft().arg("check").arg(dir.path().join("blade.toml")).arg("--json").output().unwrap();
+    let out =
+        layloft().arg("check").arg(dir.path().join("blade.toml")).arg("--json").output().unwrap();
     assert_eq!(out.status.code(), Some(1));
     let j: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
     assert_eq!(j["pass"], false);
@@ -152,5 +167,9 @@ fn check_passes_the_demos_and_fails_an_impossible_demand() {
         .collect();
     assert_eq!(failed, ["min_reserve_factor", "max_mass_kg"]);
     // Invalid input: exit 2.
-    layloft().args(["check", "no/such/blade.toml"]).assert().code(2).stderr(predicate::str::contains("no/such/blade.toml"));
+    layloft()
+        .args(["check", "no/such/blade.toml"])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("no/such/blade.toml"));
 }

@@ -76,18 +76,34 @@ impl CheckRow {
         CheckRow { key, label, limit, bound, found, unit, location, status }
     }
 
-    /// The demand in words, e.g. ">= 1.5".
+    /// The demand in words, e.g. ">= 1.5" or "<= 20.00 mm".
     pub fn demand(&self) -> String {
         let op = match self.bound {
             Bound::AtLeast => ">=",
             Bound::AtMost => "<=",
         };
-        format!("{op} {}{}", crate::report::sig4(self.limit), unit_suffix(self.unit))
+        format!("{op} {}", self.show(self.limit))
     }
-}
 
-fn unit_suffix(unit: &str) -> String {
-    if unit.is_empty() { String::new() } else { format!(" {unit}") }
+    /// The value found in words with its unit: "none" when infinite (nothing can fail), "not
+    /// computed" when absent.
+    pub fn found_text(&self) -> String {
+        match self.found {
+            Some(v) if v.is_finite() => self.show(v),
+            Some(_) => "none".to_string(),
+            None => "not computed".to_string(),
+        }
+    }
+
+    /// A value in the unit a reader expects (lengths below a metre in millimetres).
+    fn show(&self, v: f64) -> String {
+        let sig4 = crate::report::sig4;
+        match self.unit {
+            "" => sig4(v),
+            "m" if v.abs() < 1.0 => format!("{} mm", sig4(v * 1e3)),
+            unit => format!("{} {unit}", sig4(v)),
+        }
+    }
 }
 
 /// The whole design check.
@@ -121,6 +137,7 @@ mod tests {
         );
         assert_eq!(r.status, Status::Pass);
         assert_eq!(r.demand(), "<= 2.000 kg");
+        assert_eq!(r.found_text(), "1.900 kg");
         let r = CheckRow::new(
             "min_reserve_factor",
             "reserve factor",

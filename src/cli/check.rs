@@ -9,7 +9,7 @@ use serde_json::json;
 
 use layloft::check::{DesignCheck, Status, evaluate};
 use layloft::modal::ModalAnalysis;
-use layloft::report::{Align, Table, sig4};
+use layloft::report::{Align, Table};
 use layloft::stress::analyse_cases;
 
 use super::project::load_model;
@@ -52,17 +52,7 @@ fn text(project: &str, check: &DesignCheck) -> String {
         ("where", Align::Left),
     ]);
     for r in &check.rows {
-        let found = match r.found {
-            Some(v) if v.is_finite() => {
-                format!(
-                    "{}{}",
-                    sig4(v),
-                    if r.unit.is_empty() { String::new() } else { format!(" {}", r.unit) }
-                )
-            }
-            Some(_) => "none".to_string(),
-            None => "not computed".to_string(),
-        };
+        let found = r.found_text();
         t.row(vec![
             r.label.to_string(),
             r.demand(),

@@ -10,6 +10,7 @@ mod modes;
 mod output;
 mod pairs;
 mod project;
+mod report;
 mod stress;
 
 use std::process::ExitCode;
@@ -40,6 +41,7 @@ enum Command {
     Materials(materials::Args),
     Laminate(laminate::Args),
     Modes(modes::Args),
+    Report(report::Args),
     Stress(stress::Args),
 }
 
@@ -86,6 +88,7 @@ pub fn main() -> ExitCode {
         Command::Materials(args) => materials::run(args, &out),
         Command::Laminate(args) => laminate::run(args, &out),
         Command::Modes(args) => modes::run(args, &out),
+        Command::Report(args) => report::run(args, &out),
         Command::Stress(args) => stress::run(args, &out),
     };
     match result {

@@ -2,7 +2,9 @@
 //! written (atomically: a temporary file in the same folder, then a rename, so that a reader never
 //! sees half a file and a failed run leaves what was there before).
 
+mod blade_plots;
 mod campbell;
+mod document;
 pub mod html;
 mod modal;
 mod modal_text;
@@ -10,7 +12,11 @@ pub mod svg;
 mod table;
 mod write;
 
+pub use blade_plots::{
+    mass_svg, mode_shapes_svg, pitch_moment_svg, planform_svg, stiffness_svg, twist_svg,
+};
 pub use campbell::{campbell_svg, kind_colour};
+pub use document::{ReportBlock, ReportInputs, SectionDrawing, blade_report};
 pub use html::HtmlReport;
 pub use modal::{campbell_csv, modal_json, mode_shapes_csv};
 pub use modal_text::modal_text;

@@ -78,10 +78,23 @@ pub fn stress_svg(model: &BladeModel, cases: &[CaseStress]) -> String {
         let mut skin: Vec<(f64, f64)> =
             points.iter().filter(|p| !p.2).map(|p| (p.0, p.1)).collect();
         skin.sort_by(|a, b| a.0.total_cmp(&b.0));
+        // Neighbouring cells of one colour are drawn as one rectangle.
+        let mut run: Option<(f64, f64, &str)> = None;
         for (j, &(y, rf)) in skin.iter().enumerate() {
             let lo = if j == 0 { -1.0 } else { 0.5 * (skin[j - 1].0 + y) };
             let hi = if j + 1 == skin.len() { 1.0 } else { 0.5 * (y + skin[j + 1].0) };
-            fig.rect(left, lo, right, hi, colour(rf), 1.0);
+            let c = colour(rf);
+            run = match run {
+                Some((a, _, rc)) if rc == c => Some((a, hi, c)),
+                Some((a, b, rc)) => {
+                    fig.rect(left, a, right, b, rc, 1.0);
+                    Some((lo, hi, c))
+                }
+                None => Some((lo, hi, c)),
+            };
+        }
+        if let Some((a, b, c)) = run {
+            fig.rect(left, a, right, b, c, 1.0);
         }
         for k in 0..webs.len() {
             let band = 1.1 + 0.1 * k as f64;

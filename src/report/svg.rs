@@ -112,6 +112,7 @@ pub struct Figure {
     height: f64,
     x_range: Option<(f64, f64)>,
     y_range: Option<(f64, f64)>,
+    y_log: bool,
     items: Vec<Item>,
     legend: Vec<(String, Key)>,
 }
@@ -132,6 +133,7 @@ impl Figure {
             height: 560.0,
             x_range: None,
             y_range: None,
+            y_log: false,
             items: Vec::new(),
             legend: Vec::new(),
         }
@@ -153,6 +155,13 @@ impl Figure {
     /// Fixes the y range.
     pub fn y_range(&mut self, min: f64, max: f64) -> &mut Self {
         self.y_range = valid_range(min, max);
+        self
+    }
+
+    /// Draws the y axis on a logarithmic scale with ticks at whole decades (values that are not
+    /// positive are left out).
+    pub fn y_log(&mut self) -> &mut Self {
+        self.y_log = true;
         self
     }
 
@@ -248,6 +257,9 @@ impl Figure {
 
     /// The SVG document.
     pub fn render(&self) -> String {
+        if self.y_log {
+            return self.log_copy().render_decades();
+        }
         let auto = |fixed: Option<(f64, f64)>, data: Option<(f64, f64)>| match fixed {
             Some(r) => (r, false),
             None => (data.unwrap_or((0.0, 1.0)), true),
@@ -274,11 +286,73 @@ impl Figure {
             y: (y0, y1),
         };
         let mut s = String::new();
-        self.render_into(&mut s, &plot, &x_ticks, &y_ticks);
+        self.render_into(&mut s, &plot, &x_ticks, &y_ticks, &tick_text);
         s
     }
 
-    fn render_into(&self, s: &mut String, f: &Frame, x_ticks: &[f64], y_ticks: &[f64]) {
+    /// The figure with every y value replaced by its decimal logarithm.
+    fn log_copy(&self) -> Figure {
+        let lg = |y: f64| if y > 0.0 { y.log10() } else { f64::NAN };
+        let map = |p: &Vec<(f64, f64)>| p.iter().map(|&(x, y)| (x, lg(y))).collect::<Vec<_>>();
+        let mut f = self.clone();
+        f.y_log = false;
+        f.y_range = self.y_range.map(|(a, b)| (lg(a), lg(b)));
+        f.items = self
+            .items
+            .iter()
+            .map(|item| match item {
+                Item::Line(p, st) => Item::Line(map(p), st.clone()),
+                Item::Markers(p, m, size, c) => Item::Markers(map(p), *m, *size, c.clone()),
+                Item::Rect(c, fill, o) => {
+                    Item::Rect([c[0], lg(c[1]), c[2], lg(c[3])], fill.clone(), *o)
+                }
+                Item::Label(x, y, t, c, a) => Item::Label(*x, lg(*y), t.clone(), c.clone(), *a),
+                other => other.clone(),
+            })
+            .collect();
+        f
+    }
+
+    /// Renders a figure whose y values are decimal logarithms, with ticks at whole decades
+    /// labelled by their values.
+    fn render_decades(&self) -> String {
+        let ((x0, x1), x_auto) = match self.x_range {
+            Some(r) => (r, false),
+            None => (self.data_extent(|p| p.0).unwrap_or((0.0, 1.0)), true),
+        };
+        let (ly0, ly1) = self.y_range.unwrap_or_else(|| {
+            let (a, b) = self.data_extent(|p| p.1).unwrap_or((0.0, 1.0));
+            (a.floor(), b.ceil().max(a.floor() + 1.0))
+        });
+        let x_ticks = nice_ticks(x0, x1, 8);
+        let (x0, x1) = if x_auto && x_ticks.len() >= 2 {
+            (x_ticks[0].min(x0), x_ticks[x_ticks.len() - 1].max(x1))
+        } else {
+            (x0, x1)
+        };
+        let decades: Vec<f64> =
+            ((ly0.ceil() as i32)..=(ly1.floor() as i32)).map(f64::from).collect();
+        let plot = Frame {
+            left: LEFT,
+            top: TOP,
+            width: self.width - LEFT - RIGHT,
+            height: self.height - TOP - BOTTOM,
+            x: (x0, x1),
+            y: (ly0, ly1),
+        };
+        let mut s = String::new();
+        self.render_into(&mut s, &plot, &x_ticks, &decades, &|d, _| decade_text(d));
+        s
+    }
+
+    fn render_into(
+        &self,
+        s: &mut String,
+        f: &Frame,
+        x_ticks: &[f64],
+        y_ticks: &[f64],
+        y_text: &dyn Fn(f64, f64) -> String,
+    ) {
         let clip = format!("clip-{}", slug(&self.title));
         let _ = writeln!(
             s,
@@ -371,7 +445,7 @@ impl Figure {
                 r#"<text x="{}" y="{}" text-anchor="end">{}</text>"#,
                 num(f.left - 8.0),
                 num(f.py(t) + 4.0),
-                tick_text(t, step_y)
+                y_text(t, step_y)
             );
         }
         let _ = writeln!(
@@ -657,6 +731,18 @@ fn num(v: f64) -> String {
 }
 
 /// A tick label with as many decimals as the step needs.
+/// The value of decade `d` (10^d) as a tick label.
+fn decade_text(d: f64) -> String {
+    let e = d.round() as i32;
+    match e {
+        -3..=5 => {
+            let v = 10f64.powi(e);
+            if e >= 0 { format!("{v:.0}") } else { format!("{v}") }
+        }
+        _ => format!("1e{e}"),
+    }
+}
+
 fn tick_text(v: f64, step: f64) -> String {
     let decimals = if step >= 1.0 { 0 } else { (-step.log10()).ceil().clamp(0.0, 9.0) as usize };
     let s = format!("{v:.decimals$}");

@@ -50,7 +50,7 @@ mod text;
 pub use text::utc_date;
 
 use crate::check::{DesignCheck, Status};
-use crate::report::{Table, sig4};
+use crate::report::Table;
 
 /// One HTML report under construction. Build it with the setters (each returns `&mut Self`),
 /// add sections with [`HtmlReport::section`], then [`HtmlReport::render`] it.
@@ -153,12 +153,7 @@ impl HtmlReport {
             .rows
             .iter()
             .map(|row| {
-                let unit =
-                    if row.unit.is_empty() { String::new() } else { format!(" {}", row.unit) };
-                let found = match row.found {
-                    Some(v) => format!("{}{unit}", sig4(v)),
-                    None => "not computed".to_string(),
-                };
+                let found = row.found_text();
                 let place = if row.location.is_empty() {
                     String::new()
                 } else {

@@ -1,0 +1,179 @@
+//! `layloft report`: the whole job on one blade project — sections, stresses, modes, the design
+//! check (and tooling) — written as one self-contained HTML report and the data files it refers
+//! to.
+
+use std::path::{Path, PathBuf};
+use std::time::SystemTime;
+
+use anyhow::anyhow;
+use serde_json::Value;
+
+use layloft::analysis::BladeModel;
+use layloft::check::evaluate;
+use layloft::modal::ModalAnalysis;
+use layloft::report::html::utc_date;
+use layloft::report::{
+    ReportInputs, blade_report, campbell_csv, campbell_svg, modal_json, mode_shapes_csv,
+    stress_csv, stress_json, stress_svg, write_atomic,
+};
+
+use super::project::load_model;
+use super::{Failure, Outcome, Output};
+
+const EXAMPLES: &str = "\
+Examples:
+  layloft report layups/mine-fan/blade.toml --out out/mine-fan
+  layloft report layups/small-wind/blade.toml --out out/wind --meshes out/wind-stl
+
+Writes DIR/report.html (open it in a browser; it prints well) and beside it the data it shows:
+stress.json, stress-plies.csv, reserve-map.svg, modes.json, campbell.csv, campbell.svg,
+mode-shapes.csv, check.json. Exit status 1 when the design check fails (the report is written).";
+
+/// The engineering report of a blade project: verdict, cautions, planform, section properties,
+/// strength, vibration and tooling, with the data files it refers to.
+#[derive(Debug, clap::Args)]
+#[command(after_help = EXAMPLES)]
+pub struct Args {
+    /// The blade project (blade.toml).
+    pub blade: PathBuf,
+
+    /// Folder for the report and its data files (created when missing).
+    #[arg(long, value_name = "DIR")]
+    pub out: PathBuf,
+
+    /// Folder for the tooling STL files (DIR/meshes by default).
+    #[arg(long, value_name = "DIR")]
+    pub meshes: Option<PathBuf>,
+}
+
+/// Where a report run writes.
+pub struct Destination {
+    /// Report and data files.
+    pub out: PathBuf,
+    /// STL files.
+    pub meshes: PathBuf,
+}
+
+fn ensure_dir(dir: &Path) -> Result<(), Failure> {
+    std::fs::create_dir_all(dir)
+        .map_err(|e| Failure::Run(anyhow!("cannot create the folder {}: {e}", dir.display())))
+}
+
+fn json_text(v: &Value) -> Result<String, Failure> {
+    serde_json::to_string_pretty(v).map_err(|e| Failure::Run(anyhow!("cannot format JSON: {e}")))
+}
+
+/// Runs every stage on `model` and writes the report; returns whether the design check passed.
+pub fn write_report(model: &BladeModel, dest: &Destination, out: &Output) -> Result<bool, Failure> {
+    ensure_dir(&dest.out)?;
+    let p = &model.project;
+    let stress = if p.load_cases.is_empty() {
+        Vec::new()
+    } else {
+        let bar = out.progress(p.load_cases.len() as u64, "load cases");
+        let mut all = Vec::new();
+        for case in &p.load_cases {
+            bar.set_message(&case.name);
+            all.push(layloft::stress::analyse_case(model, case).map_err(layloft::Error::from)?);
+            bar.inc(1);
+        }
+        bar.finish();
+        all
+    };
+    let sections = model.properties();
+    let bar = out.progress(1, "speeds");
+    let modal = ModalAnalysis::run(
+        &sections,
+        &p.rotor,
+        &p.modal,
+        &p.criteria,
+        None,
+        None,
+        &mut |_, total| {
+            bar.set_length(total as u64);
+            bar.inc(1)
+        },
+    )
+    .map_err(layloft::Error::from)?;
+    bar.finish();
+    let nominal =
+        modal.model.modes(p.rotor.rpm_nominal, p.modal.modes).map_err(layloft::Error::from)?;
+    let check = evaluate(model, &stress, Some(&modal));
+
+    let mut files: Vec<(String, String)> = Vec::new();
+    let mut put = |name: &str, label: &str, bytes: &[u8]| -> Result<(), Failure> {
+        write_atomic(&dest.out.join(name), bytes)?;
+        files.push((name.to_string(), label.to_string()));
+        Ok(())
+    };
+    if !stress.is_empty() {
+        put(
+            "stress.json",
+            "stress results of every load case (JSON)",
+            json_text(&stress_json(model, &stress))?.as_bytes(),
+        )?;
+        put(
+            "stress-plies.csv",
+            "worst value of every ply at every station (CSV)",
+            stress_csv(&stress).as_bytes(),
+        )?;
+        put("reserve-map.svg", "reserve-factor map (SVG)", stress_svg(model, &stress).as_bytes())?;
+    }
+    let mjson =
+        modal_json(&modal.campbell, &p.rotor, &modal.excitations, &modal.crossings, &modal.margins);
+    put("modes.json", "modes, crossings and margins (JSON)", json_text(&mjson)?.as_bytes())?;
+    put(
+        "campbell.csv",
+        "Campbell data, one row per speed and mode (CSV)",
+        campbell_csv(&modal.campbell).as_bytes(),
+    )?;
+    let title = format!("Campbell diagram — {}", p.name);
+    let csvg = campbell_svg(
+        &modal.campbell,
+        &modal.excitations,
+        &modal.crossings,
+        (p.rotor.rpm_nominal, p.rotor.rpm_max),
+        &title,
+    );
+    put("campbell.svg", "Campbell diagram (SVG)", csvg.as_bytes())?;
+    put(
+        "mode-shapes.csv",
+        "mode shapes at the nominal speed (CSV)",
+        mode_shapes_csv(&nominal).as_bytes(),
+    )?;
+    let rows: Vec<Value> = check
+        .rows
+        .iter()
+        .map(|r| {
+            serde_json::json!({
+                "criterion": r.key, "limit": r.limit, "found": r.found.filter(|v| v.is_finite()),
+                "unit": r.unit, "where": r.location, "pass": r.status == layloft::check::Status::Pass,
+            })
+        })
+        .collect();
+    let cjson = serde_json::json!({ "project": p.name, "pass": check.passed(), "criteria": rows });
+    put("check.json", "the design check (JSON)", json_text(&cjson)?.as_bytes())?;
+
+    let html = blade_report(&ReportInputs {
+        model,
+        stress: &stress,
+        modal: Some(&modal),
+        nominal_modes: Some(&nominal),
+        check: &check,
+        section_drawings: Vec::new(),
+        tooling: None,
+        files,
+        date: Some(utc_date(SystemTime::now())),
+    });
+    let path = dest.out.join("report.html");
+    write_atomic(&path, html.as_bytes())?;
+    out.note(&format!("wrote {}", path.display()));
+    Ok(check.passed())
+}
+
+pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
+    let model = load_model(&args.blade, out)?;
+    let meshes = args.meshes.clone().unwrap_or_else(|| args.out.join("meshes"));
+    let passed = write_report(&model, &Destination { out: args.out.clone(), meshes }, out)?;
+    Ok(if passed { Outcome::Success } else { Outcome::CheckFailed })
+}

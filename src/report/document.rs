@@ -1,0 +1,375 @@
+//! The engineering report of a blade: one self-contained HTML document with the design-check
+//! verdict at the top, the cautions, and sections on the blade, its sections, strength,
+//! vibration and tooling, each with its plots and tables.
+
+use super::html::HtmlReport;
+use super::{
+    Align, Table, campbell_svg, fixed, mass_svg, mode_shapes_svg, pitch_moment_svg, planform_svg,
+    sig4, stiffness_svg, stress_svg, twist_svg,
+};
+use crate::analysis::BladeModel;
+use crate::check::DesignCheck;
+use crate::modal::{ModalAnalysis, ModeSet};
+use crate::stress::CaseStress;
+
+/// A drawing of one section for the report.
+#[derive(Debug, Clone)]
+pub struct SectionDrawing {
+    /// Radius, m.
+    pub r: f64,
+    /// The SVG.
+    pub svg: String,
+}
+
+/// A block of the report that a later stage supplies ready-made (the tooling summary).
+#[derive(Debug, Clone, Default)]
+pub struct ReportBlock {
+    /// Paragraphs.
+    pub paragraphs: Vec<String>,
+    /// Tables with their captions.
+    pub tables: Vec<(String, Table)>,
+    /// Warnings.
+    pub warnings: Vec<String>,
+    /// Notes.
+    pub notes: Vec<String>,
+}
+
+/// Everything the report shows.
+#[derive(Debug, Clone)]
+pub struct ReportInputs<'a> {
+    /// The blade model.
+    pub model: &'a BladeModel,
+    /// Stress results of every load case.
+    pub stress: &'a [CaseStress],
+    /// The modal analysis.
+    pub modal: Option<&'a ModalAnalysis>,
+    /// Modes at the nominal speed, for the mode-shape plot.
+    pub nominal_modes: Option<&'a ModeSet>,
+    /// The design check.
+    pub check: &'a DesignCheck,
+    /// Drawings of chosen sections.
+    pub section_drawings: Vec<SectionDrawing>,
+    /// The tooling summary.
+    pub tooling: Option<ReportBlock>,
+    /// Side files (path relative to the report, label).
+    pub files: Vec<(String, String)>,
+    /// Date of the run (the library does not read the clock).
+    pub date: Option<String>,
+}
+
+/// The report as HTML.
+pub fn blade_report(inp: &ReportInputs<'_>) -> String {
+    let m = inp.model;
+    let p = &m.project;
+    let r = &p.rotor;
+    let mut doc = HtmlReport::new(p.name.clone());
+    doc.subtitle(format!(
+        "{} blades, radius {:.3}–{:.3} m, {:.0} rpm nominal, {:.0} rpm maximum",
+        r.blades, r.hub_radius, r.tip_radius, r.rpm_nominal, r.rpm_max
+    ));
+    if let Some(d) = &inp.date {
+        doc.date(d.clone());
+    }
+    doc.meta("project file", p.file.clone());
+    doc.design_check(inp.check);
+
+    blade_section(&mut doc, m);
+    sections_section(&mut doc, m, &inp.section_drawings);
+    strength_section(&mut doc, m, inp.stress);
+    if let Some(modal) = inp.modal {
+        vibration_section(&mut doc, m, modal, inp.nominal_modes);
+    }
+    if let Some(t) = &inp.tooling {
+        let s = doc.section("Tooling");
+        for para in &t.paragraphs {
+            s.paragraph(para.clone());
+        }
+        for (caption, table) in &t.tables {
+            s.table(caption.clone(), table);
+        }
+        for w in &t.warnings {
+            s.warning(w.clone());
+        }
+        for n in &t.notes {
+            s.note(n.clone());
+        }
+    }
+    if !inp.files.is_empty() {
+        let s = doc.section("Data files");
+        s.paragraph(
+            "Every number of this report is also written as data, SI units in every field name.",
+        );
+        for (path, label) in &inp.files {
+            s.link(path.clone(), label.clone());
+        }
+    }
+    doc.render()
+}
+
+fn blade_section(doc: &mut HtmlReport, m: &BladeModel) {
+    let p = &m.project;
+    let r = &p.rotor;
+    let mass = m.mass();
+    let s = doc.section("The blade");
+    s.facts([
+        ("blades", r.blades.to_string()),
+        ("hub and tip radius", format!("{:.3} m, {:.3} m", r.hub_radius, r.tip_radius)),
+        (
+            "stations",
+            format!(
+                "{} from r = {:.3} m to {:.3} m",
+                p.stations.len(),
+                m.blade.root_radius(),
+                m.blade.tip_radius()
+            ),
+        ),
+        ("speeds", format!("{:.0} rpm nominal, {:.0} rpm maximum", r.rpm_nominal, r.rpm_max)),
+        (
+            "pitch",
+            format!(
+                "{:.1}° set, range {:.1}° to {:.1}°",
+                r.pitch.deg(),
+                r.pitch_range.0.deg(),
+                r.pitch_range.1.deg()
+            ),
+        ),
+        (
+            "clearances",
+            format!("root {:.1} mm, tip {:.1} mm", r.root_clearance * 1e3, r.tip_clearance * 1e3),
+        ),
+        ("plies in the schedule", p.plies.len().to_string()),
+        (
+            "blade mass",
+            format!(
+                "{:.3} kg ({:.3} kg laminates, {:.3} kg point masses), centre at r = {:.3} m",
+                mass.total_kg, mass.laminate_kg, mass.point_masses_kg, mass.centre_radius_m
+            ),
+        ),
+    ]);
+    s.figure(
+        "planform",
+        "Planform: leading and trailing edges about the pitch axis, webs and stations.",
+        planform_svg(m),
+    );
+    s.figure("twist", "Station twist along the span.", twist_svg(m));
+}
+
+fn sections_section(doc: &mut HtmlReport, m: &BladeModel, drawings: &[SectionDrawing]) {
+    let s = doc.section("Section properties");
+    s.paragraph(
+        "Thin-walled section theory on the wall midline, each wall laminate reduced for a beam wall \
+         (hoop force and wall moments free), closed cells with one twist rate. Stiffness in the chord \
+         frame through the elastic centre; centres as fractions of chord from the leading edge.",
+    );
+    s.figure("stiffness", "Bending and torsion stiffness along the span.", stiffness_svg(m));
+    s.figure("mass", "Mass per unit length along the span, with the point masses.", mass_svg(m));
+    let mut t = Table::new(&[
+        ("r (m)", Align::Right),
+        ("chord (m)", Align::Right),
+        ("EA (MN)", Align::Right),
+        ("EI flap (N·m²)", Align::Right),
+        ("EI edge (N·m²)", Align::Right),
+        ("GJ (N·m²)", Align::Right),
+        ("mass (kg/m)", Align::Right),
+        ("elastic centre (y/c)", Align::Right),
+        ("shear centre (y/c)", Align::Right),
+    ]);
+    for st in &m.stations {
+        let q = &st.section.properties;
+        let yc = |y: f64| y / q.chord + st.layout.pitch_axis_frac;
+        t.row(vec![
+            fixed(q.r, 3),
+            fixed(q.chord, 3),
+            sig4(q.ea / 1e6),
+            sig4(q.ei_flap),
+            sig4(q.ei_edge),
+            sig4(q.gj),
+            sig4(q.mass_per_length),
+            fixed(yc(q.elastic_centre[0]), 3),
+            fixed(yc(q.shear_centre[0]), 3),
+        ]);
+    }
+    s.table("Section properties at the analysis stations.", &t);
+    for d in drawings {
+        s.figure(
+            format!("section-{:.3}", d.r),
+            format!(
+                "Section at r = {:.3} m to scale: walls shaded by laminate, webs and centres.",
+                d.r
+            ),
+            d.svg.clone(),
+        );
+    }
+    for w in m.warnings() {
+        s.warning(w.to_string());
+    }
+}
+
+fn strength_section(doc: &mut HtmlReport, m: &BladeModel, cases: &[CaseStress]) {
+    let s = doc.section("Strength");
+    if cases.is_empty() {
+        s.note("The project has no load cases: strength was not checked.");
+        return;
+    }
+    s.paragraph(
+        "Loads integrated from the tip (centrifugal, gravity, distributed and point loads, factored), \
+         ply stresses at every wall point of every station by classical laminate theory, strength \
+         ratios by Tsai–Wu, maximum stress, maximum strain and Hashin. The reserve factor is the \
+         strength ratio of the governing criterion at the factored load.",
+    );
+    let mut t = Table::new(&[
+        ("case", Align::Left),
+        ("speed (rpm)", Align::Right),
+        ("load factor", Align::Right),
+        ("reserve factor", Align::Right),
+        ("r (m)", Align::Right),
+        ("where", Align::Left),
+        ("ply", Align::Left),
+        ("criterion, mode", Align::Left),
+    ]);
+    for c in cases {
+        match &c.critical {
+            Some(k) => t.row(vec![
+                c.name.clone(),
+                fixed(c.rpm, 0),
+                fixed(c.load_factor, 2),
+                fixed(k.reserve_factor, 2),
+                fixed(k.r, 3),
+                k.location.to_string(),
+                format!("{} ({}, {}°)", k.ply_id, k.material, fixed(k.angle_deg, 0)),
+                format!("{}, {}", k.criterion.label(), k.mode.label()),
+            ]),
+            None => {
+                t.row(vec![c.name.clone(), fixed(c.rpm, 0), fixed(c.load_factor, 2), "none".into()])
+            }
+        }
+    }
+    s.table("Lowest reserve factor of each load case and where it occurs.", &t);
+    s.figure(
+        "reserve-map",
+        "Lowest reserve factor over span and chord position, all cases; the critical location marked.",
+        stress_svg(m, cases),
+    );
+    let mut t = Table::new(&[
+        ("case", Align::Left),
+        ("radial force (kN)", Align::Right),
+        ("in-plane shear (N)", Align::Right),
+        ("out-of-plane shear (N)", Align::Right),
+        ("flap moment (N·m)", Align::Right),
+        ("edge moment (N·m)", Align::Right),
+        ("pitch moment (N·m)", Align::Right),
+        ("tip deflection (mm)", Align::Right),
+    ]);
+    for c in cases {
+        t.row(vec![
+            c.name.clone(),
+            sig4(c.root.force[0] / 1e3),
+            sig4(c.root.force[1]),
+            sig4(c.root.force[2]),
+            sig4(c.root.moment[1]),
+            sig4(c.root.moment[2]),
+            sig4(c.root.moment[0]),
+            sig4(c.tip_deflection.total * 1e3),
+        ]);
+    }
+    s.table("Root reactions (rotor frame, moments about the pitch axis at the root) and tip deflection.", &t);
+    if cases.iter().any(|c| c.pitch_sweep.len() > 1) {
+        s.figure(
+            "pitch-moment",
+            "Pitching moment at the root over the pitch range: all loads (solid) and the centrifugal twisting moment (dashed). It sizes the pitch actuator and bearing.",
+            pitch_moment_svg(cases),
+        );
+    }
+}
+
+fn vibration_section(
+    doc: &mut HtmlReport,
+    m: &BladeModel,
+    a: &ModalAnalysis,
+    nominal: Option<&ModeSet>,
+) {
+    let p = &m.project;
+    let s = doc.section("Vibration");
+    s.paragraph(format!(
+        "Rotating beam finite elements along the pitch axis with the coupled section stiffness, \
+         mass offsets, pretwist, centrifugal stiffening, spin softening and the propeller moment; \
+         clamped at the root. {} modes at each of {} speeds from {:.0} to {:.0} rpm, tracked by the \
+         modal assurance criterion. Excitations: rotor orders 1P to {}P and the blade-passing orders.",
+        a.campbell.speeds.first().map_or(0, |s| s.modes.len()),
+        a.campbell.speeds.len(),
+        a.range.from_rpm,
+        a.range.to_rpm,
+        p.criteria.harmonics
+    ));
+    s.figure(
+        "campbell",
+        "Campbell diagram: natural frequencies against rotor speed, excitation lines, crossings, and the operating range shaded.",
+        campbell_svg(&a.campbell, &a.excitations, &a.crossings, (p.rotor.rpm_nominal, p.rotor.rpm_max), &format!("Campbell diagram — {}", p.name)),
+    );
+    for check in &a.margins {
+        let mut t = Table::new(&[
+            ("mode", Align::Left),
+            ("frequency (Hz)", Align::Right),
+            ("nearest excitation", Align::Left),
+            ("excitation (Hz)", Align::Right),
+            ("margin (%)", Align::Right),
+            ("verdict", Align::Left),
+        ]);
+        for mm in &check.modes {
+            let label = a
+                .campbell
+                .tracks
+                .iter()
+                .find(|t| t.id == mm.track)
+                .map_or(String::new(), |t| t.label.clone());
+            let verdict = match mm.pass {
+                Some(true) => "PASS",
+                Some(false) => "FAIL",
+                None => "-",
+            };
+            t.row(vec![
+                label,
+                sig4(mm.frequency_hz),
+                mm.excitation.label(),
+                sig4(mm.excitation_hz),
+                fixed(mm.margin_pct, 1),
+                verdict.into(),
+            ]);
+        }
+        s.table(
+            format!(
+                "Margins at the {} speed, {:.0} rpm{}.",
+                check.name,
+                check.rpm,
+                check.required_pct.map(|v| format!(" (required {v} %)")).unwrap_or_default()
+            ),
+            &t,
+        );
+    }
+    if !a.crossings.is_empty() {
+        let mut t = Table::new(&[
+            ("mode", Align::Left),
+            ("excitation", Align::Left),
+            ("speed (rpm)", Align::Right),
+            ("frequency (Hz)", Align::Right),
+        ]);
+        for c in &a.crossings {
+            let label = a
+                .campbell
+                .tracks
+                .iter()
+                .find(|t| t.id == c.track)
+                .map_or(String::new(), |t| t.label.clone());
+            let e = crate::modal::Excitation { order: c.order, blade_passing: c.blade_passing };
+            t.row(vec![label, e.label(), fixed(c.rpm, 0), sig4(c.frequency_hz)]);
+        }
+        s.table("Crossings of the modes with the excitation lines inside the speed range.", &t);
+    }
+    if let Some(set) = nominal {
+        s.figure(
+            "mode-shapes",
+            format!("The first mode shapes at the nominal speed, {:.0} rpm.", set.rpm),
+            mode_shapes_svg(set, 4, &format!("Mode shapes at {:.0} rpm", set.rpm)),
+        );
+    }
+}
