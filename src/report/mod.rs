@@ -10,3 +10,8 @@ pub use write::{write_atomic, write_atomic_with};
 mod laminate;
 
 pub use laminate::LaminateReport;
+mod section_svg;
+mod sections;
+
+pub use section_svg::{section_svg, section_svg_names};
+pub use sections::{SectionsReport, laminate_label};
