@@ -92,10 +92,13 @@ pub fn laminate_label(blade: &Blade, station: &AnalysisStation, index: usize) ->
     format!("{name}, {} mm", super::sig4(t * 1e3))
 }
 
-/// A 4x4 section stiffness with entries below 1e-12 of `sqrt(K_ii K_jj)` set to zero: round-off
-/// where the layup makes a coupling vanish (a balanced fabric at ±45° gives about 1e-16 of that
-/// scale instead of zero). The scale makes N, N·m and N·m² entries compare alike.
+/// A 4x4 section stiffness made exactly symmetric (it is in theory; the shift to the elastic
+/// centre leaves round-off of about 1e-15 between the two triangles) with entries below 1e-12 of
+/// `sqrt(K_ii K_jj)` set to zero: round-off where the layup makes a coupling vanish (a balanced
+/// fabric at ±45° gives about 1e-16 of that scale instead of zero). The scale makes N, N·m and
+/// N·m² entries compare alike.
 pub(crate) fn clean_stiffness(k: &Matrix4<f64>) -> Matrix4<f64> {
+    let k = (k + k.transpose()) * 0.5;
     let d: Vec<f64> = (0..4).map(|i| k[(i, i)].abs().sqrt()).collect();
     Matrix4::from_fn(|i, j| if k[(i, j)].abs() < 1e-12 * d[i] * d[j] { 0.0 } else { k[(i, j)] })
 }

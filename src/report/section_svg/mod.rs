@@ -29,47 +29,15 @@
 //! # }
 //! ```
 
+mod shapes;
+mod walls;
+
 use std::fmt::Write as _;
 
 use super::laminate_label;
 use crate::analysis::AnalysisStation;
 use crate::blade::Blade;
-use crate::section::WallPart;
-
-/// Our own palette for laminates (muted, distinct on white and under dark symbols); beyond it,
-/// hues step round by the golden angle.
-const PALETTE: [&str; 10] = [
-    "#7ea6c4", "#e2ad62", "#8fbf7a", "#c98a93", "#a597cf", "#d8cd75", "#6f9f9a", "#c0926a",
-    "#9cc9e3", "#b3b38c",
-];
-const INK: &str = "#22272e";
-
-fn colour(k: usize) -> String {
-    match PALETTE.get(k) {
-        Some(c) => (*c).to_string(),
-        None => format!("hsl({:.0},42%,62%)", (k as f64 * 137.508) % 360.0),
-    }
-}
-
-/// A number for SVG: three decimals without trailing zeros; zero for a value that is not finite
-/// (never written as NaN).
-fn n(v: f64) -> String {
-    if !v.is_finite() {
-        return "0".into();
-    }
-    let s = format!("{v:.3}");
-    let s = s.trim_end_matches('0').trim_end_matches('.');
-    if s == "-0" || s.is_empty() { "0".into() } else { s.to_string() }
-}
-
-/// Text escaped for SVG character data and attribute values.
-fn esc(s: &str) -> String {
-    s.replace('&', "&amp;")
-        .replace('<', "&lt;")
-        .replace('>', "&gt;")
-        .replace('"', "&quot;")
-        .replace('\'', "&apos;")
-}
+use shapes::{Frame, INK, colour, esc, n, scale_length, symbol, wrap_lines};
 
 /// File names for drawings of sections at `radii` (m): `section-r0.600.svg`, with more decimals
 /// (up to six) when three would give two sections the same name.
@@ -90,203 +58,6 @@ pub fn section_svg_names(radii: &[f64]) -> Vec<String> {
         }
     }
     names(6)
-}
-
-/// Maps chord-frame points (m) to drawing coordinates (mm, y down).
-struct Frame {
-    x0: f64,
-    y0: f64,
-}
-
-impl Frame {
-    fn at(&self, p: [f64; 2]) -> (f64, f64) {
-        (self.x0 + p[0] * 1e3, self.y0 - p[1] * 1e3)
-    }
-
-    fn path(&self, pts: impl IntoIterator<Item = [f64; 2]>, close: bool) -> String {
-        let mut d = String::new();
-        for (i, p) in pts.into_iter().enumerate() {
-            let (x, y) = self.at(p);
-            let _ = write!(d, "{}{} {} ", if i == 0 { "M" } else { "L" }, n(x), n(y));
-        }
-        if close {
-            d.push('Z');
-        }
-        d.trim_end().to_string()
-    }
-}
-
-/// Unit outward normals of the outer segments (segment `i` from point `i` to `i + 1`), and the
-/// mitre vector per unit thickness at every vertex (limited to 4 at sharp corners).
-fn normals_and_mitres(pts: &[[f64; 2]]) -> (Vec<[f64; 2]>, Vec<[f64; 2]>) {
-    let m = pts.len();
-    let normals: Vec<[f64; 2]> = (0..m)
-        .map(|i| {
-            let (a, b) = (pts[i], pts[(i + 1) % m]);
-            let (dy, dz) = (b[0] - a[0], b[1] - a[1]);
-            let l = dy.hypot(dz);
-            if l > 0.0 { [-dz / l, dy / l] } else { [0.0, 0.0] }
-        })
-        .collect();
-    let mitres = (0..m)
-        .map(|i| {
-            let (na, nb) = (normals[(i + m - 1) % m], normals[i]);
-            let c = 1.0 + na[0] * nb[0] + na[1] * nb[1];
-            let sum = [na[0] + nb[0], na[1] + nb[1]];
-            let len = sum[0].hypot(sum[1]);
-            if c > 1.0 / 16.0 {
-                [sum[0] / c, sum[1] / c]
-            } else if len > 1e-9 {
-                [4.0 * sum[0] / len, 4.0 * sum[1] / len]
-            } else {
-                na
-            }
-        })
-        .collect();
-    (normals, mitres)
-}
-
-/// The wall bands: one closed path per run of outer segments with one laminate, its laminate,
-/// and whether it is a ring (one laminate all round: outer and inner loop, filled even-odd).
-/// A run round a thin trailing edge overlaps itself where the walls meet; filled non-zero, the
-/// overlap stays filled.
-fn wall_bands(st: &AnalysisStation, frame: &Frame) -> Vec<(usize, String, bool)> {
-    let pts = &st.layout.outer;
-    let lam = &st.layout.segment_laminate;
-    let m = pts.len();
-    let (_, mitre) = normals_and_mitres(pts);
-    let t = |k: usize| st.layout.laminates[k].thickness();
-    let inner = |i: usize, k: usize| {
-        let v = mitre[i % m];
-        [pts[i % m][0] - t(k) * v[0], pts[i % m][1] - t(k) * v[1]]
-    };
-    let Some(start) = (0..m).find(|&i| lam[i] != lam[(i + m - 1) % m]) else {
-        // One laminate all round: a ring.
-        let k = lam[0];
-        let outer = frame.path(pts.iter().copied(), true);
-        let inside = frame.path((0..m).rev().map(|i| inner(i, k)), true);
-        return vec![(k, format!("{outer} {inside}"), true)];
-    };
-    let mut bands = Vec::new();
-    let mut i = start;
-    while i < start + m {
-        let k = lam[i % m];
-        let mut j = i;
-        while j + 1 < start + m && lam[(j + 1) % m] == k {
-            j += 1;
-        }
-        let outer = (i..=j + 1).map(|v| pts[v % m]);
-        let back = (i..=j + 1).rev().map(|v| inner(v, k));
-        bands.push((k, frame.path(outer.chain(back), true), false));
-        i = j + 1;
-    }
-    bands
-}
-
-/// Polylines of the solver's wall midline (skins, trailing-edge branches and webs).
-fn midline(st: &AnalysisStation, frame: &Frame) -> String {
-    let mut d = String::new();
-    let mut last: Option<[f64; 2]> = None;
-    for e in st.section.elements() {
-        let joined = last.is_some_and(|p| (p[0] - e.start[0]).hypot(p[1] - e.start[1]) < 1e-12);
-        let (x, y) = frame.at(e.start);
-        if !joined {
-            let _ = write!(d, "M{} {} ", n(x), n(y));
-        }
-        let (x, y) = frame.at(e.end);
-        let _ = write!(d, "L{} {} ", n(x), n(y));
-        last = Some(e.end);
-    }
-    d.trim_end().to_string()
-}
-
-/// Symbol shapes of our own: 0 pitch axis (a cross in a circle), 1 elastic centre (filled
-/// diamond), 2 shear centre (open triangle), 3 mass centre (ring round a dot).
-fn symbol(kind: usize, x: f64, y: f64, s: f64) -> String {
-    let h = s / 2.0;
-    let halo = format!("stroke=\"#ffffff\" stroke-width=\"{}\"", n(s * 0.35));
-    let ink = format!("stroke=\"{INK}\" stroke-width=\"{}\"", n(s * 0.12));
-    let draw = |body: String, fill: &str| {
-        format!("<g fill=\"{fill}\"><g {halo}>{body}</g><g {ink}>{body}</g></g>")
-    };
-    match kind {
-        0 => draw(
-            format!(
-                "<circle cx=\"{}\" cy=\"{}\" r=\"{}\"/><path d=\"M{} {}H{}M{} {}V{}\"/>",
-                n(x),
-                n(y),
-                n(h * 0.7),
-                n(x - h),
-                n(y),
-                n(x + h),
-                n(x),
-                n(y - h),
-                n(y + h)
-            ),
-            "none",
-        ),
-        1 => draw(
-            format!(
-                "<path d=\"M{} {}L{} {}L{} {}L{} {}Z\"/>",
-                n(x),
-                n(y - h),
-                n(x + h),
-                n(y),
-                n(x),
-                n(y + h),
-                n(x - h),
-                n(y)
-            ),
-            INK,
-        ),
-        2 => draw(
-            format!(
-                "<path d=\"M{} {}L{} {}L{} {}Z\"/>",
-                n(x),
-                n(y - h),
-                n(x + h * 0.95),
-                n(y + h * 0.7),
-                n(x - h * 0.95),
-                n(y + h * 0.7)
-            ),
-            "#ffffff",
-        ),
-        _ => {
-            let ring = format!("<circle cx=\"{}\" cy=\"{}\" r=\"{}\"/>", n(x), n(y), n(h * 0.8));
-            let dot = format!(
-                "<circle cx=\"{}\" cy=\"{}\" r=\"{}\" fill=\"{INK}\" stroke=\"none\"/>",
-                n(x),
-                n(y),
-                n(h * 0.25)
-            );
-            format!("{}{dot}", draw(ring, "#ffffff"))
-        }
-    }
-}
-
-/// A round length for the scale bar near a quarter of `chord_mm`: 1, 2 or 5 times a power of ten.
-fn scale_length(chord_mm: f64) -> f64 {
-    let target = (chord_mm / 4.0).max(1e-3);
-    let p = 10f64.powf(target.log10().floor());
-    [5.0, 2.0, 1.0].into_iter().map(|k| k * p).find(|&l| l <= target).unwrap_or(p)
-}
-
-/// Lines of at most `width` characters.
-fn wrap_lines(text: &str, width: usize) -> Vec<String> {
-    let mut lines = vec![String::new()];
-    for word in text.split_whitespace() {
-        let cur = lines.last_mut().map_or(0, |l| l.chars().count());
-        if cur > 0 && cur + 1 + word.chars().count() > width {
-            lines.push(String::new());
-        }
-        if let Some(l) = lines.last_mut() {
-            if !l.is_empty() {
-                l.push(' ');
-            }
-            l.push_str(word);
-        }
-    }
-    lines
 }
 
 /// The drawing of one section as a standalone SVG document; see the module documentation.
@@ -368,55 +139,7 @@ pub fn section_svg(project: &str, blade: &Blade, st: &AnalysisStation) -> String
     let _ = writeln!(s, "<rect width=\"{}\" height=\"{}\" fill=\"#ffffff\"/>", n(width), n(height));
     let _ = writeln!(s, "<path d=\"{outer}\" fill=\"#f7f5f0\"/>");
 
-    // Webs, then wall bands over their ends, all inside the outer line.
-    let _ = writeln!(s, "<g clip-path=\"url(#{id})\">");
-    for (w, web) in layout.webs.iter().enumerate() {
-        let zs: Vec<f64> = st
-            .section
-            .elements()
-            .iter()
-            .filter(|e| e.part == WallPart::Web { web: w })
-            .flat_map(|e| [e.start[1], e.end[1]])
-            .collect();
-        if zs.is_empty() {
-            continue;
-        }
-        let (lo, hi) = zs.iter().fold((f64::MAX, f64::MIN), |(a, b), &z| (a.min(z), b.max(z)));
-        let t = layout.laminates[web.laminate].thickness();
-        let (x, y) = frame.at([web.y - t / 2.0, hi]);
-        let _ = writeln!(
-            s,
-            "<rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\" fill=\"{}\"/>",
-            n(x),
-            n(y),
-            n(t * 1e3),
-            n((hi - lo) * 1e3),
-            colour(web.laminate)
-        );
-    }
-    for (k, d, ring) in wall_bands(st, &frame) {
-        let (c, rule) = (colour(k), if ring { "evenodd" } else { "nonzero" });
-        let _ = writeln!(
-            s,
-            "<path d=\"{d}\" fill=\"{c}\" fill-rule=\"{rule}\" stroke=\"{c}\" stroke-width=\"{}\"/>",
-            n(0.02 * f)
-        );
-    }
-    let _ = writeln!(s, "</g>");
-    let line_w = n((0.06 * f).max(0.1));
-    let _ = writeln!(
-        s,
-        "<path d=\"{outer}\" fill=\"none\" stroke=\"{INK}\" stroke-width=\"{line_w}\"/>"
-    );
-    let _ = writeln!(
-        s,
-        "<path d=\"{}\" fill=\"none\" stroke=\"{INK}\" stroke-opacity=\"0.7\" stroke-width=\"{}\" \
-         stroke-dasharray=\"{} {}\"/>",
-        midline(st, &frame),
-        n(0.03 * f),
-        n(0.4 * f),
-        n(0.25 * f)
-    );
+    walls::draw(&mut s, st, &frame, f, &id, &outer);
     // Chord line from the leading to the trailing edge, dash-dot.
     let (x_le, y_c) = frame.at([-layout.pitch_axis_frac * layout.chord, 0.0]);
     let (x_te, _) = frame.at([(1.0 - layout.pitch_axis_frac) * layout.chord, 0.0]);
@@ -544,20 +267,5 @@ mod tests {
             section_svg_names(&[0.6001, 0.6002]),
             ["section-r0.6001.svg", "section-r0.6002.svg"]
         );
-    }
-
-    #[test]
-    fn numbers_and_text_are_safe_for_svg() {
-        assert_eq!(n(f64::NAN), "0");
-        assert_eq!(n(-0.0001), "0");
-        assert_eq!(n(12.5), "12.5");
-        assert_eq!(esc("a<b & 'c'"), "a&lt;b &amp; &apos;c&apos;");
-    }
-
-    #[test]
-    fn scale_bar_is_a_round_length_near_a_quarter_chord() {
-        assert_eq!(scale_length(280.0), 50.0);
-        assert_eq!(scale_length(100.0), 20.0);
-        assert_eq!(scale_length(40.0), 10.0);
     }
 }
