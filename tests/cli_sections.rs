@@ -342,7 +342,8 @@ fn svg_drawings_are_well_formed_to_scale_and_name_the_centres() {
         assert!(svg.contains("skin-out/skin-biax/"), "{name}: legend without ply stacks");
         // The centres in the legend are the solver's, in mm.
         let blade = layloft::blade::Blade::from_project(&m.project).unwrap();
-        let (layout, _) = blade.section_layout_with_plies(r, 240).unwrap();
+        let (layout, _) =
+            blade.section_layout_with_plies(r, m.project.sections.contour_points).unwrap();
         let p = layloft::section::solve_section(&layout, &Default::default()).unwrap();
         let ec = format!("elastic centre, y = {:.1} mm", p.elastic_centre[0] * 1e3);
         assert!(svg.contains(&ec), "{name} lacks {ec}");
