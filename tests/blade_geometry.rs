@@ -43,8 +43,9 @@ fn section_layout_is_a_closed_contour_with_a_laminate_per_segment() {
     let layout = b.section_layout(1.0, 200).unwrap();
     assert_eq!(layout.outer.len(), layout.segment_laminate.len());
     // The NACA 0015 open trailing edge gives a blunt base: 101 upper + 100 lower points, plus
-    // vertices at the cap's edges (x/c = 0.2 and 0.4 on the upper surface).
-    assert_eq!(layout.outer.len(), 203);
+    // vertices at the cap's edges (x/c = 0.2 and 0.4 on the upper surface) and at the ends of
+    // the ramps beside them, less the outline points inside the ramps.
+    assert_eq!(layout.outer.len(), 204);
     assert!(layout.outer.iter().any(|p| (p[0] - (0.2 - 0.3) * 0.4).abs() < 1e-12 && p[1] > 0.0));
     // Leading edge at y = -0.3 c on the pitch axis frame, trailing edge at +0.7 c.
     assert!((layout.outer[0][0] + 0.12).abs() < 1e-12 && layout.outer[0][1].abs() < 1e-12);
@@ -55,6 +56,29 @@ fn section_layout_is_a_closed_contour_with_a_laminate_per_segment() {
     assert!((layout.webs[0].y - 0.0).abs() < 1e-12);
     // Contour runs over the upper surface first (z > 0 at the quarter of the points).
     assert!(layout.outer[50][1] > 0.0 && layout.outer[150][1] < 0.0);
+}
+
+#[test]
+fn segments_beside_a_ply_drop_are_as_long_as_the_drop_is_thick() {
+    // The 2 mm cap ends at x/c = 0.2 and 0.4 on the upper surface: the segments either side of
+    // each edge are 2 mm long at every number of points (the midline ramp
+    // there is then the same whatever the outline spacing; see `blade/layout.rs`).
+    let b = fixture();
+    for n in [100, 200, 400, 800] {
+        let layout = b.section_layout(1.0, n).unwrap();
+        for x in [0.2, 0.4] {
+            let y = (x - 0.3) * 0.4;
+            let k = layout.outer.iter().position(|p| (p[0] - y).abs() < 1e-9 && p[1] > 0.0);
+            let k = k.unwrap_or_else(|| panic!("no vertex at the cap edge x/c = {x}"));
+            for (a, b) in [(k - 1, k), (k, k + 1)] {
+                let (p, q) = (layout.outer[a], layout.outer[b]);
+                let len = (q[0] - p[0]).hypot(q[1] - p[1]);
+                // 1e-4 relative: the ramp is measured along the surface, the segment is its
+                // chord, shorter by L²/(24 R²) (under 7e-5 for a surface radius above 50 mm).
+                assert!((len - 2e-3).abs() < 2e-7, "n = {n}, x/c = {x}: segment {len} m");
+            }
+        }
+    }
 }
 
 #[test]

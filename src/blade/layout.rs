@@ -54,9 +54,26 @@ impl Blade {
             e.dedup_by(|a, b| (*a - *b).abs() < 1e-9);
             e
         };
-        insert_edges(&mut outline.upper, &edges(Surface::Upper));
-        insert_edges(&mut outline.lower, &edges(Surface::Lower));
         let chord = self.chord(r);
+        for (surface, points) in
+            [(Surface::Upper, &mut outline.upper), (Surface::Lower, &mut outline.lower)]
+        {
+            let e = edges(surface);
+            insert_edges(points, &e);
+            // Where the thickness steps, the wall midline ramps from one offset to the other
+            // over the two segments beside the step; their length is fixed here (see
+            // `fix_ramps`) so that the stiffness converges as the outline gets more points.
+            let steps: Vec<(f64, f64)> = e
+                .iter()
+                .map(|&x| {
+                    let step = self.surface_thickness(r, surface, x + 1e-7)
+                        - self.surface_thickness(r, surface, x - 1e-7);
+                    (x, PLY_DROP_RAMP * step.abs() / chord)
+                })
+                .filter(|&(_, half)| half > 1e-6)
+                .collect();
+            fix_ramps(points, &e, &steps);
+        }
         let pa = self.pitch_axis_frac(r);
         let to_frame = |p: [f64; 2]| [(p[0] - pa) * chord, p[1] * chord];
 
@@ -167,4 +184,96 @@ fn insert_edges(surface: &mut Vec<[f64; 2]>, edges: &[f64]) {
         let w = (x - a[0]) / (b[0] - a[0]);
         surface.insert(i + 1, [x, a[1] + w * (b[1] - a[1])]);
     }
+}
+
+/// Length of each of the two segments beside a thickness step (a ply drop or the edge of a core),
+/// in multiples of the step: the wall midline passes from one offset to the other over them.
+/// Left to the outline spacing, that ramp would get steeper and its elements relatively longer
+/// as the points get closer, and the stiffness would drift with the number of points (by up to
+/// 0.6 % per doubling on the small-wind demo, beside its 4 mm cores). One step's length on each side makes the midline ramp
+/// about 1:4, as steep as a chamfered core edge; a ply drop is usually tapered more gently, which
+/// changes the stiffness by a fraction of the dropped ply's share over a few thicknesses (common
+/// practice).
+const PLY_DROP_RAMP: f64 = 1.0;
+
+/// The longest ramp beside a thickness step, as a fraction of chord: a thick core edge on a small
+/// chord keeps the outline's shape (the segments beside the step are chords of the surface).
+const MAX_RAMP: f64 = 0.02;
+
+/// Gives the two segments beside each thickness step `(x, half)` (chord fraction of the step,
+/// ramp length along the surface as a fraction of chord) the length `half`: a vertex is put
+/// `half` before and after the step, or the ramp ends at a ply edge within 1.5 `half`; the
+/// outline's vertices inside the ramp are taken out, and so is a vertex just outside a ramp end
+/// that would leave a short segment there (its offset could fold the midline back). Ply edges
+/// (`edges`) and the surface's end points stay.
+fn fix_ramps(surface: &mut Vec<[f64; 2]>, edges: &[f64], steps: &[(f64, f64)]) {
+    let mut s = vec![0.0; surface.len()];
+    for i in 1..surface.len() {
+        let (a, b) = (surface[i - 1], surface[i]);
+        s[i] = s[i - 1] + (b[0] - a[0]).hypot(b[1] - a[1]);
+    }
+    let total = s[s.len() - 1];
+    let index_of = |x: f64| surface.iter().position(|p| (p[0] - x).abs() < 1e-6);
+    let edge_s: Vec<f64> = edges.iter().filter_map(|&e| index_of(e)).map(|i| s[i]).collect();
+    // Arc positions of new ramp ends, and open arc intervals to clear of outline vertices.
+    let (mut ends, mut clear) = (Vec::new(), Vec::new());
+    for &(x, half) in steps {
+        let Some(k) = index_of(x) else { continue };
+        let half = half.min(MAX_RAMP);
+        for side in [-1.0, 1.0] {
+            let reach = s[k] + side * 1.5 * half;
+            let blocking = edge_s
+                .iter()
+                .copied()
+                .filter(|&e| (e - s[k]) * side > 1e-9 && (reach - e) * side > 0.0)
+                .min_by(|a, b| (a - s[k]).abs().total_cmp(&(b - s[k]).abs()));
+            let end = match blocking {
+                Some(e) => e,
+                None => {
+                    let end = (s[k] + side * half).clamp(0.0, total);
+                    ends.push(end);
+                    end
+                }
+            };
+            clear.push((s[k].min(end), s[k].max(end)));
+        }
+    }
+    ends.sort_by(f64::total_cmp);
+    // (point, arc position, stays, is a ramp end)
+    let mut pts: Vec<([f64; 2], f64, bool, bool)> = Vec::with_capacity(surface.len() + ends.len());
+    let mut next = 0;
+    for i in 0..surface.len() {
+        while i > 0 && next < ends.len() && ends[next] <= s[i] {
+            let e = ends[next];
+            next += 1;
+            if e - s[i - 1] < 1e-9 || s[i] - e < 1e-9 {
+                continue;
+            }
+            let w = (e - s[i - 1]) / (s[i] - s[i - 1]);
+            let (a, b) = (surface[i - 1], surface[i]);
+            pts.push(([a[0] + w * (b[0] - a[0]), a[1] + w * (b[1] - a[1])], e, true, true));
+        }
+        let stays = i == 0
+            || i + 1 == surface.len()
+            || edge_s.iter().chain(&ends).any(|&e| (e - s[i]).abs() < 1e-9);
+        let inside = clear.iter().any(|&(lo, hi)| s[i] > lo + 1e-9 && s[i] < hi - 1e-9);
+        if stays || !inside {
+            pts.push((surface[i], s[i], stays, false));
+        }
+    }
+    // A vertex just outside a ramp end, closer to it than half the next segment's length.
+    let mut drop = vec![false; pts.len()];
+    for j in 0..pts.len() {
+        if !pts[j].3 {
+            continue;
+        }
+        for (q, r) in [(j + 1, j + 2), (j.wrapping_sub(1), j.wrapping_sub(2))] {
+            if let (Some(pq), Some(pr)) = (pts.get(q), pts.get(r)) {
+                if !pq.2 && (pq.1 - pts[j].1).abs() < 0.5 * (pr.1 - pq.1).abs() {
+                    drop[q] = true;
+                }
+            }
+        }
+    }
+    *surface = pts.iter().zip(&drop).filter(|(_, d)| !**d).map(|(p, _)| p.0).collect();
 }

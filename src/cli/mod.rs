@@ -11,6 +11,7 @@ mod output;
 mod pairs;
 mod project;
 mod report;
+mod sections;
 mod stress;
 
 use std::process::ExitCode;
@@ -43,6 +44,7 @@ enum Command {
     Modes(modes::Args),
     Report(report::Args),
     Stress(stress::Args),
+    Sections(sections::Args),
 }
 
 /// How a command ended, other than by an error.
@@ -90,6 +92,7 @@ pub fn main() -> ExitCode {
         Command::Modes(args) => modes::run(args, &out),
         Command::Report(args) => report::run(args, &out),
         Command::Stress(args) => stress::run(args, &out),
+        Command::Sections(args) => sections::run(args, &out),
     };
     match result {
         Ok(Outcome::Success) => ExitCode::SUCCESS,
