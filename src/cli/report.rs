@@ -13,8 +13,8 @@ use layloft::check::evaluate;
 use layloft::modal::ModalAnalysis;
 use layloft::report::html::utc_date;
 use layloft::report::{
-    ReportInputs, blade_report, campbell_csv, campbell_svg, modal_json, mode_shapes_csv,
-    stress_csv, stress_json, stress_svg, write_atomic,
+    ReportInputs, SectionDrawing, SectionsReport, blade_report, campbell_csv, campbell_svg,
+    modal_json, mode_shapes_csv, section_svg, stress_csv, stress_json, stress_svg, write_atomic,
 };
 
 use super::project::load_model;
@@ -23,10 +23,10 @@ use super::{Failure, Outcome, Output};
 const EXAMPLES: &str = "\
 Examples:
   layloft report layups/mine-fan/blade.toml --out out/mine-fan
-  layloft report layups/small-wind/blade.toml --out out/wind --meshes out/wind-stl
+  layloft report layups/small-wind/blade.toml --out out/wind
 
 Writes DIR/report.html (open it in a browser; it prints well) and beside it the data it shows:
-stress.json, stress-plies.csv, reserve-map.svg, modes.json, campbell.csv, campbell.svg,
+sections.json, sections.csv, stress.json, stress-plies.csv, reserve-map.svg, modes.json, campbell.csv, campbell.svg,
 mode-shapes.csv, check.json. Exit status 1 when the design check fails (the report is written).";
 
 /// The engineering report of a blade project: verdict, cautions, planform, section properties,
@@ -40,18 +40,12 @@ pub struct Args {
     /// Folder for the report and its data files (created when missing).
     #[arg(long, value_name = "DIR")]
     pub out: PathBuf,
-
-    /// Folder for the tooling STL files (DIR/meshes by default).
-    #[arg(long, value_name = "DIR")]
-    pub meshes: Option<PathBuf>,
 }
 
 /// Where a report run writes.
 pub struct Destination {
     /// Report and data files.
     pub out: PathBuf,
-    /// STL files.
-    pub meshes: PathBuf,
 }
 
 fn ensure_dir(dir: &Path) -> Result<(), Failure> {
@@ -106,6 +100,17 @@ pub fn write_report(model: &BladeModel, dest: &Destination, out: &Output) -> Res
         files.push((name.to_string(), label.to_string()));
         Ok(())
     };
+    let sections_report = SectionsReport::new(model);
+    put(
+        "sections.json",
+        "section properties at every station (JSON)",
+        json_text(&sections_report.to_json())?.as_bytes(),
+    )?;
+    let mut csv = Vec::new();
+    sections_report
+        .write_csv(&mut csv)
+        .map_err(|e| Failure::Run(anyhow!("cannot format the section CSV: {e}")))?;
+    put("sections.csv", "section properties at every station (CSV)", &csv)?;
     if !stress.is_empty() {
         put(
             "stress.json",
@@ -154,13 +159,24 @@ pub fn write_report(model: &BladeModel, dest: &Destination, out: &Output) -> Res
     let cjson = serde_json::json!({ "project": p.name, "pass": check.passed(), "criteria": rows });
     put("check.json", "the design check (JSON)", json_text(&cjson)?.as_bytes())?;
 
+    // Drawings of the root, mid-span and tip sections.
+    let n = model.stations.len();
+    let mut picks = vec![0, n / 2, n.saturating_sub(1)];
+    picks.dedup();
+    let section_drawings = picks
+        .into_iter()
+        .map(|i| {
+            let st = &model.stations[i];
+            SectionDrawing { r: st.layout.r, svg: section_svg(&p.name, &model.blade, st) }
+        })
+        .collect();
     let html = blade_report(&ReportInputs {
         model,
         stress: &stress,
         modal: Some(&modal),
         nominal_modes: Some(&nominal),
         check: &check,
-        section_drawings: Vec::new(),
+        section_drawings,
         tooling: None,
         files,
         date: Some(utc_date(SystemTime::now())),
@@ -173,7 +189,6 @@ pub fn write_report(model: &BladeModel, dest: &Destination, out: &Output) -> Res
 
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let model = load_model(&args.blade, out)?;
-    let meshes = args.meshes.clone().unwrap_or_else(|| args.out.join("meshes"));
-    let passed = write_report(&model, &Destination { out: args.out.clone(), meshes }, out)?;
+    let passed = write_report(&model, &Destination { out: args.out.clone() }, out)?;
     Ok(if passed { Outcome::Success } else { Outcome::CheckFailed })
 }

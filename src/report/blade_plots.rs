@@ -116,6 +116,9 @@ pub fn mass_svg(model: &BladeModel) -> String {
     fig.render()
 }
 
+/// A value read off a section.
+type Pick = fn(&crate::section::SectionProperties) -> f64;
+
 /// Bending and torsion stiffness along the span on a logarithmic scale.
 pub fn stiffness_svg(model: &BladeModel) -> String {
     let props = model.properties();
@@ -125,7 +128,7 @@ pub fn stiffness_svg(model: &BladeModel) -> String {
         "stiffness (N·m²), logarithmic",
     );
     fig.size(900.0, 420.0).y_log();
-    let series: [(&str, fn(&crate::section::SectionProperties) -> f64); 3] =
+    let series: [(&str, Pick); 3] =
         [("EI flap", |s| s.ei_flap), ("EI edge", |s| s.ei_edge), ("GJ", |s| s.gj)];
     for (k, (name, f)) in series.iter().enumerate() {
         let pts: Vec<(f64, f64)> = props.iter().map(|s| (s.r, f(s))).collect();

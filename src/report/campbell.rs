@@ -35,7 +35,23 @@ pub fn campbell_svg(
         .flat_map(|s| s.modes.iter().map(|m| m.frequency_hz))
         .filter(|f| f.is_finite())
         .fold(0.0, f64::max);
-    let y_top = if f_max > 0.0 { f_max * 1.08 } else { 1.0 };
+    // Modes far above every excitation line cannot be excited in the range: the plot stops a
+    // little above the highest line (or the lowest mode, whichever is higher) and says how many
+    // modes lie above it.
+    let f_exc = excitations.iter().map(|e| e.frequency_hz(rpm_max)).fold(0.0, f64::max);
+    let f_low = campbell
+        .speeds
+        .iter()
+        .flat_map(|s| s.modes.first().map(|m| m.frequency_hz))
+        .filter(|f| f.is_finite())
+        .fold(0.0, f64::max);
+    let y_full = if f_max > 0.0 { f_max * 1.08 } else { 1.0 };
+    let y_top = if f_exc > 0.0 { y_full.min((1.6 * f_exc).max(1.25 * f_low)) } else { y_full };
+    let hidden = campbell
+        .tracks
+        .iter()
+        .filter(|t| campbell.track_points(t.id).iter().all(|p| p.1 > y_top))
+        .count();
     fig.x_range(rpm_min, rpm_max).y_range(0.0, y_top);
     let (lo, hi) = (operating.0.min(operating.1), operating.0.max(operating.1));
     fig.band_x(lo, hi, palette::BAND, 0.55);
@@ -53,7 +69,8 @@ pub fn campbell_svg(
             fig.label(x, y, &format!("{}P", e.order), colour, Anchor::End);
         }
     }
-    for track in &campbell.tracks {
+    let visible = |id: usize| campbell.track_points(id).iter().any(|p| p.1 <= y_top);
+    for track in campbell.tracks.iter().filter(|t| visible(t.id)) {
         let style = LineStyle::solid(kind_colour(track.kind), 2.0);
         let runs = campbell.track_runs(track.id);
         for run in &runs {
@@ -78,7 +95,8 @@ pub fn campbell_svg(
         .collect();
     fig.markers(&outside, Marker::Ring, 9.0, palette::INK);
     fig.markers(&inside, Marker::Dot, 9.0, palette::SERIES[1]);
-    let mut kinds: Vec<ModeKind> = campbell.tracks.iter().map(|t| t.kind).collect();
+    let mut kinds: Vec<ModeKind> =
+        campbell.tracks.iter().filter(|t| visible(t.id)).map(|t| t.kind).collect();
     kinds.sort();
     kinds.dedup();
     for kind in kinds {
@@ -94,5 +112,19 @@ pub fn campbell_svg(
     fig.legend_marker("crossing", Marker::Ring, palette::INK);
     fig.legend_marker("crossing in operating range", Marker::Dot, palette::SERIES[1]);
     fig.legend_band("operating range", palette::BAND, 0.55);
+    if hidden > 0 {
+        let note = format!(
+            "{hidden} higher mode{} above {:.0} Hz, far from every excitation, not drawn",
+            if hidden == 1 { "" } else { "s" },
+            y_top
+        );
+        fig.label(
+            rpm_min + 0.01 * (rpm_max - rpm_min),
+            y_top * 0.97,
+            &note,
+            palette::MUTED,
+            Anchor::Start,
+        );
+    }
     fig.render()
 }

@@ -167,12 +167,12 @@ fn sections_section(doc: &mut HtmlReport, m: &BladeModel, drawings: &[SectionDra
         ("r (m)", Align::Right),
         ("chord (m)", Align::Right),
         ("EA (MN)", Align::Right),
-        ("EI flap (N·m²)", Align::Right),
-        ("EI edge (N·m²)", Align::Right),
-        ("GJ (N·m²)", Align::Right),
-        ("mass (kg/m)", Align::Right),
-        ("elastic centre (y/c)", Align::Right),
-        ("shear centre (y/c)", Align::Right),
+        ("EI flap (kN·m²)", Align::Right),
+        ("EI edge (kN·m²)", Align::Right),
+        ("GJ (kN·m²)", Align::Right),
+        ("m (kg/m)", Align::Right),
+        ("EC (y/c)", Align::Right),
+        ("SC (y/c)", Align::Right),
     ]);
     for st in &m.stations {
         let q = &st.section.properties;
@@ -181,15 +181,18 @@ fn sections_section(doc: &mut HtmlReport, m: &BladeModel, drawings: &[SectionDra
             fixed(q.r, 3),
             fixed(q.chord, 3),
             sig4(q.ea / 1e6),
-            sig4(q.ei_flap),
-            sig4(q.ei_edge),
-            sig4(q.gj),
+            sig4(q.ei_flap / 1e3),
+            sig4(q.ei_edge / 1e3),
+            sig4(q.gj / 1e3),
             sig4(q.mass_per_length),
             fixed(yc(q.elastic_centre[0]), 3),
             fixed(yc(q.shear_centre[0]), 3),
         ]);
     }
-    s.table("Section properties at the analysis stations.", &t);
+    s.table(
+        "Section properties at the analysis stations (EC elastic centre, SC shear centre).",
+        &t,
+    );
     for d in drawings {
         s.figure(
             format!("section-{:.3}", d.r),
@@ -252,13 +255,13 @@ fn strength_section(doc: &mut HtmlReport, m: &BladeModel, cases: &[CaseStress]) 
     );
     let mut t = Table::new(&[
         ("case", Align::Left),
-        ("radial force (kN)", Align::Right),
-        ("in-plane shear (N)", Align::Right),
-        ("out-of-plane shear (N)", Align::Right),
-        ("flap moment (N·m)", Align::Right),
-        ("edge moment (N·m)", Align::Right),
-        ("pitch moment (N·m)", Align::Right),
-        ("tip deflection (mm)", Align::Right),
+        ("radial (kN)", Align::Right),
+        ("V in plane (N)", Align::Right),
+        ("V out of plane (N)", Align::Right),
+        ("M flap (N·m)", Align::Right),
+        ("M edge (N·m)", Align::Right),
+        ("M pitch (N·m)", Align::Right),
+        ("tip (mm)", Align::Right),
     ]);
     for c in cases {
         t.row(vec![
