@@ -4,6 +4,7 @@
 //! not be written or a computation failed.
 
 mod check;
+mod demo;
 mod laminate;
 mod materials;
 mod modes;
@@ -39,6 +40,7 @@ pub struct Cli {
 #[derive(Debug, Subcommand)]
 enum Command {
     Check(check::Args),
+    Demo(demo::Args),
     Materials(materials::Args),
     Laminate(laminate::Args),
     Modes(modes::Args),
@@ -87,6 +89,7 @@ pub fn main() -> ExitCode {
     let out = Output::new(cli.quiet);
     let result = match cli.command {
         Command::Check(args) => check::run(args, &out),
+        Command::Demo(args) => demo::run(args, &out),
         Command::Materials(args) => materials::run(args, &out),
         Command::Laminate(args) => laminate::run(args, &out),
         Command::Modes(args) => modes::run(args, &out),

@@ -1,0 +1,109 @@
+//! `layloft demo`: the whole job on a built-in demo blade, end to end, in one command.
+//!
+//! The demo projects live under `layups/` in the checkout; they are also built into the binary,
+//! so that the command works from anywhere (the built-in copy is unpacked into a temporary folder
+//! when `layups/NAME/blade.toml` is not found from the working folder).
+
+use std::path::{Path, PathBuf};
+
+use anyhow::anyhow;
+
+use super::project::load_model;
+use super::report::{Destination, write_report};
+use super::{Failure, Outcome, Output};
+
+const EXAMPLES: &str = "\
+Examples:
+  layloft demo                       # the mine-fan demo: report/ and meshes/ here
+  layloft demo --blade small-wind --out /tmp/wind
+
+Both demos are invented scenarios (see layups/*/README.md). The report is report/report.html
+(open it in a browser); with --out DIR it goes to DIR.";
+
+/// A built-in demo project: its folder name and files.
+struct Demo {
+    name: &'static str,
+    files: &'static [(&'static str, &'static str)],
+}
+
+const DEMOS: [Demo; 2] = [
+    Demo {
+        name: "mine-fan",
+        files: &[
+            ("blade.toml", include_str!("../../layups/mine-fan/blade.toml")),
+            ("stations.csv", include_str!("../../layups/mine-fan/stations.csv")),
+            ("plies.csv", include_str!("../../layups/mine-fan/plies.csv")),
+            ("materials.toml", include_str!("../../layups/mine-fan/materials.toml")),
+            ("loads-nominal.csv", include_str!("../../layups/mine-fan/loads-nominal.csv")),
+            ("loads-overspeed.csv", include_str!("../../layups/mine-fan/loads-overspeed.csv")),
+            ("loads-surge.csv", include_str!("../../layups/mine-fan/loads-surge.csv")),
+            ("tip-section.dat", include_str!("../../layups/mine-fan/tip-section.dat")),
+        ],
+    },
+    Demo {
+        name: "small-wind",
+        files: &[
+            ("blade.toml", include_str!("../../layups/small-wind/blade.toml")),
+            ("stations.csv", include_str!("../../layups/small-wind/stations.csv")),
+            ("plies.csv", include_str!("../../layups/small-wind/plies.csv")),
+            ("materials.toml", include_str!("../../layups/small-wind/materials.toml")),
+            ("loads-rated.csv", include_str!("../../layups/small-wind/loads-rated.csv")),
+            ("loads-storm.csv", include_str!("../../layups/small-wind/loads-storm.csv")),
+        ],
+    },
+];
+
+/// Runs a built-in demo end to end: sections, stresses, modes, the design check and the report.
+#[derive(Debug, clap::Args)]
+#[command(after_help = EXAMPLES)]
+pub struct Args {
+    /// Which demo: mine-fan (a 1.8 m ducted mine ventilation fan) or small-wind (a 5 m small
+    /// wind turbine).
+    #[arg(long, value_name = "NAME", default_value = "mine-fan")]
+    pub blade: String,
+
+    /// Folder for the report and its files (report/ in the working folder by default).
+    #[arg(long, value_name = "DIR")]
+    pub out: Option<PathBuf>,
+}
+
+/// The demo's `blade.toml`: the checkout's copy when there is one, else the built-in copy
+/// unpacked into `scratch`.
+fn locate(demo: &Demo, scratch: &Path) -> Result<PathBuf, Failure> {
+    let here = Path::new("layups").join(demo.name).join("blade.toml");
+    if here.is_file() {
+        return Ok(here);
+    }
+    let dir = scratch.join(demo.name);
+    std::fs::create_dir_all(&dir)
+        .map_err(|e| Failure::Run(anyhow!("cannot unpack the demo into {}: {e}", dir.display())))?;
+    for (name, text) in demo.files {
+        std::fs::write(dir.join(name), text)
+            .map_err(|e| Failure::Run(anyhow!("cannot unpack the demo file {name}: {e}")))?;
+    }
+    Ok(dir.join("blade.toml"))
+}
+
+pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
+    let demo = DEMOS.iter().find(|d| d.name == args.blade).ok_or_else(|| {
+        let names: Vec<&str> = DEMOS.iter().map(|d| d.name).collect();
+        Failure::Input(anyhow!(
+            "--blade '{}': no such demo; the demos are {}",
+            args.blade,
+            names.join(", ")
+        ))
+    })?;
+    let scratch = tempfile::tempdir()
+        .map_err(|e| Failure::Run(anyhow!("cannot make a temporary folder: {e}")))?;
+    let blade = locate(demo, scratch.path())?;
+    out.note(&format!("demo '{}' (invented scenario) from {}", demo.name, blade.display()));
+    let model = load_model(&blade, out)?;
+    let dest = Destination { out: args.out.unwrap_or_else(|| PathBuf::from("report")) };
+    let passed = write_report(&model, &dest, out)?;
+    out.note(&format!(
+        "design check: {}; open {} in a browser",
+        if passed { "PASS" } else { "FAIL" },
+        dest.out.join("report.html").display()
+    ));
+    Ok(if passed { Outcome::Success } else { Outcome::CheckFailed })
+}
