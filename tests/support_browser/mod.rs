@@ -5,7 +5,7 @@
 //! Whether a missing browser fails a test is decided by [`browser_required`]: the variable
 //! `LAYLOFT_REQUIRE_BROWSER=1` (set by `.ci/run`) makes it a failure; without it the browser part
 //! is skipped with a note and only the static check runs.
-#![allow(dead_code)]
+#![allow(dead_code, unused_imports)]
 
 mod chromium;
 pub mod sketch;
