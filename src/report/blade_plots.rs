@@ -123,9 +123,9 @@ type Pick = fn(&crate::section::SectionProperties) -> f64;
 pub fn stiffness_svg(model: &BladeModel) -> String {
     let props = model.properties();
     let mut fig = Figure::new(
-        "Section stiffness along the span",
+        "Section stiffness along the span (logarithmic scale)",
         "radius from the rotor axis (m)",
-        "stiffness (N·m²), logarithmic",
+        "stiffness (N·m²)",
     );
     fig.size(900.0, 420.0).y_log();
     let series: [(&str, Pick); 3] =

@@ -261,7 +261,6 @@ fn strength_section(doc: &mut HtmlReport, m: &BladeModel, cases: &[CaseStress]) 
         ("M flap (N·m)", Align::Right),
         ("M edge (N·m)", Align::Right),
         ("M pitch (N·m)", Align::Right),
-        ("tip (mm)", Align::Right),
     ]);
     for c in cases {
         t.row(vec![
@@ -272,10 +271,27 @@ fn strength_section(doc: &mut HtmlReport, m: &BladeModel, cases: &[CaseStress]) 
             sig4(c.root.moment[1]),
             sig4(c.root.moment[2]),
             sig4(c.root.moment[0]),
-            sig4(c.tip_deflection.total * 1e3),
         ]);
     }
-    s.table("Root reactions (rotor frame, moments about the pitch axis at the root) and tip deflection.", &t);
+    s.table("Root reactions (rotor frame, moments about the pitch axis at the root).", &t);
+    let mut t = Table::new(&[
+        ("case", Align::Left),
+        ("tip deflection (mm)", Align::Right),
+        ("in plane (mm)", Align::Right),
+        ("out of plane (mm)", Align::Right),
+        ("elastic tip twist (°)", Align::Right),
+    ]);
+    for c in cases {
+        let d = &c.tip_deflection;
+        t.row(vec![
+            c.name.clone(),
+            sig4(d.total * 1e3),
+            sig4(d.in_plane * 1e3),
+            sig4(d.out_of_plane * 1e3),
+            fixed(d.twist.to_degrees(), 3),
+        ]);
+    }
+    s.table("Tip deflection under the factored loads (small deflections, centrifugal stiffening not counted).", &t);
     if cases.iter().any(|c| c.pitch_sweep.len() > 1) {
         s.figure(
             "pitch-moment",
