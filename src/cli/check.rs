@@ -8,11 +8,10 @@ use anyhow::anyhow;
 use serde_json::json;
 
 use layloft::check::{DesignCheck, Status, evaluate};
-use layloft::modal::ModalAnalysis;
 use layloft::report::{Align, Table};
 use layloft::stress::analyse_cases;
 
-use super::project::load_model;
+use super::project::{load_model, run_modal};
 use super::{Failure, Outcome, Output};
 
 const EXAMPLES: &str = "\
@@ -40,9 +39,7 @@ pub struct Args {
 fn text(project: &str, check: &DesignCheck) -> String {
     let mut out = String::new();
     let _ = writeln!(out, "layloft check — {project}");
-    for c in layloft::CAUTIONS {
-        let _ = writeln!(out, "  ! {c}");
-    }
+    out.push_str(&layloft::report::cautions_text());
     let _ = writeln!(out);
     let mut t = Table::new(&[
         ("criterion", Align::Left),
@@ -86,26 +83,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         Vec::new()
     };
     let modal = match criteria.frequency_margin_pct {
-        Some(_) => {
-            let p = &model.project;
-            let sections = model.properties();
-            let bar = out.progress(1, "speeds");
-            let a = ModalAnalysis::run(
-                &sections,
-                &p.rotor,
-                &p.modal,
-                &p.criteria,
-                None,
-                None,
-                &mut |_, total| {
-                    bar.set_length(total as u64);
-                    bar.inc(1)
-                },
-            )
-            .map_err(layloft::Error::from)?;
-            bar.finish();
-            Some(a)
-        }
+        Some(_) => Some(run_modal(&model, out, None, None)?),
         None => None,
     };
     let check = evaluate(&model, &stress, modal.as_ref());

@@ -5,12 +5,12 @@ use std::path::PathBuf;
 
 use anyhow::anyhow;
 
-use layloft::modal::{ModalAnalysis, SpeedRange, export_matrix_market};
+use layloft::modal::{SpeedRange, export_matrix_market};
 use layloft::report::{
     campbell_csv, campbell_svg, modal_json, modal_text, mode_shapes_csv, write_atomic,
 };
 
-use super::project::load_model;
+use super::project::{load_model, run_modal};
 use super::{Failure, Outcome, Output};
 
 const EXAMPLES: &str = "\
@@ -83,23 +83,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let range = args.rpm.as_deref().map(parse_range).transpose()?;
     let model = load_model(&args.blade, out)?;
     let p = &model.project;
-    let sections = model.properties();
-    let steps = range.as_ref().map(|r| r.speeds(&[]).len()).unwrap_or(0).max(1) as u64;
-    let bar = out.progress(steps, "speeds");
-    let analysis = ModalAnalysis::run(
-        &sections,
-        &p.rotor,
-        &p.modal,
-        &p.criteria,
-        range,
-        args.modes,
-        &mut |_, total| {
-            bar.set_length(total as u64);
-            bar.inc(1)
-        },
-    )
-    .map_err(layloft::Error::from)?;
-    bar.finish();
+    let analysis = run_modal(&model, out, range, args.modes)?;
     let title = format!("Campbell diagram — {}", p.name);
     if let Some(path) = &args.svg {
         let svg = campbell_svg(

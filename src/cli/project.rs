@@ -4,6 +4,7 @@ use std::path::Path;
 
 use layloft::analysis::BladeModel;
 use layloft::input::read_project;
+use layloft::modal::{ModalAnalysis, SpeedRange};
 
 use super::{Failure, Output};
 
@@ -19,4 +20,32 @@ pub fn load_model(path: &Path, out: &Output) -> Result<BladeModel, Failure> {
         out.warn(&w.to_string());
     }
     Ok(model)
+}
+
+/// The modal stage of a model (speed range and mode count from the project unless given), with a
+/// progress bar over the speeds on a terminal.
+pub fn run_modal(
+    model: &BladeModel,
+    out: &Output,
+    range: Option<SpeedRange>,
+    modes: Option<usize>,
+) -> Result<ModalAnalysis, Failure> {
+    let p = &model.project;
+    let sections = model.properties();
+    let bar = out.progress(1, "speeds");
+    let analysis = ModalAnalysis::run(
+        &sections,
+        &p.rotor,
+        &p.modal,
+        &p.criteria,
+        range,
+        modes,
+        &mut |_, total| {
+            bar.set_length(total as u64);
+            bar.inc(1)
+        },
+    )
+    .map_err(layloft::Error::from)?;
+    bar.finish();
+    Ok(analysis)
 }

@@ -10,14 +10,13 @@ use serde_json::Value;
 
 use layloft::analysis::BladeModel;
 use layloft::check::evaluate;
-use layloft::modal::ModalAnalysis;
 use layloft::report::html::utc_date;
 use layloft::report::{
     ReportInputs, SectionDrawing, SectionsReport, blade_report, campbell_csv, campbell_svg,
     modal_json, mode_shapes_csv, section_svg, stress_csv, stress_json, stress_svg, write_atomic,
 };
 
-use super::project::load_model;
+use super::project::{load_model, run_modal};
 use super::{Failure, Outcome, Output};
 
 const EXAMPLES: &str = "\
@@ -74,22 +73,7 @@ pub fn write_report(model: &BladeModel, dest: &Destination, out: &Output) -> Res
         bar.finish();
         all
     };
-    let sections = model.properties();
-    let bar = out.progress(1, "speeds");
-    let modal = ModalAnalysis::run(
-        &sections,
-        &p.rotor,
-        &p.modal,
-        &p.criteria,
-        None,
-        None,
-        &mut |_, total| {
-            bar.set_length(total as u64);
-            bar.inc(1)
-        },
-    )
-    .map_err(layloft::Error::from)?;
-    bar.finish();
+    let modal = run_modal(model, out, None, None)?;
     let nominal =
         modal.model.modes(p.rotor.rpm_nominal, p.modal.modes).map_err(layloft::Error::from)?;
     let check = evaluate(model, &stress, Some(&modal));

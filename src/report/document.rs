@@ -3,6 +3,8 @@
 //! vibration and tooling, each with its plots and tables.
 
 use super::html::HtmlReport;
+use super::modal_text::crossings_table;
+use super::stress::critical_table;
 use super::{
     Align, Table, campbell_svg, fixed, mass_svg, mode_shapes_svg, pitch_moment_svg, planform_svg,
     sig4, stiffness_svg, stress_svg, twist_svg,
@@ -220,33 +222,7 @@ fn strength_section(doc: &mut HtmlReport, m: &BladeModel, cases: &[CaseStress]) 
          ratios by Tsai–Wu, maximum stress, maximum strain and Hashin. The reserve factor is the \
          strength ratio of the governing criterion at the factored load.",
     );
-    let mut t = Table::new(&[
-        ("case", Align::Left),
-        ("speed (rpm)", Align::Right),
-        ("load factor", Align::Right),
-        ("reserve factor", Align::Right),
-        ("r (m)", Align::Right),
-        ("where", Align::Left),
-        ("ply", Align::Left),
-        ("criterion, mode", Align::Left),
-    ]);
-    for c in cases {
-        match &c.critical {
-            Some(k) => t.row(vec![
-                c.name.clone(),
-                fixed(c.rpm, 0),
-                fixed(c.load_factor, 2),
-                fixed(k.reserve_factor, 2),
-                fixed(k.r, 3),
-                k.location.to_string(),
-                format!("{} ({}, {}°)", k.ply_id, k.material, fixed(k.angle_deg, 0)),
-                format!("{}, {}", k.criterion.label(), k.mode.label()),
-            ]),
-            None => {
-                t.row(vec![c.name.clone(), fixed(c.rpm, 0), fixed(c.load_factor, 2), "none".into()])
-            }
-        }
-    }
+    let t = critical_table(cases);
     s.table("Lowest reserve factor of each load case and where it occurs.", &t);
     s.figure(
         "reserve-map",
@@ -366,22 +342,7 @@ fn vibration_section(
         );
     }
     if !a.crossings.is_empty() {
-        let mut t = Table::new(&[
-            ("mode", Align::Left),
-            ("excitation", Align::Left),
-            ("speed (rpm)", Align::Right),
-            ("frequency (Hz)", Align::Right),
-        ]);
-        for c in &a.crossings {
-            let label = a
-                .campbell
-                .tracks
-                .iter()
-                .find(|t| t.id == c.track)
-                .map_or(String::new(), |t| t.label.clone());
-            let e = crate::modal::Excitation { order: c.order, blade_passing: c.blade_passing };
-            t.row(vec![label, e.label(), fixed(c.rpm, 0), sig4(c.frequency_hz)]);
-        }
+        let t = crossings_table(a);
         s.table("Crossings of the modes with the excitation lines inside the speed range.", &t);
     }
     if let Some(set) = nominal {

@@ -30,5 +30,5 @@ pub use section_svg::{section_svg, section_svg_names};
 pub use sections::{SectionsReport, laminate_label};
 pub use stress::{stress_csv, stress_json, stress_text};
 pub use stress_map::stress_svg;
-pub use table::{Align, Table, fixed, sig4};
+pub use table::{Align, Table, cautions_text, fixed, sig4};
 pub use write::{write_atomic, write_atomic_with};

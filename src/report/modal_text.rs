@@ -10,9 +10,7 @@ use crate::modal::ModalAnalysis;
 pub fn modal_text(project: &str, a: &ModalAnalysis) -> String {
     let mut out = String::new();
     let _ = writeln!(out, "layloft modes — {project}");
-    for c in crate::CAUTIONS {
-        let _ = writeln!(out, "  ! {c}");
-    }
+    out.push_str(&super::cautions_text());
     let _ = writeln!(out);
     let first = a.campbell.speeds.first();
     let mut headers: Vec<(String, Align)> =
@@ -76,9 +74,8 @@ pub fn modal_text(project: &str, a: &ModalAnalysis) -> String {
         };
         let _ = writeln!(out, "  at {} speed ({} rpm): {verdict}", m.name, fixed(m.rpm, 0));
     }
-    let inside: Vec<_> = a.crossings.iter().collect();
     let _ = writeln!(out);
-    if inside.is_empty() {
+    if a.crossings.is_empty() {
         let _ = writeln!(
             out,
             "No mode crosses an excitation line between {} and {} rpm.",
@@ -92,30 +89,30 @@ pub fn modal_text(project: &str, a: &ModalAnalysis) -> String {
             fixed(a.range.from_rpm, 0),
             fixed(a.range.to_rpm, 0)
         );
-        let mut t = Table::new(&[
-            ("track", Align::Right),
-            ("mode", Align::Left),
-            ("excitation", Align::Left),
-            ("speed (rpm)", Align::Right),
-            ("frequency (Hz)", Align::Right),
-        ]);
-        for c in inside {
-            let label = a
-                .campbell
-                .tracks
-                .iter()
-                .find(|t| t.id == c.track)
-                .map_or(String::new(), |t| t.label.clone());
-            let exc = crate::modal::Excitation { order: c.order, blade_passing: c.blade_passing };
-            t.row(vec![
-                c.track.to_string(),
-                label,
-                exc.label(),
-                fixed(c.rpm, 0),
-                sig4(c.frequency_hz),
-            ]);
-        }
+        let t = crossings_table(a);
         out.push_str(&t.render(2));
     }
     out
+}
+
+/// The crossings of the modes with the excitation lines inside the speed range, one row each.
+pub fn crossings_table(a: &ModalAnalysis) -> Table {
+    let mut t = Table::new(&[
+        ("track", Align::Right),
+        ("mode", Align::Left),
+        ("excitation", Align::Left),
+        ("speed (rpm)", Align::Right),
+        ("frequency (Hz)", Align::Right),
+    ]);
+    for c in &a.crossings {
+        let label = a
+            .campbell
+            .tracks
+            .iter()
+            .find(|t| t.id == c.track)
+            .map_or(String::new(), |t| t.label.clone());
+        let exc = crate::modal::Excitation { order: c.order, blade_passing: c.blade_passing };
+        t.row(vec![c.track.to_string(), label, exc.label(), fixed(c.rpm, 0), sig4(c.frequency_hz)]);
+    }
+    t
 }

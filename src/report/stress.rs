@@ -145,23 +145,17 @@ fn csv_text(s: &str) -> String {
     }
 }
 
-/// The terminal summary of `layloft stress`.
-pub fn stress_text(model: &BladeModel, cases: &[CaseStress]) -> String {
-    let mut out = String::new();
-    let _ = writeln!(out, "layloft stress — {}", model.project.name);
-    for c in crate::CAUTIONS {
-        let _ = writeln!(out, "  ! {c}");
-    }
-    let _ = writeln!(out);
+/// The lowest reserve factor of each case with where it occurs, one row per case.
+pub fn critical_table(cases: &[CaseStress]) -> Table {
     let mut t = Table::new(&[
         ("case", Align::Left),
-        ("rpm", Align::Right),
-        ("factor", Align::Right),
-        ("min RF", Align::Right),
+        ("speed (rpm)", Align::Right),
+        ("load factor", Align::Right),
+        ("reserve factor", Align::Right),
         ("r (m)", Align::Right),
         ("where", Align::Left),
         ("ply", Align::Left),
-        ("criterion / mode", Align::Left),
+        ("criterion, mode", Align::Left),
     ]);
     for c in cases {
         match &c.critical {
@@ -172,14 +166,24 @@ pub fn stress_text(model: &BladeModel, cases: &[CaseStress]) -> String {
                 fixed(k.reserve_factor, 2),
                 fixed(k.r, 3),
                 k.location.to_string(),
-                format!("{} ({} {}°)", k.ply_id, k.material, fixed(k.angle_deg, 0)),
-                format!("{} / {}", k.criterion.label(), k.mode.label()),
+                format!("{} ({}, {}°)", k.ply_id, k.material, fixed(k.angle_deg, 0)),
+                format!("{}, {}", k.criterion.label(), k.mode.label()),
             ]),
             None => {
                 t.row(vec![c.name.clone(), fixed(c.rpm, 0), fixed(c.load_factor, 2), "none".into()])
             }
         }
     }
+    t
+}
+
+/// The terminal summary of `layloft stress`.
+pub fn stress_text(model: &BladeModel, cases: &[CaseStress]) -> String {
+    let mut out = String::new();
+    let _ = writeln!(out, "layloft stress — {}", model.project.name);
+    out.push_str(&super::cautions_text());
+    let _ = writeln!(out);
+    let t = critical_table(cases);
     let _ =
         writeln!(out, "Lowest reserve factor per load case (strength ratio at the factored load):");
     out.push_str(&t.render(2));

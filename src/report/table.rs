@@ -97,6 +97,34 @@ impl Table {
     }
 }
 
+/// Words of `text` wrapped to lines of at most `width` characters: the first line after
+/// `first`, the others after `indent`.
+pub(crate) fn wrap(out: &mut String, first: &str, indent: &str, text: &str, width: usize) {
+    let mut line = first.to_string();
+    for word in text.split_whitespace() {
+        if line.chars().count() + word.chars().count() + 1 > width && !line.trim().is_empty() {
+            out.push_str(line.trim_end());
+            out.push('\n');
+            line = indent.to_string();
+        }
+        if !line.trim().is_empty() {
+            line.push(' ');
+        }
+        line.push_str(word);
+    }
+    out.push_str(line.trim_end());
+    out.push('\n');
+}
+
+/// The standing cautions as a block for terminal reports: a heading and one wrapped line each.
+pub fn cautions_text() -> String {
+    let mut out = String::from("Caution\n");
+    for c in crate::CAUTIONS {
+        wrap(&mut out, "  !", "    ", c, 96);
+    }
+    out
+}
+
 /// A number with about four significant digits: fixed where that reads well, scientific for
 /// very large or small magnitudes, "-" for a value that is not finite.
 pub fn sig4(v: f64) -> String {

@@ -2,21 +2,11 @@
 
 use std::time::{SystemTime, UNIX_EPOCH};
 
-/// `text` with the five characters that HTML gives a meaning (`& < > " '`) written as
-/// character references, safe both as element content and as a quoted attribute value.
+/// `text` with the characters that HTML gives a meaning (`& < > " '`) written as character
+/// references (and control characters dropped): the XML escaping of the SVG kit, which is safe
+/// both as HTML element content and as a quoted attribute value.
 pub(crate) fn escape(text: &str) -> String {
-    let mut out = String::with_capacity(text.len());
-    for c in text.chars() {
-        match c {
-            '&' => out.push_str("&amp;"),
-            '<' => out.push_str("&lt;"),
-            '>' => out.push_str("&gt;"),
-            '"' => out.push_str("&quot;"),
-            '\'' => out.push_str("&#39;"),
-            _ => out.push(c),
-        }
-    }
-    out
+    crate::report::svg::escape(text)
 }
 
 /// An element id from free text: ASCII letters, digits, `-` and `_` kept, every other run of
@@ -97,7 +87,7 @@ mod tests {
     fn markup_characters_are_escaped() {
         assert_eq!(
             escape(r#"<b>"A&B"</b> 'x'"#),
-            "&lt;b&gt;&quot;A&amp;B&quot;&lt;/b&gt; &#39;x&#39;"
+            "&lt;b&gt;&quot;A&amp;B&quot;&lt;/b&gt; &apos;x&apos;"
         );
         assert_eq!(escape("±45° N·m"), "±45° N·m");
     }

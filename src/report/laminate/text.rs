@@ -2,6 +2,9 @@
 
 use std::fmt::Write as _;
 
+use crate::report::fixed;
+use crate::report::table::wrap;
+
 use nalgebra::Matrix3;
 
 use super::{LaminateReport, face_state};
@@ -27,31 +30,6 @@ fn g(v: f64) -> String {
 fn angle(deg: f64) -> String {
     let r = (deg * 100.0).round() / 100.0;
     if r.fract() == 0.0 { format!("{r:.0}") } else { format!("{r}") }
-}
-
-/// Words of `text` wrapped to lines of at most `width` characters, each after `indent`.
-fn wrap(out: &mut String, first: &str, indent: &str, text: &str, width: usize) {
-    let mut line = first.to_string();
-    for word in text.split_whitespace() {
-        if line.chars().count() + word.chars().count() + 1 > width && !line.trim().is_empty() {
-            let _ = writeln!(out, "{}", line.trim_end());
-            line = indent.to_string();
-        }
-        if !line.trim().is_empty() {
-            line.push(' ');
-        }
-        line.push_str(word);
-    }
-    let _ = writeln!(out, "{}", line.trim_end());
-}
-
-/// Fixed `digits` decimals, without a "-0.00" for a value that rounds to zero.
-fn fixed(v: f64, digits: usize) -> String {
-    let s = format!("{v:.digits$}");
-    match s.strip_prefix('-') {
-        Some(rest) if rest.chars().all(|c| c == '0' || c == '.') => rest.to_string(),
-        _ => s,
-    }
 }
 
 fn short_mode(m: FailureMode) -> &'static str {
@@ -133,10 +111,8 @@ pub(super) fn report(r: &LaminateReport) -> String {
         g(lam.thickness() * 1e3),
         g(lam.areal_mass())
     );
-    let _ = writeln!(out, "\nCaution");
-    for c in crate::CAUTIONS {
-        wrap(&mut out, "  !", "    ", c, 96);
-    }
+    out.push('\n');
+    out.push_str(&crate::report::cautions_text());
 
     let _ = writeln!(out, "\nStack");
     let _ = writeln!(

@@ -31,11 +31,7 @@ pub(super) fn n(v: f64) -> String {
 
 /// Text escaped for SVG character data and attribute values.
 pub(super) fn esc(s: &str) -> String {
-    s.replace('&', "&amp;")
-        .replace('<', "&lt;")
-        .replace('>', "&gt;")
-        .replace('"', "&quot;")
-        .replace('\'', "&apos;")
+    crate::report::svg::escape(s)
 }
 
 /// Maps chord-frame points (m) to drawing coordinates (mm, y down).

@@ -3,24 +3,8 @@
 use std::fmt::Write as _;
 
 use super::SectionsReport;
+use crate::report::table::wrap;
 use crate::report::{Align, Table, fixed, sig4};
-
-/// Words of `text` wrapped to lines of at most `width` characters: the first after `first`, the
-/// others after `indent`.
-fn wrap(out: &mut String, first: &str, indent: &str, text: &str, width: usize) {
-    let mut line = first.to_string();
-    for word in text.split_whitespace() {
-        if line.chars().count() + word.chars().count() + 1 > width && !line.trim().is_empty() {
-            let _ = writeln!(out, "{}", line.trim_end());
-            line = indent.to_string();
-        }
-        if !line.trim().is_empty() {
-            line.push(' ');
-        }
-        line.push_str(word);
-    }
-    let _ = writeln!(out, "{}", line.trim_end());
-}
 
 pub(super) fn report(r: &SectionsReport<'_>) -> String {
     let model = r.model;
@@ -39,10 +23,8 @@ pub(super) fn report(r: &SectionsReport<'_>) -> String {
         ),
         96,
     );
-    let _ = writeln!(out, "\nCaution");
-    for c in crate::CAUTIONS {
-        wrap(&mut out, "  !", "    ", c, 96);
-    }
+    out.push('\n');
+    out.push_str(&crate::report::cautions_text());
 
     let m = &r.mass;
     let _ = writeln!(out, "\nBlade");
