@@ -178,3 +178,41 @@ fn clearances_larger_than_the_blade() {
         "{m}"
     );
 }
+
+/// The fixture with a distributed load file `loads.csv` holding `rows`.
+fn with_loads(rows: &str) -> String {
+    let dir = tempfile::tempdir().unwrap();
+    for entry in fs::read_dir(FIXTURE).unwrap() {
+        let entry = entry.unwrap();
+        fs::copy(entry.path(), dir.path().join(entry.file_name())).unwrap();
+    }
+    let toml = fs::read_to_string(dir.path().join("blade.toml")).unwrap();
+    fs::write(
+        dir.path().join("blade.toml"),
+        toml.replace("rpm = 330\n", "rpm = 330\ndistributed = \"loads.csv\"\n"),
+    )
+    .unwrap();
+    fs::write(
+        dir.path().join("loads.csv"),
+        format!("r_m,f_flap_N_m,f_edge_N_m,m_pitch_Nm_m\n{rows}"),
+    )
+    .unwrap();
+    run(&dir.path().join("blade.toml"))
+        .unwrap_err()
+        .replace(&dir.path().display().to_string(), "DIR")
+}
+
+#[test]
+fn load_file_running_outside_the_blade() {
+    let m = with_loads("0.5,100,10,0\n2.8,200,20,0\n");
+    assert_eq!(
+        m,
+        "DIR/loads.csv line 3, r_m: the load runs outside the blade: expected a radius in 0.5..2.5 m, found 2.8"
+    );
+}
+
+#[test]
+fn load_file_with_a_cell_that_is_not_a_number() {
+    let m = with_loads("0.5,100,10,0\n2.5,lots,20,0\n");
+    assert_eq!(m, "DIR/loads.csv line 3, f_flap_N_m: 'lots' is not a number");
+}

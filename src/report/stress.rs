@@ -41,6 +41,36 @@ fn critical_json(c: &Critical) -> Value {
     })
 }
 
+/// Resultants along the span: rotor frame (force and moment about the pitch axis at the cut)
+/// and the chord frame's beam resultants.
+fn resultants_json(l: &crate::loads::SpanLoads) -> Value {
+    let rows: Vec<Value> =
+        l.r.iter()
+            .zip(&l.rotor)
+            .zip(&l.chord)
+            .zip(&l.chord_angle)
+            .map(|(((r, rot), b), phi)| {
+                json!({
+                    "r_m": r,
+                    "chord_angle_deg": phi.to_degrees(),
+                    "rotor_force_x_N": rot.force[0],
+                    "rotor_force_y_N": rot.force[1],
+                    "rotor_force_z_N": rot.force[2],
+                    "rotor_moment_x_Nm": rot.moment[0],
+                    "rotor_moment_y_Nm": rot.moment[1],
+                    "rotor_moment_z_Nm": rot.moment[2],
+                    "axial_force_N": b.n,
+                    "torque_Nm": b.t,
+                    "flap_moment_Nm": b.m_flap,
+                    "edge_moment_Nm": b.m_edge,
+                    "flap_shear_N": b.v_flap,
+                    "edge_shear_N": b.v_edge,
+                })
+            })
+            .collect();
+    Value::Array(rows)
+}
+
 /// The JSON object of `layloft stress`: `cases`, each with `name`, `min_reserve_factor` and where
 /// it occurs, `root` reactions, tip deflection, the pitch sweep and per-station minima.
 pub fn stress_json(model: &BladeModel, cases: &[CaseStress]) -> Value {
@@ -82,6 +112,7 @@ pub fn stress_json(model: &BladeModel, cases: &[CaseStress]) -> Value {
                     "centrifugal_twisting_moment_Nm": p.centrifugal_twisting_moment,
                 })).collect::<Vec<_>>(),
                 "stations": stations,
+                "resultants": resultants_json(&c.loads),
             })
         })
         .collect();

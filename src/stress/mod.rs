@@ -173,6 +173,8 @@ pub struct CaseStress {
     pub ply_worst: Vec<PlyWorst>,
     /// Root reactions across the pitch range.
     pub pitch_sweep: Vec<PitchReaction>,
+    /// Resultants along the span (rotor and chord frames) at the load grid.
+    pub loads: crate::loads::SpanLoads,
 }
 
 fn check_cte(model: &BladeModel, case: &LoadCaseSpec) -> Result<(), StressError> {
@@ -233,6 +235,7 @@ pub fn analyse_case(model: &BladeModel, case: &LoadCaseSpec) -> Result<CaseStres
         critical,
         ply_worst,
         pitch_sweep,
+        loads,
     })
 }
 
