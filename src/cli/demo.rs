@@ -15,7 +15,7 @@ use super::{Failure, Outcome, Output};
 const EXAMPLES: &str = "\
 Examples:
   layloft demo                       # the mine-fan demo: report/ and meshes/ here
-  layloft demo --blade small-wind --out /tmp/wind
+  layloft demo --blade small-wind --out wind-report
 
 Both demos are invented scenarios (see layups/*/README.md). The report is report/report.html
 (open it in a browser); with --out DIR it goes to DIR.";
