@@ -7,6 +7,7 @@ mod laminate;
 mod materials;
 mod output;
 mod pairs;
+mod tooling;
 
 use std::process::ExitCode;
 
@@ -34,6 +35,7 @@ pub struct Cli {
 enum Command {
     Materials(materials::Args),
     Laminate(laminate::Args),
+    Tooling(tooling::Args),
 }
 
 /// How a command ended, other than by an error.
@@ -76,6 +78,7 @@ pub fn main() -> ExitCode {
     let result = match cli.command {
         Command::Materials(args) => materials::run(args, &out),
         Command::Laminate(args) => laminate::run(args, &out),
+        Command::Tooling(args) => tooling::run(args, &out),
     };
     match result {
         Ok(Outcome::Success) => ExitCode::SUCCESS,

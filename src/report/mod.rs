@@ -4,10 +4,12 @@
 
 pub mod html;
 mod table;
+mod tooling;
 mod write;
 
 pub use html::HtmlReport;
 pub use table::{Align, Table, fixed, sig4};
+pub use tooling::ToolingReport;
 pub use write::{write_atomic, write_atomic_with};
 mod laminate;
 

@@ -38,6 +38,8 @@
 //! # }
 //! ```
 
+mod blade_parts;
+mod blade_surface;
 mod cap;
 mod cells;
 mod check;
@@ -47,21 +49,37 @@ mod grid;
 mod intersect;
 mod loft;
 mod mesh;
+mod mould;
+mod mould_block;
+mod orient;
 mod polygon;
 mod spatial;
 mod stl;
+mod summary;
 mod surface;
 mod trim;
 mod vec3;
 
+pub use blade_parts::{
+    BladeTooling, EndShape, EndSpheres, Part, PartKind, ToolingParams, build_tooling,
+};
+pub use blade_surface::CoreEnd;
 pub use cells::{Cell, WebPosition, split_cells};
 pub use check::{CheckParams, MeshSummary, check_solid};
 pub use draft::{DraftReport, evaluate_draft};
 pub use error::{End, MeshError, Place};
 pub use grid::LoftParams;
-pub use loft::{LoftedSolid, loft_annulus, loft_hollow, loft_solid};
+pub use loft::{FacetRanges, LoftedSolid, PartingLines, loft_annulus, loft_hollow, loft_solid};
 pub use mesh::{BoundingBox, Mesh, box_mesh};
+pub use mould::{MouldHalf, MouldParams, Undercut, build_moulds};
 pub use polygon::{loft_polygons, triangulate_polygon};
-pub use stl::{LengthUnit, StlFormat, StlOptions, WrittenPart, encode_stl, write_parts, write_stl};
+pub use stl::{
+    LengthUnit, StlFormat, StlOptions, WrittenPart, encode_stl, write_parts,
+    write_parts_with_progress, write_stl,
+};
+pub use summary::{
+    MeltCheck, MeltFinding, PartMass, ScheduleContent, ToolingSummary, melt_check,
+    schedule_content, summarise,
+};
 pub use surface::{ChainEnds, EndKind, FnSurface, SpanSurface, contour_polygon, polygon_area};
 pub use trim::{EndTrim, Trims};
