@@ -74,11 +74,13 @@ fn input(e: impl Into<Error>) -> Failure {
     Failure::Input(e.into().into())
 }
 
-/// A mesh error is bad input when it is about the settings, else a failed computation.
-fn mesh_failure(e: MeshError) -> Failure {
+/// A mesh error is bad input when it is about the settings (named with the project file), else
+/// a failed computation.
+fn mesh_failure(file: &str, e: MeshError) -> Failure {
     match e {
-        MeshError::Parameter { .. } | MeshError::Settings(_) | MeshError::Unit(_) => {
-            Failure::Input(Error::from(e).into())
+        MeshError::Settings(text) => Failure::Input(anyhow!("{file}: {text}")),
+        MeshError::Parameter { .. } | MeshError::Unit(_) => {
+            Failure::Input(anyhow!("{file}: {}", Error::from(e)))
         }
         other => Failure::Run(anyhow!("the tooling cannot be built: {other}")),
     }
@@ -92,7 +94,7 @@ fn configure(args: &Args) -> Result<Config, Failure> {
         blade.section_layout(r, project.sections.contour_points).map_err(input)?;
     }
     let spec = project.tooling.clone().unwrap_or_default();
-    let mut params = ToolingParams::from_spec(&spec).map_err(mesh_failure)?;
+    let mut params = ToolingParams::from_spec(&spec).map_err(|e| mesh_failure(&project.file, e))?;
     if let Some(text) = &args.tolerance_mm {
         match text.trim().parse::<f64>() {
             Ok(t) if t.is_finite() && t > 0.0 => params.tolerance = t * MM,
@@ -117,7 +119,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         b.inc(1);
         let _ = done;
     })
-    .map_err(mesh_failure)?;
+    .map_err(|e| mesh_failure(&config.project.file, e))?;
     drop(bar);
     let parts: Vec<(&str, &layloft::tooling::Mesh)> =
         tooling.parts.iter().map(|p| (p.name.as_str(), &p.mesh)).collect();

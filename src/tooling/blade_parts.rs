@@ -252,12 +252,12 @@ pub fn build_tooling(
     let inner = BladeSurface { surfaces: &surfaces, side: Side::Inner, pitch, span, back };
     let loft = LoftParams { tolerance: params.tolerance, ..LoftParams::default() };
 
-    // Where the cores close at the leading and trailing edges, solved every 3 mm or so along the
+    // Where the cores close at the leading and trailing edges, solved every 4 mm or so along the
     // span and interpolated (each cut keeps a tenth of the least core thickness clear of where the
     // inner chains stop facing each other, far more than the interpolation moves it).
     let radii = span_samples(span);
     let cut_radii: Vec<f64> = {
-        let n = ((span[1] - span[0]) / 3e-3).ceil().clamp(48.0, 1500.0) as usize;
+        let n = ((span[1] - span[0]) / 4e-3).ceil().clamp(48.0, 600.0) as usize;
         (0..=n).map(|i| span[0] + (span[1] - span[0]) * i as f64 / n as f64).collect()
     };
     let base = |x: f64| surfaces.thickness(x, Surface::Upper, 1.0);

@@ -64,10 +64,10 @@ impl SpanSurface for BladeSurface<'_> {
     }
 }
 
-/// The parameter of a chain's most forward point (least `y`): the least of 241 samples, refined
+/// The parameter of a chain's most forward point (least `y`): the least of 121 samples, refined
 /// by golden-section search between its neighbours.
 pub(crate) fn forward_parameter(chain: &dyn Fn(f64) -> [f64; 2]) -> f64 {
-    const N: usize = 240;
+    const N: usize = 120;
     let i = (0..=N)
         .min_by(|&a, &b| chain(a as f64 / N as f64)[0].total_cmp(&chain(b as f64 / N as f64)[0]))
         .unwrap_or(0);
@@ -87,9 +87,9 @@ pub(crate) fn forward_parameter(chain: &dyn Fn(f64) -> [f64; 2]) -> f64 {
     [0.0, m, 1.0].into_iter().min_by(|&p, &q| chain(p)[0].total_cmp(&chain(q)[0])).unwrap_or(m)
 }
 
-/// Sample radii spread over `span`, about one per millimetre (at least 64, at most 4000).
+/// Sample radii spread over `span`, about one per millimetre (at least 64, at most 1200).
 pub(crate) fn span_samples(span: [f64; 2]) -> Vec<f64> {
-    let n = ((span[1] - span[0]) / 1e-3).ceil().clamp(64.0, 4000.0) as usize;
+    let n = ((span[1] - span[0]) / 1e-3).ceil().clamp(64.0, 1200.0) as usize;
     (0..=n).map(|i| span[0] + (span[1] - span[0]) * i as f64 / n as f64).collect()
 }
 
