@@ -107,12 +107,13 @@ fn the_text_summary_names_what_an_engineer_needs() {
     ]);
     assert_eq!(code, Some(0), "{stderr}");
     for text in [
-        "ASCII STL in mm; chordal tolerance 0.2 mm",
+        "ASCII STL in mm; chordal tolerance 0.2000 mm",
         "Caution",
         "lead or cadmium",
-        "core-1.stl",
-        "mould-lower.stl",
-        "Core at the trailing edge",
+        "core-1 ",
+        "mould-lower ",
+        "each part in PART.stl under",
+        "Core at the trailing edge: the last core closes",
         "Core alloy: bi58sn42, melts 138..138 °C",
         "ok   melts out in the cure",
         "undercuts of the upper half",

@@ -113,11 +113,10 @@ fn configure(args: &Args) -> Result<Config, Failure> {
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let config = configure(&args)?;
     let mut bar = None;
-    let tooling = build_tooling(&config.blade, &config.params, &mut |done, total, stage| {
+    let tooling = build_tooling(&config.blade, &config.params, &mut |_, total, stage| {
         let b = bar.get_or_insert_with(|| out.progress(total as u64, "lofting"));
-        b.set_message(&format!("lofting: {stage}"));
+        b.set_message(&format!("lofted {stage}"));
         b.inc(1);
-        let _ = done;
     })
     .map_err(|e| mesh_failure(&config.project.file, e))?;
     drop(bar);

@@ -32,6 +32,29 @@ pub struct ToolingReport<'a> {
     pub format: &'a str,
 }
 
+/// `text` wrapped at 96 columns, the first line after `first`, the others after `rest`.
+fn wrap(text: &str, first: &str, rest: &str) -> String {
+    let mut out = String::new();
+    let mut line = first.to_string();
+    let mut empty = true;
+    for word in text.split_whitespace() {
+        if !empty && line.chars().count() + 1 + word.chars().count() > 96 {
+            out.push_str(&line);
+            out.push('\n');
+            line = rest.to_string();
+            empty = true;
+        }
+        if !empty {
+            line.push(' ');
+        }
+        line.push_str(word);
+        empty = false;
+    }
+    out.push_str(&line);
+    out.push('\n');
+    out
+}
+
 fn num(v: f64) -> Value {
     if v.is_finite() { json!(v) } else { Value::Null }
 }
@@ -55,28 +78,38 @@ impl ToolingReport<'_> {
         fixed(v * u.per_metre(), u.decimals().saturating_sub(2))
     }
 
+    /// A small length (a tolerance, a laminate thickness) in the output unit, four digits.
+    fn small(&self, v: f64) -> String {
+        sig4(v * self.unit().per_metre())
+    }
+
     /// The summary as text for the terminal.
     pub fn to_text(&self) -> String {
         let t = self.tooling;
         let u = self.unit().symbol();
         let mut s = String::new();
         let _ = writeln!(s, "Tooling  {}", self.name);
-        let _ = writeln!(
-            s,
-            "  {}; chordal tolerance {} {u}; parts at pitch {:.1}°, rotor frame (x along the \
-             pitch axis from the rotor centre)",
-            self.format,
-            self.len(t.params.tolerance),
-            t.pitch.deg()
-        );
+        s.push_str(&wrap(
+            &format!(
+                "{}; chordal tolerance {} {u}; parts at pitch {:.1}°, rotor frame (x along the \
+                 pitch axis from the rotor centre)",
+                self.format,
+                self.small(t.params.tolerance),
+                t.pitch.deg()
+            ),
+            "  ",
+            "  ",
+        ));
         let _ = writeln!(s, "\nCaution");
         for c in crate::CAUTIONS {
-            let _ = writeln!(s, "  ! {c}");
+            s.push_str(&wrap(c, "  ! ", "    "));
         }
-        let _ = writeln!(s, "\nParts (volume, area and mass of the nominal part; box in {u})");
+        let _ = writeln!(
+            s,
+            "\nParts (volume and mass of the nominal part; area and box in {u} as written)"
+        );
         let mut table = Table::new(&[
             ("part", Align::Left),
-            ("file", Align::Left),
             ("triangles", Align::Right),
             ("volume cm³", Align::Right),
             ("area cm²", Align::Right),
@@ -88,10 +121,8 @@ impl ToolingReport<'_> {
         for ((p, w), m) in t.parts.iter().zip(self.written).zip(&self.summary.masses) {
             let b = w.summary.bounding_box;
             let span = |k: usize| format!("{}..{}", self.len(b.min[k]), self.len(b.max[k]));
-            let file = w.path.file_name().map(|f| f.to_string_lossy().into_owned());
             table.row(vec![
                 p.name.clone(),
-                file.unwrap_or_default(),
                 w.summary.triangles.to_string(),
                 sig4(p.nominal_volume * 1e6),
                 sig4(w.summary.area * 1e4),
@@ -102,6 +133,9 @@ impl ToolingReport<'_> {
             ]);
         }
         s.push_str(&table.render(2));
+        if let Some(dir) = self.written.first().and_then(|w| w.path.parent()) {
+            let _ = writeln!(s, "  each part in PART.stl under {}", dir.display());
+        }
         self.masses_text(&mut s);
         self.ends_text(&mut s);
         self.melt_text(&mut s);
@@ -144,22 +178,22 @@ impl ToolingReport<'_> {
                     .to_string(),
                 |r| format!("of it resin {} kg", sig4(r)),
             );
-            let _ = writeln!(
-                s,
-                "  shell: {} kg of laminate, {resin}; {}",
+            let text = format!(
+                "shell: {} kg of laminate, {resin}; {}",
                 m.mass.map_or("-".into(), sig4),
                 m.basis
             );
+            s.push_str(&wrap(&text, "  ", "    "));
             let sc = sum.schedule;
-            let _ = writeln!(
-                s,
-                "  the ply schedule over the stations holds {} kg in {} cm³; the shell's {} cm³ \
-                 ({:+.1} %) add the end closures and the blade carried to the end trims",
+            let text = format!(
+                "the ply schedule over the stations holds {} kg in {} cm³; the shell's {} cm³ \
+                 ({:+.1}%) add the end closures and the blade carried to the end trims",
                 sig4(sc.mass),
                 sig4(sc.volume * 1e6),
                 sig4(p.nominal_volume * 1e6),
                 100.0 * (p.nominal_volume / sc.volume - 1.0)
             );
+            s.push_str(&wrap(&text, "  ", "    "));
         }
     }
 
@@ -170,17 +204,17 @@ impl ToolingReport<'_> {
         let _ = writeln!(s, "\nEnds");
         match t.params.ends {
             crate::tooling::EndShape::Spheres => {
-                let _ = writeln!(
-                    s,
-                    "  spheres about the rotor centre: outer surface {} and {} {u}, cores {} and \
+                let text = format!(
+                    "spheres about the rotor centre: outer surface {} and {} {u}, cores {} and \
                      {} {u} (end laminate {} and {} {u})",
                     self.len(e.root),
                     self.len(e.tip),
                     self.len(e.root + e.root_laminate),
                     self.len(e.tip - e.tip_laminate),
-                    self.len(e.root_laminate),
-                    self.len(e.tip_laminate)
+                    self.small(e.root_laminate),
+                    self.small(e.tip_laminate)
                 );
+                s.push_str(&wrap(&text, "  ", "    "));
             }
             crate::tooling::EndShape::Planes => {
                 let _ =
@@ -202,12 +236,16 @@ impl ToolingReport<'_> {
                 self.len(t.tip_extension)
             );
         }
-        let _ = writeln!(
-            s,
-            "\nCore at the trailing edge: the last core closes where the inner surfaces come \
-             within {} {u}; behind it the shell is solid laminate",
-            self.len(t.params.min_core_thickness)
-        );
+        s.push('\n');
+        s.push_str(&wrap(
+            &format!(
+                "Core at the trailing edge: the last core closes where the inner surfaces come \
+                 within {} {u}; behind it the shell is solid laminate",
+                self.small(t.params.min_core_thickness)
+            ),
+            "",
+            "  ",
+        ));
         let mut table = Table::new(&[
             (&format!("r {u}"), Align::Right),
             ("core ends at x/c", Align::Right),
@@ -234,20 +272,24 @@ impl ToolingReport<'_> {
             let _ = writeln!(s, "  {mark} {}", f.text);
         }
         if let Some(note) = &m.safety_note {
-            let _ = writeln!(s, "  handling: {note}");
+            s.push_str(&wrap(&format!("handling: {note}"), "  ", "    "));
         }
-        let _ = writeln!(s, "  ! {}", crate::CAUTIONS[3]);
+        s.push_str(&wrap(crate::CAUTIONS[3], "  ! ", "    "));
     }
 
     fn moulds_text(&self, s: &mut String) {
         let t = self.tooling;
         let u = self.unit().symbol();
-        let _ = writeln!(
-            s,
-            "\nMould halves: pulled normal to the chord at the middle station, parting through the \
-             leading and trailing edges; least acceptable draft {:.1}°",
-            t.params.min_draft.deg()
-        );
+        s.push('\n');
+        s.push_str(&wrap(
+            &format!(
+                "Mould halves: pulled normal to the chord at the middle station, parting through \
+                 the leading and trailing edges; least acceptable draft {:.1}°",
+                t.params.min_draft.deg()
+            ),
+            "",
+            "  ",
+        ));
         let mut table = Table::new(&[
             ("half", Align::Left),
             ("pull (x, y, z)", Align::Left),
@@ -259,7 +301,12 @@ impl ToolingReport<'_> {
         for h in &t.moulds {
             table.row(vec![
                 h.side.to_string(),
-                format!("({:.3}, {:.3}, {:.3})", h.pull[0], h.pull[1], h.pull[2]),
+                format!(
+                    "({}, {}, {})",
+                    fixed(h.pull[0], 3),
+                    fixed(h.pull[1], 3),
+                    fixed(h.pull[2], 3)
+                ),
                 fixed(h.draft.min_draft.deg(), 2),
                 h.draft.at.to_string(),
                 sig4(h.draft.below_min_area * 1e4),
@@ -275,9 +322,8 @@ impl ToolingReport<'_> {
             let _ =
                 writeln!(s, "  undercuts of the {} half ({} regions):", h.side, h.undercuts.len());
             for r in h.undercuts.iter().take(8) {
-                let _ = writeln!(
-                    s,
-                    "    {} cm² on the {}, x {}..{} {u}, worst {:.2}° at {}",
+                let text = format!(
+                    "{} cm² on the {}, x {}..{} {u}, worst {:.2}° at {}",
                     sig4(r.area * 1e4),
                     r.region,
                     self.len(r.x_range[0]),
@@ -285,20 +331,21 @@ impl ToolingReport<'_> {
                     r.worst.deg(),
                     r.at
                 );
+                s.push_str(&wrap(&text, "    ", "      "));
             }
             if h.undercuts.len() > 8 {
                 let _ = writeln!(s, "    and {} smaller regions", h.undercuts.len() - 8);
             }
         }
         let b = t.moulds[0].block_size;
-        let _ = writeln!(
-            s,
-            "  block {} x {} x {} {u} (along the pitch axis, the middle chord, the pull); three \
+        let text = format!(
+            "block {} x {} x {} {u} (along the pitch axis, the middle chord, the pull); three \
              conical locating pins on the lower half's corners register the halves one way round",
             self.len(b[0]),
             self.len(b[1]),
             self.len(b[2])
         );
+        s.push_str(&wrap(&text, "  ", "    "));
         let _ = writeln!(
             s,
             "  allowances: mould cavity x{} (thermal expansion), cores x{} (shrink), about the \

@@ -152,7 +152,8 @@ pub struct Part {
     pub kind: PartKind,
     /// The mesh as it is written (allowance factors applied), rotor frame, m.
     pub mesh: Mesh,
-    /// Volume of the nominal part (before an allowance factor), m³.
+    /// Volume of the nominal part (a core or the shell before its allowance factor; a mould
+    /// half as written), m³.
     pub nominal_volume: f64,
 }
 
@@ -201,6 +202,28 @@ struct Bulkhead {
 
 /// Builds the tooling of `blade` (see the module docs). `progress(done, total, stage)` is called
 /// as each part is lofted.
+///
+/// ```
+/// use layloft::blade::Blade;
+/// use layloft::input::read_project;
+/// use layloft::tooling::{CheckParams, ToolingParams, build_tooling, check_solid};
+///
+/// # fn main() -> Result<(), layloft::Error> {
+/// let project = read_project("layups/mine-fan/blade.toml".as_ref())?;
+/// let blade = Blade::from_project(&project)?;
+/// let params = ToolingParams { tolerance: 0.5e-3, ..ToolingParams::default() };
+/// let tooling = build_tooling(&blade, &params, &mut |_, _, _| {})?;
+/// let names: Vec<&str> = tooling.parts.iter().map(|p| p.name.as_str()).collect();
+/// assert_eq!(names, ["core-1", "core-2", "shell", "mould-upper", "mould-lower"]);
+/// // The least clearance to the duct is the rotor's tip clearance.
+/// let shell = &tooling.parts[2].mesh;
+/// let reach = shell.vertices.iter().map(|p| p.iter().map(|c| c * c).sum::<f64>().sqrt());
+/// let gap = project.rotor.tip_radius - reach.fold(0.0, f64::max);
+/// assert!((gap - project.rotor.tip_clearance).abs() < 1e-9);
+/// check_solid(shell, "shell", &CheckParams::default())?;
+/// # Ok(())
+/// # }
+/// ```
 pub fn build_tooling(
     blade: &Blade,
     params: &ToolingParams,
@@ -403,11 +426,11 @@ fn mould_parts(
     let chord_angle = |x: f64| blade.twist(x / params.mould_expansion_factor) + pitch;
     let (meshes, halves) = build_moulds(&part, &chord_angle, &mould)?;
     let [upper, lower] = meshes;
-    let f3 = params.mould_expansion_factor.powi(3);
     for (name, kind, mesh) in
         [("mould-upper", PartKind::MouldUpper, upper), ("mould-lower", PartKind::MouldLower, lower)]
     {
-        let nominal_volume = mesh.signed_volume() / f3;
+        // A mould half is made as it is drawn: its volume is the block as written.
+        let nominal_volume = mesh.signed_volume();
         parts.push(Part { name: name.into(), kind, mesh, nominal_volume });
     }
     Ok(halves)

@@ -188,15 +188,15 @@ pub struct CoreEnd {
 }
 
 /// Where the cores close at the leading and at the trailing edge of the section at radius `x`:
-/// going from the section's greatest inner depth towards each edge, the first chord-frame `y` where the depth between the
-/// inner surfaces (normal to the chord) falls to `min_depth`; never closer than a tenth of
-/// `min_depth` to where the two inner chains stop facing each other (each chain is taken from its
-/// most forward point on, which drops the loop an inner surface makes at a nose sharper than the
-/// laminate is thick, and the bulge of a cambered nose ahead of where the chains join). The
-/// depth is bracketed on 481 positions by linear interpolation of 241-point polylines of the
-/// chains and solved on the chains themselves, so the cut moves smoothly with the radius. Where
-/// the inner surfaces never come that close at the back, the core ends `base_laminate` short of
-/// the inner trailing edge.
+/// going from the section's greatest inner depth towards each edge, the first chord-frame `y` where
+/// the depth between the inner surfaces (normal to the chord) falls to `min_depth`; never closer
+/// than a tenth of `min_depth` to where the two inner chains stop facing each other (each chain is
+/// taken from its most forward point on, which drops the loop an inner surface makes at a nose
+/// sharper than the laminate is thick, and the bulge of a cambered nose ahead of where the chains
+/// join). The depth is bracketed on 481 positions by linear interpolation of 241-point polylines of
+/// the chains and solved on the chains themselves, so the cut moves smoothly with the radius. Where
+/// the inner surfaces never come that close at the back, the core ends `base_laminate` short of the
+/// inner trailing edge.
 pub(crate) fn core_cuts(
     inner: &dyn SpanSurface,
     x: f64,

@@ -4,15 +4,15 @@
 //! Two triangles that do not lie in one plane intersect exactly when an edge of one crosses the
 //! other (the segment where they meet ends on their edges). A segment `pq` crosses the triangle
 //! `abc` when `p` and `q` are not strictly on one side of its plane and the point where it meets
-//! the plane (by interpolation of their signed distances) lies in the triangle. Coplanar pairs are tested in the plane
-//! (edge crossings and containment), and so is a triangle that touches the other's plane
-//! without crossing it (at its corners there). Neighbours are tested for what sharing allows: a
-//! pair that shares a vertex intersects only if the edge of one opposite that vertex meets the
-//! other; a pair that shares an edge only if it is folded flat onto itself. An orientation counts
-//! as zero when the point lies within `1e-12` of (its distance plus its distance from the origin)
-//! of the plane or line: computed coordinates carry round-off in proportion to their size, so a
-//! flat strip far from the origin is not told apart from a fold by noise (touching counts as
-//! meeting).
+//! the plane (by interpolation of their signed distances) lies in the triangle. Coplanar pairs are
+//! tested in the plane (edge crossings and containment), and so is a triangle that touches the
+//! other's plane without crossing it (at its corners there). Neighbours are tested for what sharing
+//! allows: a pair that shares a vertex intersects only if the edge of one opposite that vertex
+//! meets the other; a pair that shares an edge only if it is folded flat onto itself. An
+//! orientation counts as zero when the point lies within `1e-12` of (its distance plus its distance
+//! from the origin) of the plane or line: computed coordinates carry round-off in proportion to
+//! their size, so a flat strip far from the origin is not told apart from a fold by noise (touching
+//! counts as meeting).
 
 use super::mesh::Mesh;
 use super::vec3::{self, P3};

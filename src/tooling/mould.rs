@@ -69,7 +69,7 @@ pub struct Undercut {
     pub at: Place,
     /// Range of radius x it covers, m.
     pub x_range: [f64; 2],
-    /// Where on the part: `"side"`, `"root end"`, `"tip end"` or a mix joined by `" and "`.
+    /// Where on the part: `"surface"`, `"root end"`, `"tip end"` or a mix joined by `" and "`.
     pub region: String,
 }
 
@@ -371,7 +371,7 @@ fn undercut_regions(
                 }
             }
         }
-        let region = ["side", "root end", "tip end"]
+        let region = ["surface", "root end", "tip end"]
             .iter()
             .zip(kinds)
             .filter(|(_, k)| *k)

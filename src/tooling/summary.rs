@@ -13,10 +13,11 @@
 //!   likewise its resin: the shell is a multi-material laminate whose plies the schedule places.
 //! - **Core alloy mass**: the nominal core volume (before the shrink allowance) times the alloy's
 //!   density: the finished core's mass, which the pour must supply.
-//! - **Melting check** (REFERENCES.md, common practice): a core must stay solid through injection
-//!   and gelation and melt out before the end of the cure: flagged when `solidus ≤ injection`
-//!   or `solidus ≤ gel` (it melts before the resin gels), or `liquidus ≥ cure` (it never melts
-//!   out); a missing temperature or melting range leaves its comparison not checked.
+//! - **Melting check** (common practice for fusible cores): a core must stay solid through
+//!   injection and gelation and melt out before the end of the cure: flagged when
+//!   `solidus ≤ injection` or `solidus ≤ gel` (it melts before the resin gels), or
+//!   `liquidus ≥ cure` (it never melts out); a missing temperature or melting range leaves its
+//!   comparison not checked.
 
 use super::blade_parts::{BladeTooling, PartKind};
 use crate::blade::{Blade, Surface};
