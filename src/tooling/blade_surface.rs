@@ -250,9 +250,10 @@ pub(crate) fn core_cuts(
         .max_by(|a, b| a.1.total_cmp(&b.1))
         .unwrap_or((0, f64::NEG_INFINITY));
     if !(y1 > y0 && d_max >= min_depth) {
-        return Err(MeshError::Geometry(format!(
+        return Err(MeshError::Settings(format!(
             "at r = {x:.4} m the inner surfaces are at most {:.2} mm apart: no room for a core of \
-             at least {:.2} mm",
+             at least {:.2} mm (min_core_thickness_mm in [tooling], or the laminate in the plies \
+             file)",
             d_max.max(0.0) * 1e3,
             min_depth * 1e3
         )));

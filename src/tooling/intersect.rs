@@ -105,20 +105,24 @@ fn project(p: P3, [i, j]: [usize; 2]) -> [f64; 2] {
     [p[i], p[j]]
 }
 
+/// Whether `c`, on the line through `a` and `b`, lies on the segment (within its box).
+fn on_segment(a: [f64; 2], b: [f64; 2], c: [f64; 2]) -> bool {
+    (0..2).all(|k| a[k].min(b[k]) <= c[k] && c[k] <= a[k].max(b[k]))
+}
+
+/// Whether the segments `pq` and `ab` meet: they cross properly, or an end of one lies on the
+/// other (Cormen, Leiserson, Rivest & Stein, *Introduction to Algorithms*, 3rd ed., 2009, §33.1).
 fn segments_meet_2d(p: [f64; 2], q: [f64; 2], a: [f64; 2], b: [f64; 2]) -> bool {
     let (d1, d2) = (orient_2d(a, b, p), orient_2d(a, b, q));
     let (d3, d4) = (orient_2d(p, q, a), orient_2d(p, q, b));
-    if same_strict_sign(d1, d2) || same_strict_sign(d3, d4) {
-        return false;
+    let opposite = |x: f64, y: f64| (x > 0.0 && y < 0.0) || (x < 0.0 && y > 0.0);
+    if opposite(d1, d2) && opposite(d3, d4) {
+        return true;
     }
-    if d1 == 0.0 && d2 == 0.0 {
-        // Collinear: overlap of the projections on the line.
-        let k = if (b[0] - a[0]).abs() >= (b[1] - a[1]).abs() { 0 } else { 1 };
-        let (lo1, hi1) = (p[k].min(q[k]), p[k].max(q[k]));
-        let (lo2, hi2) = (a[k].min(b[k]), a[k].max(b[k]));
-        return lo1 <= hi2 && lo2 <= hi1;
-    }
-    true
+    (d1 == 0.0 && on_segment(a, b, p))
+        || (d2 == 0.0 && on_segment(a, b, q))
+        || (d3 == 0.0 && on_segment(p, q, a))
+        || (d4 == 0.0 && on_segment(p, q, b))
 }
 
 fn inside_triangle_2d(p: [f64; 2], t: &[[f64; 2]; 3]) -> bool {
@@ -249,6 +253,30 @@ mod tests {
         assert!(triangles_meet(&a, &standing));
         let off = tri([[2.0, 0.1, 0.0], [2.3, 0.2, 0.0], [2.25, 0.15, 1.0]]);
         assert!(!triangles_meet(&a, &off));
+    }
+
+    #[test]
+    fn a_strip_one_millimetre_along_with_a_picometre_of_twist_is_apart() {
+        // Neighbours two stations apart in a strip 1.5 m from the origin whose lines are straight
+        // within 1e-12 m: collinear bottom edges a millimetre apart do not meet.
+        let a = tri([
+            [1.476_187_635_734_169_2, 0.212_957_445_574_536_72, 0.010_276_255_173_613_434],
+            [1.477_179_480_541_553, 0.212_957_445_574_536_72, 0.010_276_255_173_613_427],
+            [1.474_812_368_541_124_3, 0.221_408_004_612_545_53, 0.009_044_785_667_020_449],
+        ]);
+        let b = tri([
+            [1.478_171_325_348_936_8, 0.212_957_445_574_536_75, 0.010_276_255_173_613_438],
+            [1.479_163_170_156_320_6, 0.212_957_445_573_569_4, 0.010_276_255_173_752_656],
+            [1.476_799_267_948_597_7, 0.221_408_004_612_545_53, 0.009_044_785_667_020_449],
+        ]);
+        assert!(!triangles_meet(&a, &b));
+        assert!(!triangles_meet(&b, &a));
+        // Segments: crossing, touching at an end, collinear apart and overlapping.
+        assert!(segments_meet_2d([0.0, 0.0], [1.0, 1.0], [0.0, 1.0], [1.0, 0.0]));
+        assert!(segments_meet_2d([0.0, 0.0], [1.0, 0.0], [1.0, 0.0], [1.0, 1.0]));
+        assert!(!segments_meet_2d([0.0, 0.0], [1.0, 0.0], [2.0, 0.0], [3.0, 0.0]));
+        assert!(segments_meet_2d([0.0, 0.0], [2.0, 0.0], [1.0, 0.0], [3.0, 0.0]));
+        assert!(!segments_meet_2d([0.0, 0.0], [1.0, 0.0], [2.0, -1.0], [2.0, 1.0]));
     }
 
     #[test]

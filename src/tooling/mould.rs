@@ -319,7 +319,7 @@ fn layout(
             segments,
         });
     }
-    Ok(Layout { sides, ends, corners, z_top, z_bottom, locators })
+    Ok(Layout { sides, ends, corners, z_top, z_bottom, margin: m, locators })
 }
 
 /// Connected regions of the undercut facets, largest first.

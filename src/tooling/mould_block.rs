@@ -11,8 +11,8 @@
 //! outward at the tip and inward at the root.
 //!
 //! A half is one closed surface: the part's facets on its side (the cavity wall), the parting
-//! surface, the four block faces (vertical strips over the parting surface's edge) and the top
-//! (or bottom) face, a fan about its centre. Three corner patches carry the locating features
+//! surface, the four block faces (each fanned from a row of vertices along its top edge, a
+//! quarter of the margin apart) and the top (or bottom) face, a fan about its centre. Three corner patches carry the locating features
 //! (see [`Locator`]). Facets are wound afterwards by [`super::orient::orient_outward`].
 
 use super::mesh::Mesh;
@@ -74,6 +74,8 @@ pub(crate) struct Layout {
     /// Top of the upper block and bottom of the lower block.
     pub z_top: f64,
     pub z_bottom: f64,
+    /// The block margin.
+    pub margin: f64,
     pub locators: Vec<Locator>,
 }
 
@@ -140,22 +142,40 @@ pub(crate) fn build_half(
             None => h.quad(patch),
         }
     }
-    // Block faces: vertical strips from the parting surface's edge to the top (or bottom).
+    // Block faces: each side fanned from a row of top (or bottom) vertices a quarter of the
+    // margin apart, each over the edge vertices nearest it, so no fan line runs far across the
+    // parting surface's edge; the top (or bottom) face fanned from its centre.
     let zf = if upper { layout.z_top } else { layout.z_bottom };
-    let mut rim: Vec<u32> = Vec::new();
+    let far_corners: Vec<u32> = layout.corners.iter().map(|c| h.add([c[0], c[1], zf])).collect();
     let mut rim_far: Vec<u32> = Vec::new();
-    for s in 0..4 {
-        rim.push(corners[(s + 3) % 4]);
-        rim.extend_from_slice(&ends[s]);
-    }
-    for &v in &rim {
-        let q = h.mould(v);
-        rim_far.push(h.add([q[0], q[1], zf]));
-    }
-    let n = rim.len();
-    for i in 0..n {
-        let j = (i + 1) % n;
-        h.quad([rim[i], rim[j], rim_far[j], rim_far[i]]);
+    for (s, side_ends) in ends.iter().enumerate() {
+        let (k0, k1) = ((s + 3) % 4, s);
+        let mut chain = vec![corners[k0]];
+        chain.extend_from_slice(side_ends);
+        chain.push(corners[k1]);
+        let axis = if s % 2 == 0 { 0 } else { 1 };
+        let along: Vec<f64> = chain.iter().map(|&v| h.mould(v)[axis]).collect();
+        let (a, b) = (along[0], along[along.len() - 1]);
+        let count = ((b - a).abs() / (0.25 * layout.margin)).ceil().max(1.0) as usize;
+        let (c0, c1) = (layout.corners[k0], layout.corners[k1]);
+        let mut tops = vec![far_corners[k0]];
+        for k in 1..count {
+            let f = k as f64 / count as f64;
+            let q = [c0[0] + f * (c1[0] - c0[0]), c0[1] + f * (c1[1] - c0[1]), zf];
+            tops.push(h.add(q));
+        }
+        tops.push(far_corners[k1]);
+        // The top nearest each edge vertex (in the order along the side).
+        let nearest =
+            |t: f64| (((t - a) / (b - a) * count as f64).round().clamp(0.0, count as f64)) as usize;
+        for i in 0..chain.len() - 1 {
+            let (g0, g1) = (nearest(along[i]), nearest(along[i + 1]));
+            for g in g0..g1 {
+                h.mesh.triangles.push([chain[i], tops[g + 1], tops[g]]);
+            }
+            h.mesh.triangles.push([chain[i], chain[i + 1], tops[g1]]);
+        }
+        rim_far.extend_from_slice(&tops[..tops.len() - 1]);
     }
     let centre = {
         let (mut x, mut y) = (0.0, 0.0);
@@ -165,6 +185,7 @@ pub(crate) fn build_half(
         }
         h.add([x, y, zf])
     };
+    let n = rim_far.len();
     for i in 0..n {
         h.mesh.triangles.push([rim_far[i], rim_far[(i + 1) % n], centre]);
     }
@@ -178,10 +199,19 @@ fn locator(h: &mut Half<'_>, patch: [u32; 4], loc: &Locator, upper: bool) {
     let angle = |q: P3| (q[1] - cy).atan2(q[0] - cx);
     let mut sq: Vec<(f64, u32)> = patch.iter().map(|&v| (angle(h.mould(v)), v)).collect();
     sq.sort_by(|a, b| a.0.total_cmp(&b.0));
-    // Ring angles: regular ones (half a step off the axes) and the four corner directions.
+    // Ring angles: the four corner directions and the regular ones (half a step off the axes)
+    // that are not within a quarter step of one of them.
     let step = std::f64::consts::TAU / loc.segments as f64;
+    let apart = |a: f64| {
+        sq.iter().all(|&(c, _)| {
+            let d = (a - c).rem_euclid(std::f64::consts::TAU);
+            d.min(std::f64::consts::TAU - d) > 0.25 * step
+        })
+    };
     let mut angles: Vec<(f64, Option<usize>)> = (0..loc.segments)
-        .map(|i| (-std::f64::consts::PI + (i as f64 + 0.5) * step, None))
+        .map(|i| -std::f64::consts::PI + (i as f64 + 0.5) * step)
+        .filter(|&a| apart(a))
+        .map(|a| (a, None))
         .collect();
     angles.extend(sq.iter().enumerate().map(|(k, &(a, _))| (a, Some(k))));
     angles.sort_by(|a, b| a.0.total_cmp(&b.0));

@@ -211,8 +211,9 @@ pub fn summarise(project: &Project, blade: &Blade, tooling: &BladeTooling) -> To
         _ => None,
     });
     let schedule = schedule_content(blade);
+    let has_laminate = schedule.volume > 0.0;
     let density = schedule.mass / schedule.volume;
-    let resin_density = schedule.resin.map(|r| r / schedule.volume);
+    let resin_density = schedule.resin.filter(|_| has_laminate).map(|r| r / schedule.volume);
     let masses: Vec<PartMass> = tooling
         .parts
         .iter()
@@ -228,6 +229,11 @@ pub fn summarise(project: &Project, blade: &Blade, tooling: &BladeTooling) -> To
                     resin: None,
                     basis: "not computed: no core_alloy in [tooling]".into(),
                 },
+            },
+            PartKind::Shell if !has_laminate => PartMass {
+                mass: None,
+                resin: None,
+                basis: "not computed: the ply schedule holds no laminate".into(),
             },
             PartKind::Shell => PartMass {
                 mass: Some(p.nominal_volume * density),
