@@ -104,38 +104,43 @@ impl ToolingReport<'_> {
         for c in crate::CAUTIONS {
             s.push_str(&wrap(c, "  ! ", "    "));
         }
+        let dir = self.written.first().and_then(|w| w.path.parent());
         let _ = writeln!(
             s,
-            "\nParts (volume and mass of the nominal part; area and box in {u} as written)"
+            "\nParts in {} (volume and mass of the nominal part, area as written)",
+            dir.map_or(String::from("."), |d| d.display().to_string())
         );
         let mut table = Table::new(&[
             ("part", Align::Left),
+            ("file", Align::Left),
             ("triangles", Align::Right),
             ("volume cm³", Align::Right),
             ("area cm²", Align::Right),
             ("mass kg", Align::Right),
-            ("box x", Align::Right),
-            ("box y", Align::Right),
-            ("box z", Align::Right),
+        ]);
+        let mut boxes = Table::new(&[
+            ("part", Align::Left),
+            (&format!("x {u}"), Align::Right),
+            (&format!("y {u}"), Align::Right),
+            (&format!("z {u}"), Align::Right),
         ]);
         for ((p, w), m) in t.parts.iter().zip(self.written).zip(&self.summary.masses) {
             let b = w.summary.bounding_box;
             let span = |k: usize| format!("{}..{}", self.len(b.min[k]), self.len(b.max[k]));
+            let file = w.path.file_name().map(|f| f.to_string_lossy().into_owned());
             table.row(vec![
                 p.name.clone(),
+                file.unwrap_or_default(),
                 w.summary.triangles.to_string(),
                 sig4(p.nominal_volume * 1e6),
                 sig4(w.summary.area * 1e4),
                 m.mass.map_or("not computed".into(), sig4),
-                span(0),
-                span(1),
-                span(2),
             ]);
+            boxes.row(vec![p.name.clone(), span(0), span(1), span(2)]);
         }
         s.push_str(&table.render(2));
-        if let Some(dir) = self.written.first().and_then(|w| w.path.parent()) {
-            let _ = writeln!(s, "  each part in PART.stl under {}", dir.display());
-        }
+        let _ = writeln!(s, "\nBounding boxes as written, rotor frame");
+        s.push_str(&boxes.render(2));
         self.masses_text(&mut s);
         self.ends_text(&mut s);
         self.melt_text(&mut s);
