@@ -1,4 +1,6 @@
-//! Tooling kernel: loft and write about two million triangles (binary STL), and check them.
+//! Tooling kernel: loft and write about two million triangles (binary STL), and check them; and
+//! the whole tooling of the invented mine-fan demo (`layups/mine-fan/`): cores, shell and mould
+//! halves built, then checked and written as `layloft tooling` does.
 //!
 //! Run with `cargo bench --bench tooling`. The input is fixed (no randomness): an invented
 //! straight NACA 0012 blade, 0.10 m chord, 30° of twist per metre, trimmed by spheres of
@@ -7,9 +9,11 @@
 //! write includes the fsync of `report::write_atomic`, which on a shared disk dominates.
 
 use criterion::{Criterion, criterion_group, criterion_main};
+use layloft::blade::Blade;
+use layloft::input::read_project;
 use layloft::tooling::{
-    ChainEnds, CheckParams, EndKind, FnSurface, LoftParams, StlOptions, Trims, check_solid,
-    encode_stl, loft_solid, write_stl,
+    ChainEnds, CheckParams, EndKind, FnSurface, LoftParams, Mesh, StlOptions, ToolingParams, Trims,
+    build_tooling, check_solid, encode_stl, loft_solid, write_parts, write_stl,
 };
 use layloft::units::Angle;
 
@@ -75,5 +79,30 @@ fn bench(c: &mut Criterion) {
     g.finish();
 }
 
-criterion_group!(benches, bench);
+fn bench_demo(c: &mut Criterion) {
+    let project = read_project("layups/mine-fan/blade.toml".as_ref()).expect("the demo reads");
+    let blade = Blade::from_project(&project).expect("the demo lofts");
+    let params = ToolingParams::from_spec(project.tooling.as_ref().expect("[tooling]"))
+        .expect("the demo's settings");
+    let tooling = build_tooling(&blade, &params, &mut |_, _, _| {}).expect("the demo's tooling");
+    let total: usize = tooling.parts.iter().map(|p| p.mesh.len()).sum();
+    eprintln!("mine-fan tooling: {} parts, {total} triangles", tooling.parts.len());
+    let dir = tempfile::tempdir().expect("a temporary folder");
+    let mut g = c.benchmark_group("mine_fan");
+    g.sample_size(10);
+    g.bench_function("build_parts", |b| {
+        b.iter(|| build_tooling(&blade, &params, &mut |_, _, _| {}).map(|t| t.parts.len()))
+    });
+    g.bench_function("check_and_write_parts", |b| {
+        b.iter(|| {
+            let parts: Vec<(&str, &Mesh)> =
+                tooling.parts.iter().map(|p| (p.name.as_str(), &p.mesh)).collect();
+            write_parts(dir.path(), &parts, &StlOptions::default(), &CheckParams::default())
+                .map(|w| w.len())
+        })
+    });
+    g.finish();
+}
+
+criterion_group!(benches, bench, bench_demo);
 criterion_main!(benches);

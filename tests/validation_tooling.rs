@@ -12,16 +12,22 @@
 //!   map has unit Jacobian), closed form for an annulus, Gauss–Legendre × Simpson for the
 //!   NACA section.
 //!
+//! - Mould halves: a rigid turn of a section by ψ turns its surface normals by ψ (geometry);
+//!   the halves, the part and the socket clearances fill the block (volume of a box).
+//!
 //! Tolerances: a facet lies within the chordal tolerance `tol` of the surface, so the volume can
 //! differ by at most about `tol` times the surface area; the assertions use that bound.
 
-use std::collections::HashMap;
+mod support_stl;
+
 use std::f64::consts::PI;
+
+use support_stl::closed_outward;
 
 use layloft::tooling::{
     ChainEnds, CheckParams, EndKind, FnSurface, LengthUnit, LoftParams, Mesh, MeshError,
-    SpanSurface, StlFormat, StlOptions, Trims, box_mesh, check_solid, loft_annulus, loft_hollow,
-    loft_solid, split_cells, write_parts,
+    MouldParams, SpanSurface, StlFormat, StlOptions, Trims, box_mesh, build_moulds, check_solid,
+    loft_annulus, loft_hollow, loft_solid, split_cells, write_parts,
 };
 use layloft::units::Angle;
 
@@ -302,30 +308,6 @@ fn hollow_shell_has_outer_less_inner_volume_and_two_shells() {
     assert!(matches!(e, MeshError::Facing { role: "cavity surface", .. }), "{e}");
 }
 
-/// Independent reading of an STL mesh: every undirected edge used exactly twice, in opposite
-/// directions, and the signed volume (divergence theorem, own code) positive.
-fn closed_outward(mesh: &stl_io::IndexedMesh) -> (bool, f64) {
-    let mut directed: HashMap<(usize, usize), i32> = HashMap::new();
-    for f in &mesh.faces {
-        let v = f.vertices;
-        for k in 0..3 {
-            *directed.entry((v[k], v[(k + 1) % 3])).or_default() += 1;
-        }
-    }
-    let manifold = directed.iter().all(|(&(a, b), &n)| n == 1 && directed.get(&(b, a)) == Some(&1));
-    let mut vol = 0.0;
-    for f in &mesh.faces {
-        let p = f.vertices.map(|i| mesh.vertices[i].0.map(f64::from));
-        let cross = [
-            p[1][1] * p[2][2] - p[1][2] * p[2][1],
-            p[1][2] * p[2][0] - p[1][0] * p[2][2],
-            p[1][0] * p[2][1] - p[1][1] * p[2][0],
-        ];
-        vol += (p[0][0] * cross[0] + p[0][1] * cross[1] + p[0][2] * cross[2]) / 6.0;
-    }
-    (manifold, vol)
-}
-
 #[test]
 fn written_stl_reads_back_closed_manifold_and_outward() {
     let blade = naca_blade(0.1, [0.3, 0.95], |x| Angle::from_deg(30.0 * (0.9 - x)));
@@ -565,4 +547,69 @@ fn a_cambered_twisted_blade_with_webs_meshes_into_clean_solids() {
         }
     }
     assert!((sum - s.volume).abs() <= tol * s.area, "{sum} vs {}", s.volume);
+}
+
+fn mould_params() -> MouldParams {
+    MouldParams {
+        pull: [0.0, 0.0, 1.0],
+        margin: 0.02,
+        tolerance: 1e-4,
+        min_draft: Angle::from_deg(1.0),
+        unit: LengthUnit::Millimetre,
+    }
+}
+
+#[test]
+fn an_untwisted_symmetric_blade_draws_without_undercut_from_a_mould_parted_at_its_chord() {
+    // NACA 0012 prism, pull normal to its chord: every upper facet faces up or along the chord
+    // (the open trailing edge's base and the planar ends face along the parting plane, draft 0),
+    // so neither half has an undercut (geometry of a section symmetric about its chord).
+    let blade = naca_blade(0.1, [0.2, 0.8], |_x| Angle::ZERO);
+    let solid = loft_solid(&blade, &Trims::planes(0.3, 0.7), &params(2e-5)).unwrap();
+    let (meshes, halves) = build_moulds(&solid, &|_x| Angle::ZERO, &mould_params()).unwrap();
+    for (mesh, half) in meshes.iter().zip(&halves) {
+        assert!(half.undercuts.is_empty(), "{}: {:?}", half.side, half.undercuts);
+        assert!(
+            half.draft.min_draft.deg().abs() < 1e-6,
+            "{}: {}",
+            half.side,
+            half.draft.min_draft.deg()
+        );
+        check(mesh, half.side);
+    }
+    // The halves and the part fill the block but for the sockets' clearance (0.1 mm round pins
+    // of base radius m/6 and height m/3: at most 3 · 0.1 mm · (π (r_b + r_t) s + π r_t²)).
+    let v: f64 = meshes.iter().map(|m| m.signed_volume()).sum::<f64>() + solid.mesh.signed_volume();
+    let [x, y, z] = halves[0].block_size;
+    let gap = x * y * z - v;
+    let (rb, h) = (0.02 / 6.0, 0.02 / 3.0);
+    let rt = rb - h * 10f64.to_radians().tan();
+    let bound = 3.0 * 1e-4 * PI * ((rb + rt) * h * 1.1 + rt * rt) * 1.1;
+    assert!(gap > 0.0 && gap < bound, "{gap:e} vs {bound:e}");
+}
+
+#[test]
+fn a_twisted_blade_has_undercuts_of_its_twist_from_a_mould_parted_at_its_middle_chord() {
+    // NACA 0012 twisted from -10° to +10° over its span, pulled normal to the middle chord: a
+    // rigid turn of a section by ψ turns its normals by ψ, so the blunt trailing edge's base
+    // (normal along the chord) draws at −|ψ| on one half at each end, and the end sections' noses
+    // at up to −|ψ| (geometry): the worst draft of each half is −10° (facets on the first station
+    // interval turn a little less) and the two halves mirror each other.
+    let twist = |x: f64| Angle::from_deg(50.0 * (x - 0.5));
+    let blade = naca_blade(0.1, [0.2, 0.8], twist);
+    let solid = loft_solid(&blade, &Trims::planes(0.3, 0.7), &params(2e-5)).unwrap();
+    let (meshes, halves) = build_moulds(&solid, &twist, &mould_params()).unwrap();
+    for (mesh, half) in meshes.iter().zip(&halves) {
+        check(mesh, half.side);
+        let worst = half.draft.min_draft.deg();
+        assert!((-10.0 - 1e-9..-9.5).contains(&worst), "{}: {worst}", half.side);
+        // The regions partition the undercut facets: their areas add up and the worst of them
+        // is the worst of all.
+        let area: f64 = half.undercuts.iter().map(|r| r.area).sum();
+        assert!((area / half.draft.undercut_area - 1.0).abs() < 1e-12 && area > 0.0);
+        let least = half.undercuts.iter().map(|r| r.worst.deg()).fold(f64::INFINITY, f64::min);
+        assert!((least - worst).abs() < 1e-9, "{least} vs {worst}");
+    }
+    let (a, b) = (halves[0].draft.undercut_area, halves[1].draft.undercut_area);
+    assert!((a / b - 1.0).abs() < 1e-6, "upper {a} vs lower {b} m²");
 }

@@ -33,8 +33,10 @@
 mod coverage;
 mod layout;
 mod loft;
+mod surface;
 
 pub use coverage::Surface;
+pub use surface::{BladeSurfaces, CORE_EDGE_TAPER, PLY_DROP_TAPER};
 
 use std::sync::Arc;
 

@@ -14,6 +14,7 @@ mod project;
 mod report;
 mod sections;
 mod stress;
+mod tooling;
 
 use std::process::ExitCode;
 
@@ -47,6 +48,7 @@ enum Command {
     Report(report::Args),
     Stress(stress::Args),
     Sections(sections::Args),
+    Tooling(tooling::Args),
 }
 
 /// How a command ended, other than by an error.
@@ -96,6 +98,7 @@ pub fn main() -> ExitCode {
         Command::Report(args) => report::run(args, &out),
         Command::Stress(args) => stress::run(args, &out),
         Command::Sections(args) => sections::run(args, &out),
+        Command::Tooling(args) => tooling::run(args, &out),
     };
     match result {
         Ok(Outcome::Success) => ExitCode::SUCCESS,

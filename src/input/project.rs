@@ -250,6 +250,8 @@ pub struct ToolingSpec {
     pub core_shrink_factor: f64,
     /// Least acceptable draft angle of the mould halves.
     pub min_draft: Angle,
+    /// Least core thickness normal to the chord, where a core ends at a thin trailing edge, m.
+    pub min_core_thickness: f64,
 }
 
 impl Default for ToolingSpec {
@@ -265,6 +267,7 @@ impl Default for ToolingSpec {
             mould_expansion_factor: 1.0,
             core_shrink_factor: 1.0,
             min_draft: Angle::from_deg(1.0),
+            min_core_thickness: 2.0e-3,
         }
     }
 }

@@ -17,7 +17,8 @@
 //!   `max_mass_kg`, `max_tip_deflection_m`;
 //! - `[tooling]`: `core_alloy`, `injection_temperature_C`, `gel_temperature_C`,
 //!   `cure_temperature_C`, `mould_margin_m` (0.03), `stl_unit` ("mm" or "m"), `tolerance_mm`
-//!   (0.1), `mould_expansion_factor` (1), `core_shrink_factor` (1), `min_draft_deg` (1);
+//!   (0.1), `mould_expansion_factor` (1), `core_shrink_factor` (1), `min_draft_deg` (1),
+//!   `min_core_thickness_mm` (2);
 //! - `[modal]`: `elements` (40), `modes` (8), `rpm_step`, `[modal.root_springs]` with
 //!   `axial_N_m`, `flap_Nm_rad`, `edge_Nm_rad`, `torsion_Nm_rad`;
 //! - `[sections]`: `contour_points` (240), `analysis_stations` (0: the project's stations).
@@ -380,6 +381,16 @@ fn read_tooling(
         None => d.mould_margin,
     };
     let min_draft = Angle::from_deg(t.optional_f64("min_draft_deg")?.unwrap_or(d.min_draft.deg()));
+    let min_core_thickness = match t.optional_f64("min_core_thickness_mm")? {
+        Some(v) if v > 0.0 => v * MM,
+        Some(v) => {
+            return Err(t.error(
+                "min_core_thickness_mm",
+                format!("expected a positive thickness, found {v}"),
+            ));
+        }
+        None => d.min_core_thickness,
+    };
     Ok(ToolingSpec {
         core_alloy,
         injection_temperature_c: t.optional_f64("injection_temperature_C")?,
@@ -391,6 +402,7 @@ fn read_tooling(
         mould_expansion_factor,
         core_shrink_factor,
         min_draft,
+        min_core_thickness,
     })
 }
 

@@ -15,6 +15,7 @@ mod stress;
 mod stress_map;
 pub mod svg;
 mod table;
+mod tooling;
 mod write;
 
 pub use blade_plots::{
@@ -31,4 +32,5 @@ pub use sections::{SectionsReport, laminate_label};
 pub use stress::{stress_csv, stress_json, stress_text};
 pub use stress_map::stress_svg;
 pub use table::{Align, Table, cautions_text, fixed, sig4};
+pub use tooling::ToolingReport;
 pub use write::{write_atomic, write_atomic_with};

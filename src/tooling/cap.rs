@@ -26,7 +26,9 @@ fn push(mesh: &mut Mesh, end: End, [a, b, c]: [u32; 3]) {
     });
 }
 
-/// Caps the end contour `ring` (ring order of `grid`) on `trim`.
+/// Caps the end contour `ring` (ring order of `grid`) on `trim`; returns the middle vertex of
+/// every column, front to back (every column has an even number of pieces, so the middles form
+/// a line of the cap's edges from the front end point to the back one).
 pub(crate) fn column_cap(
     mesh: &mut Mesh,
     grid: &Grid,
@@ -35,7 +37,7 @@ pub(crate) fn column_cap(
     end: End,
     tol: f64,
     max_edge: f64,
-) {
+) -> Vec<u32> {
     let k_last = grid.u.len() - 1;
     let p = |mesh: &Mesh, i: usize| mesh.vertices[ring[i] as usize];
     let h_cap = trim.chord_for_sag(tol).min(max_edge);
@@ -60,6 +62,7 @@ pub(crate) fn column_cap(
                     .max(vec3::dist(pu, p(mesh, grid.upper[k + 1])));
                 let h = h_cap.min(spacing.max(len * 1e-3));
                 let n = ((len / h).ceil() as usize).clamp(1, 100_000);
+                let n = n + n % 2;
                 let mut column = vec![ring[up]];
                 for i in 1..n {
                     column.push(mesh.push_vertex(trim.lift(vec3::lerp(
@@ -77,10 +80,13 @@ pub(crate) fn column_cap(
     for pair in columns.windows(2) {
         zip_columns(mesh, &pair[0], &pair[1], end);
     }
+    columns.iter().map(|c| c[(c.len() - 1) / 2]).collect()
 }
 
 /// Triangulates the strip between two columns (each from the upper chain to the lower) by
-/// advancing along whichever column's next point is relatively nearer the upper end.
+/// advancing along whichever column's next point is relatively nearer the upper end. When both
+/// columns have an even number of pieces the walk passes through both middles at once, so the
+/// edge joining them is an edge of the strip.
 fn zip_columns(mesh: &mut Mesh, a: &[u32], b: &[u32], end: End) {
     let (na, nb) = (a.len() - 1, b.len() - 1);
     let (mut i, mut j) = (0, 0);

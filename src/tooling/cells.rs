@@ -64,7 +64,7 @@ pub fn split_cells<'a>(
 }
 
 /// The parameter where `chain(u)[0] == y`, for `y` between the chain's ends.
-fn crossing(chain: impl Fn(f64) -> [f64; 2], y: f64) -> f64 {
+pub(crate) fn crossing(chain: impl Fn(f64) -> [f64; 2], y: f64) -> f64 {
     let f = |u: f64| chain(u)[0] - y;
     let (mut a, mut b) = (0.0, 1.0);
     let (mut fa, mut fb) = (f(a), f(b));

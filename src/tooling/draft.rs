@@ -13,6 +13,10 @@ use super::stl::LengthUnit;
 use super::vec3;
 use crate::units::Angle;
 
+/// A facet parallel to the pull has `n · d` of round-off size; below `-ROUND_OFF` (a draft of
+/// about −6e-8°) it counts as an undercut.
+const ROUND_OFF: f64 = 1e-9;
+
 /// How a set of facets draws along a pull direction.
 #[derive(Debug, Clone, PartialEq)]
 pub struct DraftReport {
@@ -24,7 +28,8 @@ pub struct DraftReport {
     pub at: Place,
     /// Area of the facets whose draft is below the least acceptable, m².
     pub below_min_area: f64,
-    /// Facets turned away from the pull (undercuts), by index.
+    /// Facets turned away from the pull (undercuts: draft below about −6e-8°, round-off
+    /// aside), by index.
     pub undercuts: Vec<usize>,
     /// Their area, m².
     pub undercut_area: f64,
@@ -71,7 +76,7 @@ pub fn evaluate_draft(
         if s < limit {
             below += area;
         }
-        if s < 0.0 {
+        if s < -ROUND_OFF {
             under_area += area;
             undercuts.push(t);
         }

@@ -66,6 +66,11 @@ pub enum MeshError {
     /// Surfaces or contours that cannot be combined as asked.
     #[error("{0}")]
     Geometry(String),
+    /// Settings that cannot work for this blade (a hub sphere smaller than the root section, a
+    /// margin that leaves no room for the locating features, ...): bad input rather than a
+    /// failed computation.
+    #[error("{0}")]
+    Settings(String),
     /// The chordal tolerance could not be met by refinement (a discontinuous surface).
     #[error(
         "the {direction} grid cannot meet the tolerance near {at}: the surface is not continuous \

@@ -183,7 +183,8 @@ pub(crate) fn build_grid(
         )),
     })?;
     // Closing segments: subdivided so the cap's facets keep within the tolerance of the trim
-    // surface and are not much longer than the neighbouring chordwise spacing.
+    // surface and are not much longer than the neighbouring chordwise spacing, into an even
+    // number of pieces so that a parting line can run along the middle of the segment.
     let cap_chord = trims.root.chord_for_sag(tol).min(trims.tip.chord_for_sag(tol));
     let k = u.len() - 1;
     let closure = |at_back: bool| -> usize {
@@ -198,7 +199,7 @@ pub(crate) fn build_grid(
                 ((len / h).ceil() as usize).clamp(1, 10_000)
             })
             .max()
-            .unwrap_or(1)
+            .map_or(2, |n| n + n % 2)
     };
     let n_front = if ends.front == EndKind::Segment { closure(false) } else { 0 };
     let n_back = if ends.back == EndKind::Segment { closure(true) } else { 0 };

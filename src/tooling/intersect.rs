@@ -3,26 +3,31 @@
 //!
 //! Two triangles that do not lie in one plane intersect exactly when an edge of one crosses the
 //! other (the segment where they meet ends on their edges). A segment `pq` crosses the triangle
-//! `abc` when `p` and `q` are not strictly on one side of its plane and the three tetrahedra
-//! `pqab`, `pqbc`, `pqca` have one orientation sign. Coplanar pairs are tested in the plane
-//! (edge crossings and containment). Neighbours are tested for what sharing allows: a pair that
-//! shares a vertex intersects only if the edge of one opposite that vertex meets the other;
-//! a pair that shares an edge only if it is folded flat onto itself. Orientations smaller than
-//! `1e-12` of the product of the edge lengths count as zero (touching counts as meeting).
+//! `abc` when `p` and `q` are not strictly on one side of its plane and the point where it meets
+//! the plane (by interpolation of their signed distances) lies in the triangle. Coplanar pairs are
+//! tested in the plane (edge crossings and containment), and so is a triangle that touches the
+//! other's plane without crossing it (at its corners there). Neighbours are tested for what sharing
+//! allows: a pair that shares a vertex intersects only if the edge of one opposite that vertex
+//! meets the other; a pair that shares an edge only if it is folded flat onto itself. An
+//! orientation counts as zero when the point lies within `1e-12` of (its distance plus its distance
+//! from the origin) of the plane or line: computed coordinates carry round-off in proportion to
+//! their size, so a flat strip far from the origin is not told apart from a fold by noise (touching
+//! counts as meeting).
 
 use super::mesh::Mesh;
 use super::vec3::{self, P3};
 
 const COPLANAR: f64 = 1e-12;
 
-/// A triangle with what the tests reuse: corners, vertex indices, area vector and the squared
-/// product of its two edge lengths from corner 0.
+/// A triangle with what the tests reuse: corners, vertex indices, area vector, the squared
+/// product of its two edge lengths from corner 0, and the distance of corner 0 from the origin.
 #[derive(Debug, Clone, Copy)]
 pub(crate) struct Facet {
     pub v: [u32; 3],
     pub p: [P3; 3],
     n: P3,
     uv2: f64,
+    reach: f64,
 }
 
 impl Facet {
@@ -34,29 +39,27 @@ impl Facet {
             p,
             n: vec3::cross(u, v),
             uv2: vec3::dot(u, u) * vec3::dot(v, v),
+            reach: vec3::norm(p[0]),
         }
     }
 
-    /// `orient(p0, p1, p2, q)` from the stored area vector.
+    /// `orient(p0, p1, p2, q)` from the stored area vector; zero when `q` lies within
+    /// `COPLANAR` times (its distance from corner 0 plus the corner's distance from the origin)
+    /// of the plane: computed coordinates carry round-off in proportion to their size, so
+    /// near-coplanar facets far from the origin are not told apart by noise.
     fn side(&self, q: P3) -> f64 {
         let w = vec3::sub(q, self.p[0]);
         let det = vec3::dot(self.n, w);
-        if det * det <= COPLANAR * COPLANAR * self.uv2 * vec3::dot(w, w) { 0.0 } else { det }
+        let band = vec3::norm(w) + self.reach;
+        if det * det <= COPLANAR * COPLANAR * self.uv2 * band * band { 0.0 } else { det }
     }
 }
 
-/// Orientation of `d` against the plane `abc`: positive when `abc` winds counter-clockwise
-/// seen from `d`; zero (within `COPLANAR`) when the four points are coplanar.
-fn orient(a: P3, b: P3, c: P3, d: P3) -> f64 {
-    let (u, v, w) = (vec3::sub(b, a), vec3::sub(c, a), vec3::sub(d, a));
-    let det = vec3::dot(u, vec3::cross(v, w));
-    let scale2 = vec3::dot(u, u) * vec3::dot(v, v) * vec3::dot(w, w);
-    if det * det <= COPLANAR * COPLANAR * scale2 { 0.0 } else { det }
-}
-
+/// Orientation of `c` against the line `ab` in the plane; zero within `COPLANAR` times `c`'s
+/// distance from `a` plus `a`'s distance from the origin (as [`orient`]).
 fn orient_2d(a: [f64; 2], b: [f64; 2], c: [f64; 2]) -> f64 {
     let det = (b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0]);
-    let scale = vec3::dist_2d(a, b) * vec3::dist_2d(a, c);
+    let scale = vec3::dist_2d(a, b) * (vec3::dist_2d(a, c) + a[0].hypot(a[1]));
     if det.abs() <= COPLANAR * scale { 0.0 } else { det }
 }
 
@@ -65,18 +68,25 @@ fn same_strict_sign(a: f64, b: f64) -> bool {
 }
 
 /// Whether the segment `pq` meets the triangle, given the orientations of `p` and `q` against
-/// the triangle's plane.
+/// the triangle's plane: in the plane when both lie in it; else where it meets the plane (an end
+/// in the plane, or the crossing point found by interpolation), tested inside the triangle in the
+/// plane. Interpolating keeps a segment that grazes the plane well conditioned, where signs of
+/// orientations against the triangle's edges would be noise.
 fn segment_meets(p: P3, q: P3, t: &[P3; 3], op: f64, oq: f64) -> bool {
     if same_strict_sign(op, oq) {
         return false;
     }
-    if op == 0.0 && oq == 0.0 {
-        let axes = drop_axis(t);
-        let t2 = t.map(|v| project(v, axes));
-        return segment_meets_triangle_2d(project(p, axes), project(q, axes), &t2);
+    let axes = drop_axis(t);
+    let t2 = t.map(|v| project(v, axes));
+    match (op == 0.0, oq == 0.0) {
+        (true, true) => segment_meets_triangle_2d(project(p, axes), project(q, axes), &t2),
+        (true, false) => inside_triangle_2d(project(p, axes), &t2),
+        (false, true) => inside_triangle_2d(project(q, axes), &t2),
+        (false, false) => {
+            let x = vec3::lerp(p, q, op / (op - oq));
+            inside_triangle_2d(project(x, axes), &t2)
+        }
     }
-    let s = [orient(p, q, t[0], t[1]), orient(p, q, t[1], t[2]), orient(p, q, t[2], t[0])];
-    s.iter().all(|&x| x >= 0.0) || s.iter().all(|&x| x <= 0.0)
 }
 
 /// The two axes to keep when projecting a plane: drop the dominant normal component.
@@ -95,20 +105,24 @@ fn project(p: P3, [i, j]: [usize; 2]) -> [f64; 2] {
     [p[i], p[j]]
 }
 
+/// Whether `c`, on the line through `a` and `b`, lies on the segment (within its box).
+fn on_segment(a: [f64; 2], b: [f64; 2], c: [f64; 2]) -> bool {
+    (0..2).all(|k| a[k].min(b[k]) <= c[k] && c[k] <= a[k].max(b[k]))
+}
+
+/// Whether the segments `pq` and `ab` meet: they cross properly, or an end of one lies on the
+/// other (Cormen, Leiserson, Rivest & Stein, *Introduction to Algorithms*, 3rd ed., 2009, §33.1).
 fn segments_meet_2d(p: [f64; 2], q: [f64; 2], a: [f64; 2], b: [f64; 2]) -> bool {
     let (d1, d2) = (orient_2d(a, b, p), orient_2d(a, b, q));
     let (d3, d4) = (orient_2d(p, q, a), orient_2d(p, q, b));
-    if same_strict_sign(d1, d2) || same_strict_sign(d3, d4) {
-        return false;
+    let opposite = |x: f64, y: f64| (x > 0.0 && y < 0.0) || (x < 0.0 && y > 0.0);
+    if opposite(d1, d2) && opposite(d3, d4) {
+        return true;
     }
-    if d1 == 0.0 && d2 == 0.0 {
-        // Collinear: overlap of the projections on the line.
-        let k = if (b[0] - a[0]).abs() >= (b[1] - a[1]).abs() { 0 } else { 1 };
-        let (lo1, hi1) = (p[k].min(q[k]), p[k].max(q[k]));
-        let (lo2, hi2) = (a[k].min(b[k]), a[k].max(b[k]));
-        return lo1 <= hi2 && lo2 <= hi1;
-    }
-    true
+    (d1 == 0.0 && on_segment(a, b, p))
+        || (d2 == 0.0 && on_segment(a, b, q))
+        || (d3 == 0.0 && on_segment(p, q, a))
+        || (d4 == 0.0 && on_segment(p, q, b))
 }
 
 fn inside_triangle_2d(p: [f64; 2], t: &[[f64; 2]; 3]) -> bool {
@@ -122,6 +136,19 @@ fn segment_meets_triangle_2d(p: [f64; 2], q: [f64; 2], t: &[[f64; 2]; 3]) -> boo
         || (0..3).any(|k| segments_meet_2d(p, q, t[k], t[(k + 1) % 3]))
 }
 
+/// Whether triangle `t` meets the corners of the other triangle `q` that lie in its plane
+/// (`dq[i] == 0`: one corner or one edge), tested in that plane.
+fn touches_in_plane(t: &[P3; 3], q: &[P3; 3], dq: [f64; 3]) -> bool {
+    let axes = drop_axis(t);
+    let t2 = t.map(|v| project(v, axes));
+    let on: Vec<[f64; 2]> = (0..3).filter(|&i| dq[i] == 0.0).map(|i| project(q[i], axes)).collect();
+    match on.as_slice() {
+        [p] => inside_triangle_2d(*p, &t2),
+        [p, r] => segment_meets_triangle_2d(*p, *r, &t2),
+        _ => false,
+    }
+}
+
 /// Whether two triangles with no vertex in common meet.
 fn triangles_meet(fa: &Facet, fb: &Facet) -> bool {
     let (a, b) = (&fa.p, &fb.p);
@@ -133,11 +160,21 @@ fn triangles_meet(fa: &Facet, fb: &Facet) -> bool {
     if (db.iter().all(|&x| x > 0.0)) || db.iter().all(|&x| x < 0.0) {
         return false;
     }
-    if da.iter().all(|&x| x == 0.0) {
+    if da.iter().all(|&x| x == 0.0) || db.iter().all(|&x| x == 0.0) {
         let axes = drop_axis(a);
         let (a2, b2) = (a.map(|v| project(v, axes)), b.map(|v| project(v, axes)));
         return (0..3).any(|k| segment_meets_triangle_2d(a2[k], a2[(k + 1) % 3], &b2))
-            || inside_triangle_2d(b2[0], &a2);
+            || inside_triangle_2d(b2[0], &a2)
+            || inside_triangle_2d(a2[0], &b2);
+    }
+    // A triangle that touches the other's plane without crossing it can meet the other only at
+    // its corners in that plane.
+    let crosses = |d: &[f64; 3]| d.iter().any(|&x| x > 0.0) && d.iter().any(|&x| x < 0.0);
+    if !crosses(&da) {
+        return touches_in_plane(a, b, da);
+    }
+    if !crosses(&db) {
+        return touches_in_plane(b, a, db);
     }
     (0..3).any(|k| segment_meets(a[k], a[(k + 1) % 3], b, db[k], db[(k + 1) % 3]))
         || (0..3).any(|k| segment_meets(b[k], b[(k + 1) % 3], a, da[k], da[(k + 1) % 3]))
@@ -211,5 +248,71 @@ mod tests {
         assert!(triangles_meet(&a, &over));
         let apart = tri([[1.0, 1.0, 0.0], [2.0, 1.0, 0.0], [1.0, 2.0, 0.0]]);
         assert!(!triangles_meet(&a, &apart));
+        // Touching the plane at an edge: inside the triangle, and outside it.
+        let standing = tri([[0.2, 0.1, 0.0], [0.3, 0.2, 0.0], [0.25, 0.15, 1.0]]);
+        assert!(triangles_meet(&a, &standing));
+        let off = tri([[2.0, 0.1, 0.0], [2.3, 0.2, 0.0], [2.25, 0.15, 1.0]]);
+        assert!(!triangles_meet(&a, &off));
+    }
+
+    #[test]
+    fn a_strip_one_millimetre_along_with_a_picometre_of_twist_is_apart() {
+        // Neighbours two stations apart in a strip 1.5 m from the origin whose lines are straight
+        // within 1e-12 m: collinear bottom edges a millimetre apart do not meet.
+        let a = tri([
+            [1.476_187_635_734_169_2, 0.212_957_445_574_536_72, 0.010_276_255_173_613_434],
+            [1.477_179_480_541_553, 0.212_957_445_574_536_72, 0.010_276_255_173_613_427],
+            [1.474_812_368_541_124_3, 0.221_408_004_612_545_53, 0.009_044_785_667_020_449],
+        ]);
+        let b = tri([
+            [1.478_171_325_348_936_8, 0.212_957_445_574_536_75, 0.010_276_255_173_613_438],
+            [1.479_163_170_156_320_6, 0.212_957_445_573_569_4, 0.010_276_255_173_752_656],
+            [1.476_799_267_948_597_7, 0.221_408_004_612_545_53, 0.009_044_785_667_020_449],
+        ]);
+        assert!(!triangles_meet(&a, &b));
+        assert!(!triangles_meet(&b, &a));
+        // Segments: crossing, touching at an end, collinear apart and overlapping.
+        assert!(segments_meet_2d([0.0, 0.0], [1.0, 1.0], [0.0, 1.0], [1.0, 0.0]));
+        assert!(segments_meet_2d([0.0, 0.0], [1.0, 0.0], [1.0, 0.0], [1.0, 1.0]));
+        assert!(!segments_meet_2d([0.0, 0.0], [1.0, 0.0], [2.0, 0.0], [3.0, 0.0]));
+        assert!(segments_meet_2d([0.0, 0.0], [2.0, 0.0], [1.0, 0.0], [3.0, 0.0]));
+        assert!(!segments_meet_2d([0.0, 0.0], [1.0, 0.0], [2.0, -1.0], [2.0, 1.0]));
+    }
+
+    #[test]
+    fn collinear_edges_far_from_the_origin_with_round_off_are_apart() {
+        // Two needles of a flat strip 0.27 m from the origin whose top edges are collinear
+        // within 4e-16 m (round-off), 0.27 mm apart along the strip: they do not meet.
+        let a = tri([
+            [0.243_972_238_125_187_17, 0.116_995_789_145_880_09, 0.038_273_274_897_839_45],
+            [0.244_237_894_153_052_3, 0.116_995_789_145_880_09, 0.038_273_274_897_839_45],
+            [0.248_149_041_474_492_63, 0.110_428_433_763_845_74, 0.032_768_973_119_133_286],
+        ]);
+        let b = tri([
+            [0.244_503_550_180_917_46, 0.116_995_789_145_879_92, 0.038_273_274_897_839_32],
+            [0.244_769_206_208_782_6, 0.116_995_789_145_880_05, 0.038_273_274_897_839_396],
+            [0.248_679_322_984_121_43, 0.110_428_433_763_845_74, 0.032_768_973_119_133_286],
+        ]);
+        assert!(!triangles_meet(&a, &b));
+        assert!(!triangles_meet(&b, &a));
+    }
+
+    #[test]
+    fn neighbours_in_a_flat_strip_far_from_the_origin_are_apart() {
+        // Two needles of one planar strip between parallel lines at 0.4 m from the origin, a
+        // millimetre apart along the strip, with round-off of 1e-14 m on one corner (as a
+        // computed surface has): they do not meet.
+        let a = tri([
+            [0.392_912_927_766_805_86, 0.070_998_740_913_924_39, 0.061_315_812_573_667_9],
+            [0.393_896_589_061_876_75, 0.070_998_740_913_924_39, 0.061_315_812_573_667_9],
+            [0.395_298_561_278_485_56, 0.063_905_645_650_306_8, 0.053_270_858_003_337_52],
+        ]);
+        let b = tri([
+            [0.394_880_250_356_947_7, 0.070_998_740_913_924_39, 0.061_315_812_573_667_9],
+            [0.395_863_911_652_018_56, 0.070_998_740_913_924_33, 0.061_315_812_573_667_85],
+            [0.397_258_164_713_759_24, 0.063_905_645_574_384_62, 0.053_270_857_917_198_586],
+        ]);
+        assert!(!triangles_meet(&a, &b));
+        assert!(!triangles_meet(&b, &a));
     }
 }

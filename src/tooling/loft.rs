@@ -10,7 +10,7 @@ use super::cap::{annular_cap, column_cap};
 use super::error::{End, MeshError};
 use super::grid::{Grid, LoftParams, TrimmedLines, build_grid, build_stations, trim_lines};
 use super::mesh::Mesh;
-use super::surface::{SpanSurface, contour_polygon, polygon_area};
+use super::surface::{EndKind, SpanSurface, contour_polygon, polygon_area};
 use super::trim::Trims;
 use super::vec3;
 use super::vec3::P3;
@@ -28,6 +28,42 @@ pub struct LoftedSolid {
     pub u: Vec<f64>,
     /// The spanwise stations, fractions of each line's trimmed length.
     pub stations: Vec<f64>,
+    /// The lines a mould parts along (outer surface).
+    pub parting: PartingLines,
+    /// Which facets of the outer surface are its side and its end caps.
+    pub facets: FacetRanges,
+}
+
+/// Vertex chains of the outer surface along which a two-part mould can part: together they
+/// form a closed loop of mesh edges (front root to tip, across the tip cap, back tip to root,
+/// across the root cap) that separates the upper chain's facets from the lower chain's.
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct PartingLines {
+    /// The line at `u = 0` (the leading edge, or the front closure's middle), root to tip.
+    pub front: Vec<u32>,
+    /// The line at `u = 1` where the chains meet, else the middle of the back closing segment
+    /// (the middle of the base of a blunt trailing edge), root to tip.
+    pub back: Vec<u32>,
+    /// The middle vertex of every column of the root cap, front to back (empty for an annular
+    /// solid, whose caps are bands).
+    pub root: Vec<u32>,
+    /// The middle vertex of every column of the tip cap, front to back (empty for an annular
+    /// solid).
+    pub tip: Vec<u32>,
+    /// The upper chain's line at the middle chordwise parameter, root to tip: vertices on the
+    /// upper side of the loop.
+    pub upper: Vec<u32>,
+}
+
+/// Index ranges of the facets of the outer surface in [`LoftedSolid::mesh`].
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct FacetRanges {
+    /// The side surface between the end trims.
+    pub side: std::ops::Range<usize>,
+    /// The root cap.
+    pub root_cap: std::ops::Range<usize>,
+    /// The tip cap.
+    pub tip_cap: std::ops::Range<usize>,
 }
 
 /// Lofts `surface` between `trims` into a closed solid.
@@ -67,14 +103,53 @@ pub fn loft_solid(
     let mut mesh = Mesh::new();
     let rings = tube_vertices(&mut mesh, &stations.points[0]);
     tube_triangles(&mut mesh, &rings);
+    let side = 0..mesh.len();
     let (root_ring, tip_ring) = (rings[0].clone(), rings[rings.len() - 1].clone());
     let tol = 0.5 * params.tolerance;
-    column_cap(&mut mesh, &grid, &root_ring, trims.root, End::Root, tol, params.max_edge);
-    column_cap(&mut mesh, &grid, &tip_ring, trims.tip, End::Tip, tol, params.max_edge);
+    let mut parting = side_lines(&grid, &rings);
+    parting.root =
+        column_cap(&mut mesh, &grid, &root_ring, trims.root, End::Root, tol, params.max_edge);
+    let root_cap = side.end..mesh.len();
+    parting.tip =
+        column_cap(&mut mesh, &grid, &tip_ring, trims.tip, End::Tip, tol, params.max_edge);
+    let tip_cap = root_cap.end..mesh.len();
     if winds_counter_clockwise(surface, &grid, &tube)? {
         mesh.flip();
     }
-    Ok(LoftedSolid { mesh, root_ring, tip_ring, u: grid.u, stations: stations.t })
+    Ok(LoftedSolid {
+        mesh,
+        root_ring,
+        tip_ring,
+        u: grid.u,
+        stations: stations.t,
+        parting,
+        facets: FacetRanges { side, root_cap, tip_cap },
+    })
+}
+
+/// The front, back and middle upper lines of a tube (see [`PartingLines`]).
+fn side_lines(grid: &Grid, rings: &[Vec<u32>]) -> PartingLines {
+    let line = |pos: usize| rings.iter().map(|r| r[pos]).collect::<Vec<u32>>();
+    let middle = |inner: &[usize], point: usize| match inner.len() {
+        0 => point,
+        n => inner[n / 2],
+    };
+    let k = grid.u.len() - 1;
+    let front = match grid.ends.front {
+        EndKind::Point => grid.upper[0],
+        EndKind::Segment => middle(&grid.front, grid.upper[0]),
+    };
+    let back = match grid.ends.back {
+        EndKind::Point => grid.upper[k],
+        EndKind::Segment => middle(&grid.back, grid.upper[k]),
+    };
+    PartingLines {
+        front: line(front),
+        back: line(back),
+        root: Vec::new(),
+        tip: Vec::new(),
+        upper: line(grid.upper[k / 2]),
+    }
 }
 
 /// Lofts the solid between an `outer` and an `inner` surface, both ended by the same `trims`:
@@ -116,7 +191,17 @@ pub fn loft_annulus(
         mesh.flip();
     }
     let (root_ring, tip_ring) = (outer_rings[0].clone(), outer_rings[last].clone());
-    Ok(LoftedSolid { mesh, root_ring, tip_ring, u: grid.u, stations: stations.t })
+    let parting = side_lines(&grid, &outer_rings);
+    let side = 0..outer_rings.len().saturating_sub(1) * 2 * outer_rings[0].len();
+    Ok(LoftedSolid {
+        mesh,
+        root_ring,
+        tip_ring,
+        u: grid.u,
+        stations: stations.t,
+        parting,
+        facets: FacetRanges { side, root_cap: 0..0, tip_cap: 0..0 },
+    })
 }
 
 /// A hollow solid: `outer` between `outer_trims`, less the cavity `inner` between `inner_trims`

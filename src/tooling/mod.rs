@@ -10,6 +10,13 @@
 //! outward, no degenerate facets, no self-intersection) before they are written as STL
 //! ([`write_parts`]).
 //!
+//! A blade's tooling ([`build_tooling`]): the outer mould line lofted from the blade's own
+//! interpolation, the inner surface offset by the laminate, one core per cell between the webs
+//! (closed where the inner surfaces come within the least core thickness at the edges), the
+//! laminate shell, and a two-part mould parted through the leading and trailing edges
+//! ([`build_moulds`]: ruled parting surface, locating pins of our own, draft and undercut regions
+//! per half); [`summarise`] gives the masses and the core alloy's melting check.
+//!
 //! Frames: the rotor frame has its origin on the rotor axis where the pitch axis meets it, x along
 //! the pitch axis from root to tip; the section plane at radius x is (y, z). Pitching turns the
 //! blade about x through the origin, so `|p|` is unchanged and a spherical end keeps its clearance
@@ -38,6 +45,8 @@
 //! # }
 //! ```
 
+mod blade_parts;
+mod blade_surface;
 mod cap;
 mod cells;
 mod check;
@@ -47,21 +56,37 @@ mod grid;
 mod intersect;
 mod loft;
 mod mesh;
+mod mould;
+mod mould_block;
+mod orient;
 mod polygon;
 mod spatial;
 mod stl;
+mod summary;
 mod surface;
 mod trim;
 mod vec3;
 
+pub use blade_parts::{
+    BladeTooling, EndShape, EndSpheres, Part, PartKind, ToolingParams, build_tooling,
+};
+pub use blade_surface::CoreEnd;
 pub use cells::{Cell, WebPosition, split_cells};
 pub use check::{CheckParams, MeshSummary, check_solid};
 pub use draft::{DraftReport, evaluate_draft};
 pub use error::{End, MeshError, Place};
 pub use grid::LoftParams;
-pub use loft::{LoftedSolid, loft_annulus, loft_hollow, loft_solid};
+pub use loft::{FacetRanges, LoftedSolid, PartingLines, loft_annulus, loft_hollow, loft_solid};
 pub use mesh::{BoundingBox, Mesh, box_mesh};
+pub use mould::{MouldHalf, MouldParams, Undercut, build_moulds};
 pub use polygon::{loft_polygons, triangulate_polygon};
-pub use stl::{LengthUnit, StlFormat, StlOptions, WrittenPart, encode_stl, write_parts, write_stl};
+pub use stl::{
+    LengthUnit, StlFormat, StlOptions, WrittenPart, encode_stl, write_parts,
+    write_parts_with_progress, write_stl,
+};
+pub use summary::{
+    MeltCheck, MeltFinding, PartMass, ScheduleContent, ToolingSummary, melt_check,
+    schedule_content, summarise,
+};
 pub use surface::{ChainEnds, EndKind, FnSurface, SpanSurface, contour_polygon, polygon_area};
 pub use trim::{EndTrim, Trims};

@@ -201,6 +201,19 @@ pub fn write_parts(
     options: &StlOptions,
     check: &CheckParams,
 ) -> Result<Vec<WrittenPart>, Error> {
+    write_parts_with_progress(dir, parts, options, check, &mut |_, _, _| {})
+}
+
+/// [`write_parts`], calling `progress(done, total, what)` after each part is checked and after
+/// each file is written (`total` is twice the number of parts).
+pub fn write_parts_with_progress(
+    dir: &Path,
+    parts: &[(&str, &Mesh)],
+    options: &StlOptions,
+    check: &CheckParams,
+    progress: &mut dyn FnMut(usize, usize, &str),
+) -> Result<Vec<WrittenPart>, Error> {
+    let total = 2 * parts.len();
     let check = CheckParams { unit: options.unit, ..check.clone() };
     let mut done = Vec::with_capacity(parts.len());
     for (i, &(name, mesh)) in parts.iter().enumerate() {
@@ -216,11 +229,13 @@ pub fn write_parts(
             path: dir.join(format!("{name}.stl")),
             summary,
         });
+        progress(i + 1, total, &format!("checked {name}"));
     }
     std::fs::create_dir_all(dir)
         .map_err(|source| Error::Write { path: dir.display().to_string(), source })?;
-    for (part, &(name, mesh)) in done.iter().zip(parts) {
+    for (i, (part, &(name, mesh))) in done.iter().zip(parts).enumerate() {
         write_stl(&part.path, name, mesh, options)?;
+        progress(parts.len() + i + 1, total, &format!("wrote {name}.stl"));
     }
     Ok(done)
 }

@@ -1,0 +1,372 @@
+//! The blade's surfaces as continuous functions of radius and a chordwise parameter, for the
+//! tooling: the outer mould line and the inner laminate surface.
+//!
+//! **Outer mould line.** The section solver's interpolation made continuous: each station's
+//! outline is the natural cubic spline in arc length that [`Outline::resample`] uses; the point of
+//! a surface at parameter `u ∈ [0, 1]` is the point at normalised arc length `u` from the leading
+//! edge along that surface, blended linearly in radius between the neighbouring stations, scaled
+//! by the chord and moved to the pitch axis (chord, twist and pitch axis by the monotone cubic of
+//! the span interpolation). [`Blade::outline`] at `r` is this surface sampled at the clustered
+//! stations, so geometry and stiffness describe one blade. Beyond the first and the last station
+//! the end section is held (a prism): the spherical end trims need the surface a little past the
+//! stations, since a sphere about the rotor centre meets the trailing edge inboard of the pitch
+//! axis.
+//!
+//! **Inner surface.** The outer point moved inward along the unit normal of the section contour
+//! (in the section plane, as the section solver offsets its walls) by the local laminate
+//! thickness from the ply schedule. A ply edge is a step in thickness; here each edge is ramped
+//! by a smooth step (`3s² − 2s³`) centred on the edge, along the chord at chordwise edges and
+//! along the span at spanwise ones, so the surface is continuous and the laminate volume is kept
+//! (the ramp is antisymmetric about the edge). A ramp is [`PLY_DROP_TAPER`] times the ply's
+//! thickness long for a fibre ply and [`CORE_EDGE_TAPER`] times for an isotropic layer (a foam or
+//! metal sheet, whose edge is chamfered), and never longer than half the ply's own extent, so the
+//! two ramps of a narrow ply do not overlap. Chordwise positions are wrapped round the leading
+//! edge (`w = +x/c` on the upper surface, `−x/c` on the lower), so a ply that covers both surfaces
+//! from the leading edge has no edge there. Radii outside the stations take the end station's
+//! laminate.
+//!
+//! Chord frame as everywhere: `y` along the chord from the leading edge towards the trailing
+//! edge, `z` towards the upper surface, origin on the pitch axis, metres.
+
+use super::coverage::Surface;
+use super::{Blade, ResolvedPly};
+use crate::input::Region;
+use crate::interp::CubicSpline;
+
+/// Ply drops are ramped over this many ply thicknesses (a 1:20 taper, common practice for
+/// dropped plies in moulded laminates).
+pub const PLY_DROP_TAPER: f64 = 20.0;
+
+/// The edge of an isotropic layer (foam or metal sheet) is ramped over this many thicknesses
+/// (a chamfer of about 18°, our choice).
+pub const CORE_EDGE_TAPER: f64 = 3.0;
+
+/// One station's outline as a spline in arc length.
+#[derive(Debug, Clone)]
+struct StationCurve {
+    x: CubicSpline,
+    y: CubicSpline,
+    s_le: f64,
+    s_end: f64,
+    blunt: bool,
+}
+
+impl StationCurve {
+    fn new(outline: &crate::airfoil::Outline) -> Self {
+        // As `Outline::resample`: one curve from the upper trailing edge over the leading edge to
+        // the lower trailing edge.
+        let mut pts: Vec<[f64; 2]> = outline.upper.iter().rev().copied().collect();
+        pts.extend(outline.lower.iter().skip(1).copied());
+        let mut s = vec![0.0];
+        for w in pts.windows(2) {
+            let last = s[s.len() - 1];
+            s.push(last + (w[0][0] - w[1][0]).hypot(w[0][1] - w[1][1]));
+        }
+        StationCurve {
+            x: CubicSpline::natural(&s, &pts.iter().map(|p| p[0]).collect::<Vec<_>>()),
+            y: CubicSpline::natural(&s, &pts.iter().map(|p| p[1]).collect::<Vec<_>>()),
+            s_le: s[outline.upper.len() - 1],
+            s_end: s[s.len() - 1],
+            blunt: outline.blunt_te(),
+        }
+    }
+
+    /// Arc length at `u` on `surface` and its rate `ds/du`.
+    fn arc(&self, surface: Surface, u: f64) -> (f64, f64) {
+        match surface {
+            Surface::Upper => (self.s_le * (1.0 - u), -self.s_le),
+            Surface::Lower => (self.s_le + (self.s_end - self.s_le) * u, self.s_end - self.s_le),
+        }
+    }
+
+    /// Point (chord fractions) and its derivative in `u`.
+    fn point(&self, surface: Surface, u: f64) -> ([f64; 2], [f64; 2]) {
+        let (s, ds) = self.arc(surface, u);
+        ([self.x.eval(s), self.y.eval(s)], [self.x.derivative(s) * ds, self.y.derivative(s) * ds])
+    }
+}
+
+/// A smooth step from 0 (at `xi ≤ -1`) to 1 (at `xi ≥ 1`): `3s² − 2s³` with `s = (xi + 1) / 2`.
+fn smooth_step(xi: f64) -> f64 {
+    if xi <= -1.0 {
+        0.0
+    } else if xi >= 1.0 {
+        1.0
+    } else {
+        let s = 0.5 * (xi + 1.0);
+        s * s * (3.0 - 2.0 * s)
+    }
+}
+
+/// A ply's coverage with ramped edges.
+#[derive(Debug, Clone)]
+struct SmoothPly {
+    thickness: f64,
+    /// Ramp length over thickness.
+    taper: f64,
+    /// Intervals of the wrapped chordwise coordinate; an end at ±1 (a trailing edge) or a joined
+    /// leading edge has no ramp (`None`).
+    wrap: Vec<[Option<f64>; 2]>,
+    /// Span range; `None` at an end of the blade (no ramp there).
+    span: [Option<f64>; 2],
+    /// The span range covered, m.
+    covered: [f64; 2],
+    /// The web of a web ply.
+    web: Option<String>,
+}
+
+const EDGE_EPS: f64 = 1e-9;
+
+impl SmoothPly {
+    fn new(p: &ResolvedPly, span: [f64; 2]) -> Self {
+        let s = &p.spec;
+        let edge = |v: f64, end: f64| ((v - end).abs() > EDGE_EPS).then_some(v);
+        let upper = [edge(s.from, 0.0).or(Some(0.0)), edge(s.to, 1.0)];
+        let lower = [edge(-s.to, -1.0), edge(-s.from, 0.0).or(Some(0.0))];
+        let wrap = match &s.region {
+            Region::Upper => vec![upper],
+            Region::Lower => vec![lower],
+            Region::Both if s.from <= EDGE_EPS => vec![[lower[0], upper[1]]],
+            Region::Both => vec![lower, upper],
+            Region::Web(_) => Vec::new(),
+        };
+        let web = match &s.region {
+            Region::Web(w) => Some(w.clone()),
+            _ => None,
+        };
+        let taper = match p.material.kind {
+            crate::material::LaminaKind::Orthotropic => PLY_DROP_TAPER,
+            crate::material::LaminaKind::Isotropic => CORE_EDGE_TAPER,
+        };
+        SmoothPly {
+            thickness: p.material.ply_thickness,
+            taper,
+            wrap,
+            span: [edge(s.r_start, span[0]), edge(s.r_end, span[1])],
+            covered: [s.r_start, s.r_end],
+            web,
+        }
+    }
+
+    /// Half the length of a ramp, capped at a quarter of the extent `[a, b]` it ramps.
+    fn half_ramp(&self, length: f64, extent: f64) -> f64 {
+        (0.5 * self.taper * self.thickness / length).min(0.25 * extent)
+    }
+
+    /// Fraction of the ply present at radius `r` (its span ramps), the span covered being
+    /// `[r_start, r_end]` (ends of the blade included, where nothing is ramped).
+    fn span_factor(&self, r: f64, covered: [f64; 2]) -> f64 {
+        let h = self.half_ramp(1.0, covered[1] - covered[0]);
+        let lo = self.span[0].map_or(1.0, |a| smooth_step((r - a) / h));
+        let hi = self.span[1].map_or(1.0, |b| smooth_step((b - r) / h));
+        lo * hi
+    }
+
+    /// Fraction of the ply present at wrapped coordinate `w` on a section of chord `chord`.
+    fn chord_factor(&self, w: f64, chord: f64) -> f64 {
+        self.wrap
+            .iter()
+            .map(|[a, b]| {
+                let extent = b.unwrap_or(1.0) - a.unwrap_or(-1.0);
+                let h = self.half_ramp(chord, extent);
+                let lo = a.map_or(1.0, |a| smooth_step((w - a) / h));
+                let hi = b.map_or(1.0, |b| smooth_step((b - w) / h));
+                lo * hi
+            })
+            .sum()
+    }
+}
+
+/// The blade's outer mould line and inner laminate surface, continuous in radius and chordwise
+/// parameter (see the module docs).
+#[derive(Debug, Clone)]
+pub struct BladeSurfaces<'a> {
+    blade: &'a Blade,
+    curves: Vec<StationCurve>,
+    surface_plies: Vec<SmoothPly>,
+    web_plies: Vec<SmoothPly>,
+}
+
+impl Blade {
+    /// The blade's surfaces for lofting tooling (see [`BladeSurfaces`]).
+    pub fn surfaces(&self) -> BladeSurfaces<'_> {
+        let span = [self.root_radius(), self.tip_radius()];
+        let plies: Vec<SmoothPly> = self.plies.iter().map(|p| SmoothPly::new(p, span)).collect();
+        let (web_plies, surface_plies) = plies.into_iter().partition(|p| p.web.is_some());
+        BladeSurfaces {
+            blade: self,
+            curves: self.stations.iter().map(|s| StationCurve::new(&s.outline)).collect(),
+            surface_plies,
+            web_plies,
+        }
+    }
+}
+
+impl BladeSurfaces<'_> {
+    /// The blade.
+    pub fn blade(&self) -> &Blade {
+        self.blade
+    }
+
+    /// Whether each station's trailing edge is blunt (a base of more than 1e-6 chord), root first.
+    pub fn blunt_trailing_edges(&self) -> Vec<bool> {
+        self.curves.iter().map(|c| c.blunt).collect()
+    }
+
+    fn bracket(&self, r: f64) -> (usize, usize, f64) {
+        let st = &self.blade.stations;
+        let n = st.len();
+        if n == 1 {
+            return (0, 0, 0.0);
+        }
+        let i = st.partition_point(|s| s.r <= r).clamp(1, n - 1);
+        let (a, b) = (st[i - 1].r, st[i].r);
+        (i - 1, i, ((r - a) / (b - a)).clamp(0.0, 1.0))
+    }
+
+    /// The outer point in chord fractions and its derivative in `u`.
+    fn outer_fractions(&self, r: f64, surface: Surface, u: f64) -> ([f64; 2], [f64; 2]) {
+        let (i, j, w) = self.bracket(r);
+        let (pa, da) = self.curves[i].point(surface, u);
+        if w == 0.0 {
+            return (pa, da);
+        }
+        let (pb, db) = self.curves[j].point(surface, u);
+        let mix = |a: [f64; 2], b: [f64; 2]| [a[0] + w * (b[0] - a[0]), a[1] + w * (b[1] - a[1])];
+        (mix(pa, pb), mix(da, db))
+    }
+
+    /// A point of the outer mould line at radius `r` on `surface` at parameter `u` (normalised
+    /// arc length from the leading edge), chord frame, m.
+    pub fn outer(&self, r: f64, surface: Surface, u: f64) -> [f64; 2] {
+        let (p, _) = self.outer_fractions(r, surface, u);
+        self.to_chord_frame(r, p)
+    }
+
+    /// The outer point, its outward unit normal in the section plane and its chord fraction.
+    pub fn outer_with_normal(&self, r: f64, surface: Surface, u: f64) -> ([f64; 2], [f64; 2], f64) {
+        let (p, d) = self.outer_fractions(r, surface, u);
+        let len = d[0].hypot(d[1]);
+        // The contour runs clockwise (upper surface towards the trailing edge, lower surface
+        // back): the outward normal is the tangent turned a quarter turn to the left on the
+        // upper surface and to the right on the lower, each parametrised from the leading edge.
+        let n = if len > 0.0 {
+            match surface {
+                Surface::Upper => [-d[1] / len, d[0] / len],
+                Surface::Lower => [d[1] / len, -d[0] / len],
+            }
+        } else {
+            [-1.0, 0.0]
+        };
+        (self.to_chord_frame(r, p), n, p[0])
+    }
+
+    /// A point of the inner laminate surface: the outer point moved inward along its normal by
+    /// the (ramped) laminate thickness, chord frame, m.
+    pub fn inner(&self, r: f64, surface: Surface, u: f64) -> [f64; 2] {
+        let (p, n, x) = self.outer_with_normal(r, surface, u);
+        let t = self.thickness(r, surface, x);
+        [p[0] - t * n[0], p[1] - t * n[1]]
+    }
+
+    fn to_chord_frame(&self, r: f64, p: [f64; 2]) -> [f64; 2] {
+        let c = self.blade.chord(r);
+        [(p[0] - self.blade.pitch_axis_frac(r)) * c, p[1] * c]
+    }
+
+    fn clamp_r(&self, r: f64) -> f64 {
+        r.clamp(self.blade.root_radius(), self.blade.tip_radius())
+    }
+
+    /// The laminate thickness of a surface at radius `r` and chord fraction `x`, with ply edges
+    /// ramped (see the module docs), m. Away from the ramps it is
+    /// [`Blade::surface_thickness`].
+    pub fn thickness(&self, r: f64, surface: Surface, x: f64) -> f64 {
+        let r = self.clamp_r(r);
+        let x = x.clamp(0.0, 1.0);
+        let w = match surface {
+            Surface::Upper => x,
+            Surface::Lower => -x,
+        };
+        let chord = self.blade.chord(r);
+        self.surface_plies
+            .iter()
+            .map(|p| p.thickness * p.span_factor(r, p.covered) * p.chord_factor(w, chord))
+            .sum()
+    }
+
+    /// The least skin thickness round the section at radius `r` (sampled at 400 chord fractions
+    /// on each surface), m: the laminate that closes the blade's ends.
+    pub fn least_skin_thickness(&self, r: f64) -> f64 {
+        (0..=400)
+            .flat_map(|i| {
+                let x = i as f64 / 400.0;
+                [self.thickness(r, Surface::Upper, x), self.thickness(r, Surface::Lower, x)]
+            })
+            .fold(f64::INFINITY, f64::min)
+    }
+
+    /// The laminate thickness of the web with index `web` (in [`Blade::webs`]) at radius `r`,
+    /// with ply edges inside the web's span ramped, m; zero outside the web's span.
+    pub fn web_thickness(&self, r: f64, web: usize) -> f64 {
+        let w = &self.blade.webs[web];
+        if r < w.r_start - EDGE_EPS || r > w.r_end + EDGE_EPS {
+            return 0.0;
+        }
+        let r = self.clamp_r(r);
+        self.web_plies
+            .iter()
+            .filter(|p| p.web.as_deref() == Some(w.name.as_str()))
+            .map(|p| {
+                let inside = |e: Option<f64>| {
+                    e.filter(|&v| v > w.r_start + EDGE_EPS && v < w.r_end - EDGE_EPS)
+                };
+                let ply = SmoothPly { span: [inside(p.span[0]), inside(p.span[1])], ..p.clone() };
+                let present = match (p.span[0], p.span[1]) {
+                    (Some(a), _) if a >= w.r_end - EDGE_EPS => 0.0,
+                    (_, Some(b)) if b <= w.r_start + EDGE_EPS => 0.0,
+                    _ => 1.0,
+                };
+                p.thickness * present * ply.span_factor(r, p.covered)
+            })
+            .sum()
+    }
+
+    /// Chord-frame `y` of the midplane of the web with index `web` at radius `r`, m.
+    pub fn web_y(&self, r: f64, web: usize) -> f64 {
+        let w = &self.blade.webs[web];
+        (w.chord_frac - self.blade.pitch_axis_frac(r)) * self.blade.chord(r)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_smooth_step_keeps_the_area_of_the_step() {
+        // The ramp is antisymmetric about its centre: ∫_{-1}^{1} H = 1, the step's integral
+        // (Simpson's rule is exact for the cubic).
+        let n = 200;
+        let h = 2.0 / n as f64;
+        let sum: f64 = (0..=n)
+            .map(|i| {
+                let x = -1.0 + h * i as f64;
+                let w = if i == 0 || i == n {
+                    1.0
+                } else if i % 2 == 1 {
+                    4.0
+                } else {
+                    2.0
+                };
+                w * smooth_step(x)
+            })
+            .sum::<f64>()
+            * h
+            / 3.0;
+        assert!((sum - 1.0).abs() < 1e-12, "{sum}");
+        assert_eq!(smooth_step(-2.0), 0.0);
+        assert_eq!(smooth_step(3.0), 1.0);
+        assert_eq!(smooth_step(0.0), 0.5);
+    }
+}

@@ -1,0 +1,192 @@
+//! `layloft tooling`: the blade's cores, laminate shell and mould halves as STL files, with the
+//! tooling summary on stdout and as `tooling-summary.json` beside the files.
+//!
+//! The arguments and the project are turned into a checked configuration first (project read,
+//! blade lofted, every station's walls checked against its depth, settings validated), then the
+//! parts are built and checked, and only when every part passes are the files written. Exit
+//! status 1 when the core alloy's melting check fails (the files are written all the same);
+//! 2 for bad input or settings that cannot work for the blade; 3 when a file cannot be written or
+//! a part cannot be built.
+
+use std::path::{Path, PathBuf};
+
+use anyhow::anyhow;
+
+use layloft::Error;
+use layloft::blade::Blade;
+use layloft::input::{Project, read_project};
+use layloft::report::{ToolingReport, write_atomic};
+use layloft::tooling::{
+    CheckParams, MeshError, StlFormat, StlOptions, ToolingParams, build_tooling, summarise,
+    write_parts_with_progress,
+};
+use layloft::units::MM;
+
+use super::{Failure, Outcome, Output};
+
+const EXAMPLES: &str = "\
+Examples:
+  layloft tooling layups/mine-fan/blade.toml --out meshes
+  layloft tooling layups/mine-fan/blade.toml --out meshes --ascii --tolerance-mm 0.05 --json
+
+Writes one STL file per part into the folder (core-1.stl, core-2.stl, ..., shell.stl,
+mould-upper.stl, mould-lower.stl) and tooling-summary.json. Every part is checked (closed,
+2-manifold, outward, no degenerate or intersecting facets) before any file is written. The
+[tooling] table of the project is optional; without it the stated defaults apply (mm, 0.1 mm
+tolerance, 30 mm block margin, 2 mm least core thickness) and the core-alloy mass is not computed.
+Exit status 1 when the core alloy would melt before the resin gels or never melt out.";
+
+/// Cores, laminate shell and the two mould halves of a blade as STL, with volumes, masses, the
+/// core alloy's melting check and the draft of each mould half.
+#[derive(Debug, clap::Args)]
+#[command(after_help = EXAMPLES)]
+pub struct Args {
+    /// The blade project file (blade.toml).
+    #[arg(value_name = "BLADE.toml")]
+    pub project: PathBuf,
+
+    /// Folder for the STL files and tooling-summary.json (created when missing).
+    #[arg(long, value_name = "DIR")]
+    pub out: PathBuf,
+
+    /// Write ASCII STL instead of binary.
+    #[arg(long)]
+    pub ascii: bool,
+
+    /// Chordal tolerance of every surface in mm, in place of the project's tolerance_mm.
+    #[arg(long = "tolerance-mm", value_name = "MM", allow_hyphen_values = true)]
+    pub tolerance_mm: Option<String>,
+
+    /// Print the summary as one JSON object on stdout (SI units in every key).
+    #[arg(long)]
+    pub json: bool,
+}
+
+/// The checked request.
+struct Config {
+    project: Project,
+    blade: Blade,
+    params: ToolingParams,
+    stl: StlOptions,
+}
+
+fn input(e: impl Into<Error>) -> Failure {
+    Failure::Input(e.into().into())
+}
+
+/// A mesh error is bad input when it is about the settings (named with the project file), else
+/// a failed computation.
+fn mesh_failure(file: &str, e: MeshError) -> Failure {
+    match e {
+        MeshError::Settings(text) => Failure::Input(anyhow!("{file}: {text}")),
+        MeshError::Parameter { .. } | MeshError::Unit(_) => {
+            Failure::Input(anyhow!("{file}: {}", Error::from(e)))
+        }
+        other => Failure::Run(anyhow!("the tooling cannot be built: {other}")),
+    }
+}
+
+fn configure(args: &Args) -> Result<Config, Failure> {
+    let project = read_project(&args.project).map_err(input)?;
+    let blade = Blade::from_project(&project).map_err(input)?;
+    // Walls thicker than the section at a station are bad input, named by the plies file.
+    for r in blade.station_radii() {
+        blade.section_layout(r, project.sections.contour_points).map_err(input)?;
+    }
+    let spec = project.tooling.clone().unwrap_or_default();
+    let mut params = ToolingParams::from_spec(&spec).map_err(|e| mesh_failure(&project.file, e))?;
+    if let Some(text) = &args.tolerance_mm {
+        match text.trim().parse::<f64>() {
+            Ok(t) if t.is_finite() && t > 0.0 => params.tolerance = t * MM,
+            _ => {
+                return Err(Failure::Input(anyhow!(
+                    "--tolerance-mm: expected a positive tolerance in mm, found '{text}'"
+                )));
+            }
+        }
+    }
+    let format = if args.ascii { StlFormat::Ascii } else { StlFormat::Binary };
+    let stl = StlOptions { unit: params.unit, format };
+    Ok(Config { project, blade, params, stl })
+}
+
+pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
+    let config = configure(&args)?;
+    let mut bar = None;
+    let tooling = build_tooling(&config.blade, &config.params, &mut |_, total, stage| {
+        let b = bar.get_or_insert_with(|| out.progress(total as u64, "lofting"));
+        b.set_message(&format!("lofted {stage}"));
+        b.inc(1);
+    })
+    .map_err(|e| mesh_failure(&config.project.file, e))?;
+    drop(bar);
+    let parts: Vec<(&str, &layloft::tooling::Mesh)> =
+        tooling.parts.iter().map(|p| (p.name.as_str(), &p.mesh)).collect();
+    let bar = out.progress(2 * parts.len() as u64, "checking");
+    let written = write_parts_with_progress(
+        &args.out,
+        &parts,
+        &config.stl,
+        &CheckParams::default(),
+        &mut |_, _, what| {
+            bar.set_message(what);
+            bar.inc(1);
+        },
+    )
+    .map_err(|e| match e {
+        Error::Mesh(m) => {
+            Failure::Run(anyhow!("a part failed its check, nothing was written: {m}"))
+        }
+        other => Failure::Run(other.into()),
+    })?;
+    bar.finish();
+    let summary = summarise(&config.project, &config.blade, &tooling);
+    let format = format!(
+        "{} STL in {}",
+        if args.ascii { "ASCII" } else { "binary" },
+        config.stl.unit.symbol()
+    );
+    let report = ToolingReport {
+        name: &config.project.name,
+        tooling: &tooling,
+        written: &written,
+        summary: &summary,
+        format: &format,
+    };
+    let json = serde_json::to_string_pretty(&report.to_json())
+        .map_err(|e| Failure::Run(anyhow!("cannot format the JSON summary: {e}")))?;
+    let json_path = args.out.join("tooling-summary.json");
+    write_atomic(&json_path, json.as_bytes()).map_err(|e| Failure::Run(e.into()))?;
+    if args.json {
+        out.data(&json);
+    } else {
+        out.data(&report.to_text());
+    }
+    out.note(&format!(
+        "wrote {} STL files and {} into {}",
+        written.len(),
+        file_name(&json_path),
+        args.out.display()
+    ));
+    for h in &tooling.moulds {
+        if !h.undercuts.is_empty() {
+            out.note(&format!(
+                "the {} mould half has {:.1} cm² of undercut in {} regions (see the summary)",
+                h.side,
+                h.draft.undercut_area * 1e4,
+                h.undercuts.len()
+            ));
+        }
+    }
+    if summary.melt.failed() {
+        for f in summary.melt.findings.iter().filter(|f| f.passed == Some(false)) {
+            out.warn(&format!("core alloy: {}", f.text));
+        }
+        return Ok(Outcome::CheckFailed);
+    }
+    Ok(Outcome::Success)
+}
+
+fn file_name(p: &Path) -> String {
+    p.file_name().map(|f| f.to_string_lossy().into_owned()).unwrap_or_default()
+}

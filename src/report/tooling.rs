@@ -1,0 +1,464 @@
+//! The tooling summary: each part's file, triangle count, volume, surface area, mass and
+//! bounding box; the end spheres; where the core ends at the thin trailing edge; the core
+//! alloy's melting check with its handling note; each mould half's pull, least draft and
+//! undercut regions; the allowances. As a terminal summary ([`ToolingReport::to_text`]) or one
+//! JSON object ([`ToolingReport::to_json`], SI units in every key; a value not computed is
+//! `null` with the reason beside it).
+//!
+//! Volumes and masses are those of the nominal parts; the files hold the parts with the
+//! allowance factors applied (cores by the shrink factor, the mould cavity by the expansion
+//! factor, both about the rotor centre). Places are rotor-frame points (origin on the rotor
+//! axis, x along the pitch axis) in the output unit.
+
+use std::fmt::Write as _;
+
+use serde_json::{Value, json};
+
+use super::table::{Align, Table, fixed, sig4};
+use crate::tooling::{BladeTooling, LengthUnit, ToolingSummary, WrittenPart};
+
+/// What `layloft tooling` reports.
+#[derive(Debug, Clone, Copy)]
+pub struct ToolingReport<'a> {
+    /// The project's name.
+    pub name: &'a str,
+    /// The parts and what their construction found.
+    pub tooling: &'a BladeTooling,
+    /// The files written, one per part in the order of `tooling.parts`.
+    pub written: &'a [WrittenPart],
+    /// Masses and the melting check.
+    pub summary: &'a ToolingSummary,
+    /// STL format and unit, in words ("binary STL in mm").
+    pub format: &'a str,
+}
+
+/// `text` wrapped at 96 columns, the first line after `first`, the others after `rest`.
+fn wrap(text: &str, first: &str, rest: &str) -> String {
+    let mut out = String::new();
+    let mut line = first.to_string();
+    let mut empty = true;
+    for word in text.split_whitespace() {
+        if !empty && line.chars().count() + 1 + word.chars().count() > 96 {
+            out.push_str(&line);
+            out.push('\n');
+            line = rest.to_string();
+            empty = true;
+        }
+        if !empty {
+            line.push(' ');
+        }
+        line.push_str(word);
+        empty = false;
+    }
+    out.push_str(&line);
+    out.push('\n');
+    out
+}
+
+fn num(v: f64) -> Value {
+    if v.is_finite() { json!(v) } else { Value::Null }
+}
+
+fn opt(v: Option<f64>) -> Value {
+    v.map_or(Value::Null, num)
+}
+
+fn point(p: [f64; 3]) -> Value {
+    json!({"x_m": num(p[0]), "y_m": num(p[1]), "z_m": num(p[2])})
+}
+
+impl ToolingReport<'_> {
+    fn unit(&self) -> LengthUnit {
+        self.tooling.params.unit
+    }
+
+    /// A length in the output unit with micrometre decimals.
+    fn len(&self, v: f64) -> String {
+        let u = self.unit();
+        fixed(v * u.per_metre(), u.decimals().saturating_sub(2))
+    }
+
+    /// A small length (a tolerance, a laminate thickness) in the output unit, four digits.
+    fn small(&self, v: f64) -> String {
+        sig4(v * self.unit().per_metre())
+    }
+
+    /// The summary as text for the terminal.
+    pub fn to_text(&self) -> String {
+        let t = self.tooling;
+        let u = self.unit().symbol();
+        let mut s = String::new();
+        let _ = writeln!(s, "Tooling  {}", self.name);
+        s.push_str(&wrap(
+            &format!(
+                "{}; chordal tolerance {} {u}; parts at pitch {:.1}°, rotor frame (x along the \
+                 pitch axis from the rotor centre)",
+                self.format,
+                self.small(t.params.tolerance),
+                t.pitch.deg()
+            ),
+            "  ",
+            "  ",
+        ));
+        let _ = writeln!(s, "\nCaution");
+        for c in crate::CAUTIONS {
+            s.push_str(&wrap(c, "  ! ", "    "));
+        }
+        let dir = self.written.first().and_then(|w| w.path.parent());
+        let _ = writeln!(
+            s,
+            "\nParts in {} (volume and mass of the nominal part, area as written)",
+            dir.map_or(String::from("."), |d| d.display().to_string())
+        );
+        let mut table = Table::new(&[
+            ("part", Align::Left),
+            ("file", Align::Left),
+            ("triangles", Align::Right),
+            ("volume cm³", Align::Right),
+            ("area cm²", Align::Right),
+            ("mass kg", Align::Right),
+        ]);
+        let mut boxes = Table::new(&[
+            ("part", Align::Left),
+            (&format!("x {u}"), Align::Right),
+            (&format!("y {u}"), Align::Right),
+            (&format!("z {u}"), Align::Right),
+        ]);
+        for ((p, w), m) in t.parts.iter().zip(self.written).zip(&self.summary.masses) {
+            let b = w.summary.bounding_box;
+            let span = |k: usize| format!("{}..{}", self.len(b.min[k]), self.len(b.max[k]));
+            let file = w.path.file_name().map(|f| f.to_string_lossy().into_owned());
+            table.row(vec![
+                p.name.clone(),
+                file.unwrap_or_default(),
+                w.summary.triangles.to_string(),
+                sig4(p.nominal_volume * 1e6),
+                sig4(w.summary.area * 1e4),
+                m.mass.map_or("not computed".into(), sig4),
+            ]);
+            boxes.row(vec![p.name.clone(), span(0), span(1), span(2)]);
+        }
+        s.push_str(&table.render(2));
+        let _ = writeln!(s, "\nBounding boxes as written, rotor frame");
+        s.push_str(&boxes.render(2));
+        self.masses_text(&mut s);
+        self.ends_text(&mut s);
+        self.melt_text(&mut s);
+        self.moulds_text(&mut s);
+        s
+    }
+
+    fn masses_text(&self, s: &mut String) {
+        let sum = self.summary;
+        let _ = writeln!(s, "\nMasses");
+        match sum.core_alloy {
+            Some(m) => {
+                let basis = self
+                    .tooling
+                    .parts
+                    .iter()
+                    .zip(&sum.masses)
+                    .find(|(p, _)| p.kind == crate::tooling::PartKind::Core)
+                    .map(|(_, m)| m.basis.clone())
+                    .unwrap_or_default();
+                let _ = writeln!(s, "  cores: {} kg of {basis} (nominal core volume)", sig4(m));
+            }
+            None => {
+                let _ = writeln!(
+                    s,
+                    "  cores: core alloy mass not computed: no core_alloy in [tooling]"
+                );
+            }
+        }
+        if let Some((p, m)) = self
+            .tooling
+            .parts
+            .iter()
+            .zip(&sum.masses)
+            .find(|(p, _)| p.kind == crate::tooling::PartKind::Shell)
+        {
+            let resin = m.resin.map_or(
+                "resin not computed (a lamina lacks fibre_volume_fraction or \
+                 resin_density_kg_m3)"
+                    .to_string(),
+                |r| format!("of it resin {} kg", sig4(r)),
+            );
+            let text = format!(
+                "shell: {} kg of laminate, {resin}; {}",
+                m.mass.map_or("-".into(), sig4),
+                m.basis
+            );
+            s.push_str(&wrap(&text, "  ", "    "));
+            let sc = sum.schedule;
+            let text = format!(
+                "the ply schedule over the stations holds {} kg in {} cm³; the shell's {} cm³ \
+                 ({:+.1}%) add the end closures and the blade carried to the end trims",
+                sig4(sc.mass),
+                sig4(sc.volume * 1e6),
+                sig4(p.nominal_volume * 1e6),
+                100.0 * (p.nominal_volume / sc.volume - 1.0)
+            );
+            s.push_str(&wrap(&text, "  ", "    "));
+        }
+    }
+
+    fn ends_text(&self, s: &mut String) {
+        let t = self.tooling;
+        let u = self.unit().symbol();
+        let e = t.ends;
+        let _ = writeln!(s, "\nEnds");
+        match t.params.ends {
+            crate::tooling::EndShape::Spheres => {
+                let text = format!(
+                    "spheres about the rotor centre: outer surface {} and {} {u}, cores {} and \
+                     {} {u} (end laminate {} and {} {u})",
+                    self.len(e.root),
+                    self.len(e.tip),
+                    self.len(e.root + e.root_laminate),
+                    self.len(e.tip - e.tip_laminate),
+                    self.small(e.root_laminate),
+                    self.small(e.tip_laminate)
+                );
+                s.push_str(&wrap(&text, "  ", "    "));
+            }
+            crate::tooling::EndShape::Planes => {
+                let _ =
+                    writeln!(s, "  planes normal to the pitch axis at the first and last station");
+            }
+        }
+        if t.root_extension > 0.0 {
+            let _ = writeln!(
+                s,
+                "  the root section is carried up to {} {u} inboard of the first station to meet \
+                 the root trim",
+                self.len(t.root_extension)
+            );
+        }
+        if t.tip_extension > 0.0 {
+            let _ = writeln!(
+                s,
+                "  the tip section is carried {} {u} beyond the last station to meet the tip trim",
+                self.len(t.tip_extension)
+            );
+        }
+        s.push('\n');
+        s.push_str(&wrap(
+            &format!(
+                "Core at the trailing edge: the last core closes where the inner surfaces come \
+                 within {} {u}; behind it the shell is solid laminate",
+                self.small(t.params.min_core_thickness)
+            ),
+            "",
+            "  ",
+        ));
+        let mut table = Table::new(&[
+            (&format!("r {u}"), Align::Right),
+            ("core ends at x/c", Align::Right),
+            (&format!("solid chord {u}"), Align::Right),
+        ]);
+        for c in &t.core_ends {
+            table.row(vec![self.len(c.r), fixed(c.chord_fraction, 3), self.len(c.solid_chord)]);
+        }
+        s.push_str(&table.render(2));
+    }
+
+    fn melt_text(&self, s: &mut String) {
+        let m = &self.summary.melt;
+        let range =
+            m.melting_range_c.map(|[a, b]| format!(", melts {a}..{b} °C")).unwrap_or_default();
+        let name = m.alloy.clone().unwrap_or_else(|| "none named".into());
+        let _ = writeln!(s, "\nCore alloy: {name}{range}");
+        for f in &m.findings {
+            let mark = match f.passed {
+                Some(true) => "ok  ",
+                Some(false) => "FAIL",
+                None => "-   ",
+            };
+            let _ = writeln!(s, "  {mark} {}", f.text);
+        }
+        if let Some(note) = &m.safety_note {
+            s.push_str(&wrap(&format!("handling: {note}"), "  ", "    "));
+        }
+        s.push_str(&wrap(crate::CAUTIONS[3], "  ! ", "    "));
+    }
+
+    fn moulds_text(&self, s: &mut String) {
+        let t = self.tooling;
+        let u = self.unit().symbol();
+        s.push('\n');
+        s.push_str(&wrap(
+            &format!(
+                "Mould halves: pulled normal to the chord at the middle station, parting through \
+                 the leading and trailing edges; least acceptable draft {:.1}°",
+                t.params.min_draft.deg()
+            ),
+            "",
+            "  ",
+        ));
+        let mut table = Table::new(&[
+            ("half", Align::Left),
+            ("pull (x, y, z)", Align::Left),
+            ("least draft °", Align::Right),
+            ("at", Align::Left),
+            ("below least cm²", Align::Right),
+            ("undercut cm²", Align::Right),
+        ]);
+        for h in &t.moulds {
+            table.row(vec![
+                h.side.to_string(),
+                format!(
+                    "({}, {}, {})",
+                    fixed(h.pull[0], 3),
+                    fixed(h.pull[1], 3),
+                    fixed(h.pull[2], 3)
+                ),
+                fixed(h.draft.min_draft.deg(), 2),
+                h.draft.at.to_string(),
+                sig4(h.draft.below_min_area * 1e4),
+                sig4(h.draft.undercut_area * 1e4),
+            ]);
+        }
+        s.push_str(&table.render(2));
+        for h in &t.moulds {
+            if h.undercuts.is_empty() {
+                let _ = writeln!(s, "  {} half: no undercuts", h.side);
+                continue;
+            }
+            let _ =
+                writeln!(s, "  undercuts of the {} half ({} regions):", h.side, h.undercuts.len());
+            for r in h.undercuts.iter().take(8) {
+                let text = format!(
+                    "{} cm² on the {}, x {}..{} {u}, worst {:.2}° at {}",
+                    sig4(r.area * 1e4),
+                    r.region,
+                    self.len(r.x_range[0]),
+                    self.len(r.x_range[1]),
+                    r.worst.deg(),
+                    r.at
+                );
+                s.push_str(&wrap(&text, "    ", "      "));
+            }
+            if h.undercuts.len() > 8 {
+                let _ = writeln!(s, "    and {} smaller regions", h.undercuts.len() - 8);
+            }
+        }
+        let b = t.moulds[0].block_size;
+        let text = format!(
+            "block {} x {} x {} {u} (along the pitch axis, the middle chord, the pull); three \
+             conical locating pins on the lower half's corners register the halves one way round",
+            self.len(b[0]),
+            self.len(b[1]),
+            self.len(b[2])
+        );
+        s.push_str(&wrap(&text, "  ", "    "));
+        let _ = writeln!(
+            s,
+            "  allowances: mould cavity x{} (thermal expansion), cores x{} (shrink), about the \
+             rotor centre",
+            t.params.mould_expansion_factor, t.params.core_shrink_factor
+        );
+    }
+
+    /// The summary as one JSON object, SI units in every key.
+    pub fn to_json(&self) -> Value {
+        let t = self.tooling;
+        let parts: Vec<Value> = t
+            .parts
+            .iter()
+            .zip(self.written)
+            .zip(&self.summary.masses)
+            .map(|((p, w), m)| {
+                let b = w.summary.bounding_box;
+                json!({
+                    "name": p.name,
+                    "file": w.path.display().to_string(),
+                    "triangles": w.summary.triangles,
+                    "volume_m3": num(p.nominal_volume),
+                    "volume_in_file_m3": num(w.summary.volume),
+                    "area_m2": num(w.summary.area),
+                    "mass_kg": opt(m.mass),
+                    "resin_mass_kg": opt(m.resin),
+                    "mass_basis": m.basis,
+                    "bounding_box": {"min": point(b.min), "max": point(b.max)},
+                })
+            })
+            .collect();
+        let e = t.ends;
+        let melt = &self.summary.melt;
+        let sc = self.summary.schedule;
+        let halves: Vec<Value> = t
+            .moulds
+            .iter()
+            .map(|h| {
+                json!({
+                    "half": h.side,
+                    "pull": {"x": num(h.pull[0]), "y": num(h.pull[1]), "z": num(h.pull[2])},
+                    "least_draft_deg": num(h.draft.min_draft.deg()),
+                    "least_draft_at": point(h.draft.at.point),
+                    "below_least_draft_area_m2": num(h.draft.below_min_area),
+                    "undercut_area_m2": num(h.draft.undercut_area),
+                    "cavity_area_m2": num(h.cavity_area),
+                    "undercuts": h.undercuts.iter().map(|r| json!({
+                        "area_m2": num(r.area),
+                        "worst_draft_deg": num(r.worst.deg()),
+                        "at": point(r.at.point),
+                        "x_from_m": num(r.x_range[0]),
+                        "x_to_m": num(r.x_range[1]),
+                        "region": r.region,
+                    })).collect::<Vec<_>>(),
+                    "locators": h.locators.iter().map(|&p| point(p)).collect::<Vec<_>>(),
+                    "block_size_m": h.block_size.map(num),
+                })
+            })
+            .collect();
+        json!({
+            "project": self.name,
+            "format": self.format,
+            "unit": self.unit().symbol(),
+            "tolerance_m": num(t.params.tolerance),
+            "pitch_deg": num(t.pitch.deg()),
+            "cautions": crate::CAUTIONS,
+            "parts": parts,
+            "ends": {
+                "shape": match t.params.ends {
+                    crate::tooling::EndShape::Spheres => "spheres",
+                    crate::tooling::EndShape::Planes => "planes",
+                },
+                "root_sphere_radius_m": num(e.root),
+                "tip_sphere_radius_m": num(e.tip),
+                "root_laminate_m": num(e.root_laminate),
+                "tip_laminate_m": num(e.tip_laminate),
+                "root_extension_m": num(t.root_extension),
+                "tip_extension_m": num(t.tip_extension),
+            },
+            "core_ends": t.core_ends.iter().map(|c| json!({
+                "r_m": num(c.r),
+                "chord_fraction": num(c.chord_fraction),
+                "solid_chord_m": num(c.solid_chord),
+            })).collect::<Vec<_>>(),
+            "min_core_thickness_m": num(t.params.min_core_thickness),
+            "masses": {
+                "core_alloy_kg": opt(self.summary.core_alloy),
+                "schedule_volume_m3": num(sc.volume),
+                "schedule_mass_kg": num(sc.mass),
+                "schedule_resin_mass_kg": opt(sc.resin),
+            },
+            "core_alloy": {
+                "name": melt.alloy,
+                "solidus_C": opt(melt.melting_range_c.map(|r| r[0])),
+                "liquidus_C": opt(melt.melting_range_c.map(|r| r[1])),
+                "checks": melt.findings.iter().map(|f| json!({
+                    "passed": f.passed,
+                    "text": f.text,
+                })).collect::<Vec<_>>(),
+                "failed": melt.failed(),
+                "safety_note": melt.safety_note,
+            },
+            "moulds": halves,
+            "allowances": {
+                "mould_expansion_factor": num(t.params.mould_expansion_factor),
+                "core_shrink_factor": num(t.params.core_shrink_factor),
+            },
+        })
+    }
+}

@@ -1,0 +1,479 @@
+//! The tooling of one blade: its cores, the laminate shell and the two mould halves, lofted from
+//! the blade's surfaces (see [`crate::blade::BladeSurfaces`]).
+//!
+//! - **Ends.** The outer mould line is trimmed by spheres about the rotor centre of radius
+//!   `R_hub + root_clearance` and `R_tip − tip_clearance`; the cores by those spheres moved in by
+//!   the end laminate, the least skin thickness of the end station (the plies that run all round
+//!   the section are taken to close the end).
+//! - **Cores.** One per cell: from the leading edge (or the back face of a web, `y_web + t_web/2`)
+//!   to the front face of the next web, or to the thin trailing edge, where the last core closes
+//!   at the first chordwise position aft of the section's greatest depth where the inner surfaces
+//!   come within the least core thickness; behind that the shell is solid laminate. A web that
+//!   starts or ends inside the span closes the cores on either side with a bulkhead of its own
+//!   laminate thickness, normal to the pitch axis; the cores are numbered root segment first,
+//!   front to back within a segment.
+//! - **Shell.** The outer solid with every core as a cavity.
+//! - **Allowances.** The cast cores are written scaled by the shrink factor and the mould cavity
+//!   by the thermal-expansion factor, both about the rotor centre (so spherical ends stay spheres
+//!   about it); volumes and masses are those of the nominal parts.
+
+use super::blade_surface::span_samples;
+use super::blade_surface::{BladeSurface, CoreCell, CoreEnd, CutBound, Side, core_cuts};
+use super::error::MeshError;
+use super::grid::LoftParams;
+use super::loft::{LoftedSolid, loft_solid};
+use super::mesh::Mesh;
+use super::mould::{MouldHalf, MouldParams, build_moulds};
+use super::stl::LengthUnit;
+use super::surface::EndKind;
+use super::trim::{EndTrim, Trims};
+use crate::blade::{Blade, BladeSurfaces, Surface};
+use crate::input::ToolingSpec;
+use crate::interp::Pchip;
+use crate::units::Angle;
+
+/// Settings of a blade's tooling.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ToolingParams {
+    /// Chordal tolerance of every surface, m.
+    pub tolerance: f64,
+    /// Least core thickness normal to the chord, where a core ends at a thin trailing edge, m.
+    pub min_core_thickness: f64,
+    /// Block margin beyond the part on every side of a mould half, m.
+    pub mould_margin: f64,
+    /// Pitch setting the parts are placed at (the rotor's setting when `None`).
+    pub pitch: Option<Angle>,
+    /// Scale of the mould cavity about the rotor centre (thermal-expansion allowance; 1: none).
+    pub mould_expansion_factor: f64,
+    /// Scale of the cast cores about the rotor centre (shrink allowance; 1: none).
+    pub core_shrink_factor: f64,
+    /// Least acceptable draft of a mould half along its pull.
+    pub min_draft: Angle,
+    /// Unit in which places are named in messages and reports.
+    pub unit: LengthUnit,
+    /// How the blade's ends are trimmed.
+    pub ends: EndShape,
+}
+
+/// How the blade's ends are trimmed.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum EndShape {
+    /// Spheres about the rotor centre, `R_hub + root_clearance` and `R_tip − tip_clearance`
+    /// (the default: the clearances hold at every pitch angle).
+    #[default]
+    Spheres,
+    /// Planes normal to the pitch axis through the first and the last station (a blade without
+    /// a hub band or a duct; the rotor's clearances are not used).
+    Planes,
+}
+
+impl Default for ToolingParams {
+    fn default() -> Self {
+        ToolingParams {
+            tolerance: 0.1e-3,
+            min_core_thickness: 2.0e-3,
+            mould_margin: 0.03,
+            pitch: None,
+            mould_expansion_factor: 1.0,
+            core_shrink_factor: 1.0,
+            min_draft: Angle::from_deg(1.0),
+            unit: LengthUnit::Millimetre,
+            ends: EndShape::Spheres,
+        }
+    }
+}
+
+impl ToolingParams {
+    /// The settings of a project's `[tooling]` table.
+    pub fn from_spec(spec: &ToolingSpec) -> Result<Self, MeshError> {
+        Ok(ToolingParams {
+            tolerance: spec.tolerance,
+            min_core_thickness: spec.min_core_thickness,
+            mould_margin: spec.mould_margin,
+            pitch: None,
+            mould_expansion_factor: spec.mould_expansion_factor,
+            core_shrink_factor: spec.core_shrink_factor,
+            min_draft: spec.min_draft,
+            unit: spec.stl_unit.parse()?,
+            ends: EndShape::Spheres,
+        })
+    }
+
+    fn validate(&self) -> Result<(), MeshError> {
+        let positive = |name: &str, v: f64| {
+            if v.is_finite() && v > 0.0 {
+                Ok(())
+            } else {
+                Err(MeshError::Parameter {
+                    name: name.into(),
+                    value: v,
+                    expected: "a positive length",
+                })
+            }
+        };
+        positive("chordal tolerance (m)", self.tolerance)?;
+        positive("least core thickness (m)", self.min_core_thickness)?;
+        positive("mould margin (m)", self.mould_margin)?;
+        for (name, f) in [
+            ("mould expansion factor", self.mould_expansion_factor),
+            ("core shrink factor", self.core_shrink_factor),
+        ] {
+            if !(f > 0.5 && f < 2.0) {
+                return Err(MeshError::Parameter {
+                    name: name.into(),
+                    value: f,
+                    expected: "a scale factor near 1 (0.5..2)",
+                });
+            }
+        }
+        Ok(())
+    }
+}
+
+/// What a part is.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum PartKind {
+    /// A core, cast in the core alloy.
+    Core,
+    /// The laminate shell.
+    Shell,
+    /// The upper mould half (pulled along +pull).
+    MouldUpper,
+    /// The lower mould half (pulled along −pull).
+    MouldLower,
+}
+
+/// One part of the tooling.
+#[derive(Debug, Clone)]
+pub struct Part {
+    /// Its name, which is also its file name (`core-1`, `shell`, `mould-upper`, ...).
+    pub name: String,
+    /// What it is.
+    pub kind: PartKind,
+    /// The mesh as it is written (allowance factors applied), rotor frame, m.
+    pub mesh: Mesh,
+    /// Volume of the nominal part (a core or the shell before its allowance factor; a mould
+    /// half as written), m³.
+    pub nominal_volume: f64,
+}
+
+/// The end spheres and end laminates.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct EndSpheres {
+    /// Radius of the root sphere of the outer surface, `R_hub + root_clearance`, m.
+    pub root: f64,
+    /// Radius of the tip sphere of the outer surface, `R_tip − tip_clearance`, m.
+    pub tip: f64,
+    /// Laminate closing the root end (the cores' root sphere is `root` plus this), m.
+    pub root_laminate: f64,
+    /// Laminate closing the tip end (the cores' tip sphere is `tip` less this), m.
+    pub tip_laminate: f64,
+}
+
+/// The whole tooling of a blade.
+#[derive(Debug, Clone)]
+pub struct BladeTooling {
+    /// Cores (root segment first, front to back), the shell, the upper and the lower mould half.
+    pub parts: Vec<Part>,
+    /// Where the last core ends at the thin trailing edge, at the blade's stations.
+    pub core_ends: Vec<CoreEnd>,
+    /// The end spheres.
+    pub ends: EndSpheres,
+    /// How far the root section is carried inboard of the first station to meet the root sphere,
+    /// at its farthest, m (along the pitch axis).
+    pub root_extension: f64,
+    /// How far the tip section is carried beyond the last station to meet the tip sphere on the
+    /// pitch axis, m (zero when the sphere cuts inside the last station).
+    pub tip_extension: f64,
+    /// The two mould halves' pulls, drafts and undercuts, upper first.
+    pub moulds: [MouldHalf; 2],
+    /// The pitch setting the parts are placed at.
+    pub pitch: Angle,
+    /// The settings used.
+    pub params: ToolingParams,
+}
+
+/// A web that starts or ends inside the span: a bulkhead across the cores.
+#[derive(Debug, Clone, Copy)]
+struct Bulkhead {
+    r: f64,
+    thickness: f64,
+}
+
+/// Builds the tooling of `blade` (see the module docs). `progress(done, total, stage)` is called
+/// as each part is lofted.
+///
+/// ```
+/// use layloft::blade::Blade;
+/// use layloft::input::read_project;
+/// use layloft::tooling::{CheckParams, ToolingParams, build_tooling, check_solid};
+///
+/// # fn main() -> Result<(), layloft::Error> {
+/// let project = read_project("layups/mine-fan/blade.toml".as_ref())?;
+/// let blade = Blade::from_project(&project)?;
+/// let params = ToolingParams { tolerance: 0.5e-3, ..ToolingParams::default() };
+/// let tooling = build_tooling(&blade, &params, &mut |_, _, _| {})?;
+/// let names: Vec<&str> = tooling.parts.iter().map(|p| p.name.as_str()).collect();
+/// assert_eq!(names, ["core-1", "core-2", "shell", "mould-upper", "mould-lower"]);
+/// // The least clearance to the duct is the rotor's tip clearance.
+/// let shell = &tooling.parts[2].mesh;
+/// let reach = shell.vertices.iter().map(|p| p.iter().map(|c| c * c).sum::<f64>().sqrt());
+/// let gap = project.rotor.tip_radius - reach.fold(0.0, f64::max);
+/// assert!((gap - project.rotor.tip_clearance).abs() < 1e-9);
+/// check_solid(shell, "shell", &CheckParams::default())?;
+/// # Ok(())
+/// # }
+/// ```
+pub fn build_tooling(
+    blade: &Blade,
+    params: &ToolingParams,
+    progress: &mut dyn FnMut(usize, usize, &str),
+) -> Result<BladeTooling, MeshError> {
+    params.validate()?;
+    let surfaces = blade.surfaces();
+    let rotor = blade.rotor();
+    let blunt = surfaces.blunt_trailing_edges();
+    let back = if blunt.iter().all(|&b| b) {
+        EndKind::Segment
+    } else if blunt.iter().all(|&b| !b) {
+        EndKind::Point
+    } else {
+        let kind = |b: bool| if b { "blunt" } else { "sharp" };
+        let list: Vec<String> = blade
+            .station_radii()
+            .iter()
+            .zip(&blunt)
+            .map(|(r, &b)| format!("r = {r} m {}", kind(b)))
+            .collect();
+        return Err(MeshError::Settings(format!(
+            "the tooling needs one kind of trailing edge at every station, blunt (open) or sharp \
+             (closed); found {}",
+            list.join(", ")
+        )));
+    };
+    let (r0, r1) = (blade.root_radius(), blade.tip_radius());
+    let root_sphere = rotor.hub_radius + rotor.root_clearance;
+    let tip_sphere = rotor.tip_radius - rotor.tip_clearance;
+    let reach = section_reach(&surfaces, r0);
+    if root_sphere <= reach {
+        return Err(MeshError::Settings(format!(
+            "the root sphere (hub_radius_m + root_clearance_m = {root_sphere:.4} m) does not reach \
+             past the root section, which extends {reach:.4} m from the pitch axis: the sphere \
+             cannot end the blade"
+        )));
+    }
+    let x_lo = ((root_sphere * root_sphere - reach * reach).sqrt() - 0.05 * reach - 1e-3).max(0.0);
+    let span = [x_lo, tip_sphere.max(r1) + 1e-3];
+    let ends = EndSpheres {
+        root: root_sphere,
+        tip: tip_sphere,
+        root_laminate: surfaces.least_skin_thickness(r0),
+        tip_laminate: surfaces.least_skin_thickness(r1),
+    };
+    let pitch = params.pitch.unwrap_or(rotor.pitch);
+    let outer = BladeSurface { surfaces: &surfaces, side: Side::Outer, pitch, span, back };
+    let inner = BladeSurface { surfaces: &surfaces, side: Side::Inner, pitch, span, back };
+    let loft = LoftParams { tolerance: params.tolerance, ..LoftParams::default() };
+
+    // Where the cores close at the leading and trailing edges, solved every 4 mm or so along the
+    // span and interpolated (each cut keeps a tenth of the least core thickness clear of where the
+    // inner chains stop facing each other, far more than the interpolation moves it).
+    let radii = span_samples(span);
+    let cut_radii: Vec<f64> = {
+        let n = ((span[1] - span[0]) / 4e-3).ceil().clamp(48.0, 600.0) as usize;
+        (0..=n).map(|i| span[0] + (span[1] - span[0]) * i as f64 / n as f64).collect()
+    };
+    let base = |x: f64| surfaces.thickness(x, Surface::Upper, 1.0);
+    let (mut le_y, mut te_y) = (Vec::with_capacity(cut_radii.len()), Vec::new());
+    for &x in &cut_radii {
+        let [front, back] = core_cuts(&inner, x, params.min_core_thickness, base(x))?;
+        le_y.push(front);
+        te_y.push(back);
+    }
+    let le_cut = Pchip::new(&cut_radii, &le_y);
+    let te_cut = Pchip::new(&cut_radii, &te_y);
+    let core_ends = blade
+        .station_radii()
+        .iter()
+        .map(|&r| {
+            let y = te_cut.eval(r);
+            let (c, pa) = (blade.chord(r), blade.pitch_axis_frac(r));
+            CoreEnd { r, y, chord_fraction: y / c + pa, solid_chord: (1.0 - pa) * c - y }
+        })
+        .collect();
+
+    // Spanwise segments between web ends, and the cells of each.
+    let bulkheads = bulkheads(&surfaces);
+    let (outer_trims, inner_trims) = match params.ends {
+        EndShape::Spheres => (
+            Trims::spheres(root_sphere, tip_sphere),
+            Trims::spheres(root_sphere + ends.root_laminate, tip_sphere - ends.tip_laminate),
+        ),
+        EndShape::Planes => {
+            (Trims::planes(r0, r1), Trims::planes(r0 + ends.root_laminate, r1 - ends.tip_laminate))
+        }
+    };
+    let mut cells: Vec<(CoreCell<'_>, Trims)> = Vec::new();
+    for seg in 0..=bulkheads.len() {
+        let lo = seg.checked_sub(1).map(|i| bulkheads[i]);
+        let hi = bulkheads.get(seg).copied();
+        let mid = match (lo, hi) {
+            (Some(a), Some(b)) => 0.5 * (a.r + b.r),
+            (Some(a), None) => 0.5 * (a.r + r1),
+            (None, Some(b)) => 0.5 * (r0 + b.r),
+            (None, None) => 0.5 * (r0 + r1),
+        };
+        let trims = Trims {
+            root: lo.map_or(inner_trims.root, |b| EndTrim::Plane { x: b.r + 0.5 * b.thickness }),
+            tip: hi.map_or(inner_trims.tip, |b| EndTrim::Plane { x: b.r - 0.5 * b.thickness }),
+        };
+        let active: Vec<usize> = (0..blade.webs().len())
+            .filter(|&k| {
+                let w = &blade.webs()[k];
+                mid >= w.r_start - 1e-9 && mid <= w.r_end + 1e-9
+            })
+            .collect();
+        let face = |k: usize, sign: f64| {
+            let w = blade.webs()[k].clone();
+            let s = &surfaces;
+            move |x: f64| {
+                let xr = x.clamp(w.r_start, w.r_end);
+                s.web_y(x, k) + sign * 0.5 * s.web_thickness(xr, k)
+            }
+        };
+        let mut front = CutBound::new(&inner, &radii, |x| le_cut.eval(x))?;
+        for &k in &active {
+            let back = CutBound::new(&inner, &radii, face(k, -1.0))?;
+            cells.push((CoreCell { inner: &inner, front, back }, trims));
+            front = CutBound::new(&inner, &radii, face(k, 1.0))?;
+        }
+        let back = CutBound::new(&inner, &radii, |x| te_cut.eval(x))?;
+        cells.push((CoreCell { inner: &inner, front, back }, trims));
+    }
+
+    let total = cells.len() + 3;
+    let mut done = 0;
+    let mut step = |label: &str, progress: &mut dyn FnMut(usize, usize, &str)| {
+        done += 1;
+        progress(done, total, label);
+    };
+    let outer_solid = loft_solid(&outer, &outer_trims, &loft)
+        .map_err(|e| MeshError::Geometry(format!("the outer mould line: {e}")))?;
+    step("outer mould line", progress);
+    let mut parts = Vec::with_capacity(total);
+    let mut shell = outer_solid.mesh.clone();
+    for (i, (cell, trims)) in cells.iter().enumerate() {
+        let name = format!("core-{}", i + 1);
+        let solid = loft_solid(cell, trims, &loft)
+            .map_err(|e| MeshError::Geometry(format!("{name}: {e}")))?;
+        let mut cavity = solid.mesh.clone();
+        cavity.flip();
+        shell.merge(&cavity);
+        let nominal_volume = solid.mesh.signed_volume();
+        let mut mesh = solid.mesh;
+        if params.core_shrink_factor != 1.0 {
+            mesh.scale(params.core_shrink_factor);
+        }
+        parts.push(Part { name, kind: PartKind::Core, mesh, nominal_volume });
+        step(&format!("core {}", i + 1), progress);
+    }
+    let shell_volume = shell.signed_volume();
+    parts.push(Part {
+        name: "shell".into(),
+        kind: PartKind::Shell,
+        mesh: shell,
+        nominal_volume: shell_volume,
+    });
+    step("shell", progress);
+    let moulds = mould_parts(blade, &outer_solid, params, pitch, &mut parts)?;
+    step("mould halves", progress);
+    let root_extension = r0 - root_trim_x(&outer_solid);
+    Ok(BladeTooling {
+        parts,
+        core_ends,
+        ends,
+        root_extension: root_extension.max(0.0),
+        tip_extension: (tip_sphere - r1).max(0.0),
+        moulds,
+        pitch,
+        params: params.clone(),
+    })
+}
+
+/// The mould halves of the outer solid: cavity scaled by the expansion factor, pulled normal to
+/// the chord at the middle station.
+fn mould_parts(
+    blade: &Blade,
+    outer: &LoftedSolid,
+    params: &ToolingParams,
+    pitch: Angle,
+    parts: &mut Vec<Part>,
+) -> Result<[MouldHalf; 2], MeshError> {
+    let mut part = outer.clone();
+    if params.mould_expansion_factor != 1.0 {
+        part.mesh.scale(params.mould_expansion_factor);
+    }
+    let r_mid = 0.5 * (blade.root_radius() + blade.tip_radius());
+    let phi = blade.twist(r_mid) + pitch;
+    let (s, c) = phi.rad().sin_cos();
+    let mould = MouldParams {
+        pull: [0.0, -s, c],
+        margin: params.mould_margin,
+        tolerance: params.tolerance,
+        min_draft: params.min_draft,
+        unit: params.unit,
+    };
+    let chord_angle = |x: f64| blade.twist(x / params.mould_expansion_factor) + pitch;
+    let (meshes, halves) = build_moulds(&part, &chord_angle, &mould)?;
+    let [upper, lower] = meshes;
+    for (name, kind, mesh) in
+        [("mould-upper", PartKind::MouldUpper, upper), ("mould-lower", PartKind::MouldLower, lower)]
+    {
+        // A mould half is made as it is drawn: its volume is the block as written.
+        let nominal_volume = mesh.signed_volume();
+        parts.push(Part { name: name.into(), kind, mesh, nominal_volume });
+    }
+    Ok(halves)
+}
+
+/// The least x of the root ring: where the root sphere meets the farthest line.
+fn root_trim_x(solid: &LoftedSolid) -> f64 {
+    solid
+        .root_ring
+        .iter()
+        .map(|&v| solid.mesh.vertices[v as usize][0])
+        .fold(f64::INFINITY, f64::min)
+}
+
+/// The greatest distance of the outer contour at `r` from the pitch axis, m (400 points a
+/// surface, plus 1 %).
+fn section_reach(surfaces: &BladeSurfaces<'_>, r: f64) -> f64 {
+    let far = (0..=400)
+        .flat_map(|i| {
+            let u = i as f64 / 400.0;
+            [surfaces.outer(r, Surface::Upper, u), surfaces.outer(r, Surface::Lower, u)]
+        })
+        .map(|p| p[0].hypot(p[1]))
+        .fold(0.0, f64::max);
+    1.01 * far
+}
+
+/// Web ends strictly inside the span, with the web laminate there, root first.
+fn bulkheads(surfaces: &BladeSurfaces<'_>) -> Vec<Bulkhead> {
+    let blade = surfaces.blade();
+    let (r0, r1) = (blade.root_radius(), blade.tip_radius());
+    let mut out: Vec<Bulkhead> = Vec::new();
+    for (k, w) in blade.webs().iter().enumerate() {
+        for r in [w.r_start, w.r_end] {
+            if r > r0 + 1e-9 && r < r1 - 1e-9 {
+                let thickness = surfaces.web_thickness(r, k);
+                match out.iter_mut().find(|b| (b.r - r).abs() < 1e-9) {
+                    Some(b) => b.thickness = b.thickness.max(thickness),
+                    None => out.push(Bulkhead { r, thickness }),
+                }
+            }
+        }
+    }
+    out.sort_by(|a, b| a.r.total_cmp(&b.r));
+    out
+}

@@ -1,0 +1,391 @@
+//! Two-part moulds: the halves of a block round a lofted part, split on a parting surface through
+//! the part's front and back lines, with locating features of our own design, and the draft of
+//! each half's cavity along its pull.
+//!
+//! **Parting.** The loop of [`PartingLines`] (front line root → tip, across the tip cap along the
+//! middle of its columns, back line tip → root, across the root cap) separates the part's facets
+//! into the upper side (reached from the upper chain without crossing the loop) and the lower.
+//! The parting surface continues outward from the loop to the block's sides: along each
+//! section's own chord line from the front and back lines, along ±X from the caps, with planar
+//! patches in the block's corners (see [`super::mould_block`]); it twists with the part, so it
+//! never folds back over it.
+//!
+//! **Blocks.** A box in the mould frame (X along the pitch axis, Z along the upper half's pull,
+//! Y = Z × X), the margin beyond the part and the parting surface on every side; the parting
+//! surface divides it into the two halves.
+//!
+//! **Locating features (ours).** Conical pins of 10° half-angle, axis along the pull, flat
+//! topped, stand on the lower half's parting surface in three of its four corner patches (root
+//! and leading edge, root and trailing edge, tip and trailing edge), each half the margin from the
+//! part's corner along X and Y, so the halves register only one way round; the upper half has
+//! matching sockets, the pin grown by 0.1 mm radially and on top. With the margin `m`: base
+//! radius `m/6` where the axis meets the patch, height `m/3`.
+//!
+//! **Draft.** Per half, [`evaluate_draft`] over its cavity facets along its pull (the upper half
+//! along +Z, the lower along −Z); undercut facets are grouped into connected regions, each
+//! reported with its area, its worst draft and where it is.
+//!
+//! [`PartingLines`]: super::PartingLines
+
+use super::draft::{DraftReport, evaluate_draft};
+use super::error::{MeshError, Place};
+use super::loft::LoftedSolid;
+use super::mesh::Mesh;
+use super::mould_block::{Frame, Layout, Locator, build_half};
+use super::orient::{compact, neighbours, orient_outward};
+use super::stl::LengthUnit;
+use super::vec3::{self, P3};
+use crate::units::Angle;
+
+/// Half-angle of the locating cones.
+const CONE_HALF_ANGLE_DEG: f64 = 10.0;
+/// Radial (and end) clearance of a socket round its pin, m.
+const LOCATOR_CLEARANCE: f64 = 0.1e-3;
+
+/// How the mould is made.
+#[derive(Debug, Clone, PartialEq)]
+pub struct MouldParams {
+    /// Pull direction of the upper half, rotor frame (normal to the pitch axis; the lower half
+    /// is pulled the other way).
+    pub pull: [f64; 3],
+    /// Block margin beyond the part on every side, m.
+    pub margin: f64,
+    /// Chordal tolerance (for the locating features' circles), m.
+    pub tolerance: f64,
+    /// Least acceptable draft.
+    pub min_draft: Angle,
+    /// Unit in which places are named.
+    pub unit: LengthUnit,
+}
+
+/// A connected region of undercut cavity facets.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Undercut {
+    /// Area, m².
+    pub area: f64,
+    /// The least draft in it (negative).
+    pub worst: Angle,
+    /// Centroid of its worst facet.
+    pub at: Place,
+    /// Range of radius x it covers, m.
+    pub x_range: [f64; 2],
+    /// Where on the part: `"surface"`, `"root end"`, `"tip end"` or a mix joined by `" and "`.
+    pub region: String,
+}
+
+/// One mould half: pull, draft and undercuts of its cavity, and its block.
+#[derive(Debug, Clone, PartialEq)]
+pub struct MouldHalf {
+    /// `"upper"` or `"lower"`.
+    pub side: &'static str,
+    /// Unit pull direction, rotor frame.
+    pub pull: [f64; 3],
+    /// Draft over the cavity facets.
+    pub draft: DraftReport,
+    /// Area of the cavity wall, m².
+    pub cavity_area: f64,
+    /// Undercut regions, largest first.
+    pub undercuts: Vec<Undercut>,
+    /// Size of the whole block (both halves together) along the mould frame's X (pitch axis), Y
+    /// and Z (pull), m.
+    pub block_size: [f64; 3],
+    /// Where the axes of the locating pins (lower half) or sockets (upper half) meet the parting
+    /// surface, rotor frame, m.
+    pub locators: Vec<[f64; 3]>,
+}
+
+/// The parting loop's four sides (front root → tip, tip cap front → back, back tip → root,
+/// root cap back → front), each with both end vertices, and the loop as one closed list.
+fn parting_loop(part: &LoftedSolid) -> Result<([Vec<u32>; 4], Vec<u32>), MeshError> {
+    let p = &part.parting;
+    let sides = [
+        p.front.clone(),
+        p.tip.clone(),
+        p.back.iter().rev().copied().collect::<Vec<u32>>(),
+        p.root.iter().rev().copied().collect::<Vec<u32>>(),
+    ];
+    for k in 0..4 {
+        let next = &sides[(k + 1) % 4];
+        if sides[k].len() < 2 || sides[k].last() != next.first() {
+            return Err(MeshError::Geometry(
+                "the part has no closed parting loop (front, tip, back and root lines)".into(),
+            ));
+        }
+    }
+    let loop0 = sides.iter().flat_map(|s| s[..s.len() - 1].iter().copied()).collect();
+    Ok((sides, loop0))
+}
+
+/// The facets on the upper side of the loop and those on the lower.
+fn split_faces(mesh: &Mesh, loop0: &[u32], seed: u32) -> Result<[Vec<usize>; 2], MeshError> {
+    let n = loop0.len();
+    let mut barrier = std::collections::HashSet::with_capacity(n);
+    for i in 0..n {
+        let (a, b) = (loop0[i], loop0[(i + 1) % n]);
+        barrier.insert((a.min(b), a.max(b)));
+    }
+    let adj = neighbours(mesh);
+    let start = mesh
+        .triangles
+        .iter()
+        .position(|t| t.contains(&seed))
+        .ok_or_else(|| MeshError::Geometry("the upper line has no facet".into()))?;
+    let mut upper = vec![false; mesh.len()];
+    upper[start] = true;
+    let mut stack = vec![start];
+    while let Some(t) = stack.pop() {
+        let tri = mesh.triangles[t];
+        for k in 0..3 {
+            let (a, b) = (tri[k], tri[(k + 1) % 3]);
+            let nb = adj[t][k].0;
+            if nb == u32::MAX || barrier.contains(&(a.min(b), a.max(b))) || upper[nb as usize] {
+                continue;
+            }
+            upper[nb as usize] = true;
+            stack.push(nb as usize);
+        }
+    }
+    // Every loop edge must have one facet on each side.
+    for (t, tri) in mesh.triangles.iter().enumerate() {
+        for k in 0..3 {
+            let (a, b) = (tri[k], tri[(k + 1) % 3]);
+            let nb = adj[t][k].0;
+            if nb != u32::MAX
+                && barrier.contains(&(a.min(b), a.max(b)))
+                && upper[t] == upper[nb as usize]
+            {
+                return Err(MeshError::Geometry(
+                    "the parting loop does not divide the part into an upper and a lower side"
+                        .into(),
+                ));
+            }
+        }
+    }
+    let pick = |side: bool| (0..mesh.len()).filter(|&t| upper[t] == side).collect::<Vec<_>>();
+    Ok([pick(true), pick(false)])
+}
+
+/// Builds the upper and lower halves round `part` (see the module docs): their meshes
+/// (closed, outward, rotor frame) and what each is.
+pub fn build_moulds(
+    part: &LoftedSolid,
+    chord_angle: &dyn Fn(f64) -> Angle,
+    params: &MouldParams,
+) -> Result<([Mesh; 2], [MouldHalf; 2]), MeshError> {
+    let ex = [1.0, 0.0, 0.0];
+    let d = vec3::sub(params.pull, vec3::scale(ex, params.pull[0]));
+    let len = vec3::norm(d);
+    if !(len.is_finite() && len > 1e-9 * vec3::norm(params.pull)) {
+        return Err(MeshError::Parameter {
+            name: "pull direction length normal to the pitch axis".into(),
+            value: len,
+            expected: "a finite, non-zero vector",
+        });
+    }
+    let ez = vec3::scale(d, 1.0 / len);
+    let frame = Frame { ex, ey: vec3::cross(ez, ex), ez };
+    let (sides, loop0) = parting_loop(part)?;
+    let seed = part.parting.upper[part.parting.upper.len() / 2];
+    let faces = split_faces(&part.mesh, &loop0, seed)?;
+    let layout = layout(part, sides, &frame, chord_angle, params)?;
+    let mut meshes = [Mesh::new(), Mesh::new()];
+    let mut halves = Vec::with_capacity(2);
+    for (k, upper) in [true, false].into_iter().enumerate() {
+        let mut mesh = build_half(&part.mesh, &faces[k], &layout, &frame, upper);
+        orient_outward(&mut mesh);
+        compact(&mut mesh);
+        meshes[k] = mesh;
+        let pull = if upper { ez } else { vec3::scale(ez, -1.0) };
+        let draft =
+            evaluate_draft(&part.mesh, Some(&faces[k]), pull, params.min_draft, params.unit)?;
+        let undercuts = undercut_regions(part, &draft, pull, params.unit);
+        let cavity_area = faces[k].iter().map(|&t| part.mesh.triangle_area(t)).sum();
+        let c = &layout.corners;
+        halves.push(MouldHalf {
+            side: if upper { "upper" } else { "lower" },
+            pull,
+            draft,
+            cavity_area,
+            undercuts,
+            block_size: [c[0][0] - c[3][0], c[1][1] - c[0][1], layout.z_top - layout.z_bottom],
+            locators: layout.locators.iter().map(|l| frame.to_rotor(l.centre)).collect(),
+        });
+    }
+    let [upper, lower]: [MouldHalf; 2] =
+        halves.try_into().map_err(|_| MeshError::Geometry("two mould halves expected".into()))?;
+    Ok((meshes, [upper, lower]))
+}
+
+/// Where everything lies (see [`Layout`]); `chord_angle(x)` turns the section at radius x.
+fn layout(
+    part: &LoftedSolid,
+    sides: [Vec<u32>; 4],
+    frame: &Frame,
+    chord_angle: &dyn Fn(f64) -> Angle,
+    params: &MouldParams,
+) -> Result<Layout, MeshError> {
+    let q: Vec<P3> = part.mesh.vertices.iter().map(|&p| frame.to_mould(p)).collect();
+    let (mut lo, mut hi) = ([f64::INFINITY; 3], [f64::NEG_INFINITY; 3]);
+    for t in &part.mesh.triangles {
+        for &v in t {
+            for k in 0..3 {
+                lo[k] = lo[k].min(q[v as usize][k]);
+                hi[k] = hi[k].max(q[v as usize][k]);
+            }
+        }
+    }
+    let m = params.margin;
+    let [xa, xb, ya, yb] = [lo[0] - m, hi[0] + m, lo[1] - m, hi[1] + m];
+    let place = |v: u32| Place { point: part.mesh.vertices[v as usize], unit: params.unit };
+    // Each side's vertices must advance steadily along it (X along the edges, Y across the caps).
+    for (s, line) in sides.iter().enumerate() {
+        let (axis, sign) = [(0, 1.0), (1, 1.0), (0, -1.0), (1, -1.0)][s];
+        if let Some(w) = line
+            .windows(2)
+            .find(|w| (q[w[1] as usize][axis] - q[w[0] as usize][axis]) * sign <= 0.0)
+        {
+            return Err(MeshError::Geometry(format!(
+                "the parting line doubles back near {}: the {} does not advance steadily",
+                place(w[1]),
+                ["front line", "tip cap's middle", "back line", "root cap's middle"][s]
+            )));
+        }
+    }
+    // Rulings: along the section's chord line from the front and back lines, along X from the
+    // caps.
+    let chord_ruling = |v: u32, aft: bool, y_face: f64| -> Result<P3, MeshError> {
+        let p = part.mesh.vertices[v as usize];
+        let (s, c) = chord_angle(p[0]).rad().sin_cos();
+        let dir = vec3::scale([0.0, c, s], if aft { 1.0 } else { -1.0 });
+        let d = [0.0, vec3::dot(dir, frame.ey), vec3::dot(dir, frame.ez)];
+        let along = (y_face - q[v as usize][1]) / d[1];
+        if !(d[1].abs() > 0.1 && along.is_finite() && along >= 0.0) {
+            return Err(MeshError::Settings(format!(
+                "the chord at {} is turned {:.1}° from the mould's parting direction: a two-part \
+                 mould pulled normal to the middle chord cannot part there",
+                place(v),
+                d[2].atan2(d[1].abs()).to_degrees()
+            )));
+        }
+        Ok(vec3::add(q[v as usize], vec3::scale(d, along)))
+    };
+    let ends: [Vec<P3>; 4] = [
+        sides[0].iter().map(|&v| chord_ruling(v, false, ya)).collect::<Result<_, _>>()?,
+        sides[1].iter().map(|&v| [xb, q[v as usize][1], q[v as usize][2]]).collect(),
+        sides[2].iter().map(|&v| chord_ruling(v, true, yb)).collect::<Result<_, _>>()?,
+        sides[3].iter().map(|&v| [xa, q[v as usize][1], q[v as usize][2]]).collect(),
+    ];
+    let last = |s: usize| ends[s][ends[s].len() - 1];
+    let corners = [
+        [xb, ya, last(0)[2]],
+        [xb, yb, ends[2][0][2]],
+        [xa, yb, last(2)[2]],
+        [xa, ya, ends[0][0][2]],
+    ];
+    let parting_z = ends.iter().flatten().chain(corners.iter()).map(|p| p[2]);
+    let z_top = parting_z.clone().fold(hi[2], f64::max) + m;
+    let z_bottom = parting_z.fold(lo[2], f64::min) - m;
+    // Locating features at half the margin from the part's corner, on three corner patches.
+    let (base, height) = (m / 6.0, m / 3.0);
+    let taper = CONE_HALF_ANGLE_DEG.to_radians().tan();
+    let segments = {
+        let r = base + LOCATOR_CLEARANCE;
+        let step = 2.0 * (1.0 - (params.tolerance / r).min(0.5)).acos();
+        let n = (std::f64::consts::TAU / step).ceil().max(16.0) as usize;
+        n.div_ceil(4) * 4
+    };
+    let mut locators = Vec::with_capacity(3);
+    for corner in [3, 2, 1] {
+        let p = q[sides[corner][sides[corner].len() - 1] as usize];
+        let k = corners[corner];
+        let slope = (k[2] - p[2]) / (k[1] - p[1]);
+        let (cx, cy) =
+            (p[0] + 0.5 * m * (k[0] - p[0]).signum(), p[1] + 0.5 * m * (k[1] - p[1]).signum());
+        let cz = p[2] + slope * (cy - p[1]);
+        if base - height * taper <= 0.0 || cz + height + LOCATOR_CLEARANCE >= z_top {
+            return Err(MeshError::Settings(format!(
+                "a mould margin of {:.1} mm leaves no room for the locating pins",
+                m * 1e3
+            )));
+        }
+        locators.push(Locator {
+            corner,
+            centre: [cx, cy, cz],
+            slope,
+            base,
+            height,
+            taper,
+            clearance: LOCATOR_CLEARANCE,
+            segments,
+        });
+    }
+    Ok(Layout { sides, ends, corners, z_top, z_bottom, margin: m, locators })
+}
+
+/// Connected regions of the undercut facets, largest first.
+fn undercut_regions(
+    part: &LoftedSolid,
+    draft: &DraftReport,
+    pull: P3,
+    unit: LengthUnit,
+) -> Vec<Undercut> {
+    let mesh = &part.mesh;
+    let mut under = vec![false; mesh.len()];
+    for &t in &draft.undercuts {
+        under[t] = true;
+    }
+    let adj = neighbours(mesh);
+    let mut seen = vec![false; mesh.len()];
+    let mut out = Vec::new();
+    for &seed in &draft.undercuts {
+        if seen[seed] {
+            continue;
+        }
+        seen[seed] = true;
+        let mut stack = vec![seed];
+        let (mut area, mut worst, mut worst_t) = (0.0, f64::INFINITY, seed);
+        let mut x_range = [f64::INFINITY, f64::NEG_INFINITY];
+        let mut kinds = [false; 3];
+        while let Some(t) = stack.pop() {
+            area += mesh.triangle_area(t);
+            let s = vec3::dot(mesh.triangle_normal(t), pull);
+            if s < worst {
+                worst = s;
+                worst_t = t;
+            }
+            for p in mesh.corners(t) {
+                x_range = [x_range[0].min(p[0]), x_range[1].max(p[0])];
+            }
+            let f = &part.facets;
+            kinds[if f.root_cap.contains(&t) {
+                1
+            } else if f.tip_cap.contains(&t) {
+                2
+            } else {
+                0
+            }] = true;
+            for &(nb, _) in &adj[t] {
+                if nb != u32::MAX && under[nb as usize] && !seen[nb as usize] {
+                    seen[nb as usize] = true;
+                    stack.push(nb as usize);
+                }
+            }
+        }
+        let region = ["surface", "root end", "tip end"]
+            .iter()
+            .zip(kinds)
+            .filter(|(_, k)| *k)
+            .map(|(n, _)| *n)
+            .collect::<Vec<_>>()
+            .join(" and ");
+        out.push(Undercut {
+            area,
+            worst: Angle::from_rad(worst.clamp(-1.0, 1.0).asin()),
+            at: Place { point: mesh.triangle_centroid(worst_t), unit },
+            x_range,
+            region,
+        });
+    }
+    out.sort_by(|a, b| b.area.total_cmp(&a.area));
+    out
+}

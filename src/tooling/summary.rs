@@ -1,0 +1,260 @@
+//! What the tooling amounts to: the masses of the parts, the core alloy's melting range against
+//! the resin's process temperatures, and what the ply schedule holds.
+//!
+//! - **Ply schedule content** (the reference for the shell): over the blade's stations, the
+//!   volume, mass and resin mass of the laminates per unit span integrated by the midpoint rule
+//!   (400 intervals, as [`crate::analysis::BladeModel::mass`]): each wall segment of the outer
+//!   mould line (120 intervals a surface) times its laminate's thickness, areal mass and resin
+//!   content, the blunt base with the upper trailing-edge laminate, each web over the local depth
+//!   less the skins. Resin of a ply is `(1 − V_f) ρ_resin t` per unit area (no voids); an
+//!   isotropic layer (foam, metal) holds none; a lamina without `fibre_volume_fraction` or
+//!   `resin_density_kg_m3` leaves the resin mass not computed.
+//! - **Shell mass**: the shell's volume times the schedule's mean density (mass over volume), and
+//!   likewise its resin: the shell is a multi-material laminate whose plies the schedule places.
+//! - **Core alloy mass**: the nominal core volume (before the shrink allowance) times the alloy's
+//!   density: the finished core's mass, which the pour must supply.
+//! - **Melting check** (common practice for fusible cores): a core must stay solid through
+//!   injection and gelation and melt out before the end of the cure: flagged when
+//!   `solidus ≤ injection` or `solidus ≤ gel` (it melts before the resin gels), or
+//!   `liquidus ≥ cure` (it never melts out); a missing temperature or melting range leaves its
+//!   comparison not checked.
+
+use super::blade_parts::{BladeTooling, PartKind};
+use crate::blade::{Blade, Surface};
+use crate::input::Project;
+use crate::laminate::Laminate;
+use crate::material::{Isotropic, LaminaKind, Material};
+
+/// Volume, mass and resin mass of the ply schedule over the blade's stations.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct ScheduleContent {
+    /// Laminate volume, m³.
+    pub volume: f64,
+    /// Laminate mass, kg.
+    pub mass: f64,
+    /// Resin mass, kg; `None` where a lamina lacks its fibre volume fraction or resin density.
+    pub resin: Option<f64>,
+}
+
+/// Per unit area of a laminate: thickness (m), mass (kg/m²), resin (kg/m²).
+fn content_of(lam: &Laminate) -> (f64, f64, Option<f64>) {
+    let mut resin = Some(0.0);
+    for p in lam.plies() {
+        let m = &p.material;
+        let r = match (m.kind, m.fibre_volume_fraction, m.resin_density) {
+            (LaminaKind::Isotropic, _, _) => Some(0.0),
+            (_, Some(vf), Some(rho)) => Some((1.0 - vf) * rho * p.thickness),
+            _ => None,
+        };
+        resin = resin.zip(r).map(|(a, b)| a + b);
+    }
+    (lam.thickness(), lam.areal_mass(), resin)
+}
+
+/// The schedule's content per unit span at radius `r` (volume m²/m, mass kg/m, resin kg/m).
+fn content_per_length(blade: &Blade, r: f64) -> (f64, f64, Option<f64>) {
+    let Ok(outline) = blade.outline(r, 120) else { return (0.0, 0.0, Some(0.0)) };
+    let c = blade.chord(r);
+    let (mut v, mut m, mut resin) = (0.0, 0.0, Some(0.0));
+    let mut add = |len: f64, lam: &Laminate| {
+        let (t, am, rm) = content_of(lam);
+        v += len * t;
+        m += len * am;
+        resin = resin.zip(rm).map(|(a, b)| a + len * b);
+    };
+    for (surface, pts) in [(Surface::Upper, &outline.upper), (Surface::Lower, &outline.lower)] {
+        for w in pts.windows(2) {
+            let x = 0.5 * (w[0][0] + w[1][0]);
+            let len = c * (w[1][0] - w[0][0]).hypot(w[1][1] - w[0][1]);
+            add(len, &blade.surface_laminate(r, surface, x));
+        }
+    }
+    if outline.blunt_te() {
+        let (u, l) =
+            (outline.upper[outline.upper.len() - 1], outline.lower[outline.lower.len() - 1]);
+        add(c * (u[0] - l[0]).hypot(u[1] - l[1]), &blade.surface_laminate(r, Surface::Upper, 1.0));
+    }
+    for web in blade.webs().iter().filter(|w| r >= w.r_start - 1e-9 && r <= w.r_end + 1e-9) {
+        let depth = outline.depth_at(web.chord_frac) * c;
+        let walls = blade.surface_thickness(r, Surface::Upper, web.chord_frac)
+            + blade.surface_thickness(r, Surface::Lower, web.chord_frac);
+        add((depth - walls).max(0.0), &blade.web_laminate(r, &web.name));
+    }
+    (v, m, resin)
+}
+
+/// What the ply schedule holds over the blade's stations (see the module docs).
+pub fn schedule_content(blade: &Blade) -> ScheduleContent {
+    let (r0, r1) = (blade.root_radius(), blade.tip_radius());
+    let n = 400;
+    let h = (r1 - r0) / n as f64;
+    let (mut volume, mut mass, mut resin) = (0.0, 0.0, Some(0.0));
+    for i in 0..n {
+        let (v, m, rm) = content_per_length(blade, r0 + (i as f64 + 0.5) * h);
+        volume += v * h;
+        mass += m * h;
+        resin = resin.zip(rm).map(|(a, b)| a + b * h);
+    }
+    ScheduleContent { volume, mass, resin }
+}
+
+/// One comparison of the melting check.
+#[derive(Debug, Clone, PartialEq)]
+pub struct MeltFinding {
+    /// Whether it passed; `None` when a value it needs is missing.
+    pub passed: Option<bool>,
+    /// What was compared, in words with the numbers.
+    pub text: String,
+}
+
+/// The core alloy against the resin's process temperatures.
+#[derive(Debug, Clone, PartialEq)]
+pub struct MeltCheck {
+    /// The alloy's name, when the project names one.
+    pub alloy: Option<String>,
+    /// Its solidus and liquidus, °C.
+    pub melting_range_c: Option<[f64; 2]>,
+    /// The comparisons, in process order.
+    pub findings: Vec<MeltFinding>,
+    /// The alloy's handling note from the materials file.
+    pub safety_note: Option<String>,
+}
+
+impl MeltCheck {
+    /// Whether any comparison failed.
+    pub fn failed(&self) -> bool {
+        self.findings.iter().any(|f| f.passed == Some(false))
+    }
+}
+
+/// The melting check of `alloy` against the `[injection, gel, cure]` temperatures, °C (see the
+/// module docs).
+pub fn melt_check(alloy: Option<&Isotropic>, temps: [Option<f64>; 3]) -> MeltCheck {
+    let [injection, gel, cure] = temps;
+    let range = alloy.and_then(|a| a.melting_range_c);
+    let mut findings = Vec::new();
+    let missing = |what: &str| MeltFinding { passed: None, text: format!("not checked: {what}") };
+    match (alloy, range) {
+        (None, _) => findings.push(missing("no core_alloy in [tooling]")),
+        (Some(a), None) => findings
+            .push(missing(&format!("'{}' has no melting range (solidus_C, liquidus_C)", a.name))),
+        (Some(_), Some([solidus, liquidus])) => {
+            for (stage, t) in [("injection", injection), ("gelation", gel)] {
+                findings.push(match t {
+                    Some(t) => MeltFinding {
+                        passed: Some(solidus > t),
+                        text: if solidus > t {
+                            format!("solid through {stage}: solidus {solidus} °C above {t} °C")
+                        } else {
+                            format!(
+                                "MELTS BEFORE THE RESIN GELS: solidus {solidus} °C is not above \
+                                 the {stage} temperature {t} °C"
+                            )
+                        },
+                    },
+                    None => missing(&format!("no {stage} temperature given")),
+                });
+            }
+            findings.push(match cure {
+                Some(t) => MeltFinding {
+                    passed: Some(liquidus < t),
+                    text: if liquidus < t {
+                        format!("melts out in the cure: liquidus {liquidus} °C below {t} °C")
+                    } else {
+                        format!(
+                            "NEVER MELTS OUT: liquidus {liquidus} °C is not below the cure \
+                             temperature {t} °C"
+                        )
+                    },
+                },
+                None => missing("no cure temperature given"),
+            });
+        }
+    }
+    MeltCheck {
+        alloy: alloy.map(|a| a.name.clone()),
+        melting_range_c: range,
+        findings,
+        safety_note: alloy.and_then(|a| a.safety_note.clone()),
+    }
+}
+
+/// A part's mass and what it rests on.
+#[derive(Debug, Clone, PartialEq)]
+pub struct PartMass {
+    /// Mass, kg; `None` when not computed.
+    pub mass: Option<f64>,
+    /// Resin in it, kg (the shell).
+    pub resin: Option<f64>,
+    /// What the mass is, or why it is not computed.
+    pub basis: String,
+}
+
+/// The tooling's masses and checks.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ToolingSummary {
+    /// Per part, in the order of [`BladeTooling::parts`].
+    pub masses: Vec<PartMass>,
+    /// The ply schedule over the stations.
+    pub schedule: ScheduleContent,
+    /// Total core alloy, kg (`None` without an alloy).
+    pub core_alloy: Option<f64>,
+    /// The melting check.
+    pub melt: MeltCheck,
+}
+
+/// Masses and the melting check of `tooling` for `project`'s blade.
+pub fn summarise(project: &Project, blade: &Blade, tooling: &BladeTooling) -> ToolingSummary {
+    let spec = project.tooling.clone().unwrap_or_default();
+    let alloy = spec.core_alloy.as_deref().and_then(|n| match project.materials.get(n) {
+        Ok(Material::Isotropic(i)) => Some(i.clone()),
+        _ => None,
+    });
+    let schedule = schedule_content(blade);
+    let has_laminate = schedule.volume > 0.0;
+    let density = schedule.mass / schedule.volume;
+    let resin_density = schedule.resin.filter(|_| has_laminate).map(|r| r / schedule.volume);
+    let masses: Vec<PartMass> = tooling
+        .parts
+        .iter()
+        .map(|p| match p.kind {
+            PartKind::Core => match &alloy {
+                Some(a) => PartMass {
+                    mass: Some(p.nominal_volume * a.density),
+                    resin: None,
+                    basis: format!("core alloy {} at {} kg/m³", a.name, a.density),
+                },
+                None => PartMass {
+                    mass: None,
+                    resin: None,
+                    basis: "not computed: no core_alloy in [tooling]".into(),
+                },
+            },
+            PartKind::Shell if !has_laminate => PartMass {
+                mass: None,
+                resin: None,
+                basis: "not computed: the ply schedule holds no laminate".into(),
+            },
+            PartKind::Shell => PartMass {
+                mass: Some(p.nominal_volume * density),
+                resin: resin_density.map(|r| p.nominal_volume * r),
+                basis: format!("laminate at the schedule's mean density {density:.0} kg/m³"),
+            },
+            PartKind::MouldUpper | PartKind::MouldLower => PartMass {
+                mass: None,
+                resin: None,
+                basis: "not computed: the mould material is not given".into(),
+            },
+        })
+        .collect();
+    let core_alloy = alloy.as_ref().map(|_| {
+        masses
+            .iter()
+            .zip(&tooling.parts)
+            .filter(|(_, p)| p.kind == PartKind::Core)
+            .filter_map(|(m, _)| m.mass)
+            .sum()
+    });
+    let temps = [spec.injection_temperature_c, spec.gel_temperature_c, spec.cure_temperature_c];
+    ToolingSummary { masses, schedule, core_alloy, melt: melt_check(alloy.as_ref(), temps) }
+}

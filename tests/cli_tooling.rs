@@ -1,0 +1,224 @@
+//! `layloft tooling` as a user meets it: the files it writes (each read back with `stl_io` and
+//! judged by `tests/support_stl`, which shares no code with the generator), the summary on
+//! stdout and in `tooling-summary.json`, the exit status. Projects: the invented demos
+//! `layups/mine-fan/` (with `[tooling]`) and `layups/small-wind/` (without).
+
+mod support_stl;
+
+use std::path::{Path, PathBuf};
+
+use assert_cmd::Command;
+use serde_json::Value;
+use support_stl::read_stl_file;
+
+fn layloft(args: &[&str]) -> (Option<i32>, String, String) {
+    let out = Command::cargo_bin("layloft")
+        .unwrap()
+        .args(args)
+        .current_dir(env!("CARGO_MANIFEST_DIR"))
+        .env("NO_COLOR", "1")
+        .output()
+        .unwrap();
+    let text = |b: &[u8]| String::from_utf8_lossy(b).into_owned();
+    (out.status.code(), text(&out.stdout), text(&out.stderr))
+}
+
+fn files_in(dir: &Path) -> Vec<String> {
+    let mut names: Vec<String> = std::fs::read_dir(dir)
+        .map(|d| {
+            d.filter_map(|e| e.ok()).map(|e| e.file_name().to_string_lossy().into_owned()).collect()
+        })
+        .unwrap_or_default();
+    names.sort();
+    names
+}
+
+fn f(v: &Value) -> f64 {
+    v.as_f64().unwrap_or_else(|| panic!("not a number: {v}"))
+}
+
+#[test]
+fn the_mine_fan_demo_writes_closed_outward_parts_and_a_summary() {
+    let dir = tempfile::tempdir().unwrap();
+    let out = dir.path().join("meshes");
+    let out_s = out.to_string_lossy().into_owned();
+    let (code, stdout, stderr) =
+        layloft(&["tooling", "layups/mine-fan/blade.toml", "--out", &out_s, "--json"]);
+    assert_eq!(code, Some(0), "{stderr}");
+    let names = files_in(&out);
+    let parts = ["core-1", "core-2", "shell", "mould-upper", "mould-lower"];
+    let mut want: Vec<String> = parts.iter().map(|p| format!("{p}.stl")).collect();
+    want.push("tooling-summary.json".into());
+    want.sort();
+    assert_eq!(names, want, "no temporary files or other leftovers");
+    let json: Value = serde_json::from_str(&stdout).unwrap_or_else(|e| panic!("{e}: {stdout}"));
+    let file: Value =
+        serde_json::from_str(&std::fs::read_to_string(out.join("tooling-summary.json")).unwrap())
+            .unwrap();
+    assert_eq!(json, file, "stdout and the file hold the same summary");
+    // Every file read back independently: closed, 2-manifold, outward, as many triangles as the
+    // summary says, the volume in mm³ that the summary gives in m³ (single precision in the
+    // file: about 1e-6 relative).
+    for (i, name) in parts.iter().enumerate() {
+        let entry = &json["parts"][i];
+        assert_eq!(entry["name"], *name);
+        let reading = read_stl_file(&out.join(format!("{name}.stl")));
+        assert!(reading.closed_oriented, "{name}: not a closed, consistently oriented 2-manifold");
+        assert_eq!(reading.triangles as u64, entry["triangles"].as_u64().unwrap(), "{name}");
+        let want = f(&entry["volume_in_file_m3"]) * 1e9;
+        assert!(reading.volume > 0.0 && (reading.volume / want - 1.0).abs() < 1e-5, "{name}");
+        assert!(f(&entry["area_m2"]) > 0.0);
+        let bb = &entry["bounding_box"];
+        assert!(f(&bb["max"]["x_m"]) > f(&bb["min"]["x_m"]));
+    }
+    // Masses: the cores in the core alloy, the shell from the ply schedule, moulds not computed.
+    assert!(f(&json["parts"][0]["mass_kg"]) > 0.0);
+    let shell = &json["parts"][2];
+    assert!(f(&shell["mass_kg"]) > 0.0 && f(&shell["resin_mass_kg"]) > 0.0);
+    assert!(f(&shell["resin_mass_kg"]) < f(&shell["mass_kg"]));
+    assert!(json["parts"][3]["mass_kg"].is_null());
+    let alloy: f64 = (0..2).map(|i| f(&json["parts"][i]["mass_kg"])).sum();
+    assert!((f(&json["masses"]["core_alloy_kg"]) / alloy - 1.0).abs() < 1e-12);
+    // The melting check of Bi58Sn42 (138 °C) against 60, 100 and 150 °C passes, with its note.
+    assert_eq!(json["core_alloy"]["name"], "bi58sn42");
+    assert_eq!(json["core_alloy"]["failed"], false);
+    assert!(json["core_alloy"]["safety_note"].as_str().unwrap().contains("lead- and cadmium-free"));
+    // The twisted blade has undercuts, reported with area and place.
+    for half in json["moulds"].as_array().unwrap() {
+        assert!(f(&half["undercut_area_m2"]) > 0.0);
+        assert!(!half["undercuts"].as_array().unwrap().is_empty());
+        assert_eq!(half["locators"].as_array().unwrap().len(), 3);
+    }
+    assert!(stderr.contains("wrote 5 STL files"), "{stderr}");
+}
+
+#[test]
+fn the_text_summary_names_what_an_engineer_needs() {
+    let dir = tempfile::tempdir().unwrap();
+    let out = dir.path().to_string_lossy().into_owned();
+    let (code, stdout, stderr) = layloft(&[
+        "tooling",
+        "layups/mine-fan/blade.toml",
+        "--out",
+        &out,
+        "--ascii",
+        "--tolerance-mm",
+        "0.2",
+    ]);
+    assert_eq!(code, Some(0), "{stderr}");
+    for text in [
+        "ASCII STL in mm; chordal tolerance 0.2000 mm",
+        "Caution",
+        "lead or cadmium",
+        "core-1.stl",
+        "mould-lower.stl",
+        "Bounding boxes as written, rotor frame",
+        "Core at the trailing edge: the last core closes",
+        "Core alloy: bi58sn42, melts 138..138 °C",
+        "ok   melts out in the cure",
+        "undercuts of the upper half",
+        "allowances: mould cavity x1",
+    ] {
+        assert!(stdout.contains(text), "stdout lacks '{text}':\n{stdout}");
+    }
+    let ascii = std::fs::read_to_string(dir.path().join("core-1.stl")).unwrap();
+    assert!(ascii.starts_with("solid layloft-core-1\n"));
+    assert!(read_stl_file(&dir.path().join("shell.stl")).closed_oriented);
+}
+
+#[test]
+fn without_a_tooling_table_defaults_apply_and_the_alloy_mass_is_not_computed() {
+    let dir = tempfile::tempdir().unwrap();
+    let out = dir.path().to_string_lossy().into_owned();
+    let (code, stdout, stderr) = layloft(&[
+        "tooling",
+        "layups/small-wind/blade.toml",
+        "--out",
+        &out,
+        "--tolerance-mm",
+        "0.3",
+    ]);
+    assert_eq!(code, Some(0), "{stderr}");
+    assert!(
+        stdout.contains("core alloy mass not computed: no core_alloy in [tooling]"),
+        "{stdout}"
+    );
+    assert!(stdout.contains("not checked: no core_alloy in [tooling]"), "{stdout}");
+    let json: Value = serde_json::from_str(
+        &std::fs::read_to_string(dir.path().join("tooling-summary.json")).unwrap(),
+    )
+    .unwrap();
+    assert!(json["masses"]["core_alloy_kg"].is_null());
+    assert!(json["parts"][0]["mass_kg"].is_null());
+    assert_eq!(json["unit"], "mm");
+    // The web ends short of the tip: a third core beyond its bulkhead.
+    let names = files_in(dir.path());
+    assert!(names.contains(&"core-3.stl".to_string()), "{names:?}");
+    for name in names.iter().filter(|n| n.ends_with(".stl")) {
+        assert!(read_stl_file(&dir.path().join(name)).closed_oriented, "{name}");
+    }
+}
+
+/// A copy of the mine-fan demo with `[tooling]` lines replaced.
+fn demo_copy(dir: &Path, replace: &[(&str, &str)]) -> PathBuf {
+    let src = Path::new(env!("CARGO_MANIFEST_DIR")).join("layups/mine-fan");
+    for e in std::fs::read_dir(&src).unwrap() {
+        let e = e.unwrap();
+        std::fs::copy(e.path(), dir.join(e.file_name())).unwrap();
+    }
+    let toml = dir.join("blade.toml");
+    let mut text = std::fs::read_to_string(&toml).unwrap();
+    for (from, to) in replace {
+        assert!(text.contains(from), "{from}");
+        text = text.replace(from, to);
+    }
+    std::fs::write(&toml, text).unwrap();
+    toml
+}
+
+#[test]
+fn a_core_that_melts_before_the_resin_gels_fails_the_check_with_status_1() {
+    // Wood's metal (70..72 °C in the demo's materials) against gelation at 100 °C.
+    let dir = tempfile::tempdir().unwrap();
+    let toml =
+        demo_copy(dir.path(), &[("core_alloy = \"bi58sn42\"", "core_alloy = \"woods-metal\"")]);
+    let out = dir.path().join("out");
+    let (code, stdout, stderr) = layloft(&[
+        "tooling",
+        &toml.to_string_lossy(),
+        "--out",
+        &out.to_string_lossy(),
+        "--tolerance-mm",
+        "0.3",
+    ]);
+    assert_eq!(code, Some(1), "{stderr}");
+    assert!(stdout.contains("FAIL MELTS BEFORE THE RESIN GELS: solidus 70 °C"), "{stdout}");
+    assert!(stdout.contains("contains lead and cadmium"), "{stdout}");
+    assert!(stderr.contains("warning: core alloy: MELTS BEFORE THE RESIN GELS"), "{stderr}");
+    // The files are written all the same.
+    assert!(out.join("mould-upper.stl").exists() && out.join("tooling-summary.json").exists());
+}
+
+#[test]
+fn an_output_folder_that_cannot_be_written_is_status_3_and_writes_nothing() {
+    let dir = tempfile::tempdir().unwrap();
+    let file = dir.path().join("not-a-folder");
+    std::fs::write(&file, b"x").unwrap();
+    let out = file.join("meshes");
+    let (code, stdout, stderr) = layloft(&[
+        "tooling",
+        "layups/mine-fan/blade.toml",
+        "--out",
+        &out.to_string_lossy(),
+        "--tolerance-mm",
+        "0.3",
+    ]);
+    assert_eq!(code, Some(3), "{stderr}");
+    assert!(stdout.is_empty(), "{stdout}");
+    assert!(
+        stderr.contains(&format!("layloft: error: cannot write {}", out.display())),
+        "{stderr}"
+    );
+    assert_eq!(files_in(dir.path()), ["not-a-folder"]);
+    assert!(!stderr.contains("panicked"));
+}
