@@ -18,7 +18,8 @@ Examples:
   layloft demo --blade small-wind --out wind-report
 
 Both demos are invented scenarios (see layups/*/README.md). The report is report/report.html
-(open it in a browser); with --out DIR it goes to DIR.";
+(open it in a browser) and the tooling STL files are in meshes/; with --out DIR they go to DIR and
+DIR/meshes.";
 
 /// A built-in demo project: its folder name and files.
 struct Demo {
@@ -62,7 +63,8 @@ pub struct Args {
     #[arg(long, value_name = "NAME", default_value = "mine-fan")]
     pub blade: String,
 
-    /// Folder for the report and its files (report/ in the working folder by default).
+    /// Folder for the report and its files (report/ in the working folder by default; the STL
+    /// files then go to meshes/, else to DIR/meshes).
     #[arg(long, value_name = "DIR")]
     pub out: Option<PathBuf>,
 }
@@ -98,7 +100,10 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let blade = locate(demo, scratch.path())?;
     out.note(&format!("demo '{}' (invented scenario) from {}", demo.name, blade.display()));
     let model = load_model(&blade, out)?;
-    let dest = Destination { out: args.out.unwrap_or_else(|| PathBuf::from("report")) };
+    let dest = match args.out {
+        Some(dir) => Destination { meshes: dir.join("meshes"), out: dir },
+        None => Destination { out: PathBuf::from("report"), meshes: PathBuf::from("meshes") },
+    };
     let passed = write_report(&model, &dest, out)?;
     out.note(&format!(
         "design check: {}; open {} in a browser",

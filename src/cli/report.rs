@@ -17,16 +17,19 @@ use layloft::report::{
 };
 
 use super::project::{load_model, run_modal};
+use super::tooling::{build_and_write, tell};
 use super::{Failure, Outcome, Output};
+use layloft::tooling::{StlFormat, StlOptions, ToolingParams};
 
 const EXAMPLES: &str = "\
 Examples:
   layloft report layups/mine-fan/blade.toml --out out/mine-fan
-  layloft report layups/small-wind/blade.toml --out out/wind
+  layloft report layups/small-wind/blade.toml --out out/wind --meshes out/wind-stl
 
 Writes DIR/report.html (open it in a browser; it prints well) and beside it the data it shows:
 sections.json, sections.csv, stress.json, stress-plies.csv, reserve-map.svg, modes.json, campbell.csv, campbell.svg,
-mode-shapes.csv, check.json. Exit status 1 when the design check fails (the report is written).";
+mode-shapes.csv, check.json; the tooling STL files and tooling-summary.json in DIR/meshes (or
+--meshes). Exit status 1 when the design check fails (the report is written).";
 
 /// The engineering report of a blade project: verdict, cautions, planform, section properties,
 /// strength, vibration and tooling, with the data files it refers to.
@@ -39,12 +42,34 @@ pub struct Args {
     /// Folder for the report and its data files (created when missing).
     #[arg(long, value_name = "DIR")]
     pub out: PathBuf,
+
+    /// Folder for the tooling STL files (DIR/meshes by default).
+    #[arg(long, value_name = "DIR")]
+    pub meshes: Option<PathBuf>,
 }
 
 /// Where a report run writes.
 pub struct Destination {
     /// Report and data files.
     pub out: PathBuf,
+    /// Tooling STL files and their summary.
+    pub meshes: PathBuf,
+}
+
+/// `target` relative to the folder `from` (both made absolute), for links in the report.
+fn relative(from: &Path, target: &Path) -> String {
+    let abs = |p: &Path| std::fs::canonicalize(p).unwrap_or_else(|_| p.to_path_buf());
+    let (a, b) = (abs(from), abs(target));
+    let (ac, bc): (Vec<_>, Vec<_>) = (a.components().collect(), b.components().collect());
+    let common = ac.iter().zip(&bc).take_while(|(x, y)| x == y).count();
+    let mut rel = PathBuf::new();
+    for _ in common..ac.len() {
+        rel.push("..");
+    }
+    for c in &bc[common..] {
+        rel.push(c);
+    }
+    rel.to_string_lossy().replace('\\', "/")
 }
 
 fn ensure_dir(dir: &Path) -> Result<(), Failure> {
@@ -154,6 +179,27 @@ pub fn write_report(model: &BladeModel, dest: &Destination, out: &Output) -> Res
             SectionDrawing { r: st.layout.r, svg: section_svg(&p.name, &model.blade, st) }
         })
         .collect();
+    // Tooling: every part built and checked, then written beside the report.
+    ensure_dir(&dest.meshes)?;
+    let spec = p.tooling.clone().unwrap_or_default();
+    let params = ToolingParams::from_spec(&spec)
+        .map_err(|e| Failure::Input(anyhow!("{}: {}", p.file, layloft::Error::from(e))))?;
+    let stl = StlOptions { unit: params.unit, format: StlFormat::Binary };
+    let tooling = build_and_write(p, &model.blade, &params, &stl, &dest.meshes, out)?;
+    tell(&tooling, out);
+    let mut block = tooling.report(&p.name).to_block();
+    for w in &tooling.written {
+        let name = w.path.file_name().map(|f| f.to_string_lossy().into_owned()).unwrap_or_default();
+        files.push((relative(&dest.out, &w.path), format!("tooling part {name} (STL)")));
+    }
+    files.push((
+        relative(&dest.out, &dest.meshes.join("tooling-summary.json")),
+        "the tooling summary (JSON)".into(),
+    ));
+    if p.tooling.is_none() {
+        block.notes.push("The project has no [tooling] table: the stated defaults apply (mm, 0.1 mm tolerance, 30 mm block margin) and the core-alloy mass is not computed.".into());
+    }
+
     let html = blade_report(&ReportInputs {
         model,
         stress: &stress,
@@ -161,7 +207,7 @@ pub fn write_report(model: &BladeModel, dest: &Destination, out: &Output) -> Res
         nominal_modes: Some(&nominal),
         check: &check,
         section_drawings,
-        tooling: None,
+        tooling: Some(block),
         files,
         date: Some(utc_date(SystemTime::now())),
     });
@@ -173,6 +219,7 @@ pub fn write_report(model: &BladeModel, dest: &Destination, out: &Output) -> Res
 
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let model = load_model(&args.blade, out)?;
-    let passed = write_report(&model, &Destination { out: args.out.clone() }, out)?;
+    let meshes = args.meshes.clone().unwrap_or_else(|| args.out.join("meshes"));
+    let passed = write_report(&model, &Destination { out: args.out.clone(), meshes }, out)?;
     Ok(if passed { Outcome::Success } else { Outcome::CheckFailed })
 }

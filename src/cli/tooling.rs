@@ -110,65 +110,82 @@ fn configure(args: &Args) -> Result<Config, Failure> {
     Ok(Config { project, blade, params, stl })
 }
 
-pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
-    let config = configure(&args)?;
+/// The tooling of a blade, built, checked and written.
+pub struct Written {
+    /// The parts and what their construction found.
+    pub tooling: layloft::tooling::BladeTooling,
+    /// The files, one per part.
+    pub written: Vec<layloft::tooling::WrittenPart>,
+    /// Masses and the melting check.
+    pub summary: layloft::tooling::ToolingSummary,
+    /// "binary STL in mm".
+    pub format: String,
+}
+
+impl Written {
+    /// The report view of it.
+    pub fn report<'a>(&'a self, name: &'a str) -> ToolingReport<'a> {
+        ToolingReport {
+            name,
+            tooling: &self.tooling,
+            written: &self.written,
+            summary: &self.summary,
+            format: &self.format,
+        }
+    }
+}
+
+/// Builds every part, checks them all, then writes the STL files and `tooling-summary.json`
+/// into `dir`, with progress bars on a terminal.
+pub fn build_and_write(
+    project: &Project,
+    blade: &Blade,
+    params: &ToolingParams,
+    stl: &StlOptions,
+    dir: &Path,
+    out: &Output,
+) -> Result<Written, Failure> {
     let mut bar = None;
-    let tooling = build_tooling(&config.blade, &config.params, &mut |_, total, stage| {
+    let tooling = build_tooling(blade, params, &mut |_, total, stage| {
         let b = bar.get_or_insert_with(|| out.progress(total as u64, "lofting"));
         b.set_message(&format!("lofted {stage}"));
         b.inc(1);
     })
-    .map_err(|e| mesh_failure(&config.project.file, e))?;
+    .map_err(|e| mesh_failure(&project.file, e))?;
     drop(bar);
     let parts: Vec<(&str, &layloft::tooling::Mesh)> =
         tooling.parts.iter().map(|p| (p.name.as_str(), &p.mesh)).collect();
     let bar = out.progress(2 * parts.len() as u64, "checking");
-    let written = write_parts_with_progress(
-        &args.out,
-        &parts,
-        &config.stl,
-        &CheckParams::default(),
-        &mut |_, _, what| {
+    let written =
+        write_parts_with_progress(dir, &parts, stl, &CheckParams::default(), &mut |_, _, what| {
             bar.set_message(what);
             bar.inc(1);
-        },
-    )
-    .map_err(|e| match e {
-        Error::Mesh(m) => {
-            Failure::Run(anyhow!("a part failed its check, nothing was written: {m}"))
-        }
-        other => Failure::Run(other.into()),
-    })?;
+        })
+        .map_err(|e| match e {
+            Error::Mesh(m) => {
+                Failure::Run(anyhow!("a part failed its check, nothing was written: {m}"))
+            }
+            other => Failure::Run(other.into()),
+        })?;
     bar.finish();
-    let summary = summarise(&config.project, &config.blade, &tooling);
+    let summary = summarise(project, blade, &tooling);
     let format = format!(
         "{} STL in {}",
-        if args.ascii { "ASCII" } else { "binary" },
-        config.stl.unit.symbol()
+        if stl.format == StlFormat::Ascii { "ASCII" } else { "binary" },
+        stl.unit.symbol()
     );
-    let report = ToolingReport {
-        name: &config.project.name,
-        tooling: &tooling,
-        written: &written,
-        summary: &summary,
-        format: &format,
-    };
-    let json = serde_json::to_string_pretty(&report.to_json())
+    let result = Written { tooling, written, summary, format };
+    let json = serde_json::to_string_pretty(&result.report(&project.name).to_json())
         .map_err(|e| Failure::Run(anyhow!("cannot format the JSON summary: {e}")))?;
-    let json_path = args.out.join("tooling-summary.json");
-    write_atomic(&json_path, json.as_bytes()).map_err(|e| Failure::Run(e.into()))?;
-    if args.json {
-        out.data(&json);
-    } else {
-        out.data(&report.to_text());
-    }
-    out.note(&format!(
-        "wrote {} STL files and {} into {}",
-        written.len(),
-        file_name(&json_path),
-        args.out.display()
-    ));
-    for h in &tooling.moulds {
+    write_atomic(&dir.join("tooling-summary.json"), json.as_bytes())
+        .map_err(|e| Failure::Run(e.into()))?;
+    Ok(result)
+}
+
+/// Notes on stderr about undercuts, and warnings about a failed melting check; whether the
+/// melting check failed.
+pub fn tell(result: &Written, out: &Output) -> bool {
+    for h in &result.tooling.moulds {
         if !h.undercuts.is_empty() {
             out.note(&format!(
                 "the {} mould half has {:.1} cm² of undercut in {} regions (see the summary)",
@@ -178,13 +195,38 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
             ));
         }
     }
-    if summary.melt.failed() {
-        for f in summary.melt.findings.iter().filter(|f| f.passed == Some(false)) {
-            out.warn(&format!("core alloy: {}", f.text));
-        }
-        return Ok(Outcome::CheckFailed);
+    let melt = &result.summary.melt;
+    for f in melt.findings.iter().filter(|f| f.passed == Some(false)) {
+        out.warn(&format!("core alloy: {}", f.text));
     }
-    Ok(Outcome::Success)
+    melt.failed()
+}
+
+pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
+    let config = configure(&args)?;
+    let result = build_and_write(
+        &config.project,
+        &config.blade,
+        &config.params,
+        &config.stl,
+        &args.out,
+        out,
+    )?;
+    let report = result.report(&config.project.name);
+    if args.json {
+        let json = serde_json::to_string_pretty(&report.to_json())
+            .map_err(|e| Failure::Run(anyhow!("cannot format the JSON summary: {e}")))?;
+        out.data(&json);
+    } else {
+        out.data(&report.to_text());
+    }
+    out.note(&format!(
+        "wrote {} STL files and {} into {}",
+        result.written.len(),
+        file_name(&args.out.join("tooling-summary.json")),
+        args.out.display()
+    ));
+    Ok(if tell(&result, out) { Outcome::CheckFailed } else { Outcome::Success })
 }
 
 fn file_name(p: &Path) -> String {

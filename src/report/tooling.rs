@@ -83,33 +83,10 @@ impl ToolingReport<'_> {
         sig4(v * self.unit().per_metre())
     }
 
-    /// The summary as text for the terminal.
-    pub fn to_text(&self) -> String {
+    /// The parts (file, triangles, volume, area, mass) and their bounding boxes as written.
+    fn parts_tables(&self) -> (Table, Table) {
         let t = self.tooling;
         let u = self.unit().symbol();
-        let mut s = String::new();
-        let _ = writeln!(s, "Tooling  {}", self.name);
-        s.push_str(&wrap(
-            &format!(
-                "{}; chordal tolerance {} {u}; parts at pitch {:.1}°, rotor frame (x along the \
-                 pitch axis from the rotor centre)",
-                self.format,
-                self.small(t.params.tolerance),
-                t.pitch.deg()
-            ),
-            "  ",
-            "  ",
-        ));
-        let _ = writeln!(s, "\nCaution");
-        for c in crate::CAUTIONS {
-            s.push_str(&wrap(c, "  ! ", "    "));
-        }
-        let dir = self.written.first().and_then(|w| w.path.parent());
-        let _ = writeln!(
-            s,
-            "\nParts in {} (volume and mass of the nominal part, area as written)",
-            dir.map_or(String::from("."), |d| d.display().to_string())
-        );
         let mut table = Table::new(&[
             ("part", Align::Left),
             ("file", Align::Left),
@@ -138,6 +115,134 @@ impl ToolingReport<'_> {
             ]);
             boxes.row(vec![p.name.clone(), span(0), span(1), span(2)]);
         }
+        (table, boxes)
+    }
+
+    /// Where the last core ends at the thin trailing edge, station by station.
+    fn core_ends_table(&self) -> Table {
+        let t = self.tooling;
+        let u = self.unit().symbol();
+        let mut table = Table::new(&[
+            (&format!("r {u}"), Align::Right),
+            ("core ends at x/c", Align::Right),
+            (&format!("solid chord {u}"), Align::Right),
+        ]);
+        for c in &t.core_ends {
+            table.row(vec![self.len(c.r), fixed(c.chord_fraction, 3), self.len(c.solid_chord)]);
+        }
+        table
+    }
+
+    /// Each mould half's pull, least draft and undercut area.
+    fn moulds_table(&self) -> Table {
+        let t = self.tooling;
+        let mut table = Table::new(&[
+            ("half", Align::Left),
+            ("pull (x, y, z)", Align::Left),
+            ("least draft °", Align::Right),
+            ("at", Align::Left),
+            ("below least cm²", Align::Right),
+            ("undercut cm²", Align::Right),
+        ]);
+        for h in &t.moulds {
+            table.row(vec![
+                h.side.to_string(),
+                format!(
+                    "({}, {}, {})",
+                    fixed(h.pull[0], 3),
+                    fixed(h.pull[1], 3),
+                    fixed(h.pull[2], 3)
+                ),
+                fixed(h.draft.min_draft.deg(), 2),
+                h.draft.at.to_string(),
+                sig4(h.draft.below_min_area * 1e4),
+                sig4(h.draft.undercut_area * 1e4),
+            ]);
+        }
+        table
+    }
+
+    /// The summary as a block of the HTML report: the tables of [`ToolingReport::to_text`] with
+    /// its masses, melting check and undercuts as paragraphs, warnings and notes.
+    pub fn to_block(&self) -> super::ReportBlock {
+        let mut masses = String::new();
+        self.masses_text(&mut masses);
+        let mut melt = String::new();
+        self.melt_text(&mut melt);
+        let lines = |text: &str| -> Vec<String> {
+            text.lines().map(str::trim).filter(|l| !l.is_empty()).map(str::to_string).collect()
+        };
+        let mut block = super::ReportBlock::default();
+        block.paragraphs.push(format!(
+            "{}; chordal tolerance {} {}. Parts in the rotor frame at pitch {:.1}°.",
+            self.format,
+            self.small(self.tooling.params.tolerance),
+            self.unit().symbol(),
+            self.tooling.pitch.deg()
+        ));
+        let (parts, boxes) = self.parts_tables();
+        block
+            .tables
+            .push(("Parts: volume and mass of the nominal part, area as written.".into(), parts));
+        block.tables.push(("Bounding boxes as written, rotor frame.".into(), boxes));
+        block.paragraphs.extend(lines(&masses).into_iter().skip(1));
+        block.tables.push((
+            "Where the last core ends at the thin trailing edge.".into(),
+            self.core_ends_table(),
+        ));
+        block.tables.push((
+            "Mould halves: pull direction, least draft and undercut.".into(),
+            self.moulds_table(),
+        ));
+        for l in lines(&melt) {
+            if l.starts_with("FAIL") {
+                block.warnings.push(format!("core alloy: {}", l.trim_start_matches("FAIL").trim()));
+            } else {
+                block.notes.push(l);
+            }
+        }
+        for h in &self.tooling.moulds {
+            if !h.undercuts.is_empty() {
+                block.warnings.push(format!(
+                    "the {} mould half has {} cm² of undercut in {} regions along its pull (worst {:.1}°)",
+                    h.side,
+                    sig4(h.draft.undercut_area * 1e4),
+                    h.undercuts.len(),
+                    h.undercuts.iter().map(|r| r.worst.deg()).fold(f64::INFINITY, f64::min)
+                ));
+            }
+        }
+        block
+    }
+
+    /// The summary as text for the terminal.
+    pub fn to_text(&self) -> String {
+        let t = self.tooling;
+        let u = self.unit().symbol();
+        let mut s = String::new();
+        let _ = writeln!(s, "Tooling  {}", self.name);
+        s.push_str(&wrap(
+            &format!(
+                "{}; chordal tolerance {} {u}; parts at pitch {:.1}°, rotor frame (x along the \
+                 pitch axis from the rotor centre)",
+                self.format,
+                self.small(t.params.tolerance),
+                t.pitch.deg()
+            ),
+            "  ",
+            "  ",
+        ));
+        let _ = writeln!(s, "\nCaution");
+        for c in crate::CAUTIONS {
+            s.push_str(&wrap(c, "  ! ", "    "));
+        }
+        let dir = self.written.first().and_then(|w| w.path.parent());
+        let _ = writeln!(
+            s,
+            "\nParts in {} (volume and mass of the nominal part, area as written)",
+            dir.map_or(String::from("."), |d| d.display().to_string())
+        );
+        let (table, boxes) = self.parts_tables();
         s.push_str(&table.render(2));
         let _ = writeln!(s, "\nBounding boxes as written, rotor frame");
         s.push_str(&boxes.render(2));
@@ -251,14 +356,7 @@ impl ToolingReport<'_> {
             "",
             "  ",
         ));
-        let mut table = Table::new(&[
-            (&format!("r {u}"), Align::Right),
-            ("core ends at x/c", Align::Right),
-            (&format!("solid chord {u}"), Align::Right),
-        ]);
-        for c in &t.core_ends {
-            table.row(vec![self.len(c.r), fixed(c.chord_fraction, 3), self.len(c.solid_chord)]);
-        }
+        let table = self.core_ends_table();
         s.push_str(&table.render(2));
     }
 
@@ -295,29 +393,7 @@ impl ToolingReport<'_> {
             "",
             "  ",
         ));
-        let mut table = Table::new(&[
-            ("half", Align::Left),
-            ("pull (x, y, z)", Align::Left),
-            ("least draft °", Align::Right),
-            ("at", Align::Left),
-            ("below least cm²", Align::Right),
-            ("undercut cm²", Align::Right),
-        ]);
-        for h in &t.moulds {
-            table.row(vec![
-                h.side.to_string(),
-                format!(
-                    "({}, {}, {})",
-                    fixed(h.pull[0], 3),
-                    fixed(h.pull[1], 3),
-                    fixed(h.pull[2], 3)
-                ),
-                fixed(h.draft.min_draft.deg(), 2),
-                h.draft.at.to_string(),
-                sig4(h.draft.below_min_area * 1e4),
-                sig4(h.draft.undercut_area * 1e4),
-            ]);
-        }
+        let table = self.moulds_table();
         s.push_str(&table.render(2));
         for h in &t.moulds {
             if h.undercuts.is_empty() {
