@@ -169,8 +169,21 @@ impl ToolingReport<'_> {
         self.masses_text(&mut masses);
         let mut melt = String::new();
         self.melt_text(&mut melt);
+        // The terminal text wraps long items onto lines indented further: join them back, and
+        // leave out the standing caution, which the report shows at its top.
         let lines = |text: &str| -> Vec<String> {
-            text.lines().map(str::trim).filter(|l| !l.is_empty()).map(str::to_string).collect()
+            let mut items: Vec<String> = Vec::new();
+            for raw in text.lines().filter(|l| !l.trim().is_empty()) {
+                match items.last_mut() {
+                    Some(last) if raw.starts_with("    ") => {
+                        last.push(' ');
+                        last.push_str(raw.trim());
+                    }
+                    _ => items.push(raw.trim().to_string()),
+                }
+            }
+            items.retain(|l| !l.starts_with('!'));
+            items
         };
         let mut block = super::ReportBlock::default();
         block.paragraphs.push(format!(
@@ -198,7 +211,10 @@ impl ToolingReport<'_> {
             if l.starts_with("FAIL") {
                 block.warnings.push(format!("core alloy: {}", l.trim_start_matches("FAIL").trim()));
             } else {
-                block.notes.push(l);
+                block.notes.push(match l.strip_prefix("ok ") {
+                    Some(rest) => format!("passed: {}", rest.trim()),
+                    None => l,
+                });
             }
         }
         for h in &self.tooling.moulds {
