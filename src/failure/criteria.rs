@@ -193,11 +193,12 @@ fn signed_family(
     // The sign on the first stretch is that of p (of q when p = 0); it flips at the sign
     // change. Deciding it from p + R q at the boundary would let round-off pick the wrong form.
     let first_tensile = if p != 0.0 { p > 0.0 } else { q >= 0.0 };
+    let none = (f64::NAN, f64::NAN, true);
     let windows = match sign_change(p, q) {
-        Some(r0) => vec![(0.0, r0, first_tensile), (r0, f64::INFINITY, !first_tensile)],
-        None => vec![(0.0, f64::INFINITY, first_tensile)],
+        Some(r0) => [(0.0, r0, first_tensile), (r0, f64::INFINITY, !first_tensile)],
+        None => [(0.0, f64::INFINITY, first_tensile), none],
     };
-    for (lo, hi, tensile) in windows {
+    for (lo, hi, tensile) in windows.into_iter().filter(|w| !w.0.is_nan()) {
         let quad = if tensile { tension } else { compression };
         if let Some(r) = quad.first_failure(lo, hi) {
             return (Some(r), tensile);
