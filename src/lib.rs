@@ -21,7 +21,39 @@
 //! and have the design reviewed by a qualified engineer. Some fusible core alloys contain lead or
 //! cadmium: follow the supplier's safety data and local regulations.
 //!
-//! # Example
+//! # Example: a blade from Rust code
+//!
+//! The invented mine-fan demo of `layups/`: read and check the project, solve its sections, run
+//! every load case, sweep the rotor speeds for the Campbell diagram, and apply the design check.
+//!
+//! ```
+//! use layloft::analysis::BladeModel;
+//! use layloft::input::read_project;
+//! use layloft::modal::ModalAnalysis;
+//! use layloft::stress::analyse_cases;
+//!
+//! # fn main() -> Result<(), layloft::Error> {
+//! let model = BladeModel::build(read_project("layups/mine-fan/blade.toml".as_ref())?)?;
+//! let root = &model.properties()[0];
+//! println!("root: EI flap {:.0} N·m², GJ {:.0} N·m²", root.ei_flap, root.gj);
+//!
+//! let cases = analyse_cases(&model, None)?;
+//! for case in &cases {
+//!     let worst = case.critical.as_ref().expect("a ply can fail");
+//!     println!("{}: reserve factor {:.2} at r = {:.3} m", case.name, worst.reserve_factor, worst.r);
+//! }
+//!
+//! let p = &model.project;
+//! let sections = model.properties();
+//! let modes =
+//!     ModalAnalysis::run(&sections, &p.rotor, &p.modal, &p.criteria, None, None, &mut |_, _| {})?;
+//! let check = layloft::check::evaluate(&model, &cases, Some(&modes));
+//! assert!(check.passed());
+//! # Ok(())
+//! # }
+//! ```
+//!
+//! # Example: one laminate
 //!
 //! The laminate engine on its own: a quasi-isotropic carbon laminate.
 //!
