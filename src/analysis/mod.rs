@@ -15,6 +15,8 @@
 //! # }
 //! ```
 
+use std::sync::OnceLock;
+
 use crate::Error;
 use crate::blade::Blade;
 use crate::input::Project;
@@ -57,6 +59,8 @@ pub struct BladeModel {
     pub blade: Blade,
     /// The analysis stations, root to tip.
     pub stations: Vec<AnalysisStation>,
+    /// The blade mass, integrated once, on first use (it takes tens of milliseconds).
+    mass: OnceLock<BladeMass>,
 }
 
 impl BladeModel {
@@ -72,6 +76,22 @@ impl BladeModel {
     ) -> Result<Self, Error> {
         let blade = Blade::from_project(&project)?;
         let radii = blade.analysis_radii(project.sections.analysis_stations);
+        Self::solve_at(project, blade, &radii, progress)
+    }
+
+    /// Lofts the blade and solves the sections at `radii` (root to tip, m) instead of the
+    /// project's analysis stations.
+    pub fn build_at(project: Project, radii: &[f64]) -> Result<Self, Error> {
+        let blade = Blade::from_project(&project)?;
+        Self::solve_at(project, blade, radii, &mut |_, _| {})
+    }
+
+    fn solve_at(
+        project: Project,
+        blade: Blade,
+        radii: &[f64],
+        progress: &mut dyn FnMut(usize, usize),
+    ) -> Result<Self, Error> {
         let params = SectionParams::default();
         let mut stations = Vec::with_capacity(radii.len());
         for (i, &r) in radii.iter().enumerate() {
@@ -81,7 +101,7 @@ impl BladeModel {
             stations.push(AnalysisStation { layout, plies, section });
             progress(i + 1, radii.len());
         }
-        Ok(BladeModel { project, blade, stations })
+        Ok(BladeModel { project, blade, stations, mass: OnceLock::new() })
     }
 
     /// The sections' properties, root to tip.
@@ -95,8 +115,12 @@ impl BladeModel {
     }
 
     /// Mass of the blade: laminates by ply areas times densities on a fine spanwise grid (so that
-    /// drop-offs fall where they are), plus the point masses.
+    /// drop-offs fall where they are), plus the point masses. Computed once and kept.
     pub fn mass(&self) -> BladeMass {
+        *self.mass.get_or_init(|| self.integrate_mass())
+    }
+
+    fn integrate_mass(&self) -> BladeMass {
         let (r0, r1) = (self.blade.root_radius(), self.blade.tip_radius());
         let n = 400;
         let h = (r1 - r0) / n as f64;

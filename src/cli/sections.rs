@@ -9,13 +9,11 @@ use std::path::{Path, PathBuf};
 
 use anyhow::anyhow;
 
-use layloft::analysis::{AnalysisStation, BladeModel};
-use layloft::blade::Blade;
+use layloft::analysis::BladeModel;
 use layloft::input::{Project, read_project};
 use layloft::report::{
     SectionsReport, section_svg, section_svg_names, write_atomic, write_atomic_with,
 };
-use layloft::section::{SectionParams, SolvedSection};
 
 use super::{Failure, Outcome, Output};
 
@@ -109,20 +107,6 @@ fn configure(args: &Args) -> Result<Config, Failure> {
     Ok(Config { project, radii })
 }
 
-/// The model solved at `radii` instead of the analysis stations.
-fn model_at(project: Project, radii: &[f64]) -> Result<BladeModel, layloft::Error> {
-    let blade = Blade::from_project(&project)?;
-    let params = SectionParams::default();
-    let mut stations = Vec::with_capacity(radii.len());
-    for &r in radii {
-        let (layout, plies) =
-            blade.section_layout_with_plies(r, project.sections.contour_points)?;
-        let section = SolvedSection::solve(&layout, &params)?;
-        stations.push(AnalysisStation { layout, plies, section });
-    }
-    Ok(BladeModel { project, blade, stations })
-}
-
 /// Writes one drawing per station into `dir`, creating it; returns the number written.
 fn write_drawings(model: &BladeModel, dir: &Path) -> Result<usize, Failure> {
     std::fs::create_dir_all(dir).map_err(|e| {
@@ -142,7 +126,7 @@ fn write_drawings(model: &BladeModel, dir: &Path) -> Result<usize, Failure> {
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let config = configure(&args)?;
     let model = match &config.radii {
-        Some(radii) => model_at(config.project, radii)?,
+        Some(radii) => BladeModel::build_at(config.project, radii)?,
         None => BladeModel::build(config.project)?,
     };
     let report = SectionsReport::new(&model);
