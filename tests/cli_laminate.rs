@@ -2,23 +2,13 @@
 //! status. Materials: `tests/data/kaw-t300.toml` (Kaw, *Mechanics of Composite Materials*, 2nd
 //! ed., 2006, Table 2.1) and the invented demo `layups/mine-fan/materials.toml`.
 
-use assert_cmd::Command;
+mod support_cli;
+
 use serde_json::Value;
+use support_cli::layloft;
 
 const KAW: &str = "tests/data/kaw-t300.toml";
 const DEMO: &str = "layups/mine-fan/materials.toml";
-
-fn layloft(args: &[&str]) -> (Option<i32>, String, String) {
-    let out = Command::cargo_bin("layloft")
-        .unwrap()
-        .args(args)
-        .current_dir(env!("CARGO_MANIFEST_DIR"))
-        .env("NO_COLOR", "1")
-        .output()
-        .unwrap();
-    let text = |b: &[u8]| String::from_utf8_lossy(b).into_owned();
-    (out.status.code(), text(&out.stdout), text(&out.stderr))
-}
 
 fn json(args: &[&str]) -> (Option<i32>, Value) {
     let mut all = args.to_vec();

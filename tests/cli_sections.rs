@@ -8,28 +8,18 @@
 //! e.g. Megson, *Aircraft Structures for Engineering Students*, §16.2), the polar moment as the
 //! sum of the other two, and the blade mass as the integral of the mass per length.
 
+mod support_cli;
+
 use std::path::{Path, PathBuf};
 
-use assert_cmd::Command;
 use serde_json::Value;
+use support_cli::layloft;
 
 use layloft::analysis::BladeModel;
 use layloft::input::read_project;
 
 const FAN: &str = "layups/mine-fan/blade.toml";
 const WIND: &str = "layups/small-wind/blade.toml";
-
-fn layloft(args: &[&str]) -> (Option<i32>, String, String) {
-    let out = Command::cargo_bin("layloft")
-        .unwrap()
-        .args(args)
-        .current_dir(env!("CARGO_MANIFEST_DIR"))
-        .env("NO_COLOR", "1")
-        .output()
-        .unwrap();
-    let text = |b: &[u8]| String::from_utf8_lossy(b).into_owned();
-    (out.status.code(), text(&out.stdout), text(&out.stderr))
-}
 
 fn json(args: &[&str]) -> Value {
     let mut all = vec!["sections"];

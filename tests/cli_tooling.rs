@@ -3,25 +3,15 @@
 //! stdout and in `tooling-summary.json`, the exit status. Projects: the invented demos
 //! `layups/mine-fan/` (with `[tooling]`) and `layups/small-wind/` (without).
 
+mod support_cli;
+
 mod support_stl;
 
 use std::path::{Path, PathBuf};
 
-use assert_cmd::Command;
 use serde_json::Value;
+use support_cli::layloft;
 use support_stl::read_stl_file;
-
-fn layloft(args: &[&str]) -> (Option<i32>, String, String) {
-    let out = Command::cargo_bin("layloft")
-        .unwrap()
-        .args(args)
-        .current_dir(env!("CARGO_MANIFEST_DIR"))
-        .env("NO_COLOR", "1")
-        .output()
-        .unwrap();
-    let text = |b: &[u8]| String::from_utf8_lossy(b).into_owned();
-    (out.status.code(), text(&out.stdout), text(&out.stderr))
-}
 
 fn files_in(dir: &Path) -> Vec<String> {
     let mut names: Vec<String> = std::fs::read_dir(dir)
