@@ -277,17 +277,22 @@ impl Figure {
         };
         let (x0, x1) = widen(&x_ticks, x0, x1, x_auto);
         let (y0, y1) = widen(&y_ticks, y0, y1, y_auto);
-        let plot = Frame {
+        let plot = self.frame((x0, x1), (y0, y1));
+        let mut s = String::new();
+        self.render_into(&mut s, &plot, &x_ticks, &y_ticks, &tick_text);
+        s
+    }
+
+    /// The plot area of this figure's size showing the data ranges `x` and `y`.
+    fn frame(&self, x: (f64, f64), y: (f64, f64)) -> Frame {
+        Frame {
             left: LEFT,
             top: TOP,
             width: self.width - LEFT - RIGHT,
             height: self.height - TOP - BOTTOM,
-            x: (x0, x1),
-            y: (y0, y1),
-        };
-        let mut s = String::new();
-        self.render_into(&mut s, &plot, &x_ticks, &y_ticks, &tick_text);
-        s
+            x,
+            y,
+        }
     }
 
     /// The figure with every y value replaced by its decimal logarithm.
@@ -332,14 +337,7 @@ impl Figure {
         };
         let decades: Vec<f64> =
             ((ly0.ceil() as i32)..=(ly1.floor() as i32)).map(f64::from).collect();
-        let plot = Frame {
-            left: LEFT,
-            top: TOP,
-            width: self.width - LEFT - RIGHT,
-            height: self.height - TOP - BOTTOM,
-            x: (x0, x1),
-            y: (ly0, ly1),
-        };
+        let plot = self.frame((x0, x1), (ly0, ly1));
         let mut s = String::new();
         self.render_into(&mut s, &plot, &x_ticks, &decades, &|d, _| decade_text(d));
         s
