@@ -99,10 +99,13 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         write_atomic(path, campbell_csv(&analysis.campbell).as_bytes())?;
     }
     if let Some(path) = &args.shapes {
-        let set = analysis
-            .model
-            .modes(p.rotor.rpm_nominal, args.modes.unwrap_or(p.modal.modes))
-            .map_err(layloft::Error::from)?;
+        let set = match analysis.at_speed(p.rotor.rpm_nominal) {
+            Some(set) => set.clone(),
+            None => analysis
+                .model
+                .modes(p.rotor.rpm_nominal, args.modes.unwrap_or(p.modal.modes))
+                .map_err(layloft::Error::from)?,
+        };
         write_atomic(path, mode_shapes_csv(&set).as_bytes())?;
     }
     if let Some(dir) = &args.export_matrices {

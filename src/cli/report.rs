@@ -99,8 +99,12 @@ pub fn write_report(model: &BladeModel, dest: &Destination, out: &Output) -> Res
         all
     };
     let modal = run_modal(model, out, None, None)?;
-    let nominal =
-        modal.model.modes(p.rotor.rpm_nominal, p.modal.modes).map_err(layloft::Error::from)?;
+    let nominal = match modal.at_speed(p.rotor.rpm_nominal) {
+        Some(set) => set.clone(),
+        None => {
+            modal.model.modes(p.rotor.rpm_nominal, p.modal.modes).map_err(layloft::Error::from)?
+        }
+    };
     let check = evaluate(model, &stress, Some(&modal));
 
     let mut files: Vec<(String, String)> = Vec::new();

@@ -6,6 +6,7 @@ use super::assemble::BeamModel;
 use super::campbell::{
     Campbell, Crossing, Excitation, MarginCheck, SpeedRange, SweepProgress, excitation_orders,
 };
+use super::modes::ModeSet;
 use crate::input::{Criteria, ModalSpec, Rotor};
 use crate::section::SectionProperties;
 
@@ -65,6 +66,12 @@ impl ModalAnalysis {
             }
         }
         Ok(ModalAnalysis { model, range, campbell, excitations, crossings, margins })
+    }
+
+    /// The modes of the sweep at `rpm`, when the sweep holds that speed (the nominal and
+    /// maximum speeds always are).
+    pub fn at_speed(&self, rpm: f64) -> Option<&ModeSet> {
+        self.campbell.speeds.iter().find(|s| (s.rpm - rpm).abs() <= 1e-9 * rpm.abs().max(1.0))
     }
 
     /// Whether every margin check passes; `None` when no margin is required or none was checked.
