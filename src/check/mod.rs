@@ -95,6 +95,16 @@ impl CheckRow {
         }
     }
 
+    /// The unit as a key suffix for data files: `pct` for percent, `ratio` for a dimensionless
+    /// ratio, otherwise the SI unit itself (`kg`, `m`).
+    pub fn unit_key(&self) -> &'static str {
+        match self.unit {
+            "" => "ratio",
+            "%" => "pct",
+            unit => unit,
+        }
+    }
+
     /// A value in the unit a reader expects (lengths below a metre in millimetres).
     fn show(&self, v: f64) -> String {
         let sig4 = crate::report::sig4;
@@ -117,6 +127,25 @@ impl DesignCheck {
     /// Whether every criterion passes (true for an empty check: nothing was demanded).
     pub fn passed(&self) -> bool {
         self.rows.iter().all(|r| r.status == Status::Pass)
+    }
+
+    /// The verdict in one line, naming every criterion that fails with its value and demand:
+    /// "PASS (every criterion met)", "FAIL: least reserve factor 0.84, demand >= 1.5", or
+    /// "NOT CHECKED (the project sets no [criteria])".
+    pub fn verdict_line(&self) -> String {
+        if self.rows.is_empty() {
+            return "NOT CHECKED (the project sets no [criteria])".to_string();
+        }
+        if self.passed() {
+            return "PASS (every criterion met)".to_string();
+        }
+        let failed: Vec<String> = self
+            .rows
+            .iter()
+            .filter(|r| r.status != Status::Pass)
+            .map(|r| format!("{} {}, demand {}", r.label, r.found_text(), r.demand()))
+            .collect();
+        format!("FAIL: {}", failed.join("; "))
     }
 }
 

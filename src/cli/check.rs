@@ -28,7 +28,8 @@ min_reserve_factor, frequency_margin_pct, max_mass_kg, max_tip_deflection_m.";
 #[derive(Debug, clap::Args)]
 #[command(after_help = EXAMPLES)]
 pub struct Args {
-    /// The blade project (blade.toml).
+    /// The blade project: its blade.toml, or the folder that holds it.
+    #[arg(value_name = "PROJECT")]
     pub blade: PathBuf,
 
     /// Write one JSON object on stdout instead of the table.
@@ -63,11 +64,7 @@ fn text(project: &str, check: &DesignCheck) -> String {
     } else {
         out.push_str(&t.render(2));
         let _ = writeln!(out);
-        let _ = writeln!(
-            out,
-            "Design check: {}",
-            if check.passed() { "PASS (every criterion met)" } else { "FAIL" }
-        );
+        let _ = writeln!(out, "Design check: {}", check.verdict_line());
     }
     out
 }
@@ -92,16 +89,21 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
             .rows
             .iter()
             .map(|r| {
-                json!({
+                let found = r.found.filter(|v| v.is_finite());
+                let mut row = json!({
                     "criterion": r.key,
                     "label": r.label,
                     "limit": r.limit,
                     "bound": match r.bound { layloft::check::Bound::AtLeast => "at_least", layloft::check::Bound::AtMost => "at_most" },
-                    "found": r.found.filter(|v| v.is_finite()),
+                    "found": found,
                     "unit": r.unit,
                     "where": r.location,
                     "pass": r.status == Status::Pass,
-                })
+                });
+                // The same limit and value under keys that carry their unit.
+                row[format!("limit_{}", r.unit_key())] = json!(r.limit);
+                row[format!("found_{}", r.unit_key())] = json!(found);
+                row
             })
             .collect();
         let doc = json!({

@@ -58,8 +58,8 @@ const DEMOS: [Demo; 2] = [
 #[derive(Debug, clap::Args)]
 #[command(after_help = EXAMPLES)]
 pub struct Args {
-    /// Which demo: mine-fan (a 1.8 m ducted mine ventilation fan) or small-wind (a 5 m small
-    /// wind turbine).
+    /// Which demo: mine-fan (a ducted mine ventilation fan of 1.8 m rotor diameter) or
+    /// small-wind (a small wind turbine of 5 m rotor diameter).
     #[arg(long, value_name = "NAME", default_value = "mine-fan")]
     pub blade: String,
 
@@ -95,20 +95,33 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
             names.join(", ")
         ))
     })?;
-    let scratch = tempfile::tempdir()
-        .map_err(|e| Failure::Run(anyhow!("cannot make a temporary folder: {e}")))?;
-    let blade = locate(demo, scratch.path())?;
-    out.note(&format!("demo '{}' (invented scenario) from {}", demo.name, blade.display()));
-    let model = load_model(&blade, out)?;
     let dest = match args.out {
         Some(dir) => Destination { meshes: dir.join("meshes"), out: dir },
         None => Destination { out: PathBuf::from("report"), meshes: PathBuf::from("meshes") },
     };
-    let passed = write_report(&model, &dest, out)?;
-    out.note(&format!(
-        "design check: {}; open {} in a browser",
-        if passed { "PASS" } else { "FAIL" },
-        dest.out.join("report.html").display()
-    ));
+    // The built-in copy is unpacked inside the output folder, so that nothing is left elsewhere
+    // when the run is killed; the folder is removed as soon as the project has been read.
+    layloft::report::ensure_folder(&dest.out)?;
+    let scratch = tempfile::Builder::new()
+        .prefix(".layloft-demo-")
+        .tempdir_in(&dest.out)
+        .map_err(|e| Failure::Run(anyhow!("cannot make a scratch folder in {}: {e}", dest.out.display())))?;
+    let blade = locate(demo, scratch.path())?;
+    let built_in = !blade.starts_with("layups");
+    let shown = if built_in {
+        format!("layups/{}/blade.toml (built-in copy)", demo.name)
+    } else {
+        blade.display().to_string()
+    };
+    out.note(&format!("demo '{}' (invented scenario) from {shown}", demo.name));
+    let mut model = load_model(&blade, out)?;
+    drop(scratch);
+    if built_in {
+        model.project.file = shown;
+    }
+    let check = write_report(&model, &dest, out)?;
+    out.note(&format!("open {} in a browser", dest.out.join("report.html").display()));
+    out.data(&format!("Design check: {}", check.verdict_line()));
+    let passed = check.passed();
     Ok(if passed { Outcome::Success } else { Outcome::CheckFailed })
 }

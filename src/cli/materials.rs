@@ -8,10 +8,15 @@ use layloft::material::Material;
 
 use super::{Failure, Outcome, Output};
 
+const EXAMPLES: &str = "\
+Examples:
+  layloft materials layups/mine-fan/materials.toml
+
+Exit status: 0 when every record is valid, 2 when the file is invalid.";
+
 /// Check a materials file and list its records with their key values.
-///
-/// Example: layloft materials layups/mine-fan/materials.toml
 #[derive(Debug, clap::Args)]
+#[command(after_help = EXAMPLES)]
 pub struct Args {
     /// The materials file (TOML, `[lamina.NAME]` and `[isotropic.NAME]` tables).
     pub file: PathBuf,

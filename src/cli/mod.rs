@@ -39,16 +39,18 @@ pub struct Cli {
 }
 
 #[derive(Debug, Subcommand)]
+/// In the order of the work: the materials and one laminate, then the blade's sections, its
+/// stresses and modes, the design check, the tooling, and everything in one report.
 enum Command {
-    Check(check::Args),
-    Demo(demo::Args),
     Materials(materials::Args),
     Laminate(laminate::Args),
-    Modes(modes::Args),
-    Report(report::Args),
-    Stress(stress::Args),
     Sections(sections::Args),
+    Stress(stress::Args),
+    Modes(modes::Args),
+    Check(check::Args),
     Tooling(tooling::Args),
+    Report(report::Args),
+    Demo(demo::Args),
 }
 
 /// How a command ended, other than by an error.

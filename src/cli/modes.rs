@@ -28,7 +28,8 @@ Exit status 1 when a mode lies within the required margin ([criteria] frequency_
 #[derive(Debug, clap::Args)]
 #[command(after_help = EXAMPLES)]
 pub struct Args {
-    /// The blade project (blade.toml).
+    /// The blade project: its blade.toml, or the folder that holds it.
+    #[arg(value_name = "PROJECT")]
     pub blade: PathBuf,
 
     /// Speed sweep FROM:TO:STEP in rpm (0 to the rotor's rpm_max by default).

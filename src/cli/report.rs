@@ -9,7 +9,7 @@ use anyhow::anyhow;
 use serde_json::Value;
 
 use layloft::analysis::BladeModel;
-use layloft::check::evaluate;
+use layloft::check::{DesignCheck, evaluate};
 use layloft::report::html::utc_date;
 use layloft::report::{
     ReportInputs, SectionDrawing, SectionsReport, blade_report, campbell_csv, campbell_svg,
@@ -36,7 +36,8 @@ mode-shapes.csv, check.json; the tooling STL files and tooling-summary.json in D
 #[derive(Debug, clap::Args)]
 #[command(after_help = EXAMPLES)]
 pub struct Args {
-    /// The blade project (blade.toml).
+    /// The blade project: its blade.toml, or the folder that holds it.
+    #[arg(value_name = "PROJECT")]
     pub blade: PathBuf,
 
     /// Folder for the report and its data files (created when missing).
@@ -73,16 +74,19 @@ fn relative(from: &Path, target: &Path) -> String {
 }
 
 fn ensure_dir(dir: &Path) -> Result<(), Failure> {
-    std::fs::create_dir_all(dir)
-        .map_err(|e| Failure::Run(anyhow!("cannot create the folder {}: {e}", dir.display())))
+    Ok(layloft::report::ensure_folder(dir)?)
 }
 
 fn json_text(v: &Value) -> Result<String, Failure> {
     serde_json::to_string_pretty(v).map_err(|e| Failure::Run(anyhow!("cannot format JSON: {e}")))
 }
 
-/// Runs every stage on `model` and writes the report; returns whether the design check passed.
-pub fn write_report(model: &BladeModel, dest: &Destination, out: &Output) -> Result<bool, Failure> {
+/// Runs every stage on `model` and writes the report; returns the design check.
+pub fn write_report(
+    model: &BladeModel,
+    dest: &Destination,
+    out: &Output,
+) -> Result<DesignCheck, Failure> {
     ensure_dir(&dest.out)?;
     let p = &model.project;
     let stress = if p.load_cases.is_empty() {
@@ -218,12 +222,15 @@ pub fn write_report(model: &BladeModel, dest: &Destination, out: &Output) -> Res
     let path = dest.out.join("report.html");
     write_atomic(&path, html.as_bytes())?;
     out.note(&format!("wrote {}", path.display()));
-    Ok(check.passed())
+    Ok(check)
 }
 
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let model = load_model(&args.blade, out)?;
     let meshes = args.meshes.clone().unwrap_or_else(|| args.out.join("meshes"));
-    let passed = write_report(&model, &Destination { out: args.out.clone(), meshes }, out)?;
+    let check = write_report(&model, &Destination { out: args.out.clone(), meshes }, out)?;
+    // The verdict is the last line, on stdout, so that it is seen and a script can read it.
+    out.data(&format!("Design check: {}", check.verdict_line()));
+    let passed = check.passed();
     Ok(if passed { Outcome::Success } else { Outcome::CheckFailed })
 }

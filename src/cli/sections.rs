@@ -36,8 +36,8 @@ one row per station with the unit in every column name (r_m, EA_N, EI_flap_Nm2, 
 #[derive(Debug, clap::Args)]
 #[command(after_help = EXAMPLES)]
 pub struct Args {
-    /// The blade project: its blade.toml, or the folder holding it.
-    #[arg(value_name = "BLADE.toml")]
+    /// The blade project: its blade.toml, or the folder that holds it.
+    #[arg(value_name = "PROJECT")]
     pub project: PathBuf,
 
     /// Write one JSON object on stdout (SI units in every key) instead of the summary.
@@ -87,11 +87,9 @@ fn parse_radii(text: &str) -> Result<Vec<f64>, String> {
 }
 
 fn configure(args: &Args) -> Result<Config, Failure> {
-    let path =
-        if args.project.is_dir() { args.project.join("blade.toml") } else { args.project.clone() };
     let radii =
         args.at.as_deref().map(parse_radii).transpose().map_err(|e| Failure::Input(anyhow!(e)))?;
-    let project = read_project(&path).map_err(layloft::Error::from)?;
+    let project = read_project(&args.project).map_err(layloft::Error::from)?;
     if let (Some(radii), Some(root), Some(tip)) =
         (&radii, project.stations.first(), project.stations.last())
     {
@@ -109,12 +107,8 @@ fn configure(args: &Args) -> Result<Config, Failure> {
 
 /// Writes one drawing per station into `dir`, creating it; returns the number written.
 fn write_drawings(model: &BladeModel, dir: &Path) -> Result<usize, Failure> {
-    std::fs::create_dir_all(dir).map_err(|e| {
-        Failure::Run(anyhow!("--svg {}: cannot create the folder: {e}", dir.display()))
-    })?;
-    if !dir.is_dir() {
-        return Err(Failure::Run(anyhow!("--svg {}: not a folder", dir.display())));
-    }
+    layloft::report::ensure_folder(dir)
+        .map_err(|e| Failure::Run(anyhow!("--svg {}: {e}", dir.display())))?;
     let names = section_svg_names(&model.radii());
     for (st, name) in model.stations.iter().zip(&names) {
         let svg = section_svg(&model.project.name, &model.blade, st);
@@ -132,6 +126,13 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let report = SectionsReport::new(&model);
     if let Some(path) = &args.csv {
         let folder = path.parent().filter(|p| !p.as_os_str().is_empty()).unwrap_or(Path::new("."));
+        if folder.exists() && !folder.is_dir() {
+            return Err(Failure::Run(anyhow!(
+                "--csv {}: {} is a file, not a folder",
+                path.display(),
+                folder.display()
+            )));
+        }
         if !folder.is_dir() {
             return Err(Failure::Run(anyhow!(
                 "--csv {}: the folder {} does not exist",

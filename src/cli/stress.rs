@@ -27,7 +27,8 @@ under the factored load).";
 #[derive(Debug, clap::Args)]
 #[command(after_help = EXAMPLES)]
 pub struct Args {
-    /// The blade project (blade.toml).
+    /// The blade project: its blade.toml, or the folder that holds it.
+    #[arg(value_name = "PROJECT")]
     pub blade: PathBuf,
 
     /// Only this load case.

@@ -41,8 +41,8 @@ Exit status 1 when the core alloy would melt before the resin gels or never melt
 #[derive(Debug, clap::Args)]
 #[command(after_help = EXAMPLES)]
 pub struct Args {
-    /// The blade project file (blade.toml).
-    #[arg(value_name = "BLADE.toml")]
+    /// The blade project: its blade.toml, or the folder that holds it.
+    #[arg(value_name = "PROJECT")]
     pub project: PathBuf,
 
     /// Folder for the STL files and tooling-summary.json (created when missing).

@@ -32,8 +32,15 @@ use super::toml_table::TableReader;
 use crate::material::Material;
 use crate::units::{Angle, MM};
 
-/// Reads a blade project from its `blade.toml`.
+/// Reads a blade project from its `blade.toml`, given as the file or as the folder that holds it.
 pub fn read_project(path: &Path) -> Result<Project, InputError> {
+    let joined;
+    let path = if path.is_dir() {
+        joined = path.join("blade.toml");
+        joined.as_path()
+    } else {
+        path
+    };
     let display = path.display().to_string();
     let source = SourceText::read(path, &display)?;
     let dir = path.parent().map(Path::to_path_buf).unwrap_or_default();

@@ -17,8 +17,7 @@ use crate::report::write_atomic_with;
 /// Writes `stiffness.mtx`, `mass.mtx` and `dofs.csv` into `dir` (created when missing), each
 /// atomically; returns the paths written.
 pub fn export_matrix_market(dir: &Path, matrices: &SystemMatrices) -> Result<Vec<PathBuf>, Error> {
-    std::fs::create_dir_all(dir)
-        .map_err(|source| Error::Write { path: dir.display().to_string(), source })?;
+    crate::report::ensure_folder(dir)?;
     let stiffness = dir.join("stiffness.mtx");
     let mass = dir.join("mass.mtx");
     let dofs = dir.join("dofs.csv");

@@ -33,4 +33,4 @@ pub use stress::{stress_csv, stress_json, stress_text};
 pub use stress_map::stress_svg;
 pub use table::{Align, Table, cautions_text, fixed, sig4};
 pub use tooling::ToolingReport;
-pub use write::{write_atomic, write_atomic_with};
+pub use write::{ensure_folder, remove_leftovers, write_atomic, write_atomic_with};
