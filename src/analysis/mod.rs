@@ -153,6 +153,17 @@ impl BladeModel {
             .into_iter()
             .map(|w| GroupedWarning { first: w, radii: vec![] })
             .collect();
+        let rotor = &self.project.rotor;
+        for case in self.project.load_cases.iter().filter(|c| c.rpm > rotor.rpm_max) {
+            groups.push(GroupedWarning {
+                first: format!(
+                    "load case '{}' runs at {} rpm, above rpm_max = {} rpm: an overspeed case; \
+                     the frequency check covers speeds up to rpm_max only",
+                    case.name, case.rpm, rotor.rpm_max
+                ),
+                radii: vec![],
+            });
+        }
         for st in &self.stations {
             for w in &st.section.properties.warnings {
                 let key = shape_of(w);

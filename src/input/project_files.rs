@@ -161,11 +161,19 @@ pub(super) fn read_plies(
             other => match other.strip_prefix("web:") {
                 Some(name) => {
                     let web = webs.iter().find(|w| w.name == name).ok_or_else(|| {
+                        let names: Vec<String> =
+                            webs.iter().map(|w| format!("'web:{}'", w.name)).collect();
+                        let known = if names.is_empty() {
+                            "; the project has no webs: define one with a [[web]] table in \
+                             blade.toml"
+                                .to_string()
+                        } else {
+                            format!("; the webs are {}", names.join(", "))
+                        };
                         let hint = closest(name, webs.iter().map(|w| w.name.as_str()))
                             .map(|h| format!("; did you mean 'web:{h}'?"))
-                            .unwrap_or_else(|| {
-                                "; define it with a [[web]] table in blade.toml".to_string()
-                            });
+                            .unwrap_or_default();
+                        let hint = format!("{hint}{known}");
                         rec.error("region", format!("no web named '{name}'{hint}"))
                     })?;
                     if r_start < web.r_start - R_EPS || r_end > web.r_end + R_EPS {

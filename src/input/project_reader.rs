@@ -32,6 +32,10 @@ use super::toml_table::TableReader;
 use crate::material::Material;
 use crate::units::{Angle, MM};
 
+/// The greatest load-case speed accepted, as a multiple of `rpm_max`: proof and burst tests of
+/// rotors run up to about 1.2 to 1.5 times the greatest operating speed (common practice).
+const OVERSPEED_LIMIT: f64 = 2.0;
+
 /// Reads a blade project from its `blade.toml`, given as the file or as the folder that holds it.
 pub fn read_project(path: &Path) -> Result<Project, InputError> {
     let joined;
@@ -103,6 +107,19 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
     let mut load_cases: Vec<LoadCaseSpec> = Vec::new();
     for mut t in cases_t {
         let case = read_load_case(&mut t, &dir, r_root, r_tip)?;
+        // An overspeed or proof case may run above the greatest operating speed (it is then
+        // named in the warnings); twice that speed is taken as a typing error.
+        if case.rpm > OVERSPEED_LIMIT * rotor.rpm_max {
+            return Err(t.error(
+                "rpm",
+                format!(
+                    "expected at most {OVERSPEED_LIMIT} x rpm_max = {} rpm for a load case, found \
+                     {}: an overspeed case runs above rpm_max, but not this far",
+                    OVERSPEED_LIMIT * rotor.rpm_max,
+                    case.rpm
+                ),
+            ));
+        }
         if load_cases.iter().any(|c| c.name == case.name) {
             return Err(t.error("name", format!("load case '{}' is defined twice", case.name)));
         }
@@ -428,6 +445,9 @@ fn read_modal(t: &mut TableReader<'_>) -> Result<ModalSpec, InputError> {
     let rpm_step = t.optional_positive("rpm_step")?;
     let root_springs = match t.optional_table("root_springs")? {
         Some(mut s) => {
+            // Every key is known before any is read, so a misspelt key is named as unknown (with
+            // the closest known key) rather than reported as a missing one.
+            s.expect_keys(&["axial_N_m", "flap_Nm_rad", "edge_Nm_rad", "torsion_Nm_rad"])?;
             let springs = RootSprings {
                 axial: s.required_positive("axial_N_m")?,
                 flap: s.required_positive("flap_Nm_rad")?,
