@@ -188,7 +188,7 @@ fn text_summary_shows_cautions_mass_stations_and_grouped_warnings() {
     assert!(err.is_empty(), "{err}");
     let m = model(FAN);
     for needle in [
-        "Sections of Invented demo: 1.8 m variable-pitch mine ventilation fan blade",
+        "Sections of Invented demo: blade of a 1.8 m diameter variable-pitch mine ventilation fan",
         "Caution",
         "Design aid only",
         "EA MN",
