@@ -102,10 +102,10 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     // The built-in copy is unpacked inside the output folder, so that nothing is left elsewhere
     // when the run is killed; the folder is removed as soon as the project has been read.
     layloft::report::ensure_folder(&dest.out)?;
-    let scratch = tempfile::Builder::new()
-        .prefix(".layloft-demo-")
-        .tempdir_in(&dest.out)
-        .map_err(|e| Failure::Run(anyhow!("cannot make a scratch folder in {}: {e}", dest.out.display())))?;
+    let scratch =
+        tempfile::Builder::new().prefix(".layloft-demo-").tempdir_in(&dest.out).map_err(|e| {
+            Failure::Run(anyhow!("cannot make a scratch folder in {}: {e}", dest.out.display()))
+        })?;
     let blade = locate(demo, scratch.path())?;
     let built_in = !blade.starts_with("layups");
     let shown = if built_in {

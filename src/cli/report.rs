@@ -13,7 +13,8 @@ use layloft::check::{DesignCheck, evaluate};
 use layloft::report::html::utc_date;
 use layloft::report::{
     ReportInputs, SectionDrawing, SectionsReport, blade_report, campbell_csv, campbell_svg,
-    modal_json, mode_shapes_csv, section_svg, stress_csv, stress_json, stress_svg, write_atomic,
+    modal_json, mode_shapes_csv, section_svg_screen, stress_csv, stress_json, stress_svg,
+    write_atomic,
 };
 
 use super::project::{load_model, run_modal};
@@ -184,7 +185,7 @@ pub fn write_report(
         .into_iter()
         .map(|i| {
             let st = &model.stations[i];
-            SectionDrawing { r: st.layout.r, svg: section_svg(&p.name, &model.blade, st) }
+            SectionDrawing { r: st.layout.r, svg: section_svg_screen(&p.name, &model.blade, st) }
         })
         .collect();
     // Tooling: every part built and checked, then written beside the report.

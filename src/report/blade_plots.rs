@@ -22,14 +22,22 @@ pub fn planform_svg(model: &BladeModel) -> String {
     let te: Vec<(f64, f64)> =
         grid.iter().map(|&r| (r, (1.0 - b.pitch_axis_frac(r)) * b.chord(r) * 1e3)).collect();
     let mut fig = Figure::new(
-        "Planform (chord laid flat, pitch axis at 0)",
+        "Planform (chord laid flat, pitch axis at 0, leading edge below)",
         "radius from the rotor axis (m)",
-        "distance from the pitch axis along the chord (mm)",
+        "along the chord from the pitch axis (mm)",
     );
     fig.size(900.0, 420.0);
-    let outline: Vec<(f64, f64)> =
-        le.iter().chain(te.iter().rev()).chain(le.first()).copied().collect();
-    fig.line(&outline, &LineStyle::solid(palette::SERIES[0], 2.0));
+    let le_style = LineStyle::solid(palette::SERIES[0], 2.5);
+    let te_style = LineStyle::solid(palette::SERIES[2], 1.5);
+    let root_end = [le[0], te[0]];
+    let tip_end = [le[le.len() - 1], te[te.len() - 1]];
+    fig.line(&le, &le_style);
+    fig.line(&te, &te_style);
+    fig.line(&root_end, &te_style);
+    fig.line(&tip_end, &te_style);
+    let mid = grid.len() / 2;
+    fig.label(grid[mid], le[mid].1, "leading edge", palette::INK, Anchor::Middle);
+    fig.label(grid[mid], te[mid].1, "trailing edge", palette::INK, Anchor::Middle);
     fig.line(
         &[(grid[0], 0.0), (grid[grid.len() - 1], 0.0)],
         &LineStyle::dashed(palette::MUTED, 1.2, "6 4"),
@@ -50,7 +58,8 @@ pub fn planform_svg(model: &BladeModel) -> String {
             .collect();
         fig.line(&pts, &LineStyle::dashed(palette::SERIES[1], 1.5, "3 3"));
     }
-    fig.legend_line("leading and trailing edges", &LineStyle::solid(palette::SERIES[0], 2.0));
+    fig.legend_line("leading edge", &le_style);
+    fig.legend_line("trailing edge and ends", &te_style);
     fig.legend_line("pitch axis", &LineStyle::dashed(palette::MUTED, 1.2, "6 4"));
     if !b.webs().is_empty() {
         fig.legend_line("shear webs", &LineStyle::dashed(palette::SERIES[1], 1.5, "3 3"));
@@ -64,8 +73,8 @@ pub fn twist_svg(model: &BladeModel) -> String {
     let b = &model.blade;
     let grid = span_grid(model, 120);
     let pitch = model.project.rotor.pitch;
-    let mut fig =
-        Figure::new("Twist and chord angle", "radius from the rotor axis (m)", "angle (°)");
+    let title = if pitch.deg().abs() > 1e-9 { "Twist and chord angle" } else { "Twist" };
+    let mut fig = Figure::new(title, "radius from the rotor axis (m)", "angle (°)");
     fig.size(900.0, 380.0);
     let twist: Vec<(f64, f64)> = grid.iter().map(|&r| (r, b.twist(r).deg())).collect();
     let chord_angle: Vec<(f64, f64)> =

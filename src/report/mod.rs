@@ -27,7 +27,7 @@ pub use html::HtmlReport;
 pub use laminate::LaminateReport;
 pub use modal::{campbell_csv, modal_json, mode_shapes_csv};
 pub use modal_text::modal_text;
-pub use section_svg::{section_svg, section_svg_names};
+pub use section_svg::{section_svg, section_svg_names, section_svg_screen};
 pub use sections::{SectionsReport, laminate_label};
 pub use stress::{stress_csv, stress_json, stress_text};
 pub use stress_map::stress_svg;

@@ -339,7 +339,10 @@ impl Figure {
             ((ly0.ceil() as i32)..=(ly1.floor() as i32)).map(f64::from).collect();
         let plot = self.frame((x0, x1), (ly0, ly1));
         let mut s = String::new();
-        self.render_into(&mut s, &plot, &x_ticks, &decades, &|d, _| decade_text(d));
+        // One format on the axis: plain numbers when every decade reads well that way, powers
+        // of ten otherwise (never "100000" beside "1e6").
+        let plain = decades.iter().all(|d| (-3.0..=5.0).contains(d));
+        self.render_into(&mut s, &plot, &x_ticks, &decades, &|d, _| decade_text(d, plain));
         s
     }
 
@@ -374,10 +377,13 @@ impl Figure {
             num(f.width),
             num(f.height)
         );
+        // Title and axis labels get a smaller font where they would not fit at full size.
+        let title_font = fit_font(&self.title, 16.0, 0.65, self.width - f.left - 8.0);
         let _ = writeln!(
             s,
-            r#"<text x="{}" y="28" font-size="16" font-weight="bold" fill="{}">{}</text>"#,
+            r#"<text x="{}" y="28" font-size="{}" font-weight="bold" fill="{}">{}</text>"#,
             num(f.left),
+            num(title_font),
             palette::INK,
             escape(&self.title)
         );
@@ -404,16 +410,18 @@ impl Figure {
             );
         }
         let _ = writeln!(s, "</g>");
-        // Data.
+        // Data: lines and areas clipped to the frame; markers at points inside the data range
+        // drawn whole, also where they stand on the frame's edge.
         let _ = writeln!(s, r#"<g clip-path="url(#{clip})">"#);
-        for item in &self.items {
+        for item in self.items.iter().filter(|i| !matches!(i, Item::Markers(..))) {
             draw_item(s, f, item);
         }
         let _ = writeln!(s, "</g>");
-        for item in &self.items {
-            if let Item::Label(x, y, text, colour, anchor) = item {
-                draw_label(s, f, *x, *y, text, colour, *anchor);
-            }
+        for item in self.items.iter().filter(|i| matches!(i, Item::Markers(..))) {
+            draw_item(s, f, item);
+        }
+        for placed in self.place_labels(f) {
+            draw_label(s, &placed);
         }
         // Frame, tick labels and axis labels.
         let _ = writeln!(
@@ -448,15 +456,17 @@ impl Figure {
         }
         let _ = writeln!(
             s,
-            r#"<text x="{}" y="{}" text-anchor="middle" font-size="13">{}</text>"#,
+            r#"<text x="{}" y="{}" text-anchor="middle" font-size="{}">{}</text>"#,
             num(f.left + f.width / 2.0),
             num(f.top + f.height + 42.0),
+            num(fit_font(&self.x_label, 13.0, 0.6, f.width)),
             escape(&self.x_label)
         );
         let (cx, cy) = (f.left - 52.0, f.top + f.height / 2.0);
         let _ = writeln!(
             s,
-            r#"<text x="{x}" y="{y}" text-anchor="middle" font-size="13" transform="rotate(-90 {x} {y})">{}</text>"#,
+            r#"<text x="{x}" y="{y}" text-anchor="middle" font-size="{}" transform="rotate(-90 {x} {y})">{}</text>"#,
+            num(fit_font(&self.y_label, 13.0, 0.6, f.height + f.top + BOTTOM * 0.5)),
             escape(&self.y_label),
             x = num(cx),
             y = num(cy)
@@ -470,10 +480,14 @@ impl Figure {
         if self.legend.is_empty() {
             return;
         }
+        const FONT: f64 = 11.0;
         let x = f.left + f.width + 16.0;
-        let _ = writeln!(s, r#"<g font-size="11" fill="{}">"#, palette::INK);
-        for (i, (text, key)) in self.legend.iter().enumerate() {
-            let y = f.top + 10.0 + 18.0 * i as f64;
+        // Text wraps to stay inside the figure's right edge.
+        let room = self.width - (x + 30.0) - 4.0;
+        let chars = ((room / (0.6 * FONT)).floor() as usize).max(8);
+        let _ = writeln!(s, r#"<g font-size="{}" fill="{}">"#, num(FONT), palette::INK);
+        let mut y = f.top + 10.0;
+        for (text, key) in &self.legend {
             match key {
                 Key::Line(style) => {
                     let _ = writeln!(
@@ -496,16 +510,42 @@ impl Figure {
                     );
                 }
             }
-            let _ = writeln!(
-                s,
-                r#"<text x="{}" y="{}">{}</text>"#,
-                num(x + 30.0),
-                num(y + 4.0),
-                escape(text)
-            );
+            let lines = wrap_words(text, chars);
+            let _ = write!(s, r#"<text x="{}" y="{}">"#, num(x + 30.0), num(y + 4.0));
+            for (i, line) in lines.iter().enumerate() {
+                let dy = if i == 0 { 0.0 } else { 1.15 * FONT };
+                let _ = write!(
+                    s,
+                    r#"<tspan x="{}" dy="{}">{}</tspan>"#,
+                    num(x + 30.0),
+                    num(dy),
+                    escape(line)
+                );
+            }
+            let _ = writeln!(s, "</text>");
+            y += 18.0 + 1.15 * FONT * (lines.len() - 1) as f64;
         }
         let _ = writeln!(s, "</g>");
     }
+}
+
+/// Splits `text` into lines of at most `chars` characters at spaces (a longer word stands alone).
+fn wrap_words(text: &str, chars: usize) -> Vec<String> {
+    let mut lines: Vec<String> = Vec::new();
+    let mut line = String::new();
+    for word in text.split_whitespace() {
+        if !line.is_empty() && line.chars().count() + 1 + word.chars().count() > chars {
+            lines.push(std::mem::take(&mut line));
+        }
+        if !line.is_empty() {
+            line.push(' ');
+        }
+        line.push_str(word);
+    }
+    if !line.is_empty() || lines.is_empty() {
+        lines.push(line);
+    }
+    lines
 }
 
 /// The plot area and its data ranges.
@@ -553,7 +593,10 @@ fn draw_item(s: &mut String, f: &Frame, item: &Item) {
             }
         }
         Item::Markers(points, marker, size, colour) => {
-            for p in points.iter().filter(|p| p.0.is_finite() && p.1.is_finite()) {
+            let shown = |p: &&(f64, f64)| {
+                p.0.is_finite() && p.1.is_finite() && f.inside_x(p.0) && f.inside_y(p.1)
+            };
+            for p in points.iter().filter(shown) {
                 draw_marker(s, f.px(p.0), f.py(p.1), *marker, *size, colour);
             }
         }
@@ -593,24 +636,102 @@ fn draw_item(s: &mut String, f: &Frame, item: &Item) {
     }
 }
 
-fn draw_label(s: &mut String, f: &Frame, x: f64, y: f64, text: &str, colour: &str, anchor: Anchor) {
-    if !(x.is_finite() && y.is_finite()) {
-        return;
+/// Font size of data labels, px.
+const LABEL_FONT: f64 = 10.0;
+
+/// The box a text of `chars` characters takes at `font` px: width from a mean advance of 0.6 em
+/// (generous for Helvetica and Arial, whose mean advance is near 0.55 em), height one line.
+fn text_width(chars: usize, font: f64) -> f64 {
+    0.6 * font * chars as f64
+}
+
+/// The font size, at most `base` and at least 8 px, at which `text` fits in `room` px, taking a
+/// mean advance of `advance` em (bold text is wider).
+fn fit_font(text: &str, base: f64, advance: f64, room: f64) -> f64 {
+    let need = advance * base * text.chars().count() as f64;
+    if need <= room { base } else { (base * room / need).max(8.0) }
+}
+
+/// A label placed by [`Figure::place_labels`]: its left edge, baseline and text.
+struct PlacedLabel {
+    left: f64,
+    baseline: f64,
+    text: String,
+    colour: String,
+}
+
+impl PlacedLabel {
+    /// `[left, top, right, bottom]` in px.
+    fn bounds(&self) -> [f64; 4] {
+        let w = text_width(self.text.chars().count(), LABEL_FONT);
+        [
+            self.left,
+            self.baseline - 0.8 * LABEL_FONT,
+            self.left + w,
+            self.baseline + 0.25 * LABEL_FONT,
+        ]
     }
-    let px = f.px(x).clamp(f.left + 2.0, f.left + f.width - 2.0);
-    let py = f.py(y).clamp(f.top + 10.0, f.top + f.height - 3.0);
-    let anchor = match anchor {
-        Anchor::Start => "start",
-        Anchor::Middle => "middle",
-        Anchor::End => "end",
-    };
+}
+
+fn overlap(a: [f64; 4], b: [f64; 4]) -> bool {
+    a[0] < b[2] && b[0] < a[2] && a[1] < b[3] && b[1] < a[3]
+}
+
+impl Figure {
+    /// Places the data labels: each inside the frame (so off the legend, which stands beside
+    /// it), and off the labels placed before it, by moving it up or down in steps of a line
+    /// from where it was asked for, the nearest free place first. A label that finds no free
+    /// place within the frame keeps its first place.
+    fn place_labels(&self, f: &Frame) -> Vec<PlacedLabel> {
+        let mut placed: Vec<PlacedLabel> = Vec::new();
+        let (x_lo, x_hi) = (f.left + 2.0, f.left + f.width - 2.0);
+        let (y_lo, y_hi) =
+            (f.top + 0.8 * LABEL_FONT + 2.0, f.top + f.height - 0.25 * LABEL_FONT - 2.0);
+        for item in &self.items {
+            let Item::Label(x, y, text, colour, anchor) = item else { continue };
+            if !(x.is_finite() && y.is_finite()) {
+                continue;
+            }
+            let w = text_width(text.chars().count(), LABEL_FONT);
+            let px = f.px(*x);
+            let left = match anchor {
+                Anchor::Start => px,
+                Anchor::Middle => px - w / 2.0,
+                Anchor::End => px - w,
+            };
+            let left = left.min(x_hi - w).max(x_lo);
+            let base = f.py(*y).clamp(y_lo, y_hi.max(y_lo));
+            let step = 1.2 * LABEL_FONT;
+            let mut label =
+                PlacedLabel { left, baseline: base, text: text.clone(), colour: colour.clone() };
+            for k in 0..40 {
+                let shift = step * ((k + 1) / 2) as f64 * if k % 2 == 0 { 1.0 } else { -1.0 };
+                let baseline = base + if k == 0 { 0.0 } else { shift };
+                if baseline < y_lo || baseline > y_hi {
+                    continue;
+                }
+                let trial = PlacedLabel { baseline, ..label };
+                if placed.iter().all(|p| !overlap(p.bounds(), trial.bounds())) {
+                    label = trial;
+                    break;
+                }
+                label = PlacedLabel { baseline: base, ..trial };
+            }
+            placed.push(label);
+        }
+        placed
+    }
+}
+
+fn draw_label(s: &mut String, label: &PlacedLabel) {
     let _ = writeln!(
         s,
-        r#"<text x="{}" y="{}" text-anchor="{anchor}" font-size="10" fill="{}">{}</text>"#,
-        num(px),
-        num(py),
-        escape(colour),
-        escape(text)
+        r#"<text x="{}" y="{}" font-size="{}" fill="{}">{}</text>"#,
+        num(label.left),
+        num(label.baseline),
+        num(LABEL_FONT),
+        escape(&label.colour),
+        escape(&label.text)
     );
 }
 
@@ -730,14 +851,13 @@ fn num(v: f64) -> String {
 
 /// A tick label with as many decimals as the step needs.
 /// The value of decade `d` (10^d) as a tick label.
-fn decade_text(d: f64) -> String {
+fn decade_text(d: f64, plain: bool) -> String {
     let e = d.round() as i32;
-    match e {
-        -3..=5 => {
-            let v = 10f64.powi(e);
-            if e >= 0 { format!("{v:.0}") } else { format!("{v}") }
-        }
-        _ => format!("1e{e}"),
+    if plain {
+        let v = 10f64.powi(e);
+        if e >= 0 { format!("{v:.0}") } else { format!("{v}") }
+    } else {
+        format!("1e{e}")
     }
 }
 

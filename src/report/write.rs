@@ -35,7 +35,8 @@ pub fn ensure_folder(dir: &Path) -> Result<(), Error> {
             break;
         }
     }
-    std::fs::create_dir_all(dir).map_err(|e| fail(format!("cannot create the folder: {}", plain(&e))))
+    std::fs::create_dir_all(dir)
+        .map_err(|e| fail(format!("cannot create the folder: {}", plain(&e))))
 }
 
 /// An I/O error in words without the path of the temporary file it may carry: the reader knows

@@ -62,6 +62,18 @@ pub fn section_svg_names(radii: &[f64]) -> Vec<String> {
 
 /// The drawing of one section as a standalone SVG document; see the module documentation.
 pub fn section_svg(project: &str, blade: &Blade, st: &AnalysisStation) -> String {
+    drawing(project, blade, st, None)
+}
+
+/// The same drawing sized for a screen: its text at 12 px whatever the chord, so that a small tip
+/// section is not drawn at half the size of the others with unreadable text. Proportions stay
+/// true (one scale for both directions); the viewBox is the same as [`section_svg`]'s.
+pub fn section_svg_screen(project: &str, blade: &Blade, st: &AnalysisStation) -> String {
+    drawing(project, blade, st, Some(12.0))
+}
+
+/// `text_px`: the size of the text on screen in px, or `None` for millimetres at 1:1.
+fn drawing(project: &str, blade: &Blade, st: &AnalysisStation, text_px: Option<f64>) -> String {
     let layout = &st.layout;
     let p = &st.section.properties;
     let pts = &layout.outer;
@@ -124,10 +136,16 @@ pub fn section_svg(project: &str, blade: &Blade, st: &AnalysisStation) -> String
     let height = notes_y + notes.len() as f64 * 1.3 * f + margin * 0.5;
 
     let mut s = String::new();
+    let (shown_w, shown_h) = match text_px {
+        None => (format!("{}mm", n(width)), format!("{}mm", n(height))),
+        Some(px) => (n(width * px / f), n(height * px / f)),
+    };
     let _ = writeln!(
         s,
-        "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{w}mm\" height=\"{h}mm\" \
+        "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{sw}\" height=\"{sh}\" \
          viewBox=\"0 0 {w} {h}\" font-family=\"sans-serif\" font-size=\"{fs}\">",
+        sw = shown_w,
+        sh = shown_h,
         w = n(width),
         h = n(height),
         fs = n(f)
