@@ -166,3 +166,58 @@ fn messages_name_what_exists_and_what_is_unusual() {
     assert_eq!(code, Some(2), "{err}");
     assert!(err.contains("rpm") && err.contains("5000") && err.contains("blade.toml"), "{err}");
 }
+
+/// Every file of the report set in `dir` (as its list `.layloft-set` names them) with its bytes.
+fn report_set(dir: &Path) -> Vec<(String, Vec<u8>)> {
+    let list = fs::read_to_string(dir.join(".layloft-set")).expect("a report set has its list");
+    let mut files: Vec<(String, Vec<u8>)> = list
+        .lines()
+        .filter(|l| !l.is_empty())
+        .map(|l| (l.to_string(), fs::read(dir.join(l)).unwrap_or_default()))
+        .collect();
+    files.sort();
+    files
+}
+
+#[test]
+fn a_killed_report_leaves_the_old_set_or_the_new_one_whole() {
+    let old_project = fan_copy(|t| t);
+    let new_project =
+        fan_copy(|t| t.replace("min_reserve_factor = 1.5", "min_reserve_factor = 1.6"));
+    let tmp = tempfile::tempdir().unwrap();
+    let (out, reference) = (tmp.path().join("out"), tmp.path().join("reference"));
+    let run = |project: &Path, dest: &Path| {
+        let (code, _, err) =
+            layloft(&["report", project.to_str().unwrap(), "--out", dest.to_str().unwrap()]);
+        assert_eq!(code, Some(0), "{err}");
+    };
+    run(new_project.path(), &reference);
+    let new_set = report_set(&reference);
+    let started = std::time::Instant::now();
+    run(old_project.path(), &out);
+    let old_set = report_set(&out);
+    let full = started.elapsed();
+    assert_ne!(old_set, new_set, "the two reports differ");
+    fs::write(out.join("my-notes.txt"), "kept").unwrap();
+
+    for fraction in [0.15, 0.35, 0.55, 0.75, 0.9, 0.97] {
+        let mut child = std::process::Command::new(assert_cmd::cargo::cargo_bin("layloft"))
+            .args(["report", new_project.path().to_str().unwrap(), "--out"])
+            .arg(&out)
+            .current_dir(env!("CARGO_MANIFEST_DIR"))
+            .stdout(std::process::Stdio::null())
+            .stderr(std::process::Stdio::null())
+            .spawn()
+            .unwrap();
+        std::thread::sleep(full.mul_f64(fraction));
+        let _ = child.kill();
+        let _ = child.wait();
+        let found = report_set(&out);
+        assert!(
+            found == old_set || found == new_set,
+            "killed at {:.0} % of a run: the report folder holds a mixed set",
+            100.0 * fraction
+        );
+        assert_eq!(fs::read_to_string(out.join("my-notes.txt")).unwrap(), "kept");
+    }
+}

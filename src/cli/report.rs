@@ -12,9 +12,9 @@ use layloft::analysis::BladeModel;
 use layloft::check::{DesignCheck, evaluate};
 use layloft::report::html::utc_date;
 use layloft::report::{
-    ReportInputs, SectionDrawing, SectionsReport, blade_report, campbell_csv, campbell_svg,
-    modal_json, mode_shapes_csv, section_svg_screen, stress_csv, stress_json, stress_svg,
-    write_atomic,
+    FileSet, ReportInputs, SectionDrawing, SectionsReport, blade_report, campbell_csv,
+    campbell_svg, modal_json, mode_shapes_csv, section_svg_screen, stress_csv, stress_json,
+    stress_svg,
 };
 
 use super::project::{load_model, run_modal};
@@ -112,9 +112,12 @@ pub fn write_report(
     };
     let check = evaluate(model, &stress, Some(&modal));
 
+    // Every file of the report is made in memory and written as one set at the end, so that a
+    // failure or a killed run leaves the previous report whole.
+    let mut set = FileSet::new();
     let mut files: Vec<(String, String)> = Vec::new();
     let mut put = |name: &str, label: &str, bytes: &[u8]| -> Result<(), Failure> {
-        write_atomic(&dest.out.join(name), bytes)?;
+        set.add(name, bytes);
         files.push((name.to_string(), label.to_string()));
         Ok(())
     };
@@ -220,9 +223,17 @@ pub fn write_report(
         files,
         date: Some(utc_date(SystemTime::now())),
     });
-    let path = dest.out.join("report.html");
-    write_atomic(&path, html.as_bytes())?;
-    out.note(&format!("wrote {}", path.display()));
+    set.add("report.html", html.as_bytes());
+    let outcome = set.commit(&dest.out)?;
+    if !outcome.removed.is_empty() {
+        let names: Vec<String> = outcome.removed.iter().map(|p| p.display().to_string()).collect();
+        out.note(&format!(
+            "removed {} file(s) of an earlier report that this one does not have: {}",
+            names.len(),
+            names.join(", ")
+        ));
+    }
+    out.note(&format!("wrote {}", dest.out.join("report.html").display()));
     Ok(check)
 }
 

@@ -5,6 +5,7 @@
 mod blade_plots;
 mod campbell;
 mod document;
+mod file_set;
 pub mod html;
 mod laminate;
 mod modal;
@@ -23,6 +24,7 @@ pub use blade_plots::{
 };
 pub use campbell::{campbell_svg, kind_colour};
 pub use document::{ReportBlock, ReportInputs, SectionDrawing, blade_report};
+pub use file_set::{FileSet, SET_LIST, SetOutcome};
 pub use html::HtmlReport;
 pub use laminate::LaminateReport;
 pub use modal::{campbell_csv, modal_json, mode_shapes_csv};

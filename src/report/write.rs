@@ -48,8 +48,8 @@ fn plain(e: &std::io::Error) -> std::io::Error {
     }
 }
 
-/// Removes the tool's own temporary files (`.layloft-*.tmp`, and `.layloft-demo-*` scratch
-/// folders) older than [`LEFTOVER_AGE`] from `dir`: what a killed run left behind. Failures are
+/// Removes the tool's own temporary files (`.layloft-*.tmp`, and `.layloft-demo-*` scratch and
+/// `.layloft-set-*` staging folders) older than [`LEFTOVER_AGE`] from `dir`: what a killed run left behind. Failures are
 /// ignored; nothing else is touched.
 pub fn remove_leftovers(dir: &Path) {
     let Ok(entries) = std::fs::read_dir(dir) else { return };
@@ -58,7 +58,7 @@ pub fn remove_leftovers(dir: &Path) {
         let name = entry.file_name();
         let name = name.to_string_lossy();
         let tmp_file = name.starts_with(".layloft-") && name.ends_with(".tmp");
-        let scratch = name.starts_with(".layloft-demo-");
+        let scratch = name.starts_with(".layloft-demo-") || name.starts_with(".layloft-set-");
         if !tmp_file && !scratch {
             continue;
         }

@@ -1,0 +1,253 @@
+//! A set of output files written as a whole: either the previous set stays untouched or the new
+//! set is complete, also when the run is killed part-way.
+//!
+//! The files go into a staging folder beside the target (`.layloft-set-*`, in the target's parent
+//! folder, so on the same file system); files in the target that the tool did not write are
+//! hard-linked into the staging folder (copied where links are refused), so they survive; then the
+//! two folders are exchanged in one step (`renameat2` with `RENAME_EXCHANGE` on Linux; elsewhere
+//! two renames with a short window) and the old folder, now at the staging path, is removed.
+//! Which files the tool wrote is read from the set's own list, `.layloft-set`, one relative path a
+//! line; a file the previous run wrote and this one does not is removed with the old folder and
+//! reported as stale. A staging folder that a killed run left behind is removed by the next run
+//! into the same parent folder once it is a minute old (see [`super::remove_leftovers`]); it
+//! never holds the only copy of a file.
+
+use std::collections::BTreeSet;
+use std::path::{Component, Path, PathBuf};
+
+use crate::Error;
+
+/// The list of the files of a set, kept in the set's folder.
+pub const SET_LIST: &str = ".layloft-set";
+
+/// Files to be written together into one folder.
+#[derive(Debug, Default)]
+pub struct FileSet {
+    files: Vec<(PathBuf, Vec<u8>)>,
+}
+
+/// What committing a set did.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct SetOutcome {
+    /// The files written, as paths inside the target.
+    pub written: Vec<PathBuf>,
+    /// Files an earlier run of the tool wrote that are not in the new set, removed.
+    pub removed: Vec<PathBuf>,
+    /// Files in the folder that the tool did not write, kept.
+    pub kept: Vec<PathBuf>,
+}
+
+impl FileSet {
+    /// An empty set.
+    pub fn new() -> Self {
+        FileSet::default()
+    }
+
+    /// Adds a file at `relative` (a plain relative path, sub-folders allowed); a second file at
+    /// the same path replaces the first.
+    pub fn add(&mut self, relative: impl Into<PathBuf>, bytes: impl Into<Vec<u8>>) {
+        let relative = relative.into();
+        let bytes = bytes.into();
+        match self.files.iter_mut().find(|(p, _)| *p == relative) {
+            Some(slot) => slot.1 = bytes,
+            None => self.files.push((relative, bytes)),
+        }
+    }
+
+    /// The relative paths added so far, in order.
+    pub fn paths(&self) -> impl Iterator<Item = &Path> {
+        self.files.iter().map(|(p, _)| p.as_path())
+    }
+
+    /// Writes the set into the folder `target` (created with its parents when missing), as the
+    /// module documentation describes.
+    pub fn commit(self, target: &Path) -> Result<SetOutcome, Error> {
+        let fail = |why: String| Error::Write {
+            path: target.display().to_string(),
+            source: std::io::Error::other(why),
+        };
+        for (rel, _) in &self.files {
+            let plain = rel.components().all(|c| matches!(c, Component::Normal(_)));
+            if !plain || rel.as_os_str().is_empty() || rel == Path::new(SET_LIST) {
+                return Err(fail(format!(
+                    "'{}' is not a file name inside the folder",
+                    rel.display()
+                )));
+            }
+        }
+        if target.exists() && !target.is_dir() {
+            return Err(fail("it is a file, not a folder; name a folder".into()));
+        }
+        let parent = match target.parent() {
+            Some(p) if !p.as_os_str().is_empty() => p.to_path_buf(),
+            _ => PathBuf::from("."),
+        };
+        super::ensure_folder(&parent)?;
+        super::remove_leftovers(&parent);
+        let io = |what: &str, p: &Path, e: std::io::Error| {
+            fail(format!("{what} {}: {e}", p.strip_prefix(&parent).unwrap_or(p).display()))
+        };
+        let staging = tempfile::Builder::new()
+            .prefix(".layloft-set-")
+            .tempdir_in(&parent)
+            .map_err(|e| fail(format!("cannot make a staging folder beside it: {}", e.kind())))?;
+        let stage = staging.path();
+
+        let mut outcome = SetOutcome::default();
+        let mut list = String::new();
+        for (rel, bytes) in &self.files {
+            let path = stage.join(rel);
+            if let Some(dir) = path.parent() {
+                std::fs::create_dir_all(dir).map_err(|e| io("cannot create", dir, e))?;
+            }
+            write_synced(&path, bytes).map_err(|e| io("cannot write", rel, e))?;
+            outcome.written.push(rel.clone());
+            list.push_str(&rel.to_string_lossy());
+            list.push('\n');
+        }
+        write_synced(&stage.join(SET_LIST), list.as_bytes())
+            .map_err(|e| io("cannot write", Path::new(SET_LIST), e))?;
+
+        if target.is_dir() {
+            let new: BTreeSet<&Path> = self.files.iter().map(|(p, _)| p.as_path()).collect();
+            let old: BTreeSet<PathBuf> = std::fs::read_to_string(target.join(SET_LIST))
+                .map(|t| t.lines().filter(|l| !l.is_empty()).map(PathBuf::from).collect())
+                .unwrap_or_default();
+            for rel in files_below(target).map_err(|e| io("cannot read", target, e))? {
+                if new.contains(rel.as_path()) || rel == Path::new(SET_LIST) {
+                    continue;
+                }
+                if old.contains(&rel) {
+                    outcome.removed.push(rel);
+                    continue;
+                }
+                // Not the tool's: carried into the new folder, the original left in place.
+                let (from, to) = (target.join(&rel), stage.join(&rel));
+                if let Some(dir) = to.parent() {
+                    std::fs::create_dir_all(dir).map_err(|e| io("cannot create", dir, e))?;
+                }
+                if std::fs::hard_link(&from, &to).is_err() {
+                    std::fs::copy(&from, &to).map_err(|e| io("cannot keep", &rel, e))?;
+                }
+                outcome.kept.push(rel);
+            }
+            exchange(stage, target)
+                .map_err(|e| fail(format!("cannot put the new files in place: {e}")))?;
+            // The staging path now holds the previous folder; dropping `staging` removes it.
+        } else {
+            let stage = staging.keep();
+            std::fs::rename(&stage, target).map_err(|e| {
+                let _ = std::fs::remove_dir_all(&stage);
+                fail(format!("cannot put the new files in place: {e}"))
+            })?;
+        }
+        Ok(outcome)
+    }
+}
+
+fn write_synced(path: &Path, bytes: &[u8]) -> std::io::Result<()> {
+    use std::io::Write;
+    let mut file = std::fs::File::create(path)?;
+    file.write_all(bytes)?;
+    file.sync_all()
+}
+
+/// Every file below `dir`, as paths relative to it, sorted.
+fn files_below(dir: &Path) -> std::io::Result<Vec<PathBuf>> {
+    let mut out = Vec::new();
+    let mut stack = vec![PathBuf::new()];
+    while let Some(rel) = stack.pop() {
+        for entry in std::fs::read_dir(dir.join(&rel))? {
+            let entry = entry?;
+            let path = rel.join(entry.file_name());
+            if entry.file_type()?.is_dir() {
+                stack.push(path);
+            } else {
+                out.push(path);
+            }
+        }
+    }
+    out.sort();
+    Ok(out)
+}
+
+/// Exchanges the folders `a` and `b` in one step where the system can.
+#[cfg(target_os = "linux")]
+fn exchange(a: &Path, b: &Path) -> std::io::Result<()> {
+    use rustix::fs::{CWD, RenameFlags, renameat_with};
+    match renameat_with(CWD, a, CWD, b, RenameFlags::EXCHANGE) {
+        Ok(()) => Ok(()),
+        // A file system without the exchange: two renames.
+        Err(e) if e == rustix::io::Errno::INVAL || e == rustix::io::Errno::NOSYS => {
+            exchange_by_renames(a, b)
+        }
+        Err(e) => Err(e.into()),
+    }
+}
+
+#[cfg(not(target_os = "linux"))]
+fn exchange(a: &Path, b: &Path) -> std::io::Result<()> {
+    exchange_by_renames(a, b)
+}
+
+/// `b` to a spare name beside it, `a` to `b`, the spare to `a`.
+fn exchange_by_renames(a: &Path, b: &Path) -> std::io::Result<()> {
+    let mut spare = a.as_os_str().to_owned();
+    spare.push("-old");
+    let spare = PathBuf::from(spare);
+    std::fs::rename(b, &spare)?;
+    if let Err(e) = std::fs::rename(a, b) {
+        let _ = std::fs::rename(&spare, b);
+        return Err(e);
+    }
+    std::fs::rename(&spare, a)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn set(files: &[(&str, &str)]) -> FileSet {
+        let mut s = FileSet::new();
+        for (p, t) in files {
+            s.add(*p, t.as_bytes());
+        }
+        s
+    }
+
+    #[test]
+    fn a_new_set_replaces_the_old_keeping_foreign_files_and_dropping_stale_ones() {
+        let tmp = tempfile::tempdir().unwrap();
+        let target = tmp.path().join("out");
+        let first = set(&[("a.txt", "1"), ("sub/b.txt", "1"), ("c.txt", "1")]).commit(&target);
+        assert_eq!(first.unwrap().written.len(), 3);
+        std::fs::write(target.join("notes.md"), "mine").unwrap();
+        std::fs::write(target.join("sub/mine.txt"), "mine").unwrap();
+        let second = set(&[("a.txt", "2"), ("sub/b.txt", "2")]).commit(&target).unwrap();
+        assert_eq!(second.removed, vec![PathBuf::from("c.txt")]);
+        assert_eq!(second.kept, vec![PathBuf::from("notes.md"), PathBuf::from("sub/mine.txt")]);
+        assert_eq!(std::fs::read_to_string(target.join("a.txt")).unwrap(), "2");
+        assert_eq!(std::fs::read_to_string(target.join("sub/b.txt")).unwrap(), "2");
+        assert!(!target.join("c.txt").exists());
+        assert_eq!(std::fs::read_to_string(target.join("notes.md")).unwrap(), "mine");
+        assert_eq!(std::fs::read_to_string(target.join("sub/mine.txt")).unwrap(), "mine");
+        // Nothing is left beside the target.
+        let beside: Vec<_> = std::fs::read_dir(tmp.path()).unwrap().collect();
+        assert_eq!(beside.len(), 1);
+    }
+
+    #[test]
+    fn a_bad_name_or_a_file_in_the_way_leaves_everything_untouched() {
+        let tmp = tempfile::tempdir().unwrap();
+        let target = tmp.path().join("out");
+        set(&[("a.txt", "1")]).commit(&target).unwrap();
+        assert!(set(&[("../x", "2")]).commit(&target).is_err());
+        assert!(set(&[("/abs", "2")]).commit(&target).is_err());
+        assert_eq!(std::fs::read_to_string(target.join("a.txt")).unwrap(), "1");
+        let file = tmp.path().join("file");
+        std::fs::write(&file, "x").unwrap();
+        let e = set(&[("a.txt", "1")]).commit(&file).unwrap_err().to_string();
+        assert!(e.contains("is a file, not a folder"), "{e}");
+        assert_eq!(std::fs::read_dir(tmp.path()).unwrap().count(), 2);
+    }
+}
