@@ -156,7 +156,7 @@ impl WallStiffness {
 
     /// Axial–shear coupling with the shear flow held fixed, `c_1` (dimensionless): at a given
     /// shear flow `q` and zero curvatures, `N_x = axial() eps_x + coupling() q` and
-    /// `gamma_xs = q / K22 - coupling() eps_x`.
+    /// `gamma_xs = shear_compliance() q - coupling() eps_x`.
     pub fn coupling(&self) -> f64 {
         self.mixed_coupling[0]
     }
