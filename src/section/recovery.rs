@@ -31,7 +31,8 @@ pub struct WallState {
     pub n_xs: f64,
     /// Wall moments `(M_x, M_s, M_xs)`, N·m/m: `M_x`, `M_xs` from the curvatures the beam
     /// imposes (and the membrane–bending coupling of an unsymmetric wall), `M_s` the reaction
-    /// that holds the hoop curvature.
+    /// that holds the hoop curvature. With [`WallCurvature::Held`](super::WallCurvature) all three
+    /// are reactions that keep the wall flat, outside the beam resultants (order `t/h`).
     pub moments: Vector3<f64>,
     /// Midplane strains `(eps_x, eps_s, gamma_xs)` and curvatures `(kappa_x, 0, kappa_xs)` of
     /// the wall laminate with `N_s = 0` and the hoop curvature held (laminate axes: 1 = beam x,

@@ -16,8 +16,9 @@
 //!   rotation of the section with the Kirchhoff normal gives `kappa_xs = -2 kappa_t` (the
 //!   twisting curvature of a plate strip turned about a distant axis, the open-section torsion
 //!   term of Rehfield 1985 and of Librescu & Song, Thin-Walled Composite Beams, 2006).
-//!   Which of the two is used is [`WallCurvature`]: with [`WallCurvature::Held`] both are held
-//!   at zero, the leading order of the thin-wall theory in `t/h`.
+//!   [`WallCurvature`] sets whether the section uses them: with [`WallCurvature::Held`] both
+//!   are held at zero, the leading order of the thin-wall theory in `t/h` (the wall still cannot
+//!   curl).
 //! - `kappa_s = 0` and the hoop moment `M_s` is a reaction. Decision and reason: the beam theory
 //!   keeps the shape of the cross-section, so the wall's hoop curvature cannot change by itself.
 //!   On a closed ring a uniform change of hoop curvature `dk` needs a change of radius `-dk R²`,
@@ -29,8 +30,8 @@
 //!   as zero (`M_s = 0`, from memory); for a symmetric wall the two differ only in the wall's
 //!   own bending terms, but for an unsymmetric wall `M_s = 0` lets the wall curl round the hoop
 //!   through `B_12`, `B_22`, `B_26`, which a closed ring cannot do, and changes the membrane
-//!   stiffness at order one (for the cross-ply `[0_3/90_3]` wall of a long tube it would give
-//!   an axial stiffness below the cylinder's axisymmetric value).
+//!   law by terms that are not small in `t/h` (for the cross-ply `[0_3/90_3]` wall of a long
+//!   tube it gives an axial stiffness below the cylinder's axisymmetric value).
 //!
 //! Dropping the `kappa_s` row and column of `[A B; B D]` and condensing `eps_s` with `N_s = 0`
 //! leaves the 4x4 beam-wall stiffness `K` relating `(N_x, N_xs, M_x, M_xs)` to
