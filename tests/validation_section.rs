@@ -161,13 +161,14 @@ fn chandra_box(top: &[f64], aft: &[f64], bottom: &[f64], front: &[f64]) -> Secti
     rect(0.953 * inch, 0.53 * inch, 4, [0, 1, 2, 3], lams)
 }
 
-/// Wall law with N_s = 0 and wall moments free (the reduction the theory prescribes), from the
-/// laminate compliance: returns (Ā, c, f) = (1/a11, −a16/a11, a11·a66 − a16²)/a11 terms as in
-/// Berdichevsky, Armanios & Badir (1992): Ā = K11 − K12²/K22, c = K12/K22, f = 1/K22.
+/// Wall law with N_s = 0 and the wall curvatures held (a wall of a closed beam does not curl;
+/// for a symmetric wall the same as with the wall moments free), from the extensional matrix A:
+/// K = [A11 − A12²/A22, A16 − A12 A26/A22; sym, A66 − A26²/A22], and then as in Berdichevsky,
+/// Armanios & Badir (1992): Ā = K11 − K12²/K22, c = K12/K22, f = 1/K22.
 fn wall_law(l: &Laminate) -> (f64, f64, f64) {
-    let c = l.abd().compliance().expect("regular laminate");
-    let k =
-        Matrix2::new(c[(0, 0)], c[(0, 2)], c[(2, 0)], c[(2, 2)]).try_inverse().expect("regular");
+    let a = l.abd().a;
+    let s = |i: usize, j: usize| a[(i, j)] - a[(i, 1)] * a[(1, j)] / a[(1, 1)];
+    let k = Matrix2::new(s(0, 0), s(0, 2), s(2, 0), s(2, 2));
     (k[(0, 0)] - k[(0, 1)].powi(2) / k[(1, 1)], k[(0, 1)] / k[(1, 1)], 1.0 / k[(1, 1)])
 }
 

@@ -4,21 +4,25 @@
 //!
 //! # Method
 //!
-//! Closed-section membrane theory of anisotropic thin-walled beams in the form of Berdichevsky,
+//! Closed-section theory of anisotropic thin-walled beams in the form of Berdichevsky,
 //! Armanios & Badir, "Theory of anisotropic thin-walled closed-cross-section beams", Composites
-//! Engineering 2 (1992) 411–432, without the wall bending terms, generalised to several cells by
-//! an equal twist rate in every cell. For isotropic walls it is Bredt–Batho torsion with
-//! Euler–Bernoulli bending.
+//! Engineering 2 (1992) 411–432, generalised to several cells by an equal twist rate in every
+//! cell, optionally with the wall bending terms of Rehfield (1985, NASA CP-2362). For isotropic
+//! walls it is Bredt–Batho torsion with Euler–Bernoulli bending.
 //!
-//! 1. *Wall* (`wall.rs`): each laminate is reduced for a beam wall, hoop force and wall moments
-//!    free: from `[A B; B D]⁻¹` keep the `(N_x, N_xs)` block with `N_s = 0`, `M = 0`.
+//! 1. *Wall* (`wall.rs`): each laminate is reduced for a beam wall: hoop force free, hoop
+//!    curvature held, span-wise and twisting curvatures set by the beam (not free to curl): the
+//!    4x4 stiffness of `(N_x, N_xs, M_x, M_xs)` on `(eps_x, gamma_xs, kappa_x, kappa_xs)`.
+//!    [`SectionParams::wall_curvature`] says whether the walls take the beam's curvatures
+//!    through their thickness ([`WallCurvature::Beam`]) or are held flat at leading order
+//!    ([`WallCurvature::Held`], the default).
 //! 2. *Contour* (`contour.rs`): the wall midline is the outer mould line offset inward by half the
 //!    local laminate thickness; where the walls of a thin trailing edge meet, the cell closes
 //!    there and the rest becomes an open solid branch; webs run between the upper and lower
 //!    midlines at their chordwise positions and split the wall into cells.
-//! 3. *Stiffness* (`stiffness.rs`): axial and bending integrals over straight elements; constant
-//!    cell shear flows from warping compatibility with one twist rate; couplings from the wall
-//!    `A16*` terms.
+//! 3. *Stiffness* (`stiffness.rs`): axial, bending and wall-curvature integrals over straight
+//!    elements; constant cell shear flows from warping compatibility with one twist rate;
+//!    couplings from the wall's mixed coupling terms.
 //! 4. *Shear flow* (`shear_flow.rs`): transverse shear flow with zero twist, and the shear centre.
 //! 5. *Mass* (`mass.rs`), and *recovery* (`recovery.rs`) of wall strains from beam strains.
 //!
@@ -35,10 +39,15 @@
 //! # Neglected
 //!
 //! Warping restraint (free warping, Saint-Venant), transverse shear deformation (the 4x4 is
-//! Euler–Bernoulli), the wall's own bending and twisting stiffness (so no open-section torsion of
-//! the trailing-edge branches), cross-section distortion, and the thickness of the wall in the
-//! stiffness integrals beyond the midline (webs run between skin midlines). The mass keeps the
-//! ply positions through the thickness.
+//! Euler–Bernoulli), cross-section distortion, the curvature of a wall in its own law (a curved
+//! wall is treated as a flat laminate: relative error of order `t/(2 R)` through the thickness),
+//! and the thickness of the wall in the stiffness integrals beyond the midline (webs run between
+//! skin midlines). With [`WallCurvature::Held`] also the wall's own bending and twisting
+//! stiffness (so no open-section torsion of the trailing-edge branches) and the strain gradient
+//! through the wall thickness from the beam's curvature: terms of order `t/h` in ply stress and
+//! `(t/h)²` in stiffness for symmetric walls, `t/h` in stiffness for unsymmetric ones. With
+//! [`WallCurvature::Beam`] the two walls of a solid trailing edge bend each about the mean line,
+//! not as one solid. The mass keeps the ply positions through the thickness.
 //!
 //! # Example
 //!
@@ -97,4 +106,4 @@ pub use error::SectionError;
 pub use layout::{MassInertia, SectionLayout, SectionProperties, WebLayout};
 pub use recovery::WallState;
 pub use solve::{SectionParams, SolvedSection, solve_section};
-pub use wall::WallStiffness;
+pub use wall::{WallCurvature, WallStiffness};

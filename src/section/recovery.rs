@@ -1,18 +1,21 @@
 //! From beam strains or resultants back to the walls: the state of every wall element for ply
 //! stress recovery.
 //!
-//! Kinematics give the wall axial strain `eps_x = eps + (z - z_ec) kappa_f + (y - y_ec) kappa_e`;
+//! Kinematics give the wall axial strain `eps_x = eps + (z - z_ec) kappa_f + (y - y_ec) kappa_e`
+//! and, when the walls follow the beam's curvature, `kappa_x` and `kappa_xs` (see `stiffness.rs`);
 //! the closed-cell flows of the same strains, plus any transverse shear flow, give `N_xs`; the
-//! wall law gives `N_x` and, with `N_s = 0` and zero wall moments, the wall's midplane strains
-//! and curvatures, which [`Laminate::response`](crate::laminate::Laminate::response) turns into
-//! ply stresses.
+//! wall law of `wall.rs` (the same one the stiffness is built from) gives `N_x`, `M_x`, `M_xs`
+//! and, with `N_s = 0` and `kappa_s = 0`, the wall's full midplane deformation, which
+//! [`Laminate::response`](crate::laminate::Laminate::response) turns into ply stresses.
+//! Integrated round the section, the recovered `N_x`, `M_x`, `N_xs` and `M_xs` give back the
+//! beam resultants.
 
-use nalgebra::Vector4;
+use nalgebra::{Vector3, Vector4};
 
 use super::outline::lerp;
 use super::solve::SolvedSection;
-use super::stiffness::{axial_shape, shift};
-use super::wall::WallStiffness;
+use super::stiffness::{kinematics, shift};
+
 use crate::laminate::{Deformation, LaminateLoad, Resultants};
 
 /// The state of a wall at one point.
@@ -26,15 +29,21 @@ pub struct WallState {
     pub n_x: f64,
     /// Shear flow along the wall's axis 2, N/m.
     pub n_xs: f64,
-    /// Midplane strains `(eps_x, eps_s, gamma_xs)` and curvatures of the wall laminate with
-    /// `N_s = 0` and zero wall moments (laminate axes: 1 = beam x, 2 = wall axis s).
+    /// Wall moments `(M_x, M_s, M_xs)`, N·m/m: `M_x`, `M_xs` from the curvatures the beam
+    /// imposes (and the membrane–bending coupling of an unsymmetric wall), `M_s` the reaction
+    /// that holds the hoop curvature. With [`WallCurvature::Held`](super::WallCurvature) all three
+    /// are reactions that keep the wall flat, outside the beam resultants (order `t/h`).
+    pub moments: Vector3<f64>,
+    /// Midplane strains `(eps_x, eps_s, gamma_xs)` and curvatures `(kappa_x, 0, kappa_xs)` of
+    /// the wall laminate with `N_s = 0` and the hoop curvature held (laminate axes: 1 = beam x,
+    /// 2 = wall axis s, 3 = outward normal).
     pub deformation: Deformation,
 }
 
 impl WallState {
-    /// The wall resultants `(N_x, 0, N_xs)` with zero moments.
+    /// The wall resultants `(N_x, 0, N_xs)` and moments `(M_x, M_s, M_xs)`.
     pub fn resultants(&self) -> Resultants {
-        WallStiffness::resultants(self.n_x, self.n_xs)
+        Resultants { n: Vector3::new(self.n_x, 0.0, self.n_xs), m: self.moments }
     }
 
     /// The load for [`Laminate::response`](crate::laminate::Laminate::response).
@@ -110,10 +119,12 @@ impl SolvedSection {
         let e = &self.contour.elements[k];
         let w = &self.walls[e.laminate];
         let position = lerp(e.start, e.end, fraction);
-        let eps_x = axial_shape(position).dot(&(shift(self.properties.elastic_centre) * strains));
+        let g = kinematics(position, e.normal(), self.wall_curvature);
+        let kin = g * (shift(self.properties.elastic_centre) * strains);
         let closed: f64 = e.cells().map(|(j, s)| s * cells[j]).sum();
         let n_xs = closed + self.transverse_flow(k, fraction * e.length(), shear);
-        let n_x = w.axial() * eps_x + w.coupling() * n_xs;
-        WallState { element: k, position, n_x, n_xs, deformation: w.deformation(n_x, n_xs) }
+        let deformation = w.deformation(&kin, n_xs);
+        let r = w.resultants(&deformation);
+        WallState { element: k, position, n_x: r.n.x, n_xs, moments: r.m, deformation }
     }
 }

@@ -9,13 +9,19 @@
 //! close it with zero twist, `∮ f N_xs ds = 0` in every cell (Megson, *Aircraft Structures for
 //! Engineering Students*, §16.3, the shear centre of a closed section, with `1/(G t)` replaced by
 //! the wall shear compliance `f`). The shear centre is where the resultant of that flow acts.
+//!
+//! With the walls following the beam's curvature ([`WallCurvature::Beam`]), the part of the
+//! bending moment the walls carry as their own moments `M_x` varies along the beam through the
+//! walls' transverse shear, not through the shear flow: the membrane flow then carries the shear
+//! force less that part (order `(t/h)²` for symmetric walls, `t/h` for unsymmetric ones); the
+//! shear centre is placed by the membrane flow's own resultant.
 
 use nalgebra::{DVector, Matrix4, Vector4};
 
 use super::contour::{Contour, Node};
 use super::outline::cross;
-use super::stiffness::{Assembly, axial_shape, solve_cells};
-use super::wall::WallStiffness;
+use super::stiffness::{Assembly, kinematics, solve_cells};
+use super::wall::{WallCurvature, WallStiffness};
 
 /// Shear flow along an element for one unit shear force: `q(s) = q0 - n0 s - (n1 - n0) s²/(2L)`
 /// with `n0`, `n1` the rates `∂N_x/∂x` at the element ends.
@@ -55,9 +61,11 @@ pub(crate) fn solve_shear(
     walls: &[WallStiffness],
     asm: &Assembly,
     compliance: &Matrix4<f64>,
+    mode: WallCurvature,
 ) -> Option<ShearSolution> {
-    let flap = unit_field(contour, walls, asm, compliance * Vector4::new(0.0, 0.0, 1.0, 0.0))?;
-    let edge = unit_field(contour, walls, asm, compliance * Vector4::new(0.0, 0.0, 0.0, 1.0))?;
+    let unit = |v: Vector4<f64>| unit_field(contour, walls, asm, compliance * v, mode);
+    let flap = unit(Vector4::new(0.0, 0.0, 1.0, 0.0))?;
+    let edge = unit(Vector4::new(0.0, 0.0, 0.0, 1.0))?;
     let resultant = |field: &[ShearField]| {
         let (mut fy, mut fz, mut m) = (0.0, 0.0, 0.0);
         for (e, q) in contour.elements.iter().zip(field) {
@@ -83,6 +91,7 @@ fn unit_field(
     walls: &[WallStiffness],
     asm: &Assembly,
     rate: Vector4<f64>,
+    mode: WallCurvature,
 ) -> Option<Vec<ShearField>> {
     let closed_rate = &asm.cell_flow * nalgebra::DVector::from_column_slice(rate.as_slice());
     let mut fields: Vec<ShearField> = contour
@@ -91,7 +100,8 @@ fn unit_field(
         .map(|e| {
             let w = &walls[e.laminate];
             let q: f64 = e.cells().map(|(j, s)| s * closed_rate[j]).sum();
-            let nx = |p| w.axial() * axial_shape(p).dot(&rate) + w.coupling() * q;
+            let a = w.mixed_stiffness().row(0);
+            let nx = |p| (a * kinematics(p, e.normal(), mode) * rate)[0] + w.coupling() * q;
             ShearField { q0: 0.0, n0: nx(e.start), n1: nx(e.end) }
         })
         .collect();

@@ -9,7 +9,7 @@ use super::mass::mass_properties;
 use super::outline::{Point, chain_z_at, lerp, norm, sub};
 use super::shear_flow::{ShearSolution, solve_shear};
 use super::stiffness::{assemble, elastic_centre, principal, shift};
-use super::wall::WallStiffness;
+use super::wall::{WallCurvature, WallStiffness};
 use crate::units::Angle;
 
 /// Tuning of the section solver.
@@ -23,11 +23,18 @@ pub struct SectionParams {
     /// Longest mitre at a sharp corner of the offset midline, in half wall thicknesses (20 by
     /// default, a corner of about 6°); sharper corners are where walls meet and are cut away.
     pub max_mitre: f64,
+    /// How the wall curvatures follow the beam ([`WallCurvature::Held`] by default).
+    pub wall_curvature: WallCurvature,
 }
 
 impl Default for SectionParams {
     fn default() -> Self {
-        SectionParams { web_elements: 8, thick_wall_ratio: 0.10, max_mitre: 20.0 }
+        SectionParams {
+            web_elements: 8,
+            thick_wall_ratio: 0.10,
+            max_mitre: 20.0,
+            wall_curvature: WallCurvature::Held,
+        }
     }
 }
 
@@ -42,6 +49,7 @@ pub struct SolvedSection {
     pub(crate) cell_flow: DMatrix<f64>,
     pub(crate) shear: ShearSolution,
     pub(crate) compliance: Matrix4<f64>,
+    pub(crate) wall_curvature: WallCurvature,
 }
 
 impl SolvedSection {
@@ -64,7 +72,8 @@ impl SolvedSection {
         let thickness: Vec<f64> = walls.iter().map(|w| w.thickness).collect();
         let contour = build_contour(layout, &thickness, params.web_elements, params.max_mitre)?;
         let bad = |reason: &str| SectionError::Stiffness { r, reason: reason.to_string() };
-        let asm = assemble(&contour, &walls)
+        let mode = params.wall_curvature;
+        let asm = assemble(&contour, &walls, mode)
             .ok_or_else(|| bad("singular: a cell wall has no shear stiffness"))?;
         let s0 = asm.stiffness;
         let compliance0 = spd_inverse(&s0).ok_or_else(|| bad("not positive definite"))?;
@@ -72,7 +81,7 @@ impl SolvedSection {
         let t = shift(ec);
         let stiffness = t.transpose() * s0 * t;
         let compliance = spd_inverse(&stiffness).ok_or_else(|| bad("not positive definite"))?;
-        let shear = solve_shear(&contour, &walls, &asm, &compliance0)
+        let shear = solve_shear(&contour, &walls, &asm, &compliance0, mode)
             .ok_or_else(|| bad("without a finite shear centre"))?;
         let mass = mass_properties(&contour, &walls);
         let (ei_principal, angle) =
@@ -155,6 +164,7 @@ impl SolvedSection {
             cell_flow: asm.cell_flow,
             shear,
             compliance,
+            wall_curvature: mode,
         })
     }
 
@@ -167,6 +177,11 @@ impl SolvedSection {
     /// The beam-wall reduction of laminate `index` of the layout.
     pub fn wall_stiffness(&self, index: usize) -> Option<&WallStiffness> {
         self.walls.get(index)
+    }
+
+    /// How the wall curvatures follow the beam in this solution.
+    pub fn wall_curvature(&self) -> WallCurvature {
+        self.wall_curvature
     }
 
     /// Number of closed cells.

@@ -1,26 +1,36 @@
-//! The 4x4 section stiffness: axial and bending integrals of the wall elements plus the closed
-//! cell shear flows with equal twist rate in every cell.
+//! The 4x4 section stiffness: axial, bending and wall-curvature integrals of the wall elements
+//! plus the closed cell shear flows with equal twist rate in every cell.
 //!
-//! With generalised strains `e = (eps, kappa_t, kappa_f, kappa_e)` about the pitch axis, the wall
-//! axial strain is `eps_x = g·e`, `g = (1, 0, z, y)`. Each cell `j` carries a constant shear flow
-//! `q_j` (counter-clockwise positive); an element's shear flow is `N_xs = Σ σ_ej q_j`. The wall
-//! law with the shear flow given reads `N_x = Ā eps_x + c N_xs`, `gamma_xs = f N_xs - c eps_x`
-//! (`Ā = K11 - K12²/K22`, `c = K12/K22`, `f = 1/K22`). Compatibility of warping round every
-//! cell, `∮ gamma_xs ds = 2 A_j kappa_t`, gives `F q = D e` with
+//! With generalised strains `e = (eps, kappa_t, kappa_f, kappa_e)` about the pitch axis, the
+//! kinematic wall quantities are `k = (eps_x, kappa_x, kappa_xs) = G e` with
 //!
 //! ```text
-//! F_jk = Σ_e σ_ej σ_ek f_e L_e,     D_j = Σ_e σ_ej c_e ∫ g ds + 2 A_j (in the kappa_t column)
+//!     | 1   0   z    y  |        eps_x    = eps + z kappa_f + y kappa_e
+//! G = | 0   0   n_z  n_y|        kappa_x  = the beam curvature along the wall normal n
+//!     | 0  -2   0    0  |        kappa_xs = -2 kappa_t
 //! ```
 //!
-//! and the stiffness `S = H + Dᵀ F⁻¹ D`, `H = Σ_e Ā_e ∫ g gᵀ ds` (torque `T = Σ 2 A_j q_j`).
-//! This is the closed-section membrane theory of Berdichevsky, Armanios & Badir (Composites
-//! Engineering 2 (1992) 411–432) without the wall bending terms, generalised to several cells by
-//! equal twist rate; for isotropic walls it is Bredt–Batho with `GJ = 4A²/∮ds/(Gt)`.
+//! (the last two rows are zero with [`WallCurvature::Held`]). Each cell `j` carries a constant
+//! shear flow `q_j` (counter-clockwise positive); an element's shear flow is `N_xs = Σ σ_ej q_j`.
+//! The wall law in mixed form (`wall.rs`) reads `(N_x, M_x, M_xs) = Ā k + c N_xs`,
+//! `gamma_xs = f N_xs - c·k`. Compatibility of warping round every cell,
+//! `∮ gamma_xs ds = 2 A_j kappa_t`, gives `F q = D e` with
+//!
+//! ```text
+//! F_jk = Σ_e σ_ej σ_ek f_e L_e,     D_j = Σ_e σ_ej ∫ Gᵀ c ds + 2 A_j (in the kappa_t column)
+//! ```
+//!
+//! and the stiffness `S = H + Dᵀ F⁻¹ D`, `H = Σ_e ∫ Gᵀ Ā G ds`, by virtual work:
+//! `S e · δe = ∮ (N_x δeps_x + M_x δkappa_x + M_xs δkappa_xs + N_xs δgamma_xs) ds`. The torque is
+//! `T = Σ 2 A_j q_j - 2 ∮ M_xs ds`. This is the closed-section theory of Berdichevsky, Armanios
+//! & Badir (Composites Engineering 2 (1992) 411–432), generalised to several cells by equal
+//! twist rate, with the wall bending terms of Rehfield (1985) when the walls follow the beam's
+//! curvature; for isotropic walls held flat it is Bredt–Batho with `GJ = 4A²/∮ds/(Gt)`.
 
-use nalgebra::{DMatrix, DVector, Matrix4, Vector4};
+use nalgebra::{DMatrix, DVector, Matrix3x4, Matrix4, Vector4};
 
 use super::contour::Contour;
-use super::wall::WallStiffness;
+use super::wall::{WallCurvature, WallStiffness};
 
 /// The assembled section stiffness about the pitch axis and the closed-cell flow kernel.
 #[derive(Debug, Clone)]
@@ -38,7 +48,24 @@ pub(crate) fn axial_shape(p: [f64; 2]) -> Vector4<f64> {
     Vector4::new(1.0, 0.0, p[1], p[0])
 }
 
-pub(crate) fn assemble(contour: &Contour, walls: &[WallStiffness]) -> Option<Assembly> {
+/// The kinematic map `G` from generalised strains about the origin to `(eps_x, kappa_x,
+/// kappa_xs)` at point `p` of a wall with outward normal `normal`.
+pub(crate) fn kinematics(p: [f64; 2], normal: [f64; 2], mode: WallCurvature) -> Matrix3x4<f64> {
+    let mut g = Matrix3x4::zeros();
+    g.set_row(0, &axial_shape(p).transpose());
+    if mode == WallCurvature::Beam {
+        g[(1, 2)] = normal[1];
+        g[(1, 3)] = normal[0];
+        g[(2, 1)] = -2.0;
+    }
+    g
+}
+
+pub(crate) fn assemble(
+    contour: &Contour,
+    walls: &[WallStiffness],
+    mode: WallCurvature,
+) -> Option<Assembly> {
     let nc = contour.cell_areas.len();
     let mut h = Matrix4::zeros();
     let mut d = DMatrix::zeros(nc, 4);
@@ -46,14 +73,17 @@ pub(crate) fn assemble(contour: &Contour, walls: &[WallStiffness]) -> Option<Ass
     for e in &contour.elements {
         let w = &walls[e.laminate];
         let l = e.length();
-        let gm = axial_shape(e.midpoint());
+        let gm = kinematics(e.midpoint(), e.normal(), mode);
         let dg = axial_shape(e.end) - axial_shape(e.start);
         let dg = Vector4::new(0.0, 0.0, dg[2], dg[3]);
-        h += (gm * gm.transpose() + dg * dg.transpose() / 12.0) * (w.axial() * l);
-        let (c, fl) = (w.coupling() * l, w.shear_compliance() * l);
+        // G is linear along the element in its first row only.
+        h += (gm.transpose() * w.mixed_stiffness() * gm) * l
+            + dg * dg.transpose() * (w.axial() * l / 12.0);
+        let c = gm.transpose() * w.mixed_coupling() * l;
+        let fl = w.shear_compliance() * l;
         for (j, sj) in e.cells() {
             for col in 0..4 {
-                d[(j, col)] += sj * c * gm[col];
+                d[(j, col)] += sj * c[col];
             }
             for (k, sk) in e.cells() {
                 f[(j, k)] += sj * sk * fl;

@@ -6,9 +6,11 @@
 //! axis to the elastic centre (torque to the shear centre), turned into generalised beam strains
 //! by the section compliance, then into wall resultants `(N_x, N_xs)` at the midpoint of every wall
 //! element by the thin-walled section theory of [`crate::section`] (closed-cell and transverse
-//! shear flows), then into ply stresses by classical laminate theory with the wall's hoop force
-//! and moments free, and a uniform temperature change `delta_T_K` of the case as a fixed
-//! residual part. The reserve factor is the strength ratio of the governing criterion at the
+//! shear flows), then into the full midplane deformation of each wall (hoop force free, hoop
+//! curvature held, span-wise and twisting curvatures as the section solver's wall model sets
+//! them: see [`crate::section::WallCurvature`]) and into ply stresses by classical laminate
+//! theory, with a uniform temperature change `delta_T_K` of the case as a fixed residual part
+//! (the wall free in its membrane, its curvatures held). The reserve factor is the strength ratio of the governing criterion at the
 //! factored load: the factor on the case's (already factored) loads that brings the first ply to
 //! failure; below 1 the ply fails under the factored load.
 //!

@@ -1,22 +1,21 @@
-//! Stress recovery at one section: beam resultants → generalised strains → wall resultants →
-//! ply stresses → strength ratios by every criterion.
+//! Stress recovery at one section: beam resultants → generalised strains → wall states (the
+//! full midplane deformation of every wall) → ply stresses → strength ratios by every criterion.
 
 use nalgebra::{Vector3, Vector4};
 
 use super::{PlyPoint, PointStress, StressError, WallLocation};
 use crate::failure::{self, CriteriaRatios, MaterialState};
-use crate::laminate::{Laminate, LaminateLoad, PlyState, Resultants};
+use crate::laminate::{Deformation, Laminate, LaminateLoad, PlyState};
 use crate::loads::BeamResultants;
 use crate::section::{SectionLayout, SolvedSection, WallPart};
 
-/// The per-ply-face material-axis state of a laminate for unit wall resultants and for the
-/// temperature change alone, so that any `(N_x, N_xs)` costs two multiply-adds per face.
+/// The per-ply-face material-axis state of a laminate for each unit component of the midplane
+/// deformation `(eps_x, eps_s, gamma_xs, kappa_x, kappa_s, kappa_xs)` and for the temperature
+/// change alone, so that any wall deformation costs six multiply-adds per face.
 #[derive(Debug, Clone)]
 pub(crate) struct UnitResponse {
-    /// Per ply: [top, bottom] states for unit N_x.
-    nx: Vec<[MaterialState; 2]>,
-    /// Per ply: [top, bottom] states for unit N_xs.
-    nxs: Vec<[MaterialState; 2]>,
+    /// Per deformation component, per ply: [top, bottom] states for a unit value.
+    unit: [Vec<[MaterialState; 2]>; 6],
     /// Per ply: [top, bottom] residual states from the temperature change.
     thermal: Vec<[MaterialState; 2]>,
 }
@@ -28,31 +27,48 @@ fn faces(p: &PlyState) -> [MaterialState; 2] {
     ]
 }
 
-fn thermal_faces(p: &PlyState) -> [MaterialState; 2] {
-    [
-        MaterialState { stress: p.top_thermal.stress_12, strain: p.top_thermal.strain_12 },
-        MaterialState { stress: p.bottom_thermal.stress_12, strain: p.bottom_thermal.strain_12 },
-    ]
+/// The whole residual state of a face: the restraint part (the load part of a response to a
+/// given total deformation) plus the free-expansion part.
+fn residual_faces(p: &PlyState) -> [MaterialState; 2] {
+    let sum = |a: &crate::laminate::PointState, b: &crate::laminate::PointState| MaterialState {
+        stress: a.stress_12 + b.stress_12,
+        strain: a.strain_12 + b.strain_12,
+    };
+    [sum(&p.top, &p.top_thermal), sum(&p.bottom, &p.bottom_thermal)]
 }
 
 impl UnitResponse {
-    /// Responses of `laminate` as a beam wall (hoop force and wall moments free).
+    /// Responses of `laminate` as a beam wall. The residual thermal state is that of a wall
+    /// free in its membrane (`N_x = N_s = N_xs = 0`) with its curvatures held at zero, as the
+    /// closed beam holds them: an unsymmetric wall cannot curl as a free plate would.
     pub(crate) fn new(laminate: &Laminate, delta_t: f64) -> Result<Self, StressError> {
-        let unit = |n: Vector3<f64>| {
-            laminate.response(&LaminateLoad::Resultants(Resultants { n, m: Vector3::zeros() }), 0.0)
+        let basis = |i: usize| {
+            let mut d = Deformation::default();
+            if i < 3 {
+                d.strain[i] = 1.0;
+            } else {
+                d.curvature[i - 3] = 1.0;
+            }
+            laminate
+                .response(&LaminateLoad::Deformation(d), 0.0)
+                .map(|r| r.plies.iter().map(faces).collect::<Vec<_>>())
         };
-        let nx = unit(Vector3::new(1.0, 0.0, 0.0))?;
-        let nxs = unit(Vector3::new(0.0, 0.0, 1.0))?;
-        let th = laminate.response(&LaminateLoad::Resultants(Resultants::default()), delta_t)?;
-        Ok(UnitResponse {
-            nx: nx.plies.iter().map(faces).collect(),
-            nxs: nxs.plies.iter().map(faces).collect(),
-            thermal: th.plies.iter().map(thermal_faces).collect(),
-        })
+        let unit = [basis(0)?, basis(1)?, basis(2)?, basis(3)?, basis(4)?, basis(5)?];
+        let (nt, _) = laminate.thermal_resultants(delta_t);
+        let a = laminate.abd().a;
+        let strain = if nt.norm() > 0.0 {
+            a.try_inverse().ok_or(crate::laminate::LaminateError::Singular)? * nt
+        } else {
+            Vector3::zeros()
+        };
+        let held = Deformation { strain, curvature: Vector3::zeros() };
+        let th = laminate.response(&LaminateLoad::Deformation(held), delta_t)?;
+        Ok(UnitResponse { unit, thermal: th.plies.iter().map(residual_faces).collect() })
     }
 
-    /// Strength ratios of every ply (worst of its two faces) under wall resultants `n_x`, `n_xs`.
-    pub(crate) fn ratios(&self, laminate: &Laminate, n_x: f64, n_xs: f64) -> Vec<PlyPoint> {
+    /// Strength ratios of every ply (worst of its two faces) under the wall deformation `d`.
+    pub(crate) fn ratios(&self, laminate: &Laminate, d: &Deformation) -> Vec<PlyPoint> {
+        let v = [d.strain.x, d.strain.y, d.strain.z, d.curvature.x, d.curvature.y, d.curvature.z];
         laminate
             .plies()
             .iter()
@@ -61,11 +77,12 @@ impl UnitResponse {
                 let mut worst: Option<CriteriaRatios> = None;
                 let mut stress_at_worst = Vector3::zeros();
                 for f in 0..2 {
-                    let (a, b) = (&self.nx[k][f], &self.nxs[k][f]);
-                    let load = MaterialState {
-                        stress: a.stress * n_x + b.stress * n_xs,
-                        strain: a.strain * n_x + b.strain * n_xs,
-                    };
+                    let mut load =
+                        MaterialState { stress: Vector3::zeros(), strain: Vector3::zeros() };
+                    for (unit, x) in self.unit.iter().zip(v) {
+                        load.stress += unit[k][f].stress * x;
+                        load.strain += unit[k][f].strain * x;
+                    }
                     let fixed = &self.thermal[k][f];
                     let r = failure::evaluate_all(&ply.material, &load, fixed);
                     let lower = match &worst {
@@ -151,7 +168,7 @@ pub(crate) fn recover_section(
         .map(|state| {
             let e = &elements[state.element];
             let laminate = &layout.laminates[e.laminate];
-            let plies = units[e.laminate].ratios(laminate, state.n_x, state.n_xs);
+            let plies = units[e.laminate].ratios(laminate, &state.deformation);
             PointStress {
                 element: state.element,
                 laminate: e.laminate,
