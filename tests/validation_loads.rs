@@ -80,7 +80,7 @@ fn cantilever_under_uniform_and_tip_loads() {
     // Tip load: a point mass under gravity along +Z at the tip.
     let mut c = case(0.0);
     c.gravity = Some([0.0, 0.0, 9.81]);
-    let pm = PointMass { name: "tip".into(), r: r1, mass: 10.0, y: 0.0, z: 0.0 };
+    let pm = PointMass { name: "tip".into(), r: r1, mass: 10.0, y: 0.0, z: 0.0, inertia: [0.0; 3] };
     let loads = span_loads(
         &LoadDistribution::new(&sections, std::slice::from_ref(&pm), &c, Angle::ZERO).unwrap(),
     );

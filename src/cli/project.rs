@@ -4,7 +4,7 @@ use std::path::Path;
 
 use layloft::analysis::BladeModel;
 use layloft::input::read_project;
-use layloft::modal::{ModalAnalysis, SpeedRange};
+use layloft::modal::{Attachments, FluidSection, ModalAnalysis, ModalInputs, SpeedRange};
 
 use super::{Failure, Output};
 
@@ -32,20 +32,37 @@ pub fn run_modal(
 ) -> Result<ModalAnalysis, Failure> {
     let p = &model.project;
     let sections = model.properties();
+    let attachments = attachments(model);
+    let inputs = ModalInputs {
+        sections: &sections,
+        rotor: &p.rotor,
+        spec: &p.modal,
+        criteria: &p.criteria,
+        attachments: &attachments,
+        excitation: &p.excitation,
+    };
     let bar = out.progress(1, "speeds");
-    let analysis = ModalAnalysis::run(
-        &sections,
-        &p.rotor,
-        &p.modal,
-        &p.criteria,
-        range,
-        modes,
-        &mut |_, total| {
-            bar.set_length(total as u64);
-            bar.inc(1)
-        },
-    )
+    let analysis = ModalAnalysis::run_inputs(&inputs, range, modes, &mut |_, total| {
+        bar.set_length(total as u64);
+        bar.inc(1)
+    })
     .map_err(layloft::Error::from)?;
     bar.finish();
     Ok(analysis)
+}
+
+/// The point masses of the project and, with a `[fluid]`, the ellipse of every analysis
+/// station's outer mould line.
+pub fn attachments(model: &BladeModel) -> Attachments {
+    let p = &model.project;
+    let mut a = Attachments::of_point_masses(&p.point_masses);
+    if let Some(fluid) = &p.fluid {
+        let sections = model
+            .stations
+            .iter()
+            .filter_map(|s| FluidSection::of_outline(s.layout.r, &s.layout.outer))
+            .collect();
+        a.fluid = Some((fluid.density, sections));
+    }
+    a
 }

@@ -40,6 +40,11 @@ pub struct Project {
     pub tooling: Option<ToolingSpec>,
     /// Modal analysis settings (`[modal]`, optional; defaults otherwise).
     pub modal: ModalSpec,
+    /// The fluid the blade runs in, when it is dense enough to count (`[fluid]`; none by
+    /// default: air is neglected).
+    pub fluid: Option<FluidSpec>,
+    /// The machine's own excitations besides the rotor orders (`[excitation]`).
+    pub excitation: ExcitationSpec,
     /// Section discretisation settings (`[sections]`, optional; defaults otherwise).
     pub sections: SectionSpec,
     /// The materials file.
@@ -187,6 +192,10 @@ pub struct PointMass {
     pub y: f64,
     /// Offset normal to the chord (chord frame z), m.
     pub z: f64,
+    /// Mass moments of inertia about the mass's own centre, kg·m², about axes parallel to the
+    /// chord frame: `[x` (the pitch axis), `y` (the chord), `z` (normal to the chord)`]`. Zero
+    /// for a point mass without rotary inertia.
+    pub inertia: [f64; 3],
 }
 
 /// A load case (`[[load_case]]`).
@@ -289,6 +298,38 @@ impl Default for ModalSpec {
     fn default() -> Self {
         ModalSpec { elements: 40, modes: 8, rpm_step: None, root_springs: None }
     }
+}
+
+/// The fluid round a submerged blade (`[fluid]`): its added mass enters the modal model and its
+/// buoyancy the gravity load.
+#[derive(Debug, Clone, PartialEq)]
+pub struct FluidSpec {
+    /// Density, kg/m³.
+    pub density: f64,
+}
+
+/// Excitations of the machine besides the rotor orders and blade passing (`[excitation]`).
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct ExcitationSpec {
+    /// Counts `V` of stationary vanes, struts or guide vanes the blades pass: orders `k V`.
+    pub vanes: Vec<u32>,
+    /// Multiples `k = 1 ..= vane_multiples` of each vane count (2 unless given).
+    pub vane_multiples: u32,
+    /// Further rotor orders to check.
+    pub orders: Vec<u32>,
+    /// Fixed frequencies or bands, independent of the rotor speed.
+    pub fixed: Vec<FixedExcitation>,
+}
+
+/// A fixed excitation frequency (a gearbox mesh) or band (a wave period range).
+#[derive(Debug, Clone, PartialEq)]
+pub struct FixedExcitation {
+    /// Name shown on the plot and in the margins.
+    pub name: String,
+    /// Lowest frequency, Hz.
+    pub from_hz: f64,
+    /// Highest frequency, Hz (equal to `from_hz` for a single frequency).
+    pub to_hz: f64,
 }
 
 /// Root spring set for a flexible hub or pitch bearing.
