@@ -13,7 +13,8 @@ use layloft::check::evaluate;
 use layloft::report::html::utc_date;
 use layloft::report::{
     ReportInputs, SectionDrawing, SectionsReport, blade_report, campbell_csv, campbell_svg,
-    modal_json, mode_shapes_csv, section_svg, stress_csv, stress_json, stress_svg, write_atomic,
+    modal_analysis_json, mode_shapes_csv, section_svg, stress_csv, stress_json, stress_svg,
+    write_atomic,
 };
 
 use super::project::{load_model, run_modal};
@@ -137,8 +138,7 @@ pub fn write_report(model: &BladeModel, dest: &Destination, out: &Output) -> Res
         )?;
         put("reserve-map.svg", "reserve-factor map (SVG)", stress_svg(model, &stress).as_bytes())?;
     }
-    let mjson =
-        modal_json(&modal.campbell, &p.rotor, &modal.excitations, &modal.crossings, &modal.margins);
+    let mjson = modal_analysis_json(&modal);
     put("modes.json", "modes, crossings and margins (JSON)", json_text(&mjson)?.as_bytes())?;
     put(
         "campbell.csv",

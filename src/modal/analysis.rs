@@ -34,9 +34,10 @@ pub struct ModalInputs<'a> {
 pub struct DryComparison {
     /// Speed, rpm.
     pub rpm: f64,
-    /// Per wet mode at that speed: `(track, wet frequency Hz, dry frequency Hz)`, the dry mode
-    /// being the one of the blade without the fluid whose shape matches best (MAC).
-    pub modes: Vec<(usize, f64, f64)>,
+    /// Per wet mode at that speed: `(track, wet frequency Hz, dry frequency Hz, MAC)`, the dry
+    /// mode being the one of the blade without the fluid whose shape matches best by the
+    /// mass-weighted MAC (the fluid changes shapes, so a low MAC says the pair is loose).
+    pub modes: Vec<(usize, f64, f64, f64)>,
 }
 
 /// Blade-passing multiples checked besides the rotor orders: the blade-passing frequency and
@@ -140,14 +141,12 @@ impl ModalAnalysis {
                     .modes
                     .iter()
                     .filter_map(|w| {
-                        let best = set.modes.iter().max_by(|a, b| {
-                            mac(dry_model.mass(), &w.vector, &a.vector).total_cmp(&mac(
-                                dry_model.mass(),
-                                &w.vector,
-                                &b.vector,
-                            ))
-                        })?;
-                        Some((w.track?, w.frequency_hz, best.frequency_hz))
+                        let (value, best) = set
+                            .modes
+                            .iter()
+                            .map(|d| (mac(dry_model.mass(), &w.vector, &d.vector), d))
+                            .max_by(|a, b| a.0.total_cmp(&b.0))?;
+                        Some((w.track?, w.frequency_hz, best.frequency_hz, value))
                     })
                     .collect();
                 dry.push(DryComparison { rpm, modes });

@@ -16,7 +16,7 @@ use serde::Serialize;
 
 use super::ModalError;
 use super::assemble::BeamModel;
-use super::modes::{ModeKind, ModeSet};
+use super::modes::{EnergyShares, ModeKind, ModeSet};
 use super::track::{continue_tracks, start_tracks};
 use crate::input::{ExcitationSpec, Rotor};
 
@@ -90,15 +90,27 @@ impl SpeedRange {
     }
 }
 
+/// The least mean share of a second family for a track's label to name it.
+pub const SECOND_SHARE_SHOWN: f64 = 0.1;
+
 /// One curve of the Campbell diagram: one mode followed across the speeds.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Track {
-    /// Track number, 0 for the lowest mode at the first speed.
+    /// Track index, 0 for the lowest mode at the first speed.
     pub id: usize,
-    /// Label such as `flap 1`, `edge 1`, `torsion 1` (kind and order within the kind).
+    /// Track number for a reader, from 1 (`id + 1`).
+    pub number: usize,
+    /// Label such as `flap 1`, `torsion 1`, `edge 1 (flap 20 %)`: the family with the largest
+    /// mean energy share, the order within that family, and a second family's share when it
+    /// reaches [`SECOND_SHARE_SHOWN`].
     pub label: String,
-    /// The kind the mode has at most speeds.
+    /// The kind the mode has at most speeds (`mixed` when no family reaches
+    /// [`super::DOMINANT_SHARE`] there).
     pub kind: ModeKind,
+    /// The family with the largest mean energy share over the track.
+    pub family: ModeKind,
+    /// The mean kinetic energy shares over the speeds of the track.
+    pub shares: EnergyShares,
 }
 
 /// Modes over a speed sweep, every mode tagged with its track.
@@ -343,30 +355,66 @@ impl BeamModel {
 }
 
 /// Renumbers the tracks that appear among the modes kept (in order of first appearance) and
-/// labels them by their most frequent kind and their order within it.
+/// names them for a reader: the family with the largest mean kinetic energy share over the
+/// track, its order within that family, and the next family's share when it reaches
+/// [`SECOND_SHARE_SHOWN`] (`edge 1 (flap 20 %)`).
 fn name_tracks(speeds: &mut [ModeSet], raw_count: usize) -> Vec<Track> {
     let mut new_id = vec![usize::MAX; raw_count];
     let mut kinds: Vec<Vec<ModeKind>> = Vec::new();
+    let mut sums: Vec<([f64; 4], usize)> = Vec::new();
     for set in speeds.iter_mut() {
         for mode in &mut set.modes {
             let raw = mode.track.unwrap_or(0);
             if new_id[raw] == usize::MAX {
                 new_id[raw] = kinds.len();
                 kinds.push(Vec::new());
+                sums.push(([0.0; 4], 0));
             }
-            mode.track = Some(new_id[raw]);
-            kinds[new_id[raw]].push(mode.kind);
+            let id = new_id[raw];
+            mode.track = Some(id);
+            kinds[id].push(mode.kind);
+            let sh = &mode.shares;
+            for (acc, v) in sums[id].0.iter_mut().zip([sh.flap, sh.edge, sh.torsion, sh.axial]) {
+                *acc += v;
+            }
+            sums[id].1 += 1;
         }
     }
+    let families = [ModeKind::Flap, ModeKind::Edge, ModeKind::Torsion, ModeKind::Axial];
     let mut ordinal = std::collections::HashMap::new();
     kinds
         .iter()
+        .zip(&sums)
         .enumerate()
-        .map(|(id, ks)| {
-            let kind = most_frequent(ks);
-            let n = ordinal.entry(kind).or_insert(0);
-            *n += 1;
-            Track { id, label: format!("{} {}", kind.name(), n), kind }
+        .map(|(id, (ks, (sum, count)))| {
+            let n = (*count).max(1) as f64;
+            let mean = sum.map(|v| v / n);
+            let mut order: Vec<usize> = (0..4).collect();
+            order.sort_by(|&a, &b| mean[b].total_cmp(&mean[a]));
+            let family = families[order[0]];
+            let k = ordinal.entry(family).or_insert(0);
+            *k += 1;
+            let mut label = format!("{} {}", family.name(), k);
+            if mean[order[1]] >= SECOND_SHARE_SHOWN {
+                label.push_str(&format!(
+                    " ({} {:.0} %)",
+                    families[order[1]].name(),
+                    100.0 * mean[order[1]]
+                ));
+            }
+            Track {
+                id,
+                number: id + 1,
+                label,
+                kind: most_frequent(ks),
+                family,
+                shares: EnergyShares {
+                    flap: mean[0],
+                    edge: mean[1],
+                    torsion: mean[2],
+                    axial: mean[3],
+                },
+            }
         })
         .collect()
 }

@@ -109,8 +109,8 @@ pub use attached::{Attachments, FluidSection, PointBody, ellipse_added_mass};
 pub use band::BandMatrix;
 pub use beam_section::BeamSection;
 pub use campbell::{
-    Campbell, Crossing, Excitation, FixedBand, MAX_SPEEDS, MarginCheck, ModeMargin, SpeedRange,
-    SweepProgress, Track, excitation_orders, machine_excitations,
+    Campbell, Crossing, Excitation, FixedBand, MAX_SPEEDS, MarginCheck, ModeMargin,
+    SECOND_SHARE_SHOWN, SpeedRange, SweepProgress, Track, excitation_orders, machine_excitations,
 };
 pub use export::{export_matrix_market, write_matrix_market};
 pub use modes::{DOMINANT_SHARE, EnergyShares, Mode, ModeKind, ModeSet, ModeShape};

@@ -66,7 +66,10 @@ pub fn modal_text(project: &str, a: &ModalAnalysis) -> String {
     out.push_str(&t.render(2));
     let _ = writeln!(out);
     if !a.dry.is_empty() {
-        let _ = writeln!(out, "Dry and wet frequencies (Hz):");
+        let _ = writeln!(
+            out,
+            "Dry and wet frequencies (Hz); each wet mode beside the dry mode of the closest shape:"
+        );
         out.push_str(&dry_table(a).render(2));
         let _ = writeln!(out);
     }
@@ -186,9 +189,14 @@ pub fn dry_table(a: &ModalAnalysis) -> Table {
         let mut any = false;
         for d in &a.dry {
             match d.modes.iter().find(|m| m.0 == track.id) {
-                Some(&(_, wet, dry)) => {
+                Some(&(_, wet, dry, mac)) => {
                     any = true;
-                    row.push(sig4(dry));
+                    // A loose pair (the fluid changed the shape) shows its MAC.
+                    if mac < 0.8 {
+                        row.push(format!("{} (MAC {})", sig4(dry), fixed(mac, 2)));
+                    } else {
+                        row.push(sig4(dry));
+                    }
                     row.push(sig4(wet));
                 }
                 None => row.extend(["-".to_string(), "-".to_string()]),
