@@ -461,3 +461,31 @@ fn nine_blades_behind_eleven_vanes_cross_where_the_orders_say() {
     // The tension term N k_A² theta'² moves f_t by 3e-7 at 1000 rpm: 1e-4 percentage points.
     assert!((m.margin_pct - (1.0 / 0.9 - 1.0) * 100.0).abs() < 1e-4, "{}", m.margin_pct);
 }
+
+#[test]
+fn a_stiff_blade_on_a_flap_root_spring_flaps_as_a_rigid_hinged_blade() {
+    // The README's worked example: a 1.2 m blade of 2 kg/m from a hub at e = 0.3 m, far stiffer
+    // than its flap root spring k = 5000 N·m/rad, flaps as a rigid body on the spring:
+    // omega² = k / I + Omega² (1 + 3 e / (2 L)), I = m L³ / 3 (rigid flapping blade with hinge
+    // offset and spring; Johnson, *Helicopter Theory*, 1980, §9.2, from memory; the Omega² term
+    // is the centrifugal moment Omega² ∫ m (e + x) x dx over I, derived here).
+    let (m, l, e, k) = (2.0, 1.2, 0.3, 5000.0);
+    let beam = BeamSection::uniform(0.0, 1e12, 1e9, 1e9, 1e11, m);
+    let springs = layloft::input::RootSprings { axial: 1e12, flap: k, edge: 1e12, torsion: 1e12 };
+    let model = BeamModel::new(
+        &uniform(&beam, e, l),
+        &rotor(3, 300.0, 400.0, 0.0),
+        &spec_with_springs(20, springs),
+    )
+    .unwrap();
+    let inertia = m * l.powi(3) / 3.0;
+    for rpm in [0.0, 300.0] {
+        let w_rot = rpm * RAD_S_PER_RPM;
+        let f = model.modes(rpm, 1).unwrap().modes[0].frequency_hz;
+        let expected = (k / inertia + w_rot * w_rot * (1.0 + 1.5 * e / l)).sqrt() / (2.0 * PI);
+        // Blade flexibility k L / EI = 6e-6 lowers the frequency by about that: 1e-4.
+        assert!((f / expected - 1.0).abs() < 1e-4, "{rpm} rpm: {f} Hz vs {expected} Hz");
+    }
+    // Standstill 10.49 Hz; at 300 rpm 12.01 Hz (the numbers quoted in the README).
+    assert!((model.modes(0.0, 1).unwrap().modes[0].frequency_hz - 10.49).abs() < 0.01);
+}

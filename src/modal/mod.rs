@@ -48,7 +48,7 @@
 //! Neglected: Coriolis (gyroscopic) coupling, common practice for Campbell diagrams of blades;
 //! the geometric stiffness of the steady bending and twist that offsets produce (the model is
 //! linearised about the undeformed blade under its centrifugal tension); aerodynamic stiffness and
-//! damping; point masses (not yet read).
+//! damping. Point masses and the fluid round a submerged blade are in `attached.rs`.
 //!
 //! # Eigen solution, kinds and tracks
 //!
