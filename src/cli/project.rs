@@ -3,7 +3,7 @@
 use std::path::Path;
 
 use layloft::analysis::BladeModel;
-use layloft::input::read_project;
+use layloft::input::{Buoyancy, BuoyantSection, read_project};
 use layloft::modal::{Attachments, FluidSection, ModalAnalysis, ModalInputs, SpeedRange};
 
 use super::{Failure, Output};
@@ -14,8 +14,9 @@ pub fn load_model(path: &Path, out: &Output) -> Result<BladeModel, Failure> {
     let project = read_project(path).map_err(layloft::Error::from)?;
     let total = project.sections.analysis_stations.max(project.stations.len()) as u64;
     let bar = out.progress(total, "sections");
-    let model = BladeModel::build_with_progress(project, &mut |_, _| bar.inc(1))?;
+    let mut model = BladeModel::build_with_progress(project, &mut |_, _| bar.inc(1))?;
     bar.finish();
+    add_buoyancy(&mut model);
     for w in model.warnings() {
         out.warn(&w.to_string());
     }
@@ -65,4 +66,18 @@ pub fn attachments(model: &BladeModel) -> Attachments {
         a.fluid = Some((fluid.density, sections));
     }
     a
+}
+
+/// With a `[fluid]`, gives every load case with gravity the buoyancy of the displaced fluid
+/// (the area inside each analysis station's outer mould line).
+pub fn add_buoyancy(model: &mut BladeModel) {
+    let Some(fluid) = model.project.fluid.clone() else { return };
+    let sections: Vec<BuoyantSection> = model
+        .stations
+        .iter()
+        .filter_map(|s| BuoyantSection::of_outline(s.layout.r, &s.layout.outer))
+        .collect();
+    for case in model.project.load_cases.iter_mut().filter(|c| c.gravity.is_some()) {
+        case.buoyancy = Some(Buoyancy { density: fluid.density, sections: sections.clone() });
+    }
 }

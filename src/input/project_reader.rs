@@ -410,6 +410,7 @@ fn read_load_case(
         gravity,
         load_factor,
         delta_t,
+        buoyancy: None,
     })
 }
 
