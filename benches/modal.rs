@@ -89,6 +89,8 @@ fn demo_sweep(c: &mut Criterion) {
     let mut group = c.benchmark_group("demo_sweep");
     group.sample_size(10);
     group.bench_function("mine_fan_bare", |b| b.iter(|| black_box(run(&bare))));
+    let dry = wet.dry();
+    group.bench_function("mine_fan_point_masses", |b| b.iter(|| black_box(run(&dry))));
     group.bench_function("mine_fan_point_masses_and_water", |b| b.iter(|| black_box(run(&wet))));
     group.finish();
 }

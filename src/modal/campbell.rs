@@ -5,12 +5,12 @@
 //! is marked as blade passing), the vane-passing orders `k · V` of each count `V` of stationary
 //! vanes or struts the blades pass (a blade meets `V` wakes per turn), further listed orders, and
 //! fixed frequencies or bands (a gearbox mesh, a wave period range). Orders given by several
-//! sources are one excitation naming them all. A crossing is where a track's frequency equals an order's
-//! frequency, found by linear interpolation of their difference between neighbouring sweep
-//! speeds (a band has a line at each edge). The margin of a mode at a speed is
-//! `|f - f_h| / f_h` in percent, `f_h` being the nearest excitation frequency in that sense (0
-//! for a mode inside a fixed band) (the separation as a share of the excitation, the
-//! way `frequency_margin_pct` is defined in `[criteria]`).
+//! sources are one excitation naming them all. A crossing is where a track's frequency equals
+//! an excitation's frequency, found by linear interpolation of their difference between
+//! neighbouring sweep speeds (a band has a line at each edge). The margin of a mode at a speed
+//! is `|f - f_h| / f_h` in percent, `f_h` being the nearest excitation frequency in that sense,
+//! the separation as a share of the excitation, the way `frequency_margin_pct` is defined in
+//! `[criteria]` (0 for a mode inside a fixed band).
 
 use serde::Serialize;
 
