@@ -1,6 +1,9 @@
 //! Campbell sweep speed: 61 speeds, 100 elements, the lowest 10 modes (band shift-invert
 //! Lanczos), against a dense full solve of the same matrices (nalgebra `SymmetricEigen` on the
 //! Cholesky-reduced problem). The blade is the invented twisted, coupled blade of the tests.
+//! Group `demo_sweep`: the whole modal stage of the mine-fan demo (its own sweep and modes)
+//! bare, and with point masses (its balance screw and an invented 30 g tip weight with rotary
+//! inertia) and sea water round it (added mass, plus the dry modes at three speeds).
 
 #[path = "../tests/modal_support/mod.rs"]
 mod modal_support;
@@ -8,7 +11,12 @@ mod modal_support;
 use std::hint::black_box;
 
 use criterion::{Criterion, criterion_group, criterion_main};
-use layloft::modal::{BeamModel, LanczosParams, SpeedRange, solve_dense, solve_lowest};
+use layloft::analysis::BladeModel;
+use layloft::input::{ExcitationSpec, PointMass, read_project};
+use layloft::modal::{
+    Attachments, BeamModel, FluidSection, LanczosParams, ModalAnalysis, ModalInputs, SpeedRange,
+    solve_dense, solve_lowest,
+};
 use modal_support::{rotor, spec, twisted_blade};
 
 fn model() -> BeamModel {
@@ -43,5 +51,49 @@ fn sweep(c: &mut Criterion) {
     group.finish();
 }
 
-criterion_group!(benches, sweep);
+fn demo_sweep(c: &mut Criterion) {
+    let path = concat!(env!("CARGO_MANIFEST_DIR"), "/layups/mine-fan/blade.toml");
+    let project = read_project(path.as_ref()).expect("the demo reads");
+    let model = BladeModel::build(project).expect("the demo builds");
+    let p = &model.project;
+    let sections = model.properties();
+    let bare = Attachments::default();
+    let mut masses = p.point_masses.clone();
+    masses.push(PointMass {
+        name: "tip-weight".into(),
+        r: 0.88,
+        mass: 0.03,
+        y: 0.01,
+        z: 0.0,
+        inertia: [2e-6, 1e-6, 1.5e-6],
+    });
+    let mut wet = Attachments::of_point_masses(&masses);
+    let fluid: Vec<FluidSection> = model
+        .stations
+        .iter()
+        .filter_map(|s| FluidSection::of_outline(s.layout.r, &s.layout.outer))
+        .collect();
+    wet.fluid = Some((1025.0, fluid));
+    let excitation = ExcitationSpec { vanes: vec![11], vane_multiples: 2, ..Default::default() };
+    let run = |attachments: &Attachments| {
+        let inputs = ModalInputs {
+            sections: &sections,
+            rotor: &p.rotor,
+            spec: &p.modal,
+            criteria: &p.criteria,
+            attachments,
+            excitation: &excitation,
+        };
+        ModalAnalysis::run_inputs(&inputs, None, None, &mut |_, _| {}).expect("the demo solves")
+    };
+    let mut group = c.benchmark_group("demo_sweep");
+    group.sample_size(10);
+    group.bench_function("mine_fan_bare", |b| b.iter(|| black_box(run(&bare))));
+    let dry = wet.dry();
+    group.bench_function("mine_fan_point_masses", |b| b.iter(|| black_box(run(&dry))));
+    group.bench_function("mine_fan_point_masses_and_water", |b| b.iter(|| black_box(run(&wet))));
+    group.finish();
+}
+
+criterion_group!(benches, sweep, demo_sweep);
 criterion_main!(benches);

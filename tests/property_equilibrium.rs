@@ -89,8 +89,9 @@ proptest! {
             gravity: Some(b.gravity),
             load_factor: b.factor,
             delta_t: 0.0,
+            buoyancy: None,
         };
-        let pm = PointMass { name: "p".into(), r: b.r0 + b.point.0 * b.len, mass: b.point.1, y: 0.0, z: 0.0 };
+        let pm = PointMass { name: "p".into(), r: b.r0 + b.point.0 * b.len, mass: b.point.1, y: 0.0, z: 0.0, inertia: [0.0; 3] };
         let pitch = Angle::from_deg(b.pitch);
         let loads = span_loads(&LoadDistribution::new(&sections, std::slice::from_ref(&pm), &case, pitch).unwrap());
         let root = loads.root();

@@ -19,6 +19,7 @@ fn case(rpm: f64) -> LoadCaseSpec {
         gravity: None,
         load_factor: 1.0,
         delta_t: 0.0,
+        buoyancy: None,
     }
 }
 
@@ -80,7 +81,7 @@ fn cantilever_under_uniform_and_tip_loads() {
     // Tip load: a point mass under gravity along +Z at the tip.
     let mut c = case(0.0);
     c.gravity = Some([0.0, 0.0, 9.81]);
-    let pm = PointMass { name: "tip".into(), r: r1, mass: 10.0, y: 0.0, z: 0.0 };
+    let pm = PointMass { name: "tip".into(), r: r1, mass: 10.0, y: 0.0, z: 0.0, inertia: [0.0; 3] };
     let loads = span_loads(
         &LoadDistribution::new(&sections, std::slice::from_ref(&pm), &c, Angle::ZERO).unwrap(),
     );
@@ -163,4 +164,39 @@ fn root_reaction_matches_the_total_applied_load() {
     }
     assert_relative_eq!(loads.root().force[0], fx, max_relative = 1e-6);
     assert_relative_eq!(loads.root().force[2], fz, max_relative = 1e-6);
+}
+
+#[test]
+fn buoyancy_takes_the_displaced_weight_off_the_gravity_load() {
+    // Archimedes: a submerged body is pushed up by the weight of the fluid it displaces, acting
+    // at the centroid of the displaced volume. A uniform blade of 4 kg/m with 0.0025 m² inside
+    // its outer mould line, centroid 0.05 m behind the pitch axis (its mass centre on it), in sea
+    // water (1025 kg/m³) under gravity along -Z at standstill: root force Z = -(m - rho A) g L,
+    // root torque about X = y_b rho A g L. The displaced area comes from the outline (shoelace
+    // formula) of a 0.1 m × 0.025 m rectangle.
+    use layloft::input::{Buoyancy, BuoyantSection};
+    let (r0, r1, m, rho, g) = (0.5, 2.0, 4.0, 1025.0, 9.81);
+    let sections = uniform_blade(r0, r1, 4, |r| plain(r, m));
+    let rect = [[0.0, -0.0125], [0.1, -0.0125], [0.1, 0.0125], [0.0, 0.0125]];
+    let b = BuoyantSection::of_outline(0.0, &rect).unwrap();
+    assert_relative_eq!(b.area, 0.0025, max_relative = 1e-12);
+    assert_relative_eq!(b.centroid[0], 0.05, max_relative = 1e-12);
+    let mut c = case(0.0);
+    c.gravity = Some([0.0, 0.0, -g]);
+    c.buoyancy = Some(Buoyancy {
+        density: rho,
+        sections: [r0, r1].iter().map(|&r| BuoyantSection { r, ..b }).collect(),
+    });
+    let loads = span_loads(&LoadDistribution::new(&sections, &[], &c, Angle::ZERO).unwrap());
+    let len = r1 - r0;
+    assert_relative_eq!(loads.root().force[2], -(m - rho * 0.0025) * g * len, max_relative = 1e-10);
+    assert_relative_eq!(
+        loads.root().moment[0],
+        0.05 * rho * 0.0025 * g * len,
+        max_relative = 1e-10
+    );
+    // Without gravity there is no buoyancy.
+    c.gravity = None;
+    let loads = span_loads(&LoadDistribution::new(&sections, &[], &c, Angle::ZERO).unwrap());
+    assert_eq!(loads.root().force[2], 0.0);
 }

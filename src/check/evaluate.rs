@@ -52,8 +52,9 @@ pub fn evaluate(
                 (
                     Some(mm.margin_pct),
                     format!(
-                        "{label} at {:.1} Hz against {} ({:.1} Hz), {} speed {:.0} rpm",
+                        "{label} at {:.1} Hz{} against {} ({:.1} Hz), {} speed {:.0} rpm",
                         mm.frequency_hz,
+                        if m.dry.is_empty() { "" } else { " (wet)" },
                         mm.excitation.label(),
                         mm.excitation_hz,
                         check.name,

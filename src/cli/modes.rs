@@ -7,7 +7,7 @@ use anyhow::anyhow;
 
 use layloft::modal::{SpeedRange, export_matrix_market};
 use layloft::report::{
-    campbell_csv, campbell_svg, modal_json, modal_text, mode_shapes_csv, write_atomic,
+    campbell_csv, campbell_svg, modal_analysis_json, modal_text, mode_shapes_csv, write_atomic,
 };
 
 use super::project::{load_model, run_modal};
@@ -120,13 +120,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         ));
     }
     if args.json {
-        let json = modal_json(
-            &analysis.campbell,
-            &p.rotor,
-            &analysis.excitations,
-            &analysis.crossings,
-            &analysis.margins,
-        );
+        let json = modal_analysis_json(&analysis);
         let text = serde_json::to_string_pretty(&json)
             .map_err(|e| Failure::Run(anyhow!("cannot format the JSON report: {e}")))?;
         out.data(&text);

@@ -13,8 +13,8 @@ use layloft::check::{DesignCheck, evaluate};
 use layloft::report::html::utc_date;
 use layloft::report::{
     FileSet, ReportInputs, SectionDrawing, SectionsReport, blade_report, campbell_csv,
-    campbell_svg, modal_json, mode_shapes_csv, section_svg_screen, stress_csv, stress_json,
-    stress_svg,
+    campbell_svg, modal_analysis_json, mode_shapes_csv, section_svg_screen, stress_csv,
+    stress_json, stress_svg,
 };
 
 use super::project::{load_model, run_modal};
@@ -145,8 +145,7 @@ pub fn write_report(
         )?;
         put("reserve-map.svg", "reserve-factor map (SVG)", stress_svg(model, &stress).as_bytes())?;
     }
-    let mjson =
-        modal_json(&modal.campbell, &p.rotor, &modal.excitations, &modal.crossings, &modal.margins);
+    let mjson = modal_analysis_json(&modal);
     put("modes.json", "modes, crossings and margins (JSON)", json_text(&mjson)?.as_bytes())?;
     put(
         "campbell.csv",

@@ -41,8 +41,9 @@ pub use csv_table::{CsvRecord, CsvTable};
 pub use location::{InputError, Location, SourceText, closest, project_path};
 pub use materials::{read_materials, read_materials_str};
 pub use project::{
-    AirfoilSpec, Criteria, DistributedLoadRow, LoadCaseSpec, ModalSpec, PlySpec, PointMass,
-    Project, ProjectFiles, Region, RootSprings, Rotor, SectionSpec, Station, ToolingSpec, WebSpec,
+    AirfoilSpec, Buoyancy, BuoyantSection, Criteria, DistributedLoadRow, ExcitationSpec,
+    FixedExcitation, FluidSpec, LoadCaseSpec, ModalSpec, PlySpec, PointMass, Project, ProjectFiles,
+    Region, RootSprings, Rotor, SectionSpec, Station, ToolingSpec, WebSpec,
 };
 pub use project_reader::read_project;
 pub use toml_table::TableReader;

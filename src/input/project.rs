@@ -40,6 +40,11 @@ pub struct Project {
     pub tooling: Option<ToolingSpec>,
     /// Modal analysis settings (`[modal]`, optional; defaults otherwise).
     pub modal: ModalSpec,
+    /// The fluid the blade runs in, when it is dense enough to count (`[fluid]`; none by
+    /// default: air is neglected).
+    pub fluid: Option<FluidSpec>,
+    /// The machine's own excitations besides the rotor orders (`[excitation]`).
+    pub excitation: ExcitationSpec,
     /// Section discretisation settings (`[sections]`, optional; defaults otherwise).
     pub sections: SectionSpec,
     /// The materials file.
@@ -187,6 +192,10 @@ pub struct PointMass {
     pub y: f64,
     /// Offset normal to the chord (chord frame z), m.
     pub z: f64,
+    /// Mass moments of inertia about the mass's own centre, kg·m², about axes parallel to the
+    /// chord frame: `[x` (the pitch axis), `y` (the chord), `z` (normal to the chord)`]`. Zero
+    /// for a point mass without rotary inertia.
+    pub inertia: [f64; 3],
 }
 
 /// A load case (`[[load_case]]`).
@@ -210,6 +219,53 @@ pub struct LoadCaseSpec {
     pub load_factor: f64,
     /// Uniform temperature change from the stress-free state, K (0 unless given).
     pub delta_t: f64,
+    /// Buoyancy of the blade in a `[fluid]`, taken off the gravity load. Not read from
+    /// `blade.toml`: filled from the lofted outer mould line (`None` in air, or when not filled).
+    pub buoyancy: Option<Buoyancy>,
+}
+
+/// The fluid displaced by the blade, for the buoyancy on a load case with gravity.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Buoyancy {
+    /// Fluid density, kg/m³.
+    pub density: f64,
+    /// Displaced area along the span, root to tip.
+    pub sections: Vec<BuoyantSection>,
+}
+
+/// The area inside the outer mould line at one radius.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct BuoyantSection {
+    /// Radius, m.
+    pub r: f64,
+    /// Area inside the outer mould line, m².
+    pub area: f64,
+    /// Its centroid, chord frame `(y, z)` from the pitch axis, m.
+    pub centroid: [f64; 2],
+}
+
+impl BuoyantSection {
+    /// The area and centroid of a closed outline (chord frame points, m) by the shoelace
+    /// formula; `None` for a degenerate outline.
+    pub fn of_outline(r: f64, outline: &[[f64; 2]]) -> Option<Self> {
+        let n = outline.len();
+        let (mut a2, mut cy, mut cz) = (0.0, 0.0, 0.0);
+        for i in 0..n {
+            let (p, q) = (outline[i], outline[(i + 1) % n]);
+            let cross = p[0] * q[1] - q[0] * p[1];
+            a2 += cross;
+            cy += (p[0] + q[0]) * cross;
+            cz += (p[1] + q[1]) * cross;
+        }
+        if !(a2.is_finite() && a2.abs() > 0.0) {
+            return None;
+        }
+        Some(BuoyantSection {
+            r,
+            area: 0.5 * a2.abs(),
+            centroid: [cy / (3.0 * a2), cz / (3.0 * a2)],
+        })
+    }
 }
 
 /// What the design check demands (`[criteria]`); each is checked only when given.
@@ -289,6 +345,38 @@ impl Default for ModalSpec {
     fn default() -> Self {
         ModalSpec { elements: 40, modes: 8, rpm_step: None, root_springs: None }
     }
+}
+
+/// The fluid round a submerged blade (`[fluid]`): its added mass enters the modal model and its
+/// buoyancy the gravity load.
+#[derive(Debug, Clone, PartialEq)]
+pub struct FluidSpec {
+    /// Density, kg/m³.
+    pub density: f64,
+}
+
+/// Excitations of the machine besides the rotor orders and blade passing (`[excitation]`).
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct ExcitationSpec {
+    /// Counts `V` of stationary vanes, struts or guide vanes the blades pass: orders `k V`.
+    pub vanes: Vec<u32>,
+    /// Multiples `k = 1 ..= vane_multiples` of each vane count (2 unless given).
+    pub vane_multiples: u32,
+    /// Further rotor orders to check.
+    pub orders: Vec<u32>,
+    /// Fixed frequencies or bands, independent of the rotor speed.
+    pub fixed: Vec<FixedExcitation>,
+}
+
+/// A fixed excitation frequency (a gearbox mesh) or band (a wave period range).
+#[derive(Debug, Clone, PartialEq)]
+pub struct FixedExcitation {
+    /// Name shown on the plot and in the margins.
+    pub name: String,
+    /// Lowest frequency, Hz.
+    pub from_hz: f64,
+    /// Highest frequency, Hz (equal to `from_hz` for a single frequency).
+    pub to_hz: f64,
 }
 
 /// Root spring set for a flexible hub or pitch bearing.

@@ -9,7 +9,9 @@
 //! - `[files]`: `stations` ("stations.csv"), `plies` ("plies.csv"), `materials`
 //!   ("materials.toml");
 //! - `[[web]]`: `name`, `chord_frac` (required), `r_start_m`, `r_end_m` (the whole blade);
-//! - `[[point_mass]]`: `name`, `r_m`, `mass_kg` (required), `y_m`, `z_m` (0, chord frame);
+//! - `[[point_mass]]`: `name`, `r_m`, `mass_kg` (required), `y_m`, `z_m` (0, chord frame),
+//!   `inertia_x_kg_m2`, `inertia_y_kg_m2`, `inertia_z_kg_m2` (0: the moments of inertia about
+//!   the mass's own centre, axes parallel to the pitch axis, the chord and the chord normal);
 //! - `[[load_case]]`: `name`, `rpm` (required), `pitch_deg`, `distributed` (a CSV file with
 //!   `r_m, f_flap_N_m, f_edge_N_m, m_pitch_Nm_m`), `gravity_m_s2 = [x, y, z]` (rotor frame),
 //!   `load_factor` (1), `delta_T_K` (0);
@@ -21,7 +23,11 @@
 //!   `min_core_thickness_mm` (2);
 //! - `[modal]`: `elements` (40), `modes` (8), `rpm_step`, `[modal.root_springs]` with
 //!   `axial_N_m`, `flap_Nm_rad`, `edge_Nm_rad`, `torsion_Nm_rad`;
-//! - `[sections]`: `contour_points` (240), `analysis_stations` (0: the project's stations).
+//! - `[sections]`: `contour_points` (240), `analysis_stations` (0: the project's stations);
+//! - `[fluid]`: `density_kg_m3` (required in the table; no fluid without the table);
+//! - `[excitation]`: `vanes` (counts V of stationary vanes or struts: orders k·V),
+//!   `vane_multiples` (2), `orders` (further rotor orders), `[[excitation.fixed]]` with `name`
+//!   and `frequency_Hz`, or `from_Hz` and `to_Hz` for a band.
 
 use std::path::Path;
 
@@ -77,6 +83,18 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
     let sections = match doc.optional_table("sections")? {
         Some(mut t) => read_sections(&mut t)?,
         None => SectionSpec::default(),
+    };
+    let fluid = match doc.optional_table("fluid")? {
+        Some(mut t) => {
+            let density = t.required_positive("density_kg_m3")?;
+            t.finish()?;
+            Some(FluidSpec { density })
+        }
+        None => None,
+    };
+    let excitation = match doc.optional_table("excitation")? {
+        Some(mut t) => read_excitation(&mut t)?,
+        None => ExcitationSpec { vane_multiples: 2, ..ExcitationSpec::default() },
     };
 
     let materials_path = dir.join(&materials_file);
@@ -156,6 +174,8 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
         criteria,
         tooling,
         modal,
+        fluid,
+        excitation,
         sections,
         materials,
     })
@@ -297,7 +317,81 @@ fn read_point_mass(
     let mass = t.required_positive("mass_kg")?;
     let y = t.optional_f64("y_m")?.unwrap_or(0.0);
     let z = t.optional_f64("z_m")?.unwrap_or(0.0);
-    Ok(PointMass { name, r, mass, y, z })
+    let keys = ["inertia_x_kg_m2", "inertia_y_kg_m2", "inertia_z_kg_m2"];
+    let mut inertia = [0.0; 3];
+    for (slot, key) in inertia.iter_mut().zip(keys) {
+        let v = t.optional_f64(key)?.unwrap_or(0.0);
+        if v < 0.0 {
+            return Err(
+                t.error(key, format!("expected a moment of inertia of 0 or more, found {v}"))
+            );
+        }
+        *slot = v;
+    }
+    // A body's principal moments obey the triangle inequality (I_a <= I_b + I_c).
+    for i in 0..3 {
+        let others = inertia[(i + 1) % 3] + inertia[(i + 2) % 3];
+        if inertia[i] > others * (1.0 + 1e-9) {
+            return Err(t.error(
+                keys[i],
+                format!(
+                    "{} kg·m² exceeds the sum of the other two moments ({others} kg·m²): no body \
+                     has such moments of inertia",
+                    inertia[i]
+                ),
+            ));
+        }
+    }
+    Ok(PointMass { name, r, mass, y, z, inertia })
+}
+
+fn read_excitation(t: &mut TableReader<'_>) -> Result<ExcitationSpec, InputError> {
+    let whole = |t: &TableReader<'_>, key: &str, v: Vec<f64>| -> Result<Vec<u32>, InputError> {
+        v.into_iter()
+            .map(|x| {
+                if x.fract() != 0.0 || !(1.0..=1.0e6).contains(&x) {
+                    Err(t.error(key, format!("expected whole numbers of 1 or more, found {x}")))
+                } else {
+                    Ok(x as u32)
+                }
+            })
+            .collect()
+    };
+    let vanes = t.optional_f64_array("vanes")?.unwrap_or_default();
+    let vanes = whole(t, "vanes", vanes)?;
+    let orders = t.optional_f64_array("orders")?.unwrap_or_default();
+    let orders = whole(t, "orders", orders)?;
+    let vane_multiples = t.optional_u32("vane_multiples")?.unwrap_or(2);
+    if vane_multiples == 0 {
+        return Err(t.error("vane_multiples", "expected at least 1 multiple, found 0"));
+    }
+    let mut fixed = Vec::new();
+    for mut f in t.table_array("fixed")? {
+        let name = f.required_str("name")?;
+        let single = f.optional_positive("frequency_Hz")?;
+        let from = f.optional_positive("from_Hz")?;
+        let to = f.optional_positive("to_Hz")?;
+        let (from_hz, to_hz) = match (single, from, to) {
+            (Some(x), None, None) => (x, x),
+            (None, Some(a), Some(b)) if b >= a => (a, b),
+            (None, Some(a), Some(b)) => {
+                return Err(f.error(
+                    "to_Hz",
+                    format!("expected the top of the band at or above from_Hz = {a}, found {b}"),
+                ));
+            }
+            _ => {
+                return Err(f.error(
+                    "frequency_Hz",
+                    "expected either frequency_Hz or both from_Hz and to_Hz",
+                ));
+            }
+        };
+        f.finish()?;
+        fixed.push(FixedExcitation { name, from_hz, to_hz });
+    }
+    t.finish()?;
+    Ok(ExcitationSpec { vanes, vane_multiples, orders, fixed })
 }
 
 fn read_load_case(
@@ -340,6 +434,7 @@ fn read_load_case(
         gravity,
         load_factor,
         delta_t,
+        buoyancy: None,
     })
 }
 

@@ -1,5 +1,7 @@
-//! Loads per unit length along the span for one load case: centrifugal, gravity and external
-//! distributed loads, and the concentrated loads of point masses.
+//! Loads per unit length along the span for one load case: centrifugal, gravity (less the
+//! buoyancy of the displaced fluid when the case carries one) and external distributed loads,
+//! and the concentrated loads of point masses (their own displaced volume is not known and is
+//! neglected).
 
 use super::LoadsError;
 use crate::input::{DistributedLoadRow, LoadCaseSpec, PointMass};
@@ -51,6 +53,24 @@ fn mass_at(sections: &[SectionProperties], r: f64) -> MassState {
         i_zz: lerp(a.inertia.flap, b.inertia.flap),
         i_yz: lerp(a.inertia.product, b.inertia.product),
         twist: lerp(a.twist.rad(), b.twist.rad()),
+    }
+}
+
+/// Displaced area and its centroid at `r`, interpolated linearly (held beyond the ends).
+fn buoyant_at(sections: &[crate::input::BuoyantSection], r: f64) -> (f64, [f64; 2]) {
+    match sections {
+        [] => (0.0, [0.0, 0.0]),
+        [one] => (one.area, one.centroid),
+        _ => {
+            let i = sections.partition_point(|s| s.r <= r).clamp(1, sections.len() - 1);
+            let (a, b) = (&sections[i - 1], &sections[i]);
+            let w = ((r - a.r) / (b.r - a.r)).clamp(0.0, 1.0);
+            let lerp = |p: f64, q: f64| p + w * (q - p);
+            (
+                lerp(a.area, b.area),
+                [lerp(a.centroid[0], b.centroid[0]), lerp(a.centroid[1], b.centroid[1])],
+            )
+        }
     }
 }
 
@@ -188,10 +208,22 @@ impl<'a> LoadDistribution<'a> {
         // X part, that changes only the torque about X, which `mx` corrects by the external
         // force's lever arm: (0 f_Z - 0 f_Y) - (Y_m f_Z - Z_m f_Y) for the external part.
         let k = self.case.load_factor;
+        // Buoyancy: the weight of the displaced fluid against gravity, at the centroid of the
+        // displaced area; carried on the mass-centre line with the torque of the lever change.
+        let (fb, mb) = match (&self.case.buoyancy, self.case.gravity) {
+            (Some(b), Some(g)) => {
+                let (area, [cy, cz]) = buoyant_at(&b.sections, r);
+                let (yb, zb) = (cy * cs - cz * sn, cy * sn + cz * cs);
+                let f =
+                    [-b.density * area * g[0], -b.density * area * g[1], -b.density * area * g[2]];
+                (f, (yb - ym) * f[2] - (zb - zm) * f[1])
+            }
+            _ => ([0.0; 3], 0.0),
+        };
         LineLoad {
-            f: [k * fi[0], k * (fi[1] + edge), k * (fi[2] + flap)],
+            f: [k * (fi[0] + fb[0]), k * (fi[1] + edge + fb[1]), k * (fi[2] + flap + fb[2])],
             at: [ym, zm],
-            mx: k * (ctm + m_pitch - ym * flap + zm * edge),
+            mx: k * (ctm + m_pitch - ym * flap + zm * edge + mb),
         }
     }
 }

@@ -3,12 +3,42 @@
 
 use super::ModalError;
 use super::assemble::BeamModel;
+use super::attached::Attachments;
 use super::campbell::{
-    Campbell, Crossing, Excitation, MarginCheck, SpeedRange, SweepProgress, excitation_orders,
+    Campbell, Crossing, Excitation, MarginCheck, SpeedRange, SweepProgress, machine_excitations,
 };
 use super::modes::ModeSet;
-use crate::input::{Criteria, ModalSpec, Rotor};
+use super::track::mac;
+use crate::input::{Criteria, ExcitationSpec, ModalSpec, Rotor};
 use crate::section::SectionProperties;
+
+/// Everything the modal stage reads, for [`ModalAnalysis::run_inputs`].
+#[derive(Debug, Clone, Copy)]
+pub struct ModalInputs<'a> {
+    /// Sections root to tip.
+    pub sections: &'a [SectionProperties],
+    /// The rotor.
+    pub rotor: &'a Rotor,
+    /// Modal settings.
+    pub spec: &'a ModalSpec,
+    /// The criteria (`harmonics`, `frequency_margin_pct`).
+    pub criteria: &'a Criteria,
+    /// Point bodies and the fluid.
+    pub attachments: &'a Attachments,
+    /// The machine's own excitations.
+    pub excitation: &'a ExcitationSpec,
+}
+
+/// The dry frequencies of the modes at one speed, beside the wet ones, for a blade in a fluid.
+#[derive(Debug, Clone, PartialEq)]
+pub struct DryComparison {
+    /// Speed, rpm.
+    pub rpm: f64,
+    /// Per wet mode at that speed: `(track, wet frequency Hz, dry frequency Hz, MAC)`, the dry
+    /// mode being the one of the blade without the fluid whose shape matches best by the
+    /// mass-weighted MAC (the fluid changes shapes, so a low MAC says the pair is loose).
+    pub modes: Vec<(usize, f64, f64, f64)>,
+}
 
 /// Blade-passing multiples checked besides the rotor orders: the blade-passing frequency and
 /// its second harmonic (common practice for axial fans).
@@ -29,6 +59,9 @@ pub struct ModalAnalysis {
     pub crossings: Vec<Crossing>,
     /// Margins at the nominal and maximum speeds (those inside the sweep).
     pub margins: Vec<MarginCheck>,
+    /// With a fluid: the dry frequencies at the first sweep speed and the checked speeds (the
+    /// sweep, crossings and margins are wet). Empty without a fluid.
+    pub dry: Vec<DryComparison>,
 }
 
 impl ModalAnalysis {
@@ -44,15 +77,39 @@ impl ModalAnalysis {
         modes: Option<usize>,
         progress: SweepProgress,
     ) -> Result<ModalAnalysis, ModalError> {
-        let model = BeamModel::new(sections, rotor, spec)?;
+        let inputs = ModalInputs {
+            sections,
+            rotor,
+            spec,
+            criteria,
+            attachments: &Attachments::default(),
+            excitation: &ExcitationSpec::default(),
+        };
+        Self::run_inputs(&inputs, range, modes, progress)
+    }
+
+    /// [`ModalAnalysis::run`] with point bodies, a fluid and the machine's own excitations.
+    pub fn run_inputs(
+        inputs: &ModalInputs<'_>,
+        range: Option<SpeedRange>,
+        modes: Option<usize>,
+        progress: SweepProgress,
+    ) -> Result<ModalAnalysis, ModalError> {
+        let ModalInputs { sections, rotor, spec, criteria, attachments, excitation } = *inputs;
+        let model = BeamModel::with_attachments(sections, rotor, spec, attachments)?;
         let range = match range {
             Some(r) => r,
             None => SpeedRange::for_rotor(rotor, spec.rpm_step)?,
         };
         let speeds = range.speeds(&[rotor.rpm_nominal, rotor.rpm_max]);
-        let campbell = model.campbell(&speeds, modes.unwrap_or(spec.modes), progress)?;
-        let excitations =
-            excitation_orders(criteria.harmonics, rotor.blades, BLADE_PASSING_MULTIPLES);
+        let count = modes.unwrap_or(spec.modes);
+        let campbell = model.campbell(&speeds, count, progress)?;
+        let excitations = machine_excitations(
+            criteria.harmonics,
+            rotor.blades,
+            BLADE_PASSING_MULTIPLES,
+            excitation,
+        );
         let crossings = campbell.crossings(&excitations);
         let mut margins = Vec::new();
         for (name, rpm) in [("nominal", rotor.rpm_nominal), ("maximum", rotor.rpm_max)] {
@@ -65,7 +122,37 @@ impl ModalAnalysis {
                 )?);
             }
         }
-        Ok(ModalAnalysis { model, range, campbell, excitations, crossings, margins })
+        let mut dry = Vec::new();
+        if attachments.fluid.is_some() {
+            let dry_model = BeamModel::with_attachments(sections, rotor, spec, &attachments.dry())?;
+            let mut rpms: Vec<f64> = campbell.speeds.first().map(|s| s.rpm).into_iter().collect();
+            rpms.extend(margins.iter().map(|m| m.rpm));
+            rpms.dedup_by(|a, b| (*a - *b).abs() <= 1e-9 * a.abs().max(1.0));
+            for rpm in rpms {
+                let Some(wet) = campbell
+                    .speeds
+                    .iter()
+                    .find(|s| (s.rpm - rpm).abs() <= 1e-9 * rpm.abs().max(1.0))
+                else {
+                    continue;
+                };
+                let set = dry_model.modes(rpm, (count + 2).min(dry_model.dof_count()))?;
+                let modes = wet
+                    .modes
+                    .iter()
+                    .filter_map(|w| {
+                        let (value, best) = set
+                            .modes
+                            .iter()
+                            .map(|d| (mac(dry_model.mass(), &w.vector, &d.vector), d))
+                            .max_by(|a, b| a.0.total_cmp(&b.0))?;
+                        Some((w.track?, w.frequency_hz, best.frequency_hz, value))
+                    })
+                    .collect();
+                dry.push(DryComparison { rpm, modes });
+            }
+        }
+        Ok(ModalAnalysis { model, range, campbell, excitations, crossings, margins, dry })
     }
 
     /// The modes of the sweep at `rpm`, when the sweep holds that speed (the nominal and

@@ -8,6 +8,7 @@
 //! springs act on `u`, `w'` (flap), `v'` (edge) and `theta` (torsion), in the rotor frame.
 
 use super::ModalError;
+use super::attached::Attachments;
 use super::band::BandMatrix;
 use super::element::{NE, element_matrices};
 use super::span::Span;
@@ -88,6 +89,8 @@ pub struct SystemMatrices {
 #[derive(Debug, Clone)]
 pub struct BeamModel {
     span: Span,
+    attachments: Attachments,
+    root_springs: Option<RootSprings>,
     rotor: Rotor,
     nodes: Vec<f64>,
     node_phi: Vec<f64>,
@@ -120,13 +123,26 @@ impl BeamModel {
         rotor: &Rotor,
         spec: &ModalSpec,
     ) -> Result<BeamModel, ModalError> {
+        Self::with_attachments(sections, rotor, spec, &Attachments::default())
+    }
+
+    /// [`BeamModel::new`] with point bodies and the fluid's added mass.
+    pub fn with_attachments(
+        sections: &[SectionProperties],
+        rotor: &Rotor,
+        spec: &ModalSpec,
+        attachments: &Attachments,
+    ) -> Result<BeamModel, ModalError> {
         if spec.elements == 0 || spec.elements > MAX_ELEMENTS {
             return Err(ModalError::ElementCount { elements: spec.elements });
         }
         if let Some(springs) = &spec.root_springs {
             check_springs(springs)?;
         }
-        let span = Span::new(sections, rotor.pitch.rad())?;
+        let mut span = Span::new(sections, rotor.pitch.rad())?.with_bodies(&attachments.bodies)?;
+        if let Some((density, fluid)) = &attachments.fluid {
+            span = span.with_fluid(*density, fluid)?;
+        }
         let n_el = spec.elements;
         let (root, tip) = (span.root(), span.tip());
         let nodes: Vec<f64> =
@@ -153,7 +169,7 @@ impl BeamModel {
         let mut spin = BandMatrix::zeros(n, 13);
         let mut mass = BandMatrix::zeros(n, 13);
         for e in 0..n_el {
-            let em = element_matrices(&span, nodes[e], nodes[e + 1]);
+            let em = element_matrices(&span, nodes[e], nodes[e + 1], e + 1 == n_el);
             for a in 0..NE {
                 let Some(fa) = free[8 * e + a] else { continue };
                 for b in 0..=a {
@@ -180,6 +196,8 @@ impl BeamModel {
             .collect();
         Ok(BeamModel {
             span,
+            attachments: attachments.clone(),
+            root_springs: spec.root_springs,
             rotor: rotor.clone(),
             nodes,
             node_phi,
@@ -190,6 +208,16 @@ impl BeamModel {
             mass,
             family_mass,
         })
+    }
+
+    /// The point bodies and fluid the model carries.
+    pub fn attachments(&self) -> &Attachments {
+        &self.attachments
+    }
+
+    /// The root springs, `None` for a clamped root.
+    pub fn root_springs(&self) -> Option<RootSprings> {
+        self.root_springs
     }
 
     /// Number of unconstrained degrees of freedom.

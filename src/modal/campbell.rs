@@ -1,20 +1,24 @@
 //! The speed sweep (Campbell data), the excitation orders, crossings and frequency margins.
 //!
-//! Excitations are the rotor orders `nP` (`n · rpm / 60` Hz) for `n = 1 ..= harmonics`, and the
-//! blade-passing orders `k · B` for `k = 1 ..= blade_passing_multiples`; every multiple of `B`
-//! is marked as blade passing. A crossing is where a track's frequency equals an order's
-//! frequency, found by linear interpolation of their difference between neighbouring sweep
-//! speeds. The margin of a mode at a speed is `|f - f_h| / f_h` in percent, `f_h` being the
-//! nearest excitation frequency in that sense (the separation as a share of the excitation, the
-//! way `frequency_margin_pct` is defined in `[criteria]`).
+//! Excitations are the rotor orders `nP` (`n · rpm / 60` Hz) for `n = 1 ..= harmonics`, the
+//! blade-passing orders `k · B` for `k = 1 ..= blade_passing_multiples` (every multiple of `B`
+//! is marked as blade passing), the vane-passing orders `k · V` of each count `V` of stationary
+//! vanes or struts the blades pass (a blade meets `V` wakes per turn), further listed orders, and
+//! fixed frequencies or bands (a gearbox mesh, a wave period range). Orders given by several
+//! sources are one excitation naming them all. A crossing is where a track's frequency equals
+//! an excitation's frequency, found by linear interpolation of their difference between
+//! neighbouring sweep speeds (a band has a line at each edge). The margin of a mode at a speed
+//! is `|f - f_h| / f_h` in percent, `f_h` being the nearest excitation frequency in that sense,
+//! the separation as a share of the excitation, the way `frequency_margin_pct` is defined in
+//! `[criteria]` (0 for a mode inside a fixed band).
 
 use serde::Serialize;
 
 use super::ModalError;
 use super::assemble::BeamModel;
-use super::modes::{ModeKind, ModeSet};
+use super::modes::{EnergyShares, ModeKind, ModeSet};
 use super::track::{continue_tracks, start_tracks};
-use crate::input::Rotor;
+use crate::input::{ExcitationSpec, Rotor};
 
 /// Progress of a sweep: called with (speeds done, speeds in all) after each speed, so that a
 /// caller can show a progress bar.
@@ -86,15 +90,27 @@ impl SpeedRange {
     }
 }
 
+/// The least mean share of a second family for a track's label to name it.
+pub const SECOND_SHARE_SHOWN: f64 = 0.1;
+
 /// One curve of the Campbell diagram: one mode followed across the speeds.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Track {
-    /// Track number, 0 for the lowest mode at the first speed.
+    /// Track index, 0 for the lowest mode at the first speed.
     pub id: usize,
-    /// Label such as `flap 1`, `edge 1`, `torsion 1` (kind and order within the kind).
+    /// Track number for a reader, from 1 (`id + 1`).
+    pub number: usize,
+    /// Label such as `flap 1`, `torsion 1`, `edge 1 (flap 20 %)`: the family with the largest
+    /// mean energy share, the order within that family, and a second family's share when it
+    /// reaches [`SECOND_SHARE_SHOWN`].
     pub label: String,
-    /// The kind the mode has at most speeds.
+    /// The kind the mode has at most speeds (`mixed` when no family reaches
+    /// [`super::DOMINANT_SHARE`] there).
     pub kind: ModeKind,
+    /// The family with the largest mean energy share over the track.
+    pub family: ModeKind,
+    /// The mean kinetic energy shares over the speeds of the track.
+    pub shares: EnergyShares,
 }
 
 /// Modes over a speed sweep, every mode tagged with its track.
@@ -106,27 +122,82 @@ pub struct Campbell {
     pub tracks: Vec<Track>,
 }
 
-/// An excitation order.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+/// A fixed excitation frequency or band, independent of the rotor speed.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct FixedBand {
+    /// Name (a gearbox mesh, a wave period range).
+    pub name: String,
+    /// Lowest frequency, Hz.
+    pub from_hz: f64,
+    /// Highest frequency, Hz (equal to `from_hz` for one frequency).
+    pub to_hz: f64,
+}
+
+/// An excitation: a rotor order (with every source that gives it) or a fixed frequency band.
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Excitation {
-    /// Multiple of the rotor speed.
+    /// Multiple of the rotor speed; 0 for a fixed frequency.
     pub order: u32,
     /// A multiple of the blade count.
     pub blade_passing: bool,
+    /// Counts `V` of stationary vanes or struts whose passing orders `k V` give this order.
+    pub vanes: Vec<u32>,
+    /// The fixed frequency or band, for an excitation that does not follow the rotor speed.
+    pub fixed: Option<FixedBand>,
 }
 
 impl Excitation {
-    /// Excitation frequency at `rpm`, Hz.
-    pub fn frequency_hz(&self, rpm: f64) -> f64 {
-        self.order as f64 * rpm / 60.0
+    /// The rotor order `order` from the rotor harmonics alone.
+    pub fn rotor_order(order: u32, blade_passing: bool) -> Self {
+        Excitation { order, blade_passing, vanes: Vec::new(), fixed: None }
     }
 
-    /// `3P`, or `15P (blade passing)`.
+    /// Excitation frequency at `rpm`, Hz (the lower edge of a fixed band).
+    pub fn frequency_hz(&self, rpm: f64) -> f64 {
+        match &self.fixed {
+            Some(f) => f.from_hz,
+            None => self.order as f64 * rpm / 60.0,
+        }
+    }
+
+    /// The lowest and highest frequency at `rpm`, Hz (the same for a rotor order).
+    pub fn range_hz(&self, rpm: f64) -> (f64, f64) {
+        match &self.fixed {
+            Some(f) => (f.from_hz, f.to_hz),
+            None => {
+                let f = self.frequency_hz(rpm);
+                (f, f)
+            }
+        }
+    }
+
+    /// The frequencies whose lines a track can cross at `rpm`: one, or both edges of a band.
+    pub fn lines_hz(&self, rpm: f64) -> Vec<f64> {
+        let (lo, hi) = self.range_hz(rpm);
+        if hi > lo { vec![lo, hi] } else { vec![lo] }
+    }
+
+    /// `3P`, `15P (blade passing)`, `11P (11 vanes)`, `99P (blade passing, 11 vanes)`,
+    /// `gear mesh 312 Hz`, `waves 0.05–0.2 Hz`.
     pub fn label(&self) -> String {
+        if let Some(f) = &self.fixed {
+            return if f.to_hz > f.from_hz {
+                format!("{} {}–{} Hz", f.name, f.from_hz, f.to_hz)
+            } else {
+                format!("{} {} Hz", f.name, f.from_hz)
+            };
+        }
+        let mut parts = Vec::new();
         if self.blade_passing {
-            format!("{}P (blade passing)", self.order)
-        } else {
+            parts.push("blade passing".to_string());
+        }
+        for v in &self.vanes {
+            parts.push(format!("{v} vanes"));
+        }
+        if parts.is_empty() {
             format!("{}P", self.order)
+        } else {
+            format!("{}P ({})", self.order, parts.join(", "))
         }
     }
 }
@@ -138,16 +209,60 @@ pub fn excitation_orders(
     blades: u32,
     blade_passing_multiples: u32,
 ) -> Vec<Excitation> {
+    machine_excitations(harmonics, blades, blade_passing_multiples, &ExcitationSpec::default())
+}
+
+/// Every excitation of the machine: the rotor orders `1 ..= harmonics`, blade passing `k B`
+/// (`k = 1 ..= blade_passing_multiples`), the vane-passing orders `k V` of each vane count
+/// (`k = 1 ..= vane_multiples`), the further orders listed, then the fixed frequencies. An order
+/// given by several sources appears once, with every source named (an order is marked blade
+/// passing when it is a multiple of `B`, and with a vane count when it is one of that count's
+/// orders).
+pub fn machine_excitations(
+    harmonics: u32,
+    blades: u32,
+    blade_passing_multiples: u32,
+    spec: &ExcitationSpec,
+) -> Vec<Excitation> {
     let mut orders: Vec<u32> = (1..=harmonics).collect();
     if blades > 0 {
         orders.extend((1..=blade_passing_multiples).map(|k| k * blades));
     }
+    let vane_orders = |v: u32| (1..=spec.vane_multiples).map(move |k| k * v);
+    for &v in &spec.vanes {
+        orders.extend(vane_orders(v));
+    }
+    orders.extend(spec.orders.iter().copied().filter(|&o| o > 0));
     orders.sort_unstable();
     orders.dedup();
-    orders
+    let mut out: Vec<Excitation> = orders
         .into_iter()
-        .map(|order| Excitation { order, blade_passing: blades > 0 && order % blades == 0 })
-        .collect()
+        .map(|order| {
+            let mut vanes: Vec<u32> = spec
+                .vanes
+                .iter()
+                .copied()
+                .filter(|&v| vane_orders(v).any(|o| o == order))
+                .collect();
+            vanes.sort_unstable();
+            vanes.dedup();
+            Excitation {
+                order,
+                blade_passing: blades > 0 && order % blades == 0,
+                vanes,
+                fixed: None,
+            }
+        })
+        .collect();
+    for f in &spec.fixed {
+        out.push(Excitation {
+            order: 0,
+            blade_passing: false,
+            vanes: Vec::new(),
+            fixed: Some(FixedBand { name: f.name.clone(), from_hz: f.from_hz, to_hz: f.to_hz }),
+        });
+    }
+    out
 }
 
 /// Where a track meets an excitation line.
@@ -155,7 +270,9 @@ pub fn excitation_orders(
 pub struct Crossing {
     /// Track id.
     pub track: usize,
-    /// Excitation order.
+    /// Index of the excitation in the list the crossings were found for.
+    pub excitation: usize,
+    /// Excitation order (0 for a fixed frequency).
     pub order: u32,
     /// Whether the order is blade passing.
     pub blade_passing: bool,
@@ -166,7 +283,7 @@ pub struct Crossing {
 }
 
 /// The margin of one mode at one speed.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct ModeMargin {
     /// Track id.
     pub track: usize,
@@ -176,7 +293,7 @@ pub struct ModeMargin {
     pub excitation: Excitation,
     /// Its frequency, Hz.
     pub excitation_hz: f64,
-    /// `|f - f_h| / f_h`, percent.
+    /// `|f - f_h| / f_h`, percent (0 inside a fixed band).
     pub margin_pct: f64,
     /// Against the required margin; `None` when none is required.
     pub pass: Option<bool>,
@@ -238,30 +355,66 @@ impl BeamModel {
 }
 
 /// Renumbers the tracks that appear among the modes kept (in order of first appearance) and
-/// labels them by their most frequent kind and their order within it.
+/// names them for a reader: the family with the largest mean kinetic energy share over the
+/// track, its order within that family, and the next family's share when it reaches
+/// [`SECOND_SHARE_SHOWN`] (`edge 1 (flap 20 %)`).
 fn name_tracks(speeds: &mut [ModeSet], raw_count: usize) -> Vec<Track> {
     let mut new_id = vec![usize::MAX; raw_count];
     let mut kinds: Vec<Vec<ModeKind>> = Vec::new();
+    let mut sums: Vec<([f64; 4], usize)> = Vec::new();
     for set in speeds.iter_mut() {
         for mode in &mut set.modes {
             let raw = mode.track.unwrap_or(0);
             if new_id[raw] == usize::MAX {
                 new_id[raw] = kinds.len();
                 kinds.push(Vec::new());
+                sums.push(([0.0; 4], 0));
             }
-            mode.track = Some(new_id[raw]);
-            kinds[new_id[raw]].push(mode.kind);
+            let id = new_id[raw];
+            mode.track = Some(id);
+            kinds[id].push(mode.kind);
+            let sh = &mode.shares;
+            for (acc, v) in sums[id].0.iter_mut().zip([sh.flap, sh.edge, sh.torsion, sh.axial]) {
+                *acc += v;
+            }
+            sums[id].1 += 1;
         }
     }
+    let families = [ModeKind::Flap, ModeKind::Edge, ModeKind::Torsion, ModeKind::Axial];
     let mut ordinal = std::collections::HashMap::new();
     kinds
         .iter()
+        .zip(&sums)
         .enumerate()
-        .map(|(id, ks)| {
-            let kind = most_frequent(ks);
-            let n = ordinal.entry(kind).or_insert(0);
-            *n += 1;
-            Track { id, label: format!("{} {}", kind.name(), n), kind }
+        .map(|(id, (ks, (sum, count)))| {
+            let n = (*count).max(1) as f64;
+            let mean = sum.map(|v| v / n);
+            let mut order: Vec<usize> = (0..4).collect();
+            order.sort_by(|&a, &b| mean[b].total_cmp(&mean[a]));
+            let family = families[order[0]];
+            let k = ordinal.entry(family).or_insert(0);
+            *k += 1;
+            let mut label = format!("{} {}", family.name(), k);
+            if mean[order[1]] >= SECOND_SHARE_SHOWN {
+                label.push_str(&format!(
+                    " ({} {:.0} %)",
+                    families[order[1]].name(),
+                    100.0 * mean[order[1]]
+                ));
+            }
+            Track {
+                id,
+                number: id + 1,
+                label,
+                kind: most_frequent(ks),
+                family,
+                shares: EnergyShares {
+                    flap: mean[0],
+                    edge: mean[1],
+                    torsion: mean[2],
+                    axial: mean[3],
+                },
+            }
         })
         .collect()
 }
@@ -312,18 +465,21 @@ impl Campbell {
             for run in self.track_runs(track.id) {
                 for w in run.windows(2) {
                     let ((ra, fa), (rb, fb)) = (w[0], w[1]);
-                    for e in excitations {
-                        let (ga, gb) = (fa - e.frequency_hz(ra), fb - e.frequency_hz(rb));
-                        if (ga > 0.0) != (gb > 0.0) {
-                            let t = ga / (ga - gb);
-                            let rpm = ra + t * (rb - ra);
-                            out.push(Crossing {
-                                track: track.id,
-                                order: e.order,
-                                blade_passing: e.blade_passing,
-                                rpm,
-                                frequency_hz: e.frequency_hz(rpm),
-                            });
+                    for (k, e) in excitations.iter().enumerate() {
+                        let (la, lb) = (e.lines_hz(ra), e.lines_hz(rb));
+                        for (ea, eb) in la.into_iter().zip(lb) {
+                            let (ga, gb) = (fa - ea, fb - eb);
+                            if (ga > 0.0) != (gb > 0.0) {
+                                let t = ga / (ga - gb);
+                                out.push(Crossing {
+                                    track: track.id,
+                                    excitation: k,
+                                    order: e.order,
+                                    blade_passing: e.blade_passing,
+                                    rpm: ra + t * (rb - ra),
+                                    frequency_hz: ea + t * (eb - ea),
+                                });
+                            }
                         }
                     }
                 }
@@ -403,11 +559,13 @@ fn nearest(excitations: &[Excitation], rpm: f64, f: f64, track: usize) -> Option
         .iter()
         .filter(|e| e.frequency_hz(rpm) > 0.0)
         .map(|e| {
-            let fh = e.frequency_hz(rpm);
+            let (lo, hi) = e.range_hz(rpm);
+            // The nearest frequency of the band (the frequency itself inside it).
+            let fh = f.clamp(lo, hi);
             ModeMargin {
                 track,
                 frequency_hz: f,
-                excitation: *e,
+                excitation: e.clone(),
                 excitation_hz: fh,
                 margin_pct: (f - fh).abs() / fh * 100.0,
                 pass: None,

@@ -19,20 +19,20 @@ use super::span::{Span, SpanSection};
 /// Element degrees of freedom.
 pub(crate) const NE: usize = 14;
 /// Components of the point state `q`.
-const NQ: usize = 10;
+pub(crate) const NQ: usize = 10;
 
-type Dens = SMatrix<f64, NQ, NQ>;
+pub(crate) type Dens = SMatrix<f64, NQ, NQ>;
 type Interp = SMatrix<f64, NQ, NE>;
 /// An element matrix.
 pub(crate) type ElementMatrix = SMatrix<f64, NE, NE>;
 
 /// State indices.
-const U: usize = 0;
-const V: usize = 1;
-const W: usize = 2;
-const TH: usize = 3;
-const DV: usize = 4;
-const DW: usize = 5;
+pub(crate) const U: usize = 0;
+pub(crate) const V: usize = 1;
+pub(crate) const W: usize = 2;
+pub(crate) const TH: usize = 3;
+pub(crate) const DV: usize = 4;
+pub(crate) const DW: usize = 5;
 const DU: usize = 6;
 const DTH: usize = 7;
 const D2V: usize = 8;
@@ -55,24 +55,45 @@ pub(crate) struct ElementMatrices {
     pub spin: ElementMatrix,
 }
 
-/// Element matrices for the element from `ra` to `rb` (radii, m).
-pub(crate) fn element_matrices(span: &Span, ra: f64, rb: f64) -> ElementMatrices {
+/// Element matrices for the element from `ra` to `rb` (radii, m): the sections, the fluid's
+/// added mass, and the point bodies whose centre lies in `[ra, rb)` (in `[ra, rb]` when `last`).
+/// The quadrature is split at every point body inside the element, where the tension jumps.
+pub(crate) fn element_matrices(span: &Span, ra: f64, rb: f64, last: bool) -> ElementMatrices {
     let h = rb - ra;
     let mut out = ElementMatrices {
         elastic: ElementMatrix::zeros(),
         mass: ElementMatrix::zeros(),
         spin: ElementMatrix::zeros(),
     };
-    for (xi, weight) in GAUSS {
-        let r = ra + xi * h;
-        let s = span.at(r);
-        let n_hat = span.tension_per_omega2(r);
+    let inside = |r: f64| r >= ra && (r < rb || (last && r <= rb));
+    let mut cuts = vec![0.0];
+    cuts.extend(span.bodies().iter().filter(|b| b.r > ra && b.r < rb).map(|b| (b.r - ra) / h));
+    cuts.push(1.0);
+    cuts.sort_by(f64::total_cmp);
+    for w in cuts.windows(2) {
+        let (x0, x1) = (w[0], w[1]);
+        for (g, weight) in GAUSS {
+            let xi = x0 + g * (x1 - x0);
+            let r = ra + xi * h;
+            let s = span.at(r);
+            let n_hat = span.tension_per_omega2(r);
+            let phi = interpolation(xi, h);
+            let wt = weight * h * (x1 - x0);
+            let (de, mut dm, ds) = densities(&s, n_hat);
+            if let Some((added, centre)) = span.added_mass_at(r) {
+                dm += super::attached::added_mass_density(added, centre, s.phi);
+            }
+            out.elastic += phi.transpose() * de * phi * wt;
+            out.mass += phi.transpose() * dm * phi * wt;
+            out.spin += phi.transpose() * ds * phi * wt;
+        }
+    }
+    for body in span.bodies().iter().filter(|b| inside(b.r)) {
+        let xi = (body.r - ra) / h;
         let phi = interpolation(xi, h);
-        let wt = weight * h;
-        let (de, dm, ds) = densities(&s, n_hat);
-        out.elastic += phi.transpose() * de * phi * wt;
-        out.mass += phi.transpose() * dm * phi * wt;
-        out.spin += phi.transpose() * ds * phi * wt;
+        let (dm, ds) = super::attached::point_body_densities(body, span.at(body.r).phi);
+        out.mass += phi.transpose() * dm * phi;
+        out.spin += phi.transpose() * ds * phi;
     }
     out
 }
@@ -128,7 +149,7 @@ fn interpolation(xi: f64, h: f64) -> Interp {
 /// axis) moves by `U = u - eta v' - zeta w'`, `V = v - zeta theta`, `W = w + eta theta`. The
 /// chord frame is the rotor frame turned about `x` by `phi`: `eta = y cos phi - z sin phi`,
 /// `zeta = y sin phi + z cos phi`.
-fn densities(s: &SpanSection, n_hat: f64) -> (Dens, Dens, Dens) {
+pub(crate) fn densities(s: &SpanSection, n_hat: f64) -> (Dens, Dens, Dens) {
     let (sn, cs) = s.phi.sin_cos();
     // Elastic: strains e = (u', theta', kappa_f, kappa_e) from the rotor-frame curvatures.
     let mut E = SMatrix::<f64, 4, NQ>::zeros();

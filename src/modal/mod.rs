@@ -48,7 +48,7 @@
 //! Neglected: Coriolis (gyroscopic) coupling, common practice for Campbell diagrams of blades;
 //! the geometric stiffness of the steady bending and twist that offsets produce (the model is
 //! linearised about the undeformed blade under its centrifugal tension); aerodynamic stiffness and
-//! damping; point masses (not yet read).
+//! damping. Point masses and the fluid round a submerged blade are in `attached.rs`.
 //!
 //! # Eigen solution, kinds and tracks
 //!
@@ -91,6 +91,7 @@
 
 mod analysis;
 mod assemble;
+mod attached;
 mod band;
 mod beam_section;
 mod campbell;
@@ -102,13 +103,14 @@ mod span;
 mod track;
 mod tridiagonal;
 
-pub use analysis::{BLADE_PASSING_MULTIPLES, ModalAnalysis};
+pub use analysis::{BLADE_PASSING_MULTIPLES, DryComparison, ModalAnalysis, ModalInputs};
 pub use assemble::{BeamModel, Dof, DofKind, MAX_ELEMENTS, SystemMatrices};
+pub use attached::{Attachments, FluidSection, PointBody, ellipse_added_mass};
 pub use band::BandMatrix;
 pub use beam_section::BeamSection;
 pub use campbell::{
-    Campbell, Crossing, Excitation, MAX_SPEEDS, MarginCheck, ModeMargin, SpeedRange, SweepProgress,
-    Track, excitation_orders,
+    Campbell, Crossing, Excitation, FixedBand, MAX_SPEEDS, MarginCheck, ModeMargin,
+    SECOND_SHARE_SHOWN, SpeedRange, SweepProgress, Track, excitation_orders, machine_excitations,
 };
 pub use export::{export_matrix_market, write_matrix_market};
 pub use modes::{DOMINANT_SHARE, EnergyShares, Mode, ModeKind, ModeSet, ModeShape};
@@ -217,6 +219,20 @@ pub enum ModalError {
         /// `axial`, `flap`, `edge` or `torsion`.
         field: &'static str,
         /// The value.
+        value: f64,
+    },
+    /// A point body the model cannot take.
+    #[error("point mass at r = {r} m: {reason}")]
+    PointBody {
+        /// Its radius, m.
+        r: f64,
+        /// What is wrong.
+        reason: &'static str,
+    },
+    /// A fluid density that is not positive.
+    #[error("fluid density {value} kg/m3: expected a positive density")]
+    FluidDensity {
+        /// The value, kg/m³.
         value: f64,
     },
     /// A rotor speed that is negative or not finite.

@@ -9,6 +9,7 @@
 use nalgebra::Matrix4;
 
 use super::ModalError;
+use super::attached::{FluidSection, PointBody, ellipse_added_mass};
 use crate::section::SectionProperties;
 
 /// Section properties at one radius, chord frame, about the pitch axis.
@@ -58,6 +59,10 @@ pub(crate) struct Span {
     stations: Vec<SpanSection>,
     /// `∫_{r_i}^{tip} m rho drho` at each station, kg·m (times Omega² gives the tension, N).
     tension: Vec<f64>,
+    /// Point bodies, root to tip.
+    bodies: Vec<PointBody>,
+    /// Added mass of the fluid at radii, root to tip: `(r, [flap, edge, torsion], centre)`.
+    added: Vec<(f64, [f64; 3], [f64; 2])>,
 }
 
 impl Span {
@@ -87,7 +92,101 @@ impl Span {
             let (a, b) = (&stations[i], &stations[i + 1]);
             tension[i] = tension[i + 1] + moment_of_mass(a, b, a.r);
         }
-        Ok(Span { stations, tension })
+        Ok(Span { stations, tension, bodies: Vec::new(), added: Vec::new() })
+    }
+
+    /// Adds point bodies (checked: on the span, finite, positive mass, possible inertia).
+    pub fn with_bodies(mut self, bodies: &[PointBody]) -> Result<Span, ModalError> {
+        let (root, tip) = (self.root(), self.tip());
+        for b in bodies {
+            let values =
+                [b.r, b.mass, b.offset[0], b.offset[1], b.inertia[0], b.inertia[1], b.inertia[2]];
+            if values.iter().any(|v| !v.is_finite()) {
+                return Err(ModalError::PointBody {
+                    r: b.r,
+                    reason: "a value is not a finite number",
+                });
+            }
+            if b.r < root - 1e-9 * tip.abs().max(1.0) || b.r > tip + 1e-9 * tip.abs().max(1.0) {
+                return Err(ModalError::PointBody {
+                    r: b.r,
+                    reason: "it lies off the blade's span",
+                });
+            }
+            if b.mass <= 0.0 {
+                return Err(ModalError::PointBody { r: b.r, reason: "its mass must be positive" });
+            }
+            let [x, y, z] = b.inertia;
+            let tol = 1e-9 * (x + y + z);
+            if x < 0.0
+                || y < 0.0
+                || z < 0.0
+                || x > y + z + tol
+                || y > x + z + tol
+                || z > x + y + tol
+            {
+                return Err(ModalError::PointBody {
+                    r: b.r,
+                    reason: "its moments of inertia are not those of a body (each must be at least 0 and at most the sum of the other two)",
+                });
+            }
+            self.bodies.push(PointBody { r: b.r.clamp(root, tip), ..*b });
+        }
+        self.bodies.sort_by(|a, b| a.r.total_cmp(&b.r));
+        Ok(self)
+    }
+
+    /// Adds the fluid's added mass from the ellipse of each fluid section (`density` in kg/m³).
+    pub fn with_fluid(
+        mut self,
+        density: f64,
+        sections: &[FluidSection],
+    ) -> Result<Span, ModalError> {
+        if !(density.is_finite() && density > 0.0) {
+            return Err(ModalError::FluidDensity { value: density });
+        }
+        let mut added = Vec::with_capacity(sections.len());
+        for f in sections {
+            let values = [f.r, f.chord, f.thickness, f.centre[0], f.centre[1]];
+            if values.iter().any(|v| !v.is_finite()) || f.chord <= 0.0 || f.thickness < 0.0 {
+                return Err(ModalError::NotFinite {
+                    r: f.r,
+                    field: "fluid section (chord, thickness, centre)",
+                });
+            }
+            let a = 0.5 * f.chord;
+            let b = (0.5 * f.thickness).min(a);
+            added.push((f.r, ellipse_added_mass(density, a, b), f.centre));
+        }
+        added.sort_by(|x, y| x.0.total_cmp(&y.0));
+        self.added = added;
+        Ok(self)
+    }
+
+    /// The point bodies, root to tip.
+    pub fn bodies(&self) -> &[PointBody] {
+        &self.bodies
+    }
+
+    /// Added masses `[flap, edge, torsion]` and their centre at `r`, interpolated linearly (held
+    /// beyond the first and last fluid section); `None` without a fluid.
+    pub fn added_mass_at(&self, r: f64) -> Option<([f64; 3], [f64; 2])> {
+        let first = self.added.first()?;
+        let last = self.added.last()?;
+        if r <= first.0 || self.added.len() == 1 {
+            return Some((first.1, first.2));
+        }
+        if r >= last.0 {
+            return Some((last.1, last.2));
+        }
+        let i = self.added.partition_point(|a| a.0 <= r).clamp(1, self.added.len() - 1);
+        let (a, b) = (&self.added[i - 1], &self.added[i]);
+        let t = (r - a.0) / (b.0 - a.0);
+        let mix = |x: f64, y: f64| x + t * (y - x);
+        Some((
+            [mix(a.1[0], b.1[0]), mix(a.1[1], b.1[1]), mix(a.1[2], b.1[2])],
+            [mix(a.2[0], b.2[0]), mix(a.2[1], b.2[1])],
+        ))
     }
 
     /// Radius of the root (first) station, m.
@@ -118,7 +217,8 @@ impl Span {
     pub fn tension_per_omega2(&self, r: f64) -> f64 {
         let i = self.interval(r);
         let (a, b) = (&self.stations[i], &self.stations[i + 1]);
-        self.tension[i + 1] + moment_of_mass(a, b, r.clamp(a.r, b.r))
+        let bodies: f64 = self.bodies.iter().filter(|p| p.r > r).map(|p| p.mass * p.r).sum();
+        self.tension[i + 1] + moment_of_mass(a, b, r.clamp(a.r, b.r)) + bodies
     }
 }
 

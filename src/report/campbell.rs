@@ -1,5 +1,7 @@
 //! The Campbell diagram as SVG: every track a line coloured by its kind, the rotor orders as
-//! dashed lines labelled `nP`, blade-passing orders in a heavier dash-dot, crossings marked (filled
+//! dashed lines labelled `nP`, blade-passing orders in a heavier dash-dot, vane-passing orders
+//! dotted in their own colour (labelled with every source, e.g. `11P (11 vanes)`), fixed
+//! frequencies as horizontal lines (bands shaded), crossings marked (filled
 //! inside the operating range), the operating range shaded, axes "rotor speed (rpm)" and
 //! "frequency (Hz)".
 
@@ -38,7 +40,7 @@ pub fn campbell_svg(
     // Modes far above every excitation line cannot be excited in the range: the plot stops a
     // little above the highest line (or the lowest mode, whichever is higher) and says how many
     // modes lie above it.
-    let f_exc = excitations.iter().map(|e| e.frequency_hz(rpm_max)).fold(0.0, f64::max);
+    let f_exc = excitations.iter().map(|e| e.range_hz(rpm_max).1).fold(0.0, f64::max);
     let f_low = campbell
         .speeds
         .iter()
@@ -57,16 +59,38 @@ pub fn campbell_svg(
     fig.band_x(lo, hi, palette::BAND, 0.55);
     let order_style = LineStyle::dashed(palette::MUTED, 1.0, "5 4");
     let passing_style = LineStyle::dashed(palette::INK, 1.6, "10 3 2 3");
+    let vane_style = LineStyle::dashed(palette::SERIES[5], 1.6, "2 3");
+    let fixed_style = LineStyle::dashed(palette::SERIES[6], 1.4, "8 2 2 2 2 2");
     for e in excitations {
-        let style = if e.blade_passing { &passing_style } else { &order_style };
+        if let Some(f) = &e.fixed {
+            // A fixed frequency: a horizontal line, a band shaded between its edges.
+            if f.to_hz > f.from_hz {
+                fig.rect(rpm_min, f.from_hz, rpm_max, f.to_hz.min(y_top), palette::SERIES[6], 0.15);
+            }
+            for y in e.lines_hz(rpm_max) {
+                fig.line(&[(rpm_min, y), (rpm_max, y)], &fixed_style);
+            }
+            if f.from_hz <= y_top {
+                fig.label(rpm_max, f.to_hz.min(y_top), &e.label(), palette::SERIES[6], Anchor::End);
+            }
+            continue;
+        }
+        let (style, colour) = if e.blade_passing {
+            (&passing_style, palette::INK)
+        } else if !e.vanes.is_empty() {
+            (&vane_style, palette::SERIES[5])
+        } else {
+            (&order_style, palette::MUTED)
+        };
         let f_end = e.frequency_hz(rpm_max);
         fig.line(&[(rpm_min, e.frequency_hz(rpm_min)), (rpm_max, f_end)], style);
-        // Label where the line leaves the plot: at the right edge or at the top.
+        // Label where the line leaves the plot: at the right edge or at the top. An order with
+        // vane passing names every source (one line for coinciding orders).
         let (x, y) =
             if f_end <= y_top { (rpm_max, f_end) } else { (y_top * 60.0 / e.order as f64, y_top) };
         if x >= rpm_min {
-            let colour = if e.blade_passing { palette::INK } else { palette::MUTED };
-            fig.label(x, y, &format!("{}P", e.order), colour, Anchor::End);
+            let text = if e.vanes.is_empty() { format!("{}P", e.order) } else { e.label() };
+            fig.label(x, y, &text, colour, Anchor::End);
         }
     }
     let visible = |id: usize| campbell.track_points(id).iter().any(|p| p.1 <= y_top);
@@ -108,6 +132,12 @@ pub fn campbell_svg(
     fig.legend_line("rotor order nP", &order_style);
     if excitations.iter().any(|e| e.blade_passing) {
         fig.legend_line("blade passing", &passing_style);
+    }
+    if excitations.iter().any(|e| !e.vanes.is_empty() && !e.blade_passing) {
+        fig.legend_line("vane passing k·V", &vane_style);
+    }
+    if excitations.iter().any(|e| e.fixed.is_some()) {
+        fig.legend_line("fixed frequency", &fixed_style);
     }
     fig.legend_marker("crossing", Marker::Ring, palette::INK);
     fig.legend_marker("crossing in operating range", Marker::Dot, palette::SERIES[1]);

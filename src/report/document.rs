@@ -287,15 +287,29 @@ fn vibration_section(
     let s = doc.section("Vibration");
     s.paragraph(format!(
         "Rotating beam finite elements along the pitch axis with the coupled section stiffness, \
-         mass offsets, pretwist, centrifugal stiffening, spin softening and the propeller moment; \
-         clamped at the root. {} modes at each of {} speeds from {:.0} to {:.0} rpm, tracked by the \
-         modal assurance criterion. Excitations: rotor orders 1P to {}P and the blade-passing orders.",
+         mass offsets, pretwist, centrifugal stiffening, spin softening and the propeller moment. \
+         {} modes at each of {} speeds from {:.0} to {:.0} rpm, tracked by the modal assurance \
+         criterion. Excitations: rotor orders 1P to {}P, the blade-passing orders{}.",
         a.campbell.speeds.first().map_or(0, |s| s.modes.len()),
         a.campbell.speeds.len(),
         a.range.from_rpm,
         a.range.to_rpm,
-        p.criteria.harmonics
+        p.criteria.harmonics,
+        if a.excitations.iter().any(|e| !e.vanes.is_empty() || e.fixed.is_some()) {
+            " and the machine's own excitations of [excitation]"
+        } else {
+            ""
+        }
     ));
+    for line in super::model_statement(a).lines() {
+        s.paragraph(line.to_string());
+    }
+    if !a.dry.is_empty() {
+        s.table(
+            "Dry and wet frequencies (Hz): the sweep, crossings and margins use the wet ones.",
+            &super::modal_text::dry_table(a),
+        );
+    }
     s.figure(
         "campbell",
         "Campbell diagram: natural frequencies against rotor speed, excitation lines, crossings, and the operating range shaded.",

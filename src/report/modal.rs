@@ -2,10 +2,14 @@
 //!
 //! JSON (`modal_json`): `rpm_nominal`, `rpm_max`, `blades`; `speeds[]` with `rpm` and `modes[]`
 //! (`frequency_hz`, `kind`, `track` and the kinetic energy shares `flap_share` ...);
-//! `tracks[]` (`track`, `label`, `kind`); `excitations[]` (`harmonic`, `blade_passing`);
-//! `crossings[]` (`track`, `harmonic`, `blade_passing`, `rpm`, `frequency_hz`); `margins[]`
-//! (`speed`, `rpm`, `required_margin_pct`, `pass`, `modes[]` with `track`, `frequency_hz`,
-//! `harmonic`, `harmonic_hz`, `margin_pct`, `pass`). A pass that was not asked for, or a value
+//! `tracks[]` (`track`, `track_number` from 1, `label`, `kind`, `family`, `mean_*_share`);
+//! `excitations[]` (`harmonic`, `blade_passing`, `label`, `vanes`, `fixed_name`,
+//! `fixed_from_Hz`, `fixed_to_Hz`; `harmonic` is `null` for a fixed frequency);
+//! `crossings[]` (`track`, `harmonic`, `excitation`, `blade_passing`, `rpm`, `frequency_hz`);
+//! `margins[]` (`speed`, `rpm`, `required_margin_pct`, `pass`, `modes[]` with `track`,
+//! `frequency_hz`, `harmonic`, `excitation`, `harmonic_hz` (the nearest frequency of the
+//! excitation), `margin_pct`, `pass`). `modal_analysis_json` adds the model's boundary
+//! condition, point masses, fluid and dry/wet frequencies. A pass that was not asked for, or a value
 //! that is not finite, is `null`.
 //!
 //! CSV: the Campbell data one row per mode and speed (`campbell_csv`), and mode shapes one row
@@ -17,7 +21,7 @@ use std::fmt::Write;
 use serde_json::{Value, json};
 
 use crate::input::Rotor;
-use crate::modal::{Campbell, Crossing, Excitation, MarginCheck, ModeSet};
+use crate::modal::{Campbell, Crossing, Excitation, MarginCheck, ModalAnalysis, ModeSet};
 
 /// The modal results as one JSON document.
 pub fn modal_json(
@@ -52,18 +56,41 @@ pub fn modal_json(
     let tracks: Vec<Value> = campbell
         .tracks
         .iter()
-        .map(|t| json!({ "track": t.id, "label": t.label, "kind": t.kind.name() }))
+        .map(|t| {
+            json!({
+                "track": t.id,
+                "track_number": t.number,
+                "label": t.label,
+                "kind": t.kind.name(),
+                "family": t.family.name(),
+                "mean_flap_share": t.shares.flap,
+                "mean_edge_share": t.shares.edge,
+                "mean_torsion_share": t.shares.torsion,
+                "mean_axial_share": t.shares.axial,
+            })
+        })
         .collect();
-    let excitations: Vec<Value> = excitations
+    let excitation_list: Vec<Value> = excitations
         .iter()
-        .map(|e| json!({ "harmonic": e.order, "blade_passing": e.blade_passing }))
+        .map(|e| {
+            json!({
+                "harmonic": (e.fixed.is_none()).then_some(e.order),
+                "blade_passing": e.blade_passing,
+                "label": e.label(),
+                "vanes": e.vanes,
+                "fixed_name": e.fixed.as_ref().map(|f| f.name.clone()),
+                "fixed_from_Hz": e.fixed.as_ref().map(|f| f.from_hz),
+                "fixed_to_Hz": e.fixed.as_ref().map(|f| f.to_hz),
+            })
+        })
         .collect();
     let crossings: Vec<Value> = crossings
         .iter()
         .map(|c| {
             json!({
                 "track": c.track,
-                "harmonic": c.order,
+                "harmonic": (c.order > 0).then_some(c.order),
+                "excitation": excitations.get(c.excitation).map(|e| e.label()),
                 "blade_passing": c.blade_passing,
                 "rpm": c.rpm,
                 "frequency_hz": c.frequency_hz,
@@ -80,7 +107,8 @@ pub fn modal_json(
                     json!({
                         "track": m.track,
                         "frequency_hz": m.frequency_hz,
-                        "harmonic": m.excitation.order,
+                        "harmonic": (m.excitation.fixed.is_none()).then_some(m.excitation.order),
+                        "excitation": m.excitation.label(),
                         "blade_passing": m.excitation.blade_passing,
                         "harmonic_hz": m.excitation_hz,
                         "margin_pct": m.margin_pct,
@@ -103,10 +131,76 @@ pub fn modal_json(
         "blades": rotor.blades,
         "speeds": speeds,
         "tracks": tracks,
-        "excitations": excitations,
+        "excitations": excitation_list,
         "crossings": crossings,
         "margins": margins,
     })
+}
+
+/// [`modal_json`] of a whole modal stage, with what the model holds (`boundary_condition`,
+/// `root_springs` with `axial_N_m`, `flap_Nm_rad`, `edge_Nm_rad`, `torsion_Nm_rad`,
+/// `point_masses[]` with `r_m`, `mass_kg`, `y_m`, `z_m`, `inertia_x_kg_m2` ..., `fluid_density_kg_m3`)
+/// and, with a fluid, `dry_wet[]`: `rpm` and `modes[]` with `track`, `frequency_wet_Hz`,
+/// `frequency_dry_Hz`, `mac_dry_wet` (the sweep's `frequency_hz` are then wet).
+pub fn modal_analysis_json(a: &ModalAnalysis) -> Value {
+    let mut v = modal_json(&a.campbell, a.model.rotor(), &a.excitations, &a.crossings, &a.margins);
+    let att = a.model.attachments();
+    let springs = a.model.root_springs();
+    let bodies: Vec<Value> = att
+        .bodies
+        .iter()
+        .map(|b| {
+            json!({
+                "r_m": b.r,
+                "mass_kg": b.mass,
+                "y_m": b.offset[0],
+                "z_m": b.offset[1],
+                "inertia_x_kg_m2": b.inertia[0],
+                "inertia_y_kg_m2": b.inertia[1],
+                "inertia_z_kg_m2": b.inertia[2],
+            })
+        })
+        .collect();
+    let dry: Vec<Value> = a
+        .dry
+        .iter()
+        .map(|d| {
+            let modes: Vec<Value> = d
+                .modes
+                .iter()
+                .map(|&(track, wet, dry, mac)| {
+                    json!({
+                        "track": track,
+                        "frequency_wet_Hz": wet,
+                        "frequency_dry_Hz": dry,
+                        "mac_dry_wet": mac,
+                    })
+                })
+                .collect();
+            json!({ "rpm": d.rpm, "modes": modes })
+        })
+        .collect();
+    if let Some(obj) = v.as_object_mut() {
+        obj.insert(
+            "boundary_condition".into(),
+            json!(if springs.is_some() { "root springs" } else { "clamped root" }),
+        );
+        obj.insert(
+            "root_springs".into(),
+            springs.map_or(Value::Null, |k| {
+                json!({
+                    "axial_N_m": k.axial,
+                    "flap_Nm_rad": k.flap,
+                    "edge_Nm_rad": k.edge,
+                    "torsion_Nm_rad": k.torsion,
+                })
+            }),
+        );
+        obj.insert("point_masses".into(), Value::Array(bodies));
+        obj.insert("fluid_density_kg_m3".into(), json!(att.fluid.as_ref().map(|f| f.0)));
+        obj.insert("dry_wet".into(), Value::Array(dry));
+    }
+    v
 }
 
 /// The Campbell data: `rpm, track, label, kind, frequency_hz`, one row per mode and speed.

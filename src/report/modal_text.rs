@@ -26,7 +26,7 @@ pub fn modal_text(project: &str, a: &ModalAnalysis) -> String {
     let refs: Vec<(&str, Align)> = headers.iter().map(|(h, a)| (h.as_str(), *a)).collect();
     let mut t = Table::new(&refs);
     for track in &a.campbell.tracks {
-        let mut row = vec![track.id.to_string(), track.label.clone()];
+        let mut row = vec![(track.id + 1).to_string(), track.label.clone()];
         if let Some(s) = first {
             row.push(
                 s.modes
@@ -56,12 +56,23 @@ pub fn modal_text(project: &str, a: &ModalAnalysis) -> String {
             t.row(row);
         }
     }
+    out.push_str(&model_statement(a));
+    let _ = writeln!(out);
     let _ = writeln!(
         out,
-        "Natural frequencies of the spinning blade and the margin to the nearest excitation:"
+        "Natural frequencies of the spinning blade and the margin to the nearest excitation{}:",
+        if a.dry.is_empty() { "" } else { " (wet: with the fluid's added mass)" }
     );
     out.push_str(&t.render(2));
     let _ = writeln!(out);
+    if !a.dry.is_empty() {
+        let _ = writeln!(
+            out,
+            "Dry and wet frequencies (Hz); each wet mode beside the dry mode of the closest shape:"
+        );
+        out.push_str(&dry_table(a).render(2));
+        let _ = writeln!(out);
+    }
     for m in &a.margins {
         let verdict = match (m.pass, m.required_pct) {
             (Some(true), Some(req)) => {
@@ -111,8 +122,89 @@ pub fn crossings_table(a: &ModalAnalysis) -> Table {
             .iter()
             .find(|t| t.id == c.track)
             .map_or(String::new(), |t| t.label.clone());
-        let exc = crate::modal::Excitation { order: c.order, blade_passing: c.blade_passing };
-        t.row(vec![c.track.to_string(), label, exc.label(), fixed(c.rpm, 0), sig4(c.frequency_hz)]);
+        let exc = a.excitations.get(c.excitation).map_or(String::new(), |e| e.label());
+        t.row(vec![(c.track + 1).to_string(), label, exc, fixed(c.rpm, 0), sig4(c.frequency_hz)]);
+    }
+    t
+}
+
+/// What the model holds: the boundary condition at the root, the point masses and the fluid.
+pub fn model_statement(a: &ModalAnalysis) -> String {
+    let mut out = String::new();
+    let (root, tip) = a.model.span();
+    let root_bc = match a.model.root_springs() {
+        Some(k) => format!(
+            "root on springs at r = {} m (axial {} N/m, flap {} N·m/rad, edge {} N·m/rad, \
+             torsion {} N·m/rad; in-plane and out-of-plane displacements fixed)",
+            fixed(root, 3),
+            sig4(k.axial),
+            sig4(k.flap),
+            sig4(k.edge),
+            sig4(k.torsion)
+        ),
+        None => format!("root clamped at r = {} m", fixed(root, 3)),
+    };
+    let _ = writeln!(out, "Boundary condition: {root_bc}; tip free at r = {} m.", fixed(tip, 3));
+    let att = a.model.attachments();
+    if att.bodies.is_empty() {
+        let _ = writeln!(out, "Point masses: none.");
+    } else {
+        let total: f64 = att.bodies.iter().map(|b| b.mass).sum();
+        let _ = writeln!(
+            out,
+            "Point masses: {} ({} kg in all), with their offsets and rotary inertia, in the mass, \
+             the centrifugal stiffening and the propeller moment.",
+            att.bodies.len(),
+            sig4(total)
+        );
+    }
+    match &att.fluid {
+        Some((rho, _)) => {
+            let _ = writeln!(
+                out,
+                "Fluid: density {} kg/m³; added mass of each section's ellipse (strip theory, \
+                 potential flow); frequencies, crossings and margins are wet.",
+                sig4(*rho)
+            );
+        }
+        None => {
+            let _ = writeln!(out, "Fluid: none (air's added mass neglected).");
+        }
+    }
+    out
+}
+
+/// Dry and wet frequencies per track at the compared speeds.
+pub fn dry_table(a: &ModalAnalysis) -> Table {
+    let mut headers: Vec<(String, Align)> =
+        vec![("track".into(), Align::Right), ("mode".into(), Align::Left)];
+    for d in &a.dry {
+        headers.push((format!("dry at {} rpm", fixed(d.rpm, 0)), Align::Right));
+        headers.push((format!("wet at {} rpm", fixed(d.rpm, 0)), Align::Right));
+    }
+    let refs: Vec<(&str, Align)> = headers.iter().map(|(h, a)| (h.as_str(), *a)).collect();
+    let mut t = Table::new(&refs);
+    for track in &a.campbell.tracks {
+        let mut row = vec![(track.id + 1).to_string(), track.label.clone()];
+        let mut any = false;
+        for d in &a.dry {
+            match d.modes.iter().find(|m| m.0 == track.id) {
+                Some(&(_, wet, dry, mac)) => {
+                    any = true;
+                    // A loose pair (the fluid changed the shape) shows its MAC.
+                    if mac < 0.8 {
+                        row.push(format!("{} (MAC {})", sig4(dry), fixed(mac, 2)));
+                    } else {
+                        row.push(sig4(dry));
+                    }
+                    row.push(sig4(wet));
+                }
+                None => row.extend(["-".to_string(), "-".to_string()]),
+            }
+        }
+        if any {
+            t.row(row);
+        }
     }
     t
 }
