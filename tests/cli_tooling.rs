@@ -39,6 +39,10 @@ fn the_mine_fan_demo_writes_closed_outward_parts_and_a_summary() {
     let parts = ["core-1", "core-2", "shell", "mould-upper", "mould-lower"];
     let mut want: Vec<String> = parts.iter().map(|p| format!("{p}.stl")).collect();
     want.push("tooling-summary.json".into());
+    // Each mould half again in its machining frame, and the manifest of the set.
+    want.push("mould-upper-machining.stl".into());
+    want.push("mould-lower-machining.stl".into());
+    want.push("tooling-manifest.json".into());
     want.sort();
     assert_eq!(names, want, "no temporary files or other leftovers");
     let json: Value = serde_json::from_str(&stdout).unwrap_or_else(|e| panic!("{e}: {stdout}"));

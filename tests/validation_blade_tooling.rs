@@ -309,3 +309,43 @@ fn cores_close_at_the_trailing_edge_where_the_skins_leave_the_least_core_thickne
     }
     assert!(checked >= 5, "{checked} stations checked");
 }
+
+#[test]
+fn mould_parts_in_their_machining_frames_sit_on_the_table_and_map_back_exactly() {
+    // Rigid motion (geometry): q = Rᵀ(p − o) and back p = o + R q with R orthonormal; the back
+    // face, normal to the pull, is the lowest face; its area is the block's X by Y (a rectangle).
+    let (project, blade) = mine_fan();
+    let t = build(&blade, &ToolingParams { tolerance: 0.5e-3, ..params(&project) });
+    assert_eq!(t.machining.len(), 2);
+    for (m, half) in t.machining.iter().zip(&t.moulds) {
+        let rotor = &part(&t, &m.part).mesh;
+        let f = m.frame;
+        for a in 0..3 {
+            for b in 0..3 {
+                let d: f64 = (0..3).map(|k| f.axes[a][k] * f.axes[b][k]).sum();
+                assert!((d - if a == b { 1.0 } else { 0.0 }).abs() < 1e-12, "orthonormal axes");
+            }
+        }
+        let z: f64 = (0..3).map(|k| f.axes[2][k] * half.pull[k]).sum();
+        assert!((z + 1.0).abs() < 1e-12, "{}: the cavity opens against the half's pull", m.part);
+        let mut worst = 0.0f64;
+        for (p, q) in rotor.vertices.iter().zip(&m.mesh.vertices) {
+            assert!(q.iter().all(|&c| c >= 0.0), "{}: {q:?} outside the positive octant", m.name);
+            let back = f.to_rotor(*q);
+            worst = worst.max((0..3).map(|k| (back[k] - p[k]).abs()).fold(0.0, f64::max));
+        }
+        assert!(worst < 1e-9, "{}: the transform back is off by {worst:e} m", m.name);
+        let mut table = 0.0;
+        for k in 0..m.mesh.len() {
+            let c = m.mesh.corners(k);
+            if c.iter().all(|p| p[2].abs() < 1e-12) {
+                assert!(m.mesh.triangle_normal(k)[2] < -0.999_999, "the back face faces down");
+                table += m.mesh.triangle_area(k);
+            }
+        }
+        let b = half.block_size;
+        assert!((table / (b[0] * b[1]) - 1.0).abs() < 1e-9, "{}: back face {table} m²", m.name);
+        let summary = check_solid(&m.mesh, &m.name, &CheckParams::default()).expect("checks");
+        assert!((summary.volume / rotor.signed_volume() - 1.0).abs() < 1e-12);
+    }
+}

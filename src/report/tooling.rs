@@ -15,7 +15,7 @@ use std::fmt::Write as _;
 use serde_json::{Value, json};
 
 use super::table::{Align, Table, fixed, sig4};
-use crate::tooling::{BladeTooling, LengthUnit, ToolingSummary, WrittenPart};
+use crate::tooling::{BladeTooling, LengthUnit, StaleFiles, ToolingSummary, WrittenPart};
 
 /// What `layloft tooling` reports.
 #[derive(Debug, Clone, Copy)]
@@ -24,12 +24,15 @@ pub struct ToolingReport<'a> {
     pub name: &'a str,
     /// The parts and what their construction found.
     pub tooling: &'a BladeTooling,
-    /// The files written, one per part in the order of `tooling.parts`.
+    /// The files written, one per part in the order of `tooling.parts`, then one per machined
+    /// part in the order of `tooling.machining`.
     pub written: &'a [WrittenPart],
     /// Masses and the melting check.
     pub summary: &'a ToolingSummary,
     /// STL format and unit, in words ("binary STL in mm").
     pub format: &'a str,
+    /// Files of an earlier run that the new set does not hold: removed or left in place.
+    pub stale: &'a StaleFiles,
 }
 
 /// `text` wrapped at 96 columns, the first line after `first`, the others after `rest`.
@@ -162,6 +165,56 @@ impl ToolingReport<'_> {
         table
     }
 
+    /// Each mould part's machining frame: file, axes and origin in the rotor frame.
+    fn machining_table(&self) -> Table {
+        let u = self.unit().symbol();
+        let mut table = Table::new(&[
+            ("part", Align::Left),
+            ("file", Align::Left),
+            ("X axis", Align::Left),
+            ("Y axis", Align::Left),
+            ("Z axis (cavity opens)", Align::Left),
+            (&format!("origin {u}"), Align::Left),
+        ]);
+        let v =
+            |a: [f64; 3]| format!("({}, {}, {})", fixed(a[0], 4), fixed(a[1], 4), fixed(a[2], 4));
+        for m in &self.tooling.machining {
+            let o = m.frame.origin;
+            table.row(vec![
+                m.part.clone(),
+                format!("{}.stl", m.name),
+                v(m.frame.axes[0]),
+                v(m.frame.axes[1]),
+                v(m.frame.axes[2]),
+                format!("({}, {}, {})", self.len(o[0]), self.len(o[1]), self.len(o[2])),
+            ]);
+        }
+        table
+    }
+
+    /// What became of the files of an earlier run, as lines (empty when nothing was there).
+    fn stale_lines(&self) -> Vec<String> {
+        let st = self.stale;
+        let mut lines = Vec::new();
+        if !st.remove.is_empty() {
+            lines.push(format!(
+                "removed {} file(s) of the earlier run that the new set no longer holds (listed in \
+                 its manifest, unchanged since): {}",
+                st.remove.len(),
+                st.remove.join(", ")
+            ));
+        }
+        for (file, why) in &st.kept {
+            lines.push(format!(
+                "{file}: of the earlier run, not in the new set, left in place ({why})"
+            ));
+        }
+        if let Some(why) = &st.unreadable {
+            lines.push(format!("the earlier manifest cannot be used, no old file removed: {why}"));
+        }
+        lines
+    }
+
     /// The summary as a block of the HTML report: the tables of [`ToolingReport::to_text`] with
     /// its masses, melting check and undercuts as paragraphs, warnings and notes.
     pub fn to_block(&self) -> super::ReportBlock {
@@ -207,6 +260,13 @@ impl ToolingReport<'_> {
             "Mould halves: pull direction, least draft and undercut.".into(),
             self.moulds_table(),
         ));
+        block.tables.push((
+            "Mould parts in their machining frames: p_rotor = origin + X x + Y y + Z z (axes and \
+             origin in the rotor frame); the back face lies on z = 0."
+                .into(),
+            self.machining_table(),
+        ));
+        block.notes.extend(self.stale_lines());
         for l in lines(&melt) {
             if l.starts_with("FAIL") {
                 block.warnings.push(format!("core alloy: {}", l.trim_start_matches("FAIL").trim()));
@@ -266,7 +326,27 @@ impl ToolingReport<'_> {
         self.ends_text(&mut s);
         self.melt_text(&mut s);
         self.moulds_text(&mut s);
+        self.machining_text(&mut s);
         s
+    }
+
+    fn machining_text(&self, s: &mut String) {
+        s.push('\n');
+        s.push_str(&wrap(
+            "Machining frames: each mould part again with the cavity opening along +Z, its back \
+             face on z = 0, in the positive octant; back to the rotor frame by p = origin + X x + \
+             Y y + Z z (axes and origin in the rotor frame)",
+            "",
+            "  ",
+        ));
+        s.push_str(&self.machining_table().render(2));
+        let lines = self.stale_lines();
+        if !lines.is_empty() {
+            let _ = writeln!(s, "\nFiles of the earlier run");
+            for l in lines {
+                s.push_str(&wrap(&l, "  ", "    "));
+            }
+        }
     }
 
     fn masses_text(&self, s: &mut String) {
@@ -547,6 +627,23 @@ impl ToolingReport<'_> {
                 "safety_note": melt.safety_note,
             },
             "moulds": halves,
+            "machining_frames": t.machining.iter().map(|m| json!({
+                "part": m.part,
+                "name": m.name,
+                "file": format!("{}.stl", m.name),
+                "x_axis": m.frame.axes[0].map(num),
+                "y_axis": m.frame.axes[1].map(num),
+                "z_axis": m.frame.axes[2].map(num),
+                "origin_m": m.frame.origin.map(num),
+            })).collect::<Vec<_>>(),
+            "earlier_files": {
+                "removed": self.stale.remove,
+                "left_in_place": self.stale.kept.iter().map(|(f, why)| json!({
+                    "file": f,
+                    "reason": why,
+                })).collect::<Vec<_>>(),
+                "manifest_unreadable": self.stale.unreadable,
+            },
             "allowances": {
                 "mould_expansion_factor": num(t.params.mould_expansion_factor),
                 "core_shrink_factor": num(t.params.core_shrink_factor),

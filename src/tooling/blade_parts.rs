@@ -9,9 +9,12 @@
 //!   to the front face of the next web, or to the thin trailing edge, where the last core closes
 //!   at the first chordwise position aft of the section's greatest depth where the inner surfaces
 //!   come within the least core thickness; behind that the shell is solid laminate. A web that
-//!   starts or ends inside the span closes the cores on either side with a bulkhead of its own
-//!   laminate thickness, normal to the pitch axis; the cores are numbered root segment first,
-//!   front to back within a segment.
+//!   starts or ends inside the span closes the cells it bounds (the two either side of it) with a
+//!   bulkhead of its own laminate thickness, normal to the pitch axis; a cell bounded by other
+//!   webs or the edges runs on through that radius as one core. The cores are numbered by the
+//!   span segment they start in, root first, front to back within a segment.
+//! - **Machining frames.** Each mould part is also given in its own frame (see
+//!   [`super::to_machining_frame`]): the cavity opens along +Z, the back face lies on z = 0.
 //! - **Shell.** The outer solid with every core as a cavity.
 //! - **Allowances.** The cast cores are written scaled by the shrink factor and the mould cavity
 //!   by the thermal-expansion factor, both about the rotor centre (so spherical ends stay spheres
@@ -22,11 +25,13 @@ use super::blade_surface::{BladeSurface, CoreCell, CoreEnd, CutBound, Side, core
 use super::error::MeshError;
 use super::grid::LoftParams;
 use super::loft::{LoftedSolid, loft_solid};
+use super::machining::{MachiningFrame, to_machining_frame};
 use super::mesh::Mesh;
 use super::mould::{MouldHalf, MouldParams, build_moulds};
 use super::stl::LengthUnit;
 use super::surface::EndKind;
 use super::trim::{EndTrim, Trims};
+use super::vec3;
 use crate::blade::{Blade, BladeSurfaces, Surface};
 use crate::input::ToolingSpec;
 use crate::interp::Pchip;
@@ -143,6 +148,13 @@ pub enum PartKind {
     MouldLower,
 }
 
+impl PartKind {
+    /// A part of the mould (machined, not cast or laid up).
+    pub fn is_mould(self) -> bool {
+        matches!(self, PartKind::MouldUpper | PartKind::MouldLower)
+    }
+}
+
 /// One part of the tooling.
 #[derive(Debug, Clone)]
 pub struct Part {
@@ -191,9 +203,35 @@ pub struct BladeTooling {
     pub pitch: Angle,
     /// The settings used.
     pub params: ToolingParams,
+    /// Each mould part again in its own machining frame (see [`MachinedPart`]).
+    pub machining: Vec<MachinedPart>,
 }
 
-/// A web that starts or ends inside the span: a bulkhead across the cores.
+/// A mould part in its machining frame: the casting leaves the cavity along +Z, the back face
+/// lies on z = 0, the part in the positive octant.
+#[derive(Debug, Clone)]
+pub struct MachinedPart {
+    /// The part's name in the rotor frame (`mould-upper`, ...).
+    pub part: String,
+    /// Its name in the machining frame, also its file name (`mould-upper-machining`).
+    pub name: String,
+    /// The mesh in the machining frame, m.
+    pub mesh: Mesh,
+    /// The motion back to the rotor frame.
+    pub frame: MachiningFrame,
+}
+
+/// A core cell through consecutive span segments: bounded in front by the leading-edge cut
+/// (`None`) or web `k`'s back face, behind by web `k`'s front face or the trailing-edge cut.
+#[derive(Debug, Clone, Copy)]
+struct CellSpan {
+    front: Option<usize>,
+    back: Option<usize>,
+    first: usize,
+    last: usize,
+}
+
+/// A web that starts or ends inside the span: a bulkhead across the cells it bounds.
 #[derive(Debug, Clone, Copy)]
 struct Bulkhead {
     r: f64,
@@ -313,19 +351,19 @@ pub fn build_tooling(
             (Trims::planes(r0, r1), Trims::planes(r0 + ends.root_laminate, r1 - ends.tip_laminate))
         }
     };
-    let mut cells: Vec<(CoreCell<'_>, Trims)> = Vec::new();
-    for seg in 0..=bulkheads.len() {
-        let lo = seg.checked_sub(1).map(|i| bulkheads[i]);
-        let hi = bulkheads.get(seg).copied();
+    // Each cell is bounded by the leading-edge cut or a web's back face in front, and a web's
+    // front face or the trailing-edge cut behind; it runs through every segment where that pair
+    // bounds a cell, so a bulkhead closes only the cells that end at it.
+    let segments: Vec<(Option<Bulkhead>, Option<Bulkhead>)> = (0..=bulkheads.len())
+        .map(|seg| (seg.checked_sub(1).map(|i| bulkheads[i]), bulkheads.get(seg).copied()))
+        .collect();
+    let mut spans: Vec<CellSpan> = Vec::new();
+    for (seg, &(lo, hi)) in segments.iter().enumerate() {
         let mid = match (lo, hi) {
             (Some(a), Some(b)) => 0.5 * (a.r + b.r),
             (Some(a), None) => 0.5 * (a.r + r1),
             (None, Some(b)) => 0.5 * (r0 + b.r),
             (None, None) => 0.5 * (r0 + r1),
-        };
-        let trims = Trims {
-            root: lo.map_or(inner_trims.root, |b| EndTrim::Plane { x: b.r + 0.5 * b.thickness }),
-            tip: hi.map_or(inner_trims.tip, |b| EndTrim::Plane { x: b.r - 0.5 * b.thickness }),
         };
         let active: Vec<usize> = (0..blade.webs().len())
             .filter(|&k| {
@@ -333,6 +371,28 @@ pub fn build_tooling(
                 mid >= w.r_start - 1e-9 && mid <= w.r_end + 1e-9
             })
             .collect();
+        let mut bounds = vec![None];
+        bounds.extend(active.iter().map(|&k| Some(k)));
+        bounds.push(None);
+        for pair in bounds.windows(2) {
+            let (front, back) = (pair[0], pair[1]);
+            match spans.iter_mut().find(|c| c.front == front && c.back == back && c.last + 1 == seg)
+            {
+                Some(c) => c.last = seg,
+                None => spans.push(CellSpan { front, back, first: seg, last: seg }),
+            }
+        }
+    }
+    let mut cells: Vec<(CoreCell<'_>, Trims)> = Vec::with_capacity(spans.len());
+    for c in &spans {
+        let trims = Trims {
+            root: segments[c.first]
+                .0
+                .map_or(inner_trims.root, |b| EndTrim::Plane { x: b.r + 0.5 * b.thickness }),
+            tip: segments[c.last]
+                .1
+                .map_or(inner_trims.tip, |b| EndTrim::Plane { x: b.r - 0.5 * b.thickness }),
+        };
         let face = |k: usize, sign: f64| {
             let w = blade.webs()[k].clone();
             let s = &surfaces;
@@ -341,13 +401,14 @@ pub fn build_tooling(
                 s.web_y(x, k) + sign * 0.5 * s.web_thickness(xr, k)
             }
         };
-        let mut front = CutBound::new(&inner, &radii, |x| le_cut.eval(x))?;
-        for &k in &active {
-            let back = CutBound::new(&inner, &radii, face(k, -1.0))?;
-            cells.push((CoreCell { inner: &inner, front, back }, trims));
-            front = CutBound::new(&inner, &radii, face(k, 1.0))?;
-        }
-        let back = CutBound::new(&inner, &radii, |x| te_cut.eval(x))?;
+        let front = match c.front {
+            None => CutBound::new(&inner, &radii, |x| le_cut.eval(x))?,
+            Some(k) => CutBound::new(&inner, &radii, face(k, 1.0))?,
+        };
+        let back = match c.back {
+            None => CutBound::new(&inner, &radii, |x| te_cut.eval(x))?,
+            Some(k) => CutBound::new(&inner, &radii, face(k, -1.0))?,
+        };
         cells.push((CoreCell { inner: &inner, front, back }, trims));
     }
 
@@ -388,6 +449,13 @@ pub fn build_tooling(
     let moulds = mould_parts(blade, &outer_solid, params, pitch, &mut parts)?;
     step("mould halves", progress);
     let root_extension = r0 - root_trim_x(&outer_solid);
+    let mut machining = Vec::new();
+    for (p, half) in parts.iter().filter(|p| p.kind.is_mould()).zip(&moulds) {
+        // The casting leaves a half's cavity against the half's own pull.
+        let (mesh, frame) = to_machining_frame(&p.mesh, vec3::scale(half.pull, -1.0))?;
+        let name = format!("{}-machining", p.name);
+        machining.push(MachinedPart { part: p.name.clone(), name, mesh, frame });
+    }
     Ok(BladeTooling {
         parts,
         core_ends,
@@ -397,6 +465,7 @@ pub fn build_tooling(
         moulds,
         pitch,
         params: params.clone(),
+        machining,
     })
 }
 
