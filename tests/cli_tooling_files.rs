@@ -184,3 +184,27 @@ fn a_changed_file_of_the_earlier_run_is_left_in_place_with_a_warning() {
     assert!(stderr.contains("core-4.stl belonged to the earlier run"), "{stderr}");
     assert!(!stdout.is_empty());
 }
+
+#[test]
+fn a_mould_material_gives_the_mould_masses() {
+    // Mass = volume × density (definition), with the demo's al-6082 record at 2700 kg/m³.
+    let dir = tempfile::tempdir().unwrap();
+    let toml = demo(dir.path(), false);
+    let text = std::fs::read_to_string(&toml).unwrap().replace(
+        "core_alloy = \"bi58sn42\"",
+        "core_alloy = \"bi58sn42\"\nmould_material = \"al-6082\"",
+    );
+    std::fs::write(&toml, text).unwrap();
+    let (json, stdout, _) = run(&toml, &dir.path().join("out"));
+    for p in json["parts"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .filter(|p| p["name"].as_str().unwrap().starts_with("mould"))
+    {
+        let (v, m) = (p["volume_m3"].as_f64().unwrap(), p["mass_kg"].as_f64().unwrap());
+        assert!((m / (v * 2700.0) - 1.0).abs() < 1e-12, "{p}");
+        assert!(p["mass_basis"].as_str().unwrap().contains("al-6082"));
+    }
+    assert!(!stdout.is_empty());
+}

@@ -119,6 +119,14 @@ impl ToolingParams {
         positive("chordal tolerance (m)", self.tolerance)?;
         positive("least core thickness (m)", self.min_core_thickness)?;
         positive("mould margin (m)", self.mould_margin)?;
+        let draft = self.min_draft.deg();
+        if !(0.0..=30.0).contains(&draft) {
+            return Err(MeshError::Parameter {
+                name: "least draft (degrees)".into(),
+                value: draft,
+                expected: "a draft of 0 to 30 degrees",
+            });
+        }
         for (name, f) in [
             ("mould expansion factor", self.mould_expansion_factor),
             ("core shrink factor", self.core_shrink_factor),
