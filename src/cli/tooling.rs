@@ -221,7 +221,7 @@ const SUMMARY_FILE: &str = "tooling-summary.json";
 /// Notes on stderr about undercuts, and warnings about a failed melting check; whether the
 /// melting check failed.
 pub fn tell(result: &Written, out: &Output) -> bool {
-    for h in &result.tooling.moulds {
+    for h in result.tooling.moulds.iter().chain(&result.tooling.end_pieces) {
         if !h.undercuts.is_empty() {
             out.note(&format!(
                 "the {} mould half has {:.1} cm² of undercut in {} regions (see the summary)",

@@ -140,14 +140,14 @@ impl ToolingReport<'_> {
     fn moulds_table(&self) -> Table {
         let t = self.tooling;
         let mut table = Table::new(&[
-            ("half", Align::Left),
+            ("part", Align::Left),
             ("pull (x, y, z)", Align::Left),
             ("least draft °", Align::Right),
             ("at", Align::Left),
             ("below least cm²", Align::Right),
             ("undercut cm²", Align::Right),
         ]);
-        for h in &t.moulds {
+        for h in t.moulds.iter().chain(&t.end_pieces) {
             table.row(vec![
                 h.side.to_string(),
                 format!(
@@ -257,7 +257,7 @@ impl ToolingReport<'_> {
             self.core_ends_table(),
         ));
         block.tables.push((
-            "Mould halves: pull direction, least draft and undercut.".into(),
+            "Mould parts: pull direction, least draft and undercut.".into(),
             self.moulds_table(),
         ));
         block.tables.push((
@@ -277,7 +277,7 @@ impl ToolingReport<'_> {
                 });
             }
         }
-        for h in &self.tooling.moulds {
+        for h in self.tooling.moulds.iter().chain(&self.tooling.end_pieces) {
             if !h.undercuts.is_empty() {
                 block.warnings.push(format!(
                     "the {} mould half has {} cm² of undercut in {} regions along its pull (worst {:.1}°)",
@@ -491,7 +491,7 @@ impl ToolingReport<'_> {
         ));
         let table = self.moulds_table();
         s.push_str(&table.render(2));
-        for h in &t.moulds {
+        for h in t.moulds.iter().chain(&t.end_pieces) {
             if h.undercuts.is_empty() {
                 let _ = writeln!(s, "  {} half: no undercuts", h.side);
                 continue;
@@ -513,6 +513,16 @@ impl ToolingReport<'_> {
             if h.undercuts.len() > 8 {
                 let _ = writeln!(s, "    and {} smaller regions", h.undercuts.len() - 8);
             }
+        }
+        if !t.end_pieces.is_empty() {
+            let names: Vec<&str> = t.end_pieces.iter().map(|e| e.side).collect();
+            let text = format!(
+                "end pieces ({}): the spherical end undercuts the halves' pull, so its cap is \
+                 moulded by a plug pulled along the span, bounded by the end ring carried along \
+                 the pitch axis to the block's end face; take the end pieces off first",
+                names.join(", ")
+            );
+            s.push_str(&wrap(&text, "  ", "    "));
         }
         let b = t.moulds[0].block_size;
         let text = format!(
@@ -627,6 +637,16 @@ impl ToolingReport<'_> {
                 "safety_note": melt.safety_note,
             },
             "moulds": halves,
+            "end_pieces": t.end_pieces.iter().map(|h| json!({
+                "part": h.side,
+                "pull": {"x": num(h.pull[0]), "y": num(h.pull[1]), "z": num(h.pull[2])},
+                "least_draft_deg": num(h.draft.min_draft.deg()),
+                "least_draft_at": point(h.draft.at.point),
+                "below_least_draft_area_m2": num(h.draft.below_min_area),
+                "undercut_area_m2": num(h.draft.undercut_area),
+                "cavity_area_m2": num(h.cavity_area),
+                "size_m": h.block_size.map(num),
+            })).collect::<Vec<_>>(),
             "machining_frames": t.machining.iter().map(|m| json!({
                 "part": m.part,
                 "name": m.name,

@@ -27,7 +27,7 @@ use super::grid::LoftParams;
 use super::loft::{LoftedSolid, loft_solid};
 use super::machining::{MachiningFrame, to_machining_frame};
 use super::mesh::Mesh;
-use super::mould::{MouldHalf, MouldParams, build_moulds};
+use super::mould::{MouldHalf, MouldParams, build_mould_parts};
 use super::stl::LengthUnit;
 use super::surface::EndKind;
 use super::trim::{EndTrim, Trims};
@@ -154,12 +154,14 @@ pub enum PartKind {
     MouldUpper,
     /// The lower mould half (pulled along −pull).
     MouldLower,
+    /// An end piece of the mould, pulled along the span.
+    MouldEnd,
 }
 
 impl PartKind {
     /// A part of the mould (machined, not cast or laid up).
     pub fn is_mould(self) -> bool {
-        matches!(self, PartKind::MouldUpper | PartKind::MouldLower)
+        matches!(self, PartKind::MouldUpper | PartKind::MouldLower | PartKind::MouldEnd)
     }
 }
 
@@ -211,6 +213,9 @@ pub struct BladeTooling {
     pub pitch: Angle,
     /// The settings used.
     pub params: ToolingParams,
+    /// The end pieces of the mould (root first), where a spherical end undercuts the halves:
+    /// pulled along the span, `side` "root end" or "tip end".
+    pub end_pieces: Vec<MouldHalf>,
     /// Each mould part again in its own machining frame (see [`MachinedPart`]).
     pub machining: Vec<MachinedPart>,
 }
@@ -260,7 +265,9 @@ struct Bulkhead {
 /// let params = ToolingParams { tolerance: 0.5e-3, ..ToolingParams::default() };
 /// let tooling = build_tooling(&blade, &params, &mut |_, _, _| {})?;
 /// let names: Vec<&str> = tooling.parts.iter().map(|p| p.name.as_str()).collect();
-/// assert_eq!(names, ["core-1", "core-2", "shell", "mould-upper", "mould-lower"]);
+/// let parts = ["core-1", "core-2", "shell", "mould-upper", "mould-lower"];
+/// // The spherical ends undercut the halves' pull: an end piece at each end.
+/// assert_eq!(names, [&parts[..], &["mould-root-end", "mould-tip-end"]].concat());
 /// // The least clearance to the duct is the rotor's tip clearance.
 /// let shell = &tooling.parts[2].mesh;
 /// let reach = shell.vertices.iter().map(|p| p.iter().map(|c| c * c).sum::<f64>().sqrt());
@@ -454,11 +461,13 @@ pub fn build_tooling(
         nominal_volume: shell_volume,
     });
     step("shell", progress);
-    let moulds = mould_parts(blade, &outer_solid, params, pitch, &mut parts)?;
+    let (moulds, end_pieces) = mould_parts(blade, &outer_solid, params, pitch, &mut parts)?;
     step("mould halves", progress);
     let root_extension = r0 - root_trim_x(&outer_solid);
     let mut machining = Vec::new();
-    for (p, half) in parts.iter().filter(|p| p.kind.is_mould()).zip(&moulds) {
+    for (p, half) in
+        parts.iter().filter(|p| p.kind.is_mould()).zip(moulds.iter().chain(&end_pieces))
+    {
         // The casting leaves a half's cavity against the half's own pull.
         let (mesh, frame) = to_machining_frame(&p.mesh, vec3::scale(half.pull, -1.0))?;
         let name = format!("{}-machining", p.name);
@@ -474,6 +483,7 @@ pub fn build_tooling(
         pitch,
         params: params.clone(),
         machining,
+        end_pieces,
     })
 }
 
@@ -485,7 +495,7 @@ fn mould_parts(
     params: &ToolingParams,
     pitch: Angle,
     parts: &mut Vec<Part>,
-) -> Result<[MouldHalf; 2], MeshError> {
+) -> Result<([MouldHalf; 2], Vec<MouldHalf>), MeshError> {
     let mut part = outer.clone();
     if params.mould_expansion_factor != 1.0 {
         part.mesh.scale(params.mould_expansion_factor);
@@ -501,16 +511,24 @@ fn mould_parts(
         unit: params.unit,
     };
     let chord_angle = |x: f64| blade.twist(x / params.mould_expansion_factor) + pitch;
-    let (meshes, halves) = build_moulds(&part, &chord_angle, &mould)?;
-    let [upper, lower] = meshes;
-    for (name, kind, mesh) in
-        [("mould-upper", PartKind::MouldUpper, upper), ("mould-lower", PartKind::MouldLower, lower)]
-    {
-        // A mould half is made as it is drawn: its volume is the block as written.
-        let nominal_volume = mesh.signed_volume();
-        parts.push(Part { name: name.into(), kind, mesh, nominal_volume });
+    let set = build_mould_parts(&part, &chord_angle, &mould)?;
+    let [upper, lower] = set.half_meshes;
+    let mut named = vec![
+        ("mould-upper".to_string(), PartKind::MouldUpper, upper),
+        ("mould-lower".to_string(), PartKind::MouldLower, lower),
+    ];
+    let mut ends = Vec::with_capacity(set.end_pieces.len());
+    for (mesh, piece) in set.end_pieces {
+        let name = format!("mould-{}", piece.side.replace(' ', "-"));
+        named.push((name, PartKind::MouldEnd, mesh));
+        ends.push(piece);
     }
-    Ok(halves)
+    for (name, kind, mesh) in named {
+        // A mould part is made as it is drawn: its volume is the part as written.
+        let nominal_volume = mesh.signed_volume();
+        parts.push(Part { name, kind, mesh, nominal_volume });
+    }
+    Ok((set.halves, ends))
 }
 
 /// The least x of the root ring: where the root sphere meets the farthest line.

@@ -85,7 +85,7 @@ pub use manifest::{
     stale_files,
 };
 pub use mesh::{BoundingBox, Mesh, box_mesh};
-pub use mould::{MouldHalf, MouldParams, Undercut, build_moulds};
+pub use mould::{MouldHalf, MouldParams, MouldParts, Undercut, build_mould_parts, build_moulds};
 pub use polygon::{loft_polygons, triangulate_polygon};
 pub use stl::{
     LengthUnit, StlFormat, StlOptions, WrittenPart, binary_header, encode_stl, write_parts,

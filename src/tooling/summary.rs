@@ -246,7 +246,7 @@ pub fn summarise(project: &Project, blade: &Blade, tooling: &BladeTooling) -> To
                 resin: resin_density.map(|r| p.nominal_volume * r),
                 basis: format!("laminate at the schedule's mean density {density:.0} kg/m³"),
             },
-            PartKind::MouldUpper | PartKind::MouldLower => match &mould {
+            PartKind::MouldUpper | PartKind::MouldLower | PartKind::MouldEnd => match &mould {
                 Some(m) => PartMass {
                     mass: Some(p.nominal_volume * m.density),
                     resin: None,
