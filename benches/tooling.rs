@@ -14,7 +14,8 @@ use layloft::blade::Blade;
 use layloft::input::read_project;
 use layloft::tooling::{
     ChainEnds, CheckParams, EndKind, FnSurface, LoftParams, Mesh, StlOptions, ToolingParams, Trims,
-    build_tooling, check_solid, encode_stl, loft_solid, summarise, write_parts, write_stl,
+    build_tooling, check_solid, encode_stl, loft_solid, summarise, write_part_set_with_progress,
+    write_parts, write_stl,
 };
 use layloft::units::Angle;
 
@@ -99,15 +100,19 @@ fn bench_demo(c: &mut Criterion) {
     g.bench_function("whole_run", |b| {
         b.iter(|| {
             let t = build_tooling(&blade, &params, &mut |_, _, _| {}).expect("the demo's tooling");
-            let parts: Vec<(&str, &Mesh)> = t
-                .parts
-                .iter()
-                .map(|p| (p.name.as_str(), &p.mesh))
-                .chain(t.machining.iter().map(|m| (m.name.as_str(), &m.mesh)))
-                .collect();
-            let w =
-                write_parts(dir.path(), &parts, &StlOptions::default(), &CheckParams::default())
-                    .expect("written");
+            let parts: Vec<(&str, &Mesh)> =
+                t.parts.iter().map(|p| (p.name.as_str(), &p.mesh)).collect();
+            let copies: Vec<(&str, &Mesh)> =
+                t.machining.iter().map(|m| (m.name.as_str(), &m.mesh)).collect();
+            let w = write_part_set_with_progress(
+                dir.path(),
+                &parts,
+                &copies,
+                &StlOptions::default(),
+                &CheckParams::default(),
+                &mut |_, _, _| {},
+            )
+            .expect("written");
             let summary = summarise(&project, &blade, &t);
             (w.len(), summary.masses.len())
         })

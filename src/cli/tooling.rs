@@ -19,7 +19,7 @@ use layloft::report::{ToolingReport, write_atomic};
 use layloft::tooling::{
     CheckParams, MANIFEST_FILE, Manifest, ManifestEntry, MeshError, StaleFiles, StlFormat,
     StlOptions, ToolingParams, build_tooling, remove_stale, sha256_hex, stale_files, summarise,
-    write_parts_with_progress,
+    write_part_set_with_progress,
 };
 use layloft::units::MM;
 
@@ -161,28 +161,33 @@ pub fn build_and_write(
     })
     .map_err(|e| mesh_failure(&project.file, e))?;
     drop(bar);
-    let parts: Vec<(&str, &layloft::tooling::Mesh)> = tooling
-        .parts
-        .iter()
-        .map(|p| (p.name.as_str(), &p.mesh))
-        .chain(tooling.machining.iter().map(|m| (m.name.as_str(), &m.mesh)))
-        .collect();
+    let parts: Vec<(&str, &layloft::tooling::Mesh)> =
+        tooling.parts.iter().map(|p| (p.name.as_str(), &p.mesh)).collect();
+    let copies: Vec<(&str, &layloft::tooling::Mesh)> =
+        tooling.machining.iter().map(|m| (m.name.as_str(), &m.mesh)).collect();
     // The new set, and what an earlier run left in the folder that it does not hold.
-    let mut set: Vec<String> = parts.iter().map(|(n, _)| format!("{n}.stl")).collect();
+    let mut set: Vec<String> =
+        parts.iter().chain(&copies).map(|(n, _)| format!("{n}.stl")).collect();
     set.push(SUMMARY_FILE.into());
     let stale = stale_files(dir, &set);
-    let bar = out.progress(2 * parts.len() as u64, "checking");
-    let written =
-        write_parts_with_progress(dir, &parts, stl, &CheckParams::default(), &mut |_, _, what| {
+    let bar = out.progress(2 * (parts.len() + copies.len()) as u64, "checking");
+    let written = write_part_set_with_progress(
+        dir,
+        &parts,
+        &copies,
+        stl,
+        &CheckParams::default(),
+        &mut |_, _, what| {
             bar.set_message(what);
             bar.inc(1);
-        })
-        .map_err(|e| match e {
-            Error::Mesh(m) => {
-                Failure::Run(anyhow!("a part failed its check, nothing was written: {m}"))
-            }
-            other => Failure::Run(other.into()),
-        })?;
+        },
+    )
+    .map_err(|e| match e {
+        Error::Mesh(m) => {
+            Failure::Run(anyhow!("a part failed its check, nothing was written: {m}"))
+        }
+        other => Failure::Run(other.into()),
+    })?;
     bar.finish();
     let summary = summarise(project, blade, &tooling);
     let format = format!(

@@ -88,8 +88,9 @@ pub use mesh::{BoundingBox, Mesh, box_mesh};
 pub use mould::{MouldHalf, MouldParams, MouldParts, Undercut, build_mould_parts, build_moulds};
 pub use polygon::{loft_polygons, triangulate_polygon};
 pub use stl::{
-    LengthUnit, StlFormat, StlOptions, WrittenPart, binary_header, encode_stl, write_parts,
-    write_parts_with_progress, write_stl, write_stl_digest,
+    LengthUnit, StlFormat, StlOptions, WrittenPart, binary_header, encode_stl,
+    write_part_set_with_progress, write_parts, write_parts_with_progress, write_stl,
+    write_stl_digest,
 };
 pub use summary::{
     MeltCheck, MeltFinding, PartMass, ScheduleContent, ToolingSummary, melt_check,

@@ -261,6 +261,23 @@ pub fn write_parts_with_progress(
     check: &CheckParams,
     progress: &mut dyn FnMut(usize, usize, &str),
 ) -> Result<Vec<WrittenPart>, Error> {
+    write_part_set_with_progress(dir, parts, &[], options, check, progress)
+}
+
+/// [`write_parts_with_progress`] for `parts` and `copies`, rigid motions of parts among `parts`
+/// (a mould part in its machining frame): a copy is checked like every part except for
+/// self-intersection, which a rigid motion cannot create; all are checked before any is written.
+pub fn write_part_set_with_progress(
+    dir: &Path,
+    parts: &[(&str, &Mesh)],
+    copies: &[(&str, &Mesh)],
+    options: &StlOptions,
+    check: &CheckParams,
+    progress: &mut dyn FnMut(usize, usize, &str),
+) -> Result<Vec<WrittenPart>, Error> {
+    let full = parts.len();
+    let parts: Vec<(&str, &Mesh)> = parts.iter().chain(copies).copied().collect();
+    let parts = parts.as_slice();
     let total = 2 * parts.len();
     let check = CheckParams { unit: options.unit, ..check.clone() };
     let mut done = Vec::with_capacity(parts.len());
@@ -269,7 +286,9 @@ pub fn write_parts_with_progress(
         if parts[..i].iter().any(|&(other, _)| other == name) {
             return Err(MeshError::DuplicatePart(name.into()).into());
         }
-        let summary = check_solid(mesh, name, &check)?;
+        let own =
+            CheckParams { self_intersection: check.self_intersection && i < full, ..check.clone() };
+        let summary = check_solid(mesh, name, &own)?;
         let rounded = as_written(mesh, name, options.unit)?;
         check_solid(&rounded, name, &CheckParams { self_intersection: false, ..check.clone() })?;
         done.push(WrittenPart {
