@@ -1,6 +1,7 @@
 //! Tooling kernel: loft and write about two million triangles (binary STL), and check them; and
 //! the whole tooling of the invented mine-fan demo (`layups/mine-fan/`): cores, shell and mould
-//! halves built, then checked and written as `layloft tooling` does.
+//! halves built, then checked and written as `layloft tooling` does (`whole_run`: with the
+//! machining copies, the digests and the masses).
 //!
 //! Run with `cargo bench --bench tooling`. The input is fixed (no randomness): an invented
 //! straight NACA 0012 blade, 0.10 m chord, 30° of twist per metre, trimmed by spheres of
@@ -13,7 +14,8 @@ use layloft::blade::Blade;
 use layloft::input::read_project;
 use layloft::tooling::{
     ChainEnds, CheckParams, EndKind, FnSurface, LoftParams, Mesh, StlOptions, ToolingParams, Trims,
-    build_tooling, check_solid, encode_stl, loft_solid, write_parts, write_stl,
+    build_tooling, check_solid, encode_stl, loft_solid, summarise, write_part_set_with_progress,
+    write_parts, write_stl,
 };
 use layloft::units::Angle;
 
@@ -92,6 +94,28 @@ fn bench_demo(c: &mut Criterion) {
     g.sample_size(10);
     g.bench_function("build_parts", |b| {
         b.iter(|| build_tooling(&blade, &params, &mut |_, _, _| {}).map(|t| t.parts.len()))
+    });
+    // The whole run of `layloft tooling`: parts built, every part and machining copy checked and
+    // written with its digest, masses summarised (the demo's goal: under 2 s).
+    g.bench_function("whole_run", |b| {
+        b.iter(|| {
+            let t = build_tooling(&blade, &params, &mut |_, _, _| {}).expect("the demo's tooling");
+            let parts: Vec<(&str, &Mesh)> =
+                t.parts.iter().map(|p| (p.name.as_str(), &p.mesh)).collect();
+            let copies: Vec<(&str, &Mesh)> =
+                t.machining.iter().map(|m| (m.name.as_str(), &m.mesh)).collect();
+            let w = write_part_set_with_progress(
+                dir.path(),
+                &parts,
+                &copies,
+                &StlOptions::default(),
+                &CheckParams::default(),
+                &mut |_, _, _| {},
+            )
+            .expect("written");
+            let summary = summarise(&project, &blade, &t);
+            (w.len(), summary.masses.len())
+        })
     });
     g.bench_function("check_and_write_parts", |b| {
         b.iter(|| {

@@ -39,6 +39,15 @@ fn the_mine_fan_demo_writes_closed_outward_parts_and_a_summary() {
     let parts = ["core-1", "core-2", "shell", "mould-upper", "mould-lower"];
     let mut want: Vec<String> = parts.iter().map(|p| format!("{p}.stl")).collect();
     want.push("tooling-summary.json".into());
+    // Each mould half again in its machining frame, and the manifest of the set.
+    want.push("mould-upper-machining.stl".into());
+    want.push("mould-lower-machining.stl".into());
+    want.push("tooling-manifest.json".into());
+    // The demo's spherical ends undercut the halves: an end piece at each end, also machined.
+    for end in ["root", "tip"] {
+        want.push(format!("mould-{end}-end.stl"));
+        want.push(format!("mould-{end}-end-machining.stl"));
+    }
     want.sort();
     assert_eq!(names, want, "no temporary files or other leftovers");
     let json: Value = serde_json::from_str(&stdout).unwrap_or_else(|e| panic!("{e}: {stdout}"));
@@ -79,7 +88,8 @@ fn the_mine_fan_demo_writes_closed_outward_parts_and_a_summary() {
         assert!(!half["undercuts"].as_array().unwrap().is_empty());
         assert_eq!(half["locators"].as_array().unwrap().len(), 3);
     }
-    assert!(stderr.contains("wrote 5 STL files"), "{stderr}");
+    // Five parts and the two end pieces.
+    assert!(stderr.contains("wrote 7 STL files"), "{stderr}");
 }
 
 #[test]

@@ -26,8 +26,8 @@ use support_stl::closed_outward;
 
 use layloft::tooling::{
     ChainEnds, CheckParams, EndKind, FnSurface, LengthUnit, LoftParams, Mesh, MeshError,
-    MouldParams, SpanSurface, StlFormat, StlOptions, Trims, box_mesh, build_moulds, check_solid,
-    loft_annulus, loft_hollow, loft_solid, split_cells, write_parts,
+    MouldParams, SpanSurface, StlFormat, StlOptions, Trims, box_mesh, build_mould_parts,
+    build_moulds, check_solid, loft_annulus, loft_hollow, loft_solid, split_cells, write_parts,
 };
 use layloft::units::Angle;
 
@@ -612,4 +612,51 @@ fn a_twisted_blade_has_undercuts_of_its_twist_from_a_mould_parted_at_its_middle_
     }
     let (a, b) = (halves[0].draft.undercut_area, halves[1].draft.undercut_area);
     assert!((a / b - 1.0).abs() < 1e-6, "upper {a} vs lower {b} m²");
+}
+
+#[test]
+fn a_prism_with_square_ends_needs_two_parts_and_with_spherical_ends_end_pieces() {
+    // NACA 0012 prism pulled normal to its chord. Square ends face along the parting plane (draft
+    // 0, no undercut): two parts. Ends on spheres about the rotor centre: the concave root end
+    // faces the rotor centre, n = −p/|p|, so n · (+z) = −z/|p| < 0 on the upper half's share
+    // (z > 0) and likewise below: each half undercuts it, and an end piece pulled along −x takes
+    // it, where its cap draws at asin(x/|p|). The convex tip end, n = p/|p|, draws on both halves
+    // (n · (±z) = |z|/|p| ≥ 0): no piece there (geometry).
+    let blade = naca_blade(0.1, [0.2, 0.8], |_x| Angle::ZERO);
+    let square = loft_solid(&blade, &Trims::planes(0.3, 0.7), &params(1e-4)).unwrap();
+    let set = build_mould_parts(&square, &|_x| Angle::ZERO, &mould_params()).unwrap();
+    assert!(set.end_pieces.is_empty());
+    for (mesh, half) in set.half_meshes.iter().zip(&set.halves) {
+        check(mesh, half.side);
+    }
+    let round = loft_solid(&blade, &Trims::spheres(0.3, 0.7), &params(1e-4)).unwrap();
+    let set = build_mould_parts(&round, &|_x| Angle::ZERO, &mould_params()).unwrap();
+    let sides: Vec<&str> = set.end_pieces.iter().map(|(_, h)| h.side).collect();
+    assert_eq!(sides, ["root end"]);
+    for (mesh, half) in set.half_meshes.iter().zip(&set.halves) {
+        check(mesh, half.side);
+        assert!(half.undercuts.is_empty(), "{}: {:?}", half.side, half.undercuts);
+    }
+    for (mesh, piece) in &set.end_pieces {
+        check(mesh, piece.side);
+        // The least |p| over the cap is the sphere radius and x ≥ 0.3 · cos of the half chord's
+        // angle: asin(x/|p|) stays above 75°.
+        assert!(
+            piece.draft.min_draft.deg() > 75.0,
+            "{}: {}",
+            piece.side,
+            piece.draft.min_draft.deg()
+        );
+        assert!(piece.undercuts.is_empty());
+    }
+    // The parts fill the block but for the sockets' clearance, as for two halves.
+    let v: f64 = set.half_meshes.iter().map(|m| m.signed_volume()).sum::<f64>()
+        + set.end_pieces.iter().map(|(m, _)| m.signed_volume()).sum::<f64>()
+        + round.mesh.signed_volume();
+    let [x, y, z] = set.halves[0].block_size;
+    let gap = x * y * z - v;
+    let (rb, h) = (0.02 / 6.0, 0.02 / 3.0);
+    let rt = rb - h * 10f64.to_radians().tan();
+    let bound = 3.0 * 1e-4 * PI * ((rb + rt) * h * 1.1 + rt * rt) * 1.1;
+    assert!(gap > 0.0 && gap < bound, "{gap:e} vs {bound:e}");
 }

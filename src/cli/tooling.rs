@@ -17,8 +17,9 @@ use layloft::blade::Blade;
 use layloft::input::{Project, read_project};
 use layloft::report::{ToolingReport, write_atomic};
 use layloft::tooling::{
-    CheckParams, MeshError, StlFormat, StlOptions, ToolingParams, build_tooling, summarise,
-    write_parts_with_progress,
+    CheckParams, MANIFEST_FILE, Manifest, ManifestEntry, MeshError, StaleFiles, StlFormat,
+    StlOptions, ToolingParams, build_tooling, remove_stale, sha256_hex, stale_files, summarise,
+    write_part_set_with_progress,
 };
 use layloft::units::MM;
 
@@ -30,7 +31,11 @@ Examples:
   layloft tooling layups/mine-fan/blade.toml --out meshes --ascii --tolerance-mm 0.05 --json
 
 Writes one STL file per part into the folder (core-1.stl, core-2.stl, ..., shell.stl,
-mould-upper.stl, mould-lower.stl) and tooling-summary.json. Every part is checked (closed,
+mould-upper.stl, mould-lower.stl), each mould part again in its machining frame
+(mould-upper-machining.stl, ...), tooling-summary.json and tooling-manifest.json (every file of
+the set with its size and SHA-256). Files of an earlier run that the new set no longer holds are
+removed, but only those the earlier manifest lists and that are unchanged since; any other file
+in the folder is left alone. Every part is checked (closed,
 2-manifold, outward, no degenerate or intersecting facets) before any file is written. The
 [tooling] table of the project is optional; without it the stated defaults apply (mm, 0.1 mm
 tolerance, 30 mm block margin, 2 mm least core thickness) and the core-alloy mass is not computed.
@@ -120,6 +125,8 @@ pub struct Written {
     pub summary: layloft::tooling::ToolingSummary,
     /// "binary STL in mm".
     pub format: String,
+    /// Files of an earlier run in the folder that the new set does not hold.
+    pub stale: StaleFiles,
 }
 
 impl Written {
@@ -131,6 +138,7 @@ impl Written {
             written: &self.written,
             summary: &self.summary,
             format: &self.format,
+            stale: &self.stale,
         }
     }
 }
@@ -155,18 +163,31 @@ pub fn build_and_write(
     drop(bar);
     let parts: Vec<(&str, &layloft::tooling::Mesh)> =
         tooling.parts.iter().map(|p| (p.name.as_str(), &p.mesh)).collect();
-    let bar = out.progress(2 * parts.len() as u64, "checking");
-    let written =
-        write_parts_with_progress(dir, &parts, stl, &CheckParams::default(), &mut |_, _, what| {
+    let copies: Vec<(&str, &layloft::tooling::Mesh)> =
+        tooling.machining.iter().map(|m| (m.name.as_str(), &m.mesh)).collect();
+    // The new set, and what an earlier run left in the folder that it does not hold.
+    let mut set: Vec<String> =
+        parts.iter().chain(&copies).map(|(n, _)| format!("{n}.stl")).collect();
+    set.push(SUMMARY_FILE.into());
+    let stale = stale_files(dir, &set);
+    let bar = out.progress(2 * (parts.len() + copies.len()) as u64, "checking");
+    let written = write_part_set_with_progress(
+        dir,
+        &parts,
+        &copies,
+        stl,
+        &CheckParams::default(),
+        &mut |_, _, what| {
             bar.set_message(what);
             bar.inc(1);
-        })
-        .map_err(|e| match e {
-            Error::Mesh(m) => {
-                Failure::Run(anyhow!("a part failed its check, nothing was written: {m}"))
-            }
-            other => Failure::Run(other.into()),
-        })?;
+        },
+    )
+    .map_err(|e| match e {
+        Error::Mesh(m) => {
+            Failure::Run(anyhow!("a part failed its check, nothing was written: {m}"))
+        }
+        other => Failure::Run(other.into()),
+    })?;
     bar.finish();
     let summary = summarise(project, blade, &tooling);
     let format = format!(
@@ -174,18 +195,38 @@ pub fn build_and_write(
         if stl.format == StlFormat::Ascii { "ASCII" } else { "binary" },
         stl.unit.symbol()
     );
-    let result = Written { tooling, written, summary, format };
+    let result = Written { tooling, written, summary, format, stale };
     let json = serde_json::to_string_pretty(&result.report(&project.name).to_json())
         .map_err(|e| Failure::Run(anyhow!("cannot format the JSON summary: {e}")))?;
-    write_atomic(&dir.join("tooling-summary.json"), json.as_bytes())
+    write_atomic(&dir.join(SUMMARY_FILE), json.as_bytes()).map_err(|e| Failure::Run(e.into()))?;
+    let mut files: Vec<ManifestEntry> = result
+        .written
+        .iter()
+        .map(|w| ManifestEntry {
+            file: file_name(&w.path),
+            size_bytes: w.size_bytes,
+            sha256: w.sha256.clone(),
+        })
+        .collect();
+    files.push(ManifestEntry {
+        file: SUMMARY_FILE.into(),
+        size_bytes: json.len() as u64,
+        sha256: sha256_hex(json.as_bytes()),
+    });
+    let manifest = Manifest::new(stl.unit.symbol(), files);
+    write_atomic(&dir.join(MANIFEST_FILE), manifest.to_json().as_bytes())
         .map_err(|e| Failure::Run(e.into()))?;
+    remove_stale(dir, &result.stale).map_err(|e| Failure::Run(e.into()))?;
     Ok(result)
 }
+
+/// File name of the tooling summary in the output folder.
+const SUMMARY_FILE: &str = "tooling-summary.json";
 
 /// Notes on stderr about undercuts, and warnings about a failed melting check; whether the
 /// melting check failed.
 pub fn tell(result: &Written, out: &Output) -> bool {
-    for h in &result.tooling.moulds {
+    for h in result.tooling.moulds.iter().chain(&result.tooling.end_pieces) {
         if !h.undercuts.is_empty() {
             out.note(&format!(
                 "the {} mould half has {:.1} cm² of undercut in {} regions (see the summary)",
@@ -194,6 +235,22 @@ pub fn tell(result: &Written, out: &Output) -> bool {
                 h.undercuts.len()
             ));
         }
+    }
+    let stale = &result.stale;
+    if !stale.remove.is_empty() {
+        out.note(&format!(
+            "removed {} file(s) of the earlier run that the new set no longer holds: {}",
+            stale.remove.len(),
+            stale.remove.join(", ")
+        ));
+    }
+    for (file, why) in &stale.kept {
+        out.warn(&format!(
+            "{file} belonged to the earlier run and is not in the new set; left in place ({why})"
+        ));
+    }
+    if let Some(why) = &stale.unreadable {
+        out.warn(&format!("the earlier manifest cannot be used, no old file removed: {why}"));
     }
     let melt = &result.summary.melt;
     for f in melt.findings.iter().filter(|f| f.passed == Some(false)) {
@@ -221,9 +278,9 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         out.data(&report.to_text());
     }
     out.note(&format!(
-        "wrote {} STL files and {} into {}",
-        result.written.len(),
-        file_name(&args.out.join("tooling-summary.json")),
+        "wrote {} STL files (and {} in machining frames), {SUMMARY_FILE} and {MANIFEST_FILE} into {}",
+        result.tooling.parts.len(),
+        result.tooling.machining.len(),
         args.out.display()
     ));
     Ok(if tell(&result, out) { Outcome::CheckFailed } else { Outcome::Success })

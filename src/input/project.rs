@@ -288,6 +288,8 @@ pub struct Criteria {
 pub struct ToolingSpec {
     /// Core alloy, a record of the materials file with density and melting range.
     pub core_alloy: Option<String>,
+    /// Mould material, an `[isotropic.NAME]` record whose density gives the mould parts' masses.
+    pub mould_material: Option<String>,
     /// Resin injection temperature, °C.
     pub injection_temperature_c: Option<f64>,
     /// Resin gel temperature, °C.
@@ -314,6 +316,7 @@ impl Default for ToolingSpec {
     fn default() -> Self {
         ToolingSpec {
             core_alloy: None,
+            mould_material: None,
             injection_temperature_c: None,
             gel_temperature_c: None,
             cure_temperature_c: None,

@@ -19,7 +19,8 @@
 //!   `max_mass_kg`, `max_tip_deflection_m`;
 //! - `[tooling]`: `core_alloy`, `injection_temperature_C`, `gel_temperature_C`,
 //!   `cure_temperature_C`, `mould_margin_m` (0.03), `stl_unit` ("mm" or "m"), `tolerance_mm`
-//!   (0.1), `mould_expansion_factor` (1), `core_shrink_factor` (1), `min_draft_deg` (1),
+//!   (0.1), `mould_expansion_factor` (1), `core_shrink_factor` (1), `min_draft_deg` (1, from 0 to 30),
+//!   `mould_material` (an `[isotropic.NAME]` record; its density gives the mould masses),
 //!   `min_core_thickness_mm` (2);
 //! - `[modal]`: `elements` (40), `modes` (8), `rpm_step`, `[modal.root_springs]` with
 //!   `axial_N_m`, `flap_Nm_rad`, `edge_Nm_rad`, `torsion_Nm_rad`;
@@ -468,6 +469,22 @@ fn read_tooling(
             Err(e) => return Err(t.error("core_alloy", e.to_string())),
         }
     }
+    let mould_material = t.optional_str("mould_material")?;
+    if let Some(name) = &mould_material {
+        match materials.get(name) {
+            Ok(Material::Isotropic(i)) if i.density.is_finite() && i.density > 0.0 => {}
+            Ok(Material::Isotropic(i)) => {
+                return Err(t.error(
+                    "mould_material",
+                    format!("'{name}' has density_kg_m3 = {}: expected a positive density for the mould masses", i.density),
+                ));
+            }
+            Ok(Material::Lamina(_)) => {
+                return Err(t.error("mould_material", format!("'{name}' is a lamina: expected an [isotropic.NAME] record with density_kg_m3 (a tooling board, an aluminium alloy)")));
+            }
+            Err(e) => return Err(t.error("mould_material", e.to_string())),
+        }
+    }
     let stl_unit = t.optional_str("stl_unit")?.unwrap_or(d.stl_unit);
     if stl_unit != "mm" && stl_unit != "m" {
         return Err(t.error("stl_unit", format!("expected \"mm\" or \"m\", found \"{stl_unit}\"")));
@@ -499,7 +516,16 @@ fn read_tooling(
         }
         None => d.mould_margin,
     };
-    let min_draft = Angle::from_deg(t.optional_f64("min_draft_deg")?.unwrap_or(d.min_draft.deg()));
+    let min_draft = match t.optional_f64("min_draft_deg")? {
+        Some(v) if (0.0..=30.0).contains(&v) => Angle::from_deg(v),
+        Some(v) => {
+            return Err(t.error(
+                "min_draft_deg",
+                format!("expected a least draft of 0 to 30 degrees, found {v}"),
+            ));
+        }
+        None => d.min_draft,
+    };
     let min_core_thickness = match t.optional_f64("min_core_thickness_mm")? {
         Some(v) if v > 0.0 => v * MM,
         Some(v) => {
@@ -512,6 +538,7 @@ fn read_tooling(
     };
     Ok(ToolingSpec {
         core_alloy,
+        mould_material,
         injection_temperature_c: t.optional_f64("injection_temperature_C")?,
         gel_temperature_c: t.optional_f64("gel_temperature_C")?,
         cure_temperature_c: t.optional_f64("cure_temperature_C")?,

@@ -15,7 +15,7 @@ use std::fmt::Write as _;
 use serde_json::{Value, json};
 
 use super::table::{Align, Table, fixed, sig4};
-use crate::tooling::{BladeTooling, LengthUnit, ToolingSummary, WrittenPart};
+use crate::tooling::{BladeTooling, LengthUnit, StaleFiles, ToolingSummary, WrittenPart};
 
 /// What `layloft tooling` reports.
 #[derive(Debug, Clone, Copy)]
@@ -24,12 +24,15 @@ pub struct ToolingReport<'a> {
     pub name: &'a str,
     /// The parts and what their construction found.
     pub tooling: &'a BladeTooling,
-    /// The files written, one per part in the order of `tooling.parts`.
+    /// The files written, one per part in the order of `tooling.parts`, then one per machined
+    /// part in the order of `tooling.machining`.
     pub written: &'a [WrittenPart],
     /// Masses and the melting check.
     pub summary: &'a ToolingSummary,
     /// STL format and unit, in words ("binary STL in mm").
     pub format: &'a str,
+    /// Files of an earlier run that the new set does not hold: removed or left in place.
+    pub stale: &'a StaleFiles,
 }
 
 /// `text` wrapped at 96 columns, the first line after `first`, the others after `rest`.
@@ -137,14 +140,14 @@ impl ToolingReport<'_> {
     fn moulds_table(&self) -> Table {
         let t = self.tooling;
         let mut table = Table::new(&[
-            ("half", Align::Left),
+            ("part", Align::Left),
             ("pull (x, y, z)", Align::Left),
             ("least draft °", Align::Right),
             ("at", Align::Left),
             ("below least cm²", Align::Right),
             ("undercut cm²", Align::Right),
         ]);
-        for h in &t.moulds {
+        for h in t.moulds.iter().chain(&t.end_pieces) {
             table.row(vec![
                 h.side.to_string(),
                 format!(
@@ -160,6 +163,56 @@ impl ToolingReport<'_> {
             ]);
         }
         table
+    }
+
+    /// Each mould part's machining frame: file, axes and origin in the rotor frame.
+    fn machining_table(&self) -> Table {
+        let u = self.unit().symbol();
+        let mut table = Table::new(&[
+            ("part", Align::Left),
+            ("file", Align::Left),
+            ("X axis", Align::Left),
+            ("Y axis", Align::Left),
+            ("Z axis (cavity opens)", Align::Left),
+            (&format!("origin {u}"), Align::Left),
+        ]);
+        let v =
+            |a: [f64; 3]| format!("({}, {}, {})", fixed(a[0], 4), fixed(a[1], 4), fixed(a[2], 4));
+        for m in &self.tooling.machining {
+            let o = m.frame.origin;
+            table.row(vec![
+                m.part.clone(),
+                format!("{}.stl", m.name),
+                v(m.frame.axes[0]),
+                v(m.frame.axes[1]),
+                v(m.frame.axes[2]),
+                format!("({}, {}, {})", self.len(o[0]), self.len(o[1]), self.len(o[2])),
+            ]);
+        }
+        table
+    }
+
+    /// What became of the files of an earlier run, as lines (empty when nothing was there).
+    fn stale_lines(&self) -> Vec<String> {
+        let st = self.stale;
+        let mut lines = Vec::new();
+        if !st.remove.is_empty() {
+            lines.push(format!(
+                "removed {} file(s) of the earlier run that the new set no longer holds (listed in \
+                 its manifest, unchanged since): {}",
+                st.remove.len(),
+                st.remove.join(", ")
+            ));
+        }
+        for (file, why) in &st.kept {
+            lines.push(format!(
+                "{file}: of the earlier run, not in the new set, left in place ({why})"
+            ));
+        }
+        if let Some(why) = &st.unreadable {
+            lines.push(format!("the earlier manifest cannot be used, no old file removed: {why}"));
+        }
+        lines
     }
 
     /// The summary as a block of the HTML report: the tables of [`ToolingReport::to_text`] with
@@ -204,9 +257,16 @@ impl ToolingReport<'_> {
             self.core_ends_table(),
         ));
         block.tables.push((
-            "Mould halves: pull direction, least draft and undercut.".into(),
+            "Mould parts: pull direction, least draft and undercut.".into(),
             self.moulds_table(),
         ));
+        block.tables.push((
+            "Mould parts in their machining frames: p_rotor = origin + X x + Y y + Z z (axes and \
+             origin in the rotor frame); the back face lies on z = 0."
+                .into(),
+            self.machining_table(),
+        ));
+        block.notes.extend(self.stale_lines());
         for l in lines(&melt) {
             if l.starts_with("FAIL") {
                 block.warnings.push(format!("core alloy: {}", l.trim_start_matches("FAIL").trim()));
@@ -217,7 +277,7 @@ impl ToolingReport<'_> {
                 });
             }
         }
-        for h in &self.tooling.moulds {
+        for h in self.tooling.moulds.iter().chain(&self.tooling.end_pieces) {
             if !h.undercuts.is_empty() {
                 block.warnings.push(format!(
                     "the {} mould half has {} cm² of undercut in {} regions along its pull (worst {:.1}°)",
@@ -266,7 +326,27 @@ impl ToolingReport<'_> {
         self.ends_text(&mut s);
         self.melt_text(&mut s);
         self.moulds_text(&mut s);
+        self.machining_text(&mut s);
         s
+    }
+
+    fn machining_text(&self, s: &mut String) {
+        s.push('\n');
+        s.push_str(&wrap(
+            "Machining frames: each mould part again with the cavity opening along +Z, its back \
+             face on z = 0, in the positive octant; back to the rotor frame by p = origin + X x + \
+             Y y + Z z (axes and origin in the rotor frame)",
+            "",
+            "  ",
+        ));
+        s.push_str(&self.machining_table().render(2));
+        let lines = self.stale_lines();
+        if !lines.is_empty() {
+            let _ = writeln!(s, "\nFiles of the earlier run");
+            for l in lines {
+                s.push_str(&wrap(&l, "  ", "    "));
+            }
+        }
     }
 
     fn masses_text(&self, s: &mut String) {
@@ -411,7 +491,7 @@ impl ToolingReport<'_> {
         ));
         let table = self.moulds_table();
         s.push_str(&table.render(2));
-        for h in &t.moulds {
+        for h in t.moulds.iter().chain(&t.end_pieces) {
             if h.undercuts.is_empty() {
                 let _ = writeln!(s, "  {} half: no undercuts", h.side);
                 continue;
@@ -433,6 +513,16 @@ impl ToolingReport<'_> {
             if h.undercuts.len() > 8 {
                 let _ = writeln!(s, "    and {} smaller regions", h.undercuts.len() - 8);
             }
+        }
+        if !t.end_pieces.is_empty() {
+            let names: Vec<&str> = t.end_pieces.iter().map(|e| e.side).collect();
+            let text = format!(
+                "end pieces ({}): the spherical end undercuts the halves' pull, so its cap is \
+                 moulded by a plug pulled along the span, bounded by the end ring carried along \
+                 the pitch axis to the block's end face; take the end pieces off first",
+                names.join(", ")
+            );
+            s.push_str(&wrap(&text, "  ", "    "));
         }
         let b = t.moulds[0].block_size;
         let text = format!(
@@ -547,6 +637,33 @@ impl ToolingReport<'_> {
                 "safety_note": melt.safety_note,
             },
             "moulds": halves,
+            "end_pieces": t.end_pieces.iter().map(|h| json!({
+                "part": h.side,
+                "pull": {"x": num(h.pull[0]), "y": num(h.pull[1]), "z": num(h.pull[2])},
+                "least_draft_deg": num(h.draft.min_draft.deg()),
+                "least_draft_at": point(h.draft.at.point),
+                "below_least_draft_area_m2": num(h.draft.below_min_area),
+                "undercut_area_m2": num(h.draft.undercut_area),
+                "cavity_area_m2": num(h.cavity_area),
+                "size_m": h.block_size.map(num),
+            })).collect::<Vec<_>>(),
+            "machining_frames": t.machining.iter().map(|m| json!({
+                "part": m.part,
+                "name": m.name,
+                "file": format!("{}.stl", m.name),
+                "x_axis": m.frame.axes[0].map(num),
+                "y_axis": m.frame.axes[1].map(num),
+                "z_axis": m.frame.axes[2].map(num),
+                "origin_m": m.frame.origin.map(num),
+            })).collect::<Vec<_>>(),
+            "earlier_files": {
+                "removed": self.stale.remove,
+                "left_in_place": self.stale.kept.iter().map(|(f, why)| json!({
+                    "file": f,
+                    "reason": why,
+                })).collect::<Vec<_>>(),
+                "manifest_unreadable": self.stale.unreadable,
+            },
             "allowances": {
                 "mould_expansion_factor": num(t.params.mould_expansion_factor),
                 "core_shrink_factor": num(t.params.core_shrink_factor),

@@ -9,9 +9,12 @@
 //!   to the front face of the next web, or to the thin trailing edge, where the last core closes
 //!   at the first chordwise position aft of the section's greatest depth where the inner surfaces
 //!   come within the least core thickness; behind that the shell is solid laminate. A web that
-//!   starts or ends inside the span closes the cores on either side with a bulkhead of its own
-//!   laminate thickness, normal to the pitch axis; the cores are numbered root segment first,
-//!   front to back within a segment.
+//!   starts or ends inside the span closes the cells it bounds (the two either side of it) with a
+//!   bulkhead of its own laminate thickness, normal to the pitch axis; a cell bounded by other
+//!   webs or the edges runs on through that radius as one core. The cores are numbered by the
+//!   span segment they start in, root first, front to back within a segment.
+//! - **Machining frames.** Each mould part is also given in its own frame (see
+//!   [`super::to_machining_frame`]): the cavity opens along +Z, the back face lies on z = 0.
 //! - **Shell.** The outer solid with every core as a cavity.
 //! - **Allowances.** The cast cores are written scaled by the shrink factor and the mould cavity
 //!   by the thermal-expansion factor, both about the rotor centre (so spherical ends stay spheres
@@ -22,11 +25,13 @@ use super::blade_surface::{BladeSurface, CoreCell, CoreEnd, CutBound, Side, core
 use super::error::MeshError;
 use super::grid::LoftParams;
 use super::loft::{LoftedSolid, loft_solid};
+use super::machining::{MachiningFrame, to_machining_frame};
 use super::mesh::Mesh;
-use super::mould::{MouldHalf, MouldParams, build_moulds};
+use super::mould::{MouldHalf, MouldParams, build_mould_parts};
 use super::stl::LengthUnit;
 use super::surface::EndKind;
 use super::trim::{EndTrim, Trims};
+use super::vec3;
 use crate::blade::{Blade, BladeSurfaces, Surface};
 use crate::input::ToolingSpec;
 use crate::interp::Pchip;
@@ -114,6 +119,14 @@ impl ToolingParams {
         positive("chordal tolerance (m)", self.tolerance)?;
         positive("least core thickness (m)", self.min_core_thickness)?;
         positive("mould margin (m)", self.mould_margin)?;
+        let draft = self.min_draft.deg();
+        if !(0.0..=30.0).contains(&draft) {
+            return Err(MeshError::Parameter {
+                name: "least draft (degrees)".into(),
+                value: draft,
+                expected: "a draft of 0 to 30 degrees",
+            });
+        }
         for (name, f) in [
             ("mould expansion factor", self.mould_expansion_factor),
             ("core shrink factor", self.core_shrink_factor),
@@ -141,6 +154,15 @@ pub enum PartKind {
     MouldUpper,
     /// The lower mould half (pulled along −pull).
     MouldLower,
+    /// An end piece of the mould, pulled along the span.
+    MouldEnd,
+}
+
+impl PartKind {
+    /// A part of the mould (machined, not cast or laid up).
+    pub fn is_mould(self) -> bool {
+        matches!(self, PartKind::MouldUpper | PartKind::MouldLower | PartKind::MouldEnd)
+    }
 }
 
 /// One part of the tooling.
@@ -191,9 +213,38 @@ pub struct BladeTooling {
     pub pitch: Angle,
     /// The settings used.
     pub params: ToolingParams,
+    /// The end pieces of the mould (root first), where a spherical end undercuts the halves:
+    /// pulled along the span, `side` "root end" or "tip end".
+    pub end_pieces: Vec<MouldHalf>,
+    /// Each mould part again in its own machining frame (see [`MachinedPart`]).
+    pub machining: Vec<MachinedPart>,
 }
 
-/// A web that starts or ends inside the span: a bulkhead across the cores.
+/// A mould part in its machining frame: the casting leaves the cavity along +Z, the back face
+/// lies on z = 0, the part in the positive octant.
+#[derive(Debug, Clone)]
+pub struct MachinedPart {
+    /// The part's name in the rotor frame (`mould-upper`, ...).
+    pub part: String,
+    /// Its name in the machining frame, also its file name (`mould-upper-machining`).
+    pub name: String,
+    /// The mesh in the machining frame, m.
+    pub mesh: Mesh,
+    /// The motion back to the rotor frame.
+    pub frame: MachiningFrame,
+}
+
+/// A core cell through consecutive span segments: bounded in front by the leading-edge cut
+/// (`None`) or web `k`'s back face, behind by web `k`'s front face or the trailing-edge cut.
+#[derive(Debug, Clone, Copy)]
+struct CellSpan {
+    front: Option<usize>,
+    back: Option<usize>,
+    first: usize,
+    last: usize,
+}
+
+/// A web that starts or ends inside the span: a bulkhead across the cells it bounds.
 #[derive(Debug, Clone, Copy)]
 struct Bulkhead {
     r: f64,
@@ -214,7 +265,9 @@ struct Bulkhead {
 /// let params = ToolingParams { tolerance: 0.5e-3, ..ToolingParams::default() };
 /// let tooling = build_tooling(&blade, &params, &mut |_, _, _| {})?;
 /// let names: Vec<&str> = tooling.parts.iter().map(|p| p.name.as_str()).collect();
-/// assert_eq!(names, ["core-1", "core-2", "shell", "mould-upper", "mould-lower"]);
+/// let parts = ["core-1", "core-2", "shell", "mould-upper", "mould-lower"];
+/// // The spherical ends undercut the halves' pull: an end piece at each end.
+/// assert_eq!(names, [&parts[..], &["mould-root-end", "mould-tip-end"]].concat());
 /// // The least clearance to the duct is the rotor's tip clearance.
 /// let shell = &tooling.parts[2].mesh;
 /// let reach = shell.vertices.iter().map(|p| p.iter().map(|c| c * c).sum::<f64>().sqrt());
@@ -313,19 +366,19 @@ pub fn build_tooling(
             (Trims::planes(r0, r1), Trims::planes(r0 + ends.root_laminate, r1 - ends.tip_laminate))
         }
     };
-    let mut cells: Vec<(CoreCell<'_>, Trims)> = Vec::new();
-    for seg in 0..=bulkheads.len() {
-        let lo = seg.checked_sub(1).map(|i| bulkheads[i]);
-        let hi = bulkheads.get(seg).copied();
+    // Each cell is bounded by the leading-edge cut or a web's back face in front, and a web's
+    // front face or the trailing-edge cut behind; it runs through every segment where that pair
+    // bounds a cell, so a bulkhead closes only the cells that end at it.
+    let segments: Vec<(Option<Bulkhead>, Option<Bulkhead>)> = (0..=bulkheads.len())
+        .map(|seg| (seg.checked_sub(1).map(|i| bulkheads[i]), bulkheads.get(seg).copied()))
+        .collect();
+    let mut spans: Vec<CellSpan> = Vec::new();
+    for (seg, &(lo, hi)) in segments.iter().enumerate() {
         let mid = match (lo, hi) {
             (Some(a), Some(b)) => 0.5 * (a.r + b.r),
             (Some(a), None) => 0.5 * (a.r + r1),
             (None, Some(b)) => 0.5 * (r0 + b.r),
             (None, None) => 0.5 * (r0 + r1),
-        };
-        let trims = Trims {
-            root: lo.map_or(inner_trims.root, |b| EndTrim::Plane { x: b.r + 0.5 * b.thickness }),
-            tip: hi.map_or(inner_trims.tip, |b| EndTrim::Plane { x: b.r - 0.5 * b.thickness }),
         };
         let active: Vec<usize> = (0..blade.webs().len())
             .filter(|&k| {
@@ -333,6 +386,28 @@ pub fn build_tooling(
                 mid >= w.r_start - 1e-9 && mid <= w.r_end + 1e-9
             })
             .collect();
+        let mut bounds = vec![None];
+        bounds.extend(active.iter().map(|&k| Some(k)));
+        bounds.push(None);
+        for pair in bounds.windows(2) {
+            let (front, back) = (pair[0], pair[1]);
+            match spans.iter_mut().find(|c| c.front == front && c.back == back && c.last + 1 == seg)
+            {
+                Some(c) => c.last = seg,
+                None => spans.push(CellSpan { front, back, first: seg, last: seg }),
+            }
+        }
+    }
+    let mut cells: Vec<(CoreCell<'_>, Trims)> = Vec::with_capacity(spans.len());
+    for c in &spans {
+        let trims = Trims {
+            root: segments[c.first]
+                .0
+                .map_or(inner_trims.root, |b| EndTrim::Plane { x: b.r + 0.5 * b.thickness }),
+            tip: segments[c.last]
+                .1
+                .map_or(inner_trims.tip, |b| EndTrim::Plane { x: b.r - 0.5 * b.thickness }),
+        };
         let face = |k: usize, sign: f64| {
             let w = blade.webs()[k].clone();
             let s = &surfaces;
@@ -341,13 +416,14 @@ pub fn build_tooling(
                 s.web_y(x, k) + sign * 0.5 * s.web_thickness(xr, k)
             }
         };
-        let mut front = CutBound::new(&inner, &radii, |x| le_cut.eval(x))?;
-        for &k in &active {
-            let back = CutBound::new(&inner, &radii, face(k, -1.0))?;
-            cells.push((CoreCell { inner: &inner, front, back }, trims));
-            front = CutBound::new(&inner, &radii, face(k, 1.0))?;
-        }
-        let back = CutBound::new(&inner, &radii, |x| te_cut.eval(x))?;
+        let front = match c.front {
+            None => CutBound::new(&inner, &radii, |x| le_cut.eval(x))?,
+            Some(k) => CutBound::new(&inner, &radii, face(k, 1.0))?,
+        };
+        let back = match c.back {
+            None => CutBound::new(&inner, &radii, |x| te_cut.eval(x))?,
+            Some(k) => CutBound::new(&inner, &radii, face(k, -1.0))?,
+        };
         cells.push((CoreCell { inner: &inner, front, back }, trims));
     }
 
@@ -385,9 +461,18 @@ pub fn build_tooling(
         nominal_volume: shell_volume,
     });
     step("shell", progress);
-    let moulds = mould_parts(blade, &outer_solid, params, pitch, &mut parts)?;
+    let (moulds, end_pieces) = mould_parts(blade, &outer_solid, params, pitch, &mut parts)?;
     step("mould halves", progress);
     let root_extension = r0 - root_trim_x(&outer_solid);
+    let mut machining = Vec::new();
+    for (p, half) in
+        parts.iter().filter(|p| p.kind.is_mould()).zip(moulds.iter().chain(&end_pieces))
+    {
+        // The casting leaves a half's cavity against the half's own pull.
+        let (mesh, frame) = to_machining_frame(&p.mesh, vec3::scale(half.pull, -1.0))?;
+        let name = format!("{}-machining", p.name);
+        machining.push(MachinedPart { part: p.name.clone(), name, mesh, frame });
+    }
     Ok(BladeTooling {
         parts,
         core_ends,
@@ -397,6 +482,8 @@ pub fn build_tooling(
         moulds,
         pitch,
         params: params.clone(),
+        machining,
+        end_pieces,
     })
 }
 
@@ -408,7 +495,7 @@ fn mould_parts(
     params: &ToolingParams,
     pitch: Angle,
     parts: &mut Vec<Part>,
-) -> Result<[MouldHalf; 2], MeshError> {
+) -> Result<([MouldHalf; 2], Vec<MouldHalf>), MeshError> {
     let mut part = outer.clone();
     if params.mould_expansion_factor != 1.0 {
         part.mesh.scale(params.mould_expansion_factor);
@@ -424,16 +511,24 @@ fn mould_parts(
         unit: params.unit,
     };
     let chord_angle = |x: f64| blade.twist(x / params.mould_expansion_factor) + pitch;
-    let (meshes, halves) = build_moulds(&part, &chord_angle, &mould)?;
-    let [upper, lower] = meshes;
-    for (name, kind, mesh) in
-        [("mould-upper", PartKind::MouldUpper, upper), ("mould-lower", PartKind::MouldLower, lower)]
-    {
-        // A mould half is made as it is drawn: its volume is the block as written.
-        let nominal_volume = mesh.signed_volume();
-        parts.push(Part { name: name.into(), kind, mesh, nominal_volume });
+    let set = build_mould_parts(&part, &chord_angle, &mould)?;
+    let [upper, lower] = set.half_meshes;
+    let mut named = vec![
+        ("mould-upper".to_string(), PartKind::MouldUpper, upper),
+        ("mould-lower".to_string(), PartKind::MouldLower, lower),
+    ];
+    let mut ends = Vec::with_capacity(set.end_pieces.len());
+    for (mesh, piece) in set.end_pieces {
+        let name = format!("mould-{}", piece.side.replace(' ', "-"));
+        named.push((name, PartKind::MouldEnd, mesh));
+        ends.push(piece);
     }
-    Ok(halves)
+    for (name, kind, mesh) in named {
+        // A mould part is made as it is drawn: its volume is the part as written.
+        let nominal_volume = mesh.signed_volume();
+        parts.push(Part { name, kind, mesh, nominal_volume });
+    }
+    Ok((set.halves, ends))
 }
 
 /// The least x of the root ring: where the root sphere meets the farthest line.

@@ -55,6 +55,8 @@ mod error;
 mod grid;
 mod intersect;
 mod loft;
+mod machining;
+mod manifest;
 mod mesh;
 mod mould;
 mod mould_block;
@@ -68,7 +70,7 @@ mod trim;
 mod vec3;
 
 pub use blade_parts::{
-    BladeTooling, EndShape, EndSpheres, Part, PartKind, ToolingParams, build_tooling,
+    BladeTooling, EndShape, EndSpheres, MachinedPart, Part, PartKind, ToolingParams, build_tooling,
 };
 pub use blade_surface::CoreEnd;
 pub use cells::{Cell, WebPosition, split_cells};
@@ -77,12 +79,18 @@ pub use draft::{DraftReport, evaluate_draft};
 pub use error::{End, MeshError, Place};
 pub use grid::LoftParams;
 pub use loft::{FacetRanges, LoftedSolid, PartingLines, loft_annulus, loft_hollow, loft_solid};
+pub use machining::{MachiningFrame, to_machining_frame};
+pub use manifest::{
+    MANIFEST_FILE, Manifest, ManifestEntry, Sha256, StaleFiles, remove_stale, sha256_hex,
+    stale_files,
+};
 pub use mesh::{BoundingBox, Mesh, box_mesh};
-pub use mould::{MouldHalf, MouldParams, Undercut, build_moulds};
+pub use mould::{MouldHalf, MouldParams, MouldParts, Undercut, build_mould_parts, build_moulds};
 pub use polygon::{loft_polygons, triangulate_polygon};
 pub use stl::{
-    LengthUnit, StlFormat, StlOptions, WrittenPart, encode_stl, write_parts,
-    write_parts_with_progress, write_stl,
+    LengthUnit, StlFormat, StlOptions, WrittenPart, binary_header, encode_stl,
+    write_part_set_with_progress, write_parts, write_parts_with_progress, write_stl,
+    write_stl_digest,
 };
 pub use summary::{
     MeltCheck, MeltFinding, PartMass, ScheduleContent, ToolingSummary, melt_check,

@@ -25,6 +25,21 @@
 //! along +Z, the lower along −Z); undercut facets are grouped into connected regions, each
 //! reported with its area, its worst draft and where it is.
 //!
+//! **End pieces** ([`build_mould_parts`]). The search for the fewest parts starts from the two
+//! halves and adds a piece only where a half cannot leave the part: an end cap that has a facet
+//! turned away from either half's pull (a concave spherical root end always has; a square end,
+//! parallel to the pull, has not; a convex tip end has when the twist turns it). Such a cap goes
+//! to an end piece pulled along the span (−X at the root, +X at the tip): a plug bounded by the
+//! cap, the end ring carried along X to the block's end face, and that face. A point of the plug
+//! moved along −X (root) stays inside the trim sphere, and the part lies outside it, so the plug
+//! leaves the cap freely (for the tip likewise outward); its cap draws at `asin(x/|p|)`. The
+//! halves keep the rest: their share of the ring replaces the cap's middle line as a side of the
+//! parting loop, the rulings there become the bore wall along X, and the block's end face is
+//! triangulated round the bore. The end pieces come off first, then the halves. The plug's
+//! outline is the blade's end section, which seats it one way round when the section is
+//! cambered. Facets that still undercut on the halves' side surfaces (a twisted blade's nose
+//! near the root) are reported; further splits of a half are not made.
+//!
 //! [`PartingLines`]: super::PartingLines
 
 use super::draft::{DraftReport, evaluate_draft};
@@ -37,6 +52,8 @@ use super::stl::LengthUnit;
 use super::vec3::{self, P3};
 use crate::units::Angle;
 
+/// `n · d` below this is an undercut (as the draft evaluator counts it).
+const DRAFT_ROUND_OFF: f64 = 1e-9;
 /// Half-angle of the locating cones.
 const CONE_HALF_ANGLE_DEG: f64 = 10.0;
 /// Radial (and end) clearance of a socket round its pin, m.
@@ -166,12 +183,45 @@ fn split_faces(mesh: &Mesh, loop0: &[u32], seed: u32) -> Result<[Vec<usize>; 2],
 }
 
 /// Builds the upper and lower halves round `part` (see the module docs): their meshes
-/// (closed, outward, rotor frame) and what each is.
+/// (closed, outward, rotor frame) and what each is. The caps stay in the halves (no end pieces;
+/// see [`build_mould_parts`]).
 pub fn build_moulds(
     part: &LoftedSolid,
     chord_angle: &dyn Fn(f64) -> Angle,
     params: &MouldParams,
 ) -> Result<([Mesh; 2], [MouldHalf; 2]), MeshError> {
+    let set = build_mould_set(part, chord_angle, params, Some([false; 2]))?;
+    Ok((set.half_meshes, set.halves))
+}
+
+/// A mould of two halves and the end pieces the part's ends need.
+#[derive(Debug, Clone)]
+pub struct MouldParts {
+    /// The upper and the lower half, closed and outward, rotor frame, m.
+    pub half_meshes: [Mesh; 2],
+    /// What each half is.
+    pub halves: [MouldHalf; 2],
+    /// The end pieces (root first), each with what it is (`side` "root end" or "tip end").
+    pub end_pieces: Vec<(Mesh, MouldHalf)>,
+}
+
+/// Builds the halves round `part` and, at a cap that undercuts either half's pull, an end piece
+/// pulled along the span (see the module docs): the fewest parts for which no cavity facet
+/// undercuts at the caps.
+pub fn build_mould_parts(
+    part: &LoftedSolid,
+    chord_angle: &dyn Fn(f64) -> Angle,
+    params: &MouldParams,
+) -> Result<MouldParts, MeshError> {
+    build_mould_set(part, chord_angle, params, None)
+}
+
+fn build_mould_set(
+    part: &LoftedSolid,
+    chord_angle: &dyn Fn(f64) -> Angle,
+    params: &MouldParams,
+    force: Option<[bool; 2]>,
+) -> Result<MouldParts, MeshError> {
     let ex = [1.0, 0.0, 0.0];
     let d = vec3::sub(params.pull, vec3::scale(ex, params.pull[0]));
     let len = vec3::norm(d);
@@ -188,18 +238,54 @@ pub fn build_moulds(
     let seed = part.parting.upper[part.parting.upper.len() / 2];
     let faces = split_faces(&part.mesh, &loop0, seed)?;
     let layout = layout(part, sides, &frame, chord_angle, params)?;
+    let pulls = [ez, vec3::scale(ez, -1.0)];
+    // An end piece where a cap undercuts either half's pull (a facet turned away from it).
+    let caps = [part.facets.root_cap.clone(), part.facets.tip_cap.clone()];
+    let bored = force.unwrap_or_else(|| {
+        [0, 1].map(|e| {
+            (0..2).any(|k| {
+                faces[k]
+                    .iter()
+                    .filter(|t| caps[e].contains(t))
+                    .any(|&t| vec3::dot(part.mesh.triangle_normal(t), pulls[k]) < -DRAFT_ROUND_OFF)
+            })
+        })
+    });
     let mut meshes = [Mesh::new(), Mesh::new()];
     let mut halves = Vec::with_capacity(2);
     for (k, upper) in [true, false].into_iter().enumerate() {
-        let mut mesh = build_half(&part.mesh, &faces[k], &layout, &frame, upper);
+        let cavity: Vec<usize> = faces[k]
+            .iter()
+            .copied()
+            .filter(|t| !(0..2).any(|e| bored[e] && caps[e].contains(t)))
+            .collect();
+        let mut lay = layout.clone();
+        lay.bored = bored;
+        for e in (0..2).filter(|&e| bored[e]) {
+            // The half's share of the end ring replaces the cap's middle line: side 3 runs
+            // back → front at the root, side 1 front → back at the tip.
+            let s = if e == 0 { 3 } else { 1 };
+            let ring = if e == 0 { &part.root_ring } else { &part.tip_ring };
+            let (from, to) = (lay.sides[s][0], lay.sides[s][lay.sides[s].len() - 1]);
+            let arc = ring_arc(&part.mesh, ring, from, to, &faces[k])?;
+            let x_end = lay.ends[s][0][0];
+            lay.ends[s] = arc
+                .iter()
+                .map(|&v| {
+                    let q = frame.to_mould(part.mesh.vertices[v as usize]);
+                    [x_end, q[1], q[2]]
+                })
+                .collect();
+            lay.sides[s] = arc;
+        }
+        let mut mesh = build_half(&part.mesh, &cavity, &lay, &frame, upper);
         orient_outward(&mut mesh);
         compact(&mut mesh);
         meshes[k] = mesh;
-        let pull = if upper { ez } else { vec3::scale(ez, -1.0) };
-        let draft =
-            evaluate_draft(&part.mesh, Some(&faces[k]), pull, params.min_draft, params.unit)?;
+        let pull = pulls[k];
+        let draft = evaluate_draft(&part.mesh, Some(&cavity), pull, params.min_draft, params.unit)?;
         let undercuts = undercut_regions(part, &draft, pull, params.unit);
-        let cavity_area = faces[k].iter().map(|&t| part.mesh.triangle_area(t)).sum();
+        let cavity_area = cavity.iter().map(|&t| part.mesh.triangle_area(t)).sum();
         let c = &layout.corners;
         halves.push(MouldHalf {
             side: if upper { "upper" } else { "lower" },
@@ -213,7 +299,120 @@ pub fn build_moulds(
     }
     let [upper, lower]: [MouldHalf; 2] =
         halves.try_into().map_err(|_| MeshError::Geometry("two mould halves expected".into()))?;
-    Ok((meshes, [upper, lower]))
+    let mut end_pieces = Vec::new();
+    for e in (0..2).filter(|&e| bored[e]) {
+        let s = if e == 0 { 3 } else { 1 };
+        let ring = if e == 0 { &part.root_ring } else { &part.tip_ring };
+        let x_end = layout.ends[s][0][0];
+        let cap: Vec<usize> = caps[e].clone().collect();
+        let mesh = end_piece(&part.mesh, &cap, ring, x_end, &frame)?;
+        let pull = if e == 0 { vec3::scale(ex, -1.0) } else { ex };
+        let draft = evaluate_draft(&part.mesh, Some(&cap), pull, params.min_draft, params.unit)?;
+        let undercuts = undercut_regions(part, &draft, pull, params.unit);
+        let cavity_area = cap.iter().map(|&t| part.mesh.triangle_area(t)).sum();
+        let b = mesh.bounding_box().map(|b| b.extent()).unwrap_or_default();
+        end_pieces.push((
+            mesh,
+            MouldHalf {
+                side: if e == 0 { "root end" } else { "tip end" },
+                pull,
+                draft,
+                cavity_area,
+                undercuts,
+                block_size: [b[0], b[1], b[2]],
+                locators: Vec::new(),
+            },
+        ));
+    }
+    Ok(MouldParts { half_meshes: meshes, halves: [upper, lower], end_pieces })
+}
+
+/// The vertices of the closed `ring` from `from` to `to` along the arc whose first edge borders
+/// one of `faces` (the half's side facets).
+fn ring_arc(
+    mesh: &Mesh,
+    ring: &[u32],
+    from: u32,
+    to: u32,
+    faces: &[usize],
+) -> Result<Vec<u32>, MeshError> {
+    let n = ring.len();
+    let missing = || MeshError::Geometry("the parting line does not meet the end ring".into());
+    let i0 = ring.iter().position(|&v| v == from).ok_or_else(missing)?;
+    ring.iter().position(|&v| v == to).ok_or_else(missing)?;
+    let walk = |step: usize| -> Vec<u32> {
+        let mut out = vec![from];
+        let mut i = i0;
+        loop {
+            i = (i + step) % n;
+            out.push(ring[i]);
+            if ring[i] == to || out.len() > n {
+                break;
+            }
+        }
+        out
+    };
+    let borders = |a: u32, b: u32| {
+        faces.iter().any(|&t| {
+            let tri = mesh.triangles[t];
+            (0..3).any(|k| {
+                let (p, q) = (tri[k], tri[(k + 1) % 3]);
+                (p == a && q == b) || (p == b && q == a)
+            })
+        })
+    };
+    let forward = walk(1);
+    if borders(forward[0], forward[1]) {
+        return Ok(forward);
+    }
+    let backward = walk(n - 1);
+    if borders(backward[0], backward[1]) {
+        return Ok(backward);
+    }
+    Err(MeshError::Geometry("no side of the end ring borders the mould half".into()))
+}
+
+/// An end piece: the cap's facets, the end ring carried along X to the block's end face `x_end`
+/// (mould frame), and that face, closed and outward.
+fn end_piece(
+    part: &Mesh,
+    cap: &[usize],
+    ring: &[u32],
+    x_end: f64,
+    frame: &Frame,
+) -> Result<Mesh, MeshError> {
+    let mut mesh = Mesh { vertices: part.vertices.clone(), triangles: Vec::new() };
+    mesh.triangles.extend(cap.iter().map(|&t| part.triangles[t]));
+    let far: Vec<u32> = ring
+        .iter()
+        .map(|&v| {
+            let q = frame.to_mould(part.vertices[v as usize]);
+            mesh.push_vertex(frame.to_rotor([x_end, q[1], q[2]]))
+        })
+        .collect();
+    let n = ring.len();
+    let p = |m: &Mesh, v: u32| m.vertices[v as usize];
+    for i in 0..n {
+        let j = (i + 1) % n;
+        let [a, b, c, d] = [ring[i], ring[j], far[j], far[i]];
+        if vec3::dist(p(&mesh, a), p(&mesh, c)) <= vec3::dist(p(&mesh, b), p(&mesh, d)) {
+            mesh.triangles.extend([[a, b, c], [a, c, d]]);
+        } else {
+            mesh.triangles.extend([[a, b, d], [b, c, d]]);
+        }
+    }
+    let pts: Vec<[f64; 2]> = far
+        .iter()
+        .map(|&v| {
+            let q = frame.to_mould(mesh.vertices[v as usize]);
+            [q[1], q[2]]
+        })
+        .collect();
+    let tris = super::polygon::triangulate_polygon(&pts)?;
+    mesh.triangles.extend(tris.iter().map(|t| t.map(|i| far[i])));
+    orient_outward(&mut mesh);
+    compact(&mut mesh);
+    Ok(mesh)
 }
 
 /// Where everything lies (see [`Layout`]); `chord_angle(x)` turns the section at radius x.
@@ -319,7 +518,7 @@ fn layout(
             segments,
         });
     }
-    Ok(Layout { sides, ends, corners, z_top, z_bottom, margin: m, locators })
+    Ok(Layout { sides, ends, corners, z_top, z_bottom, margin: m, locators, bored: [false; 2] })
 }
 
 /// Connected regions of the undercut facets, largest first.

@@ -76,6 +76,9 @@ pub(crate) struct Layout {
     pub z_bottom: f64,
     /// The block margin.
     pub margin: f64,
+    /// Whether the root (`[0]`, side 3) and tip (`[1]`, side 1) ends have an end piece: the side
+    /// is then the half's share of the end ring, its rulings the bore wall along X.
+    pub bored: [bool; 2],
     pub locators: Vec<Locator>,
 }
 
@@ -149,6 +152,11 @@ pub(crate) fn build_half(
     let far_corners: Vec<u32> = layout.corners.iter().map(|c| h.add([c[0], c[1], zf])).collect();
     let mut rim_far: Vec<u32> = Vec::new();
     for (s, side_ends) in ends.iter().enumerate() {
+        let bored = match s {
+            3 => layout.bored[0],
+            1 => layout.bored[1],
+            _ => false,
+        };
         let (k0, k1) = ((s + 3) % 4, s);
         let mut chain = vec![corners[k0]];
         chain.extend_from_slice(side_ends);
@@ -165,6 +173,26 @@ pub(crate) fn build_half(
             tops.push(h.add(q));
         }
         tops.push(far_corners[k1]);
+        if bored {
+            // An end face round the bore of an end piece: the chain may turn back along Y (round
+            // a nose), so the face is triangulated as a polygon in (Y, Z).
+            // Only the far corners on the far edge: points in a line would leave the ear
+            // clipping a sliver.
+            let mut ring: Vec<u32> = chain.clone();
+            ring.extend([far_corners[k1], far_corners[k0]]);
+            let pts: Vec<[f64; 2]> = ring
+                .iter()
+                .map(|&v| {
+                    let q = h.mould(v);
+                    [q[1], q[2]]
+                })
+                .collect();
+            if let Ok(tris) = super::polygon::triangulate_polygon(&pts) {
+                h.mesh.triangles.extend(tris.iter().map(|t| t.map(|i| ring[i])));
+            }
+            rim_far.push(far_corners[k0]);
+            continue;
+        }
         // The top nearest each edge vertex (in the order along the side).
         let nearest =
             |t: f64| (((t - a) / (b - a) * count as f64).round().clamp(0.0, count as f64)) as usize;

@@ -12,6 +12,7 @@ use std::str::FromStr;
 
 use super::check::{CheckParams, MeshSummary, check_solid};
 use super::error::{MeshError, Place};
+use super::manifest::{DigestWriter, Sha256};
 use super::mesh::Mesh;
 use crate::Error;
 use crate::report::write_atomic_with;
@@ -88,13 +89,38 @@ fn facet(mesh: &Mesh, t: usize, s: f64) -> ([f32; 3], [[f32; 3]; 3]) {
     (n, v)
 }
 
-/// Writes `mesh` as binary STL to `w`, coordinates scaled by `s` (output units per metre).
-fn encode_binary(w: &mut dyn Write, mesh: &Mesh, s: f64) -> std::io::Result<()> {
-    let facets = (0..mesh.len()).map(|t| {
+/// The 80-byte header of a binary file: `layloft part NAME, unit UNIT` padded with spaces (it
+/// never begins with `solid`, which some readers take for ASCII).
+pub fn binary_header(name: &str, unit: LengthUnit) -> [u8; 80] {
+    let mut header = [b' '; 80];
+    let text = format!("layloft part {name}, unit {}", unit.symbol());
+    let n = text.len().min(80);
+    header[..n].copy_from_slice(&text.as_bytes()[..n]);
+    header
+}
+
+/// Writes `mesh` as binary STL to `w`: the header, the facet count, then per facet the normal,
+/// the three corners scaled to `unit` (little-endian `f32`) and a zero attribute word.
+fn encode_binary(
+    w: &mut dyn Write,
+    name: &str,
+    mesh: &Mesh,
+    unit: LengthUnit,
+) -> std::io::Result<()> {
+    let count = u32::try_from(mesh.len())
+        .map_err(|_| std::io::Error::other("more facets than binary STL can count"))?;
+    w.write_all(&binary_header(name, unit))?;
+    w.write_all(&count.to_le_bytes())?;
+    let s = unit.per_metre();
+    let mut record = [0u8; 50];
+    for t in 0..mesh.len() {
         let (n, v) = facet(mesh, t, s);
-        stl_io::Triangle { normal: stl_io::Normal::new(n), vertices: v.map(stl_io::Vertex::new) }
-    });
-    stl_io::write_stl(&mut &mut *w, facets)
+        for (k, c) in n.iter().chain(v.iter().flatten()).enumerate() {
+            record[4 * k..4 * k + 4].copy_from_slice(&c.to_le_bytes());
+        }
+        w.write_all(&record)?;
+    }
+    Ok(())
 }
 
 /// Writes `mesh` as ASCII STL to `w` under the solid name `name`.
@@ -113,8 +139,8 @@ fn encode_ascii(w: &mut dyn Write, name: &str, mesh: &Mesh, s: f64) -> std::io::
     writeln!(w, "endsolid {name}")
 }
 
-/// Encodes `mesh` as STL into `w` (no checks, no file): binary, or ASCII under the solid name
-/// `layloft-NAME`.
+/// Encodes `mesh` as STL into `w` (no checks, no file): binary with the header
+/// `layloft part NAME, unit UNIT`, or ASCII under the solid name `layloft-NAME`.
 pub fn encode_stl(
     w: &mut dyn Write,
     name: &str,
@@ -123,7 +149,7 @@ pub fn encode_stl(
 ) -> std::io::Result<()> {
     let s = options.unit.per_metre();
     match options.format {
-        StlFormat::Binary => encode_binary(w, mesh, s),
+        StlFormat::Binary => encode_binary(w, name, mesh, options.unit),
         StlFormat::Ascii => encode_ascii(w, &format!("layloft-{name}"), mesh, s),
     }
 }
@@ -132,8 +158,26 @@ pub fn encode_stl(
 /// `solid` line as `layloft-NAME`. The mesh is written as it is: check it first (see
 /// [`write_parts`]).
 pub fn write_stl(path: &Path, name: &str, mesh: &Mesh, options: &StlOptions) -> Result<(), Error> {
+    write_stl_digest(path, name, mesh, options).map(|_| ())
+}
+
+/// [`write_stl`], giving the size in bytes and the SHA-256 digest of what was written.
+pub fn write_stl_digest(
+    path: &Path,
+    name: &str,
+    mesh: &Mesh,
+    options: &StlOptions,
+) -> Result<(u64, String), Error> {
     check_part_name(name)?;
-    write_atomic_with(path, |w| encode_stl(w, name, mesh, options))
+    let mut digest = None;
+    write_atomic_with(path, |w| {
+        let mut d = DigestWriter { inner: w, digest: Sha256::new(), bytes: 0 };
+        encode_stl(&mut d, name, mesh, options)?;
+        digest = Some((d.bytes, d.digest));
+        Ok(())
+    })?;
+    let (bytes, digest) = digest.unwrap_or_default();
+    Ok((bytes, digest.finish_hex()))
 }
 
 fn check_part_name(name: &str) -> Result<(), MeshError> {
@@ -157,6 +201,10 @@ pub struct WrittenPart {
     pub path: PathBuf,
     /// What the checks measured.
     pub summary: MeshSummary,
+    /// Size of the file, bytes.
+    pub size_bytes: u64,
+    /// SHA-256 digest of the file, hexadecimal.
+    pub sha256: String,
 }
 
 /// The mesh as the file will hold it: coordinates rounded to single precision in `unit`.
@@ -213,6 +261,23 @@ pub fn write_parts_with_progress(
     check: &CheckParams,
     progress: &mut dyn FnMut(usize, usize, &str),
 ) -> Result<Vec<WrittenPart>, Error> {
+    write_part_set_with_progress(dir, parts, &[], options, check, progress)
+}
+
+/// [`write_parts_with_progress`] for `parts` and `copies`, rigid motions of parts among `parts`
+/// (a mould part in its machining frame): a copy is checked like every part except for
+/// self-intersection, which a rigid motion cannot create; all are checked before any is written.
+pub fn write_part_set_with_progress(
+    dir: &Path,
+    parts: &[(&str, &Mesh)],
+    copies: &[(&str, &Mesh)],
+    options: &StlOptions,
+    check: &CheckParams,
+    progress: &mut dyn FnMut(usize, usize, &str),
+) -> Result<Vec<WrittenPart>, Error> {
+    let full = parts.len();
+    let parts: Vec<(&str, &Mesh)> = parts.iter().chain(copies).copied().collect();
+    let parts = parts.as_slice();
     let total = 2 * parts.len();
     let check = CheckParams { unit: options.unit, ..check.clone() };
     let mut done = Vec::with_capacity(parts.len());
@@ -221,20 +286,24 @@ pub fn write_parts_with_progress(
         if parts[..i].iter().any(|&(other, _)| other == name) {
             return Err(MeshError::DuplicatePart(name.into()).into());
         }
-        let summary = check_solid(mesh, name, &check)?;
+        let own =
+            CheckParams { self_intersection: check.self_intersection && i < full, ..check.clone() };
+        let summary = check_solid(mesh, name, &own)?;
         let rounded = as_written(mesh, name, options.unit)?;
         check_solid(&rounded, name, &CheckParams { self_intersection: false, ..check.clone() })?;
         done.push(WrittenPart {
             name: name.into(),
             path: dir.join(format!("{name}.stl")),
             summary,
+            size_bytes: 0,
+            sha256: String::new(),
         });
         progress(i + 1, total, &format!("checked {name}"));
     }
     std::fs::create_dir_all(dir)
         .map_err(|source| Error::Write { path: dir.display().to_string(), source })?;
-    for (i, (part, &(name, mesh))) in done.iter().zip(parts).enumerate() {
-        write_stl(&part.path, name, mesh, options)?;
+    for (i, (part, &(name, mesh))) in done.iter_mut().zip(parts).enumerate() {
+        (part.size_bytes, part.sha256) = write_stl_digest(&part.path, name, mesh, options)?;
         progress(parts.len() + i + 1, total, &format!("wrote {name}.stl"));
     }
     Ok(done)

@@ -13,6 +13,8 @@
 //!   likewise its resin: the shell is a multi-material laminate whose plies the schedule places.
 //! - **Core alloy mass**: the nominal core volume (before the shrink allowance) times the alloy's
 //!   density: the finished core's mass, which the pour must supply.
+//! - **Mould masses**: each mould part's volume as made (the block less the cavity and the
+//!   locating sockets) times the density of `mould_material`; not computed without one.
 //! - **Melting check** (common practice for fusible cores): a core must stay solid through
 //!   injection and gelation and melt out before the end of the cure: flagged when
 //!   `solidus ≤ injection` or `solidus ≤ gel` (it melts before the resin gels), or
@@ -210,6 +212,10 @@ pub fn summarise(project: &Project, blade: &Blade, tooling: &BladeTooling) -> To
         Ok(Material::Isotropic(i)) => Some(i.clone()),
         _ => None,
     });
+    let mould = spec.mould_material.as_deref().and_then(|n| match project.materials.get(n) {
+        Ok(Material::Isotropic(i)) => Some(i.clone()),
+        _ => None,
+    });
     let schedule = schedule_content(blade);
     let has_laminate = schedule.volume > 0.0;
     let density = schedule.mass / schedule.volume;
@@ -240,10 +246,17 @@ pub fn summarise(project: &Project, blade: &Blade, tooling: &BladeTooling) -> To
                 resin: resin_density.map(|r| p.nominal_volume * r),
                 basis: format!("laminate at the schedule's mean density {density:.0} kg/m³"),
             },
-            PartKind::MouldUpper | PartKind::MouldLower => PartMass {
-                mass: None,
-                resin: None,
-                basis: "not computed: the mould material is not given".into(),
+            PartKind::MouldUpper | PartKind::MouldLower | PartKind::MouldEnd => match &mould {
+                Some(m) => PartMass {
+                    mass: Some(p.nominal_volume * m.density),
+                    resin: None,
+                    basis: format!("mould material {} at {} kg/m³", m.name, m.density),
+                },
+                None => PartMass {
+                    mass: None,
+                    resin: None,
+                    basis: "not computed: no mould_material in [tooling]".into(),
+                },
             },
         })
         .collect();

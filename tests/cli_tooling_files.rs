@@ -1,0 +1,214 @@
+//! The file set `layloft tooling` leaves in its folder, as a user meets it: the manifest and its
+//! checksums, the STL headers, the files of an earlier run, and the cores either side of a web
+//! that ends inside the span. Projects: copies of the invented mine-fan demo with a second,
+//! invented web.
+//!
+//! Sources: SHA-256 as FIPS PUB 180-4 defines it (the digests are recomputed here from the files
+//! on disk by the library's digest, itself checked against the NIST examples in its unit tests);
+//! the binary STL layout (80-byte header, facet count, 50 bytes a facet) as the format's common
+//! description gives it (from memory); each STL read back with `stl_io`, which shares no code
+//! with the writer.
+
+mod support_cli;
+mod support_stl;
+
+use std::path::{Path, PathBuf};
+
+use serde_json::Value;
+use support_cli::layloft;
+use support_stl::read_stl_file;
+
+fn files_in(dir: &Path) -> Vec<String> {
+    let mut names: Vec<String> = std::fs::read_dir(dir)
+        .unwrap()
+        .filter_map(|e| e.ok())
+        .map(|e| e.file_name().to_string_lossy().into_owned())
+        .collect();
+    names.sort();
+    names
+}
+
+/// A copy of the mine-fan demo, with a rear web from the root to r = 0.70 m when `rear`.
+fn demo(dir: &Path, rear: bool) -> PathBuf {
+    let src = Path::new(env!("CARGO_MANIFEST_DIR")).join("layups/mine-fan");
+    for e in std::fs::read_dir(&src).unwrap() {
+        let e = e.unwrap();
+        std::fs::copy(e.path(), dir.join(e.file_name())).unwrap();
+    }
+    if rear {
+        let toml = dir.join("blade.toml");
+        let text = std::fs::read_to_string(&toml).unwrap().replace(
+            "[[point_mass]]",
+            "[[web]]\nname = \"rear\"\nchord_frac = 0.62\nr_end_m = 0.70\n\n[[point_mass]]",
+        );
+        std::fs::write(&toml, text).unwrap();
+        let plies = dir.join("plies.csv");
+        let mut text = std::fs::read_to_string(&plies).unwrap();
+        text.push_str("rear-1,glass-biax,45,0.40,0.70,web:rear,,\n");
+        text.push_str("rear-2,glass-biax,-45,0.40,0.70,web:rear,,\n");
+        std::fs::write(&plies, text).unwrap();
+    }
+    dir.join("blade.toml")
+}
+
+fn run(project: &Path, out: &Path) -> (Value, String, String) {
+    let (code, stdout, stderr) = layloft(&[
+        "tooling",
+        &project.to_string_lossy(),
+        "--out",
+        &out.to_string_lossy(),
+        "--tolerance-mm",
+        "0.3",
+        "--json",
+    ]);
+    assert_eq!(code, Some(0), "{stderr}");
+    let json = serde_json::from_str(&stdout).unwrap_or_else(|e| panic!("{e}: {stdout}"));
+    (json, stdout, stderr)
+}
+
+fn sha256_file(path: &Path) -> String {
+    layloft::tooling::sha256_hex(&std::fs::read(path).unwrap())
+}
+
+fn x_range(path: &Path) -> [f64; 2] {
+    let mut f = std::fs::File::open(path).unwrap();
+    let mesh = stl_io::read_stl(&mut f).unwrap();
+    mesh.vertices.iter().fold([f64::INFINITY, f64::NEG_INFINITY], |r, v| {
+        [r[0].min(v[0] as f64), r[1].max(v[0] as f64)]
+    })
+}
+
+#[test]
+fn a_web_removed_leaves_exactly_the_new_set_and_files_the_tool_did_not_write() {
+    let dir = tempfile::tempdir().unwrap();
+    let (two, one) = (dir.path().join("two"), dir.path().join("one"));
+    std::fs::create_dir_all(&two).unwrap();
+    std::fs::create_dir_all(&one).unwrap();
+    let out = dir.path().join("meshes");
+    let (json, _, _) = run(&demo(&two, true), &out);
+
+    // Two webs, the rear one ending at r = 0.70 m: the front cell runs root to tip; the two cells
+    // behind the main web end at the rear web's bulkhead and one cell runs on beyond it.
+    let cores: Vec<&str> = json["parts"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|p| p["name"].as_str().unwrap())
+        .filter(|n| n.starts_with("core"))
+        .collect();
+    assert_eq!(cores, ["core-1", "core-2", "core-3", "core-4"]);
+    let x = |n: &str| x_range(&out.join(format!("{n}.stl")));
+    let (front, mid, back, beyond) = (x("core-1"), x("core-2"), x("core-3"), x("core-4"));
+    // Root and tip spheres at 401 and 898.5 mm less the end laminate (blade.toml).
+    assert!(front[0] < 402.0 && front[1] > 890.0, "the front core crosses r = 700 mm: {front:?}");
+    for (name, r) in [("core-2", mid), ("core-3", back)] {
+        assert!(r[1] < 700.0 && r[1] > 690.0, "{name} ends at the bulkhead: {r:?}");
+    }
+    assert!(beyond[0] > 700.0 && beyond[0] < 710.0 && beyond[1] > 890.0, "{beyond:?}");
+
+    // Manifest: every file of the set, with the size and digest of the bytes on disk.
+    let manifest: Value =
+        serde_json::from_str(&std::fs::read_to_string(out.join("tooling-manifest.json")).unwrap())
+            .unwrap();
+    let listed: Vec<String> = manifest["files"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|f| f["file"].as_str().unwrap().to_string())
+        .collect();
+    let mut on_disk = files_in(&out);
+    on_disk.retain(|f| f != "tooling-manifest.json");
+    let mut sorted = listed.clone();
+    sorted.sort();
+    assert_eq!(sorted, on_disk);
+    for f in manifest["files"].as_array().unwrap() {
+        let path = out.join(f["file"].as_str().unwrap());
+        assert_eq!(f["size_bytes"].as_u64().unwrap(), std::fs::metadata(&path).unwrap().len());
+        assert_eq!(f["sha256"].as_str().unwrap(), sha256_file(&path), "{}", path.display());
+    }
+    assert_eq!(manifest["stl_unit"], "mm");
+    // Binary STL header: the part's name and unit, never "solid" at the start.
+    let bytes = std::fs::read(out.join("core-3.stl")).unwrap();
+    let header = String::from_utf8_lossy(&bytes[..80]);
+    assert!(header.starts_with("layloft part core-3, unit mm"), "{header}");
+    let count = u32::from_le_bytes([bytes[80], bytes[81], bytes[82], bytes[83]]) as usize;
+    assert_eq!(bytes.len(), 84 + 50 * count);
+    assert!(read_stl_file(&out.join("core-3.stl")).closed_oriented);
+
+    // Files the tool did not write: one of the user's, and an STL the manifest does not list.
+    std::fs::write(out.join("notes.txt"), "shop notes").unwrap();
+    std::fs::write(out.join("core-9.stl"), "not ours").unwrap();
+    let (json, _, stderr) = run(&demo(&one, false), &out);
+    let mut want: Vec<String> = [
+        "core-1.stl",
+        "core-2.stl",
+        "shell.stl",
+        "mould-upper.stl",
+        "mould-lower.stl",
+        "mould-upper-machining.stl",
+        "mould-lower-machining.stl",
+        "mould-root-end.stl",
+        "mould-root-end-machining.stl",
+        "mould-tip-end.stl",
+        "mould-tip-end-machining.stl",
+        "tooling-summary.json",
+        "tooling-manifest.json",
+        "notes.txt",
+        "core-9.stl",
+    ]
+    .iter()
+    .map(|s| s.to_string())
+    .collect();
+    want.sort();
+    assert_eq!(files_in(&out), want);
+    assert_eq!(json["earlier_files"]["removed"], serde_json::json!(["core-3.stl", "core-4.stl"]));
+    assert!(
+        stderr.contains(
+            "removed 2 file(s) of the earlier run that the new set no longer holds: \
+                         core-3.stl, core-4.stl"
+        ),
+        "{stderr}"
+    );
+    assert_eq!(std::fs::read_to_string(out.join("core-9.stl")).unwrap(), "not ours");
+}
+
+#[test]
+fn a_changed_file_of_the_earlier_run_is_left_in_place_with_a_warning() {
+    let dir = tempfile::tempdir().unwrap();
+    let (two, one) = (dir.path().join("two"), dir.path().join("one"));
+    std::fs::create_dir_all(&two).unwrap();
+    std::fs::create_dir_all(&one).unwrap();
+    let out = dir.path().join("meshes");
+    run(&demo(&two, true), &out);
+    std::fs::write(out.join("core-4.stl"), "edited by hand").unwrap();
+    let (json, stdout, stderr) = run(&demo(&one, false), &out);
+    assert!(!out.join("core-3.stl").exists());
+    assert!(out.join("core-4.stl").exists());
+    assert_eq!(json["earlier_files"]["left_in_place"][0]["file"], "core-4.stl");
+    assert!(stderr.contains("core-4.stl belonged to the earlier run"), "{stderr}");
+    assert!(!stdout.is_empty());
+}
+
+#[test]
+fn a_mould_material_gives_the_mould_masses() {
+    // Mass = volume × density (definition), with the demo's al-6082 record at 2700 kg/m³.
+    let dir = tempfile::tempdir().unwrap();
+    let toml = demo(dir.path(), false);
+    let text = std::fs::read_to_string(&toml).unwrap().replace(
+        "core_alloy = \"bi58sn42\"",
+        "core_alloy = \"bi58sn42\"\nmould_material = \"al-6082\"",
+    );
+    std::fs::write(&toml, text).unwrap();
+    let (json, stdout, _) = run(&toml, &dir.path().join("out"));
+    for p in json["parts"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .filter(|p| p["name"].as_str().unwrap().starts_with("mould"))
+    {
+        let (v, m) = (p["volume_m3"].as_f64().unwrap(), p["mass_kg"].as_f64().unwrap());
+        assert!((m / (v * 2700.0) - 1.0).abs() < 1e-12, "{p}");
+        assert!(p["mass_basis"].as_str().unwrap().contains("al-6082"));
+    }
+    assert!(!stdout.is_empty());
+}
