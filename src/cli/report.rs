@@ -207,6 +207,10 @@ pub fn write_report(
         relative(&dest.out, &dest.meshes.join("tooling-summary.json")),
         "the tooling summary (JSON)".into(),
     ));
+    files.push((
+        relative(&dest.out, &dest.meshes.join("tooling-manifest.json")),
+        "the list of the tooling files with their SHA-256 checksums (JSON)".into(),
+    ));
     if p.tooling.is_none() {
         block.notes.push("The project has no [tooling] table: the stated defaults apply (mm, 0.1 mm tolerance, 30 mm block margin) and the core-alloy mass is not computed.".into());
     }
