@@ -23,11 +23,17 @@
 
 mod file;
 mod naca;
+mod normalise;
 mod outline;
+mod plane;
+mod shapes;
 
-pub use file::{parse_coordinates, read_coordinates};
+pub use file::{
+    parse_coordinates, parse_coordinates_noted, read_coordinates, read_coordinates_noted,
+};
 pub use naca::Naca4;
 pub use outline::{Outline, clustered_stations};
+pub use shapes::Shape;
 
 /// What can be wrong with an airfoil.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
@@ -41,7 +47,10 @@ pub enum AirfoilError {
         code: String,
     },
     /// Too few points to describe an outline.
-    #[error("the outline has {found} points: expected at least {needed}")]
+    #[error(
+        "the outline has {found} point{}: expected at least {needed}",
+        if *found == 1 { "" } else { "s" }
+    )]
     TooFewPoints {
         /// Points found.
         found: usize,
@@ -72,7 +81,15 @@ pub enum AirfoilError {
         "the outline runs over the lower surface first: expected trailing edge, upper surface, leading edge, lower surface"
     )]
     LowerFirst,
-    /// Two segments of the outline cross.
+    /// All points on one line or at one place: no area, no chord.
+    #[error(
+        "the outline encloses no area: its points lie on one line, so it has no chord or no depth"
+    )]
+    NoArea,
+    /// A built-in shape with a bad name or parameter.
+    #[error("{0}")]
+    Shape(String),
+    /// Two segments of the outline cross (or touch: a figure-eight).
     #[error("the outline crosses itself between lines {line_a} and {line_b}")]
     Crossing {
         /// Line of one segment.
