@@ -181,8 +181,37 @@ pub(crate) fn build_contour(
         .collect();
     // Offset edges that fold back (shorter than the offset where points cluster at a corner) are
     // taken out; the trailing edge is left to the swallowtail cut below.
-    let blunt = (pts[(i_te + 1) % n][0] - pts[i_te][0]).abs() <= tiny;
-    let keep: Vec<usize> = if blunt { vec![i_te] } else { vec![(i_te + n - 1) % n, i_te] };
+    // The trailing edge keeps its base (an edge beside the aftmost point standing more across the
+    // chord than along it), or, at a knife edge (turning by more than 150°, a thin airfoil's),
+    // its two edges, so that walls meeting ahead of it leave a swallowtail to cut below; a
+    // blunter corner is offset like any other.
+    let before = (i_te + n - 1) % n;
+    // A base: steep, and short (its straight run under 6 % of the chord, as an airfoil's).
+    let steep = |e: usize| {
+        let along =
+            |k: usize| (tang[k][0] - tang[e][0]).abs() + (tang[k][1] - tang[e][1]).abs() < 1e-9;
+        let mut run = len[e];
+        let (mut a, mut b) = ((e + n - 1) % n, (e + 1) % n);
+        while along(a) && a != e {
+            run += len[a];
+            a = (a + n - 1) % n;
+        }
+        while along(b) && b != e {
+            run += len[b];
+            b = (b + 1) % n;
+        }
+        tang[e][0].abs() < 0.5 && run <= 0.06 * layout.chord
+    };
+    let te_turn = cross(tang[before], tang[i_te]).atan2(dot(tang[before], tang[i_te])).abs();
+    let keep: Vec<usize> = if steep(i_te) {
+        vec![i_te]
+    } else if steep(before) {
+        vec![before]
+    } else if te_turn > 150f64.to_radians() {
+        vec![before, i_te]
+    } else {
+        vec![]
+    };
     let (idx, v) = collapse_folds(pts, &tang, &half, v0, &keep, max_mitre);
     let m0 = idx.len();
 
