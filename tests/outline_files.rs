@@ -371,6 +371,10 @@ Layouts, one file each:
 - `NAME.surfaces-counted.dat`: a title, a line with the two point counts, then the upper surface
   and the lower one, each from the leading edge to the trailing edge, separated by blank lines.
 - `NAME.surfaces.csv`: the two surfaces without title or counts, comma separated.
+
+`readme-loop.dat` and `readme-surfaces.dat` are the two examples of the README's *Section
+shapes* (NACA 0012 closed, a few stations, values rounded to five places from the formula above;
+the box 1 x 0.3 by hand); `the_readme_examples_read` reads them.
 ";
 
 #[test]
@@ -420,4 +424,21 @@ fn every_layout_reads_to_the_same_geometry() {
             }
         }
     }
+}
+
+#[test]
+fn the_readme_examples_read() {
+    // The two examples of README.md (Section shapes), kept as files beside the others.
+    let text = fs::read_to_string(data_dir().join("readme-loop.dat")).unwrap();
+    let (o, _) = parse_coordinates_noted(&text, "readme-loop.dat").unwrap();
+    assert!(!o.blunt_te());
+    assert!((o.max_depth().1 - 0.12).abs() < 0.01, "{:?}", o.max_depth());
+    let text = fs::read_to_string(data_dir().join("readme-surfaces.dat")).unwrap();
+    let (o, notes) = parse_coordinates_noted(&text, "readme-surfaces.dat").unwrap();
+    assert!(notes.is_empty(), "{notes:?}");
+    assert!(o.blunt_te());
+    // The box 1 x 0.3: area 0.3, leading edge in the middle of the front face.
+    assert!((o.area() - 0.3).abs() < 1e-12, "{}", o.area());
+    assert_eq!(o.upper[0], [0.0, 0.0]);
+    assert_eq!(o.corners().len(), 2, "the two front corners: {:?}", o.corners());
 }

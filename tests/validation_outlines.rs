@@ -144,3 +144,79 @@ fn two_cell_box_torsion_by_the_multicell_shear_flow_method() {
     let b = c - T;
     close(p.ei_flap, E * T * (b * h * h / 2.0 + h.powi(3) / 6.0 + h.powi(3) / 12.0), "EI flap");
 }
+
+#[test]
+fn flat_back_with_points_along_the_base_solves_at_any_number_of_points() {
+    // The flat-backed outline of tests/data/outlines (base 4 % chord given as points along it),
+    // 2 mm walls on a 0.3 m chord: the base is 12 mm deep, the walls do not meet anywhere. Once
+    // refused at 240 contour points (the offset folded where the points cluster at the base
+    // corners); the stiffness must now settle as the points double (within 0.5 %, the
+    // convergence of the curved surfaces).
+    let dir = tempfile::tempdir().unwrap();
+    fs::copy("tests/data/outlines/flatback.loop-base-points.dat", dir.path().join("fb.dat"))
+        .unwrap();
+    let stations = "r_m,chord_m,twist_deg,pitch_axis_frac,airfoil\n\
+                    0.5,0.3,0,0.3,fb.dat\n2.5,0.3,0,0.3,fb.dat\n";
+    let plies = format!("{SKIN}skin2,alu,0,0.5,2.5,both,0,1\n");
+    write_project(dir.path(), stations, &plies, "");
+    let project = read_project(&dir.path().join("blade.toml")).unwrap();
+    let blade = Blade::from_project(&project).unwrap();
+    assert!(
+        blade.warnings().iter().any(|w| w.contains("trailing-edge base")),
+        "a note on the base"
+    );
+    let solved: Vec<SectionProperties> = [120, 240, 480]
+        .iter()
+        .map(|&n| {
+            let layout = blade.section_layout(1.0, n).unwrap();
+            solve_section(&layout, &SectionParams::default())
+                .unwrap_or_else(|e| panic!("{n} points: {e}"))
+        })
+        .collect();
+    for w in solved.windows(2) {
+        for (a, b, what) in
+            [(w[0].ea, w[1].ea, "EA"), (w[0].gj, w[1].gj, "GJ"), (w[0].ei_flap, w[1].ei_flap, "EI")]
+        {
+            assert!((a / b - 1.0).abs() < 5e-3, "{what}: {a} vs {b}");
+        }
+    }
+}
+
+#[test]
+fn a_web_may_end_at_a_station_radius_and_a_ply_end() {
+    // The web and its plies end at r = 1.5 m, a station radius where a surface ply ends too.
+    let dir = tempfile::tempdir().unwrap();
+    let stations = "r_m,chord_m,twist_deg,pitch_axis_frac,airfoil\n\
+                    0.5,0.4,0,0.3,naca0015\n1.5,0.4,0,0.3,naca0015\n2.5,0.3,0,0.3,naca0012\n";
+    let plies = format!("{SKIN}cap,alu,0,0.5,1.5,both,0.2,0.4\nweb,alu,0,0.5,1.5,web:spar,,\n");
+    let webs = "[[web]]\nname = \"spar\"\nchord_frac = 0.3\nr_start_m = 0.5\nr_end_m = 1.5\n";
+    write_project(dir.path(), stations, &plies, webs);
+    let project = read_project(&dir.path().join("blade.toml")).unwrap();
+    let blade = Blade::from_project(&project).unwrap();
+    for r in [0.5, 1.0, 1.5 - 1e-6, 1.5, 1.5 + 1e-6, 2.5] {
+        let layout = blade.section_layout(r, 120).unwrap_or_else(|e| panic!("r = {r}: {e}"));
+        assert_eq!(layout.webs.len(), usize::from(r < 1.5), "r = {r}");
+        solve_section(&layout, &SectionParams::default()).unwrap();
+    }
+    // And through the binary at the station radius.
+    let out = std::process::Command::new(env!("CARGO_BIN_EXE_layloft"))
+        .args(["sections", "-q", "--at", "1.0,1.5,2.0"])
+        .arg(dir.path().join("blade.toml"))
+        .output()
+        .unwrap();
+    assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
+}
+
+#[test]
+fn the_round_root_example_runs_its_design_check() {
+    // The example project under layups/ (invented data): a round root blending into a
+    // flat-backed section, a web ending at a station radius and a ply end.
+    let out = std::process::Command::new(env!("CARGO_BIN_EXE_layloft"))
+        .args(["check", "-q", "layups/round-root/blade.toml"])
+        .output()
+        .unwrap();
+    let code = out.status.code();
+    assert!(code == Some(0) || code == Some(1), "{}", String::from_utf8_lossy(&out.stderr));
+    let stdout = String::from_utf8_lossy(&out.stdout);
+    assert!(stdout.contains("confirm") || stdout.to_lowercase().contains("test"), "{stdout}");
+}

@@ -20,6 +20,9 @@ use super::plane::{P, dist, turn};
 use super::{AirfoilError, Outline};
 use crate::input::{InputError, Location};
 
+/// Points with their file lines.
+type Points = Vec<(usize, P)>;
+
 /// Fewest points a coordinate file must give.
 const MIN_POINTS: usize = 10;
 
@@ -110,12 +113,12 @@ fn arrange(
         }
         (hi[0] - lo[0]).max(hi[1] - lo[1])
     };
-    if !(extent > 0.0) {
+    if extent.is_nan() || extent <= 0.0 {
         return Err(file_err(AirfoilError::NoArea));
     }
     let same = |a: P, b: P| dist(a, b) <= 1e-9 * extent;
 
-    let (upper, lower): (Vec<(usize, P)>, Option<Vec<(usize, P)>>) = match counts {
+    let (upper, lower): (Points, Option<Points>) = match counts {
         Some((_, nu)) => {
             let lower = points.split_off(nu);
             (points, Some(lower))

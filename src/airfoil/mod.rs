@@ -1,12 +1,15 @@
-//! Airfoil outlines: NACA 4-digit sections (NACA Report 824), coordinate files, resampling at
-//! normalised arc length with clustering at the leading and trailing edges, and blending between
-//! stations.
+//! Airfoil outlines: NACA 4-digit sections (NACA Report 824), built-in shapes (`circle`,
+//! `ellipse:T`), coordinate files, resampling at normalised arc length with clustering at the
+//! leading and trailing edges (corners kept), and blending between stations.
 //!
 //! Outlines are in chord fractions with the leading edge at (0, 0) and the trailing edge at
-//! (1, 0); both surfaces run from the leading edge to the trailing edge. Coordinate files are read
-//! in the usual order (trailing edge, over the upper surface to the leading edge, back along the
-//! lower surface), normalised to that chord line, and checked: enough points, no repeated point,
-//! each surface advancing along the chord (no doubling back), no crossing.
+//! (1, 0); both surfaces run from the leading edge to the trailing edge (each advancing along the
+//! chord; a straight face across it, at a box's front or a flat back, may stand still). Coordinate
+//! files come in one loop (trailing edge, upper surface, leading edge, lower surface) or as two
+//! surfaces, in either direction, with or without a repeated closing point or a line of counts
+//! (`file.rs`); the loop is then oriented, its trailing edge (a point or a straight base) and
+//! leading edge found, and normalised to the chord line (`normalise.rs`), refusing a loop that
+//! crosses or touches itself.
 //!
 //! ```
 //! use layloft::airfoil::{Naca4, Outline, clustered_stations};

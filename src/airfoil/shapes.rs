@@ -39,7 +39,7 @@ impl Shape {
                 "'{text}': the ellipse thickness over chord '{value}' is not a number; expected a fraction such as ellipse:0.4"
             ))
         })?;
-        if !(thickness > 0.0 && thickness <= 1.0) || !thickness.is_finite() {
+        if !(thickness > 0.0 && thickness <= 1.0 && thickness.is_finite()) {
             let hint = if thickness > 1.0 { " (a percentage? write 0.4 for 40 %)" } else { "" };
             return Err(AirfoilError::Shape(format!(
                 "'{text}': expected an ellipse thickness over chord above 0 and at most 1, found {value}{hint}"
