@@ -48,7 +48,7 @@ pub(crate) fn outline_from_loop(
     lp: Loop,
     notes: &mut Vec<String>,
 ) -> Result<Outline, AirfoilError> {
-    let Loop { mut pts, mut lines, closed } = lp;
+    let Loop { pts, lines, closed } = lp;
     let n = pts.len();
     if n < 3 {
         return Err(AirfoilError::TooFewPoints { found: n, needed: 3 });
@@ -71,7 +71,26 @@ pub(crate) fn outline_from_loop(
             return Err(AirfoilError::NoArea);
         }
     }
-    check_no_crossing(&pts, &lines, 1e-10 * extent)?;
+    // A crossing is reported after the surfaces are checked for doubling back, which names the
+    // place more plainly when both are wrong (two points swapped along a surface).
+    let crossing = check_no_crossing(&pts, &lines, 1e-10 * extent).err();
+    let rest = orient_and_split(pts, lines, closed, extent, notes);
+    match (crossing, rest) {
+        (None, r) => r,
+        (Some(_), Err(e @ AirfoilError::DoublesBack { .. })) => Err(e),
+        (Some(c), _) => Err(c),
+    }
+}
+
+/// Steps 2 to 5 of the module doc on a loop that does not cross itself.
+fn orient_and_split(
+    mut pts: Vec<P>,
+    mut lines: Vec<usize>,
+    closed: bool,
+    extent: f64,
+    notes: &mut Vec<String>,
+) -> Result<Outline, AirfoilError> {
+    let n = pts.len();
     let area2 = twice_area(&pts);
     if area2.abs() <= 1e-9 * extent * extent {
         return Err(AirfoilError::NoArea);

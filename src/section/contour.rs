@@ -4,7 +4,15 @@
 //!
 //! Offset: each outer edge moves inward by half its laminate thickness; neighbouring offset edges
 //! meet at their crossing (exact at corners), or, where the thickness changes along a nearly
-//! straight wall, at the mean offset along the mitre (see `outline::offset_vertex`).
+//! straight wall, at the mean offset along the mitre (see `outline::offset_vertex`). An offset
+//! edge that then runs backwards (an edge shorter than the offset beside a convex corner, where
+//! points cluster) is taken out and its neighbours meet at the crossing of their own offset lines,
+//! as a polygon offset with mitre joins does (`collapse_folds`); only the edges of a knife-edge
+//! trailing edge or of a short blunt base are left for the swallowtail cut below.
+//!
+//! Walls thicker than the local depth are refused where the inner surface (the outer line offset
+//! by the whole laminate thickness, folds taken out alike) crosses itself away from the trailing
+//! edge, or where it no longer encloses any area.
 //!
 //! Thin trailing edge: where the offset upper and lower midlines cross ahead of the trailing edge,
 //! the loop is closed at that crossing and the walls aft of it become open branches lying on the
