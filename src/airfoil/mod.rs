@@ -1,12 +1,15 @@
-//! Airfoil outlines: NACA 4-digit sections (NACA Report 824), coordinate files, resampling at
-//! normalised arc length with clustering at the leading and trailing edges, and blending between
-//! stations.
+//! Airfoil outlines: NACA 4-digit sections (NACA Report 824), built-in shapes (`circle`,
+//! `ellipse:T`), coordinate files, resampling at normalised arc length with clustering at the
+//! leading and trailing edges (corners kept), and blending between stations.
 //!
 //! Outlines are in chord fractions with the leading edge at (0, 0) and the trailing edge at
-//! (1, 0); both surfaces run from the leading edge to the trailing edge. Coordinate files are read
-//! in the usual order (trailing edge, over the upper surface to the leading edge, back along the
-//! lower surface), normalised to that chord line, and checked: enough points, no repeated point,
-//! each surface advancing along the chord (no doubling back), no crossing.
+//! (1, 0); both surfaces run from the leading edge to the trailing edge (each advancing along the
+//! chord; a straight face across it, at a box's front or a flat back, may stand still). Coordinate
+//! files come in one loop (trailing edge, upper surface, leading edge, lower surface) or as two
+//! surfaces, in either direction, with or without a repeated closing point or a line of counts
+//! (`file.rs`); the loop is then oriented, its trailing edge (a point or a straight base) and
+//! leading edge found, and normalised to the chord line (`normalise.rs`), refusing a loop that
+//! crosses or touches itself.
 //!
 //! ```
 //! use layloft::airfoil::{Naca4, Outline, clustered_stations};
@@ -23,11 +26,17 @@
 
 mod file;
 mod naca;
+mod normalise;
 mod outline;
+mod plane;
+mod shapes;
 
-pub use file::{parse_coordinates, read_coordinates};
+pub use file::{
+    parse_coordinates, parse_coordinates_noted, read_coordinates, read_coordinates_noted,
+};
 pub use naca::Naca4;
 pub use outline::{Outline, clustered_stations};
+pub use shapes::Shape;
 
 /// What can be wrong with an airfoil.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
@@ -41,7 +50,10 @@ pub enum AirfoilError {
         code: String,
     },
     /// Too few points to describe an outline.
-    #[error("the outline has {found} points: expected at least {needed}")]
+    #[error(
+        "the outline has {found} point{}: expected at least {needed}",
+        if *found == 1 { "" } else { "s" }
+    )]
     TooFewPoints {
         /// Points found.
         found: usize,
@@ -72,7 +84,15 @@ pub enum AirfoilError {
         "the outline runs over the lower surface first: expected trailing edge, upper surface, leading edge, lower surface"
     )]
     LowerFirst,
-    /// Two segments of the outline cross.
+    /// All points on one line or at one place: no area, no chord.
+    #[error(
+        "the outline encloses no area: its points lie on one line, so it has no chord or no depth"
+    )]
+    NoArea,
+    /// A built-in shape with a bad name or parameter.
+    #[error("{0}")]
+    Shape(String),
+    /// Two segments of the outline cross (or touch: a figure-eight).
     #[error("the outline crosses itself between lines {line_a} and {line_b}")]
     Crossing {
         /// Line of one segment.

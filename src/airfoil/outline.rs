@@ -1,6 +1,7 @@
 //! An airfoil outline in chord fractions, its resampling at normalised arc length, and blending.
 
 use super::AirfoilError;
+use super::plane::{straight_through, turn};
 use crate::interp::CubicSpline;
 
 /// An airfoil outline in chord fractions: leading edge at (0, 0), trailing edge near (1, 0).
@@ -23,49 +24,32 @@ pub fn clustered_stations(n: usize) -> Vec<f64> {
 
 impl Outline {
     /// Builds an outline from a closed point sequence in the usual file order (trailing edge,
-    /// upper surface, leading edge, lower surface, trailing edge), normalised so the leading edge
-    /// (the point farthest from the trailing-edge midpoint) is at (0, 0) and the trailing-edge
-    /// midpoint at (1, 0). `lines` gives the file line of each point for messages.
+    /// upper surface, leading edge, lower surface, trailing edge; the other way round is reversed),
+    /// normalised so the leading edge (the point farthest from the trailing-edge midpoint, or the
+    /// middle of a flat front face) is at (0, 0) and the trailing-edge midpoint at (1, 0). `lines`
+    /// gives the file line of each point for messages. Consecutive repeated points are removed.
     pub fn from_file_order(points: &[[f64; 2]], lines: &[usize]) -> Result<Self, AirfoilError> {
         const MIN_POINTS: usize = 10;
-        if points.len() < MIN_POINTS {
+        if points.len() < MIN_POINTS || lines.len() != points.len() {
             return Err(AirfoilError::TooFewPoints { found: points.len(), needed: MIN_POINTS });
         }
-        for w in points.windows(2).enumerate() {
-            let (i, p) = w;
-            if dist(p[0], p[1]) < 1e-9 {
-                return Err(AirfoilError::Repeated { line: lines[i + 1] });
+        let extent = points.iter().fold(0.0f64, |m, p| m.max(p[0].abs()).max(p[1].abs()));
+        let mut pts: Vec<[f64; 2]> = Vec::with_capacity(points.len());
+        let mut kept: Vec<usize> = Vec::with_capacity(points.len());
+        for (p, &l) in points.iter().zip(lines) {
+            if pts.last().is_some_and(|&q| dist(*p, q) <= 1e-12 * extent) {
+                continue;
             }
+            pts.push(*p);
+            kept.push(l);
         }
-        let last = points.len() - 1;
-        let te = [(points[0][0] + points[last][0]) / 2.0, (points[0][1] + points[last][1]) / 2.0];
-        let ile = (0..points.len())
-            .max_by(|&a, &b| dist(points[a], te).total_cmp(&dist(points[b], te)))
-            .unwrap_or(0);
-        if ile == 0 || ile == last {
-            return Err(AirfoilError::NoLeadingEdge);
+        let closed = pts.len() > 2 && dist(pts[0], pts[pts.len() - 1]) <= 1e-12 * extent;
+        if closed {
+            pts.pop();
+            kept.pop();
         }
-        let le = points[ile];
-        let chord = dist(le, te);
-        let (s, c) = ((te[1] - le[1]) / chord, (te[0] - le[0]) / chord);
-        let norm = |p: [f64; 2]| {
-            let (dx, dy) = (p[0] - le[0], p[1] - le[1]);
-            [(dx * c + dy * s) / chord, (-dx * s + dy * c) / chord]
-        };
-        let all: Vec<[f64; 2]> = points.iter().map(|&p| norm(p)).collect();
-        let upper: Vec<[f64; 2]> = all[..=ile].iter().rev().copied().collect();
-        let lower: Vec<[f64; 2]> = all[ile..].to_vec();
-        let upper_lines: Vec<usize> = lines[..=ile].iter().rev().copied().collect();
-        let lower_lines: Vec<usize> = lines[ile..].to_vec();
-        check_monotone(&upper, &upper_lines, "upper")?;
-        check_monotone(&lower, &lower_lines, "lower")?;
-        let mean = |v: &[[f64; 2]]| v.iter().map(|p| p[1]).sum::<f64>() / v.len() as f64;
-        if mean(&upper) < mean(&lower) {
-            return Err(AirfoilError::LowerFirst);
-        }
-        let outline = Outline { upper, lower };
-        outline.check_no_crossing(&all, lines)?;
-        Ok(outline)
+        let lp = super::normalise::Loop { pts, lines: kept, closed };
+        super::normalise::outline_from_loop(lp, &mut Vec::new())
     }
 
     /// Whether the trailing edge is blunt (a base of more than 1e-6 chord).
@@ -76,7 +60,10 @@ impl Outline {
 
     /// The outline resampled at the given normalised arc-length stations of each surface (both
     /// surfaces at the same stations), by a natural cubic spline through the whole outline in arc
-    /// length, so that the leading edge stays smooth.
+    /// length, so that the leading edge stays smooth. Corners (the ends of straight faces, and
+    /// turns sharper than 45° between neighbouring points) split the spline and stay corners: the
+    /// station nearest each corner is moved onto it, so straight faces stay straight and the
+    /// number of points does not change.
     pub fn resample(&self, stations: &[f64]) -> Outline {
         // One curve from the upper trailing edge over the leading edge to the lower trailing edge.
         let mut pts: Vec<[f64; 2]> = self.upper.iter().rev().copied().collect();
@@ -86,14 +73,48 @@ impl Outline {
             let last = s[s.len() - 1];
             s.push(last + dist(w[0], w[1]));
         }
-        let sx = CubicSpline::natural(&s, &pts.iter().map(|p| p[0]).collect::<Vec<_>>());
-        let sy = CubicSpline::natural(&s, &pts.iter().map(|p| p[1]).collect::<Vec<_>>());
+        let corners = corner_indices(&pts);
+        let mut breaks = vec![0];
+        breaks.extend(corners.iter().copied());
+        breaks.push(pts.len() - 1);
+        let pieces: Vec<(f64, CubicSpline, CubicSpline)> = breaks
+            .windows(2)
+            .map(|w| {
+                let (a, b) = (w[0], w[1]);
+                let ss = &s[a..=b];
+                let sx =
+                    CubicSpline::natural(ss, &pts[a..=b].iter().map(|p| p[0]).collect::<Vec<_>>());
+                let sy =
+                    CubicSpline::natural(ss, &pts[a..=b].iter().map(|p| p[1]).collect::<Vec<_>>());
+                (s[b], sx, sy)
+            })
+            .collect();
+        let at = |v: f64| {
+            let k = pieces.partition_point(|p| p.0 < v).min(pieces.len() - 1);
+            [pieces[k].1.eval(v), pieces[k].2.eval(v)]
+        };
         let s_le = s[self.upper.len() - 1];
         let s_end = s[s.len() - 1];
-        let at = |v: f64| [sx.eval(v), sy.eval(v)];
-        let upper = stations.iter().map(|&t| at(s_le * (1.0 - t))).collect();
-        let lower = stations.iter().map(|&t| at(s_le + (s_end - s_le) * t)).collect();
-        Outline { upper, lower }
+        // Arc positions of the stations on each surface, with the nearest moved onto each corner.
+        let mut s_upper: Vec<f64> = stations.iter().map(|&t| s_le * (1.0 - t)).collect();
+        let mut s_lower: Vec<f64> = stations.iter().map(|&t| s_le + (s_end - s_le) * t).collect();
+        for &c in &corners {
+            let sc = s[c];
+            let list = if sc < s_le { &mut s_upper } else { &mut s_lower };
+            snap(list, sc);
+        }
+        Outline {
+            upper: s_upper.iter().map(|&v| at(v)).collect(),
+            lower: s_lower.iter().map(|&v| at(v)).collect(),
+        }
+    }
+
+    /// The corners of the outline in chord fractions: where a straight face ends or the outline
+    /// turns by more than 45° (the trailing-edge points are not listed).
+    pub fn corners(&self) -> Vec<[f64; 2]> {
+        let mut pts: Vec<[f64; 2]> = self.upper.iter().rev().copied().collect();
+        pts.extend(self.lower.iter().skip(1).copied());
+        corner_indices(&pts).into_iter().map(|k| pts[k]).collect()
     }
 
     /// `(1 − w) self + w other`, point by point; both must be resampled at the same stations.
@@ -155,24 +176,46 @@ impl Outline {
             .max_by(|a, b| a.1.total_cmp(&b.1))
             .unwrap_or((0.3, 0.0))
     }
+}
 
-    fn check_no_crossing(&self, all: &[[f64; 2]], lines: &[usize]) -> Result<(), AirfoilError> {
-        let n = all.len();
-        // Segments of the file's polyline plus the closing base (last -> first).
-        let seg = |i: usize| (all[i], all[(i + 1) % n]);
-        for i in 0..n {
-            for j in (i + 2)..n {
-                if i == 0 && j == n - 1 {
-                    continue;
-                }
-                let (a, b) = seg(i);
-                let (c, d) = seg(j);
-                if segments_cross(a, b, c, d) {
-                    return Err(AirfoilError::Crossing { line_a: lines[i], line_b: lines[j] });
-                }
-            }
-        }
-        Ok(())
+/// Interior indices of `pts` (an open curve) where the curve has a corner: the end of a straight
+/// run of two or more segments (where the next point leaves its line), or a turn of more than 45°
+/// between neighbouring segments (a finely sampled round edge turns a few degrees; the leading
+/// edge of a coarse 80-point airfoil file about 30°).
+fn corner_indices(pts: &[[f64; 2]]) -> Vec<usize> {
+    let n = pts.len();
+    if n < 3 {
+        return Vec::new();
+    }
+    let straight: Vec<bool> =
+        (1..n - 1).map(|k| straight_through(pts[k - 1], pts[k], pts[k + 1])).collect();
+    let is_straight = |k: usize| k >= 1 && k + 1 < n && straight[k - 1];
+    (1..n - 1)
+        .filter(|&k| {
+            let sharp = turn(pts[k - 1], pts[k], pts[k + 1]) > SHARP_TURN;
+            let run_end = !is_straight(k) && (is_straight(k - 1) || is_straight(k + 1));
+            sharp || run_end
+        })
+        .collect()
+}
+
+/// A turn between neighbouring segments sharper than this is a corner.
+const SHARP_TURN: f64 = 45.0 * std::f64::consts::PI / 180.0;
+
+/// Moves the entry of `list` (monotone arc positions) nearest `sc` onto it, unless it is an end
+/// entry or already sits on another corner.
+fn snap(list: &mut [f64], sc: f64) {
+    let n = list.len();
+    if n < 3 {
+        return;
+    }
+    let k = (1..n - 1)
+        .min_by(|&a, &b| (list[a] - sc).abs().total_cmp(&(list[b] - sc).abs()))
+        .unwrap_or(1);
+    // Stay between the neighbours so the order is kept.
+    let (lo, hi) = (list[k - 1].min(list[k + 1]), list[k - 1].max(list[k + 1]));
+    if sc > lo && sc < hi {
+        list[k] = sc;
     }
 }
 
@@ -186,42 +229,6 @@ fn interpolate_y(surface: &[[f64; 2]], x: f64) -> f64 {
     p[1] + w * (q[1] - p[1])
 }
 
-fn check_monotone(surface: &[[f64; 2]], lines: &[usize], name: &str) -> Result<(), AirfoilError> {
-    for (i, w) in surface.windows(2).enumerate() {
-        if w[1][0] <= w[0][0] {
-            return Err(AirfoilError::DoublesBack {
-                surface: name.to_string(),
-                line: lines[i + 1],
-            });
-        }
-    }
-    Ok(())
-}
-
 fn dist(a: [f64; 2], b: [f64; 2]) -> f64 {
     (a[0] - b[0]).hypot(a[1] - b[1])
-}
-
-fn cross(o: [f64; 2], a: [f64; 2], b: [f64; 2]) -> f64 {
-    (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0])
-}
-
-/// Whether segments ab and cd properly cross (touching at an end counts).
-fn segments_cross(a: [f64; 2], b: [f64; 2], c: [f64; 2], d: [f64; 2]) -> bool {
-    let d1 = cross(c, d, a);
-    let d2 = cross(c, d, b);
-    let d3 = cross(a, b, c);
-    let d4 = cross(a, b, d);
-    (d1 * d2 <= 0.0 && d3 * d4 <= 0.0)
-        && !(d1 == 0.0 && d2 == 0.0 && d3 == 0.0 && d4 == 0.0 && !overlap_collinear(a, b, c, d))
-}
-
-fn overlap_collinear(a: [f64; 2], b: [f64; 2], c: [f64; 2], d: [f64; 2]) -> bool {
-    let within = |p: [f64; 2], q: [f64; 2], r: [f64; 2]| {
-        r[0] >= p[0].min(q[0])
-            && r[0] <= p[0].max(q[0])
-            && r[1] >= p[1].min(q[1])
-            && r[1] <= p[1].max(q[1])
-    };
-    within(a, b, c) || within(a, b, d) || within(c, d, a) || within(c, d, b)
 }

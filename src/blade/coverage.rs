@@ -3,7 +3,7 @@
 use std::fmt;
 
 use super::{Blade, ResolvedPly};
-use crate::input::Region;
+use crate::input::{Region, WebSpec};
 use crate::laminate::{Laminate, Ply};
 
 /// A surface of the blade.
@@ -40,6 +40,15 @@ fn covers_chord(p: &ResolvedPly, x: f64) -> bool {
 }
 
 impl Blade {
+    /// Whether a web stands at radius `r`: from its start up to, not including, its end (the
+    /// tip included), the same span rule as a ply's, so a web ending at any radius (a station,
+    /// a ply end) is simply absent from there on.
+    pub fn web_present(&self, web: &WebSpec, r: f64) -> bool {
+        let tip = self.tip_radius();
+        (r >= web.r_start - EPS && r < web.r_end - EPS)
+            || (r >= tip - EPS && web.r_end >= tip - EPS && r >= web.r_start - EPS)
+    }
+
     /// Indices (in `plies.csv` order, outermost first) of the plies covering a surface point.
     pub(crate) fn surface_ply_indices(&self, r: f64, surface: Surface, x: f64) -> Vec<usize> {
         let tip = self.tip_radius();
@@ -125,7 +134,7 @@ impl Blade {
                 * (u[0] - l[0]).hypot(u[1] - l[1])
                 * self.surface_laminate(r, Surface::Upper, 1.0).areal_mass();
         }
-        for web in self.webs.iter().filter(|w| r >= w.r_start - EPS && r <= w.r_end + EPS) {
+        for web in self.webs.iter().filter(|w| self.web_present(w, r)) {
             let depth = outline.depth_at(web.chord_frac) * c;
             let lam = self.web_laminate(r, &web.name);
             let walls = self.surface_thickness(r, Surface::Upper, web.chord_frac)

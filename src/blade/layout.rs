@@ -113,7 +113,7 @@ impl Blade {
         }
 
         let mut webs = Vec::new();
-        for w in self.webs.iter().filter(|w| r >= w.r_start - 1e-9 && r <= w.r_end + 1e-9) {
+        for w in self.webs.iter().filter(|w| self.web_present(w, r)) {
             let plies = self.web_ply_indices(r, &w.name);
             if plies.is_empty() {
                 return Err(BladeError::WebWithoutPlies {
@@ -131,12 +131,7 @@ impl Blade {
 
         let (x_max, _) = outline.max_depth();
         let mut check_at: Vec<f64> = vec![x_max];
-        check_at.extend(
-            self.webs
-                .iter()
-                .filter(|w| r >= w.r_start - 1e-9 && r <= w.r_end + 1e-9)
-                .map(|w| w.chord_frac),
-        );
+        check_at.extend(self.webs.iter().filter(|w| self.web_present(w, r)).map(|w| w.chord_frac));
         for x in check_at {
             let depth = outline.depth_at(x) * chord;
             let upper = self.surface_thickness(r, Surface::Upper, x);

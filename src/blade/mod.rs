@@ -137,12 +137,15 @@ pub struct Blade {
     plies: Vec<ResolvedPly>,
     webs: Vec<WebSpec>,
     plies_file: String,
+    /// What was changed to read the coordinate files (points reversed, repeats removed).
+    notes: Vec<String>,
 }
 
 impl Blade {
     /// Resolves the project's airfoils and materials into a blade.
     pub fn from_project(project: &Project) -> Result<Blade, BladeError> {
         let mut stations = Vec::with_capacity(project.stations.len());
+        let mut notes = Vec::new();
         for s in &project.stations {
             let outline = match &s.airfoil {
                 AirfoilSpec::Naca4 { code, closed_te } => {
@@ -155,8 +158,16 @@ impl Blade {
                     Outline::from_naca(&naca, 801)
                 }
                 AirfoilSpec::File(path) => {
-                    crate::airfoil::read_coordinates(path, &path.display().to_string())?
+                    let (outline, file_notes) =
+                        crate::airfoil::read_coordinates_noted(path, &path.display().to_string())?;
+                    for note in file_notes {
+                        if !notes.contains(&note) {
+                            notes.push(note);
+                        }
+                    }
+                    outline
                 }
+                AirfoilSpec::Shape(shape) => shape.outline(801),
             };
             stations.push(ResolvedStation { r: s.r, line: s.line, outline });
         }
@@ -175,6 +186,7 @@ impl Blade {
             plies,
             webs: project.webs.clone(),
             plies_file: project.files.plies.clone(),
+            notes,
         })
     }
 
@@ -262,7 +274,7 @@ impl Blade {
         let span = self.tip_radius() - self.root_radius();
         let radii = self.analysis_radii(21);
         let mean_chord = radii.iter().map(|&r| self.chord(r)).sum::<f64>() / radii.len() as f64;
-        let mut w = Vec::new();
+        let mut w = self.notes.clone();
         if span < 2.0 * mean_chord {
             w.push(format!(
                 "the blade is short and stubby: span {span:.3} m is {:.1} mean chords; beam theory \

@@ -98,6 +98,8 @@ pub enum AirfoilSpec {
     },
     /// A coordinate file, relative to the project folder.
     File(PathBuf),
+    /// A built-in shape: `circle` or `ellipse:T`.
+    Shape(crate::airfoil::Shape),
 }
 
 /// One row of `stations.csv`.

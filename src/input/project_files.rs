@@ -40,6 +40,15 @@ pub(super) fn read_stations(dir: &Path, file: &str) -> Result<Vec<Station>, Inpu
         if r < 0.0 {
             return Err(rec.error("r_m", format!("expected a radius of zero or more, found {r}")));
         }
+        if r > MAX_RADIUS_M {
+            return Err(rec.error(
+                "r_m",
+                format!(
+                    "a radius of {r} m is more than any rotor blade ({MAX_RADIUS_M} m): the radii look like millimetres; give them in metres ({} m?)",
+                    r / 1000.0
+                ),
+            ));
+        }
         let chord = rec.number("chord_m")?;
         if chord <= 0.0 {
             return Err(rec.error("chord_m", format!("expected a positive chord, found {chord}")));
@@ -68,13 +77,34 @@ pub(super) fn read_stations(dir: &Path, file: &str) -> Result<Vec<Station>, Inpu
             line: rec.line,
         });
     }
+    let tip = stations.last().map(|s| s.r).unwrap_or(0.0);
+    if let Some(s) = stations.iter().find(|s| s.chord > tip) {
+        return Err(InputError::at(
+            Location::line(display.clone(), s.line).with_field("chord_m"),
+            format!(
+                "a chord of {} m is longer than the blade (tip radius {tip} m): the chords look like millimetres while the radii are in metres; give both in metres ({} m?)",
+                s.chord,
+                s.chord / 1000.0
+            ),
+        ));
+    }
     Ok(stations)
 }
 
-/// `0012`, `naca0012`, `NACA 4412`, with `-closed` for a closed trailing edge; anything else is
-/// a coordinate file relative to the project folder.
+/// The largest radius taken as metres: beyond it a radius is much more likely in millimetres
+/// (the largest rotor blades are a little over 100 m long; common practice).
+const MAX_RADIUS_M: f64 = 200.0;
+
+/// `0012`, `naca0012`, `NACA 4412`, with `-closed` for a closed trailing edge; `circle`;
+/// `ellipse:T` (thickness over chord); anything else is a coordinate file relative to the project
+/// folder.
 fn parse_airfoil(rec: &CsvRecord<'_>, dir: &Path) -> Result<AirfoilSpec, InputError> {
     let text = rec.required_text("airfoil")?;
+    if let Some(shape) =
+        crate::airfoil::Shape::parse(text).map_err(|e| rec.error("airfoil", e.to_string()))?
+    {
+        return Ok(AirfoilSpec::Shape(shape));
+    }
     let lower = text.to_ascii_lowercase();
     let (body, closed_te) = match lower.strip_suffix("-closed") {
         Some(b) => (b.to_string(), true),
@@ -93,7 +123,7 @@ fn parse_airfoil(rec: &CsvRecord<'_>, dir: &Path) -> Result<AirfoilSpec, InputEr
         return Err(rec.error(
             "airfoil",
             format!(
-                "'{text}' is neither a NACA 4-digit code (such as naca0012) nor a coordinate file next to the project (no file {})",
+                "'{text}' is neither a NACA 4-digit code (such as naca0012) nor a coordinate file next to the project (no file {}); built-in shapes are circle and ellipse:T",
                 path.display()
             ),
         ));

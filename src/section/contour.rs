@@ -4,7 +4,15 @@
 //!
 //! Offset: each outer edge moves inward by half its laminate thickness; neighbouring offset edges
 //! meet at their crossing (exact at corners), or, where the thickness changes along a nearly
-//! straight wall, at the mean offset along the mitre (see `outline::offset_vertex`).
+//! straight wall, at the mean offset along the mitre (see `outline::offset_vertex`). An offset
+//! edge that then runs backwards (an edge shorter than the offset beside a convex corner, where
+//! points cluster) is taken out and its neighbours meet at the crossing of their own offset lines,
+//! as a polygon offset with mitre joins does (`collapse_folds`); only the edges of a knife-edge
+//! trailing edge or of a short blunt base are left for the swallowtail cut below.
+//!
+//! Walls thicker than the local depth are refused where the inner surface (the outer line offset
+//! by the whole laminate thickness, folds taken out alike) crosses itself away from the trailing
+//! edge, or where it no longer encloses any area.
 //!
 //! Thin trailing edge: where the offset upper and lower midlines cross ahead of the trailing edge,
 //! the loop is closed at that crossing and the walls aft of it become open branches lying on the
@@ -21,8 +29,8 @@ use std::ops::Range;
 use super::error::SectionError;
 use super::layout::SectionLayout;
 use super::outline::{
-    Point, add, cross, dot, lerp, norm, offset_vertex, scale, self_crossings, sub,
-    twice_signed_area,
+    Crossing, Point, add, cross, dot, lerp, norm, offset_vertex, outward_normal, scale,
+    self_crossings, sub, twice_signed_area,
 };
 
 /// Which part of the section a wall element models.
@@ -173,17 +181,55 @@ pub(crate) fn build_contour(
     if i_te == 0 {
         return Err(degenerate("the leading-edge point is also the trailing-edge point".into()));
     }
-    let v: Vec<Point> = (0..n)
+    let v0: Vec<Point> = (0..n)
         .map(|i| {
             let a = (i + n - 1) % n;
             offset_vertex(pts[i], (tang[a], len[a], half[a]), (tang[i], len[i], half[i]), max_mitre)
         })
         .collect();
+    // Offset edges that fold back (shorter than the offset where points cluster at a corner) are
+    // taken out; the trailing edge is left to the swallowtail cut below.
+    // The trailing edge keeps its base (an edge beside the aftmost point standing more across the
+    // chord than along it), or, at a knife edge (turning by more than 150°, a thin airfoil's),
+    // its two edges, so that walls meeting ahead of it leave a swallowtail to cut below; a
+    // blunter corner is offset like any other.
+    let before = (i_te + n - 1) % n;
+    // A base: steep, and short (its straight run under 6 % of the chord, as an airfoil's).
+    let steep = |e: usize| {
+        let along =
+            |k: usize| (tang[k][0] - tang[e][0]).abs() + (tang[k][1] - tang[e][1]).abs() < 1e-9;
+        let mut run = len[e];
+        let (mut a, mut b) = ((e + n - 1) % n, (e + 1) % n);
+        while along(a) && a != e {
+            run += len[a];
+            a = (a + n - 1) % n;
+        }
+        while along(b) && b != e {
+            run += len[b];
+            b = (b + 1) % n;
+        }
+        tang[e][0].abs() < 0.5 && run <= 0.06 * layout.chord
+    };
+    let te_turn = cross(tang[before], tang[i_te]).atan2(dot(tang[before], tang[i_te])).abs();
+    let keep: Vec<usize> = if steep(i_te) {
+        vec![i_te]
+    } else if steep(before) {
+        vec![before]
+    } else if te_turn > 150f64.to_radians() {
+        vec![before, i_te]
+    } else {
+        vec![]
+    };
+    let (idx, v) = collapse_folds(pts, &tang, &half, v0, &keep, max_mitre);
+    let m0 = idx.len();
 
     // Where the midline crosses itself: a swallowtail behind a thin trailing edge is cut off;
-    // any other crossing means walls thicker than the section is deep.
+    // any other crossing means walls thicker than the section is deep. Crossings are in the
+    // indices of the kept vertices (`idx` maps them to outer segments).
+    let te_pos = idx.iter().position(|&k| k == i_te).unwrap_or(0);
     let crossings = self_crossings(&v);
-    let merge = crossings.iter().filter(|c| c.i < i_te && i_te <= c.j).max_by_key(|c| c.j - c.i);
+    let merge =
+        crossings.iter().filter(|c| c.i < te_pos && te_pos <= c.j).max_by_key(|c| c.j - c.i);
     if let Some(c) = merge {
         let mut cut = vec![c.point];
         cut.extend_from_slice(&v[c.i + 1..=c.j]);
@@ -195,18 +241,23 @@ pub(crate) fn build_contour(
         return Err(SectionError::WallsMeet { r, y_c: y_c(layout, c.point[0]) });
     }
 
+    check_inner_surface(layout, &tang, &half, &keep, i_te, area2, max_mitre)?;
+
     // Loop nodes: (point, kind, outer segment of the element starting there).
-    let mut nodes: Vec<(Point, Node, usize)> = Vec::with_capacity(n + 2 * layout.webs.len() + 1);
+    let mut nodes: Vec<(Point, Node, usize)> = Vec::with_capacity(m0 + 2 * layout.webs.len() + 1);
     match merge {
-        None => nodes.extend(
-            (0..n).map(|k| (v[k], if k == i_te { Node::TrailingEdge } else { Node::Plain }, k)),
-        ),
+        None => nodes.extend((0..m0).map(|q| {
+            let k = idx[q];
+            (v[q], if k == i_te { Node::TrailingEdge } else { Node::Plain }, k)
+        })),
         Some(c) => {
-            nodes.extend((0..=c.i).map(|k| (v[k], Node::Plain, k)));
-            nodes.push((c.point, Node::Merge, c.j));
-            nodes.extend((c.j + 1..n).map(|k| (v[k], Node::Plain, k)));
+            nodes.extend((0..=c.i).map(|q| (v[q], Node::Plain, idx[q])));
+            nodes.push((c.point, Node::Merge, idx[c.j]));
+            nodes.extend((c.j + 1..m0).map(|q| (v[q], Node::Plain, idx[q])));
         }
     }
+    // The merge in outer segment indices, for the trailing-edge branches.
+    let merge = merge.map(|c| Crossing { i: idx[c.i], j: idx[c.j], ..*c });
     let merge_point = merge.map(|c| c.point);
     let order = web_order(layout, merge_point)?;
     insert_web_nodes(layout, &order, &mut nodes)?;
@@ -335,6 +386,114 @@ pub(crate) fn build_contour(
         corners,
         merge: merge_point,
     })
+}
+
+/// Walls thicker than the local depth, where they really are: the inner surface (the outer line
+/// offset inward by the whole laminate thickness, folds taken out as for the midline) must still
+/// run the same way round as the outer line and cross itself only where the walls of a thin
+/// trailing edge meet.
+fn check_inner_surface(
+    layout: &SectionLayout,
+    tang: &[Point],
+    half: &[f64],
+    keep: &[usize],
+    i_te: usize,
+    area2: f64,
+    max_mitre: f64,
+) -> Result<(), SectionError> {
+    let pts = &layout.outer;
+    let n = pts.len();
+    let full: Vec<f64> = half.iter().map(|h| 2.0 * h).collect();
+    let len: Vec<f64> = (0..n).map(|i| norm(sub(pts[(i + 1) % n], pts[i]))).collect();
+    let w0: Vec<Point> = (0..n)
+        .map(|i| {
+            let a = (i + n - 1) % n;
+            offset_vertex(pts[i], (tang[a], len[a], full[a]), (tang[i], len[i], full[i]), max_mitre)
+        })
+        .collect();
+    let (idx, w) = collapse_folds(pts, tang, &full, w0, keep, max_mitre);
+    let err = |p: Point| SectionError::WallsMeet { r: layout.r, y_c: y_c(layout, p[0]) };
+    let te_pos = idx.iter().position(|&k| k == i_te).unwrap_or(0);
+    let crossings = self_crossings(&w);
+    let tail = crossings.iter().filter(|c| c.i < te_pos && te_pos <= c.j).max_by_key(|c| c.j - c.i);
+    if let Some(c) = crossings.iter().find(|c| !tail.is_some_and(|m| m.i <= c.i && c.j <= m.j)) {
+        return Err(err(c.point));
+    }
+    // The inner loop ahead of the trailing-edge meeting point must enclose some area the same
+    // way round as the outer line.
+    let mut inner: Vec<Point> = match tail {
+        Some(c) => {
+            let mut v = w[..=c.i].to_vec();
+            v.push(c.point);
+            v.extend_from_slice(&w[c.j + 1..]);
+            v
+        }
+        None => w.clone(),
+    };
+    if inner.len() < 3 {
+        inner = w;
+    }
+    if twice_signed_area(&inner) >= -1e-6 * area2.abs() {
+        let (sy, sz) = pts.iter().fold((0.0, 0.0), |a, p| (a.0 + p[0], a.1 + p[1]));
+        return Err(err([sy / n as f64, sz / n as f64]));
+    }
+    Ok(())
+}
+
+/// Takes out the offset edges that run backwards against their outer edge (an edge shorter than
+/// the inward offset next to a convex corner, where the offset lines of its neighbours cross
+/// before it begins): the neighbours then meet at the crossing of their own offset lines, as a
+/// polygon offset with mitre joins does (the edges `keep` stay). Returns the outer segment of
+/// each vertex kept, and the vertices.
+fn collapse_folds(
+    pts: &[Point],
+    tang: &[Point],
+    half: &[f64],
+    mut v: Vec<Point>,
+    keep: &[usize],
+    max_mitre: f64,
+) -> (Vec<usize>, Vec<Point>) {
+    let n = pts.len();
+    let mut next: Vec<usize> = (0..n).map(|k| (k + 1) % n).collect();
+    let mut prev: Vec<usize> = (0..n).map(|k| (k + n - 1) % n).collect();
+    let mut alive = vec![true; n];
+    let mut count = n;
+    // The crossing of the offset lines of outer segments a and b, if they are not parallel.
+    let meet = |a: usize, b: usize| -> Option<Point> {
+        let (na, nb) = (outward_normal(tang[a]), outward_normal(tang[b]));
+        let det = cross(na, nb);
+        if det.abs() < 1e-6 {
+            return None;
+        }
+        let ca = dot(na, pts[a]) - half[a];
+        let cb = dot(nb, pts[b]) - half[b];
+        Some([(ca * nb[1] - cb * na[1]) / det, (cb * na[0] - ca * nb[0]) / det])
+    };
+    let reversed =
+        |k: usize, v: &[Point], next: &[usize]| dot(sub(v[next[k]], v[k]), tang[k]) < 0.0;
+    let mut todo: Vec<usize> = (0..n).rev().collect();
+    while let Some(k) = todo.pop() {
+        if !alive[k] || keep.contains(&k) || count <= 4 || !reversed(k, &v, &next) {
+            continue;
+        }
+        let (p, q) = (prev[k], next[k]);
+        let limit = max_mitre * half[p].max(half[q]);
+        let at = match meet(p, q) {
+            Some(x) if norm(sub(x, v[q])) <= limit && norm(sub(x, v[k])) <= limit => x,
+            _ => lerp(v[k], v[q], 0.5),
+        };
+        v[q] = at;
+        alive[k] = false;
+        count -= 1;
+        next[p] = q;
+        prev[q] = p;
+        // The neighbours may now fold.
+        todo.push(q);
+        todo.push(p);
+    }
+    let idx: Vec<usize> = (0..n).filter(|&k| alive[k]).collect();
+    let kept = idx.iter().map(|&k| v[k]).collect();
+    (idx, kept)
 }
 
 /// Webs sorted by chordwise position, checked for place.

@@ -109,7 +109,7 @@ pub(crate) fn self_crossings(pts: &[Point]) -> Vec<Crossing> {
 /// length `la`, half thickness `da`) meets the edge after it (`tb`, `lb`, `db`): the crossing of
 /// the two edges offset inward by their half thicknesses. Where the thickness changes on a nearly
 /// straight wall that crossing runs far along the wall; the offset by the mean half thickness
-/// along the mitre is taken instead. The mitre is limited to `max_mitre` times the larger half
+/// along the mitre is taken instead (see `EXACT_JOIN`). The mitre is limited to `max_mitre` times the larger half
 /// thickness (a knife-edge corner; such corners lie where walls meet and are cut away later).
 pub(crate) fn offset_vertex(
     p: Point,
@@ -131,7 +131,11 @@ pub(crate) fn offset_vertex(
     if (da - db).abs() > 1e-12 * da.max(db) && det.abs() > 1e-9 {
         // Solve na·v = -da, nb·v = -db.
         let exact = [(-da * nb[1] + db * na[1]) / det, (-db * na[0] + da * nb[0]) / det];
-        if norm(sub(exact, mitre)) <= 0.5 * la.min(lb) {
+        // Near the mitre (a corner): the exact crossing, whatever the lengths of the edges, so
+        // that splitting a straight face into more points changes nothing.
+        let near = norm(sub(exact, mitre));
+        let corner = dot(ta, tb) < CORNER_TURN.cos();
+        if (corner && near <= EXACT_JOIN * da.max(db)) || (!corner && near <= 0.5 * la.min(lb)) {
             v = exact;
         }
     }
@@ -142,6 +146,16 @@ pub(crate) fn offset_vertex(
     }
     add(p, v)
 }
+
+/// At a corner (a turn of more than `CORNER_TURN`) where the thickness changes, the crossing of
+/// the two offset edges is the midline vertex when it lies within this many times the larger
+/// half thickness of the mitre point, whatever the lengths of the edges (so splitting a straight
+/// face changes nothing). At a smaller turn (a thickness step on a nearly straight wall, whose
+/// ramp the blade module sets) the crossing is taken only within half the shorter edge.
+const EXACT_JOIN: f64 = 6.0;
+
+/// The least turn between two edges that makes a corner for [`EXACT_JOIN`].
+const CORNER_TURN: f64 = 10.0 * std::f64::consts::PI / 180.0;
 
 /// `z` where the polyline `chain`, whose `y` does not decrease, crosses the line at `y`; `None`
 /// outside its range. Vertical pieces are skipped.
