@@ -2,6 +2,9 @@
 //! deflection, pitch sweep and ply strength ratios at every station, wall point and ply. The
 //! model (sections solved) is built outside the timed loop; `recovery only` times the ply
 //! stresses and strength ratios of the three cases without the pitch sweep and deflection.
+//! Both run with the walls following the beam (`wall_bending = true`, the default) and with the
+//! wall curvatures held (`false`); the number of ply faces evaluated per iteration is printed
+//! once, so a time per ply-face evaluation follows from the figures.
 
 use criterion::{Criterion, criterion_group, criterion_main};
 use layloft::analysis::BladeModel;
@@ -10,16 +13,37 @@ use layloft::loads::{LoadDistribution, span_loads};
 use layloft::stress::{analyse_cases, recover_at};
 
 fn bench(c: &mut Criterion) {
-    let model =
-        BladeModel::build(read_project("layups/mine-fan/blade.toml".as_ref()).expect("demo"))
-            .expect("demo model");
+    for wall_bending in [true, false] {
+        bench_mode(c, wall_bending);
+    }
+}
+
+fn bench_mode(c: &mut Criterion, wall_bending: bool) {
+    let mut project = read_project("layups/mine-fan/blade.toml".as_ref()).expect("demo");
+    project.sections.wall_bending = wall_bending;
+    let model = BladeModel::build(project).expect("demo model");
+    let mode = if wall_bending { "wall bending" } else { "walls held" };
+    let props = model.properties();
+    let mut faces = 0;
+    for case in &model.project.load_cases {
+        let pitch = case.pitch.unwrap_or(model.project.rotor.pitch);
+        let loads = span_loads(
+            &LoadDistribution::new(&props, &model.project.point_masses, case, pitch)
+                .expect("loads"),
+        );
+        for st in &model.stations {
+            let res = loads.chord_at(st.layout.r);
+            let points = recover_at(&st.layout, &st.section, &res, case.delta_t).expect("recovery");
+            faces += points.iter().map(|p| 2 * p.plies.len()).sum::<usize>();
+        }
+    }
+    eprintln!("mine-fan, {mode}: {faces} ply faces per recovery-only iteration");
     let mut g = c.benchmark_group("stress");
     g.sample_size(20);
-    g.bench_function("mine-fan, all cases", |b| {
+    g.bench_function(format!("mine-fan, all cases, {mode}"), |b| {
         b.iter(|| analyse_cases(&model, None).expect("stress"))
     });
-    let props = model.properties();
-    g.bench_function("mine-fan, recovery only", |b| {
+    g.bench_function(format!("mine-fan, recovery only, {mode}"), |b| {
         b.iter(|| {
             for case in &model.project.load_cases {
                 let pitch = case.pitch.unwrap_or(model.project.rotor.pitch);

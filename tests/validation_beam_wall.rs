@@ -494,3 +494,41 @@ fn held_wall_carries_the_residual_stresses_of_its_symmetric_counterpart() {
     let (a, b) = (free_t.plies[0].top_thermal.stress_12, free_sym.plies[0].top_thermal.stress_12);
     assert!((a - b).norm() > 0.1 * b.norm());
 }
+
+/// The project key `[sections] wall_bending` reaches the section solve: the mine-fan demo as
+/// given (no key: the walls follow the beam) and copied with `wall_bending = false` (the walls
+/// held) gives every station's section solved in that mode, equal to solving its layout
+/// directly in that mode; the two differ (the demo's skins are unsymmetric).
+#[test]
+fn project_key_selects_the_wall_model() {
+    use layloft::analysis::BladeModel;
+    use layloft::input::read_project;
+    let src = std::path::Path::new("layups/mine-fan");
+    let dir = std::env::temp_dir().join(format!("layloft-wall-key-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).expect("temp folder");
+    for entry in std::fs::read_dir(src).expect("demo folder") {
+        let path = entry.expect("entry").path();
+        if path.is_file() {
+            std::fs::copy(&path, dir.join(path.file_name().expect("name"))).expect("copy");
+        }
+    }
+    let toml = std::fs::read_to_string(dir.join("blade.toml")).expect("blade.toml");
+    assert!(!toml.contains("wall_bending"));
+    let held_toml = toml.replacen("[sections]", "[sections]\nwall_bending = false", 1);
+    std::fs::write(dir.join("blade.toml"), held_toml).expect("write");
+    let held =
+        BladeModel::build(read_project(&dir.join("blade.toml")).expect("read")).expect("held");
+    let beam =
+        BladeModel::build(read_project(&src.join("blade.toml")).expect("read")).expect("beam");
+    std::fs::remove_dir_all(&dir).ok();
+    assert!(!held.project.sections.wall_bending && beam.project.sections.wall_bending);
+    for (h, b) in held.stations.iter().zip(&beam.stations) {
+        assert_eq!(h.section.wall_curvature(), WallCurvature::Held);
+        assert_eq!(b.section.wall_curvature(), WallCurvature::Beam);
+        let direct = solve(&h.layout, WallCurvature::Held).properties;
+        assert_eq!(direct.stiffness, h.section.properties.stiffness);
+        let direct = solve(&b.layout, WallCurvature::Beam).properties;
+        assert_eq!(direct.stiffness, b.section.properties.stiffness);
+        assert!((h.section.properties.ei_flap / b.section.properties.ei_flap - 1.0).abs() > 1e-4);
+    }
+}

@@ -20,7 +20,9 @@ use std::sync::OnceLock;
 use crate::Error;
 use crate::blade::Blade;
 use crate::input::Project;
-use crate::section::{SectionLayout, SectionParams, SectionProperties, SolvedSection};
+use crate::section::{
+    SectionLayout, SectionParams, SectionProperties, SolvedSection, WallCurvature,
+};
 
 /// One analysis station: its wall layout, the schedule's plies in each of its laminates, and the
 /// solved section.
@@ -92,7 +94,7 @@ impl BladeModel {
         radii: &[f64],
         progress: &mut dyn FnMut(usize, usize),
     ) -> Result<Self, Error> {
-        let params = SectionParams::default();
+        let params = section_params(&project);
         let mut stations = Vec::with_capacity(radii.len());
         for (i, &r) in radii.iter().enumerate() {
             let (layout, plies) =
@@ -177,6 +179,14 @@ impl BladeModel {
         }
         groups
     }
+}
+
+/// The section solver's settings for a project: the defaults, with the wall curvature model of
+/// `[sections] wall_bending`.
+pub fn section_params(project: &Project) -> SectionParams {
+    let wall_curvature =
+        if project.sections.wall_bending { WallCurvature::Beam } else { WallCurvature::Held };
+    SectionParams { wall_curvature, ..SectionParams::default() }
 }
 
 /// A warning and the radii where it (or one like it with other numbers) occurs; no radii for a

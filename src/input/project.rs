@@ -404,10 +404,14 @@ pub struct SectionSpec {
     pub contour_points: usize,
     /// Analysis stations along the span (the project's own stations when empty).
     pub analysis_stations: usize,
+    /// Whether the walls bend and twist with the beam (`wall_bending`, true by default:
+    /// [`WallCurvature::Beam`](crate::section::WallCurvature)); false holds the wall curvatures
+    /// at zero (the membrane theory, [`WallCurvature::Held`](crate::section::WallCurvature)).
+    pub wall_bending: bool,
 }
 
 impl Default for SectionSpec {
     fn default() -> Self {
-        SectionSpec { contour_points: 240, analysis_stations: 0 }
+        SectionSpec { contour_points: 240, analysis_stations: 0, wall_bending: true }
     }
 }

@@ -24,7 +24,9 @@
 //!   `min_core_thickness_mm` (2);
 //! - `[modal]`: `elements` (40), `modes` (8), `rpm_step`, `[modal.root_springs]` with
 //!   `axial_N_m`, `flap_Nm_rad`, `edge_Nm_rad`, `torsion_Nm_rad`;
-//! - `[sections]`: `contour_points` (240), `analysis_stations` (0: the project's stations);
+//! - `[sections]`: `contour_points` (240), `analysis_stations` (0: the project's stations),
+//!   `wall_bending` (true: the walls bend and twist with the beam; false: wall curvatures held
+//!   at zero, the membrane theory);
 //! - `[fluid]`: `density_kg_m3` (required in the table; no fluid without the table);
 //! - `[excitation]`: `vanes` (counts V of stationary vanes or struts: orders k·V),
 //!   `vane_multiples` (2), `orders` (further rotor orders), `[[excitation.fixed]]` with `name`
@@ -602,6 +604,7 @@ fn read_sections(t: &mut TableReader<'_>) -> Result<SectionSpec, InputError> {
             format!("expected 0 (the project's stations) or 2 to 2000, found {analysis_stations}"),
         ));
     }
+    let wall_bending = t.optional_bool("wall_bending")?.unwrap_or(d.wall_bending);
     t.finish()?;
-    Ok(SectionSpec { contour_points, analysis_stations })
+    Ok(SectionSpec { contour_points, analysis_stations, wall_bending })
 }

@@ -158,11 +158,17 @@ fn blade_section(doc: &mut HtmlReport, m: &BladeModel) {
 
 fn sections_section(doc: &mut HtmlReport, m: &BladeModel, drawings: &[SectionDrawing]) {
     let s = doc.section("Section properties");
-    s.paragraph(
+    s.paragraph(if m.project.sections.wall_bending {
         "Thin-walled section theory on the wall midline, each wall laminate reduced for a beam wall \
-         (hoop force and wall moments free), closed cells with one twist rate. Stiffness in the chord \
-         frame through the elastic centre; centres as fractions of chord from the leading edge.",
-    );
+         (hoop force free, hoop curvature held, span-wise and twisting curvature those of the beam, \
+         so the walls' own bending counts), closed cells with one twist rate. Stiffness in the chord \
+         frame through the elastic centre; centres as fractions of chord from the leading edge."
+    } else {
+        "Thin-walled section theory on the wall midline, each wall laminate reduced for a beam wall \
+         (hoop force free, wall curvatures held at zero: membrane theory, set by [sections] \
+         wall_bending = false), closed cells with one twist rate. Stiffness in the chord frame \
+         through the elastic centre; centres as fractions of chord from the leading edge."
+    });
     s.figure("stiffness", "Bending and torsion stiffness along the span.", stiffness_svg(m));
     s.figure("mass", "Mass per unit length along the span, with the point masses.", mass_svg(m));
     let mut t = Table::new(&[

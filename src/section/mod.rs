@@ -14,8 +14,8 @@
 //!    curvature held, span-wise and twisting curvatures set by the beam (not free to curl): the
 //!    4x4 stiffness of `(N_x, N_xs, M_x, M_xs)` on `(eps_x, gamma_xs, kappa_x, kappa_xs)`.
 //!    [`SectionParams::wall_curvature`] says whether the walls take the beam's curvatures
-//!    through their thickness ([`WallCurvature::Beam`]) or are held flat at leading order
-//!    ([`WallCurvature::Held`], the default).
+//!    through their thickness ([`WallCurvature::Beam`], the default) or are held flat at leading
+//!    order ([`WallCurvature::Held`], the membrane theory).
 //! 2. *Contour* (`contour.rs`): the wall midline is the outer mould line offset inward by half the
 //!    local laminate thickness; where the walls of a thin trailing edge meet, the cell closes
 //!    there and the rest becomes an open solid branch; webs run between the upper and lower

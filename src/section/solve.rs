@@ -23,7 +23,7 @@ pub struct SectionParams {
     /// Longest mitre at a sharp corner of the offset midline, in half wall thicknesses (20 by
     /// default, a corner of about 6°); sharper corners are where walls meet and are cut away.
     pub max_mitre: f64,
-    /// How the wall curvatures follow the beam ([`WallCurvature::Held`] by default).
+    /// How the wall curvatures follow the beam ([`WallCurvature::Beam`] by default).
     pub wall_curvature: WallCurvature,
 }
 
@@ -33,7 +33,7 @@ impl Default for SectionParams {
             web_elements: 8,
             thick_wall_ratio: 0.10,
             max_mitre: 20.0,
-            wall_curvature: WallCurvature::Held,
+            wall_curvature: WallCurvature::Beam,
         }
     }
 }

@@ -63,12 +63,12 @@ pub enum WallCurvature {
     /// `kappa_x` and `kappa_xs` held at zero: the walls neither curl nor take the beam's
     /// curvature through their thickness. The leading order of thin-wall theory: the section
     /// stiffness is the membrane theory, and ply strains are uniform through each wall.
-    #[default]
     Held,
     /// `kappa_x = n_z kappa_f + n_y kappa_e` and `kappa_xs = -2 kappa_t`: the walls bend and
     /// twist with the beam. Adds the wall's own bending and coupling terms (`B`, order `t/h`;
     /// `D`, order `(t/h)²`) to the section stiffness and the strain gradient through the wall
-    /// thickness to the ply stresses.
+    /// thickness to the ply stresses. The default.
+    #[default]
     Beam,
 }
 

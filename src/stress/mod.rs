@@ -131,6 +131,10 @@ pub struct PointStress {
     pub n_x: f64,
     /// Wall shear flow, N/m.
     pub n_xs: f64,
+    /// The wall's midplane strains `(eps_x, eps_s, gamma_xs)` and curvatures `(kappa_x, 0,
+    /// kappa_xs)` in its laminate axes (1 = span, 2 = contour, 3 = outward normal), from which
+    /// the ply stresses follow (hoop force free, hoop curvature held).
+    pub deformation: crate::laminate::Deformation,
     /// Every ply of the wall.
     pub plies: Vec<PlyPoint>,
 }

@@ -176,6 +176,7 @@ pub(crate) fn recover_section(
                 location: locate(layout, &e.part, e.midpoint()),
                 n_x: state.n_x,
                 n_xs: state.n_xs,
+                deformation: state.deformation,
                 plies,
             }
         })
