@@ -46,8 +46,9 @@ fn every_command_takes_the_project_folder_or_its_blade_toml() {
     }
     let out = tempfile::tempdir().unwrap();
     let dest = out.path().join("t");
-    let (code, _, err) = layloft(&["tooling", FAN, "--out", dest.to_str().unwrap()]);
+    let (code, stdout, err) = layloft(&["tooling", FAN, "--out", dest.to_str().unwrap()]);
     assert_eq!(code, Some(0), "tooling on the folder: {err}");
+    assert_eq!(last_line(&stdout), "Core-alloy melting check: PASS", "the verdict comes last");
     assert!(dest.join("tooling-summary.json").is_file());
 }
 

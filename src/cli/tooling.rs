@@ -283,7 +283,20 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         result.tooling.machining.len(),
         args.out.display()
     ));
-    Ok(if tell(&result, out) { Outcome::CheckFailed } else { Outcome::Success })
+    let failed = tell(&result, out);
+    if !args.json {
+        // The verdict of the melting check is the last line.
+        let findings = &result.summary.melt.findings;
+        let verdict = if failed {
+            "FAIL (see the warnings above)"
+        } else if findings.iter().any(|f| f.passed == Some(true)) {
+            "PASS"
+        } else {
+            "NOT CHECKED (the project names no core alloy and temperatures in [tooling])"
+        };
+        out.data(&format!("Core-alloy melting check: {verdict}"));
+    }
+    Ok(if failed { Outcome::CheckFailed } else { Outcome::Success })
 }
 
 fn file_name(p: &Path) -> String {
