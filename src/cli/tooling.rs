@@ -15,10 +15,10 @@ use anyhow::anyhow;
 use layloft::Error;
 use layloft::blade::Blade;
 use layloft::input::{Project, read_project};
-use layloft::report::{ToolingReport, write_atomic};
+use layloft::report::{FileSet, ToolingReport};
 use layloft::tooling::{
     CheckParams, MANIFEST_FILE, Manifest, ManifestEntry, MeshError, StaleFiles, StlFormat,
-    StlOptions, ToolingParams, build_tooling, remove_stale, sha256_hex, stale_files, summarise,
+    StlOptions, ToolingParams, build_tooling, sha256_hex, stale_files, summarise,
     write_part_set_with_progress,
 };
 use layloft::units::MM;
@@ -170,9 +170,21 @@ pub fn build_and_write(
         parts.iter().chain(&copies).map(|(n, _)| format!("{n}.stl")).collect();
     set.push(SUMMARY_FILE.into());
     let stale = stale_files(dir, &set);
+    // The whole set is written into a staging folder beside `dir` and put in place as one
+    // (`FileSet`), so that a failure or a killed run leaves the earlier set whole.
+    let parent = match dir.parent() {
+        Some(p) if !p.as_os_str().is_empty() => p.to_path_buf(),
+        _ => std::path::PathBuf::from("."),
+    };
+    layloft::report::ensure_folder(&parent)?;
+    let staging =
+        tempfile::Builder::new().prefix(".layloft-set-").tempdir_in(&parent).map_err(|e| {
+            Failure::Run(anyhow!("cannot make a staging folder beside {}: {e}", dir.display()))
+        })?;
+    let stage = staging.path();
     let bar = out.progress(2 * (parts.len() + copies.len()) as u64, "checking");
-    let written = write_part_set_with_progress(
-        dir,
+    let mut written = write_part_set_with_progress(
+        stage,
         &parts,
         &copies,
         stl,
@@ -195,10 +207,12 @@ pub fn build_and_write(
         if stl.format == StlFormat::Ascii { "ASCII" } else { "binary" },
         stl.unit.symbol()
     );
+    for w in &mut written {
+        w.path = dir.join(file_name(&w.path));
+    }
     let result = Written { tooling, written, summary, format, stale };
     let json = serde_json::to_string_pretty(&result.report(&project.name).to_json())
         .map_err(|e| Failure::Run(anyhow!("cannot format the JSON summary: {e}")))?;
-    write_atomic(&dir.join(SUMMARY_FILE), json.as_bytes()).map_err(|e| Failure::Run(e.into()))?;
     let mut files: Vec<ManifestEntry> = result
         .written
         .iter()
@@ -214,9 +228,24 @@ pub fn build_and_write(
         sha256: sha256_hex(json.as_bytes()),
     });
     let manifest = Manifest::new(stl.unit.symbol(), files);
-    write_atomic(&dir.join(MANIFEST_FILE), manifest.to_json().as_bytes())
-        .map_err(|e| Failure::Run(e.into()))?;
-    remove_stale(dir, &result.stale).map_err(|e| Failure::Run(e.into()))?;
+    let mut fileset = FileSet::new();
+    for w in &result.written {
+        let name = file_name(&w.path);
+        let bytes = std::fs::read(stage.join(&name))
+            .map_err(|e| Failure::Run(anyhow!("cannot read back the staged {name}: {e}")))?;
+        fileset.add(name, bytes);
+    }
+    drop(staging);
+    fileset.add(SUMMARY_FILE, json.into_bytes());
+    fileset.add(MANIFEST_FILE, manifest.to_json().into_bytes());
+    // The tooling manifest decides which files of the earlier run go: those it lists unchanged.
+    for name in &result.stale.remove {
+        fileset.decide_old(name, false);
+    }
+    for (name, _) in &result.stale.kept {
+        fileset.decide_old(name, true);
+    }
+    fileset.commit(dir).map_err(|e| Failure::Run(e.into()))?;
     Ok(result)
 }
 

@@ -24,6 +24,10 @@ pub const SET_LIST: &str = ".layloft-set";
 #[derive(Debug, Default)]
 pub struct FileSet {
     files: Vec<(PathBuf, Vec<u8>)>,
+    /// Files of the previous folder to drop whatever its list says.
+    drop_old: BTreeSet<PathBuf>,
+    /// Files of the previous folder to carry over whatever its list says.
+    keep_old: BTreeSet<PathBuf>,
 }
 
 /// What committing a set did.
@@ -51,6 +55,20 @@ impl FileSet {
         match self.files.iter_mut().find(|(p, _)| *p == relative) {
             Some(slot) => slot.1 = bytes,
             None => self.files.push((relative, bytes)),
+        }
+    }
+
+    /// Decides for a file of the previous folder that is not in the new set: `keep` carries it
+    /// into the new folder, otherwise it goes with the old folder; this overrides the set's own
+    /// list (for a caller that keeps a list of its own, such as the tooling manifest).
+    pub fn decide_old(&mut self, relative: impl Into<PathBuf>, keep: bool) {
+        let relative = relative.into();
+        if keep {
+            self.drop_old.remove(&relative);
+            self.keep_old.insert(relative);
+        } else {
+            self.keep_old.remove(&relative);
+            self.drop_old.insert(relative);
         }
     }
 
@@ -117,7 +135,8 @@ impl FileSet {
                 if new.contains(rel.as_path()) || rel == Path::new(SET_LIST) {
                     continue;
                 }
-                if old.contains(&rel) {
+                let listed = old.contains(&rel) || self.drop_old.contains(&rel);
+                if listed && !self.keep_old.contains(&rel) {
                     outcome.removed.push(rel);
                     continue;
                 }
