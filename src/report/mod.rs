@@ -29,7 +29,9 @@ pub use modal::{campbell_csv, modal_json, mode_shapes_csv};
 pub use modal_text::modal_text;
 pub use section_svg::{section_svg, section_svg_names};
 pub use sections::{SectionsReport, laminate_label};
-pub use stress::{stress_csv, stress_json, stress_text};
+pub use stress::{
+    buckling_table, not_covered_text, panel_place, stress_csv, stress_json, stress_text,
+};
 pub use stress_map::stress_svg;
 pub use table::{Align, Table, cautions_text, fixed, sig4};
 pub use tooling::ToolingReport;
