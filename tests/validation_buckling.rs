@@ -293,3 +293,129 @@ fn interaction_of_compression_and_shear() {
     assert!((interaction_factor(0.5, 0.0) - 2.0).abs() < 1e-12);
     assert!((interaction_factor(0.5, 0.5) - (5f64.sqrt() - 1.0)).abs() < 1e-12);
 }
+
+#[test]
+fn demo_compression_skin_against_a_hand_calculation() {
+    use layloft::analysis::BladeModel;
+    use layloft::buckling::PanelPart;
+    use layloft::input::read_project;
+    use layloft::stress::analyse_cases;
+
+    let model =
+        BladeModel::build(read_project("layups/mine-fan/blade.toml".as_ref()).unwrap()).unwrap();
+    let cases = analyse_cases(&model, None).unwrap();
+    // The panel of the lowest buckling reserve factor over every case.
+    let (case, i, j) = cases
+        .iter()
+        .filter_map(|c| c.least_buckling().map(|(i, j)| (c, i, j)))
+        .min_by(|a, b| {
+            let rf = |x: &(&layloft::stress::CaseStress, usize, usize)| {
+                x.0.buckling[x.1].panels[x.2].check.reserve_factor
+            };
+            rf(a).total_cmp(&rf(b))
+        })
+        .unwrap();
+    let st = &model.stations[i];
+    let p = &case.buckling[i].panels[j];
+    let panel = &p.panel;
+    assert_eq!(panel.part, PanelPart::Skin);
+    assert!(p.check.n_x < 0.0, "a compressed panel: {:?}", p.check);
+
+    // Step 1: the width is the panel's midline length, at least its chordwise extent.
+    let elements = st.section.elements();
+    let b: f64 = panel.elements.iter().map(|&k| elements[k].length()).sum();
+    assert!((b / panel.width - 1.0).abs() < 1e-12);
+    let extent = match (&p.from, &p.to) {
+        (
+            layloft::stress::WallLocation::Surface { x_c: a, .. },
+            layloft::stress::WallLocation::Surface { x_c: c, .. },
+        ) => (a - c).abs() * st.layout.chord,
+        _ => unreachable!(),
+    };
+    assert!(b > extent && b < 1.3 * extent, "width {b} against chordwise extent {extent}");
+
+    // Step 2: the wall's stiffness by CLT; the demo's fabrics are balanced, so D16 = D26 = 0,
+    // and the reduced bending stiffness D* = D - B A^-1 B is taken for the unsymmetric wall.
+    let abd = st.layout.laminates[panel.laminate].abd();
+    let d = abd.d - abd.b * abd.a.try_inverse().unwrap() * abd.b;
+    assert!(d[(0, 2)].abs() < 1e-9 * d[(0, 0)] && d[(1, 2)].abs() < 1e-9 * d[(0, 0)]);
+
+    // Step 3: flat, simply supported (the demo's default): Whitney's long-plate formula,
+    // N_flat = 2 pi² / b² (sqrt(D11 D22) + D12 + 2 D66).
+    let n_flat =
+        2.0 * PI * PI / (b * b) * ((d[(0, 0)] * d[(1, 1)]).sqrt() + d[(0, 1)] + 2.0 * d[(2, 2)]);
+
+    // Step 4: the curvature gain of the panel's radius R (the model's geometry) by the
+    // shallow-shell formula with the SP-8007 knock-down gamma on the curvature term:
+    // N(a) = [D11 a⁴ + 2 (D12 + 2 D66) a² k² + D22 k⁴ + gamma² a⁴ / (R² (c22 a⁴ + (2 c12 + c66)
+    // a² k² + c11 k⁴))] / a², k = pi / b, c = A^-1, least over the half-wavelength pi/a
+    // (a fine scan).
+    let r = panel.radius;
+    let c = abd.a.try_inverse().unwrap();
+    let te = (d[(0, 0)] * d[(1, 1)] / (abd.a[(0, 0)] * abd.a[(1, 1)])).powf(0.25);
+    let gamma = 1.0 - 0.901 * (1.0 - (-(r / te).sqrt() / 29.8).exp());
+    assert!((panel.knock_down - gamma).abs() < 1e-12);
+    let k2 = (PI / b).powi(2);
+    let curved = |with: f64| {
+        (1..=40000)
+            .map(|n| {
+                let a = PI / (b * 0.01 * 1.0003f64.powi(n));
+                let a2 = a * a;
+                let bend = d[(0, 0)] * a2 * a2
+                    + 2.0 * (d[(0, 1)] + 2.0 * d[(2, 2)]) * a2 * k2
+                    + d[(1, 1)] * k2 * k2;
+                let am = c[(1, 1)] * a2 * a2
+                    + (2.0 * c[(0, 1)] + c[(2, 2)]) * a2 * k2
+                    + c[(0, 0)] * k2 * k2;
+                (bend + with * gamma * gamma * a2 * a2 / (r * r * am)) / a2
+            })
+            .fold(f64::INFINITY, f64::min)
+    };
+    let gain = if r.is_finite() { curved(1.0) - curved(0.0) } else { 0.0 };
+    assert!((curved(0.0) / n_flat - 1.0).abs() < 1e-6);
+
+    // Step 5: the critical compression and the model's value agree to the search tolerance.
+    let n_cr = n_flat + gain;
+    assert!(
+        (panel.critical.compression / n_cr - 1.0).abs() < 1e-3,
+        "model {} against hand {n_cr} (flat {n_flat}, gain {gain})",
+        panel.critical.compression
+    );
+
+    // Step 6: the load is the most compressive N_x of the panel's points, each taken at its
+    // strain in the panel's laminate (N_x times the panel laminate's axial stiffness 1/a11 over
+    // the point's own: the panel here runs over the thin edge of the spar cap), and the largest
+    // shear flow; the reserve factor solves lambda R_c + lambda² R_s² = 1.
+    let pts = &case.stations[i].points;
+    let axial = |lam: usize| 1.0 / st.layout.laminates[lam].abd().a.try_inverse().unwrap()[(0, 0)];
+    let laminates: std::collections::BTreeSet<usize> =
+        panel.elements.iter().map(|&k| elements[k].laminate).collect();
+    assert!(laminates.len() >= 2, "the panel spans a ply drop: {laminates:?}");
+    let n_x = panel
+        .elements
+        .iter()
+        .map(|&k| {
+            let q = pts.iter().find(|q| q.element == k).unwrap();
+            q.n_x * axial(panel.laminate) / axial(elements[k].laminate)
+        })
+        .fold(f64::INFINITY, f64::min);
+    assert!((p.check.n_x / n_x - 1.0).abs() < 1e-12);
+    let r_c = -n_x / n_cr;
+    let r_s = p.check.r_s;
+    let lambda = (-r_c + (r_c * r_c + 4.0 * r_s * r_s).sqrt()) / (2.0 * r_s * r_s);
+    assert!(
+        (p.check.buckling / lambda - 1.0).abs() < 2e-3,
+        "{} against {lambda}",
+        p.check.buckling
+    );
+
+    // The demo's web is a sandwich, glass-biax 0.5 mm / PVC foam 5 mm / glass-biax 0.5 mm:
+    // S = G_c d² / t_c = 27 MPa (5.5 mm)² / 5 mm = 163.35 kN/m (Allen 1969, ch. 2).
+    let web = case.buckling[i]
+        .panels
+        .iter()
+        .find(|q| matches!(q.panel.part, PanelPart::Web { .. }))
+        .expect("a web panel");
+    let sw = web.panel.sandwich.as_ref().expect("the web is a sandwich");
+    assert!((sw.shear_stiffness / 163.35e3 - 1.0).abs() < 1e-9, "{}", sw.shear_stiffness);
+}

@@ -136,6 +136,11 @@ pub fn write_report(model: &BladeModel, dest: &Destination, out: &Output) -> Res
             stress_csv(&stress).as_bytes(),
         )?;
         put("reserve-map.svg", "reserve-factor map (SVG)", stress_svg(model, &stress).as_bytes())?;
+        put(
+            "buckling-map.svg",
+            "buckling reserve factor of every wall panel (SVG)",
+            layloft::report::buckling_svg(model, &stress).as_bytes(),
+        )?;
     }
     let mjson =
         modal_json(&modal.campbell, &p.rotor, &modal.excitations, &modal.crossings, &modal.margins);

@@ -3,6 +3,7 @@
 //! sees half a file and a failed run leaves what was there before).
 
 mod blade_plots;
+mod buckling_map;
 mod campbell;
 mod document;
 pub mod html;
@@ -21,6 +22,7 @@ mod write;
 pub use blade_plots::{
     mass_svg, mode_shapes_svg, pitch_moment_svg, planform_svg, stiffness_svg, twist_svg,
 };
+pub use buckling_map::buckling_svg;
 pub use campbell::{campbell_svg, kind_colour};
 pub use document::{ReportBlock, ReportInputs, SectionDrawing, blade_report};
 pub use html::HtmlReport;
