@@ -1,13 +1,15 @@
 //! The whole stress recovery for the mine-fan demo blade with all its load cases: loads,
 //! deflection, pitch sweep and ply strength ratios at every station, wall point and ply. The
 //! model (sections solved) is built outside the timed loop; `recovery only` times the ply
-//! stresses and strength ratios of the three cases without the pitch sweep and deflection.
+//! stresses and strength ratios of the three cases without the pitch sweep and deflection;
+//! `panels` times what buckling adds: the wall panels and their critical loads (once per model)
+//! and their checks under the three cases. Its share is panels over all cases.
 
 use criterion::{Criterion, criterion_group, criterion_main};
 use layloft::analysis::BladeModel;
 use layloft::input::read_project;
 use layloft::loads::{LoadDistribution, span_loads};
-use layloft::stress::{analyse_cases, recover_at};
+use layloft::stress::{analyse_cases, model_panels, recover_at};
 
 fn bench(c: &mut Criterion) {
     let model =
@@ -32,6 +34,34 @@ fn bench(c: &mut Criterion) {
                     recover_at(&st.layout, &st.section, &res, case.delta_t).expect("recovery");
                 }
             }
+        })
+    });
+    g.bench_function("mine-fan, panels and their critical loads", |b| {
+        b.iter(|| model_panels(&model))
+    });
+    let panels = model_panels(&model);
+    let cases = analyse_cases(&model, None).expect("stress");
+    g.bench_function("mine-fan, panel checks of all cases", |b| {
+        b.iter(|| {
+            let mut least = f64::INFINITY;
+            for case in &cases {
+                for (st, ps) in case.stations.iter().zip(&panels) {
+                    for p in ps {
+                        let res: Vec<(f64, f64)> = p
+                            .elements
+                            .iter()
+                            .map(|&k| {
+                                st.points
+                                    .iter()
+                                    .find(|q| q.element == k)
+                                    .map_or((0.0, 0.0), |q| (q.n_x, q.n_xs))
+                            })
+                            .collect();
+                        least = least.min(layloft::buckling::check_panel(p, &res).reserve_factor);
+                    }
+                }
+            }
+            least
         })
     });
     g.finish();
