@@ -10,7 +10,7 @@ use layloft::buckling::{
 };
 use layloft::input::read_materials_str;
 use layloft::laminate::{Laminate, LayupCode, Ply};
-use layloft::material::{Isotropic, Lamina};
+use layloft::material::Lamina;
 use layloft::units::Angle;
 use nalgebra::Matrix3;
 
