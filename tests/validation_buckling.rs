@@ -225,6 +225,11 @@ fn sandwich_panel_buckling_with_and_without_core_shear() {
         "{} against {allen}",
         with_core.compression
     );
+    // The Ritz solution with the core's flexibility through its mode agrees too.
+    let ritz = LongPlate::new(EdgeSupport::SimplySupported)
+        .critical(&abd.d, b, ShearFlexibility(s_hand))
+        .compression;
+    assert!((ritz / allen - 1.0).abs() < 1e-4, "{ritz} against {allen}");
     let (rigid, ..) = solver.panel_critical(&abd, b, f64::INFINITY, None);
     let k = k_of(rigid.compression, d, b);
     assert!((k - 4.0).abs() < 1e-3, "k = {k}");

@@ -17,6 +17,8 @@
 //! its three equal thirds (length over the turn of the midline), infinite when the panel is
 //! straight or turns both ways.
 
+use std::cell::RefCell;
+use std::collections::HashMap;
 use std::sync::Arc;
 
 use nalgebra::Matrix3;
@@ -76,12 +78,39 @@ pub struct Panel {
     pub element_sandwich: Vec<Option<Arc<SandwichWall>>>,
 }
 
-/// What the panel finder needs besides the section.
+/// What the panel finder needs besides the section. It keeps the critical loads of every
+/// bending stiffness it has met at unit width (a flat plate's loads scale as `1/b²`), so the
+/// same laminate at many stations costs one solution.
 #[derive(Debug, Clone)]
 pub struct PanelSolver {
     simply_supported: LongPlate,
     clamped: LongPlate,
     edge_fixity: f64,
+    unit: RefCell<HashMap<(bool, [u64; 9]), PlateCritical>>,
+}
+
+/// Whether a bending stiffness has no bending–twisting terms.
+fn specially_orthotropic(d: &Matrix3<f64>) -> bool {
+    let tol = 1e-12 * (d[(0, 0)] + d[(1, 1)]);
+    d[(0, 2)].abs() <= tol && d[(1, 2)].abs() <= tol
+}
+
+/// Compression of a long simply supported specially orthotropic plate with transverse shear
+/// stiffness `s`: the sine mode is exact, `1/N = 1/N_b + 1/N_s` with
+/// `N_b = (D11 a⁴ + 2 (D12 + 2 D66) a² k² + D22 k⁴)/a²`, `N_s = S (a² + k²)/a²`, `k = pi/b`,
+/// least over the half-wavelength (Allen 1969, ch. 4, written for orthotropic bending).
+fn sandwich_ss_compression(d: &Matrix3<f64>, b: f64, s: f64) -> f64 {
+    let k2 = (std::f64::consts::PI / b).powi(2);
+    let base = b * (d[(0, 0)] / d[(1, 1)]).powf(0.25);
+    super::plate::minimise(|l| {
+        let a2 = (std::f64::consts::PI / (base * l)).powi(2);
+        let n_b = (d[(0, 0)] * a2 * a2
+            + 2.0 * (d[(0, 1)] + 2.0 * d[(2, 2)]) * a2 * k2
+            + d[(1, 1)] * k2 * k2)
+            / a2;
+        let n_s = s * (a2 + k2) / a2;
+        1.0 / (1.0 / n_b + 1.0 / n_s)
+    })
 }
 
 impl PanelSolver {
@@ -92,17 +121,62 @@ impl PanelSolver {
             simply_supported: LongPlate::new(EdgeSupport::SimplySupported),
             clamped: LongPlate::new(EdgeSupport::Clamped),
             edge_fixity: edge_fixity.clamp(0.0, 1.0),
+            unit: RefCell::new(HashMap::new()),
         }
+    }
+
+    /// Critical loads at unit width without core shear, kept per bending stiffness.
+    fn unit_critical(&self, clamped: bool, d: &Matrix3<f64>) -> PlateCritical {
+        let key = (clamped, [0, 1, 2, 3, 4, 5, 6, 7, 8].map(|i| d[i].to_bits()));
+        if let Some(c) = self.unit.borrow().get(&key) {
+            return *c;
+        }
+        let plate = if clamped { &self.clamped } else { &self.simply_supported };
+        let c = plate.critical(d, 1.0, ShearFlexibility(f64::INFINITY));
+        self.unit.borrow_mut().insert(key, c);
+        c
+    }
+
+    /// Critical loads of one edge support at width `b` with core shear stiffness `s`. Shear
+    /// takes the core as `1/N = 1/N_b + 1/S` (see [`LongPlate`]); compression takes it through
+    /// the mode (closed form for a simply supported specially orthotropic plate, the Ritz
+    /// solution otherwise).
+    fn support_critical(
+        &self,
+        clamped: bool,
+        d: &Matrix3<f64>,
+        b: f64,
+        s: ShearFlexibility,
+    ) -> PlateCritical {
+        let u = self.unit_critical(clamped, d);
+        let k = 1.0 / (b * b);
+        let mut c = PlateCritical {
+            compression: u.compression * k,
+            shear_positive: u.shear_positive * k,
+            shear_negative: u.shear_negative * k,
+        };
+        if s.0.is_finite() {
+            let series = |n: f64| 1.0 / (1.0 / n + 1.0 / s.0);
+            c.shear_positive = series(c.shear_positive);
+            c.shear_negative = series(c.shear_negative);
+            c.compression = if !clamped && specially_orthotropic(d) {
+                sandwich_ss_compression(d, b, s.0)
+            } else {
+                let plate = if clamped { &self.clamped } else { &self.simply_supported };
+                plate.compression(d, b, s)
+            };
+        }
+        c
     }
 
     /// Critical loads of a flat long plate with this solver's edge fixity.
     pub fn flat_critical(&self, d: &Matrix3<f64>, b: f64, s: ShearFlexibility) -> PlateCritical {
-        let ss = self.simply_supported.critical(d, b, s);
+        let ss = self.support_critical(false, d, b, s);
         let f = self.edge_fixity;
         if f == 0.0 {
             return ss;
         }
-        let cl = self.clamped.critical(d, b, s);
+        let cl = self.support_critical(true, d, b, s);
         let blend = |a: f64, c: f64| a + f * (c - a);
         PlateCritical {
             compression: blend(ss.compression, cl.compression),

@@ -262,6 +262,14 @@ impl LongPlate {
         [reduce(hi), reduce(-lo)]
     }
 
+    /// The least critical compression `-N_x` (N/m) over the half-wavelength (see
+    /// [`LongPlate::critical`]).
+    pub fn compression(&self, d: &Matrix3<f64>, b: f64, s: ShearFlexibility) -> f64 {
+        let aspect = (d[(0, 0)] / d[(1, 1)]).powf(0.25);
+        let base = b * if aspect.is_finite() && aspect > 0.0 { aspect } else { 1.0 };
+        minimise(|l| self.compression_at(d, b, std::f64::consts::PI / (base * l), s))
+    }
+
     /// The least critical loads over the half-wavelength, for bending stiffness `d` (N·m) and
     /// width `b` (m). The half-wavelength `lambda = pi/alpha` is scanned from 0.05 to 20 times
     /// `b (D11/D22)^(1/4)` on a logarithmic grid and refined by golden section about the least
@@ -270,7 +278,7 @@ impl LongPlate {
         let aspect = (d[(0, 0)] / d[(1, 1)]).powf(0.25);
         let base = b * if aspect.is_finite() && aspect > 0.0 { aspect } else { 1.0 };
         let alpha = |l: f64| std::f64::consts::PI / (base * l);
-        let compression = minimise(|l| self.compression_at(d, b, alpha(l), s));
+        let compression = self.compression(d, b, s);
         let shear_positive = minimise(|l| self.shear_at(d, b, alpha(l), s)[0]);
         // Without D16 and D26 the plate is its own mirror image along the span, which turns the
         // shear over: both signs buckle alike.
