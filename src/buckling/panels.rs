@@ -132,7 +132,15 @@ impl PanelSolver {
             return *c;
         }
         let plate = if clamped { &self.clamped } else { &self.simply_supported };
-        let c = plate.critical(d, 1.0, ShearFlexibility(f64::INFINITY));
+        let rigid = ShearFlexibility(f64::INFINITY);
+        // Simply supported without D16, D26 the sine mode is exact: Whitney's closed form.
+        let compression = if !clamped && specially_orthotropic(d) {
+            super::plate::orthotropic_long_plate_ss(d, 1.0)
+        } else {
+            plate.compression(d, 1.0, rigid)
+        };
+        let [shear_positive, shear_negative] = plate.shear(d, 1.0, rigid);
+        let c = PlateCritical { compression, shear_positive, shear_negative };
         self.unit.borrow_mut().insert(key, c);
         c
     }

@@ -270,24 +270,31 @@ impl LongPlate {
         minimise(|l| self.compression_at(d, b, std::f64::consts::PI / (base * l), s))
     }
 
+    /// The least critical shear flows `[positive, negative magnitude]` (N/m) over the
+    /// half-wavelength (see [`LongPlate::critical`]).
+    pub fn shear(&self, d: &Matrix3<f64>, b: f64, s: ShearFlexibility) -> [f64; 2] {
+        let aspect = (d[(0, 0)] / d[(1, 1)]).powf(0.25);
+        let base = b * if aspect.is_finite() && aspect > 0.0 { aspect } else { 1.0 };
+        let alpha = |l: f64| std::f64::consts::PI / (base * l);
+        let positive = minimise(|l| self.shear_at(d, b, alpha(l), s)[0]);
+        // Without D16 and D26 the plate is its own mirror image along the span, which turns the
+        // shear over: both signs buckle alike.
+        let tol = 1e-12 * (d[(0, 0)] + d[(1, 1)]);
+        let negative = if d[(0, 2)].abs() <= tol && d[(1, 2)].abs() <= tol {
+            positive
+        } else {
+            minimise(|l| self.shear_at(d, b, alpha(l), s)[1])
+        };
+        [positive, negative]
+    }
+
     /// The least critical loads over the half-wavelength, for bending stiffness `d` (N·m) and
     /// width `b` (m). The half-wavelength `lambda = pi/alpha` is scanned from 0.05 to 20 times
     /// `b (D11/D22)^(1/4)` on a logarithmic grid and refined by golden section about the least
     /// value.
     pub fn critical(&self, d: &Matrix3<f64>, b: f64, s: ShearFlexibility) -> PlateCritical {
-        let aspect = (d[(0, 0)] / d[(1, 1)]).powf(0.25);
-        let base = b * if aspect.is_finite() && aspect > 0.0 { aspect } else { 1.0 };
-        let alpha = |l: f64| std::f64::consts::PI / (base * l);
         let compression = self.compression(d, b, s);
-        let shear_positive = minimise(|l| self.shear_at(d, b, alpha(l), s)[0]);
-        // Without D16 and D26 the plate is its own mirror image along the span, which turns the
-        // shear over: both signs buckle alike.
-        let tol = 1e-12 * (d[(0, 0)] + d[(1, 1)]);
-        let shear_negative = if d[(0, 2)].abs() <= tol && d[(1, 2)].abs() <= tol {
-            shear_positive
-        } else {
-            minimise(|l| self.shear_at(d, b, alpha(l), s)[1])
-        };
+        let [shear_positive, shear_negative] = self.shear(d, b, s);
         PlateCritical { compression, shear_positive, shear_negative }
     }
 }
