@@ -5,12 +5,14 @@
 //! Both run with the walls following the beam (`wall_bending = true`, the default) and with the
 //! wall curvatures held (`false`); the number of ply faces evaluated per iteration is printed
 //! once, so a time per ply-face evaluation follows from the figures.
+//! `panels` times what buckling adds: the wall panels and their critical loads (once per model)
+//! and their checks under the three cases. Its share is panels over all cases.
 
 use criterion::{Criterion, criterion_group, criterion_main};
 use layloft::analysis::BladeModel;
 use layloft::input::read_project;
 use layloft::loads::{LoadDistribution, span_loads};
-use layloft::stress::{analyse_cases, recover_at};
+use layloft::stress::{analyse_cases, model_panels, recover_at};
 
 fn bench(c: &mut Criterion) {
     for wall_bending in [true, false] {
@@ -56,6 +58,34 @@ fn bench_mode(c: &mut Criterion, wall_bending: bool) {
                     recover_at(&st.layout, &st.section, &res, case.delta_t).expect("recovery");
                 }
             }
+        })
+    });
+    g.bench_function("mine-fan, panels and their critical loads", |b| {
+        b.iter(|| model_panels(&model))
+    });
+    let panels = model_panels(&model);
+    let cases = analyse_cases(&model, None).expect("stress");
+    g.bench_function("mine-fan, panel checks of all cases", |b| {
+        b.iter(|| {
+            let mut least = f64::INFINITY;
+            for case in &cases {
+                for (st, ps) in case.stations.iter().zip(&panels) {
+                    for p in ps {
+                        let res: Vec<(f64, f64)> = p
+                            .elements
+                            .iter()
+                            .map(|&k| {
+                                st.points
+                                    .iter()
+                                    .find(|q| q.element == k)
+                                    .map_or((0.0, 0.0), |q| (q.n_x, q.n_xs))
+                            })
+                            .collect();
+                        least = least.min(layloft::buckling::check_panel(p, &res).reserve_factor);
+                    }
+                }
+            }
+            least
         })
     });
     g.finish();

@@ -80,6 +80,7 @@
 pub mod airfoil;
 pub mod analysis;
 pub mod blade;
+pub mod buckling;
 pub mod check;
 mod error;
 pub mod failure;

@@ -142,7 +142,8 @@ fn check_passes_the_demos_and_fails_an_impossible_demand() {
         .assert()
         .success()
         .stdout(predicate::str::contains("Design check: PASS"));
-    // The same blade held to a reserve factor it cannot reach and a mass it cannot meet.
+    // The same blade held to a reserve factor it cannot reach and a mass it cannot meet (the
+    // buckling demand, which follows min_reserve_factor unless given, kept at 1.5).
     let dir = tempfile::tempdir().unwrap();
     for entry in fs::read_dir("layups/mine-fan").unwrap() {
         let entry = entry.unwrap();
@@ -150,7 +151,7 @@ fn check_passes_the_demos_and_fails_an_impossible_demand() {
     }
     let toml = fs::read_to_string(dir.path().join("blade.toml")).unwrap();
     let toml = toml
-        .replace("min_reserve_factor = 1.5", "min_reserve_factor = 500")
+        .replace("min_reserve_factor = 1.5", "min_reserve_factor = 500\nmin_buckling_factor = 1.5")
         .replace("max_mass_kg = 1.2", "max_mass_kg = 0.1");
     fs::write(dir.path().join("blade.toml"), toml).unwrap();
     let out =

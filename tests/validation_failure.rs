@@ -163,6 +163,7 @@ fn bimetal_strip_curvature_matches_timoshenko_1925() {
         cte: Some(cte),
         melting_range_c: None,
         safety_note: None,
+        core: None,
     };
     // Aluminium-like outer layer (expands more) over a steel-like inner layer.
     let (e_al, t_al, a_al) = (70e9, 2e-3, 23e-6);

@@ -4,6 +4,8 @@ use super::{Bound, CheckRow, DesignCheck};
 
 /// The design check of a model against its project's `[criteria]`, from the stress results of
 /// every load case and the modal analysis (either may be absent when its criterion is not set).
+/// The buckling criterion demands `min_buckling_factor`, or `min_reserve_factor` when that is
+/// not given.
 pub fn evaluate(
     model: &crate::analysis::BladeModel,
     stress: &[crate::stress::CaseStress],
@@ -27,6 +29,43 @@ pub fn evaluate(
         rows.push(CheckRow::new(
             "min_reserve_factor",
             "least reserve factor",
+            limit,
+            Bound::AtLeast,
+            found,
+            "",
+            location,
+        ));
+    }
+    if let Some(limit) = c.min_buckling_factor.or(c.min_reserve_factor) {
+        let worst = stress
+            .iter()
+            .filter_map(|s| s.least_buckling().map(|(i, j)| (s, i, j)))
+            .min_by(|a, b| {
+                let rf = |x: &(&crate::stress::CaseStress, usize, usize)| {
+                    x.0.buckling[x.1].panels[x.2].check.reserve_factor
+                };
+                rf(a).total_cmp(&rf(b))
+            });
+        let (found, location) = match worst {
+            Some((s, i, j)) => {
+                let p = &s.buckling[i].panels[j];
+                (
+                    Some(p.check.reserve_factor),
+                    format!(
+                        "case '{}', r = {:.3} m, {}, {}",
+                        s.name,
+                        s.buckling[i].r,
+                        crate::report::panel_place(p),
+                        p.check.mode.label()
+                    ),
+                )
+            }
+            None if !stress.is_empty() => (Some(f64::INFINITY), "no wall panel".to_string()),
+            None => (None, "no load case".to_string()),
+        };
+        rows.push(CheckRow::new(
+            "min_buckling_factor",
+            "least buckling reserve factor",
             limit,
             Bound::AtLeast,
             found,

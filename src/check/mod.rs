@@ -6,6 +6,9 @@ mod evaluate;
 
 pub use evaluate::evaluate;
 
+/// What the analysis does not cover, one line each (see [`crate::buckling::NOT_COVERED`]).
+pub use crate::buckling::NOT_COVERED;
+
 use std::fmt;
 
 /// Outcome of one criterion.
@@ -38,8 +41,8 @@ pub enum Bound {
 /// One row of the design check.
 #[derive(Debug, Clone, PartialEq)]
 pub struct CheckRow {
-    /// Stable key for scripts (`min_reserve_factor`, `frequency_margin_pct`, `max_mass_kg`,
-    /// `max_tip_deflection_m`).
+    /// Stable key for scripts (`min_reserve_factor`, `min_buckling_factor`,
+    /// `frequency_margin_pct`, `max_mass_kg`, `max_tip_deflection_m`).
     pub key: &'static str,
     /// Human name.
     pub label: &'static str,

@@ -21,10 +21,12 @@ Examples:
 
 Exit status: 0 when every criterion passes, 1 when any fails, 2 when the input is invalid
 (3 when a computation fails). Criteria are those of the project's [criteria] table:
-min_reserve_factor, frequency_margin_pct, max_mass_kg, max_tip_deflection_m.";
+min_reserve_factor, min_buckling_factor (min_reserve_factor unless set), frequency_margin_pct,
+max_mass_kg, max_tip_deflection_m. The check lists what the analysis does not cover.";
 
 /// Checks the blade against the project's [criteria]: least reserve factor over every load
-/// case, frequency margin to the rotor harmonics, blade mass, tip deflection.
+/// case, least buckling reserve factor of the wall panels, frequency margin to the rotor
+/// harmonics, blade mass, tip deflection.
 #[derive(Debug, clap::Args)]
 #[command(after_help = EXAMPLES)]
 pub struct Args {
@@ -66,14 +68,17 @@ fn text(project: &str, check: &DesignCheck) -> String {
         let _ = writeln!(out);
         let _ = writeln!(out, "Design check: {}", check.verdict_line());
     }
+    let _ = writeln!(out);
+    out.push_str(&layloft::report::not_covered_text());
     out
 }
 
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let model = load_model(&args.blade, out)?;
     let criteria = &model.project.criteria;
-    let needs_stress =
-        criteria.min_reserve_factor.is_some() || criteria.max_tip_deflection_m.is_some();
+    let needs_stress = criteria.min_reserve_factor.is_some()
+        || criteria.min_buckling_factor.is_some()
+        || criteria.max_tip_deflection_m.is_some();
     let stress = if needs_stress && !model.project.load_cases.is_empty() {
         analyse_cases(&model, None).map_err(layloft::Error::from)?
     } else {
@@ -110,6 +115,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
             "project": model.project.name,
             "pass": check.passed(),
             "criteria": rows,
+            "not_covered": layloft::check::NOT_COVERED,
             "cautions": layloft::CAUTIONS,
         });
         let text = serde_json::to_string_pretty(&doc)

@@ -144,6 +144,11 @@ pub fn write_report(
             stress_csv(&stress).as_bytes(),
         )?;
         put("reserve-map.svg", "reserve-factor map (SVG)", stress_svg(model, &stress).as_bytes())?;
+        put(
+            "buckling-map.svg",
+            "buckling reserve factor of every wall panel (SVG)",
+            layloft::report::buckling_svg(model, &stress).as_bytes(),
+        )?;
     }
     let mjson = modal_analysis_json(&modal);
     put("modes.json", "modes, crossings and margins (JSON)", json_text(&mjson)?.as_bytes())?;

@@ -15,11 +15,14 @@ Examples:
   layloft stress layups/mine-fan/blade.toml
   layloft stress layups/mine-fan/blade.toml --case overspeed --json
   layloft stress layups/small-wind/blade.toml --csv plies.csv --svg reserve-map.svg
+  layloft stress layups/mine-fan/blade.toml --buckling-svg buckling-map.svg
 
 The reserve factor is the strength ratio of the governing criterion (Tsai-Wu, maximum stress,
 maximum strain, Hashin) at the factored load: the factor on the case's factored loads that brings
-the first ply to failure. Exit status 1 when a case's reserve factor is below 1 (a ply fails
-under the factored load).";
+the first ply to failure. Every wall panel is also checked for local buckling (and, for a
+sandwich wall, face wrinkling, shear crimping and core shear); edge fixity from [buckling].
+Exit status 1 when a case's reserve factor is below 1 (a ply fails under the factored load)
+or a panel's buckling reserve factor is below 1.";
 
 /// Ply stresses at every station, wall point and ply for every load case; the lowest reserve
 /// factor of each case with where it occurs; root reactions and the pitching moment over the
@@ -46,6 +49,10 @@ pub struct Args {
     /// Also write the map of the worst reserve factor over span and contour as SVG to FILE.
     #[arg(long, value_name = "FILE")]
     pub svg: Option<PathBuf>,
+
+    /// Also write the map of the buckling reserve factor of every wall panel as SVG to FILE.
+    #[arg(long, value_name = "FILE")]
+    pub buckling_svg: Option<PathBuf>,
 }
 
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
@@ -63,6 +70,9 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     if let Some(path) = &args.svg {
         write_atomic(path, stress_svg(&model, &cases).as_bytes())?;
     }
+    if let Some(path) = &args.buckling_svg {
+        write_atomic(path, layloft::report::buckling_svg(&model, &cases).as_bytes())?;
+    }
     if args.json {
         let text = serde_json::to_string_pretty(&stress_json(&model, &cases))
             .map_err(|e| Failure::Run(anyhow!("cannot format the JSON report: {e}")))?;
@@ -75,10 +85,26 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         .filter_map(|c| c.critical.as_ref().filter(|k| k.reserve_factor < 1.0).map(|k| (c, k)))
         .map(|(c, k)| format!("'{}' (reserve factor {:.3})", c.name, k.reserve_factor))
         .collect();
-    if failing.is_empty() {
+    let buckling: Vec<String> = cases
+        .iter()
+        .filter_map(|c| c.least_buckling().map(|(i, j)| (c, &c.buckling[i].panels[j])))
+        .filter(|(_, p)| p.check.reserve_factor < 1.0)
+        .map(|(c, p)| {
+            format!("'{}' (buckling reserve factor {:.3})", c.name, p.check.reserve_factor)
+        })
+        .collect();
+    if !buckling.is_empty() {
+        out.warn(&format!(
+            "a wall panel buckles under the factored load of {}",
+            buckling.join(", ")
+        ));
+    }
+    if failing.is_empty() && buckling.is_empty() {
         Ok(Outcome::Success)
     } else {
-        out.warn(&format!("a ply fails under the factored load of {}", failing.join(", ")));
+        if !failing.is_empty() {
+            out.warn(&format!("a ply fails under the factored load of {}", failing.join(", ")));
+        }
         Ok(Outcome::CheckFailed)
     }
 }

@@ -8,15 +8,18 @@
 //!
 //! Isotropic keys: `E_GPa nu density_kg_m3` (required); `ply_thickness_mm`,
 //! `tensile_strength_MPa`, `compressive_strength_MPa`, `shear_strength_MPa`, `cte_ustrain_K`,
-//! `solidus_C liquidus_C` (both or none), `safety_note`, `cost_per_kg`, `source` (optional).
+//! `solidus_C liquidus_C` (both or none), `safety_note`, `cost_per_kg`, `source` (optional);
+//! `core = true` marks a sandwich core (foam, balsa, honeycomb), which then needs
+//! `core_shear_modulus_MPa` and `core_shear_strength_MPa` (transverse shear) and may give
+//! `core_compression_modulus_MPa` (through the thickness; `E_GPa` otherwise).
 
 use std::path::Path;
 
 use super::location::{InputError, Location, SourceText};
 use super::toml_table::TableReader;
 use crate::material::{
-    Isotropic, Lamina, LaminaKind, Material, MaterialError, MaterialLibrary, StrainLimits,
-    Strengths,
+    CoreProperties, Isotropic, Lamina, LaminaKind, Material, MaterialError, MaterialLibrary,
+    StrainLimits, Strengths,
 };
 use crate::units::{GPA, MICROSTRAIN, MM, MPA};
 
@@ -126,6 +129,10 @@ const ISOTROPIC_KEYS: &[&str] = &[
     "safety_note",
     "cost_per_kg",
     "source",
+    "core",
+    "core_shear_modulus_MPa",
+    "core_shear_strength_MPa",
+    "core_compression_modulus_MPa",
 ];
 
 fn read_lamina(name: &str, t: &mut TableReader<'_>) -> Result<Lamina, InputError> {
@@ -194,6 +201,7 @@ fn read_isotropic(name: &str, t: &mut TableReader<'_>) -> Result<Isotropic, Inpu
     let safety_note = t.optional_str("safety_note")?;
     t.optional_f64("cost_per_kg")?;
     t.optional_str("source")?;
+    let core = read_core(t, e)?;
     Ok(Isotropic {
         name: name.to_string(),
         e,
@@ -206,7 +214,44 @@ fn read_isotropic(name: &str, t: &mut TableReader<'_>) -> Result<Isotropic, Inpu
         cte,
         melting_range_c,
         safety_note,
+        core,
     })
+}
+
+/// The sandwich-core keys of an isotropic record: given only with `core = true`, and then the
+/// transverse shear modulus and strength are required.
+fn read_core(t: &mut TableReader<'_>, e: f64) -> Result<Option<CoreProperties>, InputError> {
+    let is_core = t.optional_bool("core")?.unwrap_or(false);
+    let g = t.optional_f64("core_shear_modulus_MPa")?;
+    let s = t.optional_f64("core_shear_strength_MPa")?;
+    let ec = t.optional_f64("core_compression_modulus_MPa")?;
+    if !is_core {
+        let given = [
+            ("core_shear_modulus_MPa", g),
+            ("core_shear_strength_MPa", s),
+            ("core_compression_modulus_MPa", ec),
+        ];
+        if let Some((key, _)) = given.iter().find(|(_, v)| v.is_some()) {
+            return Err(t.error(
+                key,
+                format!("'{key}' describes a sandwich core: add core = true, or remove the key"),
+            ));
+        }
+        return Ok(None);
+    }
+    let need = |v: Option<f64>, key: &str| {
+        v.ok_or_else(|| {
+            t.error(
+                "core",
+                format!("missing key '{key}': a record with core = true needs it (MPa)"),
+            )
+        })
+    };
+    Ok(Some(CoreProperties {
+        shear_modulus: need(g, "core_shear_modulus_MPa")? * MPA,
+        shear_strength: need(s, "core_shear_strength_MPa")? * MPA,
+        compression_modulus: ec.map_or(e, |v| v * MPA),
+    }))
 }
 
 /// Keys that go together: all given, or none.

@@ -47,6 +47,8 @@ pub struct Project {
     pub excitation: ExcitationSpec,
     /// Section discretisation settings (`[sections]`, optional; defaults otherwise).
     pub sections: SectionSpec,
+    /// Local buckling settings (`[buckling]`, optional; defaults otherwise).
+    pub buckling: BucklingSpec,
     /// The materials file.
     pub materials: MaterialLibrary,
 }
@@ -283,6 +285,23 @@ pub struct Criteria {
     pub max_mass_kg: Option<f64>,
     /// Greatest tip deflection, m.
     pub max_tip_deflection_m: Option<f64>,
+    /// Least buckling reserve factor (local buckling of the walls and the sandwich modes); the
+    /// check uses `min_reserve_factor` when this is not given.
+    pub min_buckling_factor: Option<f64>,
+}
+
+/// Local buckling settings (`[buckling]`).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct BucklingSpec {
+    /// Rotational fixity of the long edges of every wall panel: 0 simply supported, 1 clamped,
+    /// between the two a linear blend of the two critical loads. 0 unless given.
+    pub edge_fixity: f64,
+}
+
+impl Default for BucklingSpec {
+    fn default() -> Self {
+        BucklingSpec { edge_fixity: 0.0 }
+    }
 }
 
 /// Tooling settings (`[tooling]`).

@@ -16,7 +16,9 @@
 //!   `r_m, f_flap_N_m, f_edge_N_m, m_pitch_Nm_m`), `gravity_m_s2 = [x, y, z]` (rotor frame),
 //!   `load_factor` (1), `delta_T_K` (0);
 //! - `[criteria]`: `min_reserve_factor`, `frequency_margin_pct`, `harmonics` (12),
-//!   `max_mass_kg`, `max_tip_deflection_m`;
+//!   `max_mass_kg`, `max_tip_deflection_m`, `min_buckling_factor` (`min_reserve_factor`);
+//! - `[buckling]`: `edge_fixity` (`"simply_supported"`, `"clamped"` or a number from 0, simply
+//!   supported, to 1, clamped; `"simply_supported"`);
 //! - `[tooling]`: `core_alloy`, `injection_temperature_C`, `gel_temperature_C`,
 //!   `cure_temperature_C`, `mould_margin_m` (0.03), `stl_unit` ("mm" or "m"), `tolerance_mm`
 //!   (0.1), `mould_expansion_factor` (1), `core_shrink_factor` (1), `min_draft_deg` (1, from 0 to 30),
@@ -37,7 +39,7 @@ use std::path::Path;
 use super::location::{InputError, SourceText};
 use super::project::*;
 use super::project_files::{read_distributed, read_plies, read_stations};
-use super::toml_table::TableReader;
+use super::toml_table::{Scalar, TableReader};
 use crate::material::Material;
 use crate::units::{Angle, MM};
 
@@ -98,6 +100,10 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
     let excitation = match doc.optional_table("excitation")? {
         Some(mut t) => read_excitation(&mut t)?,
         None => ExcitationSpec { vane_multiples: 2, ..ExcitationSpec::default() },
+    };
+    let buckling = match doc.optional_table("buckling")? {
+        Some(mut t) => read_buckling(&mut t)?,
+        None => BucklingSpec::default(),
     };
 
     let materials_path = dir.join(&materials_file);
@@ -180,6 +186,7 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
         fluid,
         excitation,
         sections,
+        buckling,
         materials,
     })
 }
@@ -448,6 +455,7 @@ fn read_criteria(t: &mut TableReader<'_>) -> Result<Criteria, InputError> {
         harmonics: t.optional_u32("harmonics")?.unwrap_or(12),
         max_mass_kg: t.optional_positive("max_mass_kg")?,
         max_tip_deflection_m: t.optional_positive("max_tip_deflection_m")?,
+        min_buckling_factor: t.optional_positive("min_buckling_factor")?,
     };
     if c.harmonics == 0 {
         return Err(t.error("harmonics", "expected at least one harmonic, found 0"));
@@ -552,6 +560,31 @@ fn read_tooling(
         min_draft,
         min_core_thickness,
     })
+}
+
+fn read_buckling(t: &mut TableReader<'_>) -> Result<BucklingSpec, InputError> {
+    let edge_fixity = match t.optional_scalar("edge_fixity")? {
+        None => 0.0,
+        Some(Scalar::Text(s)) if s == "simply_supported" => 0.0,
+        Some(Scalar::Text(s)) if s == "clamped" => 1.0,
+        Some(Scalar::Text(s)) => {
+            return Err(t.error(
+                "edge_fixity",
+                format!(
+                    "expected \"simply_supported\", \"clamped\" or a number from 0 to 1, found \"{s}\""
+                ),
+            ));
+        }
+        Some(Scalar::Number(v)) if (0.0..=1.0).contains(&v) => v,
+        Some(Scalar::Number(v)) => {
+            return Err(t.error(
+                "edge_fixity",
+                format!("expected a number from 0 (simply supported) to 1 (clamped), found {v}"),
+            ));
+        }
+    };
+    t.finish()?;
+    Ok(BucklingSpec { edge_fixity })
 }
 
 fn read_modal(t: &mut TableReader<'_>) -> Result<ModalSpec, InputError> {

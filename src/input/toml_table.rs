@@ -8,6 +8,15 @@ use toml::de::{DeTable, DeValue};
 
 use super::location::{InputError, Location, SourceText, closest};
 
+/// A setting given by name or by value.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Scalar {
+    /// A string.
+    Text(String),
+    /// A finite number.
+    Number(f64),
+}
+
 /// One TOML table being read. Keys are taken with the `required_*` and `optional_*` methods;
 /// [`TableReader::finish`] then rejects any key left over.
 #[derive(Debug)]
@@ -189,6 +198,19 @@ impl<'s> TableReader<'s> {
                 }
             },
             None => Ok(None),
+        }
+    }
+
+    /// A number or a string that may be absent (a setting given by name or by value).
+    pub fn optional_scalar(&mut self, key: &str) -> Result<Option<Scalar>, InputError> {
+        let is_text = match self.entries.iter().find(|(k, _)| k == key) {
+            Some((_, v)) => matches!(v.get_ref(), DeValue::String(_)),
+            None => return Ok(None),
+        };
+        if is_text {
+            Ok(self.optional_str(key)?.map(Scalar::Text))
+        } else {
+            Ok(self.optional_f64(key)?.map(Scalar::Number))
         }
     }
 

@@ -248,6 +248,20 @@ pub struct Isotropic {
     pub melting_range_c: Option<[f64; 2]>,
     /// Free-text handling note printed beside the material in reports (e.g. "contains lead").
     pub safety_note: Option<String>,
+    /// Sandwich-core properties when the record is marked as a core (foam, balsa, honeycomb).
+    pub core: Option<CoreProperties>,
+}
+
+/// What a sandwich wall needs of its core, beyond the record's in-plane values. All SI.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct CoreProperties {
+    /// Transverse shear modulus of the core (the plane through the thickness along the load;
+    /// for a honeycomb the lower of its two values), Pa.
+    pub shear_modulus: f64,
+    /// Transverse shear strength of the core, Pa.
+    pub shear_strength: f64,
+    /// Through-thickness (compression) modulus of the core, Pa; the record's E unless given.
+    pub compression_modulus: f64,
 }
 
 impl Isotropic {
@@ -343,6 +357,7 @@ mod tests {
             cte: Some(23e-6),
             melting_range_c: None,
             safety_note: None,
+            core: None,
         };
         let l = al.as_lamina().unwrap();
         assert_eq!(l.kind, LaminaKind::Isotropic);

@@ -44,6 +44,12 @@ pub enum MaterialField {
     MeltingRange,
     /// A strength of an isotropic record.
     IsotropicStrength,
+    /// The transverse shear modulus of a core.
+    CoreShearModulus,
+    /// The transverse shear strength of a core.
+    CoreShearStrength,
+    /// The through-thickness modulus of a core.
+    CoreCompressionModulus,
 }
 
 impl MaterialField {
@@ -73,6 +79,9 @@ impl MaterialField {
             (ResinDensity, _) => "resin_density_kg_m3",
             (MeltingRange, _) => "solidus_C",
             (IsotropicStrength, _) => "tensile_strength_MPa",
+            (CoreShearModulus, _) => "core_shear_modulus_MPa",
+            (CoreShearStrength, _) => "core_shear_strength_MPa",
+            (CoreCompressionModulus, _) => "core_compression_modulus_MPa",
         }
     }
 }
@@ -217,6 +226,14 @@ pub(super) fn check_isotropic(m: &Isotropic) -> Result<(), MaterialError> {
     }
     for s in [m.tensile_strength, m.compressive_strength, m.shear_strength].into_iter().flatten() {
         positive(n, IsotropicStrength, "a strength (MPa)", s, 1e6, true)?;
+    }
+    if let Some(c) = &m.core {
+        let what = "core shear modulus (MPa)";
+        positive(n, CoreShearModulus, what, c.shear_modulus, 1e6, true)?;
+        let what = "core shear strength (MPa)";
+        positive(n, CoreShearStrength, what, c.shear_strength, 1e6, true)?;
+        let what = "core compression modulus (MPa)";
+        positive(n, CoreCompressionModulus, what, c.compression_modulus, 1e6, true)?;
     }
     if let Some([solidus, liquidus]) = m.melting_range_c {
         if !(solidus.is_finite() && liquidus.is_finite() && solidus <= liquidus) {

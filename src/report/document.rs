@@ -235,6 +235,29 @@ fn strength_section(doc: &mut HtmlReport, m: &BladeModel, cases: &[CaseStress]) 
         "Lowest reserve factor over span and chord position, all cases; the critical location marked.",
         stress_svg(m, cases),
     );
+    s.heading("Local buckling and sandwich modes");
+    s.paragraph(format!(
+        "Every wall panel between webs, the leading edge, corners and the edges of ply regions \
+         is taken as a long plate under the most compressive N_x and the largest shear flow along \
+         it: critical loads from the wall's D matrix (edge fixity {:.2}: 0 simply supported, 1 \
+         clamped), a curved-panel gain with the NASA SP-8007 knock-down, compression and shear \
+         combined by R_c + R_s² = 1. Sandwich walls add the core's shear flexibility, face \
+         wrinkling, shear crimping and core shear.",
+        m.project.buckling.edge_fixity
+    ));
+    s.table(
+        "Lowest buckling reserve factor of each load case and its panel.",
+        &super::stress::buckling_table(cases),
+    );
+    s.figure(
+        "buckling-map",
+        "Lowest buckling reserve factor of every wall panel over span and chord, all cases.",
+        super::buckling_svg(m, cases),
+    );
+    s.heading("Not covered by this analysis");
+    for line in crate::buckling::NOT_COVERED {
+        s.note(format!("Not covered: {line}."));
+    }
     let mut t = Table::new(&[
         ("case", Align::Left),
         ("radial (kN)", Align::Right),

@@ -3,6 +3,7 @@
 //! sees half a file and a failed run leaves what was there before).
 
 mod blade_plots;
+mod buckling_map;
 mod campbell;
 mod document;
 mod file_set;
@@ -22,6 +23,7 @@ mod write;
 pub use blade_plots::{
     mass_svg, mode_shapes_svg, pitch_moment_svg, planform_svg, stiffness_svg, twist_svg,
 };
+pub use buckling_map::buckling_svg;
 pub use campbell::{campbell_svg, kind_colour};
 pub use document::{ReportBlock, ReportInputs, SectionDrawing, blade_report};
 pub use file_set::{FileSet, SET_LIST, SetOutcome};
@@ -31,7 +33,9 @@ pub use modal::{campbell_csv, modal_analysis_json, modal_json, mode_shapes_csv};
 pub use modal_text::{modal_text, model_statement};
 pub use section_svg::{section_svg, section_svg_names, section_svg_screen};
 pub use sections::{SectionsReport, laminate_label};
-pub use stress::{stress_csv, stress_json, stress_text};
+pub use stress::{
+    buckling_table, not_covered_text, panel_place, stress_csv, stress_json, stress_text,
+};
 pub use stress_map::stress_svg;
 pub use table::{Align, Table, cautions_text, fixed, sig4};
 pub use tooling::ToolingReport;

@@ -7,7 +7,7 @@ use serde_json::{Value, json};
 
 use super::{Align, Table, fixed, sig4};
 use crate::analysis::BladeModel;
-use crate::stress::{CaseStress, Critical, WallLocation};
+use crate::stress::{CaseStress, Critical, PanelResult, WallLocation};
 
 fn finite(v: f64) -> Value {
     if v.is_finite() { json!(v) } else { Value::Null }
@@ -39,6 +39,67 @@ fn critical_json(c: &Critical) -> Value {
         "sigma2_Pa": c.stress_12.y,
         "tau12_Pa": c.stress_12.z,
     })
+}
+
+fn panel_json(r: f64, index: usize, p: &PanelResult) -> Value {
+    let panel = &p.panel;
+    let c = &p.check;
+    let (part, web) = match &panel.part {
+        crate::buckling::PanelPart::Skin => ("skin", Value::Null),
+        crate::buckling::PanelPart::Web { name } => ("web", json!(name)),
+    };
+    let wall = panel.sandwich.as_ref().or_else(|| panel.element_sandwich.iter().flatten().next());
+    let sandwich = match (wall, &c.sandwich) {
+        (Some(w), Some(f)) => json!({
+            "core_material": w.core_material,
+            "core_thickness_m": w.core_thickness,
+            "face_thickness_m": w.face_thickness,
+            "face_distance_m": w.face_distance,
+            "shear_stiffness_N_m": w.shear_stiffness,
+            "wrinkling_stress_Pa": w.wrinkling_stress,
+            "wrinkling_factor": finite(f.wrinkling),
+            "crimping_factor": finite(f.crimping),
+            "core_shear_factor": finite(f.core_shear),
+        }),
+        _ => Value::Null,
+    };
+    json!({
+        "r_m": r,
+        "panel": index + 1,
+        "part": part,
+        "web": web,
+        "from": location_json(&p.from),
+        "to": location_json(&p.to),
+        "width_m": panel.width,
+        "radius_m": finite(panel.radius),
+        "knock_down": panel.knock_down,
+        "curvature_gain_N_m": panel.curvature_gain,
+        "N_cr_N_m": finite(panel.critical.compression),
+        "N_xs_cr_positive_N_m": finite(panel.critical.shear_positive),
+        "N_xs_cr_negative_N_m": finite(panel.critical.shear_negative),
+        "N_x_N_m": c.n_x,
+        "N_xs_N_m": c.n_xs,
+        "R_c": c.r_c,
+        "R_s": c.r_s,
+        "buckling_factor": finite(c.buckling),
+        "sandwich": sandwich,
+        "reserve_factor": finite(c.reserve_factor),
+        "mode": c.mode.key(),
+    })
+}
+
+/// Every panel of every station of a case, and the least.
+fn buckling_json(c: &CaseStress) -> (Value, Value) {
+    let rows: Vec<Value> = c
+        .buckling
+        .iter()
+        .flat_map(|s| s.panels.iter().enumerate().map(move |(i, p)| panel_json(s.r, i, p)))
+        .collect();
+    let least = c
+        .least_buckling()
+        .map(|(i, j)| panel_json(c.buckling[i].r, j, &c.buckling[i].panels[j]))
+        .unwrap_or(Value::Null);
+    (Value::Array(rows), least)
 }
 
 /// Resultants along the span: rotor frame (force and moment about the pitch axis at the cut)
@@ -85,6 +146,9 @@ pub fn stress_json(model: &BladeModel, cases: &[CaseStress]) -> Value {
                     json!({ "r_m": s.r, "min_reserve_factor": finite(rf) })
                 })
                 .collect();
+            let (buckling, least) = buckling_json(c);
+            let min_buckling =
+                least.get("reserve_factor").cloned().unwrap_or(Value::Null);
             json!({
                 "name": c.name,
                 "rpm": c.rpm,
@@ -113,12 +177,17 @@ pub fn stress_json(model: &BladeModel, cases: &[CaseStress]) -> Value {
                 })).collect::<Vec<_>>(),
                 "stations": stations,
                 "resultants": resultants_json(&c.loads),
+                "min_buckling_factor": min_buckling,
+                "buckling_critical": least,
+                "buckling": buckling,
             })
         })
         .collect();
     json!({
         "project": model.project.name,
         "cases": cases,
+        "edge_fixity": model.project.buckling.edge_fixity,
+        "not_covered": crate::buckling::NOT_COVERED,
         "cautions": crate::CAUTIONS,
     })
 }
@@ -208,6 +277,75 @@ pub fn critical_table(cases: &[CaseStress]) -> Table {
     t
 }
 
+/// The lowest buckling reserve factor of each case with its panel, one row per case.
+pub fn buckling_table(cases: &[CaseStress]) -> Table {
+    let mut t = Table::new(&[
+        ("case", Align::Left),
+        ("buckling RF", Align::Right),
+        ("mode", Align::Left),
+        ("r (m)", Align::Right),
+        ("panel", Align::Left),
+        ("width (mm)", Align::Right),
+        ("N_x (kN/m)", Align::Right),
+        ("N_xs (kN/m)", Align::Right),
+        ("N_cr (kN/m)", Align::Right),
+    ]);
+    for c in cases {
+        match c.least_buckling() {
+            Some((i, j)) => {
+                let p = &c.buckling[i].panels[j];
+                let k = &p.check;
+                t.row(vec![
+                    c.name.clone(),
+                    if k.reserve_factor.is_finite() {
+                        fixed(k.reserve_factor, 2)
+                    } else {
+                        "none".into()
+                    },
+                    k.mode.label().to_string(),
+                    fixed(c.buckling[i].r, 3),
+                    panel_place(p),
+                    sig4(p.panel.width * 1e3),
+                    sig4(k.n_x / 1e3),
+                    sig4(k.n_xs / 1e3),
+                    sig4(p.panel.critical.compression / 1e3),
+                ]);
+            }
+            None => t.row(vec![c.name.clone(), "no panel".into()]),
+        }
+    }
+    t
+}
+
+/// A panel's place in words: "upper surface x/c 0.150 to 0.330" or "web 'main'".
+pub fn panel_place(p: &PanelResult) -> String {
+    match (&p.panel.part, &p.from, &p.to) {
+        (crate::buckling::PanelPart::Web { name }, ..) => format!("web '{name}'"),
+        (
+            _,
+            WallLocation::Surface { upper: u0, x_c: a, .. },
+            WallLocation::Surface { upper: u1, x_c: b, .. },
+        ) => {
+            let side = |u: &bool| if *u { "upper" } else { "lower" };
+            if u0 == u1 {
+                format!("{} skin x/c {:.3} to {:.3}", side(u0), a.min(*b), a.max(*b))
+            } else {
+                format!("skin from {} x/c {a:.3} to {} x/c {b:.3}", side(u0), side(u1))
+            }
+        }
+        _ => format!("{} to {}", p.from, p.to),
+    }
+}
+
+/// What the analysis does not cover, as an indented list.
+pub fn not_covered_text() -> String {
+    let mut out = String::from("Not covered by this analysis (check these by other means):\n");
+    for line in crate::buckling::NOT_COVERED {
+        let _ = writeln!(out, "  - {line}");
+    }
+    out
+}
+
 /// The terminal summary of `layloft stress`.
 pub fn stress_text(model: &BladeModel, cases: &[CaseStress]) -> String {
     let mut out = String::new();
@@ -218,6 +356,13 @@ pub fn stress_text(model: &BladeModel, cases: &[CaseStress]) -> String {
     let _ =
         writeln!(out, "Lowest reserve factor per load case (strength ratio at the factored load):");
     out.push_str(&t.render(2));
+    let _ = writeln!(out);
+    let _ = writeln!(
+        out,
+        "Lowest buckling reserve factor per load case (wall panels, edge fixity {}; sandwich modes):",
+        fixed(model.project.buckling.edge_fixity, 2)
+    );
+    out.push_str(&buckling_table(cases).render(2));
     let _ = writeln!(out);
     let mut t = Table::new(&[
         ("case", Align::Left),
@@ -268,5 +413,7 @@ pub fn stress_text(model: &BladeModel, cases: &[CaseStress]) -> String {
         }
         out.push_str(&t.render(2));
     }
+    let _ = writeln!(out);
+    out.push_str(&not_covered_text());
     out
 }

@@ -3,7 +3,9 @@
 //!
 //! Horizontal: radius. Vertical: chord fraction from the leading edge on the upper surface
 //! (above 0) and on the lower surface (below 0, mirrored), webs in bands above the upper surface.
-//! Each cell is the lowest reserve factor of any ply at that wall point over the cases drawn.
+//! Each cell is the lowest reserve factor of any ply at that wall point over the cases drawn. The
+//! wall panel with the lowest buckling reserve factor is marked with a diamond (every panel is
+//! drawn on the buckling map beside this one, `buckling_map.rs`).
 
 use super::svg::{Anchor, Figure, Marker, palette};
 use crate::analysis::BladeModel;
@@ -137,6 +139,29 @@ pub fn stress_svg(model: &BladeModel, cases: &[CaseStress]) -> String {
             anchor,
         );
         fig.legend_marker("lowest reserve factor", Marker::Cross, palette::INK);
+    }
+    // The panel with the lowest buckling reserve factor (the buckling map shows every panel).
+    let buckling = cases
+        .iter()
+        .filter_map(|c| c.least_buckling().map(|(i, j)| (c, i, j)))
+        .map(|(c, i, j)| (c.buckling[i].r, &c.buckling[i].panels[j]))
+        .min_by(|a, b| a.1.check.reserve_factor.total_cmp(&b.1.check.reserve_factor));
+    if let Some((r, p)) = buckling.filter(|(_, p)| p.check.reserve_factor.is_finite()) {
+        let y = match &p.panel.part {
+            crate::buckling::PanelPart::Web { name } => {
+                1.1 + 0.1 * webs.iter().position(|w| w == name).unwrap_or(0) as f64
+            }
+            crate::buckling::PanelPart::Skin => 0.5 * (map_y(&p.from, &webs) + map_y(&p.to, &webs)),
+        };
+        fig.markers(&[(r, y)], Marker::Diamond, 12.0, palette::INK);
+        fig.label(
+            r,
+            y - 0.09,
+            &format!("lowest buckling {:.2}: {}", p.check.reserve_factor, p.check.mode.label()),
+            palette::INK,
+            if r > 0.5 * (r0 + r1) { Anchor::End } else { Anchor::Start },
+        );
+        fig.legend_marker("panel of lowest buckling reserve factor", Marker::Diamond, palette::INK);
     }
     for (_, fill, text) in BINS {
         fig.legend_band(&format!("RF {text}"), fill, 1.0);

@@ -35,9 +35,12 @@ mod summary;
 
 pub use summary::{Critical, PlyWorst};
 
+use std::sync::Arc;
+
 use nalgebra::Vector3;
 
 use crate::analysis::BladeModel;
+use crate::buckling::{Panel, PanelCheck, PanelSolver, check_panel, find_panels};
 use crate::failure::CriteriaRatios;
 use crate::input::LoadCaseSpec;
 use crate::laminate::LaminateError;
@@ -181,6 +184,89 @@ pub struct CaseStress {
     pub pitch_sweep: Vec<PitchReaction>,
     /// Resultants along the span (rotor and chord frames) at the load grid.
     pub loads: crate::loads::SpanLoads,
+    /// Local buckling and sandwich checks of every wall panel, per analysis station.
+    pub buckling: Vec<StationBuckling>,
+}
+
+impl CaseStress {
+    /// The panel with the lowest buckling reserve factor: (station index, panel index).
+    pub fn least_buckling(&self) -> Option<(usize, usize)> {
+        self.buckling
+            .iter()
+            .enumerate()
+            .flat_map(|(i, s)| s.panels.iter().enumerate().map(move |(j, p)| (i, j, p)))
+            .min_by(|a, b| a.2.check.reserve_factor.total_cmp(&b.2.check.reserve_factor))
+            .map(|(i, j, _)| (i, j))
+    }
+}
+
+/// The buckling checks of the wall panels of one station.
+#[derive(Debug, Clone, PartialEq)]
+pub struct StationBuckling {
+    /// Radius, m.
+    pub r: f64,
+    /// Every panel.
+    pub panels: Vec<PanelResult>,
+}
+
+/// One wall panel with where it lies and its check under the case.
+#[derive(Debug, Clone, PartialEq)]
+pub struct PanelResult {
+    /// The panel and its critical loads.
+    pub panel: Arc<Panel>,
+    /// Where its first element lies.
+    pub from: WallLocation,
+    /// Where its last element lies.
+    pub to: WallLocation,
+    /// The check under the case.
+    pub check: PanelCheck,
+}
+
+/// The wall panels of every analysis station of the model with their critical loads (they do
+/// not depend on the load case).
+pub fn model_panels(model: &BladeModel) -> Vec<Vec<Arc<Panel>>> {
+    let solver = PanelSolver::new(model.project.buckling.edge_fixity);
+    model
+        .stations
+        .iter()
+        .map(|st| {
+            find_panels(&st.layout, &st.section, &model.project.materials, &solver)
+                .into_iter()
+                .map(Arc::new)
+                .collect()
+        })
+        .collect()
+}
+
+fn check_station(
+    st: &crate::analysis::AnalysisStation,
+    panels: &[Arc<Panel>],
+    points: &[PointStress],
+) -> StationBuckling {
+    let elements = st.section.elements();
+    let by_element: std::collections::HashMap<usize, &PointStress> =
+        points.iter().map(|p| (p.element, p)).collect();
+    let results = panels
+        .iter()
+        .map(|panel| {
+            let res: Vec<(f64, f64)> = panel
+                .elements
+                .iter()
+                .map(|k| by_element.get(k).map_or((0.0, 0.0), |p| (p.n_x, p.n_xs)))
+                .collect();
+            let at = |k: usize| {
+                let e = &elements[k];
+                recover::locate(&st.layout, &e.part, e.midpoint())
+            };
+            PanelResult {
+                panel: panel.clone(),
+                from: at(panel.elements[0]),
+                to: at(*panel.elements.last().unwrap_or(&panel.elements[0])),
+                check: check_panel(panel, &res),
+            }
+        })
+        .collect();
+    StationBuckling { r: st.layout.r, panels: results }
 }
 
 fn check_cte(model: &BladeModel, case: &LoadCaseSpec) -> Result<(), StressError> {
@@ -203,6 +289,16 @@ fn check_cte(model: &BladeModel, case: &LoadCaseSpec) -> Result<(), StressError>
 
 /// Stress recovery of one load case of the model.
 pub fn analyse_case(model: &BladeModel, case: &LoadCaseSpec) -> Result<CaseStress, StressError> {
+    analyse_case_with(model, case, &model_panels(model))
+}
+
+/// Stress recovery of one load case with the model's panels already found
+/// ([`model_panels`]).
+pub fn analyse_case_with(
+    model: &BladeModel,
+    case: &LoadCaseSpec,
+    panels: &[Vec<Arc<Panel>>],
+) -> Result<CaseStress, StressError> {
     check_cte(model, case)?;
     let props = model.properties();
     let pitch = case.pitch.unwrap_or(model.project.rotor.pitch);
@@ -222,6 +318,13 @@ pub fn analyse_case(model: &BladeModel, case: &LoadCaseSpec) -> Result<CaseStres
         let points = recover_section(&st.layout, &st.section, &units, &resultants);
         stations.push(StationStress { r: st.layout.r, points });
     }
+    let buckling = model
+        .stations
+        .iter()
+        .zip(panels)
+        .zip(&stations)
+        .map(|((st, p), s)| check_station(st, p, &s.points))
+        .collect();
     let critical = summary::critical(model, &stations);
     let ply_worst = summary::ply_worst(model, &stations);
     let pitch_sweep = crate::loads::root_reactions_over_pitch(
@@ -242,6 +345,7 @@ pub fn analyse_case(model: &BladeModel, case: &LoadCaseSpec) -> Result<CaseStres
         ply_worst,
         pitch_sweep,
         loads,
+        buckling,
     })
 }
 
@@ -271,6 +375,9 @@ pub fn analyse_cases(
         Some(name) => {
             Ok(vec![analyse_case(model, crate::loads::find_case(&model.project, name)?)?])
         }
-        None => model.project.load_cases.iter().map(|c| analyse_case(model, c)).collect(),
+        None => {
+            let panels = model_panels(model);
+            model.project.load_cases.iter().map(|c| analyse_case_with(model, c, &panels)).collect()
+        }
     }
 }

@@ -1,0 +1,400 @@
+//! Long flat plates under uniform in-plane compression and shear: the critical load from the
+//! plate's full bending stiffness `D` (with `D16`, `D26`) by a Rayleigh–Ritz solution across the
+//! width and a wave along the length, minimised over the half-wavelength.
+//!
+//! Deflection `w = Re[f(y) exp(i alpha x)]`, `f(y) = sum c_k phi_k(y / b)` with complex `c`: the
+//! complex amplitude lets the nodal lines skew, which is how `D16`, `D26` and shear load enter
+//! (Whitney, *Structural Analysis of Laminated Anisotropic Plates*, 1987, ch. 5 treats the same
+//! energy; the solution here is our own). Averaged over a wavelength the bending energy and the
+//! work of the loads are Hermitian forms in `c`; their real 2n x 2n embedding gives a symmetric
+//! generalised eigenproblem `K q = lambda G q` whose least positive `lambda` (over `alpha`) is the
+//! buckling multiplier.
+//!
+//! Bases on `eta = y/b in [0, 1]`: simply supported `phi_k = sin(k pi eta)` (w = 0, the moment
+//! condition is natural); clamped `phi_k = sin(pi eta) sin(k pi eta)` (w = w' = 0).
+
+use nalgebra::{DMatrix, Matrix3};
+
+/// How the long edges of a panel are held against rotation.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum EdgeSupport {
+    /// Free to rotate (w = 0, no moment).
+    SimplySupported,
+    /// Held against rotation (w = 0, w' = 0).
+    Clamped,
+}
+
+/// Number of Ritz functions across the width.
+const TERMS: usize = 10;
+/// Gauss–Legendre points for the integrals across the width.
+const GAUSS: usize = 64;
+
+/// Unit integrals `int_0^1 phi_i^(p) phi_j^(q) d eta` of one basis.
+#[derive(Debug, Clone)]
+struct UnitIntegrals {
+    p00: DMatrix<f64>,
+    p11: DMatrix<f64>,
+    p22: DMatrix<f64>,
+    p20: DMatrix<f64>,
+    p10: DMatrix<f64>,
+    p12: DMatrix<f64>,
+}
+
+/// Gauss–Legendre nodes and weights on [0, 1] (Newton on the Legendre recurrence).
+fn gauss_legendre(n: usize) -> Vec<(f64, f64)> {
+    let mut out = Vec::with_capacity(n);
+    for i in 0..n {
+        let mut x = (std::f64::consts::PI * (i as f64 + 0.75) / (n as f64 + 0.5)).cos();
+        let mut dp = 1.0;
+        for _ in 0..100 {
+            let (mut p0, mut p1) = (1.0, x);
+            for k in 2..=n {
+                let p2 = ((2 * k - 1) as f64 * x * p1 - (k - 1) as f64 * p0) / k as f64;
+                p0 = p1;
+                p1 = p2;
+            }
+            dp = n as f64 * (x * p1 - p0) / (x * x - 1.0);
+            let dx = p1 / dp;
+            x -= dx;
+            if dx.abs() < 1e-15 {
+                break;
+            }
+        }
+        let w = 2.0 / ((1.0 - x * x) * dp * dp);
+        out.push((0.5 * (x + 1.0), 0.5 * w));
+    }
+    out
+}
+
+/// Value, first and second derivative of basis function `k` (1-based) at `eta`.
+fn basis(support: EdgeSupport, k: usize, eta: f64) -> [f64; 3] {
+    let pi = std::f64::consts::PI;
+    let a = k as f64 * pi;
+    match support {
+        EdgeSupport::SimplySupported => {
+            let (s, c) = (a * eta).sin_cos();
+            [s, a * c, -a * a * s]
+        }
+        EdgeSupport::Clamped => {
+            let (s1, c1) = (pi * eta).sin_cos();
+            let (sk, ck) = (a * eta).sin_cos();
+            [
+                s1 * sk,
+                pi * c1 * sk + a * s1 * ck,
+                -(pi * pi + a * a) * s1 * sk + 2.0 * pi * a * c1 * ck,
+            ]
+        }
+    }
+}
+
+impl UnitIntegrals {
+    fn new(support: EdgeSupport) -> Self {
+        let z = || DMatrix::zeros(TERMS, TERMS);
+        let mut u = UnitIntegrals { p00: z(), p11: z(), p22: z(), p20: z(), p10: z(), p12: z() };
+        for (eta, w) in gauss_legendre(GAUSS) {
+            let f: Vec<[f64; 3]> = (1..=TERMS).map(|k| basis(support, k, eta)).collect();
+            for i in 0..TERMS {
+                for j in 0..TERMS {
+                    u.p00[(i, j)] += w * f[i][0] * f[j][0];
+                    u.p11[(i, j)] += w * f[i][1] * f[j][1];
+                    u.p22[(i, j)] += w * f[i][2] * f[j][2];
+                    u.p20[(i, j)] += w * f[i][2] * f[j][0];
+                    u.p10[(i, j)] += w * f[i][1] * f[j][0];
+                    u.p12[(i, j)] += w * f[i][1] * f[j][2];
+                }
+            }
+        }
+        u
+    }
+}
+
+fn sym(m: &DMatrix<f64>) -> DMatrix<f64> {
+    (m + m.transpose()) * 0.5
+}
+
+fn skew(m: &DMatrix<f64>) -> DMatrix<f64> {
+    (m - m.transpose()) * 0.5
+}
+
+/// Real symmetric embedding of the Hermitian form `S + iT` (S symmetric, T skew).
+fn embed(s: &DMatrix<f64>, t: &DMatrix<f64>) -> DMatrix<f64> {
+    let n = s.nrows();
+    let mut m = DMatrix::zeros(2 * n, 2 * n);
+    m.view_mut((0, 0), (n, n)).copy_from(s);
+    m.view_mut((n, n), (n, n)).copy_from(s);
+    m.view_mut((0, n), (n, n)).copy_from(&(-t));
+    m.view_mut((n, 0), (n, n)).copy_from(t);
+    m
+}
+
+/// Critical loads of one long plate strip, for a given edge support.
+#[derive(Debug, Clone)]
+pub struct LongPlate {
+    support: EdgeSupport,
+    unit: UnitIntegrals,
+}
+
+/// The least critical loads of a long plate, N/m (infinite where no load of that kind buckles
+/// it).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct PlateCritical {
+    /// Uniform compression `-N_x` at buckling, N/m (positive).
+    pub compression: f64,
+    /// Positive shear flow `N_xs` at buckling, N/m.
+    pub shear_positive: f64,
+    /// Magnitude of the negative shear flow at buckling, N/m.
+    pub shear_negative: f64,
+}
+
+/// Transverse shear stiffness of a sandwich wall for the buckling reduction, N/m; infinite for a
+/// solid laminate.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct ShearFlexibility(pub f64);
+
+impl LongPlate {
+    /// The solver for one edge support.
+    pub fn new(support: EdgeSupport) -> Self {
+        LongPlate { support, unit: UnitIntegrals::new(support) }
+    }
+
+    /// The edge support this solver models.
+    pub fn support(&self) -> EdgeSupport {
+        self.support
+    }
+
+    /// Stiffness and load matrices at wave number `alpha` (rad/m) for width `b` (m): bending
+    /// `K`, compression `Gc` (per unit `-N_x`), shear `Gs` (per unit `N_xs`), and the width
+    /// integrals `p00`, `p11` for the wave number across the width.
+    fn matrices(
+        &self,
+        d: &Matrix3<f64>,
+        b: f64,
+        alpha: f64,
+    ) -> (DMatrix<f64>, DMatrix<f64>, DMatrix<f64>) {
+        let u = &self.unit;
+        // Width integrals scale as b^(1 - p - q).
+        let p00 = &u.p00 * b;
+        let p11 = &u.p11 / b;
+        let p22 = &u.p22 / (b * b * b);
+        let p20 = &u.p20 / b;
+        let p10 = u.p10.clone();
+        let p12 = &u.p12 / (b * b);
+        let (d11, d12, d22, d16, d26, d66) =
+            (d[(0, 0)], d[(0, 1)], d[(1, 1)], d[(0, 2)], d[(1, 2)], d[(2, 2)]);
+        let a2 = alpha * alpha;
+        let s = &p00 * (d11 * a2 * a2) - sym(&p20) * (2.0 * d12 * a2)
+            + &p22 * d22
+            + &p11 * (4.0 * d66 * a2);
+        let t = skew(&p10) * (4.0 * d16 * a2 * alpha) - skew(&p12) * (4.0 * d26 * alpha);
+        let k = embed(&s, &t);
+        let zero = DMatrix::zeros(TERMS, TERMS);
+        let gc = embed(&(&p00 * a2), &zero);
+        let gs = embed(&zero, &(skew(&p10) * (-2.0 * alpha)));
+        (k, gc, gs)
+    }
+
+    /// The largest and least eigenvalue `mu` of `G q = mu K q` (the inverse buckling
+    /// multipliers of the two signs of the load).
+    fn inverse_multipliers(k: &DMatrix<f64>, g: &DMatrix<f64>) -> Option<(f64, f64)> {
+        let chol = k.clone().cholesky()?;
+        let li = chol.l().try_inverse()?;
+        let m = sym(&(&li * g * li.transpose()));
+        let ev = m.symmetric_eigenvalues();
+        let hi = ev.iter().copied().fold(f64::NEG_INFINITY, f64::max);
+        let lo = ev.iter().copied().fold(f64::INFINITY, f64::min);
+        Some((hi, lo))
+    }
+
+    /// Critical compression at wave number `alpha` with transverse shear flexibility `s`:
+    /// `1/N = 1/N_b + 1/N_s`, `N_s = S (alpha² + beta²)/alpha²` with `beta²` the Rayleigh wave
+    /// number of the bending mode across the width (Allen, *Analysis and Design of Structural
+    /// Sandwich Panels*, 1969, ch. 4, thin faces, for the sine mode).
+    fn compression_at(&self, d: &Matrix3<f64>, b: f64, alpha: f64, s: ShearFlexibility) -> f64 {
+        let (k, gc, _) = self.matrices(d, b, alpha);
+        if !s.0.is_finite() {
+            return match Self::inverse_multipliers(&k, &gc) {
+                Some((mu, _)) if mu > 0.0 => 1.0 / mu,
+                Some(_) => f64::INFINITY,
+                None => f64::NAN,
+            };
+        }
+        let Some(chol) = k.clone().cholesky() else { return f64::NAN };
+        let l = chol.l();
+        let Some(li) = l.clone().try_inverse() else { return f64::NAN };
+        let m = sym(&(&li * &gc * li.transpose()));
+        let eig = m.symmetric_eigen();
+        let Some((at, &mu)) = eig.eigenvalues.iter().enumerate().max_by(|a, b| a.1.total_cmp(b.1))
+        else {
+            return f64::NAN;
+        };
+        if mu <= 0.0 {
+            return f64::INFINITY;
+        }
+        let n_b = 1.0 / mu;
+        // Mode q = L^-T v: its width wave number beta² = (q' P11 q)/(q' P00 q).
+        let v = eig.eigenvectors.column(at);
+        let q = li.transpose() * v;
+        let n = TERMS;
+        let quad = |p: &DMatrix<f64>| {
+            let (a, c) = (q.rows(0, n), q.rows(n, n));
+            a.dot(&(p * a)) + c.dot(&(p * c))
+        };
+        let beta2 = quad(&(&self.unit.p11 / b)) / quad(&(&self.unit.p00 * b));
+        let n_s = s.0 * (alpha * alpha + beta2) / (alpha * alpha);
+        1.0 / (1.0 / n_b + 1.0 / n_s)
+    }
+
+    /// Critical shear flows of both signs at wave number `alpha`, with the transverse shear
+    /// flexibility taken as `1/N = 1/N_b + 1/S` (a lower bound: the shear-only buckling load of
+    /// the thin-face sandwich is at least `S`).
+    fn shear_at(&self, d: &Matrix3<f64>, b: f64, alpha: f64, s: ShearFlexibility) -> [f64; 2] {
+        let (k, _, gs) = self.matrices(d, b, alpha);
+        let Some((hi, lo)) = Self::inverse_multipliers(&k, &gs) else {
+            return [f64::NAN; 2];
+        };
+        let reduce = |mu: f64| {
+            if mu <= 0.0 {
+                return f64::INFINITY;
+            }
+            let n_b = 1.0 / mu;
+            if s.0.is_finite() { 1.0 / (1.0 / n_b + 1.0 / s.0) } else { n_b }
+        };
+        [reduce(hi), reduce(-lo)]
+    }
+
+    /// The least critical compression `-N_x` (N/m) over the half-wavelength (see
+    /// [`LongPlate::critical`]).
+    pub fn compression(&self, d: &Matrix3<f64>, b: f64, s: ShearFlexibility) -> f64 {
+        let aspect = (d[(0, 0)] / d[(1, 1)]).powf(0.25);
+        let base = b * if aspect.is_finite() && aspect > 0.0 { aspect } else { 1.0 };
+        minimise(|l| self.compression_at(d, b, std::f64::consts::PI / (base * l), s))
+    }
+
+    /// The least critical shear flows `[positive, negative magnitude]` (N/m) over the
+    /// half-wavelength (see [`LongPlate::critical`]).
+    pub fn shear(&self, d: &Matrix3<f64>, b: f64, s: ShearFlexibility) -> [f64; 2] {
+        let aspect = (d[(0, 0)] / d[(1, 1)]).powf(0.25);
+        let base = b * if aspect.is_finite() && aspect > 0.0 { aspect } else { 1.0 };
+        let alpha = |l: f64| std::f64::consts::PI / (base * l);
+        let positive = minimise(|l| self.shear_at(d, b, alpha(l), s)[0]);
+        // Without D16 and D26 the plate is its own mirror image along the span, which turns the
+        // shear over: both signs buckle alike.
+        let tol = 1e-12 * (d[(0, 0)] + d[(1, 1)]);
+        let negative = if d[(0, 2)].abs() <= tol && d[(1, 2)].abs() <= tol {
+            positive
+        } else {
+            minimise(|l| self.shear_at(d, b, alpha(l), s)[1])
+        };
+        [positive, negative]
+    }
+
+    /// The least critical loads over the half-wavelength, for bending stiffness `d` (N·m) and
+    /// width `b` (m). The half-wavelength `lambda = pi/alpha` is scanned from 0.05 to 20 times
+    /// `b (D11/D22)^(1/4)` on a logarithmic grid and refined by golden section about the least
+    /// value.
+    pub fn critical(&self, d: &Matrix3<f64>, b: f64, s: ShearFlexibility) -> PlateCritical {
+        let compression = self.compression(d, b, s);
+        let [shear_positive, shear_negative] = self.shear(d, b, s);
+        PlateCritical { compression, shear_positive, shear_negative }
+    }
+}
+
+/// Least value of a positive function of the half-wavelength ratio `l` over [0.05, 20]: a
+/// logarithmic scan of 25 points, then golden section on the bracket about the least one.
+pub(crate) fn minimise(f: impl Fn(f64) -> f64) -> f64 {
+    let (lo, hi) = (0.05f64.ln(), 20f64.ln());
+    let n = 25;
+    let xs: Vec<f64> = (0..n).map(|i| lo + (hi - lo) * i as f64 / (n - 1) as f64).collect();
+    let ys: Vec<f64> = xs
+        .iter()
+        .map(|&x| f(x.exp()))
+        .map(|y| if y.is_nan() { f64::INFINITY } else { y })
+        .collect();
+    let (imin, &ymin) =
+        ys.iter().enumerate().min_by(|a, b| a.1.total_cmp(b.1)).unwrap_or((0, &f64::INFINITY));
+    if !ymin.is_finite() {
+        return ymin;
+    }
+    let (mut a, mut c) = (xs[imin.saturating_sub(1)], xs[(imin + 1).min(n - 1)]);
+    let g = 0.5 * (5f64.sqrt() - 1.0);
+    let eval = |x: f64| {
+        let y = f(x.exp());
+        if y.is_nan() { f64::INFINITY } else { y }
+    };
+    let mut x1 = c - g * (c - a);
+    let mut x2 = a + g * (c - a);
+    let (mut f1, mut f2) = (eval(x1), eval(x2));
+    for _ in 0..30 {
+        if f1 < f2 {
+            c = x2;
+            x2 = x1;
+            f2 = f1;
+            x1 = c - g * (c - a);
+            f1 = eval(x1);
+        } else {
+            a = x1;
+            x1 = x2;
+            f1 = f2;
+            x2 = a + g * (c - a);
+            f2 = eval(x2);
+        }
+        // The least value is flat: a bracket of 1e-3 in ln(l) leaves an error near 1e-7.
+        if (c - a).abs() < 1e-3 {
+            break;
+        }
+    }
+    ymin.min(f1).min(f2)
+}
+
+/// Bending stiffness for buckling of a laminate with coupling: `D* = D - B A^-1 B`, the reduced
+/// bending stiffness (membrane strains free to follow the bending), which never exceeds `D` and
+/// equals it for a symmetric laminate. Used for unsymmetric walls as a conservative value (the
+/// reduced-bending-stiffness approximation discussed by Whitney 1987, ch. 5; from memory).
+pub fn reduced_bending_stiffness(abd: &crate::laminate::Abd) -> Option<Matrix3<f64>> {
+    let ai = abd.a.try_inverse()?;
+    Some(abd.d - abd.b * ai * abd.b)
+}
+
+/// Closed form of a long specially orthotropic plate with simply supported long edges under
+/// compression: `N_cr = (2 pi² / b²) (sqrt(D11 D22) + D12 + 2 D66)` (Whitney 1987, ch. 5; from
+/// memory). For checks: the general solver above is what the program uses.
+pub fn orthotropic_long_plate_ss(d: &Matrix3<f64>, b: f64) -> f64 {
+    let pi2 = std::f64::consts::PI.powi(2);
+    2.0 * pi2 / (b * b) * ((d[(0, 0)] * d[(1, 1)]).sqrt() + d[(0, 1)] + 2.0 * d[(2, 2)])
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn gauss_legendre_integrates_polynomials_exactly() {
+        let q = gauss_legendre(8);
+        let s: f64 = q.iter().map(|(x, w)| w * x.powi(9)).sum();
+        assert!((s - 0.1).abs() < 1e-14);
+        let total: f64 = q.iter().map(|(_, w)| w).sum();
+        assert!((total - 1.0).abs() < 1e-14);
+    }
+
+    #[test]
+    fn clamped_basis_has_zero_slope_at_the_edges() {
+        for k in 1..=TERMS {
+            for eta in [0.0, 1.0] {
+                let [v, d, _] = basis(EdgeSupport::Clamped, k, eta);
+                assert!(v.abs() < 1e-12 && d.abs() < 1e-9, "k {k} eta {eta}: {v} {d}");
+            }
+        }
+    }
+
+    #[test]
+    fn second_derivative_matches_a_finite_difference() {
+        let h = 1e-4;
+        for k in [1, 3, 7] {
+            let eta = 0.37;
+            let [_, d1m, _] = basis(EdgeSupport::Clamped, k, eta - h);
+            let [_, d1p, _] = basis(EdgeSupport::Clamped, k, eta + h);
+            let [_, _, d2] = basis(EdgeSupport::Clamped, k, eta);
+            assert!(((d1p - d1m) / (2.0 * h) - d2).abs() < 1e-4 * d2.abs().max(1.0));
+        }
+    }
+}
