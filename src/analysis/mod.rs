@@ -19,7 +19,8 @@ use std::sync::OnceLock;
 
 use crate::Error;
 use crate::blade::Blade;
-use crate::input::Project;
+use crate::input::{Buoyancy, BuoyantSection, Project};
+use crate::modal::{Attachments, FluidSection};
 use crate::section::{
     SectionLayout, SectionParams, SectionProperties, SolvedSection, WallCurvature,
 };
@@ -103,7 +104,41 @@ impl BladeModel {
             stations.push(AnalysisStation { layout, plies, section });
             progress(i + 1, radii.len());
         }
-        Ok(BladeModel { project, blade, stations, mass: OnceLock::new() })
+        let mut model = BladeModel { project, blade, stations, mass: OnceLock::new() };
+        model.add_buoyancy();
+        Ok(model)
+    }
+
+    /// With a `[fluid]`, gives every load case with gravity the buoyancy of the displaced fluid:
+    /// the area and centroid inside each analysis station's outer mould line. Every build calls
+    /// it; call it again after changing the project's fluid or load cases. Load cases without
+    /// gravity, or a project without a fluid, are left as they are.
+    pub fn add_buoyancy(&mut self) {
+        let Some(fluid) = self.project.fluid.clone() else { return };
+        let sections: Vec<BuoyantSection> = self
+            .stations
+            .iter()
+            .filter_map(|s| BuoyantSection::of_outline(s.layout.r, &s.layout.outer))
+            .collect();
+        for case in self.project.load_cases.iter_mut().filter(|c| c.gravity.is_some()) {
+            case.buoyancy = Some(Buoyancy { density: fluid.density, sections: sections.clone() });
+        }
+    }
+
+    /// What the modal model carries besides the sections: the project's point masses and, with a
+    /// `[fluid]`, the ellipse of every analysis station's outer mould line for the added mass.
+    pub fn modal_attachments(&self) -> Attachments {
+        let p = &self.project;
+        let mut a = Attachments::of_point_masses(&p.point_masses);
+        if let Some(fluid) = &p.fluid {
+            let sections = self
+                .stations
+                .iter()
+                .filter_map(|s| FluidSection::of_outline(s.layout.r, &s.layout.outer))
+                .collect();
+            a.fluid = Some((fluid.density, sections));
+        }
+        a
     }
 
     /// The sections' properties, root to tip.

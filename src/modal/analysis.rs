@@ -8,7 +8,7 @@ use super::campbell::{
     Campbell, Crossing, Excitation, MarginCheck, SpeedRange, SweepProgress, machine_excitations,
 };
 use super::modes::ModeSet;
-use super::track::mac;
+use super::track::mac_table;
 use crate::input::{Criteria, ExcitationSpec, ModalSpec, Rotor};
 use crate::section::SectionProperties;
 
@@ -137,14 +137,18 @@ impl ModalAnalysis {
                     continue;
                 };
                 let set = dry_model.modes(rpm, (count + 2).min(dry_model.dof_count()))?;
+                let wet_vectors: Vec<_> = wet.modes.iter().map(|w| &w.vector).collect();
+                let dry_vectors: Vec<_> = set.modes.iter().map(|d| &d.vector).collect();
+                let table = mac_table(dry_model.mass(), &wet_vectors, &dry_vectors);
                 let modes = wet
                     .modes
                     .iter()
-                    .filter_map(|w| {
-                        let (value, best) = set
-                            .modes
+                    .zip(&table)
+                    .filter_map(|(w, row)| {
+                        let (value, best) = row
                             .iter()
-                            .map(|d| (mac(dry_model.mass(), &w.vector, &d.vector), d))
+                            .copied()
+                            .zip(&set.modes)
                             .max_by(|a, b| a.0.total_cmp(&b.0))?;
                         Some((w.track?, w.frequency_hz, best.frequency_hz, value))
                     })
