@@ -63,13 +63,16 @@ fn text(project: &str, check: &DesignCheck) -> String {
     }
     if t.is_empty() {
         let _ = writeln!(out, "The project sets no [criteria]: nothing to check.");
+        let _ = writeln!(out);
+        out.push_str(&layloft::report::not_covered_text());
     } else {
         out.push_str(&t.render(2));
         let _ = writeln!(out);
+        out.push_str(&layloft::report::not_covered_text());
+        // The verdict is the last line.
+        let _ = writeln!(out);
         let _ = writeln!(out, "Design check: {}", check.verdict_line());
     }
-    let _ = writeln!(out);
-    out.push_str(&layloft::report::not_covered_text());
     out
 }
 
