@@ -6,6 +6,10 @@
 //! eps2c_ustrain gamma12_ustrain` (all five or none), `a1_ustrain_K a2_ustrain_K` (both or none),
 //! `fibre_volume_fraction`, `resin_density_kg_m3`, `cost_per_kg`, `source` (optional).
 //!
+//! Cutting keys of both kinds (optional, for the ply book): `locking_angle_deg` (the shear angle
+//! at which a woven or stitched fabric locks, 0 < value <= 90, default 40), `roll_width_mm` (the
+//! roll or sheet width, positive, default 1270), `cost_per_kg`.
+//!
 //! Isotropic keys: `E_GPa nu density_kg_m3` (required); `ply_thickness_mm`,
 //! `tensile_strength_MPa`, `compressive_strength_MPa`, `shear_strength_MPa`, `cte_ustrain_K`,
 //! `solidus_C liquidus_C` (both or none), `safety_note`, `cost_per_kg`, `source` (optional).
@@ -15,8 +19,8 @@ use std::path::Path;
 use super::location::{InputError, Location, SourceText};
 use super::toml_table::TableReader;
 use crate::material::{
-    Isotropic, Lamina, LaminaKind, Material, MaterialError, MaterialLibrary, StrainLimits,
-    Strengths,
+    CuttingData, Isotropic, Lamina, LaminaKind, Material, MaterialError, MaterialLibrary,
+    StrainLimits, Strengths,
 };
 use crate::units::{GPA, MICROSTRAIN, MM, MPA};
 
@@ -38,14 +42,19 @@ fn read_source(source: &SourceText) -> Result<MaterialLibrary, InputError> {
     if let Some(laminae) = doc.optional_table("lamina")? {
         for (name, mut t) in laminae.named_tables()? {
             let lamina = read_lamina(&name, &mut t)?;
+            let cutting = read_cutting(&mut t, lamina.cost_per_kg)?;
             insert(&mut library, Material::Lamina(lamina), &t)?;
+            library.set_cutting(&name, cutting);
             t.finish()?;
         }
     }
     if let Some(solids) = doc.optional_table("isotropic")? {
         for (name, mut t) in solids.named_tables()? {
             let iso = read_isotropic(&name, &mut t)?;
+            let cost = t.optional_f64("cost_per_kg")?;
+            let cutting = read_cutting(&mut t, cost)?;
             insert(&mut library, Material::Isotropic(iso), &t)?;
+            library.set_cutting(&name, cutting);
             t.finish()?;
         }
     }
@@ -108,6 +117,8 @@ const LAMINA_KEYS: &[&str] = &[
     "fibre_volume_fraction",
     "resin_density_kg_m3",
     "cost_per_kg",
+    "locking_angle_deg",
+    "roll_width_mm",
     "source",
 ];
 
@@ -125,6 +136,8 @@ const ISOTROPIC_KEYS: &[&str] = &[
     "liquidus_C",
     "safety_note",
     "cost_per_kg",
+    "locking_angle_deg",
+    "roll_width_mm",
     "source",
 ];
 
@@ -192,7 +205,6 @@ fn read_isotropic(name: &str, t: &mut TableReader<'_>) -> Result<Isotropic, Inpu
         melt_keys.iter().map(|k| t.optional_f64(k)).collect::<Result<_, _>>()?;
     let melting_range_c = all_or_none(t, &melt_keys, &melt)?.map(|v| [v[0], v[1]]);
     let safety_note = t.optional_str("safety_note")?;
-    t.optional_f64("cost_per_kg")?;
     t.optional_str("source")?;
     Ok(Isotropic {
         name: name.to_string(),
@@ -207,6 +219,37 @@ fn read_isotropic(name: &str, t: &mut TableReader<'_>) -> Result<Isotropic, Inpu
         melting_range_c,
         safety_note,
     })
+}
+
+/// The cutting keys of a record (see the module docs).
+fn read_cutting(t: &mut TableReader<'_>, cost: Option<f64>) -> Result<CuttingData, InputError> {
+    let mut c = CuttingData { cost_per_kg: cost, ..CuttingData::default() };
+    if let Some(a) = t.optional_f64("locking_angle_deg")? {
+        if !(a > 0.0 && a <= 90.0) {
+            return Err(t.error(
+                "locking_angle_deg",
+                format!("the locking angle must be above 0 and at most 90 degrees, found {a}"),
+            ));
+        }
+        c.locking_angle = a.to_radians();
+    }
+    if let Some(w) = t.optional_f64("roll_width_mm")? {
+        if !(w > 0.0 && w.is_finite()) {
+            return Err(t.error(
+                "roll_width_mm",
+                format!("the roll width must be a positive number of mm, found {w}"),
+            ));
+        }
+        c.roll_width = w * MM;
+    }
+    if let Some(k) = cost
+        && !(k >= 0.0 && k.is_finite())
+    {
+        return Err(
+            t.error("cost_per_kg", format!("the cost per kg must be zero or positive, found {k}"))
+        );
+    }
+    Ok(c)
 }
 
 /// Keys that go together: all given, or none.
