@@ -336,4 +336,24 @@ liquidus_C = 138
             "m.toml line 5, lamina.t300.G12_GPa: G12 (GPa) must be a positive number, found -7.17"
         );
     }
+
+    #[test]
+    fn cutting_keys_are_read_and_a_bad_locking_angle_names_its_key() {
+        let good = GOOD.replace(
+            "S12_MPa = 68",
+            "S12_MPa = 68\nlocking_angle_deg = 35\nroll_width_mm = 1000\ncost_per_kg = 40",
+        );
+        let lib = read_materials_str(&good, "m.toml").unwrap();
+        let c = lib.cutting("t300");
+        assert!((c.locking_angle.to_degrees() - 35.0).abs() < 1e-12);
+        assert!((c.roll_width - 1.0).abs() < 1e-12);
+        assert_eq!(c.cost_per_kg, Some(40.0));
+        assert_eq!(lib.cutting("bi58sn42"), CuttingData::default());
+        let bad = GOOD.replace("S12_MPa = 68", "S12_MPa = 68\nlocking_angle_deg = 95");
+        let e = read_materials_str(&bad, "m.toml").unwrap_err().to_string();
+        assert_eq!(
+            e,
+            "m.toml line 14, lamina.t300.locking_angle_deg: the locking angle must be above 0 and at most 90 degrees, found 95"
+        );
+    }
 }
