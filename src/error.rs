@@ -6,6 +6,7 @@ use crate::laminate::LaminateError;
 use crate::loads::LoadsError;
 use crate::material::MaterialError;
 use crate::modal::ModalError;
+use crate::plybook::PlyBookError;
 use crate::section::SectionError;
 use crate::stress::StressError;
 use crate::tooling::MeshError;
@@ -40,6 +41,9 @@ pub enum Error {
     /// The modal analysis: bad model data or speeds, or an eigen solution that failed.
     #[error(transparent)]
     Modal(#[from] ModalError),
+    /// The ply book: a region that cannot be draped, a roll too narrow.
+    #[error(transparent)]
+    PlyBook(#[from] PlyBookError),
     /// Writing an output file.
     #[error("cannot write {path}: {source}")]
     Write {

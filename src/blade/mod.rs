@@ -244,6 +244,11 @@ impl Blade {
         self.plies.get(index).map(|p| &p.spec)
     }
 
+    /// The material of the ply with that index (as in `plies.csv`, outermost first).
+    pub fn ply_material(&self, index: usize) -> Option<&Lamina> {
+        self.plies.get(index).map(|p| p.material.as_ref())
+    }
+
     /// Number of plies in the schedule.
     pub fn ply_count(&self) -> usize {
         self.plies.len()

@@ -6,6 +6,10 @@
 //! eps2c_ustrain gamma12_ustrain` (all five or none), `a1_ustrain_K a2_ustrain_K` (both or none),
 //! `fibre_volume_fraction`, `resin_density_kg_m3`, `cost_per_kg`, `source` (optional).
 //!
+//! Cutting keys of both kinds (optional, for the ply book): `locking_angle_deg` (the shear angle
+//! at which a woven or stitched fabric locks, 0 < value <= 90, default 40), `roll_width_mm` (the
+//! roll or sheet width, positive, default 1270), `cost_per_kg`.
+//!
 //! Isotropic keys: `E_GPa nu density_kg_m3` (required); `ply_thickness_mm`,
 //! `tensile_strength_MPa`, `compressive_strength_MPa`, `shear_strength_MPa`, `cte_ustrain_K`,
 //! `solidus_C liquidus_C` (both or none), `safety_note`, `cost_per_kg`, `source` (optional);
@@ -18,8 +22,8 @@ use std::path::Path;
 use super::location::{InputError, Location, SourceText};
 use super::toml_table::TableReader;
 use crate::material::{
-    CoreProperties, Isotropic, Lamina, LaminaKind, Material, MaterialError, MaterialLibrary,
-    StrainLimits, Strengths,
+    CoreProperties, CuttingData, Isotropic, Lamina, LaminaKind, Material, MaterialError,
+    MaterialLibrary, StrainLimits, Strengths,
 };
 use crate::units::{GPA, MICROSTRAIN, MM, MPA};
 
@@ -41,14 +45,19 @@ fn read_source(source: &SourceText) -> Result<MaterialLibrary, InputError> {
     if let Some(laminae) = doc.optional_table("lamina")? {
         for (name, mut t) in laminae.named_tables()? {
             let lamina = read_lamina(&name, &mut t)?;
+            let cutting = read_cutting(&mut t, lamina.cost_per_kg)?;
             insert(&mut library, Material::Lamina(lamina), &t)?;
+            library.set_cutting(&name, cutting);
             t.finish()?;
         }
     }
     if let Some(solids) = doc.optional_table("isotropic")? {
         for (name, mut t) in solids.named_tables()? {
             let iso = read_isotropic(&name, &mut t)?;
+            let cost = t.optional_f64("cost_per_kg")?;
+            let cutting = read_cutting(&mut t, cost)?;
             insert(&mut library, Material::Isotropic(iso), &t)?;
+            library.set_cutting(&name, cutting);
             t.finish()?;
         }
     }
@@ -111,6 +120,8 @@ const LAMINA_KEYS: &[&str] = &[
     "fibre_volume_fraction",
     "resin_density_kg_m3",
     "cost_per_kg",
+    "locking_angle_deg",
+    "roll_width_mm",
     "source",
 ];
 
@@ -128,6 +139,8 @@ const ISOTROPIC_KEYS: &[&str] = &[
     "liquidus_C",
     "safety_note",
     "cost_per_kg",
+    "locking_angle_deg",
+    "roll_width_mm",
     "source",
     "core",
     "core_shear_modulus_MPa",
@@ -199,7 +212,6 @@ fn read_isotropic(name: &str, t: &mut TableReader<'_>) -> Result<Isotropic, Inpu
         melt_keys.iter().map(|k| t.optional_f64(k)).collect::<Result<_, _>>()?;
     let melting_range_c = all_or_none(t, &melt_keys, &melt)?.map(|v| [v[0], v[1]]);
     let safety_note = t.optional_str("safety_note")?;
-    t.optional_f64("cost_per_kg")?;
     t.optional_str("source")?;
     let core = read_core(t, e)?;
     Ok(Isotropic {
@@ -252,6 +264,37 @@ fn read_core(t: &mut TableReader<'_>, e: f64) -> Result<Option<CoreProperties>, 
         shear_strength: need(s, "core_shear_strength_MPa")? * MPA,
         compression_modulus: ec.map_or(e, |v| v * MPA),
     }))
+}
+
+/// The cutting keys of a record (see the module docs).
+fn read_cutting(t: &mut TableReader<'_>, cost: Option<f64>) -> Result<CuttingData, InputError> {
+    let mut c = CuttingData { cost_per_kg: cost, ..CuttingData::default() };
+    if let Some(a) = t.optional_f64("locking_angle_deg")? {
+        if !(a > 0.0 && a <= 90.0) {
+            return Err(t.error(
+                "locking_angle_deg",
+                format!("the locking angle must be above 0 and at most 90 degrees, found {a}"),
+            ));
+        }
+        c.locking_angle = a.to_radians();
+    }
+    if let Some(w) = t.optional_f64("roll_width_mm")? {
+        if !(w > 0.0 && w.is_finite()) {
+            return Err(t.error(
+                "roll_width_mm",
+                format!("the roll width must be a positive number of mm, found {w}"),
+            ));
+        }
+        c.roll_width = w * MM;
+    }
+    if let Some(k) = cost
+        && !(k >= 0.0 && k.is_finite())
+    {
+        return Err(
+            t.error("cost_per_kg", format!("the cost per kg must be zero or positive, found {k}"))
+        );
+    }
+    Ok(c)
 }
 
 /// Keys that go together: all given, or none.
@@ -336,6 +379,26 @@ liquidus_C = 138
         assert_eq!(
             e,
             "m.toml line 5, lamina.t300.G12_GPa: G12 (GPa) must be a positive number, found -7.17"
+        );
+    }
+
+    #[test]
+    fn cutting_keys_are_read_and_a_bad_locking_angle_names_its_key() {
+        let good = GOOD.replace(
+            "S12_MPa = 68",
+            "S12_MPa = 68\nlocking_angle_deg = 35\nroll_width_mm = 1000\ncost_per_kg = 40",
+        );
+        let lib = read_materials_str(&good, "m.toml").unwrap();
+        let c = lib.cutting("t300");
+        assert!((c.locking_angle.to_degrees() - 35.0).abs() < 1e-12);
+        assert!((c.roll_width - 1.0).abs() < 1e-12);
+        assert_eq!(c.cost_per_kg, Some(40.0));
+        assert_eq!(lib.cutting("bi58sn42"), CuttingData::default());
+        let bad = GOOD.replace("S12_MPa = 68", "S12_MPa = 68\nlocking_angle_deg = 95");
+        let e = read_materials_str(&bad, "m.toml").unwrap_err().to_string();
+        assert_eq!(
+            e,
+            "m.toml line 14, lamina.t300.locking_angle_deg: the locking angle must be above 0 and at most 90 degrees, found 95"
         );
     }
 }

@@ -30,10 +30,41 @@ impl Material {
     }
 }
 
+/// What the cutting table needs of a material beyond its mechanics: how far the cloth shears
+/// before it locks, how wide the roll is, and its price.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct CuttingData {
+    /// Shear angle at which a woven or stitched fabric locks (wrinkles beyond it), rad.
+    pub locking_angle: f64,
+    /// Width of the roll (or sheet) the plies are cut from, m.
+    pub roll_width: f64,
+    /// Cost per kilogram in the user's currency, when given.
+    pub cost_per_kg: Option<f64>,
+}
+
+/// Default locking angle: 40°, within the 30–50° usually quoted for woven glass and carbon
+/// fabrics (common practice; a tested value of the fabric should be given).
+pub const DEFAULT_LOCKING_ANGLE_DEG: f64 = 40.0;
+
+/// Default roll width: 1270 mm (50 in), a common roll width of reinforcement fabrics (common
+/// practice).
+pub const DEFAULT_ROLL_WIDTH_MM: f64 = 1270.0;
+
+impl Default for CuttingData {
+    fn default() -> Self {
+        CuttingData {
+            locking_angle: DEFAULT_LOCKING_ANGLE_DEG.to_radians(),
+            roll_width: DEFAULT_ROLL_WIDTH_MM * 1e-3,
+            cost_per_kg: None,
+        }
+    }
+}
+
 /// Material records in file order, looked up by name.
 #[derive(Debug, Clone, Default, PartialEq)]
 pub struct MaterialLibrary {
     records: Vec<Material>,
+    cutting: Vec<(String, CuttingData)>,
 }
 
 impl MaterialLibrary {
@@ -77,6 +108,20 @@ impl MaterialLibrary {
             name: name.to_string(),
             hint: closest(name, self.records.iter().map(Material::name)),
         })
+    }
+
+    /// Sets the cutting data of the record `name` (replacing what was set).
+    pub fn set_cutting(&mut self, name: &str, data: CuttingData) {
+        if let Some(slot) = self.cutting.iter_mut().find(|(n, _)| n == name) {
+            slot.1 = data;
+        } else {
+            self.cutting.push((name.to_string(), data));
+        }
+    }
+
+    /// The cutting data of the record `name`: as set, or the defaults.
+    pub fn cutting(&self, name: &str) -> CuttingData {
+        self.cutting.iter().find(|(n, _)| n == name).map(|(_, d)| *d).unwrap_or_default()
     }
 
     /// The record of that name as a ply material: laminae as they are, isotropic records through

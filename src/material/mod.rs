@@ -13,7 +13,9 @@
 mod library;
 mod validate;
 
-pub use library::{Material, MaterialLibrary};
+pub use library::{
+    CuttingData, DEFAULT_LOCKING_ANGLE_DEG, DEFAULT_ROLL_WIDTH_MM, Material, MaterialLibrary,
+};
 pub use validate::{MaterialError, MaterialField};
 
 /// The five basic strengths of a lamina in its material axes, all positive magnitudes in Pa.

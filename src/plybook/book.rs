@@ -1,0 +1,547 @@
+//! The blade's ply book: every ply region draped, flattened, checked, nested and costed.
+
+use super::PlyBookError;
+use super::drape::DrapeSurface;
+use super::nest::{NestItem, Nesting, nest};
+use super::pattern::{DrapeFailure, FlatPattern, RegionSpec, drape_region};
+use super::regions::{SkinLevel, WebPlane};
+use crate::blade::{Blade, Surface};
+use crate::input::{PlySpec, Project, Region};
+use crate::material::{CuttingData, LaminaKind};
+
+/// Settings of the ply book.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct PlyBookParams {
+    /// Net links along the longer side of a region (the net spacing is that side over this,
+    /// and at most a sixth of the shorter side).
+    pub links: usize,
+    /// Least net spacing, m.
+    pub min_spacing: f64,
+    /// Gap kept between nested patterns, m.
+    pub gap: f64,
+    /// Largest net spacing on a skin as a fraction of the least chord the ply covers.
+    pub chord_spacing: f64,
+}
+
+impl Default for PlyBookParams {
+    fn default() -> Self {
+        PlyBookParams { links: 60, min_spacing: 0.002, gap: 0.01, chord_spacing: 0.08 }
+    }
+}
+
+/// How a ply material drapes.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum FabricKind {
+    /// Unidirectional: the fibre path deviation is reported.
+    Unidirectional,
+    /// Woven or stitched, balanced (`E2 ≥ 0.8 E1`): checked against the locking angle.
+    Fabric,
+    /// An isotropic sheet (foam, metal): flattened, not checked.
+    Sheet,
+}
+
+impl FabricKind {
+    /// Key for JSON and CSV.
+    pub fn key(self) -> &'static str {
+        match self {
+            FabricKind::Unidirectional => "unidirectional",
+            FabricKind::Fabric => "fabric",
+            FabricKind::Sheet => "sheet",
+        }
+    }
+
+    /// Whether the fibres allow a quarter turn on the roll.
+    pub fn quarter_turns(self) -> bool {
+        !matches!(self, FabricKind::Unidirectional)
+    }
+}
+
+/// A place on the blade: radius and chord fraction on a skin, or radius and height fraction on
+/// a web (0 at the lower skin).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct PatternPlace {
+    /// Radius, m.
+    pub r: f64,
+    /// Chord fraction (skin) or height fraction (web).
+    pub along: f64,
+}
+
+/// One pattern of the ply book.
+#[derive(Debug, Clone)]
+pub struct PatternEntry {
+    /// File-safe name: the ply id and its surface (`skin-1-upper`, `web-1-spar`).
+    pub name: String,
+    /// The ply's id.
+    pub ply: String,
+    /// Lay-up order: the ply's position in the schedule, 1 = laid first (outer mould line).
+    pub order: usize,
+    /// Line of the ply in the plies file.
+    pub line: usize,
+    /// Material name.
+    pub material: String,
+    /// `upper`, `lower` or `web:NAME`.
+    pub surface: String,
+    /// Fibre angle, degrees.
+    pub angle_deg: f64,
+    /// How the material drapes.
+    pub kind: FabricKind,
+    /// Span range, m.
+    pub r_range: [f64; 2],
+    /// Chord-fraction range on a skin; `None` on a web.
+    pub chord_range: Option<[f64; 2]>,
+    /// The flat pattern.
+    pub pattern: FlatPattern,
+    /// Area of the flat pattern, m².
+    pub area_m2: f64,
+    /// Ply thickness, m.
+    pub thickness_m: f64,
+    /// Mass of the cut pattern, kg.
+    pub mass_kg: f64,
+    /// Cost, where the material has `cost_per_kg`.
+    pub cost: Option<f64>,
+    /// Locking angle of the material, rad.
+    pub locking_angle: f64,
+    /// Where the greatest shear is.
+    pub max_shear_place: PatternPlace,
+    /// Where the greatest fibre deviation is.
+    pub max_deviation_place: PatternPlace,
+}
+
+impl PatternEntry {
+    /// Whether a fabric shears past its locking angle somewhere.
+    pub fn locks(&self) -> bool {
+        self.kind == FabricKind::Fabric && self.pattern.max_shear.abs() > self.locking_angle
+    }
+}
+
+/// The nesting of one material.
+#[derive(Debug, Clone)]
+pub struct MaterialNesting {
+    /// Material name.
+    pub material: String,
+    /// The nesting; `placements[k].item` indexes `patterns`.
+    pub nesting: Nesting,
+    /// Indices into [`PlyBook::patterns`] of the patterns nested, in item order.
+    pub patterns: Vec<usize>,
+    /// Areal mass of the cloth, kg/m².
+    pub areal_mass: f64,
+    /// Mass of the roll used less the patterns, kg.
+    pub scrap_kg: f64,
+    /// Cost of the roll used, where the material has `cost_per_kg`.
+    pub roll_cost: Option<f64>,
+}
+
+/// The ply book of a blade.
+#[derive(Debug, Clone)]
+pub struct PlyBook {
+    /// Project name.
+    pub project: String,
+    /// Patterns in lay-up order.
+    pub patterns: Vec<PatternEntry>,
+    /// One nesting per material, in order of first use.
+    pub nestings: Vec<MaterialNesting>,
+    /// Draping warnings (locked fabric, large fibre deviation) with their place.
+    pub warnings: Vec<String>,
+    /// Regions that could not be draped, with the reason: left out of the book.
+    pub failed: Vec<PlyBookError>,
+}
+
+impl PlyBook {
+    /// Total mass of the patterns, kg.
+    pub fn pattern_mass_kg(&self) -> f64 {
+        self.patterns.iter().map(|p| p.mass_kg).sum()
+    }
+
+    /// Total cost of the patterns, when every material has a cost.
+    pub fn pattern_cost(&self) -> Option<f64> {
+        self.patterns.iter().map(|p| p.cost).sum()
+    }
+}
+
+/// The surface a region lies on.
+pub(crate) enum Level<'a> {
+    Skin(SkinLevel<'a>),
+    Web(WebPlane<'a>),
+}
+
+/// One ply region of the blade, ready to drape.
+pub struct PlyRegion<'a> {
+    /// Index of the ply in the schedule.
+    pub ply: usize,
+    /// `upper`, `lower` or `web:NAME`.
+    pub surface_name: String,
+    /// The region (parameters, seed, direction, spacing).
+    pub spec: RegionSpec,
+    level: Level<'a>,
+    span: [f64; 2],
+    chord: [f64; 2],
+}
+
+impl PlyRegion<'_> {
+    /// The surface the region lies on.
+    pub fn surface(&self) -> &dyn DrapeSurface {
+        match &self.level {
+            Level::Skin(s) => s,
+            Level::Web(w) => w,
+        }
+    }
+
+    /// The region's range of the first parameter (radius), m.
+    pub fn span(&self) -> [f64; 2] {
+        self.span
+    }
+
+    /// The range of the second parameter at radius `a`.
+    pub fn b_range(&self, a: f64) -> [f64; 2] {
+        match &self.level {
+            Level::Skin(s) => s.b_range(a, self.chord[0], self.chord[1]),
+            Level::Web(_) => [0.0, 1.0],
+        }
+    }
+
+    fn place(&self, p: [f64; 2]) -> PatternPlace {
+        match &self.level {
+            Level::Skin(s) => {
+                PatternPlace { r: p[0], along: s.chord_fraction(p[0], p[1].abs().clamp(0.0, 1.0)) }
+            }
+            Level::Web(_) => PatternPlace { r: p[0], along: p[1] },
+        }
+    }
+}
+
+fn zero_area(file: &str, p: &PlySpec, key: &str, found: String) -> PlyBookError {
+    PlyBookError::ZeroArea {
+        file: file.to_string(),
+        line: p.line,
+        ply: p.id.clone(),
+        key: key.to_string(),
+        found,
+    }
+}
+
+/// The ply regions of the blade in lay-up order (see the module docs).
+pub fn ply_regions<'a>(
+    blade: &'a Blade,
+    plies_file: &str,
+    params: &PlyBookParams,
+) -> Result<Vec<PlyRegion<'a>>, PlyBookError> {
+    let (root, tip) = (blade.root_radius(), blade.tip_radius());
+    let mut out = Vec::new();
+    for k in 0..blade.ply_count() {
+        let Some(p) = blade.ply(k) else { continue };
+        let span = [p.r_start.max(root), p.r_end.min(tip)];
+        if !(span[1] - span[0] > 1e-6) {
+            return Err(zero_area(
+                plies_file,
+                p,
+                "r_start_m, r_end_m",
+                format!("{}..{} m within the blade's {root}..{tip} m", p.r_start, p.r_end),
+            ));
+        }
+        let sides: Vec<(Surface, &str)> = match &p.region {
+            Region::Upper => vec![(Surface::Upper, "upper")],
+            Region::Lower => vec![(Surface::Lower, "lower")],
+            Region::Both => vec![(Surface::Upper, "upper"), (Surface::Lower, "lower")],
+            Region::Web(_) => Vec::new(),
+        };
+        let mid = 0.5 * (span[0] + span[1]);
+        let axis = [1.0, 0.0, 0.0];
+        if let Region::Web(name) = &p.region {
+            let Some(w) = blade.webs().iter().position(|w| &w.name == name) else { continue };
+            let plane = WebPlane::new(blade, w);
+            let ws = plane.span();
+            let span = [span[0].max(ws[0]), span[1].min(ws[1])];
+            if !(span[1] - span[0] > 1e-6) {
+                return Err(zero_area(
+                    plies_file,
+                    p,
+                    "r_start_m, r_end_m",
+                    format!("{}..{} m outside web '{name}'", p.r_start, p.r_end),
+                ));
+            }
+            let height = {
+                let a = plane.point([mid, 0.0]);
+                let b = plane.point([mid, 1.0]);
+                ((a[0] - b[0]).powi(2) + (a[1] - b[1]).powi(2) + (a[2] - b[2]).powi(2)).sqrt()
+            };
+            let spacing = spacing(span[1] - span[0], height, params);
+            let boundary = rectangle(span, [0.0, 1.0], 48, 12);
+            out.push(PlyRegion {
+                ply: k,
+                surface_name: format!("web:{name}"),
+                spec: RegionSpec {
+                    boundary,
+                    seed: [mid, 0.5],
+                    axis,
+                    angle: p.angle.rad(),
+                    spacing,
+                    root_mark: [span[0], 0.5],
+                },
+                level: Level::Web(plane),
+                span,
+                chord: [0.0, 1.0],
+            });
+            continue;
+        }
+        if !(p.to - p.from > 1e-6) {
+            return Err(zero_area(plies_file, p, "from, to", format!("{}..{}", p.from, p.to)));
+        }
+        for (side, name) in sides {
+            let level = SkinLevel::new(blade, side, k);
+            let n_r = 48;
+            let n_c = 16;
+            let radii: Vec<f64> =
+                (0..=n_r).map(|i| span[0] + (span[1] - span[0]) * i as f64 / n_r as f64).collect();
+            let ranges: Vec<[f64; 2]> =
+                radii.iter().map(|&r| level.b_range(r, p.from, p.to)).collect();
+            let mut boundary = Vec::new();
+            for (r, b) in radii.iter().zip(&ranges) {
+                boundary.push([*r, b[0]]);
+            }
+            let end = ranges[n_r];
+            for m in 1..n_c {
+                boundary.push([span[1], end[0] + (end[1] - end[0]) * m as f64 / n_c as f64]);
+            }
+            for (r, b) in radii.iter().zip(&ranges).rev() {
+                boundary.push([*r, b[1]]);
+            }
+            let start = ranges[0];
+            for m in (1..n_c).rev() {
+                boundary.push([span[0], start[0] + (start[1] - start[0]) * m as f64 / n_c as f64]);
+            }
+            let bm = level.b_range(mid, p.from, p.to);
+            let c = blade.chord(mid);
+            let arc = c * (p.to - p.from) * 1.1;
+            // Cloth cells small enough to close round the nose: a fraction of the least chord.
+            let least_chord = radii.iter().map(|&r| blade.chord(r)).fold(f64::INFINITY, f64::min);
+            out.push(PlyRegion {
+                ply: k,
+                surface_name: name.to_string(),
+                spec: RegionSpec {
+                    boundary,
+                    seed: [mid, 0.5 * (bm[0] + bm[1])],
+                    axis,
+                    angle: p.angle.rad(),
+                    spacing: spacing(span[1] - span[0], arc, params)
+                        .min(params.chord_spacing * least_chord)
+                        .max(params.min_spacing),
+                    root_mark: [span[0], 0.5 * (start[0] + start[1])],
+                },
+                level: Level::Skin(level),
+                span,
+                chord: [p.from, p.to],
+            });
+        }
+    }
+    Ok(out)
+}
+
+fn spacing(a: f64, b: f64, params: &PlyBookParams) -> f64 {
+    (a.max(b) / params.links.max(4) as f64).min(a.min(b) / 6.0).max(params.min_spacing)
+}
+
+/// A parameter rectangle's boundary, counter-clockwise, `n` samples along `a` and `m` along `b`.
+fn rectangle(a: [f64; 2], b: [f64; 2], n: usize, m: usize) -> Vec<[f64; 2]> {
+    let mut out = Vec::new();
+    for i in 0..n {
+        out.push([a[0] + (a[1] - a[0]) * i as f64 / n as f64, b[0]]);
+    }
+    for j in 0..m {
+        out.push([a[1], b[0] + (b[1] - b[0]) * j as f64 / m as f64]);
+    }
+    for i in (1..=n).rev() {
+        out.push([a[0] + (a[1] - a[0]) * i as f64 / n as f64, b[1]]);
+    }
+    for j in (1..=m).rev() {
+        out.push([a[0], b[0] + (b[1] - b[0]) * j as f64 / m as f64]);
+    }
+    out
+}
+
+/// Builds the ply book of a blade: every ply region draped and flattened, checked, and the
+/// patterns of each material nested on its roll.
+pub fn build_ply_book(
+    blade: &Blade,
+    project: &Project,
+    params: &PlyBookParams,
+) -> Result<PlyBook, PlyBookError> {
+    let regions = ply_regions(blade, &project.files.plies, params)?;
+    let mut patterns = Vec::with_capacity(regions.len());
+    let mut warnings = Vec::new();
+    let mut failed = Vec::new();
+    for region in &regions {
+        let Some(p) = blade.ply(region.ply) else { continue };
+        let Some(mat) = blade.ply_material(region.ply) else { continue };
+        let cutting = project.materials.cutting(&p.material);
+        let kind = match mat.kind {
+            LaminaKind::Isotropic => FabricKind::Sheet,
+            LaminaKind::Orthotropic if mat.e2 >= 0.8 * mat.e1 => FabricKind::Fabric,
+            LaminaKind::Orthotropic => FabricKind::Unidirectional,
+        };
+        let name = format!(
+            "{}-{}",
+            file_safe(&p.id),
+            file_safe(region.surface_name.trim_start_matches("web:"))
+        );
+        // Where the net cannot close round a tight curvature (a nose, a root), finer cloth
+        // cells are tried: half and a quarter of the spacing.
+        let mut attempt = drape_region(region.surface(), &region.spec);
+        for divide in [2.0, 4.0] {
+            if attempt.is_ok() {
+                break;
+            }
+            let spec = RegionSpec { spacing: region.spec.spacing / divide, ..region.spec.clone() };
+            attempt = drape_region(region.surface(), &spec);
+        }
+        let flat = match attempt.map_err(|e| {
+            let what = match e {
+                DrapeFailure::Seed => "the seed or the fibre direction is degenerate".to_string(),
+                DrapeFailure::Unreached(q) => {
+                    let at = region.place(q);
+                    format!(
+                        "the net does not reach r = {:.4} m, {} = {:.3} (the cloth would fold)",
+                        at.r,
+                        if region.surface_name.starts_with("web") { "height" } else { "x/c" },
+                        at.along
+                    )
+                }
+            };
+            PlyBookError::Drape {
+                file: project.files.plies.clone(),
+                line: p.line,
+                ply: p.id.clone(),
+                pattern: name.clone(),
+                what,
+            }
+        }) {
+            Ok(f) => f,
+            Err(e) => {
+                failed.push(e);
+                continue;
+            }
+        };
+        let mass = flat.area * mat.ply_thickness * mat.density;
+        let entry = PatternEntry {
+            name,
+            ply: p.id.clone(),
+            order: region.ply + 1,
+            line: p.line,
+            material: p.material.clone(),
+            surface: region.surface_name.clone(),
+            angle_deg: p.angle.deg(),
+            kind,
+            r_range: region.span,
+            chord_range: matches!(region.level, Level::Skin(_)).then_some(region.chord),
+            area_m2: flat.area,
+            thickness_m: mat.ply_thickness,
+            mass_kg: mass,
+            cost: cutting.cost_per_kg.map(|c| c * mass),
+            locking_angle: cutting.locking_angle,
+            max_shear_place: region.place(flat.max_shear_at),
+            max_deviation_place: region.place(flat.max_deviation_at),
+            pattern: flat,
+        };
+        warnings.extend(drape_warning(&entry));
+        if let Some(&q) = entry.pattern.extrapolated.first() {
+            let at = region.place(q);
+            warnings.push(format!(
+                "ply '{}' ({}): the draped net stops short of the region near r = {:.3} m, {} = {:.3} ({} outline points extrapolated): the cloth will not follow the surface there without a dart or a split; check by a trial lay-up",
+                entry.ply,
+                entry.name,
+                at.r,
+                if region.surface_name.starts_with("web") { "height" } else { "x/c" },
+                at.along,
+                entry.pattern.extrapolated.len()
+            ));
+        }
+        patterns.push(entry);
+    }
+    let nestings = nest_materials(&patterns, project, params)?;
+    Ok(PlyBook { project: project.name.clone(), patterns, nestings, warnings, failed })
+}
+
+fn drape_warning(e: &PatternEntry) -> Option<String> {
+    let place = |p: PatternPlace| {
+        if e.surface.starts_with("web") {
+            format!("r = {:.3} m, height {:.2}", p.r, p.along)
+        } else {
+            format!("r = {:.3} m, x/c = {:.3}", p.r, p.along)
+        }
+    };
+    match e.kind {
+        FabricKind::Fabric if e.locks() => Some(format!(
+            "ply '{}' ({}): the fabric shears {:.1}° at {}, past its locking angle of {:.1}°: it will wrinkle there; split the ply or add darts",
+            e.ply,
+            e.name,
+            e.pattern.max_shear.to_degrees().abs(),
+            place(e.max_shear_place),
+            e.locking_angle.to_degrees()
+        )),
+        FabricKind::Unidirectional if e.pattern.max_deviation.to_degrees().abs() > 5.0 => {
+            Some(format!(
+                "ply '{}' ({}): the fibres deviate {:.1}° from the intended direction at {} (more than 5°, common practice)",
+                e.ply,
+                e.name,
+                e.pattern.max_deviation.to_degrees().abs(),
+                place(e.max_deviation_place)
+            ))
+        }
+        _ => None,
+    }
+}
+
+fn nest_materials(
+    patterns: &[PatternEntry],
+    project: &Project,
+    params: &PlyBookParams,
+) -> Result<Vec<MaterialNesting>, PlyBookError> {
+    let mut materials: Vec<&str> = Vec::new();
+    for p in patterns {
+        if !materials.contains(&p.material.as_str()) {
+            materials.push(&p.material);
+        }
+    }
+    let mut out = Vec::new();
+    for m in materials {
+        let cutting: CuttingData = project.materials.cutting(m);
+        let idx: Vec<usize> = (0..patterns.len()).filter(|&k| patterns[k].material == m).collect();
+        let items: Vec<NestItem> = idx
+            .iter()
+            .map(|&k| NestItem {
+                outline: patterns[k].pattern.outline.clone(),
+                quarter_turns: patterns[k].kind.quarter_turns(),
+            })
+            .collect();
+        let nesting = nest(&items, cutting.roll_width, params.gap).map_err(|e| {
+            let p = &patterns[idx[e.item]];
+            PlyBookError::RollTooNarrow {
+                ply: p.ply.clone(),
+                pattern: p.name.clone(),
+                material: m.to_string(),
+                file: project.files.materials.clone(),
+                least_mm: e.least_width * 1e3,
+                roll_mm: cutting.roll_width * 1e3,
+            }
+        })?;
+        let first = &patterns[idx[0]];
+        let areal_mass = first.mass_kg / first.area_m2;
+        let roll_area = nesting.length * nesting.width;
+        let scrap_kg = (roll_area - nesting.pattern_area).max(0.0) * areal_mass;
+        out.push(MaterialNesting {
+            material: m.to_string(),
+            roll_cost: cutting.cost_per_kg.map(|c| c * roll_area * areal_mass),
+            nesting,
+            patterns: idx,
+            areal_mass,
+            scrap_kg,
+        });
+    }
+    Ok(out)
+}
+
+/// Letters, digits, `-` and `_`; anything else becomes `-`.
+fn file_safe(s: &str) -> String {
+    s.chars()
+        .map(|c| if c.is_ascii_alphanumeric() || c == '-' || c == '_' { c } else { '-' })
+        .collect()
+}

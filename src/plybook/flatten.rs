@@ -1,0 +1,228 @@
+//! Flattening: a point of the draped region is carried to the flat cloth through the net. The
+//! node parameters are interpolated over net indices by a bicubic (Lagrange, 4×4 nodes) where
+//! the neighbours exist, bilinear elsewhere; the indices `(ξ, η)` at which the interpolant meets
+//! the point are found by Newton steps, and the flat point is `(ξ d, η d)`, since the cloth is
+//! unsheared on the cutting table.
+
+use super::drape::DrapedNet;
+
+/// The farthest a point may lie outside the net, in cells, to be extrapolated to; beyond one
+/// cell the pattern says so (the cloth does not follow the surface there).
+pub(crate) const FAR_OUT: f64 = 4.0;
+
+/// A spatial index of the net's complete cells by their parameter boxes.
+pub(crate) struct NetLocator<'a> {
+    net: &'a DrapedNet,
+    origin: [f64; 2],
+    size: [f64; 2],
+    dims: [usize; 2],
+    buckets: Vec<Vec<(i32, i32)>>,
+}
+
+impl<'a> NetLocator<'a> {
+    pub(crate) fn new(net: &'a DrapedNet) -> Self {
+        let mut cells = Vec::new();
+        let (mut lo, mut hi) = ([f64::INFINITY; 2], [f64::NEG_INFINITY; 2]);
+        for (i, j, _) in net.nodes() {
+            if let Some(c) = cell_params(net, i, j) {
+                for p in c {
+                    for k in 0..2 {
+                        lo[k] = lo[k].min(p[k]);
+                        hi[k] = hi[k].max(p[k]);
+                    }
+                }
+                cells.push((i, j, c));
+            }
+        }
+        let nb = ((cells.len() as f64).sqrt().ceil() as usize).max(1);
+        let dims = [nb, nb];
+        let size =
+            [((hi[0] - lo[0]) / nb as f64).max(1e-300), ((hi[1] - lo[1]) / nb as f64).max(1e-300)];
+        let mut buckets = vec![Vec::new(); nb * nb];
+        for (i, j, c) in &cells {
+            let (mut a, mut b) = ([f64::INFINITY; 2], [f64::NEG_INFINITY; 2]);
+            for p in c {
+                for k in 0..2 {
+                    a[k] = a[k].min(p[k]);
+                    b[k] = b[k].max(p[k]);
+                }
+            }
+            let ka = |v: f64, k: usize| {
+                (((v - lo[k]) / size[k]).floor().max(0.0) as usize).min(dims[k] - 1)
+            };
+            for x in ka(a[0], 0)..=ka(b[0], 0) {
+                for y in ka(a[1], 1)..=ka(b[1], 1) {
+                    buckets[x * nb + y].push((*i, *j));
+                }
+            }
+        }
+        NetLocator { net, origin: lo, size, dims, buckets }
+    }
+
+    /// Net indices `(ξ, η)` of the parameter point `q`, or `None` outside the net (or more
+    /// than [`FAR_OUT`] cells outside it when `extrapolate`).
+    pub(crate) fn indices(&self, q: [f64; 2], extrapolate: bool) -> Option<[f64; 2]> {
+        self.indices_with_distance(q, extrapolate).map(|(x, _)| x)
+    }
+
+    /// [`NetLocator::indices`] and how far outside the nearest complete cell `q` lies, in cells.
+    pub(crate) fn indices_with_distance(
+        &self,
+        q: [f64; 2],
+        extrapolate: bool,
+    ) -> Option<([f64; 2], f64)> {
+        let k = |v: f64, k: usize| {
+            let f = ((v - self.origin[k]) / self.size[k]).floor();
+            (f >= -1e-9 && f <= self.dims[k] as f64 + 1e-9)
+                .then(|| (f.max(0.0) as usize).min(self.dims[k] - 1))
+        };
+        let (x, y) = (k(q[0], 0)?, k(q[1], 1)?);
+        let mut best: Option<([f64; 2], f64)> = None;
+        for &(i, j) in &self.buckets[x * self.dims[1] + y] {
+            let Some(c) = cell_params(self.net, i, j) else { continue };
+            let Some(st) = inverse_bilinear(&c, q) else { continue };
+            // Distance outside the unit square (0 inside).
+            let out = (-st[0]).max(st[0] - 1.0).max(-st[1]).max(st[1] - 1.0).max(0.0);
+            if best.is_none_or(|(_, o)| out < o) {
+                best = Some(([i as f64 + st[0], j as f64 + st[1]], out));
+            }
+            if out == 0.0 {
+                break;
+            }
+        }
+        if let Some((start, out)) = best
+            && out <= 1e-6
+        {
+            return Some((self.refine(start, q), 0.0));
+        }
+        if !extrapolate {
+            return None;
+        }
+        // Outside every complete cell: extrapolated from the nearest one, up to one cell out
+        // (the net may stop short of an edge where the surface turns sharply, as round a nose).
+        let mut near: Option<([f64; 2], f64)> = None;
+        for (i, j, _) in self.net.nodes() {
+            let Some(c) = cell_params(self.net, i, j) else { continue };
+            let Some(st) = inverse_bilinear(&c, q) else { continue };
+            let out = (-st[0]).max(st[0] - 1.0).max(-st[1]).max(st[1] - 1.0).max(0.0);
+            if near.is_none_or(|(_, o)| out < o) {
+                near = Some(([i as f64 + st[0], j as f64 + st[1]], out));
+            }
+        }
+        let (start, out) = near?;
+        (out <= FAR_OUT).then(|| (self.refine(start, q), out))
+    }
+
+    /// Newton steps on the bicubic interpolant from the bilinear estimate.
+    fn refine(&self, start: [f64; 2], q: [f64; 2]) -> [f64; 2] {
+        let mut xi = start;
+        for _ in 0..8 {
+            if bicubic(self.net, xi).is_none() {
+                return xi;
+            }
+            let Some((p, j)) = bicubic(self.net, xi) else { return xi };
+            let r = [p[0] - q[0], p[1] - q[1]];
+            let det = j[0][0] * j[1][1] - j[0][1] * j[1][0];
+            if det.abs() < 1e-300 {
+                return xi;
+            }
+            let dx = (r[0] * j[1][1] - r[1] * j[0][1]) / det;
+            let dy = (j[0][0] * r[1] - j[1][0] * r[0]) / det;
+            let next = [xi[0] - dx, xi[1] - dy];
+            if (next[0] - start[0]).abs() > 1.5 || (next[1] - start[1]).abs() > 1.5 {
+                return xi;
+            }
+            xi = next;
+            if dx.abs() < 1e-14 && dy.abs() < 1e-14 {
+                break;
+            }
+        }
+        xi
+    }
+
+    /// The flat point (m, warp along x) of the parameter point `q`, and how many cells outside
+    /// the net it was extrapolated (0 inside).
+    pub(crate) fn flat(&self, q: [f64; 2]) -> Option<([f64; 2], f64)> {
+        let (xi, out) = self.indices_with_distance(q, true)?;
+        Some(([xi[0] * self.net.spacing, xi[1] * self.net.spacing], out))
+    }
+}
+
+/// The parameters of the four corners of cell `(i, j)..(i+1, j+1)`, counter-clockwise.
+fn cell_params(net: &DrapedNet, i: i32, j: i32) -> Option<[[f64; 2]; 4]> {
+    Some([
+        net.node(i, j)?.param,
+        net.node(i + 1, j)?.param,
+        net.node(i + 1, j + 1)?.param,
+        net.node(i, j + 1)?.param,
+    ])
+}
+
+/// Local coordinates `(s, t)` of `q` in the bilinear cell `c` (corners 00, 10, 11, 01).
+fn inverse_bilinear(c: &[[f64; 2]; 4], q: [f64; 2]) -> Option<[f64; 2]> {
+    let mut st = [0.5, 0.5];
+    for _ in 0..20 {
+        let (s, t) = (st[0], st[1]);
+        let mut p = [0.0; 2];
+        let mut ds = [0.0; 2];
+        let mut dt = [0.0; 2];
+        for k in 0..2 {
+            p[k] = (1.0 - s) * (1.0 - t) * c[0][k]
+                + s * (1.0 - t) * c[1][k]
+                + s * t * c[2][k]
+                + (1.0 - s) * t * c[3][k];
+            ds[k] = (1.0 - t) * (c[1][k] - c[0][k]) + t * (c[2][k] - c[3][k]);
+            dt[k] = (1.0 - s) * (c[3][k] - c[0][k]) + s * (c[2][k] - c[1][k]);
+        }
+        let r = [p[0] - q[0], p[1] - q[1]];
+        let det = ds[0] * dt[1] - ds[1] * dt[0];
+        if det.abs() < 1e-300 {
+            return None;
+        }
+        let a = (r[0] * dt[1] - r[1] * dt[0]) / det;
+        let b = (ds[0] * r[1] - ds[1] * r[0]) / det;
+        st = [s - a, t - b];
+        if a.abs() < 1e-15 && b.abs() < 1e-15 {
+            break;
+        }
+    }
+    (st[0].is_finite() && st[1].is_finite()).then_some(st)
+}
+
+/// Cubic Lagrange weights and their derivatives at offset `x` for nodes at -1, 0, 1, 2.
+fn lagrange(x: f64) -> ([f64; 4], [f64; 4]) {
+    let w = [
+        -x * (x - 1.0) * (x - 2.0) / 6.0,
+        (x + 1.0) * (x - 1.0) * (x - 2.0) / 2.0,
+        -(x + 1.0) * x * (x - 2.0) / 2.0,
+        (x + 1.0) * x * (x - 1.0) / 6.0,
+    ];
+    let d = [
+        -(3.0 * x * x - 6.0 * x + 2.0) / 6.0,
+        (3.0 * x * x - 4.0 * x - 1.0) / 2.0,
+        -(3.0 * x * x - 2.0 * x - 2.0) / 2.0,
+        (3.0 * x * x - 1.0) / 6.0,
+    ];
+    (w, d)
+}
+
+/// The bicubic interpolant of the node parameters at net indices `xi` and its Jacobian
+/// (`[[dp0/dξ, dp0/dη], [dp1/dξ, dp1/dη]]`); `None` where the 4×4 stencil is incomplete.
+fn bicubic(net: &DrapedNet, xi: [f64; 2]) -> Option<([f64; 2], [[f64; 2]; 2])> {
+    let (i0, j0) = (xi[0].floor() as i32, xi[1].floor() as i32);
+    let (wa, da) = lagrange(xi[0] - i0 as f64);
+    let (wb, db) = lagrange(xi[1] - j0 as f64);
+    let mut p = [0.0; 2];
+    let mut jac = [[0.0; 2]; 2];
+    for a in 0..4 {
+        for b in 0..4 {
+            let n = net.node(i0 - 1 + a as i32, j0 - 1 + b as i32)?;
+            for k in 0..2 {
+                p[k] += wa[a] * wb[b] * n.param[k];
+                jac[k][0] += da[a] * wb[b] * n.param[k];
+                jac[k][1] += wa[a] * db[b] * n.param[k];
+            }
+        }
+    }
+    Some((p, jac))
+}

@@ -1,0 +1,174 @@
+//! One region draped and flattened into a flat pattern.
+
+use super::drape::{DrapeSpec, DrapeSurface, Prune, drape, frame};
+use super::flatten::NetLocator;
+use super::vec3::{cross, dot, norm, point_in_polygon, polygon_area, scale, sub, unit};
+
+/// A region of a surface to drape, in the surface's parameters.
+#[derive(Debug, Clone)]
+pub struct RegionSpec {
+    /// The region's boundary, a closed polygon in parameters, counter-clockwise.
+    pub boundary: Vec<[f64; 2]>,
+    /// Seed point in parameters.
+    pub seed: [f64; 2],
+    /// The reference axis of fibre angles (the blade axis), in space; projected onto the
+    /// tangent plane at each point.
+    pub axis: [f64; 3],
+    /// Fibre angle from the axis about the outward normal `S_a × S_b`, rad.
+    pub angle: f64,
+    /// Net spacing, m.
+    pub spacing: f64,
+    /// A parameter point on the root end of the region, marked by a notch.
+    pub root_mark: [f64; 2],
+}
+
+/// The flat pattern of a draped region. Flat frame: `x` along the warp (fibre) direction, `y`
+/// along the weft, seen from the outward normal side (the mould side of the ply).
+#[derive(Debug, Clone)]
+pub struct FlatPattern {
+    /// Outline, counter-clockwise, m.
+    pub outline: Vec<[f64; 2]>,
+    /// Area of the outline, m².
+    pub area: f64,
+    /// The root mark on the outline, m.
+    pub root_mark: [f64; 2],
+    /// Net spacing, m.
+    pub spacing: f64,
+    /// Net nodes inside the region.
+    pub nodes: usize,
+    /// Greatest magnitude of the shear angle at a node inside the region, rad.
+    pub max_shear: f64,
+    /// Where (parameters).
+    pub max_shear_at: [f64; 2],
+    /// Greatest deviation of the draped warp from the intended fibre direction, rad (signed
+    /// about the normal).
+    pub max_deviation: f64,
+    /// Where (parameters).
+    pub max_deviation_at: [f64; 2],
+    /// Shear angle at every node inside the region: flat point (m) and shear (rad), for plots.
+    pub shear_map: Vec<([f64; 2], f64)>,
+    /// Boundary points (parameters) the net did not reach, whose flat places were extrapolated
+    /// from the nearest cells (more than one cell out): the cloth does not follow the surface
+    /// there without folding or a dart.
+    pub extrapolated: Vec<[f64; 2]>,
+}
+
+/// Why a region could not be flattened.
+#[derive(Debug, Clone, PartialEq)]
+pub enum DrapeFailure {
+    /// The seed or the start direction is degenerate.
+    Seed,
+    /// The net did not reach this point of the region (the cloth would have to fold there).
+    Unreached([f64; 2]),
+}
+
+/// The intended fibre direction at a point: the axis projected onto the tangent plane, turned
+/// by `angle` about the normal.
+fn intended(axis: [f64; 3], normal: [f64; 3], angle: f64) -> [f64; 3] {
+    let a = unit(sub(axis, scale(normal, dot(axis, normal))));
+    let b = cross(normal, a);
+    let (s, c) = angle.sin_cos();
+    [c * a[0] + s * b[0], c * a[1] + s * b[1], c * a[2] + s * b[2]]
+}
+
+/// Drapes the region from its seed and flattens it (see the module docs of `plybook`).
+pub fn drape_region(
+    surface: &dyn DrapeSurface,
+    spec: &RegionSpec,
+) -> Result<FlatPattern, DrapeFailure> {
+    let (_, n0, t0) = frame(surface, spec.seed);
+    let warp = intended(spec.axis, n0, spec.angle);
+    let (mut lo, mut hi) = ([f64::INFINITY; 2], [f64::NEG_INFINITY; 2]);
+    for p in &spec.boundary {
+        for k in 0..2 {
+            lo[k] = lo[k].min(p[k]);
+            hi[k] = hi[k].max(p[k]);
+        }
+    }
+    // Nodes may need to stand outside the region on the way to its corners.
+    let size = [hi[0] - lo[0], hi[1] - lo[1]];
+    let bounds = [[lo[0] - size[0], hi[0] + size[0]], [lo[1] - size[1], hi[1] + size[1]]];
+    let extent = (norm(t0[0]) * size[0]).max(norm(t0[1]) * size[1]);
+    // A coarse net (four links in one) first, grown over the region mapped linearly with a wide
+    // margin; it carries the region into net coordinates for the fine net, which then grows
+    // only the nodes it needs.
+    let coarse_step = 4.0;
+    let coarse = drape(
+        surface,
+        &DrapeSpec {
+            seed: spec.seed,
+            warp,
+            spacing: coarse_step * spec.spacing,
+            bounds,
+            region: Some(Prune::Param(
+                spec.boundary.clone(),
+                3.0 * coarse_step * spec.spacing + 0.25 * extent,
+            )),
+        },
+    )
+    .ok_or(DrapeFailure::Seed)?;
+    let coarse_locator = NetLocator::new(&coarse);
+    let in_links: Option<Vec<[f64; 2]>> = spec
+        .boundary
+        .iter()
+        .map(|&q| {
+            coarse_locator.indices(q, false).map(|x| [coarse_step * x[0], coarse_step * x[1]])
+        })
+        .collect();
+    let prune = match in_links {
+        Some(poly) => Prune::Net(poly, 3.0 + 2.0 * coarse_step + 0.02 * extent / spec.spacing),
+        None => Prune::Param(spec.boundary.clone(), 3.0 * spec.spacing + 0.25 * extent),
+    };
+    let net = drape(
+        surface,
+        &DrapeSpec { seed: spec.seed, warp, spacing: spec.spacing, bounds, region: Some(prune) },
+    )
+    .ok_or(DrapeFailure::Seed)?;
+    let locator = NetLocator::new(&net);
+    let mut outline = Vec::with_capacity(spec.boundary.len());
+    let mut extrapolated = Vec::new();
+    for &q in &spec.boundary {
+        let (flat, out) = locator.flat(q).ok_or(DrapeFailure::Unreached(q))?;
+        if out > 1.0 {
+            extrapolated.push(q);
+        }
+        outline.push(flat);
+    }
+    let (root_mark, _) =
+        locator.flat(spec.root_mark).ok_or(DrapeFailure::Unreached(spec.root_mark))?;
+    let mut pattern = FlatPattern {
+        area: polygon_area(&outline).abs(),
+        outline,
+        root_mark,
+        spacing: spec.spacing,
+        nodes: 0,
+        max_shear: 0.0,
+        max_shear_at: spec.seed,
+        max_deviation: 0.0,
+        max_deviation_at: spec.seed,
+        shear_map: Vec::new(),
+        extrapolated,
+    };
+    for (i, j, node) in net.nodes() {
+        if !point_in_polygon(&spec.boundary, node.param) {
+            continue;
+        }
+        pattern.nodes += 1;
+        if let Some(g) = net.shear(i, j) {
+            pattern.shear_map.push(([i as f64 * spec.spacing, j as f64 * spec.spacing], g));
+            if g.abs() > pattern.max_shear.abs() {
+                pattern.max_shear = g;
+                pattern.max_shear_at = node.param;
+            }
+        }
+        if let Some(w) = net.warp_direction(i, j) {
+            let want = intended(spec.axis, node.normal, spec.angle);
+            let dev = dot(node.normal, cross(want, w)).atan2(dot(want, w));
+            if dev.abs() > pattern.max_deviation.abs() {
+                pattern.max_deviation = dev;
+                pattern.max_deviation_at = node.param;
+            }
+        }
+    }
+    Ok(pattern)
+}

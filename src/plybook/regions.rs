@@ -1,0 +1,246 @@
+//! The ply regions of a blade as surfaces to drape: a surface ply on one skin (upper or lower),
+//! on its own level (the outer mould line moved inward by the plies laid before it), or a web
+//! ply on the web's plane between the inner skins.
+
+use super::drape::DrapeSurface;
+use crate::blade::{Blade, BladeSurfaces, PLY_DROP_TAPER, Surface};
+use crate::input::Region;
+use crate::interp::CubicSpline;
+
+/// A smooth step from 0 (at `xi ≤ -1`) to 1 (at `xi ≥ 1`): `3s² − 2s³`, `s = (xi + 1) / 2`.
+fn smooth_step(xi: f64) -> f64 {
+    if xi <= -1.0 {
+        0.0
+    } else if xi >= 1.0 {
+        1.0
+    } else {
+        let s = 0.5 * (xi + 1.0);
+        s * s * (3.0 - 2.0 * s)
+    }
+}
+
+/// A ply laid before the one draped, with its edges ramped as the blade's inner surface ramps
+/// them (1:20 over the ply's thickness for a fibre ply, edges at the trailing edge, at a
+/// leading edge the ply wraps and at the blade's ends not ramped).
+#[derive(Debug, Clone)]
+struct Beneath {
+    thickness: f64,
+    span: [f64; 2],
+    span_edge: [bool; 2],
+    chord: [f64; 2],
+    chord_edge: [bool; 2],
+}
+
+impl Beneath {
+    fn factor(&self, r: f64, x: f64, chord: f64) -> f64 {
+        let h = (0.5 * PLY_DROP_TAPER * self.thickness).min(0.25 * (self.span[1] - self.span[0]));
+        let mut f = 1.0;
+        if self.span_edge[0] {
+            f *= smooth_step((r - self.span[0]) / h);
+        } else if r < self.span[0] - 1e-9 {
+            return 0.0;
+        }
+        if self.span_edge[1] {
+            f *= smooth_step((self.span[1] - r) / h);
+        } else if r > self.span[1] + 1e-9 {
+            return 0.0;
+        }
+        let hx = (0.5 * PLY_DROP_TAPER * self.thickness / chord)
+            .min(0.25 * (self.chord[1] - self.chord[0]));
+        if self.chord_edge[0] {
+            f *= smooth_step((x - self.chord[0]) / hx);
+        }
+        if self.chord_edge[1] {
+            f *= smooth_step((self.chord[1] - x) / hx);
+        }
+        f
+    }
+}
+
+/// One skin's ply level as a surface. Parameters `(r, b)`: radius (m) and `b = u` on the upper
+/// surface, `b = −u` on the lower (`u` the normalised arc length from the leading edge), so that
+/// `S_r × S_b` points outward. Below `u = 0` the surface runs on round the leading edge over the
+/// other skin; beyond the blade's ends and beyond the trailing edge it is continued along its
+/// tangent.
+pub(crate) struct SkinLevel<'a> {
+    surfaces: BladeSurfaces<'a>,
+    blade: &'a Blade,
+    side: Surface,
+    beneath: Vec<Beneath>,
+    span: [f64; 2],
+}
+
+impl<'a> SkinLevel<'a> {
+    /// The level of ply `index` (in schedule order) on `side`.
+    pub(crate) fn new(blade: &'a Blade, side: Surface, index: usize) -> Self {
+        let (root, tip) = (blade.root_radius(), blade.tip_radius());
+        let beneath = (0..index)
+            .filter_map(|k| {
+                let p = blade.ply(k)?;
+                let on = matches!(
+                    (&p.region, side),
+                    (Region::Both, _)
+                        | (Region::Upper, Surface::Upper)
+                        | (Region::Lower, Surface::Lower)
+                );
+                on.then(|| Beneath {
+                    thickness: blade.ply_material(k).map_or(0.0, |m| m.ply_thickness),
+                    span: [p.r_start, p.r_end],
+                    span_edge: [p.r_start > root + 1e-9, p.r_end < tip - 1e-9],
+                    chord: [p.from, p.to],
+                    chord_edge: [p.from > 1e-9, p.to < 1.0 - 1e-9],
+                })
+            })
+            .collect();
+        SkinLevel { surfaces: blade.surfaces(), blade, side, beneath, span: [root, tip] }
+    }
+
+    fn sign(&self) -> f64 {
+        match self.side {
+            Surface::Upper => 1.0,
+            Surface::Lower => -1.0,
+        }
+    }
+
+    /// The offset of this level below the outer mould line, m.
+    fn offset(&self, r: f64, x: f64) -> f64 {
+        let c = self.blade.chord(r);
+        self.beneath.iter().map(|p| p.thickness * p.factor(r, x, c)).sum()
+    }
+
+    /// The point inside the blade's ends and `u ∈ [-1, 1]` (a negative `u` is round the leading
+    /// edge on the other surface, where the cloth wraps), and the chord fraction there.
+    fn inside_point(&self, r: f64, u: f64) -> ([f64; 3], f64) {
+        let (side, u) = if u < 0.0 {
+            (
+                match self.side {
+                    Surface::Upper => Surface::Lower,
+                    Surface::Lower => Surface::Upper,
+                },
+                -u,
+            )
+        } else {
+            (self.side, u)
+        };
+        let (p, n, x) = self.surfaces.outer_with_normal(r, side, u);
+        let t = self.offset(r, x);
+        let yz = [p[0] - t * n[0], p[1] - t * n[1]];
+        (self.blade.to_rotor_frame(r, yz, self.blade.rotor().pitch), x)
+    }
+
+    /// The chord fraction at `(r, u)`.
+    pub(crate) fn chord_fraction(&self, r: f64, u: f64) -> f64 {
+        self.surfaces.outer_with_normal(r, self.side, u).2
+    }
+
+    /// The parameter `b` where the chord fraction is `x` at radius `r` (bisection on `u`).
+    pub(crate) fn b_at(&self, r: f64, x: f64) -> f64 {
+        let u = if x <= 0.0 {
+            0.0
+        } else if x >= 1.0 {
+            1.0
+        } else {
+            let (mut lo, mut hi) = (0.0, 1.0);
+            for _ in 0..60 {
+                let mid = 0.5 * (lo + hi);
+                if self.chord_fraction(r, mid) < x {
+                    lo = mid;
+                } else {
+                    hi = mid;
+                }
+            }
+            0.5 * (lo + hi)
+        };
+        self.sign() * u
+    }
+
+    /// The `b` range `[lo, hi]` of chord fractions `from..to` at radius `r`.
+    pub(crate) fn b_range(&self, r: f64, from: f64, to: f64) -> [f64; 2] {
+        let (a, b) = (self.b_at(r, from), self.b_at(r, to));
+        [a.min(b), a.max(b)]
+    }
+}
+
+impl DrapeSurface for SkinLevel<'_> {
+    fn point(&self, p: [f64; 2]) -> [f64; 3] {
+        let (r, u) = (p[0], self.sign() * p[1]);
+        let rc = r.clamp(self.span[0], self.span[1]);
+        let uc = u.clamp(-1.0, 1.0);
+        let (x, _) = self.inside_point(rc, uc);
+        if rc == r && uc == u {
+            return x;
+        }
+        // Continued along the tangents at the nearest inside point.
+        let h = 1e-6;
+        let mut out = x;
+        if rc != r {
+            let rr = if rc > self.span[0] + h { rc - h } else { rc + h };
+            let (y, _) = self.inside_point(rr, uc);
+            for k in 0..3 {
+                out[k] += (x[k] - y[k]) / (rc - rr) * (r - rc);
+            }
+        }
+        if uc != u {
+            let uu = if uc > -1.0 + h { uc - h } else { uc + h };
+            let (y, _) = self.inside_point(rc, uu);
+            for k in 0..3 {
+                out[k] += (x[k] - y[k]) / (uc - uu) * (u - uc);
+            }
+        }
+        out
+    }
+}
+
+/// A web's mid-plane between the inner skins as a surface. Parameters `(r, η)`: radius (m) and
+/// `η` from 0 at the lower inner skin to 1 at the upper; continued linearly beyond.
+pub(crate) struct WebPlane<'a> {
+    blade: &'a Blade,
+    chord_frac: f64,
+    lower: CubicSpline,
+    upper: CubicSpline,
+    span: [f64; 2],
+}
+
+impl<'a> WebPlane<'a> {
+    pub(crate) fn new(blade: &'a Blade, web: usize) -> Self {
+        let w = &blade.webs()[web];
+        let s = blade.surfaces();
+        let (a, b) = (w.r_start.max(blade.root_radius()), w.r_end.min(blade.tip_radius()));
+        let n = 120;
+        let radii: Vec<f64> = (0..=n).map(|i| a + (b - a) * i as f64 / n as f64).collect();
+        let z_at = |side: Surface, r: f64| {
+            let level =
+                SkinLevel { surfaces: s.clone(), blade, side, beneath: Vec::new(), span: [a, b] };
+            let u = level.sign() * level.b_at(r, w.chord_frac);
+            s.inner(r, side, u)[1]
+        };
+        let lower: Vec<f64> = radii.iter().map(|&r| z_at(Surface::Lower, r)).collect();
+        let upper: Vec<f64> = radii.iter().map(|&r| z_at(Surface::Upper, r)).collect();
+        WebPlane {
+            blade,
+            chord_frac: w.chord_frac,
+            lower: CubicSpline::natural(&radii, &lower),
+            upper: CubicSpline::natural(&radii, &upper),
+            span: [a, b],
+        }
+    }
+
+    /// The web's span, m.
+    pub(crate) fn span(&self) -> [f64; 2] {
+        self.span
+    }
+}
+
+impl DrapeSurface for WebPlane<'_> {
+    fn point(&self, p: [f64; 2]) -> [f64; 3] {
+        let r = p[0].clamp(self.span[0] - 0.5, self.span[1] + 0.5);
+        let rc = r.clamp(self.span[0], self.span[1]);
+        let (zl, zu) = (
+            self.lower.eval(rc) + self.lower.derivative(rc) * (r - rc),
+            self.upper.eval(rc) + self.upper.derivative(rc) * (r - rc),
+        );
+        let y = (self.chord_frac - self.blade.pitch_axis_frac(rc)) * self.blade.chord(rc);
+        let z = zl + p[1] * (zu - zl);
+        self.blade.to_rotor_frame(r, [y, z], self.blade.rotor().pitch)
+    }
+}
