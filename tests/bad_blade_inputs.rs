@@ -149,7 +149,11 @@ fn unknown_key_in_blade_toml() {
 #[test]
 fn web_ply_naming_an_unknown_web() {
     let m = message("plies.csv", "web:spar", "web:spr");
-    assert_eq!(m, "DIR/plies.csv line 4, region: no web named 'spr'; did you mean 'web:spar'?");
+    assert_eq!(
+        m,
+        "DIR/plies.csv line 4, region: no web named 'spr'; did you mean 'web:spar'?; the webs are \
+         'web:spar'"
+    );
 }
 
 #[test]

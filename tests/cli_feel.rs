@@ -100,7 +100,7 @@ fn report_says_the_verdict_last_and_check_json_keys_carry_units() {
     for row in j["criteria"].as_array().unwrap() {
         let key = row["criterion"].as_str().unwrap();
         let suffix = match key {
-            "min_reserve_factor" => "ratio",
+            "min_reserve_factor" | "min_buckling_factor" => "ratio",
             "frequency_margin_pct" => "pct",
             "max_mass_kg" => "kg",
             "max_tip_deflection_m" => "m",

@@ -117,7 +117,7 @@ fn a_web_removed_leaves_exactly_the_new_set_and_files_the_tool_did_not_write() {
         .map(|f| f["file"].as_str().unwrap().to_string())
         .collect();
     let mut on_disk = files_in(&out);
-    on_disk.retain(|f| f != "tooling-manifest.json");
+    on_disk.retain(|f| f != "tooling-manifest.json" && f != ".layloft-set");
     let mut sorted = listed.clone();
     sorted.sort();
     assert_eq!(sorted, on_disk);
@@ -155,6 +155,7 @@ fn a_web_removed_leaves_exactly_the_new_set_and_files_the_tool_did_not_write() {
         "tooling-manifest.json",
         "notes.txt",
         "core-9.stl",
+        ".layloft-set",
     ]
     .iter()
     .map(|s| s.to_string())
