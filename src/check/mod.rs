@@ -134,7 +134,7 @@ impl DesignCheck {
 
     /// The verdict in one line, naming every criterion that fails with its value and demand:
     /// "PASS (every criterion met)", "FAIL: least reserve factor 0.84, demand >= 1.5", or
-    /// "NOT CHECKED (the project sets no [criteria])".
+    /// "NOT CHECKED (the project sets no \[criteria\])".
     pub fn verdict_line(&self) -> String {
         if self.rows.is_empty() {
             return "NOT CHECKED (the project sets no [criteria])".to_string();

@@ -49,8 +49,8 @@ fn plain(e: &std::io::Error) -> std::io::Error {
 }
 
 /// Removes the tool's own temporary files (`.layloft-*.tmp`, and `.layloft-demo-*` scratch and
-/// `.layloft-set-*` staging folders) older than [`LEFTOVER_AGE`] from `dir`: what a killed run left behind. Failures are
-/// ignored; nothing else is touched.
+/// `.layloft-set-*` staging folders) older than a minute from `dir`: what a killed run left
+/// behind. Failures are ignored; nothing else is touched.
 pub fn remove_leftovers(dir: &Path) {
     let Ok(entries) = std::fs::read_dir(dir) else { return };
     let now = SystemTime::now();
