@@ -36,11 +36,13 @@ pub fn browser_or_skip(test: &str) -> Option<Chromium> {
         None => {
             // Written to the stderr handle rather than with eprintln!, which the test harness
             // captures: the note is seen in every run, not only with --nocapture.
+            // A banner, so that it stands out in cargo's output.
+            let rule = "=".repeat(78);
             let _ = writeln!(
                 std::io::stderr().lock(),
-                "note: {test}: the headless-browser part was skipped because chromium is not \
-                 installed (tried {}); only the static check ran. Set LAYLOFT_REQUIRE_BROWSER=1 \
-                 to make this a failure.",
+                "\n{rule}\nBROWSER CHECK SKIPPED ({test}): Chromium is not installed (tried {}).\n\
+                 Only the static check of the markup ran. Install Debian's chromium package to\n\
+                 run it; LAYLOFT_REQUIRE_BROWSER=1 makes a missing browser a failure.\n{rule}\n",
                 chromium::CANDIDATES.join(", ")
             );
             None
