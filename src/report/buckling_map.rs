@@ -5,7 +5,8 @@
 //! Axes as on the reserve map: radius across; chord fraction from the leading edge on the upper
 //! surface above 0 and on the lower surface below 0 (mirrored), webs in bands above 1.
 
-use super::svg::{Anchor, Figure, Marker, palette};
+use super::stress_map::{SpanChordMap, station_band};
+use super::svg::{Anchor, Marker, palette};
 use crate::analysis::BladeModel;
 use crate::buckling::PanelPart;
 use crate::stress::{CaseStress, WallLocation};
@@ -49,22 +50,11 @@ fn extent(p: &crate::stress::PanelResult, webs: &[String]) -> (f64, f64) {
 
 /// The buckling map as a standalone SVG.
 pub fn buckling_svg(model: &BladeModel, cases: &[CaseStress]) -> String {
-    let webs: Vec<String> = model.blade.webs().iter().map(|w| w.name.clone()).collect();
     let names: Vec<&str> = cases.iter().map(|c| c.name.as_str()).collect();
     let title = format!("Lowest buckling reserve factor of each wall panel ({})", names.join(", "));
-    let mut fig = Figure::new(
-        &title,
-        "radius from the rotor axis (m)",
-        "chord position x/c: upper surface above 0, lower below; webs above 1",
-    );
-    fig.size(980.0, 600.0);
-    let radii = model.radii();
-    let (r0, r1) = (model.blade.root_radius(), model.blade.tip_radius());
-    let top = 1.05 + 0.1 * webs.len() as f64;
-    fig.x_range(r0, r1).y_range(-1.0, top.max(1.0));
-    for (i, &r) in radii.iter().enumerate() {
-        let left = if i == 0 { r0 } else { 0.5 * (radii[i - 1] + r) };
-        let right = if i + 1 == radii.len() { r1 } else { 0.5 * (r + radii[i + 1]) };
+    let SpanChordMap { mut fig, webs, radii, r0, r1 } = SpanChordMap::new(model, &title);
+    for i in 0..radii.len() {
+        let (left, right) = station_band(&radii, i, r0, r1);
         let Some(first) = cases.first().and_then(|c| c.buckling.get(i)) else { continue };
         for (j, p) in first.panels.iter().enumerate() {
             let rf = cases

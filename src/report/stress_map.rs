@@ -44,24 +44,47 @@ fn map_y(location: &WallLocation, webs: &[String]) -> f64 {
     }
 }
 
+/// The frame shared by the maps over span and chord (reserve factors, buckling): radius across,
+/// chord position up (upper surface above 0, lower below, one row per web above 1).
+pub(crate) struct SpanChordMap {
+    pub fig: Figure,
+    pub webs: Vec<String>,
+    pub radii: Vec<f64>,
+    pub r0: f64,
+    pub r1: f64,
+}
+
+impl SpanChordMap {
+    pub fn new(model: &BladeModel, title: &str) -> Self {
+        let webs: Vec<String> = model.blade.webs().iter().map(|w| w.name.clone()).collect();
+        let mut fig = Figure::new(
+            title,
+            "radius from the rotor axis (m)",
+            "chord position x/c: upper surface above 0, lower below; webs above 1",
+        );
+        fig.size(980.0, 600.0);
+        let (r0, r1) = (model.blade.root_radius(), model.blade.tip_radius());
+        let top = 1.05 + 0.1 * webs.len() as f64;
+        fig.x_range(r0, r1).y_range(-1.0, top.max(1.0));
+        SpanChordMap { fig, webs, radii: model.radii(), r0, r1 }
+    }
+}
+
+/// The span `[left, right]` a station's column covers: halfway to its neighbours, the blade's
+/// ends at the first and last station.
+pub(crate) fn station_band(radii: &[f64], i: usize, r0: f64, r1: f64) -> (f64, f64) {
+    let left = if i == 0 { r0 } else { 0.5 * (radii[i - 1] + radii[i]) };
+    let right = if i + 1 == radii.len() { r1 } else { 0.5 * (radii[i] + radii[i + 1]) };
+    (left, right)
+}
+
 /// The map as a standalone SVG.
 pub fn stress_svg(model: &BladeModel, cases: &[CaseStress]) -> String {
-    let webs: Vec<String> = model.blade.webs().iter().map(|w| w.name.clone()).collect();
     let names: Vec<&str> = cases.iter().map(|c| c.name.as_str()).collect();
     let title = format!("Lowest reserve factor over span and chord ({})", names.join(", "));
-    let mut fig = Figure::new(
-        &title,
-        "radius from the rotor axis (m)",
-        "chord position x/c: upper surface above 0, lower below; webs above 1",
-    );
-    fig.size(980.0, 600.0);
-    let radii = model.radii();
-    let (r0, r1) = (model.blade.root_radius(), model.blade.tip_radius());
-    let top = 1.05 + 0.1 * webs.len() as f64;
-    fig.x_range(r0, r1).y_range(-1.0, top.max(1.0));
-    for (i, &r) in radii.iter().enumerate() {
-        let left = if i == 0 { r0 } else { 0.5 * (radii[i - 1] + r) };
-        let right = if i + 1 == radii.len() { r1 } else { 0.5 * (r + radii[i + 1]) };
+    let SpanChordMap { mut fig, webs, radii, r0, r1 } = SpanChordMap::new(model, &title);
+    for i in 0..radii.len() {
+        let (left, right) = station_band(&radii, i, r0, r1);
         // Worst over the cases, point by point (every case has the same points at a station).
         let mut points: Vec<(f64, f64, bool)> = Vec::new();
         for c in cases {
