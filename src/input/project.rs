@@ -141,7 +141,7 @@ pub struct PlySpec {
     pub id: String,
     /// Material name (a record of the materials file).
     pub material: String,
-    /// Fibre angle from the blade axis in the wall frame (see DESIGN.md).
+    /// Fibre angle from the blade axis in the wall frame (see docs/conventions.md).
     pub angle: Angle,
     /// Span range covered, m (radius).
     pub r_start: f64,
@@ -215,7 +215,7 @@ pub struct LoadCaseSpec {
     pub distributed: Vec<DistributedLoadRow>,
     /// The file the distributed loads came from, for messages.
     pub distributed_file: Option<String>,
-    /// Gravity vector in the rotor frame, m/s² (see DEVELOPERS.md: x radial along the pitch
+    /// Gravity vector in the rotor frame, m/s² (see docs/conventions.md: x radial along the pitch
     /// axis, y in the plane of rotation, z along the rotor axis downstream), when gravity is
     /// included.
     pub gravity: Option<[f64; 3]>,

@@ -1,7 +1,7 @@
 //! What the section solver takes and what it gives: the wall layout of one section, and the
 //! section's stiffness, centres and mass properties.
 //!
-//! Frame: the chord frame of DESIGN.md. `y` along the chord from the leading edge towards the
+//! Frame: the chord frame of docs/conventions.md. `y` along the chord from the leading edge towards the
 //! trailing edge, `z` normal to the chord towards the upper surface, origin on the pitch axis,
 //! metres. `x = y × z` runs along the pitch axis from root to tip.
 //!

@@ -6,12 +6,12 @@
 //! upper chain and the lower chain. At each end the chains either meet in a point (a sharp
 //! leading or trailing edge) or are joined by a straight closing segment (a blunt trailing edge,
 //! or a web where a core cell ends). Going round, the contour runs front → upper → back → lower
-//! → front, the direction of wall axis 2 in DESIGN.md (clockwise in the `(y, z)` plane).
+//! → front, the direction of wall axis 2 in docs/conventions.md (clockwise in the `(y, z)` plane).
 //!
 //! The section is turned about x by the chord angle φ(x) (twist + pitch) into the rotor frame:
 //! `(x, y, z)_rotor = (x, y cos φ − z sin φ, y sin φ + z cos φ)`, where the rotor frame's y lies
 //! in the plane of rotation and its z along the rotor axis, so φ = 0 puts the chord in the plane of
-//! rotation (DESIGN.md measures the chord angle from it). Because this is a rotation about the
+//! rotation (docs/conventions.md measures the chord angle from it). Because this is a rotation about the
 //! pitch axis through the rotor centre, `|p|` does not depend on φ.
 
 use crate::units::Angle;

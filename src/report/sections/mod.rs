@@ -8,7 +8,7 @@
 //! after Berdichevsky, Armanios & Badir 1992, several cells with one twist rate) on the wall
 //! layouts of [`crate::blade`]; the blade mass is [`BladeModel::mass`].
 //!
-//! Conventions: the chord frame of DESIGN.md (`y` along the chord from the leading edge towards
+//! Conventions: the chord frame of docs/conventions.md (`y` along the chord from the leading edge towards
 //! the trailing edge, `z` towards the upper surface, origin on the pitch axis, metres). The 4x4
 //! stiffness relates the generalised strains `(eps, kappa_t, kappa_f, kappa_e)` to the resultants
 //! `(N, T, M_f, M_e)` about the elastic centre ([`crate::section::SectionProperties`]); its entry
