@@ -4,12 +4,10 @@
 //! behaviour the README documents (common practice for command-line tools: the verdict last,
 //! exit status 1 for a failed check, 2 for bad input, 3 for an output that cannot be written).
 
-mod support_cli;
-
 use std::fs;
 use std::path::Path;
 
-use support_cli::layloft;
+use crate::support_cli::layloft;
 
 const FAN: &str = "layups/mine-fan";
 

@@ -2,10 +2,8 @@
 //! status. Materials: `tests/data/kaw-t300.toml` (Kaw, *Mechanics of Composite Materials*, 2nd
 //! ed., 2006, Table 2.1) and the invented demo `layups/mine-fan/materials.toml`.
 
-mod support_cli;
-
+use crate::support_cli::layloft;
 use serde_json::Value;
-use support_cli::layloft;
 
 const KAW: &str = "tests/data/kaw-t300.toml";
 const DEMO: &str = "layups/mine-fan/materials.toml";

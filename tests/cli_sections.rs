@@ -8,12 +8,10 @@
 //! e.g. Megson, *Aircraft Structures for Engineering Students*, §16.2), the polar moment as the
 //! sum of the other two, and the blade mass as the integral of the mass per length.
 
-mod support_cli;
-
 use std::path::{Path, PathBuf};
 
+use crate::support_cli::layloft;
 use serde_json::Value;
-use support_cli::layloft;
 
 use layloft::analysis::BladeModel;
 use layloft::input::read_project;

@@ -3,15 +3,11 @@
 //! stdout and in `tooling-summary.json`, the exit status. Projects: the invented demos
 //! `layups/mine-fan/` (with `[tooling]`) and `layups/small-wind/` (without).
 
-mod support_cli;
-
-mod support_stl;
-
 use std::path::{Path, PathBuf};
 
+use crate::support_cli::layloft;
+use crate::support_stl::read_stl_file;
 use serde_json::Value;
-use support_cli::layloft;
-use support_stl::read_stl_file;
 
 fn files_in(dir: &Path) -> Vec<String> {
     let mut names: Vec<String> = std::fs::read_dir(dir)

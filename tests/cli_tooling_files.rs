@@ -9,14 +9,11 @@
 //! description gives it (from memory); each STL read back with `stl_io`, which shares no code
 //! with the writer.
 
-mod support_cli;
-mod support_stl;
-
 use std::path::{Path, PathBuf};
 
+use crate::support_cli::layloft;
+use crate::support_stl::read_stl_file;
 use serde_json::Value;
-use support_cli::layloft;
-use support_stl::read_stl_file;
 
 fn files_in(dir: &Path) -> Vec<String> {
     let mut names: Vec<String> = std::fs::read_dir(dir)

@@ -2,14 +2,12 @@
 //! Cholesky-reduced problem), residuals and M-orthonormality, convergence under mesh doubling,
 //! symmetric pairs found twice, tracking, crossings, margins, export, and bad input.
 
-mod modal_support;
-
+use crate::modal_support::*;
 use layloft::modal::{
     BeamModel, BeamSection, LanczosParams, ModalError, ModeKind, SpeedRange, excitation_orders,
     export_matrix_market, mac, solve_dense, solve_lowest,
 };
 use layloft::section::MassInertia;
-use modal_support::*;
 
 fn blade_model(elements: usize, springs: bool) -> BeamModel {
     let spec = if springs {

@@ -1,12 +1,10 @@
 //! The modal outputs: the Campbell diagram SVG is well-formed and labelled, the JSON has the keys
 //! the command line promises, and the CSV files carry units in their column names.
 
-mod modal_support;
-
+use crate::modal_support::*;
 use layloft::input::Criteria;
 use layloft::modal::{BeamModel, ModalAnalysis, SpeedRange, excitation_orders};
 use layloft::report::{campbell_csv, campbell_svg, modal_json, mode_shapes_csv};
-use modal_support::*;
 
 /// Checks that every tag is closed in order (a small XML well-formedness check: elements,
 /// self-closing tags, comments and declarations).

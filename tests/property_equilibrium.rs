@@ -2,14 +2,12 @@
 //! integral of the applied loads and the centrifugal field (an independent midpoint sum of the
 //! force and moment densities written out here), plus the point masses.
 
-mod support;
-
+use crate::support::beam_section;
 use layloft::input::{DistributedLoadRow, LoadCaseSpec, PointMass};
 use layloft::loads::{LoadDistribution, span_loads};
 use layloft::section::MassInertia;
 use layloft::units::{Angle, rpm_to_rad_s};
 use proptest::prelude::*;
-use support::beam_section;
 
 #[derive(Debug, Clone)]
 struct Blade {

@@ -5,9 +5,7 @@
 //! as many points along it (the wall of a straight face is the same however it is split).
 //! Seeded, so a failure repeats.
 
-mod common;
-
-use common::*;
+use crate::common::*;
 use layloft::laminate::Laminate;
 use layloft::material::Lamina;
 use layloft::section::{SectionLayout, SectionParams, solve_section};

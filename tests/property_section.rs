@@ -3,9 +3,7 @@
 //! a section reflected about the chord with mirrored ply angles, and equilibrium of the
 //! transverse shear flow.
 
-mod common;
-
-use common::*;
+use crate::common::*;
 use layloft::section::{SectionLayout, SectionParams, SolvedSection};
 use nalgebra::{Matrix4, SymmetricEigen, Vector4};
 use proptest::prelude::*;

@@ -7,16 +7,14 @@
 //! the static check of the markup still runs (and `LAYLOFT_REQUIRE_BROWSER=1` makes the missing
 //! browser a failure). Screenshots and PDFs are kept in `target/report-screenshots/`.
 
-mod support_browser;
-
 use std::f64::consts::PI;
 use std::path::PathBuf;
 
 use layloft::report::html::HtmlReport;
 use layloft::report::{Align, Table, fixed, sig4};
 
-use support_browser::sketch::{COLOURS, Series, colour_map, line_plot, outline};
-use support_browser::{
+use crate::support_browser::sketch::{COLOURS, Series, colour_map, line_plot, outline};
+use crate::support_browser::{
     browser_or_skip, console_messages, drawn_figures, screenshot_dir, static_problems,
 };
 

@@ -5,12 +5,10 @@
 //! Without Chromium the static check of the markup still runs (`LAYLOFT_REQUIRE_BROWSER=1`
 //! makes a missing browser a failure), as in `tests/report_browser.rs`.
 
-mod support_browser;
-
 use std::fs;
 
+use crate::support_browser::{browser_or_skip, screenshot_dir, static_problems};
 use assert_cmd::Command;
-use support_browser::{browser_or_skip, screenshot_dir, static_problems};
 
 /// The figures the report must show (issue 7): planform and twist, spanwise stiffness and mass,
 /// section drawings, the reserve-factor map, the pitching moment over the pitch range, the

@@ -7,13 +7,11 @@
 //! Without Chromium the test says so and checks nothing more than that the reports are written
 //! (`LAYLOFT_REQUIRE_BROWSER=1` makes a missing browser a failure), as the other browser tests.
 
-mod support_browser;
-
 use std::fs;
 use std::path::Path;
 
+use crate::support_browser::browser_or_skip;
 use assert_cmd::Command;
-use support_browser::browser_or_skip;
 
 /// Collects, for every figure, the texts that leave the drawing and the pairs that overlap by
 /// more than a pixel each way (glyph boxes of neighbouring lines may touch), and writes them

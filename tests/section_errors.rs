@@ -1,9 +1,7 @@
 //! Layouts the section solver must refuse with a clear message (and never panic on), and the
 //! warnings it must give where the thin-wall idealisation is strained.
 
-mod common;
-
-use common::*;
+use crate::common::*;
 use layloft::section::{SectionError, SectionParams, solve_section};
 
 fn steel(t: f64) -> layloft::laminate::Laminate {

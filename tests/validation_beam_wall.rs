@@ -7,7 +7,7 @@
 //! a long laminated cylinder or a box beam takes far from its ends. Every source is named beside
 //! its check.
 
-mod common;
+use crate::common;
 
 use std::f64::consts::PI;
 

@@ -21,8 +21,6 @@
 //! Tolerances: a facet lies within the chordal tolerance `tol` of the surface, so a volume may
 //! differ by up to `tol` times the surface area; the assertions use that bound or state their own.
 
-mod support_stl;
-
 use layloft::analysis::BladeModel;
 use layloft::blade::{Blade, Surface};
 use layloft::input::{Project, read_project};

@@ -1,13 +1,11 @@
 //! Load resultants and deflections against closed-form statics.
 
-mod support;
-
+use crate::support::{beam_section, uniform_blade};
 use approx::assert_relative_eq;
 use layloft::input::{DistributedLoadRow, LoadCaseSpec, PointMass};
 use layloft::loads::{LoadDistribution, span_loads, tip_deflection};
 use layloft::section::MassInertia;
 use layloft::units::{Angle, rpm_to_rad_s};
-use support::{beam_section, uniform_blade};
 
 fn case(rpm: f64) -> LoadCaseSpec {
     LoadCaseSpec {

@@ -4,13 +4,11 @@
 //! far below every tolerance here (see `frequencies_converge_with_element_doubling` in
 //! `modal_laws.rs`).
 
-mod modal_support;
-
 use std::f64::consts::PI;
 
+use crate::modal_support::*;
 use layloft::modal::{BeamModel, BeamSection, ModeKind, excitation_orders};
 use layloft::section::MassInertia;
-use modal_support::*;
 
 /// Clamped–free beta_n L (Thomson, *Theory of Vibration with Applications*, App. D; the same in
 /// Blevins, *Formulas for Natural Frequency and Mode Shape*, 1979, table 8-1).

@@ -2,17 +2,15 @@
 //! published frequency equations, closed forms and an independent Rayleigh–Ritz model written
 //! here. Each check names its source beside the assertion. Every beam is invented.
 
-mod modal_support;
-
 use std::f64::consts::PI;
 
+use crate::modal_support::*;
 use layloft::input::{ExcitationSpec, FixedExcitation};
 use layloft::modal::{
     Attachments, BeamModel, BeamSection, FluidSection, ModeKind, PointBody, ellipse_added_mass,
     machine_excitations,
 };
 use layloft::section::SectionProperties;
-use modal_support::*;
 use nalgebra::{DMatrix, SymmetricEigen};
 
 /// A unit flap beam (EI = m = L = 1) with stiff edge, torsion and axial directions.

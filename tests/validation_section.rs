@@ -3,12 +3,10 @@
 //! Every check names its source beside it. Geometry is built from its defining formula in
 //! `tests/common`; tolerances are justified where they are set.
 
-mod common;
-
 use std::f64::consts::PI;
 
+use crate::common::*;
 use approx::assert_relative_eq;
-use common::*;
 use layloft::laminate::Laminate;
 use layloft::section::{SectionLayout, SectionParams, SolvedSection, WallCurvature, WallPart};
 use nalgebra::{Matrix2, Matrix3, Matrix4, Vector3, Vector4};

@@ -1,7 +1,7 @@
 //! Stress recovery against closed forms, and against the laminate module fed the same wall
 //! resultants.
 
-mod common;
+use crate::common;
 
 use std::f64::consts::PI;
 

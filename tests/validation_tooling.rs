@@ -18,11 +18,9 @@
 //! Tolerances: a facet lies within the chordal tolerance `tol` of the surface, so the volume can
 //! differ by at most about `tol` times the surface area; the assertions use that bound.
 
-mod support_stl;
-
 use std::f64::consts::PI;
 
-use support_stl::closed_outward;
+use crate::support_stl::closed_outward;
 
 use layloft::tooling::{
     ChainEnds, CheckParams, EndKind, FnSurface, LengthUnit, LoftParams, Mesh, MeshError,
