@@ -2,7 +2,7 @@
 //! the pitching moment over the pitch range, and mode shapes. Every axis is labelled with its
 //! unit.
 
-use super::svg::{Anchor, Figure, LineStyle, Marker, palette};
+use super::plot::{Anchor, Figure, LineStyle, Marker, palette};
 use crate::analysis::BladeModel;
 use crate::modal::{ModeKind, ModeSet};
 use crate::stress::CaseStress;

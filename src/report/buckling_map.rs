@@ -6,7 +6,7 @@
 //! surface above 0 and on the lower surface below 0 (mirrored), webs in bands above 1.
 
 use super::stress_map::{SpanChordMap, station_band};
-use super::svg::{Anchor, Marker, palette};
+use super::plot::{Anchor, Marker, palette};
 use crate::analysis::BladeModel;
 use crate::buckling::PanelPart;
 use crate::stress::{CaseStress, WallLocation};
@@ -69,7 +69,7 @@ pub fn buckling_svg(model: &BladeModel, cases: &[CaseStress]) -> String {
     for (k, w) in webs.iter().enumerate() {
         fig.label(r0, 1.1 + 0.1 * k as f64, &format!("web {w}"), palette::INK, Anchor::Start);
     }
-    fig.line(&[(r0, 0.0), (r1, 0.0)], &super::svg::LineStyle::solid(palette::INK, 1.0));
+    fig.line(&[(r0, 0.0), (r1, 0.0)], &super::plot::LineStyle::solid(palette::INK, 1.0));
     let least =
         cases.iter().filter_map(|c| c.least_buckling().map(|(i, j)| (c, i, j))).min_by(|a, b| {
             let rf = |x: &(&CaseStress, usize, usize)| {

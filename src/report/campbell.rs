@@ -5,7 +5,7 @@
 //! inside the operating range), the operating range shaded, axes "rotor speed (rpm)" and
 //! "frequency (Hz)".
 
-use super::svg::{Anchor, Figure, LineStyle, Marker, palette};
+use super::plot::{Anchor, Figure, LineStyle, Marker, palette};
 use crate::modal::{Campbell, Crossing, Excitation, ModeKind};
 
 /// Colour of a mode kind.

@@ -11,11 +11,13 @@ pub mod html;
 mod laminate;
 mod modal;
 mod modal_text;
+pub mod plot;
 mod section_svg;
 mod sections;
 mod stress;
 mod stress_map;
-pub mod svg;
+/// The plotting kit under its first name (`report::svg`), kept for callers of the library.
+pub use plot as svg;
 mod table;
 mod tooling;
 mod write;

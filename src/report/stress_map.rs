@@ -7,7 +7,7 @@
 //! wall panel with the lowest buckling reserve factor is marked with a diamond (every panel is
 //! drawn on the buckling map beside this one, `buckling_map.rs`).
 
-use super::svg::{Anchor, Figure, Marker, palette};
+use super::plot::{Anchor, Figure, Marker, palette};
 use crate::analysis::BladeModel;
 use crate::stress::{CaseStress, WallLocation};
 
@@ -136,7 +136,7 @@ pub fn stress_svg(model: &BladeModel, cases: &[CaseStress]) -> String {
     for (k, w) in webs.iter().enumerate() {
         fig.label(r0, 1.1 + 0.1 * k as f64, &format!("web {w}"), palette::INK, Anchor::Start);
     }
-    fig.line(&[(r0, 0.0), (r1, 0.0)], &super::svg::LineStyle::solid(palette::INK, 1.0));
+    fig.line(&[(r0, 0.0), (r1, 0.0)], &super::plot::LineStyle::solid(palette::INK, 1.0));
     // The critical location of the worst case.
     if let Some((case, c)) = cases
         .iter()

@@ -6,7 +6,7 @@ use std::time::{SystemTime, UNIX_EPOCH};
 /// references (and control characters dropped): the XML escaping of the SVG kit, which is safe
 /// both as HTML element content and as a quoted attribute value.
 pub(crate) fn escape(text: &str) -> String {
-    crate::report::svg::escape(text)
+    crate::report::plot::escape(text)
 }
 
 /// An element id from free text: ASCII letters, digits, `-` and `_` kept, every other run of

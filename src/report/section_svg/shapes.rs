@@ -31,7 +31,7 @@ pub(super) fn n(v: f64) -> String {
 
 /// Text escaped for SVG character data and attribute values.
 pub(super) fn esc(s: &str) -> String {
-    crate::report::svg::escape(s)
+    crate::report::plot::escape(s)
 }
 
 /// Maps chord-frame points (m) to drawing coordinates (mm, y down).
