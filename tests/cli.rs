@@ -30,3 +30,5 @@ mod cli_tooling;
 mod cli_tooling_files;
 #[path = "modal_report.rs"]
 mod modal_report;
+#[path = "snapshot_commands.rs"]
+mod snapshot_commands;

@@ -5,8 +5,8 @@
 //! Axes as on the reserve map: radius across; chord fraction from the leading edge on the upper
 //! surface above 0 and on the lower surface below 0 (mirrored), webs in bands above 1.
 
-use super::stress_map::{SpanChordMap, station_band};
 use super::plot::{Anchor, Marker, palette};
+use super::stress_map::{SpanChordMap, station_band};
 use crate::analysis::BladeModel;
 use crate::buckling::PanelPart;
 use crate::stress::{CaseStress, WallLocation};
