@@ -5,8 +5,9 @@
 use crate::modal_support::*;
 use layloft::modal::{
     BeamModel, BeamSection, LanczosParams, ModalError, ModeKind, SpeedRange, excitation_orders,
-    export_matrix_market, mac, solve_dense, solve_lowest,
+    mac, solve_dense, solve_lowest,
 };
+use layloft::report::export_matrix_market;
 use layloft::section::MassInertia;
 
 fn blade_model(elements: usize, springs: bool) -> BeamModel {

@@ -41,9 +41,7 @@ const KNOWN_DEBTS: &[(&str, &str)] = &[
     ("input", "section"),
     // The blade builds the section solver's input type (`SectionLayout`).
     ("blade", "section"),
-    // Calculations that write files through the report's atomic writer and the crate error.
-    ("modal", "report"),
-    ("modal", "error"),
+    // Tooling writes its STL files through the report's atomic writer and the crate error.
     ("tooling", "report"),
     ("tooling", "error"),
     // Stages that return the crate-wide error instead of their own.

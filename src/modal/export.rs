@@ -7,36 +7,30 @@
 //! Beside the matrices, `dofs.csv` names the degree of freedom of every row.
 
 use std::io::Write;
-use std::path::{Path, PathBuf};
 
 use super::assemble::SystemMatrices;
 use super::band::BandMatrix;
-use crate::Error;
-use crate::report::write_atomic_with;
 
-/// Writes `stiffness.mtx`, `mass.mtx` and `dofs.csv` into `dir` (created when missing), each
-/// atomically; returns the paths written.
-pub fn export_matrix_market(dir: &Path, matrices: &SystemMatrices) -> Result<Vec<PathBuf>, Error> {
-    crate::report::ensure_folder(dir)?;
-    let stiffness = dir.join("stiffness.mtx");
-    let mass = dir.join("mass.mtx");
-    let dofs = dir.join("dofs.csv");
+/// The three files of the export as `(name, contents)`: `stiffness.mtx`, `mass.mtx` and
+/// `dofs.csv`. Writing them is the caller's (`report::export_matrix_market`).
+pub fn matrix_market_files(matrices: &SystemMatrices) -> Vec<(&'static str, Vec<u8>)> {
     let k_note = format!(
         "layloft constrained stiffness K = K_elastic + Omega^2 K_spin at {} rpm; rows as in dofs.csv",
         matrices.rpm
     );
-    write_atomic_with(&stiffness, |w| write_matrix_market(w, &matrices.stiffness, &k_note))?;
     let m_note = "layloft constrained consistent mass matrix; rows as in dofs.csv";
-    write_atomic_with(&mass, |w| write_matrix_market(w, &matrices.mass, m_note))?;
-    write_atomic_with(&dofs, |w| {
-        writeln!(w, "dof,node,r_m,quantity")?;
-        for (i, d) in matrices.dofs.iter().enumerate() {
-            let node = d.node.map_or(String::from("interior"), |n| n.to_string());
-            writeln!(w, "{},{},{},{}", i + 1, node, d.r, d.kind.key())?;
-        }
-        Ok(())
-    })?;
-    Ok(vec![stiffness, mass, dofs])
+    let mut k = Vec::new();
+    let mut m = Vec::new();
+    let mut dofs = Vec::new();
+    // Writing into a Vec cannot fail.
+    let _ = write_matrix_market(&mut k, &matrices.stiffness, &k_note);
+    let _ = write_matrix_market(&mut m, &matrices.mass, m_note);
+    let _ = writeln!(dofs, "dof,node,r_m,quantity");
+    for (i, d) in matrices.dofs.iter().enumerate() {
+        let node = d.node.map_or(String::from("interior"), |n| n.to_string());
+        let _ = writeln!(dofs, "{},{},{},{}", i + 1, node, d.r, d.kind.key());
+    }
+    vec![("stiffness.mtx", k), ("mass.mtx", m), ("dofs.csv", dofs)]
 }
 
 /// Writes `a` in Matrix Market `coordinate real symmetric` form with one comment line.

@@ -112,7 +112,7 @@ pub use campbell::{
     Campbell, Crossing, Excitation, FixedBand, MAX_SPEEDS, MarginCheck, ModeMargin,
     SECOND_SHARE_SHOWN, SpeedRange, SweepProgress, Track, excitation_orders, machine_excitations,
 };
-pub use export::{export_matrix_market, write_matrix_market};
+pub use export::{matrix_market_files, write_matrix_market};
 pub use modes::{DOMINANT_SHARE, EnergyShares, Mode, ModeKind, ModeSet, ModeShape};
 pub use solve::{EigenError, EigenSolution, LanczosParams, solve_dense, solve_lowest};
 pub use track::{MIN_TRACK_MAC, mac};

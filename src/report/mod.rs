@@ -31,7 +31,9 @@ pub use document::{ReportBlock, ReportInputs, SectionDrawing, blade_report};
 pub use file_set::{FileSet, SET_LIST, SetOutcome};
 pub use html::HtmlReport;
 pub use laminate::LaminateReport;
-pub use modal::{campbell_csv, modal_analysis_json, modal_json, mode_shapes_csv};
+pub use modal::{
+    campbell_csv, export_matrix_market, modal_analysis_json, modal_json, mode_shapes_csv,
+};
 pub use modal_text::{modal_text, model_statement};
 pub use section_svg::{section_svg, section_svg_names, section_svg_screen};
 pub use sections::{SectionsReport, laminate_label};
