@@ -220,3 +220,38 @@ fn load_file_with_a_cell_that_is_not_a_number() {
     let m = with_loads("0.5,100,10,0\n2.5,lots,20,0\n");
     assert_eq!(m, "DIR/loads.csv line 3, f_flap_N_m: 'lots' is not a number");
 }
+
+#[test]
+fn ply_listed_twice() {
+    // A row pasted twice would double the ply silently.
+    let m = message(
+        "plies.csv",
+        "cap,carbon,0,0.5,1.5,upper,0.2,0.4\n",
+        "cap,carbon,0,0.5,1.5,upper,0.2,0.4\ncap,carbon,0,0.5,1.5,upper,0.2,0.4\n",
+    );
+    assert_eq!(
+        m,
+        "DIR/plies.csv line 4, ply: ply 'cap' is listed twice (first on line 3): expected each ply once, with its own id (a row pasted twice doubles the ply)"
+    );
+}
+
+#[test]
+fn stations_closer_than_their_change_of_shape() {
+    // 20° of twist over 10 mm moves the trailing edge of a 0.4 m chord by about 97 mm (0.28 m × 2 sin 10°).
+    let m = message("stations.csv", "1.5,0.4,0,0.3", "0.51,0.4,20,0.3");
+    assert!(
+        m.starts_with("DIR/stations.csv line 3, r_m: the stations at r = 0.5 m (line 2) and r = 0.51 m lie 10.0 mm apart, but the leading or trailing edge moves 97.2 mm"),
+        "{m}"
+    );
+}
+
+#[test]
+fn carriage_return_line_ends_in_the_project_files() {
+    // Old Mac line ends: a fault is still placed on its line.
+    let m = message(
+        "stations.csv",
+        "",
+        "r_m,chord_m,twist_deg,pitch_axis_frac,airfoil\r0.5,0.4,0,0.3,naca0015\r1.5,x,0,0.3,naca0015\r2.5,0.4,0,0.3,naca0015\r",
+    );
+    assert_eq!(m, "DIR/stations.csv line 3, chord_m: 'x' is not a number");
+}

@@ -111,3 +111,430 @@ fn args_lines_split_on_whitespace_with_single_quotes() {
     assert_eq!(split_args("a '' b").unwrap(), ["a", "", "b"]);
     assert!(split_args("a 'b").is_err());
 }
+
+// ---------------------------------------------------------------------------------------------
+// The gate: one test per careless or hostile edit of a real project, through the binary. Each
+// copies a demo project, edits it, runs a command and checks the exit status and that the
+// message names the file and the line or key. The bounds themselves are those of
+// `layloft::input::limits` and the materials reader; their reasons are in the messages.
+
+/// A demo project copied into a temporary folder, to be edited.
+struct Copy {
+    dir: tempfile::TempDir,
+}
+
+impl Copy {
+    fn of(demo: &str) -> Self {
+        let dir = tempfile::tempdir().expect("temporary folder");
+        let from = Path::new(env!("CARGO_MANIFEST_DIR")).join("layups").join(demo);
+        for entry in fs::read_dir(&from).expect("demo folder") {
+            let entry = entry.expect("entry");
+            fs::copy(entry.path(), dir.path().join(entry.file_name())).expect("copy");
+        }
+        Copy { dir }
+    }
+
+    fn path(&self, file: &str) -> PathBuf {
+        self.dir.path().join(file)
+    }
+
+    /// Replaces the first `from` by `to` in `file` (which must hold `from`).
+    fn edit(&self, file: &str, from: &str, to: &str) -> &Self {
+        let text = fs::read_to_string(self.path(file)).expect("file");
+        assert!(text.contains(from), "{file} lacks '{from}'");
+        fs::write(self.path(file), text.replacen(from, to, 1)).expect("write");
+        self
+    }
+
+    /// Runs `layloft COMMAND PROJECT ARGS` in the folder: exit status, stdout, stderr (with the
+    /// folder's path written `DIR`).
+    fn run(&self, command: &str, args: &[&str]) -> (Option<i32>, String, String) {
+        let out = Command::cargo_bin("layloft")
+            .expect("binary")
+            .arg(command)
+            .arg(self.dir.path())
+            .args(args)
+            .current_dir(self.dir.path())
+            .env("NO_COLOR", "1")
+            .timeout(std::time::Duration::from_secs(120))
+            .output()
+            .expect("layloft runs");
+        let shown = self.dir.path().display().to_string();
+        let text = |b: &[u8]| String::from_utf8_lossy(b).replace(&shown, "DIR");
+        (out.status.code(), text(&out.stdout), text(&out.stderr))
+    }
+
+    /// Runs the command and expects exit status 2 with every one of `parts` in the message.
+    fn refused(&self, command: &str, args: &[&str], parts: &[&str]) -> String {
+        let (code, stdout, stderr) = self.run(command, args);
+        assert_eq!(code, Some(2), "expected exit status 2\nstdout:\n{stdout}\nstderr:\n{stderr}");
+        assert!(!stderr.contains("panicked"), "{stderr}");
+        for part in parts {
+            assert!(stderr.contains(part), "stderr lacks '{part}':\n{stderr}");
+        }
+        assert!(stderr.len() < 2000, "an overlong message: {} bytes", stderr.len());
+        stderr
+    }
+}
+
+#[test]
+fn load_factor_far_below_one_is_refused() {
+    // Issue case: 1e-300 on every case gave PASS with a reserve factor of 1e301.
+    Copy::of("mine-fan").edit("blade.toml", "load_factor = 1.35", "load_factor = 1e-300").refused(
+        "check",
+        &[],
+        &["blade.toml line 43, load_case[2].load_factor", "expected a load factor from 0.5 to 10"],
+    );
+}
+
+#[test]
+fn load_factor_below_one_is_a_warning_the_verdict_repeats() {
+    let c = Copy::of("mine-fan");
+    c.edit("blade.toml", "load_factor = 1.35", "load_factor = 0.9");
+    let (code, stdout, stderr) = c.run("check", &[]);
+    assert_eq!(code, Some(0), "{stderr}");
+    let tail: Vec<&str> = stdout.lines().rev().take(2).collect();
+    assert!(
+        tail[1].starts_with("Design check: PASS") && tail[1].contains("1 input warning"),
+        "{stdout}"
+    );
+    assert!(
+        tail[0].contains("load_case[2].load_factor") && tail[0].contains("below 1"),
+        "{stdout}"
+    );
+    assert!(stderr.contains("load factor of 0.9 below 1"), "{stderr}");
+}
+
+#[test]
+fn blade_count_beyond_any_rotor_is_refused() {
+    // Issue case: 4294967295 blades made blade passing vanish from the frequency check.
+    Copy::of("mine-fan").edit("blade.toml", "blades = 9", "blades = 4294967295").refused(
+        "check",
+        &[],
+        &["blade.toml line 7, rotor.blades", "expected at most 100 blades"],
+    );
+}
+
+#[test]
+fn a_ply_row_pasted_twice_is_refused() {
+    let c = Copy::of("mine-fan");
+    let row = "cap-2,carbon-ud,0,0.40,0.80,both,0.15,0.50\n";
+    c.edit("plies.csv", row, &format!("{row}{row}"));
+    c.refused(
+        "check",
+        &[],
+        &["plies.csv line 10, ply", "ply 'cap-2' is listed twice (first on line 9)"],
+    );
+}
+
+#[test]
+fn a_second_column_of_the_same_name_is_refused() {
+    let c = Copy::of("mine-fan");
+    c.edit(
+        "stations.csv",
+        "r_m,chord_m,twist_deg,pitch_axis_frac,airfoil",
+        "r_m,chord_m,twist_deg,pitch_axis_frac,airfoil,chord_m",
+    );
+    let text = fs::read_to_string(c.path("stations.csv")).unwrap();
+    let text: String = text
+        .lines()
+        .map(|l| if l.starts_with("0.") { format!("{l},0.5\n") } else { format!("{l}\n") })
+        .collect();
+    fs::write(c.path("stations.csv"), text).unwrap();
+    c.refused("check", &[], &["stations.csv line 1, chord_m", "column 'chord_m' appears twice"]);
+}
+
+#[test]
+fn an_unknown_column_is_refused() {
+    let c = Copy::of("mine-fan");
+    c.edit("loads-nominal.csv", "f_edge_N_m", "f_edge_N_m,f_radial_N_m");
+    let text = fs::read_to_string(c.path("loads-nominal.csv")).unwrap();
+    let text: String = text
+        .lines()
+        .map(|l| if l.starts_with("0.") { format!("{l},0\n") } else { format!("{l}\n") })
+        .collect();
+    fs::write(c.path("loads-nominal.csv"), text).unwrap();
+    c.refused("check", &[], &["loads-nominal.csv line", "f_radial_N_m", "unknown column"]);
+}
+
+#[test]
+fn a_tip_radius_far_beyond_the_last_station_is_refused() {
+    Copy::of("mine-fan").edit("blade.toml", "tip_radius_m = 0.90", "tip_radius_m = 1e6").refused(
+        "check",
+        &[],
+        &["blade.toml line 9, rotor.tip_radius_m", "beyond the last station (r = 0.9 m)"],
+    );
+}
+
+#[test]
+fn a_hub_far_inboard_of_the_first_station_is_a_warning() {
+    let c = Copy::of("mine-fan");
+    c.edit("blade.toml", "hub_radius_m = 0.40", "hub_radius_m = 0.0");
+    c.edit("blade.toml", "root_clearance_m = 0.001 ", "");
+    let (code, stdout, stderr) = c.run("check", &[]);
+    assert_eq!(code, Some(0), "{stderr}");
+    assert!(
+        stderr.contains("rotor.hub_radius_m: the first station (r = 0.4 m) lies 0.400 m outboard"),
+        "{stderr}"
+    );
+    assert!(stdout.contains("1 input warning"), "{stdout}");
+}
+
+#[test]
+fn a_load_case_far_above_the_speed_range_is_refused() {
+    Copy::of("mine-fan").edit("blade.toml", "rpm = 1090", "rpm = 5000").refused(
+        "check",
+        &[],
+        &["blade.toml line 40, load_case[2].rpm", "expected at most 2 x rpm_max"],
+    );
+}
+
+#[test]
+fn a_load_case_pitch_outside_the_pitch_range_is_refused() {
+    let c = Copy::of("mine-fan");
+    c.edit("blade.toml", "rpm = 1090\n", "rpm = 1090\npitch_deg = 720\n");
+    c.refused("check", &[], &["load_case[2].pitch_deg", "expected a pitch setting within -90..90"]);
+    let c = Copy::of("mine-fan");
+    c.edit("blade.toml", "rpm = 1090\n", "rpm = 1090\npitch_deg = 45\n");
+    c.refused(
+        "check",
+        &[],
+        &[
+            "blade.toml line 41, load_case[2].pitch_deg",
+            "outside the rotor's pitch_range_deg = [-15, 30]",
+        ],
+    );
+}
+
+#[test]
+fn a_cure_temperature_below_absolute_zero_is_refused() {
+    Copy::of("mine-fan")
+        .edit("blade.toml", "cure_temperature_C = 150", "cure_temperature_C = -300")
+        .refused("check", &[], &["tooling.cure_temperature_C", "below absolute zero"]);
+}
+
+#[test]
+fn a_density_beyond_any_material_is_refused() {
+    let c = Copy::of("mine-fan");
+    let text = fs::read_to_string(c.path("materials.toml")).unwrap();
+    let first = text.find("density_kg_m3 = ").expect("a density");
+    let end = first + text[first..].find('\n').unwrap();
+    fs::write(
+        c.path("materials.toml"),
+        format!("{}density_kg_m3 = 1e12{}", &text[..first], &text[end..]),
+    )
+    .unwrap();
+    c.refused(
+        "check",
+        &[],
+        &["materials.toml line", "density_kg_m3", "expected 5 to 25000, found 1000000000000"],
+    );
+}
+
+#[test]
+fn a_modulus_beyond_diamond_is_refused() {
+    let c = Copy::of("mine-fan");
+    let text = fs::read_to_string(c.path("materials.toml")).unwrap();
+    let first = text.find("E1_GPa = ").expect("a modulus");
+    let end = first + text[first..].find('\n').unwrap();
+    fs::write(
+        c.path("materials.toml"),
+        format!("{}E1_GPa = 135000{}", &text[..first], &text[end..]),
+    )
+    .unwrap();
+    c.refused("check", &[], &["materials.toml line", "E1_GPa", "stiffer than diamond"]);
+}
+
+#[test]
+fn harmonics_beyond_any_need_are_refused() {
+    // Issue case: 4294967295 harmonics asked for 17 GB.
+    Copy::of("mine-fan").edit("blade.toml", "harmonics = 6", "harmonics = 4294967295").refused(
+        "check",
+        &[],
+        &["blade.toml line 55, criteria.harmonics", "expected at most 100 harmonics"],
+    );
+}
+
+#[test]
+fn a_vanishing_mould_margin_is_refused() {
+    // Issue case: 1e-12 aborted after 6 GB.
+    let c = Copy::of("mine-fan");
+    c.edit("blade.toml", "mould_margin_m = 0.03", "mould_margin_m = 1e-12");
+    c.refused(
+        "tooling",
+        &["--out", "out"],
+        &["blade.toml line 64, tooling.mould_margin_m", "expected a margin from 0.0056 m"],
+    );
+    assert!(!c.path("out").exists(), "an output folder was made");
+}
+
+#[test]
+fn a_tolerance_finer_than_any_mould_is_refused() {
+    // Issue case: 0.001 mm ran past a minute and 4 GB.
+    let c = Copy::of("mine-fan");
+    c.edit("blade.toml", "tolerance_mm = 0.1", "tolerance_mm = 0.001");
+    c.refused(
+        "tooling",
+        &["--out", "out"],
+        &["blade.toml line 66, tooling.tolerance_mm", "expected a tolerance from 0.0100 mm"],
+    );
+    let c = Copy::of("mine-fan");
+    c.refused(
+        "tooling",
+        &["--out", "out", "--tolerance-mm", "0.001"],
+        &["--tolerance-mm: expected a tolerance from 0.0100 mm"],
+    );
+}
+
+#[test]
+fn a_tolerance_coarser_than_the_sections_is_refused_not_failed() {
+    // Issue case: 8 to 16 mm turned the mesh the wrong way round (exit 3).
+    for t in ["8", "12", "16"] {
+        let c = Copy::of("mine-fan");
+        c.edit("blade.toml", "tolerance_mm = 0.1", &format!("tolerance_mm = {t}"));
+        c.refused(
+            "tooling",
+            &["--out", "out"],
+            &["tooling.tolerance_mm", "to 1.900 mm (1 % of the least chord"],
+        );
+        assert!(!c.path("out").exists(), "an output folder was made");
+    }
+}
+
+#[test]
+fn an_absurd_rpm_max_is_refused_naming_the_key() {
+    // Issue case: 1e7 rpm ended in exit 3 (stiffness not positive definite).
+    Copy::of("mine-fan").edit("blade.toml", "rpm_max = 1090", "rpm_max = 1e7").refused(
+        "check",
+        &[],
+        &["blade.toml line 11, rotor.rpm_max", "tip speed of 942478 m/s", "at most 7427 rpm"],
+    );
+}
+
+#[test]
+fn stations_a_picometre_apart_are_refused_naming_the_line() {
+    // Issue case: two stations 1e-12 m apart ended in exit 3 (core boundary outside).
+    let c = Copy::of("mine-fan");
+    c.edit("stations.csv", "0.45,0.270", "0.400000000001,0.270");
+    c.refused(
+        "tooling",
+        &["--out", "out"],
+        &["stations.csv line 4, r_m", "expected stations at least 5.000e-5 m apart"],
+    );
+    // Closer than the change of shape between them allows (a few mm with 4 degrees of twist).
+    let c = Copy::of("mine-fan");
+    c.edit("stations.csv", "0.45,0.270", "0.405,0.270");
+    c.refused(
+        "tooling",
+        &["--out", "out"],
+        &["stations.csv line 4, r_m", "the leading or trailing edge moves 14.1 mm between them"],
+    );
+}
+
+#[test]
+fn removing_the_root_build_up_is_not_called_too_thick() {
+    // Issue case: a thinner root was reported as "laminates thicker than the local depth".
+    for demo in ["mine-fan", "small-wind", "round-root"] {
+        let c = Copy::of(demo);
+        let text = fs::read_to_string(c.path("plies.csv")).unwrap();
+        let kept: String =
+            text.lines().filter(|l| !l.starts_with("root-")).map(|l| format!("{l}\n")).collect();
+        assert!(kept.len() < text.len(), "{demo} has root build-up plies");
+        fs::write(c.path("plies.csv"), kept).unwrap();
+        let (code, _, stderr) = c.run("check", &[]);
+        assert!(matches!(code, Some(0 | 1)), "{demo}: exit {code:?}: {stderr}");
+        assert!(!stderr.contains("thicker"), "{demo}: {stderr}");
+    }
+}
+
+#[test]
+fn a_device_as_input_file_is_refused_at_once() {
+    // Issue case: a files entry pointing at /dev/zero read until memory failed.
+    let c = Copy::of("mine-fan");
+    c.edit("blade.toml", "stations = \"stations.csv\"", "stations = \"/dev/zero\"");
+    c.refused("check", &[], &["/dev/zero: expected a regular file, found not a regular file"]);
+}
+
+#[cfg(unix)]
+#[test]
+fn a_fifo_as_input_file_is_refused_without_blocking() {
+    // Issue case: a FIFO blocked for ever. The run has a time-out of two minutes.
+    let c = Copy::of("mine-fan");
+    fs::remove_file(c.path("plies.csv")).unwrap();
+    let made = std::process::Command::new("mkfifo").arg(c.path("plies.csv")).status();
+    assert!(made.map(|s| s.success()).unwrap_or(false), "mkfifo failed");
+    c.refused("check", &[], &["plies.csv: expected a regular file"]);
+}
+
+#[test]
+fn a_file_beyond_the_size_cap_is_refused() {
+    let c = Copy::of("mine-fan");
+    let mut text = fs::read_to_string(c.path("loads-surge.csv")).unwrap();
+    let pad = format!("# {}\n", "x".repeat(1000));
+    while (text.len() as u64) <= layloft::input::MAX_INPUT_BYTES {
+        text.push_str(&pad.repeat(1000));
+    }
+    fs::write(c.path("loads-surge.csv"), text).unwrap();
+    c.refused(
+        "check",
+        &[],
+        &["loads-surge.csv: the file holds", "expected at most 16777216 bytes"],
+    );
+}
+
+#[test]
+fn a_runaway_number_is_quoted_short() {
+    // Issue case: a 2 MB number was echoed whole into the message.
+    let c = Copy::of("mine-fan");
+    let long = "7".repeat(2_000_000);
+    c.edit("stations.csv", "0.45,0.270", &format!("0.45,0.270{long}x"));
+    let m =
+        c.refused("check", &[], &["stations.csv line 4, chord_m", "characters)' is not a number"]);
+    assert!(m.len() < 300, "{m}");
+}
+
+#[test]
+fn modes_and_sweep_steps_are_named_by_their_key() {
+    Copy::of("mine-fan").edit("blade.toml", "modes = 8", "modes = 500").refused(
+        "modes",
+        &[],
+        &["blade.toml line 72, modal.modes", "expected at most 40 modes"],
+    );
+    Copy::of("mine-fan").edit("blade.toml", "modes = 8", "modes = 8\nrpm_step = 1e-9").refused(
+        "modes",
+        &[],
+        &["modal.rpm_step", "expected at most 1000"],
+    );
+    Copy::of("mine-fan").refused(
+        "modes",
+        &["--modes", "5000"],
+        &["--modes: expected 1 to 100 modes"],
+    );
+}
+
+/// `text` with every line end a lone carriage return.
+fn cr_only(text: &str) -> String {
+    text.replace("\r\n", "\n").replace('\n', "\r")
+}
+
+#[test]
+fn carriage_return_line_ends_are_read_everywhere() {
+    let c = Copy::of("mine-fan");
+    let (code, reference, _) = c.run("check", &[]);
+    assert_eq!(code, Some(0));
+    for f in fs::read_dir(c.dir.path()).unwrap() {
+        let p = f.unwrap().path();
+        if matches!(p.extension().and_then(|e| e.to_str()), Some("toml" | "csv" | "dat")) {
+            fs::write(&p, cr_only(&fs::read_to_string(&p).unwrap())).unwrap();
+        }
+    }
+    let (code, stdout, stderr) = c.run("check", &[]);
+    assert_eq!(code, Some(0), "{stderr}");
+    assert_eq!(stdout, reference);
+    // And a fault in such a file is placed on its line.
+    c.edit("stations.csv", "0.65,0.230", "0.65,-0.230");
+    c.refused("check", &[], &["stations.csv line 6, chord_m: expected a positive chord"]);
+    c.edit("stations.csv", "0.65,-0.230", "0.65,0.230");
+    c.edit("blade.toml", "blades = 9", "blades = 0");
+    c.refused("check", &[], &["blade.toml line 7, rotor.blades"]);
+}

@@ -37,8 +37,7 @@ pub fn read_coordinates_noted(
     path: &Path,
     display: &str,
 ) -> Result<(Outline, Vec<String>), InputError> {
-    let bytes = std::fs::read(path)
-        .map_err(|source| InputError::Read { file: display.to_string(), source })?;
+    let bytes = crate::input::read_bytes(path, display)?;
     let text = String::from_utf8_lossy(&bytes);
     parse_coordinates_noted(&text, display)
 }
@@ -270,7 +269,10 @@ fn layout_err(display: &str) -> InputError {
 fn bad_line(display: &str, line: usize, content: &str) -> InputError {
     InputError::at(
         Location::line(display, line),
-        format!("expected two numbers 'x y' in chord fractions, found '{content}'"),
+        format!(
+            "expected two numbers 'x y' in chord fractions, found '{}'",
+            crate::input::excerpt(content)
+        ),
     )
 }
 

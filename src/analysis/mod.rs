@@ -98,9 +98,11 @@ impl BladeModel {
         let params = section_params(&project);
         let mut stations = Vec::with_capacity(radii.len());
         for (i, &r) in radii.iter().enumerate() {
-            let (layout, plies) =
-                blade.section_layout_with_plies(r, project.sections.contour_points)?;
-            let section = SolvedSection::solve(&layout, &params)?;
+            let (layout, plies) = blade
+                .section_layout_with_plies(r, project.sections.contour_points)
+                .map_err(|e| placed(&project, r, e.into()))?;
+            let section = SolvedSection::solve(&layout, &params)
+                .map_err(|e| placed(&project, r, e.into()))?;
             stations.push(AnalysisStation { layout, plies, section });
             progress(i + 1, radii.len());
         }
@@ -185,9 +187,11 @@ impl BladeModel {
     /// occurs.
     pub fn warnings(&self) -> Vec<GroupedWarning> {
         let mut groups: Vec<GroupedWarning> = self
-            .blade
-            .warnings()
-            .into_iter()
+            .project
+            .input_warnings
+            .iter()
+            .cloned()
+            .chain(self.blade.warnings())
             .map(|w| GroupedWarning { first: w, radii: vec![] })
             .collect();
         let rotor = &self.project.rotor;
@@ -214,6 +218,36 @@ impl BladeModel {
         }
         groups
     }
+}
+
+/// An error of the section at radius `r` that names no file (a section error) placed at the
+/// nearest station of the stations file, so that the user knows where to look; errors that name
+/// their file already are left as they are.
+fn placed(project: &Project, r: f64, e: Error) -> Error {
+    let names_file = match &e {
+        Error::Input(_) => true,
+        Error::Section(_) => false,
+        other => {
+            other.to_string().starts_with(&project.files.stations)
+                || other.to_string().starts_with(&project.files.plies)
+        }
+    };
+    if names_file {
+        return e;
+    }
+    let nearest =
+        project.stations.iter().min_by(|a, b| (a.r - r).abs().total_cmp(&(b.r - r).abs()));
+    let location = match nearest {
+        Some(s) => {
+            crate::input::Location::line(project.files.stations.clone(), s.line).with_field("r_m")
+        }
+        None => crate::input::Location::file(project.files.stations.clone()),
+    };
+    crate::input::InputError::at(
+        location,
+        format!("{e} (this is the station nearest to r = {r:.4} m)"),
+    )
+    .into()
 }
 
 /// The section solver's settings for a project: the defaults, with the wall curvature model of

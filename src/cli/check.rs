@@ -39,9 +39,9 @@ pub struct Args {
     pub json: bool,
 }
 
-fn text(project: &str, check: &DesignCheck) -> String {
+fn text(project: &layloft::input::Project, check: &DesignCheck) -> String {
     let mut out = String::new();
-    let _ = writeln!(out, "layloft check — {project}");
+    let _ = writeln!(out, "layloft check — {}", project.name);
     out.push_str(&layloft::report::cautions_text());
     let _ = writeln!(out);
     let mut t = Table::new(&[
@@ -71,7 +71,7 @@ fn text(project: &str, check: &DesignCheck) -> String {
         out.push_str(&layloft::report::not_covered_text());
         // The verdict is the last line.
         let _ = writeln!(out);
-        let _ = writeln!(out, "Design check: {}", check.verdict_line());
+        let _ = writeln!(out, "{}", super::verdict(check, project));
     }
     out
 }
@@ -114,18 +114,22 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
                 row
             })
             .collect();
-        let doc = json!({
+        let mut doc = json!({
             "project": model.project.name,
             "pass": check.passed(),
             "criteria": rows,
             "not_covered": layloft::check::NOT_COVERED,
             "cautions": layloft::CAUTIONS,
         });
+        // Only when there are any, so that the output of a project without them is unchanged.
+        if !model.project.input_warnings.is_empty() {
+            doc["input_warnings"] = json!(model.project.input_warnings);
+        }
         let text = serde_json::to_string_pretty(&doc)
             .map_err(|e| Failure::Run(anyhow!("cannot format the JSON report: {e}")))?;
         out.data(&text);
     } else {
-        out.data(&text(&model.project.name, &check));
+        out.data(&text(&model.project, &check));
     }
     Ok(if check.passed() { Outcome::Success } else { Outcome::CheckFailed })
 }

@@ -121,7 +121,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     }
     let check = write_report(&model, &dest, out)?;
     out.note(&format!("open {} in a browser", dest.out.join("report.html").display()));
-    out.data(&format!("Design check: {}", check.verdict_line()));
+    out.data(&super::verdict(&check, &model.project));
     let passed = check.passed();
     Ok(if passed { Outcome::Success } else { Outcome::CheckFailed })
 }

@@ -83,6 +83,14 @@ fn parse_range(text: &str) -> Result<SpeedRange, Failure> {
 
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let range = args.rpm.as_deref().map(parse_range).transpose()?;
+    if let Some(n) = args.modes
+        && !(1..=layloft::input::limits::MAX_MODES).contains(&n)
+    {
+        return Err(Failure::Input(anyhow!(
+            "--modes: expected 1 to {} modes, found {n}",
+            layloft::input::limits::MAX_MODES
+        )));
+    }
     let model = load_model(&args.blade, out)?;
     let p = &model.project;
     let analysis = run_modal(&model, out, range, args.modes)?;

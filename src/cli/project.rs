@@ -47,7 +47,41 @@ pub fn run_modal(
         bar.set_length(total as u64);
         bar.inc(1)
     })
-    .map_err(layloft::Error::from)?;
+    .map_err(|e| modal_failure(p, range.is_some(), modes.is_some(), e))?;
     bar.finish();
     Ok(analysis)
+}
+
+/// A modal error caused by the input, named by the key or option that set it: the speed range
+/// (`rotor.rpm_max`, `modal.rpm_step` or `--rpm`), the modes (`modal.modes` or `--modes`), or a
+/// blade that the spin makes statically unstable below `rpm_max` (exit 2 naming the key, not an
+/// internal failure).
+fn modal_failure(
+    p: &layloft::input::Project,
+    range_given: bool,
+    modes_given: bool,
+    e: layloft::modal::ModalError,
+) -> Failure {
+    use layloft::modal::{EigenError, ModalError};
+    let speed_key =
+        if range_given { "--rpm".to_string() } else { format!("{}, rotor.rpm_max", p.file) };
+    let modes_key =
+        if modes_given { "--modes".to_string() } else { format!("{}, modal.modes", p.file) };
+    match &e {
+        ModalError::Eigen { source: EigenError::NotPositiveDefinite { .. }, .. } => {
+            Failure::Input(anyhow::anyhow!(
+                "{speed_key}: {e}; the spin softens the blade's in-plane stiffness more than its \
+                 structure holds at this speed: check rpm_max against the blade (and the root \
+                 springs)"
+            ))
+        }
+        ModalError::SpeedRange { .. } | ModalError::NoSpeeds | ModalError::SpeedOrder { .. } => {
+            Failure::Input(anyhow::anyhow!("{speed_key}: {e}"))
+        }
+        ModalError::TooManyModes { .. }
+        | ModalError::Eigen { source: EigenError::TooManyModes { .. }, .. } => {
+            Failure::Input(anyhow::anyhow!("{modes_key}: {e}"))
+        }
+        _ => layloft::Error::from(e).into(),
+    }
 }

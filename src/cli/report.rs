@@ -250,7 +250,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let meshes = args.meshes.clone().unwrap_or_else(|| args.out.join("meshes"));
     let check = write_report(&model, &Destination { out: args.out.clone(), meshes }, out)?;
     // The verdict is the last line, on stdout, so that it is seen and a script can read it.
-    out.data(&format!("Design check: {}", check.verdict_line()));
+    out.data(&super::verdict(&check, &model.project));
     let passed = check.passed();
     Ok(if passed { Outcome::Success } else { Outcome::CheckFailed })
 }

@@ -102,10 +102,24 @@ fn configure(args: &Args) -> Result<Config, Failure> {
     let mut params = ToolingParams::from_spec(&spec).map_err(|e| mesh_failure(&project.file, e))?;
     if let Some(text) = &args.tolerance_mm {
         match text.trim().parse::<f64>() {
-            Ok(t) if t.is_finite() && t > 0.0 => params.tolerance = t * MM,
+            Ok(t) if t.is_finite() && t > 0.0 => {
+                // The same bounds as the project's tolerance_mm, against the blade's size.
+                let st = &project.stations;
+                let length = st.last().map_or(0.0, |s| s.r) - st.first().map_or(0.0, |s| s.r);
+                let least_chord = st.iter().map(|s| s.chord).fold(f64::INFINITY, f64::min);
+                let (lo, hi) = layloft::input::tolerance_range(length, least_chord);
+                if t * MM < lo || t * MM > hi {
+                    return Err(Failure::Input(anyhow!(
+                        "--tolerance-mm: {}",
+                        layloft::input::tolerance_message(t * MM, lo, hi)
+                    )));
+                }
+                params.tolerance = t * MM
+            }
             _ => {
                 return Err(Failure::Input(anyhow!(
-                    "--tolerance-mm: expected a positive tolerance in mm, found '{text}'"
+                    "--tolerance-mm: expected a positive tolerance in mm, found '{}'",
+                    layloft::input::excerpt(text)
                 )));
             }
         }

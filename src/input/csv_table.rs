@@ -3,7 +3,7 @@
 
 use std::path::Path;
 
-use super::location::{InputError, Location, closest};
+use super::location::{InputError, Location, closest, excerpt};
 
 /// A CSV file: header and rows, each row with its 1-based line number.
 #[derive(Debug, Clone)]
@@ -17,8 +17,7 @@ pub struct CsvTable {
 impl CsvTable {
     /// Reads a CSV file; `display` is how messages name it.
     pub fn read(path: &Path, display: &str) -> Result<Self, InputError> {
-        let text = std::fs::read_to_string(path)
-            .map_err(|source| InputError::Read { file: display.to_string(), source })?;
+        let text = super::location::read_text(path, display)?;
         Self::parse(&text, display)
     }
 
@@ -74,14 +73,26 @@ impl CsvTable {
     /// `optional`; a misspelt column gets the closest known name as a hint.
     pub fn check_columns(&self, required: &[&str], optional: &[&str]) -> Result<(), InputError> {
         let known = || required.iter().chain(optional).copied();
-        for h in &self.headers {
+        for (i, h) in self.headers.iter().enumerate() {
+            if self.headers[..i].contains(h) {
+                return Err(InputError::at(
+                    Location::line(&self.file, 1).with_field(excerpt(h)),
+                    format!(
+                        "column '{}' appears twice in the header (columns {} and {}): expected \
+                         each column once",
+                        excerpt(h),
+                        self.headers[..i].iter().position(|x| x == h).unwrap_or(0) + 1,
+                        i + 1
+                    ),
+                ));
+            }
             if !known().any(|k| k == h) {
                 let hint = closest(h, known())
                     .map(|c| format!("; did you mean '{c}'?"))
                     .unwrap_or_else(|| format!("; expected columns: {}", required.join(", ")));
                 return Err(InputError::at(
-                    Location::line(&self.file, 1).with_field(h.clone()),
-                    format!("unknown column '{h}'{hint}"),
+                    Location::line(&self.file, 1).with_field(excerpt(h)),
+                    format!("unknown column '{}'{hint}", excerpt(h)),
                 ));
             }
         }
@@ -173,7 +184,7 @@ impl<'t> CsvRecord<'t> {
         }
         match t.parse::<f64>() {
             Ok(x) if x.is_finite() => Ok(x),
-            _ => Err(self.error(column, format!("'{t}' is not a number"))),
+            _ => Err(self.error(column, format!("'{}' is not a number", excerpt(t)))),
         }
     }
 
@@ -205,6 +216,16 @@ mod tests {
         assert_eq!(rows[0].number("chord_m").unwrap(), 0.2);
         let e = rows[1].number("chord_m").unwrap_err();
         assert_eq!(e.to_string(), "s.csv line 5, chord_m: 'x' is not a number");
+    }
+
+    #[test]
+    fn a_column_given_twice_is_refused() {
+        let t = CsvTable::parse("r_m,chord_m,chord_m\n1,2,3\n", "s.csv").unwrap();
+        let e = t.check_columns(&["r_m", "chord_m"], &[]).unwrap_err();
+        assert_eq!(
+            e.to_string(),
+            "s.csv line 1, chord_m: column 'chord_m' appears twice in the header (columns 2 and 3): expected each column once"
+        );
     }
 
     #[test]

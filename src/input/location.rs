@@ -93,11 +93,10 @@ pub struct SourceText {
 }
 
 impl SourceText {
-    /// Reads a file; `display` is how messages name it.
+    /// Reads a file; `display` is how messages name it. Only a regular file of at most
+    /// [`MAX_INPUT_BYTES`] is read; line ends `\n`, `\r\n` and `\r` are all accepted.
     pub fn read(path: &Path, display: &str) -> Result<Self, InputError> {
-        let text = std::fs::read_to_string(path)
-            .map_err(|source| InputError::Read { file: display.to_string(), source })?;
-        Ok(SourceText::new(display, text))
+        Ok(SourceText::new(display, read_text(path, display)?))
     }
 
     /// A text held in memory.
@@ -118,6 +117,95 @@ impl SourceText {
     /// A location at a byte offset.
     pub fn location(&self, offset: usize) -> Location {
         Location::line(self.name.clone(), self.line_of(offset))
+    }
+}
+
+/// The largest input file read, bytes. The largest inputs of a real blade are load tables and
+/// ply schedules of some thousands of rows (a few hundred kB); 16 MiB leaves room for a finely
+/// sampled load file while a device or a runaway file (`/dev/zero`) is refused at once.
+pub const MAX_INPUT_BYTES: u64 = 16 << 20;
+
+/// Reads an input file as bytes: only a regular file (not a device, a FIFO or a folder), of at
+/// most [`MAX_INPUT_BYTES`], checked before it is opened and again while it is read.
+pub fn read_bytes(path: &Path, display: &str) -> Result<Vec<u8>, InputError> {
+    use std::io::Read;
+    let io_error = |source| InputError::Read { file: display.to_string(), source };
+    let meta = std::fs::metadata(path).map_err(io_error)?;
+    if !meta.is_file() {
+        let kind = if meta.is_dir() {
+            "a folder"
+        } else {
+            "not a regular file (a device, a pipe or a socket)"
+        };
+        return Err(InputError::at(
+            Location::file(display),
+            format!("expected a regular file, found {kind}"),
+        ));
+    }
+    let too_big = |size: u64| {
+        InputError::at(
+            Location::file(display),
+            format!(
+                "the file holds {size} bytes or more: expected at most {MAX_INPUT_BYTES} bytes \
+                 (16 MiB) for an input file"
+            ),
+        )
+    };
+    if meta.len() > MAX_INPUT_BYTES {
+        return Err(too_big(meta.len()));
+    }
+    let file = std::fs::File::open(path).map_err(io_error)?;
+    let mut bytes = Vec::with_capacity(meta.len() as usize);
+    file.take(MAX_INPUT_BYTES + 1).read_to_end(&mut bytes).map_err(io_error)?;
+    if bytes.len() as u64 > MAX_INPUT_BYTES {
+        return Err(too_big(bytes.len() as u64));
+    }
+    Ok(bytes)
+}
+
+/// Reads an input file as UTF-8 text as [`read_bytes`] does, with `\r` line ends (old Mac
+/// style) turned into `\n` so that lines count alike whatever wrote the file; `\r\n` is kept.
+pub fn read_text(path: &Path, display: &str) -> Result<String, InputError> {
+    let bytes = read_bytes(path, display)?;
+    let text = String::from_utf8(bytes).map_err(|e| {
+        let before = &e.as_bytes()[..e.utf8_error().valid_up_to()];
+        let line = 1 + before.iter().filter(|&&b| b == b'\n').count();
+        InputError::at(
+            Location::line(display, line),
+            "expected UTF-8 text, found bytes that are not (a binary file, or text in another \
+             encoding)",
+        )
+    })?;
+    Ok(lone_cr_to_lf(text))
+}
+
+/// Turns every `\r` not followed by `\n` into `\n`.
+pub fn lone_cr_to_lf(text: String) -> String {
+    if !text.contains('\r') {
+        return text;
+    }
+    let mut out = String::with_capacity(text.len());
+    let mut chars = text.chars().peekable();
+    while let Some(c) = chars.next() {
+        if c == '\r' && chars.peek() != Some(&'\n') {
+            out.push('\n');
+        } else {
+            out.push(c);
+        }
+    }
+    out
+}
+
+/// At most `MAX` characters of a value for a message, with `…` and the full length when cut, so
+/// that a runaway value (a 2 MB number) is not echoed whole.
+pub fn excerpt(text: &str) -> String {
+    const MAX: usize = 40;
+    let count = text.chars().count();
+    if count <= MAX {
+        text.to_string()
+    } else {
+        let head: String = text.chars().take(MAX).collect();
+        format!("{head}… ({count} characters)")
     }
 }
 
@@ -150,5 +238,13 @@ mod tests {
         assert_eq!(s.line_of(6), 2);
         assert_eq!(s.line_of(13), 4);
         assert_eq!(s.location(13).to_string(), "a.toml line 4");
+    }
+
+    #[test]
+    fn lone_carriage_returns_become_line_ends_and_long_values_are_cut() {
+        assert_eq!(lone_cr_to_lf("a\rb\r\nc\r".to_string()), "a\nb\r\nc\n");
+        assert_eq!(excerpt("12.5"), "12.5");
+        let long = "9".repeat(100);
+        assert_eq!(excerpt(&long), format!("{}… (100 characters)", "9".repeat(40)));
     }
 }

@@ -151,18 +151,18 @@ const ISOTROPIC_KEYS: &[&str] = &[
 fn read_lamina(name: &str, t: &mut TableReader<'_>) -> Result<Lamina, InputError> {
     t.expect_keys(LAMINA_KEYS)?;
     let mut l = Lamina::builder(name).build_unchecked();
-    l.e1 = t.required_f64("E1_GPa")? * GPA;
-    l.e2 = t.required_f64("E2_GPa")? * GPA;
-    l.g12 = t.required_f64("G12_GPa")? * GPA;
+    l.e1 = modulus(t, "E1_GPa")? * GPA;
+    l.e2 = modulus(t, "E2_GPa")? * GPA;
+    l.g12 = modulus(t, "G12_GPa")? * GPA;
     l.nu12 = t.required_f64("nu12")?;
-    l.density = t.required_f64("density_kg_m3")?;
-    l.ply_thickness = t.required_f64("ply_thickness_mm")? * MM;
+    l.density = density(t, "density_kg_m3")?;
+    l.ply_thickness = thickness(t, "ply_thickness_mm")? * MM;
     l.strength = Some(Strengths {
-        xt: t.required_f64("Xt_MPa")? * MPA,
-        xc: t.required_f64("Xc_MPa")? * MPA,
-        yt: t.required_f64("Yt_MPa")? * MPA,
-        yc: t.required_f64("Yc_MPa")? * MPA,
-        s12: t.required_f64("S12_MPa")? * MPA,
+        xt: strength(t, "Xt_MPa")? * MPA,
+        xc: strength(t, "Xc_MPa")? * MPA,
+        yt: strength(t, "Yt_MPa")? * MPA,
+        yc: strength(t, "Yc_MPa")? * MPA,
+        s12: strength(t, "S12_MPa")? * MPA,
     });
     if let Some(f) = t.optional_f64("F12_star")? {
         l.f12_star = f;
@@ -193,13 +193,13 @@ fn read_lamina(name: &str, t: &mut TableReader<'_>) -> Result<Lamina, InputError
 
 fn read_isotropic(name: &str, t: &mut TableReader<'_>) -> Result<Isotropic, InputError> {
     t.expect_keys(ISOTROPIC_KEYS)?;
-    let e = t.required_f64("E_GPa")? * GPA;
+    let e = modulus(t, "E_GPa")? * GPA;
     let nu = t.required_f64("nu")?;
-    let density = t.required_f64("density_kg_m3")?;
-    let ply_thickness = t.optional_f64("ply_thickness_mm")?.map(|v| v * MM);
-    let tensile_strength = t.optional_f64("tensile_strength_MPa")?.map(|v| v * MPA);
-    let compressive_strength = t.optional_f64("compressive_strength_MPa")?.map(|v| v * MPA);
-    let shear_strength = t.optional_f64("shear_strength_MPa")?.map(|v| v * MPA);
+    let density = density(t, "density_kg_m3")?;
+    let ply_thickness = optional(t, "ply_thickness_mm", thickness)?.map(|v| v * MM);
+    let tensile_strength = optional(t, "tensile_strength_MPa", strength)?.map(|v| v * MPA);
+    let compressive_strength = optional(t, "compressive_strength_MPa", strength)?.map(|v| v * MPA);
+    let shear_strength = optional(t, "shear_strength_MPa", strength)?.map(|v| v * MPA);
     if tensile_strength.is_none() && (compressive_strength.is_some() || shear_strength.is_some()) {
         return Err(t.error(
             "tensile_strength_MPa",
@@ -211,6 +211,24 @@ fn read_isotropic(name: &str, t: &mut TableReader<'_>) -> Result<Isotropic, Inpu
     let melt: Vec<Option<f64>> =
         melt_keys.iter().map(|k| t.optional_f64(k)).collect::<Result<_, _>>()?;
     let melting_range_c = all_or_none(t, &melt_keys, &melt)?.map(|v| [v[0], v[1]]);
+    if let Some([solidus, liquidus]) = melting_range_c {
+        for (key, v) in [("solidus_C", solidus), ("liquidus_C", liquidus)] {
+            if v <= ABSOLUTE_ZERO_C {
+                return Err(t.error(
+                    key,
+                    format!("{v} °C lies at or below absolute zero ({ABSOLUTE_ZERO_C} °C)"),
+                ));
+            }
+        }
+        if liquidus < solidus {
+            return Err(t.error(
+                "liquidus_C",
+                format!(
+                    "expected the liquidus at or above solidus_C = {solidus} °C, found {liquidus}"
+                ),
+            ));
+        }
+    }
     let safety_note = t.optional_str("safety_note")?;
     t.optional_str("source")?;
     let core = read_core(t, e)?;
@@ -295,6 +313,83 @@ fn read_cutting(t: &mut TableReader<'_>, cost: Option<f64>) -> Result<CuttingDat
         );
     }
     Ok(c)
+}
+
+/// Absolute zero, °C.
+pub(crate) const ABSOLUTE_ZERO_C: f64 = -273.15;
+
+/// A positive value outside the range of real materials is refused here with its reason; zero
+/// and negative values are left to the physical checks of `material::validate`, which name them.
+fn real(
+    t: &TableReader<'_>,
+    key: &str,
+    v: f64,
+    (lo, hi): (f64, f64),
+    why: &str,
+) -> Result<f64, InputError> {
+    if v > 0.0 && !(lo..=hi).contains(&v) {
+        return Err(t.error(key, format!("expected {lo} to {hi}, found {v}: {why}")));
+    }
+    Ok(v)
+}
+
+/// Elastic moduli in GPa: from soft foams (a few MPa) to the stiffest fibres (about 900 GPa;
+/// diamond is about 1,050 GPa).
+fn modulus(t: &mut TableReader<'_>, key: &str) -> Result<f64, InputError> {
+    let v = t.required_f64(key)?;
+    real(
+        t,
+        key,
+        v,
+        (1e-3, 1200.0),
+        "no real material is stiffer than diamond or softer than 1 MPa (a GPa value given in MPa or Pa?)",
+    )
+}
+
+/// Densities in kg/m³: from the lightest core foams (about 20) to the densest metals (osmium,
+/// about 22,600).
+fn density(t: &mut TableReader<'_>, key: &str) -> Result<f64, InputError> {
+    let v = t.required_f64(key)?;
+    real(
+        t,
+        key,
+        v,
+        (5.0, 25_000.0),
+        "real solids weigh from about 20 kg/m³ (foams) to 22,600 kg/m³ (osmium); a density in g/cm³?",
+    )
+}
+
+/// Strengths in MPa: the strongest fibres are about 7,000 MPa.
+fn strength(t: &mut TableReader<'_>, key: &str) -> Result<f64, InputError> {
+    let v = t.required_f64(key)?;
+    real(
+        t,
+        key,
+        v,
+        (1e-3, 10_000.0),
+        "no real material is this strong (the strongest fibres reach about 7,000 MPa); a value in Pa or kPa?",
+    )
+}
+
+/// Ply and sheet thicknesses in mm: up to a thick core sheet.
+fn thickness(t: &mut TableReader<'_>, key: &str) -> Result<f64, InputError> {
+    let v = t.required_f64(key)?;
+    real(
+        t,
+        key,
+        v,
+        (1e-3, 100.0),
+        "a ply or sheet is thinner than 100 mm and thicker than 1 µm; a value in µm or m?",
+    )
+}
+
+/// A key read by `read` when it is present.
+fn optional(
+    t: &mut TableReader<'_>,
+    key: &str,
+    read: fn(&mut TableReader<'_>, &str) -> Result<f64, InputError>,
+) -> Result<Option<f64>, InputError> {
+    if t.contains(key) { read(t, key).map(Some) } else { Ok(None) }
 }
 
 /// Keys that go together: all given, or none.

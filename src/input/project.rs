@@ -51,6 +51,9 @@ pub struct Project {
     pub buckling: BucklingSpec,
     /// The materials file.
     pub materials: MaterialLibrary,
+    /// Values that are legal but unusual, each naming its file and key or line: printed with
+    /// the other warnings and repeated with the design check's verdict.
+    pub input_warnings: Vec<String>,
 }
 
 /// Display names (paths as joined to the project folder) of a project's files.

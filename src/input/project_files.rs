@@ -23,6 +23,16 @@ pub(super) fn read_stations(dir: &Path, file: &str) -> Result<Vec<Station>, Inpu
             format!("expected at least two stations (root and tip), found {}", table.len()),
         ));
     }
+    if table.len() > MAX_STATIONS {
+        return Err(InputError::at(
+            Location::file(display),
+            format!(
+                "expected at most {MAX_STATIONS} stations, found {}: a blade is described by some \
+                 tens of stations",
+                table.len()
+            ),
+        ));
+    }
     let mut stations: Vec<Station> = Vec::with_capacity(table.len());
     for rec in table.records() {
         let r = rec.number("r_m")?;
@@ -78,6 +88,7 @@ pub(super) fn read_stations(dir: &Path, file: &str) -> Result<Vec<Station>, Inpu
         });
     }
     let tip = stations.last().map(|s| s.r).unwrap_or(0.0);
+    check_station_spacing(&stations, &display)?;
     if let Some(s) = stations.iter().find(|s| s.chord > tip) {
         return Err(InputError::at(
             Location::line(display.clone(), s.line).with_field("chord_m"),
@@ -89,6 +100,70 @@ pub(super) fn read_stations(dir: &Path, file: &str) -> Result<Vec<Station>, Inpu
         ));
     }
     Ok(stations)
+}
+
+/// Most stations: a blade is described by some tens of stations; the analysis stations are set
+/// apart (`[sections] analysis_stations`, at most 2000).
+const MAX_STATIONS: usize = 2000;
+
+/// Most plies in a schedule: a large blade's schedule holds some thousands of plies.
+const MAX_PLIES: usize = 10_000;
+
+/// Least spacing of two stations, as a fraction of the blade's length.
+const MIN_STATION_GAP: f64 = 1e-4;
+
+/// Steepest spanwise slope of the leading or trailing edge between two stations (chord, twist
+/// and pitch-axis changes over the distance between them): beyond it the surface between the
+/// stations turns more than about 56° from the span, which no blade does, and the lofted walls
+/// and cores fold over (stations too close for the change between them).
+const MAX_EDGE_SLOPE: f64 = 1.5;
+
+/// Adjacent stations: far enough apart for the change of shape between them.
+fn check_station_spacing(stations: &[Station], display: &str) -> Result<(), InputError> {
+    let (Some(first), Some(last)) = (stations.first(), stations.last()) else { return Ok(()) };
+    let length = last.r - first.r;
+    // Leading and trailing edges in the plane normal to the span, pitch axis at the origin.
+    let edges = |s: &Station| {
+        let (sin, cos) = s.twist.rad().sin_cos();
+        let le = -s.pitch_axis_frac * s.chord;
+        let te = (1.0 - s.pitch_axis_frac) * s.chord;
+        [[le * cos, le * sin], [te * cos, te * sin]]
+    };
+    for pair in stations.windows(2) {
+        let (a, b) = (&pair[0], &pair[1]);
+        let dr = b.r - a.r;
+        let at =
+            |msg: String| InputError::at(Location::line(display, b.line).with_field("r_m"), msg);
+        if dr < MIN_STATION_GAP * length {
+            return Err(at(format!(
+                "station at r = {} m lies {dr:.3e} m from the one before (line {}): expected \
+                 stations at least {:.3e} m apart (1/{:.0} of the blade's length)",
+                b.r,
+                a.line,
+                MIN_STATION_GAP * length,
+                1.0 / MIN_STATION_GAP
+            )));
+        }
+        let (ea, eb) = (edges(a), edges(b));
+        let moved = (0..2)
+            .map(|k| ((eb[k][0] - ea[k][0]).powi(2) + (eb[k][1] - ea[k][1]).powi(2)).sqrt())
+            .fold(0.0, f64::max);
+        if moved > MAX_EDGE_SLOPE * dr {
+            return Err(at(format!(
+                "the stations at r = {} m (line {}) and r = {} m lie {:.1} mm apart, but the \
+                 leading or trailing edge moves {:.1} mm between them (chord, twist and pitch \
+                 axis): expected at most {MAX_EDGE_SLOPE} times the distance, stations at least \
+                 {:.1} mm apart, or a smaller change",
+                a.r,
+                a.line,
+                b.r,
+                dr * 1e3,
+                moved * 1e3,
+                moved / MAX_EDGE_SLOPE * 1e3
+            )));
+        }
+    }
+    Ok(())
 }
 
 /// The largest radius taken as metres: beyond it a radius is much more likely in millimetres
@@ -153,9 +228,30 @@ pub(super) fn read_plies(
             "expected at least one ply, found none",
         ));
     }
-    let mut plies = Vec::with_capacity(table.len());
+    if table.len() > MAX_PLIES {
+        return Err(InputError::at(
+            Location::file(display),
+            format!(
+                "expected at most {MAX_PLIES} plies, found {}: a large blade's schedule holds some \
+                 thousands",
+                table.len()
+            ),
+        ));
+    }
+    let mut plies: Vec<PlySpec> = Vec::with_capacity(table.len());
     for rec in table.records() {
         let id = rec.required_text("ply")?.to_string();
+        if let Some(earlier) = plies.iter().find(|p| p.id == id) {
+            return Err(rec.error(
+                "ply",
+                format!(
+                    "ply '{}' is listed twice (first on line {}): expected each ply once, with \
+                     its own id (a row pasted twice doubles the ply)",
+                    super::location::excerpt(&id),
+                    earlier.line
+                ),
+            ));
+        }
         let material = rec.required_text("material")?.to_string();
         if let Err(e) = materials.ply_material(&material) {
             return Err(rec.error("material", e.to_string()));

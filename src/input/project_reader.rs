@@ -36,7 +36,7 @@
 
 use std::path::Path;
 
-use super::location::{InputError, SourceText};
+use super::location::{InputError, Location, SourceText, excerpt};
 use super::project::*;
 use super::project_files::{read_distributed, read_plies, read_stations};
 use super::toml_table::{Scalar, TableReader};
@@ -46,6 +46,60 @@ use crate::units::{Angle, MM};
 /// The greatest load-case speed accepted, as a multiple of `rpm_max`: proof and burst tests of
 /// rotors run up to about 1.2 to 1.5 times the greatest operating speed (common practice).
 const OVERSPEED_LIMIT: f64 = 2.0;
+
+/// Limits on the inputs (see `limits` in DESIGN notes of the report): each bounds a value to
+/// what a real blade can be or needs, so that a typing error is refused with its reason and no
+/// input can ask for unbounded work.
+pub mod limits {
+    /// Most blades on one rotor: axial fans carry up to a few dozen blades, compressor and
+    /// ducted-fan stages rarely more than about 60 (common practice).
+    pub const MAX_BLADES: u32 = 100;
+    /// Greatest tip speed at `rpm_max`, m/s: the fastest composite fan blades (turbofan fans)
+    /// run at about 450–500 m/s at the tip (common practice); beyond this the input is a typo.
+    pub const MAX_TIP_SPEED_M_S: f64 = 700.0;
+    /// Least and greatest load factor: partial load factors of design codes run from about 0.9
+    /// (favourable loads) to 2 (common practice); outside 0.5–10 the factor is a typo.
+    pub const LOAD_FACTOR: (f64, f64) = (0.5, 10.0);
+    /// Pitch settings and ranges, degrees: from reverse pitch to feathered.
+    pub const MAX_PITCH_DEG: f64 = 90.0;
+    /// Most rotor harmonics checked: excitation falls off fast with the order; 12 is the
+    /// default and blade passing is added on its own (common practice).
+    pub const MAX_HARMONICS: u32 = 100;
+    /// Most speeds of the Campbell sweep from `[modal] rpm_step` (each is an eigen solution).
+    pub const MAX_SWEEP_STEPS: f64 = 1000.0;
+    /// Most modes per speed.
+    pub const MAX_MODES: usize = 100;
+    /// Most vane counts, further orders and fixed excitations, and the greatest order.
+    pub const MAX_EXCITATIONS: usize = 100;
+    /// Greatest excitation order or vane count.
+    pub const MAX_ORDER: f64 = 1000.0;
+    /// Most multiples of a vane count.
+    pub const MAX_VANE_MULTIPLES: u32 = 20;
+    /// Greatest fluid density, kg/m³: sea water is 1,025, drilling mud about 2,000.
+    pub const MAX_FLUID_DENSITY: f64 = 3000.0;
+    /// Absolute zero, °C.
+    pub const ABSOLUTE_ZERO_C: f64 = -273.15;
+    /// Greatest process temperature, °C: epoxies cure below about 200 °C, high-temperature
+    /// resins below about 400 °C.
+    pub const MAX_PROCESS_C: f64 = 500.0;
+    /// Greatest temperature change of a load case, K, either way.
+    pub const MAX_DELTA_T_K: f64 = 400.0;
+    /// The tip radius may lie beyond the last station by at most this fraction of the blade's
+    /// length (a tip cap not described by a station).
+    pub const TIP_GAP: f64 = 0.1;
+    /// Least chordal tolerance of the tooling meshes, as a fraction of the blade's length: the
+    /// facet count grows as the inverse of the tolerance; 1/50,000 of the length is finer than
+    /// any mould is machined (common practice).
+    pub const MIN_TOLERANCE: f64 = 2e-5;
+    /// Greatest chordal tolerance, as a fraction of the least chord: a coarser mesh no longer
+    /// follows the thin sections (the surfaces turn over).
+    pub const MAX_TOLERANCE: f64 = 0.01;
+    /// Least mould margin, as a fraction of the largest chord.
+    pub const MIN_MARGIN: f64 = 0.02;
+    /// Greatest mould margin, as a multiple of the blade's length plus its largest chord.
+    pub const MAX_MARGIN: f64 = 2.0;
+}
+use limits::*;
 
 /// Reads a blade project from its `blade.toml`, given as the file or as the folder that holds it.
 pub fn read_project(path: &Path) -> Result<Project, InputError> {
@@ -62,7 +116,8 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
     let mut doc = TableReader::parse_document(&source)?;
 
     let name = doc.required_str("name")?;
-    let rotor = read_rotor(&mut doc.required_table("rotor")?)?;
+    let mut warnings = Vec::new();
+    let (rotor, range_given, places) = read_rotor(&mut doc.required_table("rotor")?)?;
     let (stations_file, plies_file, materials_file) = match doc.optional_table("files")? {
         Some(mut f) => {
             let s = f.optional_str("stations")?.unwrap_or_else(|| "stations.csv".into());
@@ -92,6 +147,15 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
     let fluid = match doc.optional_table("fluid")? {
         Some(mut t) => {
             let density = t.required_positive("density_kg_m3")?;
+            if density > MAX_FLUID_DENSITY {
+                return Err(t.error(
+                    "density_kg_m3",
+                    format!(
+                        "expected at most {MAX_FLUID_DENSITY} kg/m³, found {density}: denser than \
+                         any fluid a blade runs in (sea water 1,025, drilling mud about 2,000)"
+                    ),
+                ));
+            }
             t.finish()?;
             Some(FluidSpec { density })
         }
@@ -110,7 +174,36 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
     let materials = super::materials::read_materials(&materials_path)?;
     let stations = read_stations(&dir, &stations_file)?;
     let (r_root, r_tip) = (stations[0].r, stations[stations.len() - 1].r);
-    check_rotor_against_stations(&doc, &rotor, r_root, r_tip)?;
+    check_rotor_against_stations(&places, &rotor, r_root, r_tip, &mut warnings)?;
+    // The tip speed at the greatest speed, once the tip radius is known to fit the stations: a
+    // rotor speed given in rad/s or per hour, or a radius in mm, shows here.
+    let tip_speed = rotor.rpm_max * std::f64::consts::PI / 30.0 * rotor.tip_radius;
+    if tip_speed > MAX_TIP_SPEED_M_S {
+        return Err(InputError::at(
+            places[2].clone(),
+            format!(
+                "rpm_max = {} rpm at tip_radius_m = {} gives a tip speed of {tip_speed:.0} m/s: \
+                 expected at most {MAX_TIP_SPEED_M_S} m/s (the fastest composite fan blades run \
+                 at about 500 m/s), at most {:.0} rpm",
+                excerpt(&rotor.rpm_max.to_string()),
+                rotor.tip_radius,
+                MAX_TIP_SPEED_M_S * 30.0 / (std::f64::consts::PI * rotor.tip_radius)
+            ),
+        ));
+    }
+    if modal.rpm_step.is_some_and(|step| rotor.rpm_max / step > MAX_SWEEP_STEPS) {
+        let step = modal.rpm_step.unwrap_or(1.0);
+        return Err(InputError::at(
+            doc.location_of("modal").with_field("modal.rpm_step"),
+            format!(
+                "a step of {step} rpm up to rpm_max = {} rpm makes {:.0} speeds: expected at most \
+                 {MAX_SWEEP_STEPS} (each speed is an eigen solution), a step of at least {} rpm",
+                rotor.rpm_max,
+                rotor.rpm_max / step,
+                rotor.rpm_max / MAX_SWEEP_STEPS
+            ),
+        ));
+    }
 
     let mut webs = Vec::new();
     for mut t in webs_t {
@@ -124,6 +217,9 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
     webs.sort_by(|a, b| a.chord_frac.total_cmp(&b.chord_frac));
 
     let plies = read_plies(&dir, &plies_file, &materials, &webs, r_root, r_tip)?;
+    let chords = stations.iter().map(|s| s.chord);
+    let (c_min, c_max) = chords.fold((f64::INFINITY, 0.0_f64), |(a, b), c| (a.min(c), b.max(c)));
+    let blade_length = r_tip - r_root;
 
     let mut point_masses = Vec::new();
     for mut t in masses_t {
@@ -132,8 +228,11 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
     }
 
     let mut load_cases: Vec<LoadCaseSpec> = Vec::new();
+    let mut delta_t_places = Vec::new();
     for mut t in cases_t {
         let case = read_load_case(&mut t, &dir, r_root, r_tip)?;
+        check_case(&t, &case, &rotor, range_given, &mut warnings)?;
+        delta_t_places.push(t.location_of("delta_T_K"));
         // An overspeed or proof case may run above the greatest operating speed (it is then
         // named in the warnings); twice that speed is taken as a typing error.
         if case.rpm > OVERSPEED_LIMIT * rotor.rpm_max {
@@ -157,7 +256,22 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
     let tooling = match tooling_t {
         Some(mut t) => {
             let spec = read_tooling(&mut t, &materials)?;
+            check_tooling(&t, &spec, blade_length, c_min, c_max, &mut warnings)?;
             t.finish()?;
+            if let Some(cure) = spec.cure_temperature_c {
+                for (case, place) in load_cases.iter().zip(&delta_t_places) {
+                    if cure + case.delta_t <= ABSOLUTE_ZERO_C {
+                        return Err(InputError::at(
+                            place.clone(),
+                            format!(
+                                "load case '{}': a change of {} K from the cure temperature \
+                                 ({cure} °C) goes below absolute zero",
+                                case.name, case.delta_t
+                            ),
+                        ));
+                    }
+                }
+            }
             Some(spec)
         }
         None => None,
@@ -169,8 +283,16 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
         plies: shown(&plies_file),
         materials: shown(&materials_file),
     };
+    if let Some(min_rf) = criteria.min_reserve_factor.filter(|&v| v < 1.0) {
+        warnings.push(format!(
+            "{}: criteria.min_reserve_factor = {min_rf} accepts a failure index above 1 (a reserve \
+             factor below 1 means the factored load breaks a ply)",
+            display
+        ));
+    }
     Ok(Project {
         name,
+        input_warnings: warnings,
         file: display,
         files,
         dir,
@@ -191,12 +313,25 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
     })
 }
 
-fn read_rotor(t: &mut TableReader<'_>) -> Result<Rotor, InputError> {
+/// Where the rotor's radii and greatest speed are given: `hub_radius_m`, `tip_radius_m`,
+/// `rpm_max`.
+type RotorPlaces = [Location; 3];
+
+fn read_rotor(t: &mut TableReader<'_>) -> Result<(Rotor, bool, RotorPlaces), InputError> {
     let blades = t
         .optional_u32("blades")?
         .ok_or_else(|| t.error("blades", "missing key: expected the number of blades"))?;
     if blades == 0 {
         return Err(t.error("blades", "expected at least one blade, found 0"));
+    }
+    if blades > MAX_BLADES {
+        return Err(t.error(
+            "blades",
+            format!(
+                "expected at most {MAX_BLADES} blades, found {blades}: no rotor of composite \
+                 blades carries more"
+            ),
+        ));
     }
     let hub_radius = t.required_f64("hub_radius_m")?;
     if hub_radius < 0.0 {
@@ -217,13 +352,50 @@ fn read_rotor(t: &mut TableReader<'_>) -> Result<Rotor, InputError> {
             format!("expected at least rpm_nominal = {rpm_nominal}, found {rpm_max}"),
         ));
     }
-    let pitch = Angle::from_deg(t.optional_f64("pitch_deg")?.unwrap_or(0.0));
-    let pitch_range = match t.optional_f64_array("pitch_range_deg")? {
-        Some(v) if v.len() == 2 && v[0] <= v[1] => (Angle::from_deg(v[0]), Angle::from_deg(v[1])),
+    let pitch_deg = t.optional_f64("pitch_deg")?.unwrap_or(0.0);
+    if pitch_deg.abs() > MAX_PITCH_DEG {
+        return Err(t.error(
+            "pitch_deg",
+            format!("expected a pitch setting within -90..90 degrees, found {pitch_deg}"),
+        ));
+    }
+    let pitch = Angle::from_deg(pitch_deg);
+    let given = t.optional_f64_array("pitch_range_deg")?;
+    let range_given = given.is_some();
+    let pitch_range = match given {
+        Some(v) if v.len() == 2 && v[0] <= v[1] => {
+            if v[0] < -MAX_PITCH_DEG || v[1] > MAX_PITCH_DEG {
+                return Err(t.error(
+                    "pitch_range_deg",
+                    format!(
+                        "expected a range within -90..90 degrees (reverse to feathered), found \
+                         [{}, {}]",
+                        v[0], v[1]
+                    ),
+                ));
+            }
+            if pitch_deg < v[0] || pitch_deg > v[1] {
+                return Err(t.error(
+                    "pitch_deg",
+                    format!(
+                        "the pitch setting {pitch_deg}° lies outside pitch_range_deg = [{}, {}]: \
+                         expected a setting inside the range",
+                        v[0], v[1]
+                    ),
+                ));
+            }
+            (Angle::from_deg(v[0]), Angle::from_deg(v[1]))
+        }
         Some(v) => {
+            let shown: Vec<String> = v.iter().take(4).map(|x| x.to_string()).collect();
             return Err(t.error(
                 "pitch_range_deg",
-                format!("expected [least, greatest] with least <= greatest, found {v:?}"),
+                format!(
+                    "expected [least, greatest] with least <= greatest, found {} values [{}{}]",
+                    v.len(),
+                    shown.join(", "),
+                    if v.len() > 4 { ", …" } else { "" }
+                ),
             ));
         }
         None => (pitch, pitch),
@@ -248,7 +420,7 @@ fn read_rotor(t: &mut TableReader<'_>) -> Result<Rotor, InputError> {
         ));
     }
     t.finish()?;
-    Ok(Rotor {
+    let rotor = Rotor {
         blades,
         hub_radius,
         tip_radius,
@@ -258,19 +430,215 @@ fn read_rotor(t: &mut TableReader<'_>) -> Result<Rotor, InputError> {
         pitch_range,
         root_clearance,
         tip_clearance,
-    })
+    };
+    let places =
+        [t.location_of("hub_radius_m"), t.location_of("tip_radius_m"), t.location_of("rpm_max")];
+    Ok((rotor, range_given, places))
+}
+
+/// A load case against the rotor: its speed, its pitch and its load factor.
+fn check_case(
+    t: &TableReader<'_>,
+    case: &LoadCaseSpec,
+    rotor: &Rotor,
+    range_given: bool,
+    warnings: &mut Vec<String>,
+) -> Result<(), InputError> {
+    let place = |key: &str| t.location_of(key).to_string();
+    if let Some(p) = case.pitch {
+        // Degrees back from radians, rounded to what was typed.
+        let typed = |x: f64| (x * 1e9).round() / 1e9;
+        let (lo, hi) = (typed(rotor.pitch_range.0.deg()), typed(rotor.pitch_range.1.deg()));
+        if p.deg().abs() > MAX_PITCH_DEG {
+            return Err(t.error(
+                "pitch_deg",
+                format!(
+                    "expected a pitch setting within -90..90 degrees, found {}",
+                    typed(p.deg())
+                ),
+            ));
+        }
+        if range_given && (p.deg() < lo - 1e-9 || p.deg() > hi + 1e-9) {
+            return Err(t.error(
+                "pitch_deg",
+                format!(
+                    "load case '{}' at pitch {}° lies outside the rotor's pitch_range_deg = \
+                     [{lo}, {hi}]: expected a setting inside the range, or a wider range",
+                    case.name,
+                    typed(p.deg())
+                ),
+            ));
+        }
+    }
+    let (lo, hi) = LOAD_FACTOR;
+    if !(lo..=hi).contains(&case.load_factor) {
+        return Err(t.error(
+            "load_factor",
+            format!(
+                "expected a load factor from {lo} to {hi}, found {}: design codes factor loads \
+                 by about 0.9 to 2",
+                case.load_factor
+            ),
+        ));
+    }
+    if case.load_factor < 1.0 {
+        warnings.push(format!(
+            "{}: load case '{}' has a load factor of {} below 1: the case is checked at less than \
+             its load",
+            place("load_factor"),
+            case.name,
+            case.load_factor
+        ));
+    } else if case.load_factor > 3.0 {
+        warnings.push(format!(
+            "{}: load case '{}' has a load factor of {}, above the 1.35 to 2 of design codes",
+            place("load_factor"),
+            case.name,
+            case.load_factor
+        ));
+    }
+    if case.delta_t.abs() > MAX_DELTA_T_K {
+        return Err(t.error(
+            "delta_T_K",
+            format!(
+                "expected a temperature change within ±{MAX_DELTA_T_K} K from the stress-free \
+                 (cure) state, found {}",
+                case.delta_t
+            ),
+        ));
+    }
+    if case.gravity.is_some_and(|g| g.iter().map(|x| x * x).sum::<f64>().sqrt() > 100.0) {
+        return Err(t.error(
+            "gravity_m_s2",
+            "expected a gravity vector of at most 100 m/s² (1 g is 9.81 m/s²): is it in mm/s²?",
+        ));
+    }
+    Ok(())
+}
+
+/// The tooling settings against the blade: the mesh tolerance and the mould margin against its
+/// size (they set the facet count), the process temperatures against absolute zero and resins.
+fn check_tooling(
+    t: &TableReader<'_>,
+    spec: &ToolingSpec,
+    blade_length: f64,
+    c_min: f64,
+    c_max: f64,
+    warnings: &mut Vec<String>,
+) -> Result<(), InputError> {
+    let (lo, hi) = tolerance_range(blade_length, c_min);
+    if spec.tolerance < lo || spec.tolerance > hi {
+        return Err(t.error("tolerance_mm", tolerance_message(spec.tolerance, lo, hi)));
+    }
+    let (lo, hi) = (MIN_MARGIN * c_max, MAX_MARGIN * (blade_length + c_max));
+    if spec.mould_margin < lo || spec.mould_margin > hi {
+        return Err(t.error(
+            "mould_margin_m",
+            format!(
+                "expected a margin from {:.4} m ({} % of the largest chord) to {:.3} m (twice the \
+                 blade's length and chord), found {}",
+                lo,
+                MIN_MARGIN * 100.0,
+                hi,
+                spec.mould_margin
+            ),
+        ));
+    }
+    let temps = [
+        ("injection_temperature_C", spec.injection_temperature_c),
+        ("gel_temperature_C", spec.gel_temperature_c),
+        ("cure_temperature_C", spec.cure_temperature_c),
+    ];
+    for (key, v) in temps {
+        let Some(v) = v else { continue };
+        if v <= ABSOLUTE_ZERO_C {
+            return Err(t.error(
+                key,
+                format!("{v} °C lies at or below absolute zero ({ABSOLUTE_ZERO_C} °C)"),
+            ));
+        }
+        if v > MAX_PROCESS_C {
+            return Err(t.error(
+                key,
+                format!(
+                    "expected at most {MAX_PROCESS_C} °C, found {v}: resins cure below about \
+                     400 °C (a temperature in K or °F?)"
+                ),
+            ));
+        }
+    }
+    let given: Vec<(&str, f64)> = temps.iter().filter_map(|(k, v)| v.map(|v| (*k, v))).collect();
+    for pair in given.windows(2) {
+        if pair[1].1 < pair[0].1 {
+            warnings.push(format!(
+                "{}: {} = {} °C lies below {} = {} °C: expected injection, gel and cure at rising \
+                 temperatures",
+                t.location_of(pair[1].0),
+                pair[1].0,
+                pair[1].1,
+                pair[0].0,
+                pair[0].1
+            ));
+        }
+    }
+    Ok(())
+}
+
+/// The accepted chordal tolerance of the tooling meshes, m: from [`MIN_TOLERANCE`] of the
+/// blade's length to [`MAX_TOLERANCE`] of its least chord.
+pub fn tolerance_range(blade_length: f64, least_chord: f64) -> (f64, f64) {
+    (MIN_TOLERANCE * blade_length, MAX_TOLERANCE * least_chord)
+}
+
+/// Why a tolerance (m) outside `lo..hi` (m) is refused.
+pub fn tolerance_message(tolerance: f64, lo: f64, hi: f64) -> String {
+    format!(
+        "expected a tolerance from {:.4} mm (1/{:.0} of the blade's length: finer multiplies \
+         the facets for no mould that can be machined) to {:.3} mm ({} % of the least chord: \
+         coarser no longer follows the thin sections), found {} mm",
+        lo * 1e3,
+        1.0 / MIN_TOLERANCE,
+        hi * 1e3,
+        MAX_TOLERANCE * 100.0,
+        tolerance * 1e3
+    )
 }
 
 fn check_rotor_against_stations(
-    doc: &TableReader<'_>,
+    places: &RotorPlaces,
     rotor: &Rotor,
     r_root: f64,
     r_tip: f64,
+    warnings: &mut Vec<String>,
 ) -> Result<(), InputError> {
     let eps = 1e-9;
+    let length = r_tip - r_root;
+    if rotor.tip_radius - r_tip > TIP_GAP * length {
+        return Err(InputError::at(
+            places[1].clone(),
+            format!(
+                "tip_radius_m = {} lies {:.4} m beyond the last station (r = {r_tip} m): expected \
+                 the stations to reach the tip, within {} % of the blade's length ({:.4} m)",
+                rotor.tip_radius,
+                rotor.tip_radius - r_tip,
+                TIP_GAP * 100.0,
+                TIP_GAP * length
+            ),
+        ));
+    }
+    if r_root - rotor.hub_radius > 0.5 * length {
+        warnings.push(format!(
+            "{}: the first station (r = {r_root} m) lies {:.3} m outboard of hub_radius_m = {}, \
+             more than half the blade's length: a long root spindle, or a hub radius in the wrong \
+             unit?",
+            places[0].clone(),
+            r_root - rotor.hub_radius,
+            rotor.hub_radius
+        ));
+    }
     if r_root < rotor.hub_radius - eps {
         return Err(InputError::at(
-            doc.location_of("rotor").with_field("rotor.hub_radius_m"),
+            places[0].clone(),
             format!(
                 "the first station (r = {r_root} m) lies inside the hub: expected hub_radius_m <= {r_root}, found {}",
                 rotor.hub_radius
@@ -279,7 +647,7 @@ fn check_rotor_against_stations(
     }
     if r_tip > rotor.tip_radius + eps {
         return Err(InputError::at(
-            doc.location_of("rotor").with_field("rotor.tip_radius_m"),
+            places[1].clone(),
             format!(
                 "the last station (r = {r_tip} m) lies beyond the tip: expected tip_radius_m >= {r_tip}, found {}",
                 rotor.tip_radius
@@ -359,7 +727,15 @@ fn read_excitation(t: &mut TableReader<'_>) -> Result<ExcitationSpec, InputError
     let whole = |t: &TableReader<'_>, key: &str, v: Vec<f64>| -> Result<Vec<u32>, InputError> {
         v.into_iter()
             .map(|x| {
-                if x.fract() != 0.0 || !(1.0..=1.0e6).contains(&x) {
+                if x > MAX_ORDER {
+                    Err(t.error(
+                        key,
+                        format!(
+                            "expected at most {MAX_ORDER}, found {x}: no machine excites a blade \
+                             at this order"
+                        ),
+                    ))
+                } else if x.fract() != 0.0 || x < 1.0 {
                     Err(t.error(key, format!("expected whole numbers of 1 or more, found {x}")))
                 } else {
                     Ok(x as u32)
@@ -367,16 +743,40 @@ fn read_excitation(t: &mut TableReader<'_>) -> Result<ExcitationSpec, InputError
             })
             .collect()
     };
+    let count = |t: &TableReader<'_>, key: &str, v: &[f64]| {
+        if v.len() > MAX_EXCITATIONS {
+            return Err(t.error(
+                key,
+                format!("expected at most {MAX_EXCITATIONS} values, found {}", v.len()),
+            ));
+        }
+        Ok(())
+    };
     let vanes = t.optional_f64_array("vanes")?.unwrap_or_default();
+    count(t, "vanes", &vanes)?;
     let vanes = whole(t, "vanes", vanes)?;
     let orders = t.optional_f64_array("orders")?.unwrap_or_default();
+    count(t, "orders", &orders)?;
     let orders = whole(t, "orders", orders)?;
     let vane_multiples = t.optional_u32("vane_multiples")?.unwrap_or(2);
-    if vane_multiples == 0 {
-        return Err(t.error("vane_multiples", "expected at least 1 multiple, found 0"));
+    if vane_multiples == 0 || vane_multiples > MAX_VANE_MULTIPLES {
+        return Err(t.error(
+            "vane_multiples",
+            format!("expected 1 to {MAX_VANE_MULTIPLES} multiples, found {vane_multiples}"),
+        ));
     }
     let mut fixed = Vec::new();
-    for mut f in t.table_array("fixed")? {
+    let fixed_tables = t.table_array("fixed")?;
+    if fixed_tables.len() > MAX_EXCITATIONS {
+        return Err(t.error(
+            "fixed",
+            format!(
+                "expected at most {MAX_EXCITATIONS} fixed excitations, found {}",
+                fixed_tables.len()
+            ),
+        ));
+    }
+    for mut f in fixed_tables {
         let name = f.required_str("name")?;
         let single = f.optional_positive("frequency_Hz")?;
         let from = f.optional_positive("from_Hz")?;
@@ -459,6 +859,16 @@ fn read_criteria(t: &mut TableReader<'_>) -> Result<Criteria, InputError> {
     };
     if c.harmonics == 0 {
         return Err(t.error("harmonics", "expected at least one harmonic, found 0"));
+    }
+    if c.harmonics > MAX_HARMONICS {
+        return Err(t.error(
+            "harmonics",
+            format!(
+                "expected at most {MAX_HARMONICS} harmonics, found {}: excitation falls off fast \
+                 with the order (blade passing is checked on its own)",
+                c.harmonics
+            ),
+        ));
     }
     t.finish()?;
     Ok(c)
@@ -598,6 +1008,16 @@ fn read_modal(t: &mut TableReader<'_>) -> Result<ModalSpec, InputError> {
     let modes = t.optional_u32("modes")?.map(|v| v as usize).unwrap_or(d.modes);
     if modes == 0 {
         return Err(t.error("modes", "expected at least one mode, found 0"));
+    }
+    if modes > MAX_MODES.min(elements) {
+        return Err(t.error(
+            "modes",
+            format!(
+                "expected at most {} modes (at most {MAX_MODES}, and no more than the {elements} \
+                 beam elements can resolve), found {modes}",
+                MAX_MODES.min(elements)
+            ),
+        ));
     }
     let rpm_step = t.optional_positive("rpm_step")?;
     let root_springs = match t.optional_table("root_springs")? {

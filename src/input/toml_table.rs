@@ -6,7 +6,7 @@ use std::ops::Range;
 use toml::Spanned;
 use toml::de::{DeTable, DeValue};
 
-use super::location::{InputError, Location, SourceText, closest};
+use super::location::{InputError, Location, SourceText, closest, excerpt};
 
 /// A setting given by name or by value.
 #[derive(Debug, Clone, PartialEq)]
@@ -67,7 +67,8 @@ impl<'s> TableReader<'s> {
     }
 
     fn full_key(&self, key: &str) -> String {
-        if self.path.is_empty() { key.to_string() } else { format!("{}.{key}", self.path) }
+        let key = excerpt(key);
+        if self.path.is_empty() { key } else { format!("{}.{key}", self.path) }
     }
 
     /// The location of a key's value, or of the table when the key is absent.
@@ -169,7 +170,13 @@ impl<'s> TableReader<'s> {
                     .and_then(|n| u32::try_from(n).ok())
                     .map(Some)
                     .ok_or_else(|| {
-                        self.error(key, format!("expected a whole number >= 0, found {}", i))
+                        self.error(
+                            key,
+                            format!(
+                                "expected a whole number >= 0, found {}",
+                                excerpt(&i.to_string())
+                            ),
+                        )
                     }),
                 other => {
                     Err(self
@@ -332,7 +339,7 @@ impl<'s> TableReader<'s> {
                 let loc = self.source.location(value.span().start).with_field(self.full_key(other));
                 return InputError::at(
                     loc,
-                    format!("unknown key '{other}'; did you mean '{key}'?"),
+                    format!("unknown key '{}'; did you mean '{key}'?", excerpt(other)),
                 );
             }
         }
@@ -350,7 +357,7 @@ impl<'s> TableReader<'s> {
                     .map(|h| format!("; did you mean '{h}'?"))
                     .unwrap_or_else(|| format!("; known keys here: {}", known.join(", ")));
                 let loc = self.source.location(value.span().start).with_field(self.full_key(key));
-                return Err(InputError::at(loc, format!("unknown key '{key}'{hint}")));
+                return Err(InputError::at(loc, format!("unknown key '{}'{hint}", excerpt(key))));
             }
         }
         Ok(())
@@ -368,7 +375,7 @@ impl<'s> TableReader<'s> {
                         format!("; known keys here: {}", known.join(", "))
                     });
                 let loc = self.source.location(value.span().start).with_field(self.full_key(key));
-                return Err(InputError::at(loc, format!("unknown key '{key}'{hint}")));
+                return Err(InputError::at(loc, format!("unknown key '{}'{hint}", excerpt(key))));
             }
         }
         Ok(())
@@ -377,9 +384,9 @@ impl<'s> TableReader<'s> {
 
 fn describe(v: &DeValue<'_>) -> String {
     match v {
-        DeValue::String(s) => format!("the string \"{s}\""),
-        DeValue::Integer(i) => format!("{i}"),
-        DeValue::Float(f) => format!("{f}"),
+        DeValue::String(s) => format!("the string \"{}\"", excerpt(s)),
+        DeValue::Integer(i) => excerpt(&i.to_string()),
+        DeValue::Float(f) => excerpt(&f.to_string()),
         DeValue::Boolean(b) => format!("{b}"),
         DeValue::Datetime(d) => format!("the date {d}"),
         DeValue::Array(_) => "an array".to_string(),
