@@ -30,5 +30,7 @@ mod cli_tooling;
 mod cli_tooling_files;
 #[path = "modal_report.rs"]
 mod modal_report;
+#[path = "mutation_gate.rs"]
+mod mutation_gate;
 #[path = "snapshot_commands.rs"]
 mod snapshot_commands;
