@@ -160,16 +160,14 @@ impl BladeModel {
     }
 
     fn integrate_mass(&self) -> BladeMass {
-        let (r0, r1) = (self.blade.root_radius(), self.blade.tip_radius());
-        let n = 400;
-        let h = (r1 - r0) / n as f64;
+        // The laminates' mass per unit span at the midpoints of equal intervals, shared with the
+        // tooling's schedule content.
+        let table = self.blade.span_content();
         let (mut m, mut s) = (0.0, 0.0);
-        for i in 0..n {
-            // Midpoint rule: never samples exactly at a drop-off.
-            let r = r0 + (i as f64 + 0.5) * h;
-            let w = self.blade.ply_mass_per_length(r, 120).unwrap_or(0.0) * h;
+        for row in &table.rows {
+            let w = row.mass * table.h;
             m += w;
-            s += w * r;
+            s += w * row.r;
         }
         let pm: f64 = self.project.point_masses.iter().map(|p| p.mass).sum();
         let pm_moment: f64 = self.project.point_masses.iter().map(|p| p.mass * p.r).sum();

@@ -117,30 +117,6 @@ impl Blade {
         r: f64,
         n_per_surface: usize,
     ) -> Result<f64, super::BladeError> {
-        let outline = self.outline(r, n_per_surface)?;
-        let c = self.chord(r);
-        let mut m = 0.0;
-        for (surface, pts) in [(Surface::Upper, &outline.upper), (Surface::Lower, &outline.lower)] {
-            for w in pts.windows(2) {
-                let x = 0.5 * (w[0][0] + w[1][0]);
-                let len = c * (w[1][0] - w[0][0]).hypot(w[1][1] - w[0][1]);
-                m += len * self.surface_laminate(r, surface, x).areal_mass();
-            }
-        }
-        if outline.blunt_te() {
-            let (u, l) =
-                (outline.upper[outline.upper.len() - 1], outline.lower[outline.lower.len() - 1]);
-            m += c
-                * (u[0] - l[0]).hypot(u[1] - l[1])
-                * self.surface_laminate(r, Surface::Upper, 1.0).areal_mass();
-        }
-        for web in self.webs.iter().filter(|w| self.web_present(w, r)) {
-            let depth = outline.depth_at(web.chord_frac) * c;
-            let lam = self.web_laminate(r, &web.name);
-            let walls = self.surface_thickness(r, Surface::Upper, web.chord_frac)
-                + self.surface_thickness(r, Surface::Lower, web.chord_frac);
-            m += (depth - walls).max(0.0) * lam.areal_mass();
-        }
-        Ok(m)
+        Ok(self.content_row(r, n_per_surface)?.mass)
     }
 }

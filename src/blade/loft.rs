@@ -1,6 +1,8 @@
 //! Interpolation along the span: chord, twist and pitch axis by a monotone cubic, outlines by
 //! linear blending at equal normalised arc length.
 
+use std::sync::{Arc, Mutex};
+
 use super::ResolvedStation;
 use crate::airfoil::{Outline, clustered_stations};
 use crate::input::Station;
@@ -48,14 +50,58 @@ impl SpanInterpolation {
         (i - 1, i, w)
     }
 
-    pub(super) fn outline(&self, stations: &[ResolvedStation], r: f64, n: usize) -> Outline {
-        let t = clustered_stations(n);
+    /// The outline at `r` blended from the stations' outlines resampled at one count (see
+    /// [`ResampledOutlines`]).
+    pub(super) fn outline(&self, resampled: &[Outline], r: f64) -> Outline {
         let (i, j, w) = self.bracket(r);
-        let a = stations[i].outline.resample(&t);
+        let a = &resampled[i];
         if w == 0.0 {
-            return a;
+            return a.clone();
         }
-        let b = stations[j].outline.resample(&t);
-        if w == 1.0 { b } else { a.blend(&b, w) }
+        let b = &resampled[j];
+        if w == 1.0 { b.clone() } else { a.blend(b, w) }
+    }
+}
+
+/// Every station's outline resampled at the clustered stations of a count of intervals per
+/// surface, computed once per count and kept: the resampling (a spline through the station's
+/// full outline) does not depend on the radius, only the blend between two stations does, so
+/// the section layouts and the span-wise integrations share one resampling per station.
+#[derive(Default)]
+pub(super) struct ResampledOutlines {
+    by_count: Mutex<Vec<(usize, Arc<[Outline]>)>>,
+}
+
+/// At most this many counts are kept; further counts are resampled on each call.
+const KEPT_COUNTS: usize = 8;
+
+impl ResampledOutlines {
+    /// The stations' outlines resampled with `n` intervals per surface.
+    pub(super) fn get(&self, stations: &[ResolvedStation], n: usize) -> Arc<[Outline]> {
+        let mut kept = self.by_count.lock().unwrap_or_else(|e| e.into_inner());
+        if let Some((_, o)) = kept.iter().find(|(k, _)| *k == n) {
+            return o.clone();
+        }
+        let t = clustered_stations(n);
+        let o: Arc<[Outline]> = stations.iter().map(|s| s.outline.resample(&t)).collect();
+        if kept.len() < KEPT_COUNTS {
+            kept.push((n, o.clone()));
+        }
+        o
+    }
+}
+
+impl Clone for ResampledOutlines {
+    fn clone(&self) -> Self {
+        let kept = self.by_count.lock().unwrap_or_else(|e| e.into_inner());
+        ResampledOutlines { by_count: Mutex::new(kept.clone()) }
+    }
+}
+
+impl std::fmt::Debug for ResampledOutlines {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        let kept = self.by_count.lock().unwrap_or_else(|e| e.into_inner());
+        let counts: Vec<usize> = kept.iter().map(|(k, _)| *k).collect();
+        f.debug_struct("ResampledOutlines").field("counts", &counts).finish()
     }
 }

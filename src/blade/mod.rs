@@ -33,12 +33,13 @@
 mod coverage;
 mod layout;
 mod loft;
+mod mass;
 mod surface;
 
 pub use coverage::Surface;
 pub use surface::{BladeSurfaces, CORE_EDGE_TAPER, PLY_DROP_TAPER};
 
-use std::sync::Arc;
+use std::sync::{Arc, OnceLock};
 
 use crate::airfoil::{Naca4, Outline};
 use crate::input::{AirfoilSpec, InputError, Location, PlySpec, Project, Rotor, WebSpec};
@@ -139,6 +140,10 @@ pub struct Blade {
     plies_file: String,
     /// What was changed to read the coordinate files (points reversed, repeats removed).
     notes: Vec<String>,
+    /// The stations' outlines resampled once per count of intervals.
+    resampled: loft::ResampledOutlines,
+    /// The laminates' content per unit span on the integration grid, computed on first use.
+    span_content: OnceLock<mass::SpanContent>,
 }
 
 impl Blade {
@@ -187,6 +192,8 @@ impl Blade {
             webs: project.webs.clone(),
             plies_file: project.files.plies.clone(),
             notes,
+            resampled: loft::ResampledOutlines::default(),
+            span_content: OnceLock::new(),
         })
     }
 
@@ -263,7 +270,7 @@ impl Blade {
     /// surface and blended between the neighbouring stations.
     pub fn outline(&self, r: f64, n_per_surface: usize) -> Result<Outline, BladeError> {
         self.check_span(r)?;
-        Ok(self.loft.outline(&self.stations, r, n_per_surface))
+        Ok(self.loft.outline(&self.resampled.get(&self.stations, n_per_surface), r))
     }
 
     /// A chord-frame point `(y, z)` of the section at `r` in the rotor frame at pitch setting

@@ -19,8 +19,15 @@ use super::vec3::{self, P3};
 
 const COPLANAR: f64 = 1e-12;
 
+/// `(x + y)² ≤ 2 (x² + y²)`, with a margin far above round-off: an orientation whose square
+/// exceeds the tolerance band squared by this bound (sums of squares only) is off the plane or
+/// line for certain, and no square root is taken; only within it is the band itself computed.
+/// The outcome is that of the band as stated, not an approximation of it.
+const SQUARE_BOUND: f64 = 2.000_001;
+
 /// A triangle with what the tests reuse: corners, vertex indices, area vector, the squared
-/// product of its two edge lengths from corner 0, and the distance of corner 0 from the origin.
+/// product of its two edge lengths from corner 0, and the distance of corner 0 from the origin
+/// (and its square).
 #[derive(Debug, Clone, Copy)]
 pub(crate) struct Facet {
     pub v: [u32; 3],
@@ -28,37 +35,72 @@ pub(crate) struct Facet {
     n: P3,
     uv2: f64,
     reach: f64,
+    reach2: f64,
 }
 
 impl Facet {
     pub fn new(mesh: &Mesh, t: usize) -> Self {
         let p = mesh.corners(t);
         let (u, v) = (vec3::sub(p[1], p[0]), vec3::sub(p[2], p[0]));
+        let reach2 = vec3::dot(p[0], p[0]);
         Facet {
             v: mesh.triangles[t],
             p,
             n: vec3::cross(u, v),
             uv2: vec3::dot(u, u) * vec3::dot(v, v),
-            reach: vec3::norm(p[0]),
+            reach: reach2.sqrt(),
+            reach2,
         }
+    }
+
+    /// The facet's axis-aligned box, `[least, greatest]`.
+    pub fn bounds(&self) -> [P3; 2] {
+        let [a, b, c] = self.p;
+        [[0, 1, 2].map(|k| a[k].min(b[k]).min(c[k])), [0, 1, 2].map(|k| a[k].max(b[k]).max(c[k]))]
     }
 
     /// `orient(p0, p1, p2, q)` from the stored area vector; zero when `q` lies within
     /// `COPLANAR` times (its distance from corner 0 plus the corner's distance from the origin)
     /// of the plane: computed coordinates carry round-off in proportion to their size, so
     /// near-coplanar facets far from the origin are not told apart by noise.
+    #[inline]
     fn side(&self, q: P3) -> f64 {
         let w = vec3::sub(q, self.p[0]);
         let det = vec3::dot(self.n, w);
-        let band = vec3::norm(w) + self.reach;
+        let ww = vec3::dot(w, w);
+        let tol2 = COPLANAR * COPLANAR * self.uv2;
+        if det * det > tol2 * SQUARE_BOUND * (ww + self.reach2) {
+            return det;
+        }
+        let band = ww.sqrt() + self.reach;
         if det * det <= COPLANAR * COPLANAR * self.uv2 * band * band { 0.0 } else { det }
+    }
+
+    /// The two axes to keep when projecting the facet's plane: the dominant normal component
+    /// dropped.
+    fn axes(&self) -> [usize; 2] {
+        let n = self.n.map(f64::abs);
+        if n[0] >= n[1] && n[0] >= n[2] {
+            [1, 2]
+        } else if n[1] >= n[2] {
+            [2, 0]
+        } else {
+            [0, 1]
+        }
     }
 }
 
 /// Orientation of `c` against the line `ab` in the plane; zero within `COPLANAR` times `c`'s
-/// distance from `a` plus `a`'s distance from the origin (as [`orient`]).
+/// distance from `a` plus `a`'s distance from the origin (as [`Facet::side`]).
+#[inline]
 fn orient_2d(a: [f64; 2], b: [f64; 2], c: [f64; 2]) -> f64 {
-    let det = (b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0]);
+    let (ab, ac) = ([b[0] - a[0], b[1] - a[1]], [c[0] - a[0], c[1] - a[1]]);
+    let det = ab[0] * ac[1] - ab[1] * ac[0];
+    let ab2 = ab[0] * ab[0] + ab[1] * ab[1];
+    let bound = ac[0] * ac[0] + ac[1] * ac[1] + a[0] * a[0] + a[1] * a[1];
+    if det * det > COPLANAR * COPLANAR * ab2 * SQUARE_BOUND * bound {
+        return det;
+    }
     let scale = vec3::dist_2d(a, b) * (vec3::dist_2d(a, c) + a[0].hypot(a[1]));
     if det.abs() <= COPLANAR * scale { 0.0 } else { det }
 }
@@ -72,12 +114,12 @@ fn same_strict_sign(a: f64, b: f64) -> bool {
 /// in the plane, or the crossing point found by interpolation), tested inside the triangle in the
 /// plane. Interpolating keeps a segment that grazes the plane well conditioned, where signs of
 /// orientations against the triangle's edges would be noise.
-fn segment_meets(p: P3, q: P3, t: &[P3; 3], op: f64, oq: f64) -> bool {
+fn segment_meets(p: P3, q: P3, f: &Facet, op: f64, oq: f64) -> bool {
     if same_strict_sign(op, oq) {
         return false;
     }
-    let axes = drop_axis(t);
-    let t2 = t.map(|v| project(v, axes));
+    let axes = f.axes();
+    let t2 = f.p.map(|v| project(v, axes));
     match (op == 0.0, oq == 0.0) {
         (true, true) => segment_meets_triangle_2d(project(p, axes), project(q, axes), &t2),
         (true, false) => inside_triangle_2d(project(p, axes), &t2),
@@ -86,18 +128,6 @@ fn segment_meets(p: P3, q: P3, t: &[P3; 3], op: f64, oq: f64) -> bool {
             let x = vec3::lerp(p, q, op / (op - oq));
             inside_triangle_2d(project(x, axes), &t2)
         }
-    }
-}
-
-/// The two axes to keep when projecting a plane: drop the dominant normal component.
-fn drop_axis(t: &[P3; 3]) -> [usize; 2] {
-    let n = vec3::area_vector(t[0], t[1], t[2]).map(f64::abs);
-    if n[0] >= n[1] && n[0] >= n[2] {
-        [1, 2]
-    } else if n[1] >= n[2] {
-        [2, 0]
-    } else {
-        [0, 1]
     }
 }
 
@@ -138,11 +168,16 @@ fn segment_meets_triangle_2d(p: [f64; 2], q: [f64; 2], t: &[[f64; 2]; 3]) -> boo
 
 /// Whether triangle `t` meets the corners of the other triangle `q` that lie in its plane
 /// (`dq[i] == 0`: one corner or one edge), tested in that plane.
-fn touches_in_plane(t: &[P3; 3], q: &[P3; 3], dq: [f64; 3]) -> bool {
-    let axes = drop_axis(t);
-    let t2 = t.map(|v| project(v, axes));
-    let on: Vec<[f64; 2]> = (0..3).filter(|&i| dq[i] == 0.0).map(|i| project(q[i], axes)).collect();
-    match on.as_slice() {
+fn touches_in_plane(t: &Facet, q: &[P3; 3], dq: [f64; 3]) -> bool {
+    let axes = t.axes();
+    let t2 = t.p.map(|v| project(v, axes));
+    let mut on = [[0.0; 2]; 3];
+    let mut count = 0;
+    for i in (0..3).filter(|&i| dq[i] == 0.0) {
+        on[count] = project(q[i], axes);
+        count += 1;
+    }
+    match &on[..count] {
         [p] => inside_triangle_2d(*p, &t2),
         [p, r] => segment_meets_triangle_2d(*p, *r, &t2),
         _ => false,
@@ -161,7 +196,7 @@ fn triangles_meet(fa: &Facet, fb: &Facet) -> bool {
         return false;
     }
     if da.iter().all(|&x| x == 0.0) || db.iter().all(|&x| x == 0.0) {
-        let axes = drop_axis(a);
+        let axes = fa.axes();
         let (a2, b2) = (a.map(|v| project(v, axes)), b.map(|v| project(v, axes)));
         return (0..3).any(|k| segment_meets_triangle_2d(a2[k], a2[(k + 1) % 3], &b2))
             || inside_triangle_2d(b2[0], &a2)
@@ -171,13 +206,13 @@ fn triangles_meet(fa: &Facet, fb: &Facet) -> bool {
     // its corners in that plane.
     let crosses = |d: &[f64; 3]| d.iter().any(|&x| x > 0.0) && d.iter().any(|&x| x < 0.0);
     if !crosses(&da) {
-        return touches_in_plane(a, b, da);
+        return touches_in_plane(fa, b, da);
     }
     if !crosses(&db) {
-        return touches_in_plane(b, a, db);
+        return touches_in_plane(fb, a, db);
     }
-    (0..3).any(|k| segment_meets(a[k], a[(k + 1) % 3], b, db[k], db[(k + 1) % 3]))
-        || (0..3).any(|k| segment_meets(b[k], b[(k + 1) % 3], a, da[k], da[(k + 1) % 3]))
+    (0..3).any(|k| segment_meets(a[k], a[(k + 1) % 3], fb, db[k], db[(k + 1) % 3]))
+        || (0..3).any(|k| segment_meets(b[k], b[(k + 1) % 3], fa, da[k], da[(k + 1) % 3]))
 }
 
 /// Whether two triangles sharing exactly the corner `a[ia] == b[ib]` meet anywhere else.
@@ -185,8 +220,7 @@ fn triangles_meet_at_corner(a: &Facet, ia: usize, b: &Facet, ib: usize) -> bool 
     let opposite = |t: &[P3; 3], i: usize| (t[(i + 1) % 3], t[(i + 2) % 3]);
     let (p, q) = opposite(&a.p, ia);
     let (r, s) = opposite(&b.p, ib);
-    segment_meets(p, q, &b.p, b.side(p), b.side(q))
-        || segment_meets(r, s, &a.p, a.side(r), a.side(s))
+    segment_meets(p, q, b, b.side(p), b.side(q)) || segment_meets(r, s, a, a.side(r), a.side(s))
 }
 
 /// Whether two triangles sharing an edge are folded flat onto each other.
@@ -231,6 +265,74 @@ mod tests {
         }
         m.triangles.push([0, 1, 2]);
         Facet::new(&m, 0)
+    }
+
+    /// The band with its square roots, as first written: the reference that the bounds which
+    /// spare them must decide alike.
+    fn orient_2d_plain(a: [f64; 2], b: [f64; 2], c: [f64; 2]) -> f64 {
+        let det = (b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0]);
+        let scale = vec3::dist_2d(a, b) * (vec3::dist_2d(a, c) + a[0].hypot(a[1]));
+        if det.abs() <= COPLANAR * scale { 0.0 } else { det }
+    }
+
+    fn side_plain(f: &Facet, q: P3) -> f64 {
+        let w = vec3::sub(q, f.p[0]);
+        let det = vec3::dot(f.n, w);
+        let band = vec3::norm(w) + f.reach;
+        if det * det <= COPLANAR * COPLANAR * f.uv2 * band * band { 0.0 } else { det }
+    }
+
+    #[test]
+    fn the_square_root_free_bounds_decide_as_the_band_does() {
+        // Points placed off a line or plane by multiples of the band (0.3 to 3 times it, both
+        // sides of the threshold), at distances from the origin of a micrometre to a kilometre:
+        // every orientation equals the plain band's, bit for bit.
+        let mut seed = 0x9e37_79b9_7f4a_7c15u64;
+        let mut rnd = || {
+            seed ^= seed << 13;
+            seed ^= seed >> 7;
+            seed ^= seed << 17;
+            (seed >> 11) as f64 / (1u64 << 53) as f64 - 0.5
+        };
+        let (mut zeros, mut signs) = (0, 0);
+        for trial in 0..20_000 {
+            let scale = 10f64.powf(-6.0 + 9.0 * (rnd() + 0.5));
+            let size = scale * 10f64.powf(-3.0 * (rnd() + 0.5));
+            let k = [0.3, 0.9, 0.999, 1.001, 1.1, 3.0][trial % 6];
+            // In the plane: c on the line ab, moved across it by k times the band.
+            let a = [scale * rnd(), scale * rnd()];
+            let b = [a[0] + size * rnd(), a[1] + size * rnd()];
+            let t = 2.0 * rnd();
+            let on = [a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])];
+            let ab = vec3::dist_2d(a, b);
+            let band = COPLANAR * (vec3::dist_2d(a, on) + a[0].hypot(a[1]));
+            let off = k * band * rnd().signum();
+            let c = [on[0] - off * (b[1] - a[1]) / ab, on[1] + off * (b[0] - a[0]) / ab];
+            let (fast, plain) = (orient_2d(a, b, c), orient_2d_plain(a, b, c));
+            assert_eq!(fast.to_bits(), plain.to_bits(), "trial {trial}: {a:?} {b:?} {c:?}");
+            // In space: q moved off the facet's plane by k times the band.
+            let p0 = [scale * rnd(), scale * rnd(), scale * rnd()];
+            let p1 = [0, 1, 2].map(|i| p0[i] + size * rnd());
+            let p2 = [0, 1, 2].map(|i| p0[i] + size * rnd());
+            let f = tri([p0, p1, p2]);
+            let (s, t) = (2.0 * rnd(), 2.0 * rnd());
+            let inplane = [0, 1, 2].map(|i| p0[i] + s * (p1[i] - p0[i]) + t * (p2[i] - p0[i]));
+            let unit = vec3::scale(f.n, 1.0 / vec3::norm(f.n));
+            let w = vec3::dist(inplane, p0);
+            let band = COPLANAR * f.uv2.sqrt() / vec3::norm(f.n) * (w + f.reach);
+            let q = vec3::add(inplane, vec3::scale(unit, k * band * rnd().signum()));
+            let (fast, plain) = (f.side(q), side_plain(&f, q));
+            assert_eq!(fast.to_bits(), plain.to_bits(), "trial {trial}: {:?} {q:?}", f.p);
+            for v in [plain, orient_2d_plain(a, b, c)] {
+                if v == 0.0 {
+                    zeros += 1;
+                } else {
+                    signs += 1;
+                }
+            }
+        }
+        // Both outcomes must occur often, or the comparison proves little.
+        assert!(zeros > 4_000 && signs > 4_000, "{zeros} zero, {signs} signed");
     }
 
     #[test]

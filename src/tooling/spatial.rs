@@ -1,109 +1,138 @@
-//! The broad phase of the self-intersection check: a uniform grid of cells over the bounding
-//! box, filled by a counting sort, yields the pairs of triangles whose boxes overlap; the narrow
-//! phase ([`super::intersect`]) tests each pair once.
+//! The broad phase of the self-intersection check: a grid of cells sized to the triangles, kept
+//! sparse by hashing the occupied cells into a table that a counting sort fills, yields the pairs
+//! of triangles whose boxes overlap; the narrow phase ([`super::intersect`]) tests each pair.
+//!
+//! A grid over the bounding box of a thin shell (a blade skin, a mould cavity) is almost all
+//! empty: sized to its box, its cells must grow until each holds many triangles, and the pairs
+//! grow faster than the triangles. Hashed, the cells stay the size of the triangles whatever the
+//! shape, and the work grows with the count of triangles.
 
 use super::intersect::{Facet, facets_meet};
 use super::mesh::Mesh;
 use super::vec3::P3;
 
-/// Calls `f` with the dense index of every cell in the index box `r`.
-fn for_cells(r: &[[usize; 3]; 2], dims: [usize; 3], mut f: impl FnMut(usize)) {
+/// Triangles that would cover more cells than this are tested against all others by box overlap.
+const BIG: usize = 512;
+
+/// Cell entries per triangle on average beyond which the cells are made larger.
+const MEAN_COVER: f64 = 8.0;
+
+/// A cell's indices along x, y and z.
+type Cell = [u32; 3];
+
+/// The slot of a cell in a hash table of `1 << bits` slots (multiplicative hashing).
+#[inline]
+fn slot(c: Cell, bits: u32) -> usize {
+    let key = u64::from(c[0]) | (u64::from(c[1]) << 21) | (u64::from(c[2]) << 42);
+    (key.wrapping_mul(0x9e37_79b9_7f4a_7c15) >> (64 - bits)) as usize
+}
+
+/// Calls `f` with every cell of the index box `r`.
+#[inline]
+fn for_cells(r: &[Cell; 2], mut f: impl FnMut(Cell)) {
     for z in r[0][2]..=r[1][2] {
         for y in r[0][1]..=r[1][1] {
             for x in r[0][0]..=r[1][0] {
-                f(x + dims[0] * (y + dims[1] * z));
+                f([x, y, z]);
             }
         }
     }
 }
 
-/// The first pair of triangles that meet, if any. Candidate pairs come from a uniform grid over
-/// the bounding box whose cell, per axis, is twice the mean extent of the triangles (coarsened
-/// until there are at most about four cells per triangle), filled by a counting sort; a pair is
-/// tested once, in the lowest cell the two share. Triangles that would cover more than `BIG`
-/// cells are tested against all others by box overlap instead.
+fn covers(r: &[Cell; 2]) -> usize {
+    (0..3).map(|k| (r[1][k] - r[0][k]) as usize + 1).product()
+}
+
+fn overlap(a: &[P3; 2], b: &[P3; 2]) -> bool {
+    (0..3).all(|k| a[0][k] <= b[1][k] && b[0][k] <= a[1][k])
+}
+
+/// The first pair of triangles that meet, if any. Each triangle's data are computed once.
+/// Candidate pairs come from a grid whose cell, per axis, is twice the mean extent of the
+/// triangles along it (made larger only if the triangles would cover more than eight cells each
+/// on average), its occupied cells hashed into a table of slots filled by a counting sort. A pair
+/// whose boxes overlap shares its lowest common cell, so it is tested in that cell's slot and no
+/// other (two cells in one slot cost only candidates rejected by their boxes). Triangles that
+/// would cover more than `BIG` cells are tested against all others by box overlap instead.
 pub(crate) fn find_self_intersection(mesh: &Mesh) -> Option<(usize, usize)> {
-    const BIG: usize = 512;
     let n = mesh.len();
     let bbox = mesh.bounding_box()?;
-    let boxes: Vec<[P3; 2]> = (0..n)
-        .map(|t| {
-            let [a, b, c] = mesh.corners(t);
-            let lo = [0, 1, 2].map(|k| a[k].min(b[k]).min(c[k]));
-            let hi = [0, 1, 2].map(|k| a[k].max(b[k]).max(c[k]));
-            [lo, hi]
-        })
-        .collect();
+    let facets: Vec<Facet> = (0..n).map(|t| Facet::new(mesh, t)).collect();
+    let boxes: Vec<[P3; 2]> = facets.iter().map(Facet::bounds).collect();
     let ext = bbox.extent();
     let mut cell = [0.0; 3];
     for k in 0..3 {
         let mean = boxes.iter().map(|b| b[1][k] - b[0][k]).sum::<f64>() / n as f64;
+        // At most about a million cells along an axis, so that indices fit their 21 bits.
         cell[k] = (2.0 * mean).max(ext[k] * 1e-6).max(f64::MIN_POSITIVE);
     }
-    let limit = 4.0 * n as f64 + 64.0;
-    let dims = loop {
-        let dims = [0, 1, 2].map(|k| (ext[k] / cell[k]).floor() + 1.0);
-        let total = dims[0] * dims[1] * dims[2];
-        if total <= limit {
-            break dims.map(|d| d as usize);
+    let range_of = |b: &[P3; 2], cell: &[f64; 3]| -> [Cell; 2] {
+        let index = |p: P3| {
+            [0, 1, 2].map(|k| {
+                let i = ((p[k] - bbox.min[k]) / cell[k]).floor();
+                i.clamp(0.0, f64::from((1u32 << 21) - 1)) as u32
+            })
+        };
+        [index(b[0]), index(b[1])]
+    };
+    let mut ranges: Vec<[Cell; 2]>;
+    loop {
+        ranges = boxes.iter().map(|b| range_of(b, &cell)).collect();
+        let entries: usize = ranges.iter().map(covers).filter(|&c| c <= BIG).sum();
+        if entries as f64 <= MEAN_COVER * n as f64 {
+            break;
         }
-        let grow = (total / limit).cbrt() * 1.01;
+        let grow = (entries as f64 / (MEAN_COVER * n as f64)).cbrt() * 1.01;
         cell = cell.map(|c| c * grow);
-    };
-    let index = |p: P3| -> [usize; 3] {
-        [0, 1, 2].map(|k| (((p[k] - bbox.min[k]) / cell[k]) as usize).min(dims[k] - 1))
-    };
-    let dense = |c: [usize; 3]| c[0] + dims[0] * (c[1] + dims[1] * c[2]);
-    let overlap = |i: usize, j: usize| {
-        (0..3).all(|k| boxes[i][0][k] <= boxes[j][1][k] && boxes[j][0][k] <= boxes[i][1][k])
-    };
-    let ranges: Vec<[[usize; 3]; 2]> = boxes.iter().map(|b| [index(b[0]), index(b[1])]).collect();
-    let covers = |r: &[[usize; 3]; 2]| (0..3).map(|k| r[1][k] - r[0][k] + 1).product::<usize>();
-    // Counting sort of (cell, triangle) entries.
-    let total = dims[0] * dims[1] * dims[2];
-    let mut first = vec![0u32; total + 1];
+    }
+    // Counting sort of (slot, triangle) entries.
+    let entries: usize = ranges.iter().map(covers).filter(|&c| c <= BIG).sum();
+    let bits = (entries.max(16).next_power_of_two().trailing_zeros() + 1).min(40);
+    let slots = 1usize << bits;
+    let mut first = vec![0u32; slots + 1];
     let mut big = Vec::new();
     for (t, r) in ranges.iter().enumerate() {
         if covers(r) > BIG {
             big.push(t);
         } else {
-            for_cells(r, dims, |c| first[c + 1] += 1);
+            for_cells(r, |c| first[slot(c, bits) + 1] += 1);
         }
     }
-    for c in 0..total {
-        first[c + 1] += first[c];
+    for s in 0..slots {
+        first[s + 1] += first[s];
     }
     let mut fill = first.clone();
-    let mut entries = vec![0u32; first[total] as usize];
+    let mut entry = vec![0u32; first[slots] as usize];
     for (t, r) in ranges.iter().enumerate() {
         if covers(r) <= BIG {
-            for_cells(r, dims, |c| {
-                entries[fill[c] as usize] = t as u32;
-                fill[c] += 1;
+            for_cells(r, |c| {
+                let s = slot(c, bits);
+                entry[fill[s] as usize] = t as u32;
+                fill[s] += 1;
             });
         }
     }
-    // Each cell's triangles gathered with their boxes and lowest cell indices, so the pair loop
-    // reads contiguous memory.
-    let mut local: Vec<(usize, [P3; 2], [usize; 3], Facet)> = Vec::new();
-    for c in 0..total {
-        let list = &entries[first[c] as usize..first[c + 1] as usize];
+    drop(fill);
+    for s in 0..slots {
+        let list = &entry[first[s] as usize..first[s + 1] as usize];
         if list.len() < 2 {
             continue;
         }
-        local.clear();
-        local.extend(list.iter().map(|&t| {
-            (t as usize, boxes[t as usize], ranges[t as usize][0], Facet::new(mesh, t as usize))
-        }));
-        for (k, (ta, ba, la, fa)) in local.iter().enumerate() {
-            for (tb, bb, lb, fb) in &local[k + 1..] {
-                let (ta, tb) = (*ta, *tb);
-                let apart = (0..3).any(|k| ba[0][k] > bb[1][k] || bb[0][k] > ba[1][k]);
-                // Test the pair only in the lowest cell both cover.
-                if apart || dense([0, 1, 2].map(|k| la[k].max(lb[k]))) != c {
+        for (k, &ta) in list.iter().enumerate() {
+            let ta = ta as usize;
+            let (ba, la) = (&boxes[ta], ranges[ta][0]);
+            for &tb in &list[k + 1..] {
+                let tb = tb as usize;
+                // A triangle can fall in one slot by two cells.
+                if tb == ta || !overlap(ba, &boxes[tb]) {
                     continue;
                 }
-                if facets_meet(fa, fb) {
+                // Test the pair only in the slot of the lowest cell both cover.
+                let lb = ranges[tb][0];
+                if slot([0, 1, 2].map(|i| la[i].max(lb[i])), bits) != s {
+                    continue;
+                }
+                if facets_meet(&facets[ta], &facets[tb]) {
                     return Some((ta.min(tb), ta.max(tb)));
                 }
             }
@@ -114,8 +143,8 @@ pub(crate) fn find_self_intersection(mesh: &Mesh) -> Option<(usize, usize)> {
             let earlier_big = big[..k].binary_search(&tb).is_ok();
             if tb != ta
                 && !earlier_big
-                && overlap(ta, tb)
-                && facets_meet(&Facet::new(mesh, ta), &Facet::new(mesh, tb))
+                && overlap(&boxes[ta], &boxes[tb])
+                && facets_meet(&facets[ta], &facets[tb])
             {
                 return Some((ta.min(tb), ta.max(tb)));
             }
@@ -159,5 +188,67 @@ mod tests {
         }
         // Both outcomes must occur, or the comparison proves little.
         assert!(meeting > 0 && meeting < 40, "{meeting} of 40 soups intersect");
+    }
+
+    /// Two parallel sheets 1 m by 0.1 m, 1 mm apart, of `nx` by `ny` squares each split in two:
+    /// a thin shell whose bounding box is almost all empty.
+    fn slab(nx: usize, ny: usize) -> Mesh {
+        let mut m = Mesh::new();
+        for z in [0.0005, -0.0005] {
+            let base = m.vertices.len() as u32;
+            for j in 0..=ny {
+                for i in 0..=nx {
+                    m.push_vertex([i as f64 / nx as f64, 0.1 * j as f64 / ny as f64, z]);
+                }
+            }
+            let at = |i: usize, j: usize| base + (i + j * (nx + 1)) as u32;
+            for j in 0..ny {
+                for i in 0..nx {
+                    m.triangles.push([at(i, j), at(i + 1, j), at(i + 1, j + 1)]);
+                    m.triangles.push([at(i, j), at(i + 1, j + 1), at(i, j + 1)]);
+                }
+            }
+        }
+        m
+    }
+
+    fn brute(m: &Mesh) -> bool {
+        (0..m.len())
+            .flat_map(|i| (i + 1..m.len()).map(move |j| (i, j)))
+            .any(|(i, j)| pair_meets(m, i, j))
+    }
+
+    #[test]
+    fn a_thin_shell_with_a_dent_and_large_facets_agrees_with_all_pairs() {
+        // Apart as built; a vertex of the upper sheet pushed through the lower one; a facet that
+        // covers the whole slab just above it (apart) and one that cuts through it (meets): the
+        // grid search agrees with testing every pair in each case.
+        let plain = slab(40, 6);
+        assert!(!brute(&plain));
+        assert_eq!(find_self_intersection(&plain), None);
+
+        let mut dented = slab(40, 6);
+        dented.vertices[20 + 3 * 41][2] = -0.002;
+        assert!(brute(&dented));
+        let found = find_self_intersection(&dented);
+        assert!(found.is_some_and(|(a, b)| pair_meets(&dented, a, b)), "{found:?}");
+
+        let mut over = slab(40, 6);
+        let base = over.vertices.len() as u32;
+        for p in [[-0.1, -0.1, 0.001], [1.1, -0.1, 0.001], [0.5, 0.3, 0.001]] {
+            over.push_vertex(p);
+        }
+        over.triangles.push([base, base + 1, base + 2]);
+        assert!(!brute(&over));
+        assert_eq!(find_self_intersection(&over), None);
+
+        let mut cut = over.clone();
+        let b = base as usize;
+        cut.vertices[b][2] = 0.01;
+        cut.vertices[b + 1][2] = 0.01;
+        cut.vertices[b + 2] = [0.5, 0.2, -0.01];
+        assert!(brute(&cut));
+        let found = find_self_intersection(&cut);
+        assert!(found.is_some_and(|(a, b)| pair_meets(&cut, a, b)), "{found:?}");
     }
 }

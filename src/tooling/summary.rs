@@ -22,10 +22,9 @@
 //!   comparison not checked.
 
 use super::blade_parts::{BladeTooling, PartKind};
-use crate::blade::{Blade, Surface};
+use crate::blade::Blade;
 use crate::input::Project;
-use crate::laminate::Laminate;
-use crate::material::{Isotropic, LaminaKind, Material};
+use crate::material::{Isotropic, Material};
 
 /// Volume, mass and resin mass of the ply schedule over the blade's stations.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -38,64 +37,17 @@ pub struct ScheduleContent {
     pub resin: Option<f64>,
 }
 
-/// Per unit area of a laminate: thickness (m), mass (kg/m²), resin (kg/m²).
-fn content_of(lam: &Laminate) -> (f64, f64, Option<f64>) {
-    let mut resin = Some(0.0);
-    for p in lam.plies() {
-        let m = &p.material;
-        let r = match (m.kind, m.fibre_volume_fraction, m.resin_density) {
-            (LaminaKind::Isotropic, _, _) => Some(0.0),
-            (_, Some(vf), Some(rho)) => Some((1.0 - vf) * rho * p.thickness),
-            _ => None,
-        };
-        resin = resin.zip(r).map(|(a, b)| a + b);
-    }
-    (lam.thickness(), lam.areal_mass(), resin)
-}
-
-/// The schedule's content per unit span at radius `r` (volume m²/m, mass kg/m, resin kg/m).
-fn content_per_length(blade: &Blade, r: f64) -> (f64, f64, Option<f64>) {
-    let Ok(outline) = blade.outline(r, 120) else { return (0.0, 0.0, Some(0.0)) };
-    let c = blade.chord(r);
-    let (mut v, mut m, mut resin) = (0.0, 0.0, Some(0.0));
-    let mut add = |len: f64, lam: &Laminate| {
-        let (t, am, rm) = content_of(lam);
-        v += len * t;
-        m += len * am;
-        resin = resin.zip(rm).map(|(a, b)| a + len * b);
-    };
-    for (surface, pts) in [(Surface::Upper, &outline.upper), (Surface::Lower, &outline.lower)] {
-        for w in pts.windows(2) {
-            let x = 0.5 * (w[0][0] + w[1][0]);
-            let len = c * (w[1][0] - w[0][0]).hypot(w[1][1] - w[0][1]);
-            add(len, &blade.surface_laminate(r, surface, x));
-        }
-    }
-    if outline.blunt_te() {
-        let (u, l) =
-            (outline.upper[outline.upper.len() - 1], outline.lower[outline.lower.len() - 1]);
-        add(c * (u[0] - l[0]).hypot(u[1] - l[1]), &blade.surface_laminate(r, Surface::Upper, 1.0));
-    }
-    for web in blade.webs().iter().filter(|w| r >= w.r_start - 1e-9 && r <= w.r_end + 1e-9) {
-        let depth = outline.depth_at(web.chord_frac) * c;
-        let walls = blade.surface_thickness(r, Surface::Upper, web.chord_frac)
-            + blade.surface_thickness(r, Surface::Lower, web.chord_frac);
-        add((depth - walls).max(0.0), &blade.web_laminate(r, &web.name));
-    }
-    (v, m, resin)
-}
-
 /// What the ply schedule holds over the blade's stations (see the module docs).
 pub fn schedule_content(blade: &Blade) -> ScheduleContent {
-    let (r0, r1) = (blade.root_radius(), blade.tip_radius());
-    let n = 400;
-    let h = (r1 - r0) / n as f64;
+    // The laminates' content per unit span at the midpoints of equal intervals, shared with the
+    // blade's mass.
+    let table = blade.span_content();
+    let h = table.h;
     let (mut volume, mut mass, mut resin) = (0.0, 0.0, Some(0.0));
-    for i in 0..n {
-        let (v, m, rm) = content_per_length(blade, r0 + (i as f64 + 0.5) * h);
-        volume += v * h;
-        mass += m * h;
-        resin = resin.zip(rm).map(|(a, b)| a + b * h);
+    for row in &table.rows {
+        volume += row.volume * h;
+        mass += row.schedule_mass * h;
+        resin = resin.zip(row.resin).map(|(a, b)| a + b * h);
     }
     ScheduleContent { volume, mass, resin }
 }
