@@ -10,6 +10,8 @@ mod support;
 
 #[path = "blade_geometry.rs"]
 mod blade_geometry;
+#[path = "mass_integration.rs"]
+mod mass_integration;
 #[path = "modal_laws.rs"]
 mod modal_laws;
 #[path = "module_flow.rs"]
