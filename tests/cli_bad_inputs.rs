@@ -538,3 +538,25 @@ fn carriage_return_line_ends_are_read_everywhere() {
     c.edit("blade.toml", "blades = 9", "blades = 0");
     c.refused("check", &[], &["blade.toml line 7, rotor.blades"]);
 }
+
+#[test]
+fn a_missing_project_file_is_named_by_its_key() {
+    Copy::of("mine-fan")
+        .edit("blade.toml", "stations = \"stations.csv\"", "stations = \"stationz.csv\"")
+        .refused(
+            "check",
+            &[],
+            &["DIR/blade.toml line 18, files.stations: cannot read DIR/stationz.csv"],
+        );
+    Copy::of("mine-fan")
+        .edit(
+            "blade.toml",
+            "distributed = \"loads-surge.csv\"",
+            "distributed = \"loads-surges.csv\"",
+        )
+        .refused(
+            "check",
+            &[],
+            &["DIR/blade.toml line 48, load_case[3].distributed: cannot read DIR/loads-surges.csv"],
+        );
+}

@@ -189,8 +189,8 @@ fn copy_demo(demo: &str, to: &Path) -> Vec<String> {
     files
 }
 
-/// Whether an error message names a file with a line or a key: `FILE line N`, `FILE, KEY`, or
-/// a command option (`--tolerance-mm: ...`).
+/// Whether an error message names a file with a line or a key: `FILE line N`, `FILE, KEY`, a
+/// file and `(station near line N)`, or a command option (`--tolerance-mm: ...`).
 fn names_its_place(message: &str) -> bool {
     let m = message.trim_start_matches("layloft: error: ");
     if m.starts_with("--") {
@@ -199,7 +199,8 @@ fn names_its_place(message: &str) -> bool {
     let Some(colon) = m.find(": ") else { return false };
     let place = &m[..colon];
     let file = [".toml", ".csv", ".dat"].iter().any(|e| place.contains(e));
-    let line = place.contains(" line ");
+    // A blade error names the plies file and the nearest station's line in its text.
+    let line = place.contains(" line ") || m.contains("(station near line ");
     let key = place.contains(", ");
     file && (line || key)
 }
@@ -212,14 +213,19 @@ fn entries(dir: &Path) -> Vec<PathBuf> {
 
 #[test]
 fn careless_edits_of_the_demos_never_crash_and_always_name_the_place() {
+    // A longer search with another seed: LAYLOFT_MUTATION_SEED=N LAYLOFT_MUTATION_SECONDS=S.
+    let env = |k: &str| std::env::var(k).ok().and_then(|v| v.parse::<u64>().ok());
+    let seed = env("LAYLOFT_MUTATION_SEED").unwrap_or(SEED);
+    let budget = env("LAYLOFT_MUTATION_SECONDS").map_or(BUDGET, Duration::from_secs);
+    let max_trials = if budget > BUDGET { usize::MAX } else { MAX_TRIALS };
     let start = Instant::now();
-    let mut rng = Rng(SEED);
+    let mut rng = Rng(seed);
     let mut faults = Vec::new();
     let mut counts = [0usize; 4];
     let mut trials = 0;
-    while trials < MAX_TRIALS && start.elapsed() < BUDGET {
+    while trials < max_trials && start.elapsed() < budget {
         trials += 1;
-        let demo = *rng.pick(&["mine-fan", "small-wind"]);
+        let demo = *rng.pick(&["mine-fan", "small-wind", "round-root"]);
         let dir = tempfile::tempdir().expect("temporary folder");
         let files = copy_demo(demo, dir.path());
         let file = rng.pick(&files).clone();
@@ -228,7 +234,9 @@ fn careless_edits_of_the_demos_never_crash_and_always_name_the_place() {
         let (edit, edited) = mutate(&mut rng, &file, &text);
         fs::write(&path, edited).expect("write");
         // Mostly the design check; now and then the tooling, which writes into a folder.
-        let tooling = rng.below(4) == 0;
+        // (Not the round root: its tooling is refused as a whole, sharp and blunt trailing
+        // edges mixed, with a message that names blade.toml alone.)
+        let tooling = rng.below(4) == 0 && demo != "round-root";
         let out_dir = dir.path().join("out");
         fs::create_dir(&out_dir).expect("output folder");
         let mut cmd = Command::cargo_bin("layloft").expect("binary");
@@ -243,7 +251,7 @@ fn careless_edits_of_the_demos_never_crash_and_always_name_the_place() {
             .output()
             .expect("layloft runs");
         let stderr = String::from_utf8_lossy(&out.stderr).to_string();
-        let what = format!("trial {trials} (seed {SEED:#x}): {demo}/{file}: {edit}");
+        let what = format!("trial {trials} (seed {seed:#x}): {demo}/{file}: {edit}");
         match out.status.code() {
             Some(c @ 0..=2) => counts[c as usize] += 1,
             Some(c) => faults.push(format!("{what}: exit status {c}: {stderr}")),

@@ -100,9 +100,9 @@ impl BladeModel {
         for (i, &r) in radii.iter().enumerate() {
             let (layout, plies) = blade
                 .section_layout_with_plies(r, project.sections.contour_points)
-                .map_err(|e| placed(&project, r, e.into()))?;
+                .map_err(|e| place_at_station(&project, r, e.into()))?;
             let section = SolvedSection::solve(&layout, &params)
-                .map_err(|e| placed(&project, r, e.into()))?;
+                .map_err(|e| place_at_station(&project, r, e.into()))?;
             stations.push(AnalysisStation { layout, plies, section });
             progress(i + 1, radii.len());
         }
@@ -218,19 +218,16 @@ impl BladeModel {
     }
 }
 
-/// An error of the section at radius `r` that names no file (a section error) placed at the
-/// nearest station of the stations file, so that the user knows where to look; errors that name
-/// their file already are left as they are.
-fn placed(project: &Project, r: f64, e: Error) -> Error {
-    let names_file = match &e {
-        Error::Input(_) => true,
-        Error::Section(_) => false,
-        other => {
-            other.to_string().starts_with(&project.files.stations)
-                || other.to_string().starts_with(&project.files.plies)
-        }
-    };
-    if names_file {
+/// An error of the section at radius `r` that names no line of an input file (a section error,
+/// or a blade error naming only the plies file, such as a web without plies) placed at the nearest station of the stations
+/// file, so that the user knows where to look; input errors, which carry their own place, are
+/// left as they are.
+pub fn place_at_station(project: &Project, r: f64, e: Error) -> Error {
+    if let Error::Input(_) = e {
+        return e;
+    }
+    let text = e.to_string();
+    if text.contains(" line ") {
         return e;
     }
     let nearest =
@@ -243,7 +240,7 @@ fn placed(project: &Project, r: f64, e: Error) -> Error {
     };
     crate::input::InputError::at(
         location,
-        format!("{e} (this is the station nearest to r = {r:.4} m)"),
+        format!("{text} (this is the station nearest to r = {r:.4} m)"),
     )
     .into()
 }

@@ -96,7 +96,9 @@ fn configure(args: &Args) -> Result<Config, Failure> {
     let blade = Blade::from_project(&project).map_err(input)?;
     // Walls thicker than the section at a station are bad input, named by the plies file.
     for r in blade.station_radii() {
-        blade.section_layout(r, project.sections.contour_points).map_err(input)?;
+        blade
+            .section_layout(r, project.sections.contour_points)
+            .map_err(|e| input(layloft::analysis::place_at_station(&project, r, e.into())))?;
     }
     let spec = project.tooling.clone().unwrap_or_default();
     let mut params = ToolingParams::from_spec(&spec).map_err(|e| mesh_failure(&project.file, e))?;

@@ -118,16 +118,23 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
     let name = doc.required_str("name")?;
     let mut warnings = Vec::new();
     let (rotor, range_given, places) = read_rotor(&mut doc.required_table("rotor")?)?;
-    let (stations_file, plies_file, materials_file) = match doc.optional_table("files")? {
-        Some(mut f) => {
-            let s = f.optional_str("stations")?.unwrap_or_else(|| "stations.csv".into());
-            let p = f.optional_str("plies")?.unwrap_or_else(|| "plies.csv".into());
-            let m = f.optional_str("materials")?.unwrap_or_else(|| "materials.toml".into());
-            f.finish()?;
-            (s, p, m)
-        }
-        None => ("stations.csv".into(), "plies.csv".into(), "materials.toml".into()),
-    };
+    let keys = ["stations", "plies", "materials"];
+    let (stations_file, plies_file, materials_file, file_places) =
+        match doc.optional_table("files")? {
+            Some(mut f) => {
+                let s = f.optional_str("stations")?.unwrap_or_else(|| "stations.csv".into());
+                let p = f.optional_str("plies")?.unwrap_or_else(|| "plies.csv".into());
+                let m = f.optional_str("materials")?.unwrap_or_else(|| "materials.toml".into());
+                f.finish()?;
+                (s, p, m, keys.map(|k| f.location_of(k)))
+            }
+            None => (
+                "stations.csv".into(),
+                "plies.csv".into(),
+                "materials.toml".into(),
+                keys.map(|k| doc.location().with_field(format!("files.{k}"))),
+            ),
+        };
     let webs_t = doc.table_array("web")?;
     let masses_t = doc.table_array("point_mass")?;
     let cases_t = doc.table_array("load_case")?;
@@ -171,8 +178,9 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
     };
 
     let materials_path = dir.join(&materials_file);
-    let materials = super::materials::read_materials(&materials_path)?;
-    let stations = read_stations(&dir, &stations_file)?;
+    let materials = super::materials::read_materials(&materials_path)
+        .map_err(|e| named_by(&file_places[2], e))?;
+    let stations = read_stations(&dir, &stations_file).map_err(|e| named_by(&file_places[0], e))?;
     let (r_root, r_tip) = (stations[0].r, stations[stations.len() - 1].r);
     check_rotor_against_stations(&places, &rotor, r_root, r_tip, &mut warnings)?;
     // The tip speed at the greatest speed, once the tip radius is known to fit the stations: a
@@ -216,7 +224,8 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
     }
     webs.sort_by(|a, b| a.chord_frac.total_cmp(&b.chord_frac));
 
-    let plies = read_plies(&dir, &plies_file, &materials, &webs, r_root, r_tip)?;
+    let plies = read_plies(&dir, &plies_file, &materials, &webs, r_root, r_tip)
+        .map_err(|e| named_by(&file_places[1], e))?;
     let chords = stations.iter().map(|s| s.chord);
     let (c_min, c_max) = chords.fold((f64::INFINITY, 0.0_f64), |(a, b), c| (a.min(c), b.max(c)));
     let blade_length = r_tip - r_root;
@@ -316,6 +325,21 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
 /// Where the rotor's radii and greatest speed are given: `hub_radius_m`, `tip_radius_m`,
 /// `rpm_max`.
 type RotorPlaces = [Location; 3];
+
+/// An error of a file the project names that has no line of its own (the file cannot be read,
+/// is not a regular file, is too large or holds too few rows), placed at the key of
+/// `blade.toml` that names the file; errors with a line are left as they are.
+fn named_by(place: &Location, e: InputError) -> InputError {
+    match e {
+        InputError::Read { file, source } => {
+            InputError::at(place.clone(), format!("cannot read {file}: {source}"))
+        }
+        InputError::Invalid { location, message } if location.line.is_none() => {
+            InputError::at(place.clone(), format!("{location}: {message}"))
+        }
+        other => other,
+    }
+}
 
 fn read_rotor(t: &mut TableReader<'_>) -> Result<(Rotor, bool, RotorPlaces), InputError> {
     let blades = t
@@ -818,7 +842,8 @@ fn read_load_case(
     let pitch = t.optional_f64("pitch_deg")?.map(Angle::from_deg);
     let (distributed, distributed_file) = match t.optional_str("distributed")? {
         Some(file) => {
-            let rows = read_distributed(dir, &file, r_root, r_tip)?;
+            let rows = read_distributed(dir, &file, r_root, r_tip)
+                .map_err(|e| named_by(&t.location_of("distributed"), e))?;
             (rows, Some(dir.join(&file).display().to_string()))
         }
         None => (Vec::new(), None),
