@@ -4,7 +4,7 @@
 use nalgebra::{Vector3, Vector4};
 
 use super::{PlyPoint, PointStress, StressError, WallLocation};
-use crate::failure::{self, CriteriaRatios, MaterialState};
+use crate::failure::{self, CriteriaRatios, Criterion, MaterialState, StrengthRatio};
 use crate::laminate::{Deformation, Laminate, LaminateLoad, PlyState};
 use crate::loads::BeamResultants;
 use crate::section::{SectionLayout, SolvedSection, WallPart};
@@ -121,7 +121,7 @@ impl UnitResponse {
             let ratios = top.0.worst(&bottom.0);
             out.push(PlyPoint {
                 ply_in_laminate: k,
-                governing: ratios.governing(),
+                governing: governing(&ratios),
                 ratios,
                 stress_12: if lower { bottom.1 } else { top.1 },
             });
@@ -129,8 +129,55 @@ impl UnitResponse {
     }
 }
 
+/// [`CriteriaRatios::governing`] written out for the inner loop: the least ratio in the total
+/// order of `f64`, the first criterion in [`Criterion::ALL`] order on a tie (as `min_by`).
+#[inline]
+fn governing(r: &CriteriaRatios) -> Option<(Criterion, StrengthRatio)> {
+    let mut best: Option<(Criterion, StrengthRatio)> = None;
+    for (c, v) in [
+        (Criterion::TsaiWu, r.tsai_wu),
+        (Criterion::MaxStress, r.max_stress),
+        (Criterion::MaxStrain, r.max_strain),
+        (Criterion::Hashin, r.hashin),
+    ] {
+        if let Some(v) = v {
+            match best {
+                Some((_, b)) if v.ratio.total_cmp(&b.ratio) != std::cmp::Ordering::Less => {}
+                _ => best = Some((c, v)),
+            }
+        }
+    }
+    best
+}
+
+#[inline]
 fn governing_ratio(r: &CriteriaRatios) -> f64 {
-    r.governing().map(|(_, s)| s.ratio).unwrap_or(f64::INFINITY)
+    governing(r).map_or(f64::INFINITY, |(_, s)| s.ratio)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::failure::{FailureMode, StrengthRatio};
+
+    #[test]
+    fn written_out_governing_agrees_with_the_library_on_ties_and_gaps() {
+        let r = |x: f64| Some(StrengthRatio { ratio: x, mode: FailureMode::Shear });
+        let values = [None, r(0.0), r(-0.0), r(1.0), r(2.0), r(f64::INFINITY), r(f64::NAN)];
+        for a in values {
+            for b in values {
+                for c in values {
+                    for d in values {
+                        let set =
+                            CriteriaRatios { tsai_wu: a, max_stress: b, max_strain: c, hashin: d };
+                        let (x, y) = (governing(&set), set.governing());
+                        assert_eq!(x.map(|g| g.0), y.map(|g| g.0));
+                        assert_eq!(x.map(|g| g.1.ratio.to_bits()), y.map(|g| g.1.ratio.to_bits()));
+                    }
+                }
+            }
+        }
+    }
 }
 
 /// Beam resultants about the pitch axis (chord frame) to the solver's frame: `(N, T, M_f, M_e)`
