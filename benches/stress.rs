@@ -60,6 +60,12 @@ fn bench_mode(c: &mut Criterion, wall_bending: bool) {
             }
         })
     });
+    g.bench_function(format!("mine-fan, all cases, summaries only, {mode}"), |b| {
+        b.iter(|| {
+            layloft::stress::analyse_cases_detail(&model, None, layloft::stress::Detail::Summary)
+                .expect("stress")
+        })
+    });
     g.bench_function("mine-fan, panels and their critical loads", |b| {
         b.iter(|| model_panels(&model))
     });

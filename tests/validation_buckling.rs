@@ -86,6 +86,86 @@ fn orthotropic_long_plate_matches_whitney_closed_form() {
     }
 }
 
+/// Exact critical compression of a long specially orthotropic plate with clamped long edges, by
+/// our own solution of the plate equation (not the program's Ritz solver):
+/// `D11 w_xxxx + 2 H w_xxyy + D22 w_yyyy + N w_xx = 0`, `H = D12 + 2 D66`, with
+/// `w = f(y) sin(alpha x)` on `-b/2 <= y <= b/2`. The roots of
+/// `D22 r⁴ - 2 H alpha² r² + (D11 alpha⁴ - N alpha²) = 0` are `±p` and `±i q` once
+/// `N > D11 alpha²`, and the symmetric mode `f = A cosh(p y) + B cos(q y)` with `f = f' = 0` at
+/// the edges buckles where `q tan(q b/2) + p tanh(p b/2) = 0` (the characteristic equation of
+/// Timoshenko & Gere, Theory of Elastic Stability, 2nd ed., 1961, §9.5, for the clamped edges,
+/// written for an orthotropic plate as in Lekhnitskii, Anisotropic Plates, 1968; from memory).
+/// The least root in `N` by bisection, then the least over the half-wavelength.
+fn clamped_long_plate_exact(d: &Matrix3<f64>, b: f64) -> f64 {
+    let (d11, d22, h) = (d[(0, 0)], d[(1, 1)], d[(0, 1)] + 2.0 * d[(2, 2)]);
+    let at = |alpha: f64| {
+        let a2 = alpha * alpha;
+        // The determinant divided by cosh(p b/2): continuous in N.
+        let f = |n: f64| {
+            let disc = (h * a2).powi(2) - d22 * (d11 * a2 * a2 - n * a2);
+            let root = disc.sqrt();
+            let p = ((h * a2 + root) / d22).sqrt();
+            let q = ((root - h * a2) / d22).sqrt();
+            q * (0.5 * q * b).sin() + p * (0.5 * p * b).tanh() * (0.5 * q * b).cos()
+        };
+        let n0 = d11 * a2;
+        let step = 0.01 * n0.max(h * PI * PI / (b * b));
+        let (mut lo, mut hi) = (n0 * (1.0 + 1e-12), n0 * (1.0 + 1e-12) + step);
+        while f(hi) > 0.0 {
+            lo = hi;
+            hi += step;
+        }
+        for _ in 0..200 {
+            let mid = 0.5 * (lo + hi);
+            if f(mid) > 0.0 { lo = mid } else { hi = mid }
+        }
+        0.5 * (lo + hi)
+    };
+    // Least over the half-wavelength lambda = pi/alpha: a fine logarithmic scan, then golden
+    // section about the least point.
+    let base = b * (d11 / d22).powf(0.25);
+    let n_of = |l: f64| at(PI / (base * l.exp()));
+    let grid: Vec<f64> =
+        (0..=200).map(|i| (0.1f64).ln() + (30.0f64).ln() * i as f64 / 200.0).collect();
+    let i = (0..grid.len()).min_by(|&a, &c| n_of(grid[a]).total_cmp(&n_of(grid[c]))).unwrap();
+    let (mut a, mut c) = (grid[i.saturating_sub(1)], grid[(i + 1).min(grid.len() - 1)]);
+    let g = 0.5 * (5f64.sqrt() - 1.0);
+    for _ in 0..80 {
+        let (x1, x2) = (c - g * (c - a), a + g * (c - a));
+        if n_of(x1) < n_of(x2) { c = x2 } else { a = x1 }
+    }
+    n_of(0.5 * (a + c))
+}
+
+#[test]
+fn clamped_long_orthotropic_plate_in_compression_matches_the_exact_solution() {
+    // The independent solution above in its isotropic limit: k = 6.97 (Timoshenko & Gere 1961,
+    // §9.5, printed to three figures).
+    let (d0, d_iso) = isotropic_d(70e9, 0.3, 2e-3);
+    let b = 0.12;
+    let k = k_of(clamped_long_plate_exact(&d_iso, b), d0, b);
+    assert!((k / 6.97 - 1.0).abs() < 1e-3, "isotropic clamped: k = {k}");
+    // The program's clamped Ritz solution against it for specially orthotropic laminates of
+    // very different D11/D22 (T300/5208, Kaw 2006, Table 2.1), and for the isotropic plate.
+    let solver = LongPlate::new(EdgeSupport::Clamped);
+    let mut cases: Vec<(&str, Matrix3<f64>)> =
+        ["[0/90]2s", "[0/90/0]s", "[90/0/90]s", "[0]8", "[90]8"]
+            .into_iter()
+            .map(|code| (code, laminate(code).abd().d))
+            .collect();
+    cases.push(("isotropic", d_iso));
+    for (code, d) in cases {
+        assert!(d[(0, 2)].abs() < 1e-12 * d[(0, 0)]);
+        let b = 0.08;
+        let got = solver.critical(&d, b, NONE).compression;
+        let want = clamped_long_plate_exact(&d, b);
+        // A Ritz solution is an upper bound; ten terms leave it within 0.2 % here.
+        assert!(got >= want * (1.0 - 1e-6), "{code}: {got} below the exact {want}");
+        assert!(got / want - 1.0 < 2e-3, "{code}: {got} against the exact {want}");
+        eprintln!("{code}: Ritz/exact - 1 = {:.2e}", got / want - 1.0);
+    }
+}
+
 #[test]
 fn bending_twisting_coupling_lowers_the_load_and_turns_with_the_sign_of_shear() {
     // Laws (Whitney 1987, ch. 5, from memory: D16 and D26 lower the compressive buckling load

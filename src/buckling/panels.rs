@@ -306,8 +306,13 @@ pub fn find_panels(
         })
         .collect();
     let lams = &layout.laminates;
-    let drops: Vec<Vec<bool>> =
-        lams.iter().map(|a| lams.iter().map(|b| is_drop(a, b)).collect()).collect();
+    // Whether one laminate is the other with plies dropped, asked only of neighbouring elements
+    // of different laminates and kept per pair (a section with many ply regions would otherwise
+    // compare every pair of laminates ply by ply).
+    let drops: RefCell<HashMap<(usize, usize), bool>> = RefCell::new(HashMap::new());
+    let is_drop_pair = |a: usize, b: usize| -> bool {
+        *drops.borrow_mut().entry((a, b)).or_insert_with(|| is_drop(&lams[a], &lams[b]))
+    };
     let scale = layout.chord.max(1e-9);
     let tol = 1e-6 * scale;
     // Where webs meet the skin: the skin element boundary nearest each web end is a support.
@@ -345,7 +350,7 @@ pub fn find_panels(
             || turn(a.tangent(), b.tangent()).abs() > CORNER
             || (kind(&b.part) == Kind::Skin && support_at[next])
             || (a.laminate != b.laminate
-                && (!drops[a.laminate][b.laminate]
+                && (!is_drop_pair(a.laminate, b.laminate)
                     || hi.max(f) > PLY_DROP_RATIO * lo.min(f)
                     || lo.min(f) <= 0.0))
     };

@@ -13,6 +13,8 @@
 //! Bases on `eta = y/b in [0, 1]`: simply supported `phi_k = sin(k pi eta)` (w = 0, the moment
 //! condition is natural); clamped `phi_k = sin(pi eta) sin(k pi eta)` (w = w' = 0).
 
+use std::sync::{Arc, OnceLock};
+
 use nalgebra::{DMatrix, Matrix3};
 
 /// How the long edges of a panel are held against rotation.
@@ -131,7 +133,8 @@ fn embed(s: &DMatrix<f64>, t: &DMatrix<f64>) -> DMatrix<f64> {
 #[derive(Debug, Clone)]
 pub struct LongPlate {
     support: EdgeSupport,
-    unit: UnitIntegrals,
+    /// Shared by every solver of the same support: computed once per process.
+    unit: Arc<UnitIntegrals>,
 }
 
 /// The least critical loads of a long plate, N/m (infinite where no load of that kind buckles
@@ -154,7 +157,16 @@ pub struct ShearFlexibility(pub f64);
 impl LongPlate {
     /// The solver for one edge support.
     pub fn new(support: EdgeSupport) -> Self {
-        LongPlate { support, unit: UnitIntegrals::new(support) }
+        static SS: OnceLock<Arc<UnitIntegrals>> = OnceLock::new();
+        static CLAMPED: OnceLock<Arc<UnitIntegrals>> = OnceLock::new();
+        let cell = match support {
+            EdgeSupport::SimplySupported => &SS,
+            EdgeSupport::Clamped => &CLAMPED,
+        };
+        LongPlate {
+            support,
+            unit: cell.get_or_init(|| Arc::new(UnitIntegrals::new(support))).clone(),
+        }
     }
 
     /// The edge support this solver models.
@@ -162,16 +174,9 @@ impl LongPlate {
         self.support
     }
 
-    /// Stiffness and load matrices at wave number `alpha` (rad/m) for width `b` (m): bending
-    /// `K`, compression `Gc` (per unit `-N_x`), shear `Gs` (per unit `N_xs`), and the width
-    /// integrals `p00`, `p11` for the wave number across the width.
-    fn matrices(
-        &self,
-        d: &Matrix3<f64>,
-        b: f64,
-        alpha: f64,
-    ) -> (DMatrix<f64>, DMatrix<f64>, DMatrix<f64>) {
-        let u = &self.unit;
+    /// Bending stiffness matrix `K` at wave number `alpha` (rad/m) for width `b` (m).
+    fn stiffness(&self, d: &Matrix3<f64>, b: f64, alpha: f64) -> DMatrix<f64> {
+        let u = &*self.unit;
         // Width integrals scale as b^(1 - p - q).
         let p00 = &u.p00 * b;
         let p11 = &u.p11 / b;
@@ -186,11 +191,20 @@ impl LongPlate {
             + &p22 * d22
             + &p11 * (4.0 * d66 * a2);
         let t = skew(&p10) * (4.0 * d16 * a2 * alpha) - skew(&p12) * (4.0 * d26 * alpha);
-        let k = embed(&s, &t);
+        embed(&s, &t)
+    }
+
+    /// Compression load matrix `Gc` (per unit `-N_x`) at wave number `alpha` for width `b`.
+    fn compression_load(&self, b: f64, alpha: f64) -> DMatrix<f64> {
+        let p00 = &self.unit.p00 * b;
         let zero = DMatrix::zeros(TERMS, TERMS);
-        let gc = embed(&(&p00 * a2), &zero);
-        let gs = embed(&zero, &(skew(&p10) * (-2.0 * alpha)));
-        (k, gc, gs)
+        embed(&(&p00 * (alpha * alpha)), &zero)
+    }
+
+    /// Shear load matrix `Gs` (per unit `N_xs`) at wave number `alpha`.
+    fn shear_load(&self, alpha: f64) -> DMatrix<f64> {
+        let zero = DMatrix::zeros(TERMS, TERMS);
+        embed(&zero, &(skew(&self.unit.p10) * (-2.0 * alpha)))
     }
 
     /// The largest and least eigenvalue `mu` of `G q = mu K q` (the inverse buckling
@@ -210,7 +224,7 @@ impl LongPlate {
     /// number of the bending mode across the width (Allen, *Analysis and Design of Structural
     /// Sandwich Panels*, 1969, ch. 4, thin faces, for the sine mode).
     fn compression_at(&self, d: &Matrix3<f64>, b: f64, alpha: f64, s: ShearFlexibility) -> f64 {
-        let (k, gc, _) = self.matrices(d, b, alpha);
+        let (k, gc) = (self.stiffness(d, b, alpha), self.compression_load(b, alpha));
         if !s.0.is_finite() {
             return match Self::inverse_multipliers(&k, &gc) {
                 Some((mu, _)) if mu > 0.0 => 1.0 / mu,
@@ -248,7 +262,7 @@ impl LongPlate {
     /// flexibility taken as `1/N = 1/N_b + 1/S` (a lower bound: the shear-only buckling load of
     /// the thin-face sandwich is at least `S`).
     fn shear_at(&self, d: &Matrix3<f64>, b: f64, alpha: f64, s: ShearFlexibility) -> [f64; 2] {
-        let (k, _, gs) = self.matrices(d, b, alpha);
+        let (k, gs) = (self.stiffness(d, b, alpha), self.shear_load(alpha));
         let Some((hi, lo)) = Self::inverse_multipliers(&k, &gs) else {
             return [f64::NAN; 2];
         };

@@ -9,7 +9,7 @@ use serde_json::json;
 
 use layloft::check::{DesignCheck, Status, evaluate};
 use layloft::report::{Align, Table};
-use layloft::stress::analyse_cases;
+use layloft::stress::{Detail, analyse_cases_detail};
 
 use super::project::{load_model, run_modal};
 use super::{Failure, Outcome, Output};
@@ -83,7 +83,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         || criteria.min_buckling_factor.is_some()
         || criteria.max_tip_deflection_m.is_some();
     let stress = if needs_stress && !model.project.load_cases.is_empty() {
-        analyse_cases(&model, None).map_err(layloft::Error::from)?
+        analyse_cases_detail(&model, None, Detail::Summary).map_err(layloft::Error::from)?
     } else {
         Vec::new()
     };

@@ -41,13 +41,13 @@ use nalgebra::Vector3;
 
 use crate::analysis::BladeModel;
 use crate::buckling::{Panel, PanelCheck, PanelSolver, check_panel, find_panels};
-use crate::failure::CriteriaRatios;
+use crate::failure::{CriteriaRatios, Criterion, StrengthRatio};
 use crate::input::LoadCaseSpec;
 use crate::laminate::LaminateError;
 use crate::loads::{
     LoadDistribution, LoadsError, PitchReaction, Resultant, TipDeflection, span_loads,
 };
-use recover::{UnitResponse, recover_section};
+use recover::{Locator, UnitResponse, recover_section, section_states};
 
 /// What can go wrong in stress recovery.
 #[derive(Debug, thiserror::Error)]
@@ -114,6 +114,8 @@ pub struct PlyPoint {
     pub ply_in_laminate: usize,
     /// Ratios by every criterion.
     pub ratios: CriteriaRatios,
+    /// The governing criterion and its ratio (`ratios.governing()`, kept beside them).
+    pub governing: Option<(Criterion, StrengthRatio)>,
     /// Material-axis stresses (sigma1, sigma2, tau12), Pa, at the face with the lower ratio,
     /// residual part included.
     pub stress_12: Vector3<f64>,
@@ -147,7 +149,7 @@ impl PointStress {
     pub fn reserve_factor(&self) -> f64 {
         self.plies
             .iter()
-            .filter_map(|p| p.ratios.governing().map(|(_, r)| r.ratio))
+            .filter_map(|p| p.governing.map(|(_, r)| r.ratio))
             .fold(f64::INFINITY, f64::min)
     }
 }
@@ -238,25 +240,29 @@ pub fn model_panels(model: &BladeModel) -> Vec<Vec<Arc<Panel>>> {
         .collect()
 }
 
+/// The panel checks of one station from the wall resultants `(N_x, N_xs)` of each element
+/// (indexed by element; an element without a point reads as unloaded).
 fn check_station(
     st: &crate::analysis::AnalysisStation,
     panels: &[Arc<Panel>],
-    points: &[PointStress],
+    by_element: &[Option<(f64, f64)>],
 ) -> StationBuckling {
     let elements = st.section.elements();
-    let by_element: std::collections::HashMap<usize, &PointStress> =
-        points.iter().map(|p| (p.element, p)).collect();
+    let locator = Locator::new(&st.layout);
+    let mut res: Vec<(f64, f64)> = Vec::new();
     let results = panels
         .iter()
         .map(|panel| {
-            let res: Vec<(f64, f64)> = panel
-                .elements
-                .iter()
-                .map(|k| by_element.get(k).map_or((0.0, 0.0), |p| (p.n_x, p.n_xs)))
-                .collect();
+            res.clear();
+            res.extend(
+                panel
+                    .elements
+                    .iter()
+                    .map(|&k| by_element.get(k).copied().flatten().unwrap_or((0.0, 0.0))),
+            );
             let at = |k: usize| {
                 let e = &elements[k];
-                recover::locate(&st.layout, &e.part, e.midpoint())
+                locator.locate(&e.part, e.midpoint())
             };
             PanelResult {
                 panel: panel.clone(),
@@ -287,6 +293,17 @@ fn check_cte(model: &BladeModel, case: &LoadCaseSpec) -> Result<(), StressError>
     Ok(())
 }
 
+/// What a case's stress recovery keeps.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Detail {
+    /// Every wall point with its plies ([`StationStress::points`]), besides the summaries.
+    Points,
+    /// The summaries only (critical point, worst value of every ply at every station, panel
+    /// checks, loads, deflection): [`StationStress::points`] stays empty, and the memory does
+    /// not grow with the number of wall points. What `check` needs.
+    Summary,
+}
+
 /// Stress recovery of one load case of the model.
 pub fn analyse_case(model: &BladeModel, case: &LoadCaseSpec) -> Result<CaseStress, StressError> {
     analyse_case_with(model, case, &model_panels(model))
@@ -299,6 +316,21 @@ pub fn analyse_case_with(
     case: &LoadCaseSpec,
     panels: &[Vec<Arc<Panel>>],
 ) -> Result<CaseStress, StressError> {
+    analyse_case_detail(model, case, panels, Detail::Points)
+}
+
+/// Stress recovery of one load case with the model's panels already found, keeping `detail`.
+///
+/// One pass over stations, wall points and plies: each ply face is evaluated once, the
+/// governing ratio kept beside the ratios, and the summaries (lowest reserve factor, worst value
+/// of every ply, the panels' resultants) folded in as the points are made, so that the cost is
+/// linear in stations, points and plies.
+pub fn analyse_case_detail(
+    model: &BladeModel,
+    case: &LoadCaseSpec,
+    panels: &[Vec<Arc<Panel>>],
+    detail: Detail,
+) -> Result<CaseStress, StressError> {
     check_cte(model, case)?;
     let props = model.properties();
     let pitch = case.pitch.unwrap_or(model.project.rotor.pitch);
@@ -307,26 +339,55 @@ pub fn analyse_case_with(
     let fine = span_loads(&dist.clone().refine(8));
     let tip_deflection = crate::loads::tip_deflection(&props, &fine)?;
     let mut stations = Vec::with_capacity(model.stations.len());
-    for st in &model.stations {
+    let mut buckling = Vec::with_capacity(model.stations.len());
+    let mut summary = summary::Summary::new(model);
+    let mut scratch: Vec<PlyPoint> = Vec::new();
+    let mut by_element: Vec<Option<(f64, f64)>> = Vec::new();
+    for (si, st) in model.stations.iter().enumerate() {
         let units = st
             .layout
             .laminates
             .iter()
             .map(|l| UnitResponse::new(l, case.delta_t))
             .collect::<Result<Vec<_>, _>>()?;
-        let resultants = loads.chord_at(st.layout.r);
-        let points = recover_section(&st.layout, &st.section, &units, &resultants);
+        let elements = st.section.elements();
+        let locator = Locator::new(&st.layout);
+        let states = section_states(&st.section, &loads.chord_at(st.layout.r));
+        by_element.clear();
+        by_element.resize(elements.len(), None);
+        let mut points =
+            Vec::with_capacity(if detail == Detail::Points { states.len() } else { 0 });
+        for (pi, state) in states.into_iter().enumerate() {
+            let e = &elements[state.element];
+            let laminate = &st.layout.laminates[e.laminate];
+            units[e.laminate].ratios_into(laminate, &state.deformation, &mut scratch);
+            summary.add(model, si, pi, state.element, e.laminate, &scratch);
+            if let Some(slot) = by_element.get_mut(state.element) {
+                *slot = Some((state.n_x, state.n_xs));
+            }
+            if detail == Detail::Points {
+                points.push(PointStress {
+                    element: state.element,
+                    laminate: e.laminate,
+                    position: state.position,
+                    location: locator.locate(&e.part, e.midpoint()),
+                    n_x: state.n_x,
+                    n_xs: state.n_xs,
+                    deformation: state.deformation,
+                    plies: scratch.clone(),
+                });
+            }
+        }
+        summary.end_station(model, si, st.layout.r);
+        // As many stations checked as there are panel lists (every station, from
+        // `model_panels`).
+        if let Some(p) = panels.get(si) {
+            buckling.push(check_station(st, p, &by_element));
+        }
         stations.push(StationStress { r: st.layout.r, points });
     }
-    let buckling = model
-        .stations
-        .iter()
-        .zip(panels)
-        .zip(&stations)
-        .map(|((st, p), s)| check_station(st, p, &s.points))
-        .collect();
-    let critical = summary::critical(model, &stations);
-    let ply_worst = summary::ply_worst(model, &stations);
+    let radii: Vec<f64> = stations.iter().map(|s| s.r).collect();
+    let (critical, ply_worst) = summary.finish(model, &radii);
     let pitch_sweep = crate::loads::root_reactions_over_pitch(
         &props,
         &model.project.rotor,
@@ -371,13 +432,28 @@ pub fn analyse_cases(
     model: &BladeModel,
     only: Option<&str>,
 ) -> Result<Vec<CaseStress>, StressError> {
+    analyse_cases_detail(model, only, Detail::Points)
+}
+
+/// As [`analyse_cases`], keeping `detail` ([`Detail::Summary`] for a design check).
+pub fn analyse_cases_detail(
+    model: &BladeModel,
+    only: Option<&str>,
+    detail: Detail,
+) -> Result<Vec<CaseStress>, StressError> {
+    let panels = model_panels(model);
     match only {
-        Some(name) => {
-            Ok(vec![analyse_case(model, crate::loads::find_case(&model.project, name)?)?])
-        }
-        None => {
-            let panels = model_panels(model);
-            model.project.load_cases.iter().map(|c| analyse_case_with(model, c, &panels)).collect()
-        }
+        Some(name) => Ok(vec![analyse_case_detail(
+            model,
+            crate::loads::find_case(&model.project, name)?,
+            &panels,
+            detail,
+        )?]),
+        None => model
+            .project
+            .load_cases
+            .iter()
+            .map(|c| analyse_case_detail(model, c, &panels, detail))
+            .collect(),
     }
 }

@@ -4,20 +4,30 @@
 use nalgebra::{Vector3, Vector4};
 
 use super::{PlyPoint, PointStress, StressError, WallLocation};
-use crate::failure::{self, CriteriaRatios, MaterialState};
+use crate::failure::{self, CriteriaRatios, Criterion, MaterialState, StrengthRatio};
 use crate::laminate::{Deformation, Laminate, LaminateLoad, PlyState};
 use crate::loads::BeamResultants;
 use crate::section::{SectionLayout, SolvedSection, WallPart};
 
-/// The per-ply-face material-axis state of a laminate for each unit component of the midplane
-/// deformation `(eps_x, eps_s, gamma_xs, kappa_x, kappa_s, kappa_xs)` and for the temperature
-/// change alone, so that any wall deformation costs six multiply-adds per face.
+/// The material-axis state of one ply face for each unit component of the midplane deformation
+/// `(eps_x, eps_s, gamma_xs, kappa_x, kappa_s, kappa_xs)`, and its residual state from the
+/// temperature change: one contiguous record, so that a face under any wall deformation costs
+/// six multiply-adds per component read from one place.
+#[derive(Debug, Clone)]
+struct FaceUnit {
+    /// Stress per unit of each deformation component, Pa.
+    stress: [Vector3<f64>; 6],
+    /// Mechanical strain per unit of each deformation component.
+    strain: [Vector3<f64>; 6],
+    /// The residual state (restraint plus free-expansion part).
+    fixed: MaterialState,
+}
+
+/// The per-ply-face responses of a laminate as a beam wall, flat: faces `2 k` (top) and
+/// `2 k + 1` (bottom) of ply `k`.
 #[derive(Debug, Clone)]
 pub(crate) struct UnitResponse {
-    /// Per deformation component, per ply: [top, bottom] states for a unit value.
-    unit: [Vec<[MaterialState; 2]>; 6],
-    /// Per ply: [top, bottom] residual states from the temperature change.
-    thermal: Vec<[MaterialState; 2]>,
+    faces: Vec<FaceUnit>,
 }
 
 fn faces(p: &PlyState) -> [MaterialState; 2] {
@@ -63,54 +73,111 @@ impl UnitResponse {
         };
         let held = Deformation { strain, curvature: Vector3::zeros() };
         let th = laminate.response(&LaminateLoad::Deformation(held), delta_t)?;
-        Ok(UnitResponse { unit, thermal: th.plies.iter().map(residual_faces).collect() })
+        let thermal: Vec<[MaterialState; 2]> = th.plies.iter().map(residual_faces).collect();
+        let mut out = Vec::with_capacity(2 * thermal.len());
+        for (k, fixed) in thermal.iter().enumerate() {
+            for (f, fixed) in fixed.iter().enumerate() {
+                out.push(FaceUnit {
+                    stress: [0, 1, 2, 3, 4, 5].map(|i| unit[i][k][f].stress),
+                    strain: [0, 1, 2, 3, 4, 5].map(|i| unit[i][k][f].strain),
+                    fixed: *fixed,
+                });
+            }
+        }
+        Ok(UnitResponse { faces: out })
     }
 
     /// Strength ratios of every ply (worst of its two faces) under the wall deformation `d`.
     pub(crate) fn ratios(&self, laminate: &Laminate, d: &Deformation) -> Vec<PlyPoint> {
+        let mut out = Vec::with_capacity(laminate.plies().len());
+        self.ratios_into(laminate, d, &mut out);
+        out
+    }
+
+    /// As [`UnitResponse::ratios`], into `out` (cleared first), so that a caller that keeps no
+    /// points reuses one buffer for the whole blade.
+    pub(crate) fn ratios_into(
+        &self,
+        laminate: &Laminate,
+        d: &Deformation,
+        out: &mut Vec<PlyPoint>,
+    ) {
+        out.clear();
         let v = [d.strain.x, d.strain.y, d.strain.z, d.curvature.x, d.curvature.y, d.curvature.z];
-        laminate
-            .plies()
-            .iter()
-            .enumerate()
-            .map(|(k, ply)| {
-                let mut worst: Option<CriteriaRatios> = None;
-                let mut stress_at_worst = Vector3::zeros();
-                for f in 0..2 {
-                    let mut load =
-                        MaterialState { stress: Vector3::zeros(), strain: Vector3::zeros() };
-                    for (unit, x) in self.unit.iter().zip(v) {
-                        load.stress += unit[k][f].stress * x;
-                        load.strain += unit[k][f].strain * x;
-                    }
-                    let fixed = &self.thermal[k][f];
-                    let r = failure::evaluate_all(&ply.material, &load, fixed);
-                    let lower = match &worst {
-                        None => true,
-                        Some(w) => governing_ratio(&r) < governing_ratio(w),
-                    };
-                    worst = Some(match worst {
-                        Some(w) => w.worst(&r),
-                        None => r,
-                    });
-                    if lower {
-                        stress_at_worst = load.stress + fixed.stress;
-                    }
+        for ((k, ply), pair) in laminate.plies().iter().enumerate().zip(self.faces.chunks_exact(2))
+        {
+            let [top, bottom] = [&pair[0], &pair[1]].map(|face| {
+                let mut load = MaterialState { stress: Vector3::zeros(), strain: Vector3::zeros() };
+                for ((s, e), x) in face.stress.iter().zip(&face.strain).zip(v) {
+                    load.stress += s * x;
+                    load.strain += e * x;
                 }
-                let ratios = worst.unwrap_or(CriteriaRatios {
-                    tsai_wu: None,
-                    max_stress: None,
-                    max_strain: None,
-                    hashin: None,
-                });
-                PlyPoint { ply_in_laminate: k, ratios, stress_12: stress_at_worst }
-            })
-            .collect()
+                let r = failure::evaluate_all(&ply.material, &load, &face.fixed);
+                (r, load.stress + face.fixed.stress)
+            });
+            // The face with the strictly lower governing ratio gives the stresses (the top face
+            // on a tie); each criterion takes the worse of the two faces.
+            let lower = governing_ratio(&bottom.0) < governing_ratio(&top.0);
+            let ratios = top.0.worst(&bottom.0);
+            out.push(PlyPoint {
+                ply_in_laminate: k,
+                governing: governing(&ratios),
+                ratios,
+                stress_12: if lower { bottom.1 } else { top.1 },
+            });
+        }
     }
 }
 
+/// [`CriteriaRatios::governing`] written out for the inner loop: the least ratio in the total
+/// order of `f64`, the first criterion in [`Criterion::ALL`] order on a tie (as `min_by`).
+#[inline]
+fn governing(r: &CriteriaRatios) -> Option<(Criterion, StrengthRatio)> {
+    let mut best: Option<(Criterion, StrengthRatio)> = None;
+    for (c, v) in [
+        (Criterion::TsaiWu, r.tsai_wu),
+        (Criterion::MaxStress, r.max_stress),
+        (Criterion::MaxStrain, r.max_strain),
+        (Criterion::Hashin, r.hashin),
+    ] {
+        if let Some(v) = v {
+            match best {
+                Some((_, b)) if v.ratio.total_cmp(&b.ratio) != std::cmp::Ordering::Less => {}
+                _ => best = Some((c, v)),
+            }
+        }
+    }
+    best
+}
+
+#[inline]
 fn governing_ratio(r: &CriteriaRatios) -> f64 {
-    r.governing().map(|(_, s)| s.ratio).unwrap_or(f64::INFINITY)
+    governing(r).map_or(f64::INFINITY, |(_, s)| s.ratio)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::failure::{FailureMode, StrengthRatio};
+
+    #[test]
+    fn written_out_governing_agrees_with_the_library_on_ties_and_gaps() {
+        let r = |x: f64| Some(StrengthRatio { ratio: x, mode: FailureMode::Shear });
+        let values = [None, r(0.0), r(-0.0), r(1.0), r(2.0), r(f64::INFINITY), r(f64::NAN)];
+        for a in values {
+            for b in values {
+                for c in values {
+                    for d in values {
+                        let set =
+                            CriteriaRatios { tsai_wu: a, max_stress: b, max_strain: c, hashin: d };
+                        let (x, y) = (governing(&set), set.governing());
+                        assert_eq!(x.map(|g| g.0), y.map(|g| g.0));
+                        assert_eq!(x.map(|g| g.1.ratio.to_bits()), y.map(|g| g.1.ratio.to_bits()));
+                    }
+                }
+            }
+        }
+    }
 }
 
 /// Beam resultants about the pitch axis (chord frame) to the solver's frame: `(N, T, M_f, M_e)`
@@ -128,28 +195,58 @@ pub(crate) fn section_resultants(
     (Vector4::new(b.n, t_sc, b.m_flap - ze * b.n, b.m_edge - ye * b.n), [b.v_flap, b.v_edge])
 }
 
-/// Where a wall element lies, in words a designer uses.
-pub(crate) fn locate(layout: &SectionLayout, part: &WallPart, midpoint: [f64; 2]) -> WallLocation {
-    let x = midpoint[0] / layout.chord + layout.pitch_axis_frac;
-    let upper_end = layout
-        .outer
-        .iter()
-        .enumerate()
-        .fold(0, |b, (i, p)| if p[0] > layout.outer[b][0] { i } else { b });
-    match part {
-        WallPart::Skin { segment } | WallPart::TrailingEdge { segment } => {
-            let upper = *segment < upper_end;
-            WallLocation::Surface {
-                upper,
-                x_c: x.clamp(0.0, 1.0),
-                solid: matches!(part, WallPart::TrailingEdge { .. }),
+/// Where wall elements lie on one section, in words a designer uses: the section's upper-surface
+/// end (the outline point furthest aft) found once, so that naming a point costs O(1).
+#[derive(Debug, Clone, Copy)]
+pub(crate) struct Locator<'a> {
+    layout: &'a SectionLayout,
+    upper_end: usize,
+}
+
+impl<'a> Locator<'a> {
+    pub(crate) fn new(layout: &'a SectionLayout) -> Self {
+        let upper_end = layout
+            .outer
+            .iter()
+            .enumerate()
+            .fold(0, |b, (i, p)| if p[0] > layout.outer[b][0] { i } else { b });
+        Locator { layout, upper_end }
+    }
+
+    /// Where the wall element of `part` with midpoint `midpoint` lies.
+    pub(crate) fn locate(&self, part: &WallPart, midpoint: [f64; 2]) -> WallLocation {
+        let layout = self.layout;
+        let x = midpoint[0] / layout.chord + layout.pitch_axis_frac;
+        match part {
+            WallPart::Skin { segment } | WallPart::TrailingEdge { segment } => {
+                let upper = *segment < self.upper_end;
+                WallLocation::Surface {
+                    upper,
+                    x_c: x.clamp(0.0, 1.0),
+                    solid: matches!(part, WallPart::TrailingEdge { .. }),
+                }
+            }
+            WallPart::Web { web } => {
+                let name = layout.webs.get(*web).map(|w| w.name.clone()).unwrap_or_default();
+                WallLocation::Web { name, z: midpoint[1] }
             }
         }
-        WallPart::Web { web } => {
-            let name = layout.webs.get(*web).map(|w| w.name.clone()).unwrap_or_default();
-            WallLocation::Web { name, z: midpoint[1] }
-        }
     }
+
+    /// Where wall element `k` of `section` lies.
+    pub(crate) fn element(&self, section: &SolvedSection, k: usize) -> Option<WallLocation> {
+        section.elements().get(k).map(|e| self.locate(&e.part, e.midpoint()))
+    }
+}
+
+/// The wall states of a section under beam resultants about the pitch axis.
+pub(crate) fn section_states(
+    section: &SolvedSection,
+    resultants: &BeamResultants,
+) -> Vec<crate::section::WallState> {
+    let (res, shear) = section_resultants(section, resultants);
+    let strains = section.strains(&res);
+    section.wall_states(&strains, shear)
 }
 
 /// Ply strength ratios at the midpoint of every wall element of a section under beam resultants.
@@ -159,11 +256,9 @@ pub(crate) fn recover_section(
     units: &[UnitResponse],
     resultants: &BeamResultants,
 ) -> Vec<PointStress> {
-    let (res, shear) = section_resultants(section, resultants);
-    let strains = section.strains(&res);
     let elements = section.elements();
-    section
-        .wall_states(&strains, shear)
+    let locator = Locator::new(layout);
+    section_states(section, resultants)
         .into_iter()
         .map(|state| {
             let e = &elements[state.element];
@@ -173,7 +268,7 @@ pub(crate) fn recover_section(
                 element: state.element,
                 laminate: e.laminate,
                 position: state.position,
-                location: locate(layout, &e.part, e.midpoint()),
+                location: locator.locate(&e.part, e.midpoint()),
                 n_x: state.n_x,
                 n_xs: state.n_xs,
                 deformation: state.deformation,

@@ -3,7 +3,8 @@
 
 use nalgebra::Vector3;
 
-use super::{StationStress, WallLocation};
+use super::recover::Locator;
+use super::{PlyPoint, WallLocation};
 use crate::analysis::BladeModel;
 use crate::failure::{Criterion, FailureMode};
 
@@ -58,80 +59,164 @@ pub struct PlyWorst {
     pub by_criterion: [f64; 4],
 }
 
-pub(super) fn critical(model: &BladeModel, stations: &[StationStress]) -> Option<Critical> {
-    let mut best: Option<Critical> = None;
-    for (si, st) in stations.iter().enumerate() {
-        let plies_of = &model.stations[si].plies;
-        for (pi, p) in st.points.iter().enumerate() {
-            for ply in &p.plies {
-                let Some((criterion, ratio)) = ply.ratios.governing() else { continue };
-                if !ratio.ratio.is_finite() {
-                    continue;
-                }
-                if best.as_ref().is_some_and(|b| b.reserve_factor <= ratio.ratio) {
-                    continue;
-                }
-                let index = plies_of[p.laminate][ply.ply_in_laminate];
-                let spec = model.blade.ply(index);
-                best = Some(Critical {
-                    reserve_factor: ratio.ratio,
-                    r: st.r,
-                    station: si,
-                    point: pi,
-                    location: p.location.clone(),
-                    ply: index,
-                    ply_id: spec.map(|s| s.id.clone()).unwrap_or_default(),
-                    material: spec.map(|s| s.material.clone()).unwrap_or_default(),
-                    angle_deg: spec.map(|s| s.angle.deg()).unwrap_or(0.0),
-                    criterion,
-                    mode: ratio.mode,
-                    stress_12: ply.stress_12,
-                });
-            }
-        }
-    }
-    best
+/// The summaries of one case folded into the recovery loop: the lowest reserve factor with
+/// where it occurs, and per station the worst value of every schedule ply. Memory is
+/// independent of the number of wall points: a dense slot per schedule ply (no search) and one
+/// row per ply of the current station. Where a value is kept, the wall element is noted and the
+/// place named once at the end.
+pub(super) struct Summary {
+    best: Option<Best>,
+    /// Per schedule ply: its row in `rows` at the current station, `usize::MAX` when none.
+    slot: Vec<usize>,
+    rows: Vec<Row>,
+    /// Finished rows of the stations done, in station order, plies ascending.
+    out: Vec<PlyWorst>,
 }
 
-pub(super) fn ply_worst(model: &BladeModel, stations: &[StationStress]) -> Vec<PlyWorst> {
-    let mut out = Vec::new();
-    for (si, st) in stations.iter().enumerate() {
-        let plies_of = &model.stations[si].plies;
-        let mut rows: Vec<PlyWorst> = Vec::new();
-        for p in &st.points {
-            for ply in &p.plies {
-                let index = plies_of[p.laminate][ply.ply_in_laminate];
-                let by = Criterion::ALL
-                    .map(|c| ply.ratios.by(c).map(|r| r.ratio).unwrap_or(f64::INFINITY));
-                let governing = ply.ratios.governing();
-                let rf = governing.map(|(_, r)| r.ratio).unwrap_or(f64::INFINITY);
-                match rows.iter_mut().find(|w| w.ply == index) {
-                    Some(w) => {
-                        for (worst, v) in w.by_criterion.iter_mut().zip(by) {
-                            *worst = worst.min(v);
-                        }
-                        if rf < w.reserve_factor {
-                            w.reserve_factor = rf;
-                            w.criterion = governing.map(|g| g.0);
-                            w.mode = governing.map(|g| g.1.mode).unwrap_or(FailureMode::None);
-                            w.location = p.location.clone();
-                        }
-                    }
-                    None => rows.push(PlyWorst {
-                        r: st.r,
+#[derive(Debug, Clone, Copy)]
+struct Best {
+    reserve_factor: f64,
+    station: usize,
+    point: usize,
+    element: usize,
+    ply: usize,
+    criterion: Criterion,
+    mode: FailureMode,
+    stress_12: Vector3<f64>,
+}
+
+#[derive(Debug, Clone, Copy)]
+struct Row {
+    ply: usize,
+    reserve_factor: f64,
+    criterion: Option<Criterion>,
+    mode: FailureMode,
+    element: usize,
+    by_criterion: [f64; 4],
+}
+
+impl Summary {
+    pub(super) fn new(model: &BladeModel) -> Self {
+        Summary {
+            best: None,
+            slot: vec![usize::MAX; model.blade.ply_count()],
+            rows: Vec::new(),
+            out: Vec::new(),
+        }
+    }
+
+    /// Folds in the plies of wall point `point` (element `element`, laminate `laminate`) of
+    /// station `station`, in the order of the points and plies.
+    pub(super) fn add(
+        &mut self,
+        model: &BladeModel,
+        station: usize,
+        point: usize,
+        element: usize,
+        laminate: usize,
+        plies: &[PlyPoint],
+    ) {
+        let plies_of = &model.stations[station].plies[laminate];
+        for p in plies {
+            let index = plies_of[p.ply_in_laminate];
+            let governing = p.governing;
+            if let Some((criterion, ratio)) = governing {
+                let beats = self.best.as_ref().is_none_or(|b| b.reserve_factor > ratio.ratio);
+                if ratio.ratio.is_finite() && beats {
+                    self.best = Some(Best {
+                        reserve_factor: ratio.ratio,
+                        station,
+                        point,
+                        element,
                         ply: index,
-                        ply_id: model.blade.ply(index).map(|s| s.id.clone()).unwrap_or_default(),
+                        criterion,
+                        mode: ratio.mode,
+                        stress_12: p.stress_12,
+                    });
+                }
+            }
+            let by =
+                Criterion::ALL.map(|c| p.ratios.by(c).map(|r| r.ratio).unwrap_or(f64::INFINITY));
+            let rf = governing.map(|(_, r)| r.ratio).unwrap_or(f64::INFINITY);
+            if index >= self.slot.len() {
+                self.slot.resize(index + 1, usize::MAX);
+            }
+            match self.rows.get_mut(self.slot[index]) {
+                Some(w) => {
+                    for (worst, v) in w.by_criterion.iter_mut().zip(by) {
+                        *worst = worst.min(v);
+                    }
+                    if rf < w.reserve_factor {
+                        w.reserve_factor = rf;
+                        w.criterion = governing.map(|g| g.0);
+                        w.mode = governing.map(|g| g.1.mode).unwrap_or(FailureMode::None);
+                        w.element = element;
+                    }
+                }
+                None => {
+                    self.slot[index] = self.rows.len();
+                    self.rows.push(Row {
+                        ply: index,
                         reserve_factor: rf,
                         criterion: governing.map(|g| g.0),
                         mode: governing.map(|g| g.1.mode).unwrap_or(FailureMode::None),
-                        location: p.location.clone(),
+                        element,
                         by_criterion: by,
-                    }),
+                    });
                 }
             }
         }
-        rows.sort_by_key(|w| w.ply);
-        out.extend(rows);
     }
-    out
+
+    /// Closes station `station` (radius `r`): its ply rows, plies ascending.
+    pub(super) fn end_station(&mut self, model: &BladeModel, station: usize, r: f64) {
+        let st = &model.stations[station];
+        let locator = Locator::new(&st.layout);
+        self.rows.sort_unstable_by_key(|w| w.ply);
+        for w in self.rows.drain(..) {
+            self.slot[w.ply] = usize::MAX;
+            self.out.push(PlyWorst {
+                r,
+                ply: w.ply,
+                ply_id: model.blade.ply(w.ply).map(|s| s.id.clone()).unwrap_or_default(),
+                reserve_factor: w.reserve_factor,
+                criterion: w.criterion,
+                mode: w.mode,
+                location: locator.element(&st.section, w.element).unwrap_or(UNKNOWN),
+                by_criterion: w.by_criterion,
+            });
+        }
+    }
+
+    /// The lowest reserve factor and where, and the worst value of every ply at every station.
+    pub(super) fn finish(
+        self,
+        model: &BladeModel,
+        radii: &[f64],
+    ) -> (Option<Critical>, Vec<PlyWorst>) {
+        let critical = self.best.map(|b| {
+            let st = &model.stations[b.station];
+            let spec = model.blade.ply(b.ply);
+            Critical {
+                reserve_factor: b.reserve_factor,
+                r: radii[b.station],
+                station: b.station,
+                point: b.point,
+                location: Locator::new(&st.layout)
+                    .element(&st.section, b.element)
+                    .unwrap_or(UNKNOWN),
+                ply: b.ply,
+                ply_id: spec.map(|s| s.id.clone()).unwrap_or_default(),
+                material: spec.map(|s| s.material.clone()).unwrap_or_default(),
+                angle_deg: spec.map(|s| s.angle.deg()).unwrap_or(0.0),
+                criterion: b.criterion,
+                mode: b.mode,
+                stress_12: b.stress_12,
+            }
+        });
+        (critical, self.out)
+    }
 }
+
+/// A place that cannot be named (an element index outside the section: does not happen).
+const UNKNOWN: WallLocation = WallLocation::Surface { upper: true, x_c: 0.0, solid: false };
