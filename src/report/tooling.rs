@@ -482,8 +482,10 @@ impl ToolingReport<'_> {
         s.push('\n');
         s.push_str(&wrap(
             &format!(
-                "Mould halves: pulled normal to the chord at the middle station, parting through \
-                 the leading and trailing edges; least acceptable draft {:.1}°",
+                "Mould halves: pulled normal to a chord at {:.1}° (chosen so that no cavity facet \
+                 undercuts), parted along the blade's silhouette across the pull; least \
+                 acceptable draft {:.1}°",
+                t.mould_pull_angle.deg(),
                 t.params.min_draft.deg()
             ),
             "",
@@ -637,6 +639,7 @@ impl ToolingReport<'_> {
                 "safety_note": melt.safety_note,
             },
             "moulds": halves,
+            "mould_pull_chord_angle_deg": num(t.mould_pull_angle.deg()),
             "end_pieces": t.end_pieces.iter().map(|h| json!({
                 "part": h.side,
                 "pull": {"x": num(h.pull[0]), "y": num(h.pull[1]), "z": num(h.pull[2])},

@@ -61,6 +61,7 @@ mod mesh;
 mod mould;
 mod mould_block;
 mod orient;
+mod parting;
 mod polygon;
 mod spatial;
 mod stl;
@@ -86,6 +87,7 @@ pub use manifest::{
 };
 pub use mesh::{BoundingBox, Mesh, box_mesh};
 pub use mould::{MouldHalf, MouldParams, MouldParts, Undercut, build_mould_parts, build_moulds};
+pub use parting::SilhouetteSurface;
 pub use polygon::{loft_polygons, triangulate_polygon};
 pub use stl::{
     LengthUnit, StlFormat, StlOptions, WrittenPart, binary_header, encode_stl,
