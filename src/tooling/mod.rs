@@ -13,9 +13,10 @@
 //! A blade's tooling ([`build_tooling`]): the outer mould line lofted from the blade's own
 //! interpolation, the inner surface offset by the laminate, one core per cell between the webs
 //! (closed where the inner surfaces come within the least core thickness at the edges), the
-//! laminate shell, and a two-part mould parted through the leading and trailing edges
-//! ([`build_moulds`]: ruled parting surface, locating pins of our own, draft and undercut regions
-//! per half); [`summarise`] gives the masses and the core alloy's melting check.
+//! laminate shell, and a mould of two halves parted along the blade's silhouette across the pull
+//! ([`SilhouetteSurface`], the pull chosen so that no cavity facet undercuts) with end pieces
+//! where a spherical end needs them ([`build_mould_parts`]: ruled parting surface, locating pins
+//! of our own, draft and undercut regions per part); [`summarise`] gives the masses and the core alloy's melting check.
 //!
 //! Frames: the rotor frame has its origin on the rotor axis where the pitch axis meets it, x along
 //! the pitch axis from root to tip; the section plane at radius x is (y, z). Pitching turns the
