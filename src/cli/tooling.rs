@@ -18,8 +18,8 @@ use layloft::input::{Project, read_project};
 use layloft::report::{FileSet, ToolingReport};
 use layloft::tooling::{
     CheckParams, MANIFEST_FILE, Manifest, ManifestEntry, MeshError, StaleFiles, StlFormat,
-    StlOptions, ToolingParams, build_tooling, sha256_hex, stale_files, summarise,
-    write_part_set_with_progress,
+    StlOptions, ToolingParams, build_tooling, encode_part_set_with_progress, sha256_hex,
+    stale_files, summarise,
 };
 use layloft::units::MM;
 
@@ -170,21 +170,10 @@ pub fn build_and_write(
         parts.iter().chain(&copies).map(|(n, _)| format!("{n}.stl")).collect();
     set.push(SUMMARY_FILE.into());
     let stale = stale_files(dir, &set);
-    // The whole set is written into a staging folder beside `dir` and put in place as one
-    // (`FileSet`), so that a failure or a killed run leaves the earlier set whole.
-    let parent = match dir.parent() {
-        Some(p) if !p.as_os_str().is_empty() => p.to_path_buf(),
-        _ => std::path::PathBuf::from("."),
-    };
-    layloft::report::ensure_folder(&parent)?;
-    let staging =
-        tempfile::Builder::new().prefix(".layloft-set-").tempdir_in(&parent).map_err(|e| {
-            Failure::Run(anyhow!("cannot make a staging folder beside {}: {e}", dir.display()))
-        })?;
-    let stage = staging.path();
+    // The whole set is checked and encoded in memory, then put in place as one (`FileSet`),
+    // so that a failure or a killed run leaves the earlier set whole; each file is written once.
     let bar = out.progress(2 * (parts.len() + copies.len()) as u64, "checking");
-    let mut written = write_part_set_with_progress(
-        stage,
+    let encoded = encode_part_set_with_progress(
         &parts,
         &copies,
         stl,
@@ -207,8 +196,13 @@ pub fn build_and_write(
         if stl.format == StlFormat::Ascii { "ASCII" } else { "binary" },
         stl.unit.symbol()
     );
-    for w in &mut written {
-        w.path = dir.join(file_name(&w.path));
+    let mut written = Vec::with_capacity(encoded.len());
+    let mut contents = Vec::with_capacity(encoded.len());
+    for (mut w, bytes) in encoded {
+        let name = file_name(&w.path);
+        w.path = dir.join(&name);
+        contents.push((name, bytes));
+        written.push(w);
     }
     let result = Written { tooling, written, summary, format, stale };
     let json = serde_json::to_string_pretty(&result.report(&project.name).to_json())
@@ -229,13 +223,9 @@ pub fn build_and_write(
     });
     let manifest = Manifest::new(stl.unit.symbol(), files);
     let mut fileset = FileSet::new();
-    for w in &result.written {
-        let name = file_name(&w.path);
-        let bytes = std::fs::read(stage.join(&name))
-            .map_err(|e| Failure::Run(anyhow!("cannot read back the staged {name}: {e}")))?;
+    for (name, bytes) in contents {
         fileset.add(name, bytes);
     }
-    drop(staging);
     fileset.add(SUMMARY_FILE, json.into_bytes());
     fileset.add(MANIFEST_FILE, manifest.to_json().into_bytes());
     // The tooling manifest decides which files of the earlier run go: those it lists unchanged.

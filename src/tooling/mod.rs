@@ -91,8 +91,8 @@ pub use mould::{MouldHalf, MouldParams, MouldParts, Undercut, build_mould_parts,
 pub use parting::SilhouetteSurface;
 pub use polygon::{loft_polygons, triangulate_polygon};
 pub use stl::{
-    LengthUnit, StlFormat, StlOptions, WrittenPart, binary_header, encode_stl,
-    write_part_set_with_progress, write_parts, write_parts_with_progress, write_stl,
+    LengthUnit, StlFormat, StlOptions, WrittenPart, binary_header, encode_part_set_with_progress,
+    encode_stl, write_part_set_with_progress, write_parts, write_parts_with_progress, write_stl,
     write_stl_digest,
 };
 pub use summary::{
