@@ -93,6 +93,24 @@ fn the_mine_fan_demo_writes_closed_outward_parts_and_a_summary() {
         assert_eq!(half["locators"].as_array().unwrap().len(), 3);
     }
     assert!(f(&json["mould_pull_chord_angle_deg"]).is_finite());
+    // The mould parts listed with pull, least draft, volume and mass: the same volumes as the
+    // parts table, each pull a unit vector.
+    let moulds = json["mould_parts"].as_array().unwrap();
+    assert_eq!(moulds.len(), 4);
+    for m in moulds {
+        let part = json["parts"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .find(|p| p["name"] == m["name"])
+            .unwrap_or_else(|| panic!("{m}"));
+        assert_eq!(f(&m["volume_m3"]), f(&part["volume_m3"]));
+        let p = &m["pull"];
+        let len = (f(&p["x"]).powi(2) + f(&p["y"]).powi(2) + f(&p["z"]).powi(2)).sqrt();
+        assert!((len - 1.0).abs() < 1e-12, "{m}");
+        assert_eq!(f(&m["undercut_area_m2"]), 0.0);
+        assert!(m["mass_kg"].is_null());
+    }
     // Five parts and the two end pieces.
     assert!(stderr.contains("wrote 7 STL files"), "{stderr}");
 }

@@ -136,9 +136,21 @@ impl ToolingReport<'_> {
         table
     }
 
-    /// Each mould half's pull, least draft and undercut area.
-    fn moulds_table(&self) -> Table {
+    /// The mould parts with what each is: the part's file name, its description, its volume as
+    /// made and its mass, in the order of the parts.
+    fn mould_parts(&self) -> Vec<(&str, &crate::tooling::MouldHalf, f64, Option<f64>)> {
         let t = self.tooling;
+        t.parts
+            .iter()
+            .zip(&self.summary.masses)
+            .filter(|(p, _)| p.kind.is_mould())
+            .zip(t.moulds.iter().chain(&t.end_pieces))
+            .map(|((p, m), h)| (p.name.as_str(), h, p.nominal_volume, m.mass))
+            .collect()
+    }
+
+    /// Each mould part's pull, least draft, undercut area, volume and mass.
+    fn moulds_table(&self) -> Table {
         let mut table = Table::new(&[
             ("part", Align::Left),
             ("pull (x, y, z)", Align::Left),
@@ -146,8 +158,10 @@ impl ToolingReport<'_> {
             ("at", Align::Left),
             ("below least cm²", Align::Right),
             ("undercut cm²", Align::Right),
+            ("volume cm³", Align::Right),
+            ("mass kg", Align::Right),
         ]);
-        for h in t.moulds.iter().chain(&t.end_pieces) {
+        for (_, h, volume, mass) in self.mould_parts() {
             table.row(vec![
                 h.side.to_string(),
                 format!(
@@ -160,6 +174,8 @@ impl ToolingReport<'_> {
                 h.draft.at.to_string(),
                 sig4(h.draft.below_min_area * 1e4),
                 sig4(h.draft.undercut_area * 1e4),
+                sig4(volume * 1e6),
+                mass.map_or("not computed".into(), sig4),
             ]);
         }
         table
@@ -640,6 +656,15 @@ impl ToolingReport<'_> {
             },
             "moulds": halves,
             "mould_pull_chord_angle_deg": num(t.mould_pull_angle.deg()),
+            "mould_parts": self.mould_parts().iter().map(|(name, h, volume, mass)| json!({
+                "name": name,
+                "pull": {"x": num(h.pull[0]), "y": num(h.pull[1]), "z": num(h.pull[2])},
+                "least_draft_deg": num(h.draft.min_draft.deg()),
+                "below_least_draft_area_m2": num(h.draft.below_min_area),
+                "undercut_area_m2": num(h.draft.undercut_area),
+                "volume_m3": num(*volume),
+                "mass_kg": opt(*mass),
+            })).collect::<Vec<_>>(),
             "end_pieces": t.end_pieces.iter().map(|h| json!({
                 "part": h.side,
                 "pull": {"x": num(h.pull[0]), "y": num(h.pull[1]), "z": num(h.pull[2])},
