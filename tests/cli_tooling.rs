@@ -39,6 +39,7 @@ fn the_mine_fan_demo_writes_closed_outward_parts_and_a_summary() {
     let parts = ["core-1", "core-2", "shell", "mould-upper", "mould-lower"];
     let mut want: Vec<String> = parts.iter().map(|p| format!("{p}.stl")).collect();
     want.push("tooling-summary.json".into());
+    want.push("tooling-exploded.svg".into());
     // Each mould half again in its machining frame, and the manifest of the set.
     want.push("mould-upper-machining.stl".into());
     want.push("mould-lower-machining.stl".into());
@@ -111,6 +112,15 @@ fn the_mine_fan_demo_writes_closed_outward_parts_and_a_summary() {
         assert_eq!(f(&m["undercut_area_m2"]), 0.0);
         assert!(m["mass_kg"].is_null());
     }
+    // The exploded drawing: one outline for the blade and one for each mould part, each part
+    // named, the whole a single SVG element.
+    let svg = std::fs::read_to_string(out.join("tooling-exploded.svg")).unwrap();
+    assert!(svg.starts_with("<svg ") && svg.trim_end().ends_with("</svg>"));
+    assert_eq!(svg.matches("<polygon ").count(), 1 + moulds.len());
+    for m in moulds {
+        assert!(svg.contains(&format!(">{}</text>", m["name"].as_str().unwrap())), "{m}");
+    }
+    assert!(svg.contains("confirm by test"));
     // Five parts and the two end pieces.
     assert!(stderr.contains("wrote 7 STL files"), "{stderr}");
 }
