@@ -742,7 +742,7 @@ impl ToolingReport<'_> {
         };
         let b = t.moulds[0].block_size;
         let gap = 0.35 * b[2].max(0.2 * b[0]);
-        let mut shapes: Vec<(String, Vec<[f64; 2]>, [f64; 2], bool)> = Vec::new();
+        let mut shapes: Vec<Outline> = Vec::new();
         if let Some(shell) = t.parts.iter().find(|p| p.kind == crate::tooling::PartKind::Shell) {
             shapes.push(("blade".into(), outline(&shell.mesh), [0.0, 0.0], true));
         }
@@ -836,6 +836,10 @@ impl ToolingReport<'_> {
         s
     }
 }
+
+/// A part's outline in the exploded view: name, points, unit pull in the view, and whether it
+/// is the blade (dashed).
+type Outline = (String, Vec<[f64; 2]>, [f64; 2], bool);
 
 /// `text` with the XML special characters escaped.
 fn xml(text: &str) -> String {
