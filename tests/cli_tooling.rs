@@ -35,6 +35,7 @@ fn the_mine_fan_demo_writes_closed_outward_parts_and_a_summary() {
     let parts = ["core-1", "core-2", "shell", "mould-upper", "mould-lower"];
     let mut want: Vec<String> = parts.iter().map(|p| format!("{p}.stl")).collect();
     want.push("tooling-summary.json".into());
+    want.push("tooling-exploded.svg".into());
     // Each mould half again in its machining frame, and the manifest of the set.
     want.push("mould-upper-machining.stl".into());
     want.push("mould-lower-machining.stl".into());
@@ -80,12 +81,42 @@ fn the_mine_fan_demo_writes_closed_outward_parts_and_a_summary() {
     assert_eq!(json["core_alloy"]["name"], "bi58sn42");
     assert_eq!(json["core_alloy"]["failed"], false);
     assert!(json["core_alloy"]["safety_note"].as_str().unwrap().contains("lead- and cadmium-free"));
-    // The twisted blade has undercuts, reported with area and place.
+    // Parted along its silhouette, with the pull chosen beyond the chord angles (the blunt
+    // trailing edge), the twisted blade leaves no undercut in either half.
     for half in json["moulds"].as_array().unwrap() {
-        assert!(f(&half["undercut_area_m2"]) > 0.0);
-        assert!(!half["undercuts"].as_array().unwrap().is_empty());
+        assert_eq!(f(&half["undercut_area_m2"]), 0.0);
+        assert!(half["undercuts"].as_array().unwrap().is_empty());
+        assert!(f(&half["least_draft_deg"]) >= 0.0);
         assert_eq!(half["locators"].as_array().unwrap().len(), 3);
     }
+    assert!(f(&json["mould_pull_chord_angle_deg"]).is_finite());
+    // The mould parts listed with pull, least draft, volume and mass: the same volumes as the
+    // parts table, each pull a unit vector.
+    let moulds = json["mould_parts"].as_array().unwrap();
+    assert_eq!(moulds.len(), 4);
+    for m in moulds {
+        let part = json["parts"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .find(|p| p["name"] == m["name"])
+            .unwrap_or_else(|| panic!("{m}"));
+        assert_eq!(f(&m["volume_m3"]), f(&part["volume_m3"]));
+        let p = &m["pull"];
+        let len = (f(&p["x"]).powi(2) + f(&p["y"]).powi(2) + f(&p["z"]).powi(2)).sqrt();
+        assert!((len - 1.0).abs() < 1e-12, "{m}");
+        assert_eq!(f(&m["undercut_area_m2"]), 0.0);
+        assert!(m["mass_kg"].is_null());
+    }
+    // The exploded drawing: one outline for the blade and one for each mould part, each part
+    // named, the whole a single SVG element.
+    let svg = std::fs::read_to_string(out.join("tooling-exploded.svg")).unwrap();
+    assert!(svg.starts_with("<svg ") && svg.trim_end().ends_with("</svg>"));
+    assert_eq!(svg.matches("<polygon ").count(), 1 + moulds.len());
+    for m in moulds {
+        assert!(svg.contains(&format!(">{}</text>", m["name"].as_str().unwrap())), "{m}");
+    }
+    assert!(svg.contains("confirm by test"));
     // Five parts and the two end pieces.
     assert!(stderr.contains("wrote 7 STL files"), "{stderr}");
 }
@@ -114,7 +145,8 @@ fn the_text_summary_names_what_an_engineer_needs() {
         "Core at the trailing edge: the last core closes",
         "Core alloy: bi58sn42, melts 138..138 °C",
         "ok   melts out in the cure",
-        "undercuts of the upper half",
+        "upper half: no undercuts",
+        "parted along the blade's silhouette",
         "allowances: mould cavity x1",
     ] {
         assert!(stdout.contains(text), "stdout lacks '{text}':\n{stdout}");

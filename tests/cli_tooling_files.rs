@@ -149,6 +149,7 @@ fn a_web_removed_leaves_exactly_the_new_set_and_files_the_tool_did_not_write() {
         "mould-tip-end.stl",
         "mould-tip-end-machining.stl",
         "tooling-summary.json",
+        "tooling-exploded.svg",
         "tooling-manifest.json",
         "notes.txt",
         "core-9.stl",

@@ -24,8 +24,9 @@ use crate::support_stl::closed_outward;
 
 use layloft::tooling::{
     ChainEnds, CheckParams, EndKind, FnSurface, LengthUnit, LoftParams, Mesh, MeshError,
-    MouldParams, SpanSurface, StlFormat, StlOptions, Trims, box_mesh, build_mould_parts,
-    build_moulds, check_solid, loft_annulus, loft_hollow, loft_solid, split_cells, write_parts,
+    MouldParams, SilhouetteSurface, SpanSurface, StlFormat, StlOptions, Trims, box_mesh,
+    build_mould_parts, build_moulds, check_solid, loft_annulus, loft_hollow, loft_solid,
+    split_cells, write_parts,
 };
 use layloft::units::Angle;
 
@@ -657,4 +658,143 @@ fn a_prism_with_square_ends_needs_two_parts_and_with_spherical_ends_end_pieces()
     let rt = rb - h * 10f64.to_radians().tan();
     let bound = 3.0 * 1e-4 * PI * ((rb + rt) * h * 1.1 + rt * rt) * 1.1;
     assert!(gap > 0.0 && gap < bound, "{gap:e} vs {bound:e}");
+}
+
+/// NACA 00xx half-thickness per chord with the closed trailing edge: the last coefficient
+/// −0.1036 in place of −0.1015, which brings y_t(1) to zero (common practice).
+fn yt_closed(t: f64, x: f64) -> f64 {
+    5.0 * t
+        * (0.2969 * x.sqrt() - 0.1260 * x - 0.3516 * x * x + 0.2843 * x.powi(3)
+            - 0.1036 * x.powi(4))
+}
+
+#[test]
+fn a_twisted_blade_parted_at_its_silhouette_draws_on_both_halves() {
+    // NACA 0012 with a closed trailing edge, twisted from -25° to +25° over its span, pulled
+    // normal to the middle chord. Parted at the leading and trailing edges its end sections'
+    // noses undercut by about their turn (see the test above); parted at each section's extremes
+    // across the pull, every side of a convex section is a graph across the pull, so no facet of
+    // either half faces away from its pull (geometry of convex sections), whatever the twist.
+    let twist = |x: f64| Angle::from_deg(125.0 * (x - 0.5));
+    let blade = FnSurface {
+        span: [0.2, 0.8],
+        upper: |_x: f64, u: f64| [(u - 0.25) * 0.1, yt_closed(0.12, u) * 0.1],
+        lower: |_x: f64, u: f64| [(u - 0.25) * 0.1, -yt_closed(0.12, u) * 0.1],
+        chord_angle: twist,
+        ends: ChainEnds { front: EndKind::Point, back: EndKind::Point },
+    };
+    let pull = Angle::ZERO;
+    let parted = SilhouetteSurface::new(&blade, pull);
+    for x in [0.3, 0.5, 0.7] {
+        // The extremes: a rigid turn by ψ − φ of the section puts its front extreme on the lower
+        // chain when the chord is turned nose up against the pull (φ > ψ), on the upper otherwise.
+        let [f, b] = parted.extremes(x);
+        let turn = twist(x).deg();
+        assert!(f * turn >= -1e-6, "x {x}: front {f}, turn {turn}");
+        assert!((b - 1.0).abs() < 1e-6, "x {x}: the sharp trailing edge stays the back, {b}");
+    }
+    let trims = Trims::spheres(0.3, 0.7);
+    let solid = loft_solid(&parted, &trims, &params(1e-4)).unwrap();
+    let plain = loft_solid(&blade, &trims, &params(1e-4)).unwrap();
+    // The same surface: the volumes agree within the chordal tolerance times the area.
+    let (v, w) = (check(&solid.mesh, "parted").volume, check(&plain.mesh, "plain").volume);
+    assert!((v - w).abs() <= 1e-4 * solid.mesh.area(), "{v} vs {w}");
+    let set = build_mould_parts(&solid, &|_x| pull, &mould_params()).unwrap();
+    for (mesh, half) in set.half_meshes.iter().zip(&set.halves) {
+        check(mesh, half.side);
+        assert!(half.undercuts.is_empty(), "{}: {:?}", half.side, half.undercuts);
+        assert!(half.draft.min_draft.deg() >= 0.0, "{}", half.side);
+    }
+    // The concave root end still goes to an end piece; the parts fill the block but for the
+    // sockets' clearance.
+    let sides: Vec<&str> = set.end_pieces.iter().map(|(_, h)| h.side).collect();
+    assert!(sides.contains(&"root end"), "{sides:?}");
+    let v: f64 = set.half_meshes.iter().map(|m| m.signed_volume()).sum::<f64>()
+        + set.end_pieces.iter().map(|(m, _)| m.signed_volume()).sum::<f64>()
+        + solid.mesh.signed_volume();
+    let [x, y, z] = set.halves[0].block_size;
+    let gap = x * y * z - v;
+    let (rb, h) = (0.02 / 6.0, 0.02 / 3.0);
+    let rt = rb - h * 10f64.to_radians().tan();
+    let bound = 3.0 * 1e-4 * PI * ((rb + rt) * h * 1.1 + rt * rt) * 1.1;
+    assert!(gap > 0.0 && gap < bound, "{gap:e} vs {bound:e}");
+}
+
+#[test]
+fn a_blunt_trailing_edge_draws_when_the_pull_lies_beyond_its_chord_angles() {
+    // NACA 0012 with its open trailing edge, twisted from -10° to +10°. Pulled normal to a
+    // chord at 10.5°, beyond every section's chord angle, the base's upper corner is the extreme
+    // across the pull at every radius (the section is turned by 0.5° to 20.5°, less than 90°
+    // less the surface's slope there), so the flat base goes whole to the lower half and faces
+    // away from the upper pull: no undercut on either half (geometry of a turned section).
+    let twist = |x: f64| Angle::from_deg(50.0 * (x - 0.5));
+    let blade = naca_blade(0.1, [0.2, 0.8], twist);
+    let pull = Angle::from_deg(10.5);
+    let parted = SilhouetteSurface::new(&blade, pull);
+    for x in [0.3, 0.5, 0.7] {
+        let [_, b] = parted.extremes(x);
+        assert!((b - 1.0).abs() < 1e-6, "x {x}: the back extreme is the upper corner, {b}");
+    }
+    let solid = loft_solid(&parted, &Trims::planes(0.3, 0.7), &params(1e-4)).unwrap();
+    let (s, c) = pull.rad().sin_cos();
+    let mould = MouldParams { pull: [0.0, -s, c], ..mould_params() };
+    let set = build_mould_parts(&solid, &|_x| pull, &mould).unwrap();
+    assert!(set.end_pieces.is_empty(), "square ends need no end piece");
+    for (mesh, half) in set.half_meshes.iter().zip(&set.halves) {
+        check(mesh, half.side);
+        assert!(half.undercuts.is_empty(), "{}: {:?}", half.side, half.undercuts);
+    }
+}
+
+#[test]
+fn a_part_set_encoded_in_memory_is_byte_for_byte_the_set_written_to_files() {
+    // The same parts through the two ways out: written file by file, and checked and encoded in
+    // memory for a caller that puts the set in place itself. Same bytes, sizes and SHA-256
+    // (FIPS 180-4, the manifest's own digest, recomputed on the file read back).
+    let a = box_mesh([0.0; 3], [0.1, 0.2, 0.3]);
+    let b = box_mesh([0.2, 0.0, 0.0], [0.3, 0.1, 0.1]);
+    let parts = [("block-a", &a)];
+    let copies = [("block-b", &b)];
+    let dir = tempfile::tempdir().unwrap();
+    let options = StlOptions { unit: LengthUnit::Millimetre, format: StlFormat::Binary };
+    let written = layloft::tooling::write_part_set_with_progress(
+        dir.path(),
+        &parts,
+        &copies,
+        &options,
+        &CheckParams::default(),
+        &mut |_, _, _| {},
+    )
+    .unwrap();
+    let encoded = layloft::tooling::encode_part_set_with_progress(
+        &parts,
+        &copies,
+        &options,
+        &CheckParams::default(),
+        &mut |_, _, _| {},
+    )
+    .unwrap();
+    assert_eq!(written.len(), 2);
+    for (w, (e, bytes)) in written.iter().zip(&encoded) {
+        let file = std::fs::read(&w.path).unwrap();
+        assert_eq!(&file, bytes, "{}", w.name);
+        assert_eq!(e.path, std::path::PathBuf::from(format!("{}.stl", w.name)));
+        assert_eq!((e.size_bytes, &e.sha256), (w.size_bytes, &w.sha256));
+        assert_eq!(e.sha256, layloft::tooling::sha256_hex(&file));
+        assert_eq!(file.len(), 84 + 50 * 12);
+    }
+    // A part that fails its check encodes nothing.
+    let mut open = a.clone();
+    open.triangles.pop();
+    let bad = [("open", &open)];
+    assert!(
+        layloft::tooling::encode_part_set_with_progress(
+            &bad,
+            &[],
+            &options,
+            &CheckParams::default(),
+            &mut |_, _, _| {},
+        )
+        .is_err()
+    );
 }

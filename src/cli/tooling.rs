@@ -18,8 +18,8 @@ use layloft::input::{Project, read_project};
 use layloft::report::{FileSet, ToolingReport};
 use layloft::tooling::{
     CheckParams, MANIFEST_FILE, Manifest, ManifestEntry, MeshError, StaleFiles, StlFormat,
-    StlOptions, ToolingParams, build_tooling, sha256_hex, stale_files, summarise,
-    write_part_set_with_progress,
+    StlOptions, ToolingParams, build_tooling, encode_part_set_with_progress, sha256_hex,
+    stale_files, summarise,
 };
 use layloft::units::MM;
 
@@ -32,7 +32,8 @@ Examples:
 
 Writes one STL file per part into the folder (core-1.stl, core-2.stl, ..., shell.stl,
 mould-upper.stl, mould-lower.stl), each mould part again in its machining frame
-(mould-upper-machining.stl, ...), tooling-summary.json and tooling-manifest.json (every file of
+(mould-upper-machining.stl, ...), tooling-summary.json, tooling-exploded.svg (the mould parts
+drawn apart along their pulls) and tooling-manifest.json (every file of
 the set with its size and SHA-256). Files of an earlier run that the new set no longer holds are
 removed, but only those the earlier manifest lists and that are unchanged since; any other file
 in the folder is left alone. Every part is checked (closed,
@@ -185,22 +186,12 @@ pub fn build_and_write(
     let mut set: Vec<String> =
         parts.iter().chain(&copies).map(|(n, _)| format!("{n}.stl")).collect();
     set.push(SUMMARY_FILE.into());
+    set.push(EXPLODED_FILE.into());
     let stale = stale_files(dir, &set);
-    // The whole set is written into a staging folder beside `dir` and put in place as one
-    // (`FileSet`), so that a failure or a killed run leaves the earlier set whole.
-    let parent = match dir.parent() {
-        Some(p) if !p.as_os_str().is_empty() => p.to_path_buf(),
-        _ => std::path::PathBuf::from("."),
-    };
-    layloft::report::ensure_folder(&parent)?;
-    let staging =
-        tempfile::Builder::new().prefix(".layloft-set-").tempdir_in(&parent).map_err(|e| {
-            Failure::Run(anyhow!("cannot make a staging folder beside {}: {e}", dir.display()))
-        })?;
-    let stage = staging.path();
+    // The whole set is checked and encoded in memory, then put in place as one (`FileSet`),
+    // so that a failure or a killed run leaves the earlier set whole; each file is written once.
     let bar = out.progress(2 * (parts.len() + copies.len()) as u64, "checking");
-    let mut written = write_part_set_with_progress(
-        stage,
+    let encoded = encode_part_set_with_progress(
         &parts,
         &copies,
         stl,
@@ -223,8 +214,13 @@ pub fn build_and_write(
         if stl.format == StlFormat::Ascii { "ASCII" } else { "binary" },
         stl.unit.symbol()
     );
-    for w in &mut written {
-        w.path = dir.join(file_name(&w.path));
+    let mut written = Vec::with_capacity(encoded.len());
+    let mut contents = Vec::with_capacity(encoded.len());
+    for (mut w, bytes) in encoded {
+        let name = file_name(&w.path);
+        w.path = dir.join(&name);
+        contents.push((name, bytes));
+        written.push(w);
     }
     let result = Written { tooling, written, summary, format, stale };
     let json = serde_json::to_string_pretty(&result.report(&project.name).to_json())
@@ -243,16 +239,19 @@ pub fn build_and_write(
         size_bytes: json.len() as u64,
         sha256: sha256_hex(json.as_bytes()),
     });
+    let svg = result.report(&project.name).exploded_svg();
+    files.push(ManifestEntry {
+        file: EXPLODED_FILE.into(),
+        size_bytes: svg.len() as u64,
+        sha256: sha256_hex(svg.as_bytes()),
+    });
     let manifest = Manifest::new(stl.unit.symbol(), files);
     let mut fileset = FileSet::new();
-    for w in &result.written {
-        let name = file_name(&w.path);
-        let bytes = std::fs::read(stage.join(&name))
-            .map_err(|e| Failure::Run(anyhow!("cannot read back the staged {name}: {e}")))?;
+    for (name, bytes) in contents {
         fileset.add(name, bytes);
     }
-    drop(staging);
     fileset.add(SUMMARY_FILE, json.into_bytes());
+    fileset.add(EXPLODED_FILE, svg.into_bytes());
     fileset.add(MANIFEST_FILE, manifest.to_json().into_bytes());
     // The tooling manifest decides which files of the earlier run go: those it lists unchanged.
     for name in &result.stale.remove {
@@ -267,6 +266,9 @@ pub fn build_and_write(
 
 /// File name of the tooling summary in the output folder.
 const SUMMARY_FILE: &str = "tooling-summary.json";
+
+/// File name of the exploded drawing of the mould parts in the output folder.
+pub const EXPLODED_FILE: &str = "tooling-exploded.svg";
 
 /// Notes on stderr about undercuts, and warnings about a failed melting check; whether the
 /// melting check failed.
@@ -323,7 +325,8 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         out.data(&report.to_text());
     }
     out.note(&format!(
-        "wrote {} STL files (and {} in machining frames), {SUMMARY_FILE} and {MANIFEST_FILE} into {}",
+        "wrote {} STL files (and {} in machining frames), {SUMMARY_FILE}, {EXPLODED_FILE} and \
+         {MANIFEST_FILE} into {}",
         result.tooling.parts.len(),
         result.tooling.machining.len(),
         args.out.display()

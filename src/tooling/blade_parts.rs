@@ -13,6 +13,11 @@
 //!   bulkhead of its own laminate thickness, normal to the pitch axis; a cell bounded by other
 //!   webs or the edges runs on through that radius as one core. The cores are numbered by the
 //!   span segment they start in, root first, front to back within a segment.
+//! - **Mould.** The outer mould line is lofted parted at its silhouette along the mould's pull
+//!   (see [`super::SilhouetteSurface`]); the pull's angle about the pitch axis is chosen among
+//!   a few candidates, the first whose halves have no undercut facet (see `choose_pull`), and
+//!   end pieces are added where a spherical end undercuts the halves (see
+//!   [`super::build_mould_parts`]). The same lofted surface bounds the shell.
 //! - **Machining frames.** Each mould part is also given in its own frame (see
 //!   [`super::to_machining_frame`]): the cavity opens along +Z, the back face lies on z = 0.
 //! - **Shell.** The outer solid with every core as a cavity.
@@ -27,9 +32,10 @@ use super::grid::LoftParams;
 use super::loft::{LoftedSolid, loft_solid};
 use super::machining::{MachiningFrame, to_machining_frame};
 use super::mesh::Mesh;
-use super::mould::{MouldHalf, MouldParams, build_mould_parts};
+use super::mould::{MouldHalf, MouldParams, MouldParts, build_mould_parts};
+use super::parting::SilhouetteSurface;
 use super::stl::LengthUnit;
-use super::surface::EndKind;
+use super::surface::{EndKind, SpanSurface};
 use super::trim::{EndTrim, Trims};
 use super::vec3;
 use crate::blade::{Blade, BladeSurfaces, Surface};
@@ -218,6 +224,9 @@ pub struct BladeTooling {
     pub end_pieces: Vec<MouldHalf>,
     /// Each mould part again in its own machining frame (see [`MachinedPart`]).
     pub machining: Vec<MachinedPart>,
+    /// The chord angle ψ the mould's pull is normal to: the upper half is pulled along
+    /// `(0, −sin ψ, cos ψ)`, rotor frame (see [`build_tooling`]'s choice of the pull).
+    pub mould_pull_angle: Angle,
 }
 
 /// A mould part in its machining frame: the casting leaves the cavity along +Z, the back face
@@ -433,8 +442,10 @@ pub fn build_tooling(
         done += 1;
         progress(done, total, label);
     };
-    let outer_solid = loft_solid(&outer, &outer_trims, &loft)
-        .map_err(|e| MeshError::Geometry(format!("the outer mould line: {e}")))?;
+    // The outer mould line is parted at its silhouette along the mould's pull, which is chosen
+    // here (see `choose_pull`).
+    let (outer_solid, mould_pull_angle, mould_set) =
+        choose_pull(blade, &outer, &outer_trims, &loft, params, pitch, span)?;
     step("outer mould line", progress);
     let mut parts = Vec::with_capacity(total);
     let mut shell = outer_solid.mesh.clone();
@@ -461,7 +472,7 @@ pub fn build_tooling(
         nominal_volume: shell_volume,
     });
     step("shell", progress);
-    let (moulds, end_pieces) = mould_parts(blade, &outer_solid, params, pitch, &mut parts)?;
+    let (moulds, end_pieces) = push_mould_parts(mould_set, &mut parts);
     step("mould halves", progress);
     let root_extension = r0 - root_trim_x(&outer_solid);
     let mut machining = Vec::new();
@@ -484,25 +495,77 @@ pub fn build_tooling(
         params: params.clone(),
         machining,
         end_pieces,
+        mould_pull_angle,
     })
 }
 
-/// The mould halves of the outer solid: cavity scaled by the expansion factor, pulled normal to
-/// the chord at the middle station.
-fn mould_parts(
+/// Chooses the mould's pull and lofts the outer mould line parted for it; the pull's chord
+/// angle ψ (the upper half is pulled along `(0, −sin ψ, cos ψ)`) and the mould parts. The
+/// parting always follows the silhouette along the pull ([`super::parting`]), so a section whose
+/// sides are graphs across the pull draws whatever its twist; what is left to choose is the
+/// pull's angle about the pitch axis, tried in this order until the halves have no undercut
+/// facet (the draft evaluator over their cavity facets, after the end pieces):
+///
+/// 1. normal to the chord at the middle station, for a sharp trailing edge (a section is then
+///    turned against the pull by at most about half the twist);
+/// 2. just beyond the greatest chord angle over the span (by 0.5°), then
+/// 3. just beyond the least.
+///
+/// A blunt trailing edge skips the first: its flat base turns through the pull where a
+/// section's chord angle equals the pull's, and no grid of rings parts a flat face exactly
+/// there (the facets across that radius draw at a few hundredths of a degree either way).
+/// With the pull beyond the range of chord angles, one corner of the base is the extreme
+/// across the pull at every radius (for turns below 90° less the surface's slope at the
+/// corner) and the base goes whole to one half. When no candidate removes every undercut, the
+/// one with the least undercut area is kept and its undercuts are reported.
+fn choose_pull(
     blade: &Blade,
-    outer: &LoftedSolid,
+    outer: &BladeSurface<'_>,
+    trims: &Trims,
+    loft: &LoftParams,
     params: &ToolingParams,
     pitch: Angle,
-    parts: &mut Vec<Part>,
-) -> Result<([MouldHalf; 2], Vec<MouldHalf>), MeshError> {
+    span: [f64; 2],
+) -> Result<(LoftedSolid, Angle, MouldParts), MeshError> {
+    let n = 200;
+    let (lo, hi) = (0..=n)
+        .map(|i| outer.chord_angle(span[0] + (span[1] - span[0]) * i as f64 / n as f64).deg())
+        .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), v| (a.min(v), b.max(v)));
+    let mut candidates = Vec::with_capacity(3);
+    if outer.back == EndKind::Point {
+        candidates.push(pull_angle(blade, pitch));
+    }
+    candidates.extend([Angle::from_deg(hi + 0.5), Angle::from_deg(lo - 0.5)]);
+    let mut best: Option<(LoftedSolid, Angle, MouldParts, f64)> = None;
+    for angle in candidates {
+        let solid = loft_solid(&SilhouetteSurface::new(outer, angle), trims, loft)
+            .map_err(|e| MeshError::Geometry(format!("the outer mould line: {e}")))?;
+        let set = mould_parts(&solid, params, angle)?;
+        let undercut: f64 = set.halves.iter().map(|h| h.draft.undercut_area).sum();
+        if best.as_ref().is_none_or(|b| undercut < b.3) {
+            best = Some((solid, angle, set, undercut));
+        }
+        if undercut == 0.0 {
+            break;
+        }
+    }
+    let (solid, angle, set, _) =
+        best.ok_or_else(|| MeshError::Geometry("no pull direction to try".into()))?;
+    Ok((solid, angle, set))
+}
+
+/// The mould parts of the outer solid: cavity scaled by the expansion factor, the upper half
+/// pulled normal to a chord at `angle`.
+fn mould_parts(
+    outer: &LoftedSolid,
+    params: &ToolingParams,
+    angle: Angle,
+) -> Result<MouldParts, MeshError> {
     let mut part = outer.clone();
     if params.mould_expansion_factor != 1.0 {
         part.mesh.scale(params.mould_expansion_factor);
     }
-    let r_mid = 0.5 * (blade.root_radius() + blade.tip_radius());
-    let phi = blade.twist(r_mid) + pitch;
-    let (s, c) = phi.rad().sin_cos();
+    let (s, c) = angle.rad().sin_cos();
     let mould = MouldParams {
         pull: [0.0, -s, c],
         margin: params.mould_margin,
@@ -510,8 +573,13 @@ fn mould_parts(
         min_draft: params.min_draft,
         unit: params.unit,
     };
-    let chord_angle = |x: f64| blade.twist(x / params.mould_expansion_factor) + pitch;
-    let set = build_mould_parts(&part, &chord_angle, &mould)?;
+    // The parting lines are the outer surface's silhouette along the pull: the parting surface
+    // runs on from them across the pull.
+    build_mould_parts(&part, &|_x: f64| angle, &mould)
+}
+
+/// Adds the mould parts to `parts`; the halves' and the end pieces' descriptions.
+fn push_mould_parts(set: MouldParts, parts: &mut Vec<Part>) -> ([MouldHalf; 2], Vec<MouldHalf>) {
     let [upper, lower] = set.half_meshes;
     let mut named = vec![
         ("mould-upper".to_string(), PartKind::MouldUpper, upper),
@@ -528,7 +596,13 @@ fn mould_parts(
         let nominal_volume = mesh.signed_volume();
         parts.push(Part { name, kind, mesh, nominal_volume });
     }
-    Ok((set.halves, ends))
+    (set.halves, ends)
+}
+
+/// The chord angle the mould's pull is normal to: the chord's at the middle station.
+fn pull_angle(blade: &Blade, pitch: Angle) -> Angle {
+    let r_mid = 0.5 * (blade.root_radius() + blade.tip_radius());
+    blade.twist(r_mid) + pitch
 }
 
 /// The least x of the root ring: where the root sphere meets the farthest line.

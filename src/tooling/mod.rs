@@ -13,9 +13,10 @@
 //! A blade's tooling ([`build_tooling`]): the outer mould line lofted from the blade's own
 //! interpolation, the inner surface offset by the laminate, one core per cell between the webs
 //! (closed where the inner surfaces come within the least core thickness at the edges), the
-//! laminate shell, and a two-part mould parted through the leading and trailing edges
-//! ([`build_moulds`]: ruled parting surface, locating pins of our own, draft and undercut regions
-//! per half); [`summarise`] gives the masses and the core alloy's melting check.
+//! laminate shell, and a mould of two halves parted along the blade's silhouette across the pull
+//! ([`SilhouetteSurface`], the pull chosen so that no cavity facet undercuts) with end pieces
+//! where a spherical end needs them ([`build_mould_parts`]: ruled parting surface, locating pins
+//! of our own, draft and undercut regions per part); [`summarise`] gives the masses and the core alloy's melting check.
 //!
 //! Frames: the rotor frame has its origin on the rotor axis where the pitch axis meets it, x along
 //! the pitch axis from root to tip; the section plane at radius x is (y, z). Pitching turns the
@@ -61,6 +62,7 @@ mod mesh;
 mod mould;
 mod mould_block;
 mod orient;
+mod parting;
 mod polygon;
 mod spatial;
 mod stl;
@@ -86,10 +88,11 @@ pub use manifest::{
 };
 pub use mesh::{BoundingBox, Mesh, box_mesh};
 pub use mould::{MouldHalf, MouldParams, MouldParts, Undercut, build_mould_parts, build_moulds};
+pub use parting::SilhouetteSurface;
 pub use polygon::{loft_polygons, triangulate_polygon};
 pub use stl::{
-    LengthUnit, StlFormat, StlOptions, WrittenPart, binary_header, encode_stl,
-    write_part_set_with_progress, write_parts, write_parts_with_progress, write_stl,
+    LengthUnit, StlFormat, StlOptions, WrittenPart, binary_header, encode_part_set_with_progress,
+    encode_stl, write_part_set_with_progress, write_parts, write_parts_with_progress, write_stl,
     write_stl_digest,
 };
 pub use summary::{

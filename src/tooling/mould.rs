@@ -37,8 +37,9 @@
 //! parting loop, the rulings there become the bore wall along X, and the block's end face is
 //! triangulated round the bore. The end pieces come off first, then the halves. The plug's
 //! outline is the blade's end section, which seats it one way round when the section is
-//! cambered. Facets that still undercut on the halves' side surfaces (a twisted blade's nose
-//! near the root) are reported; further splits of a half are not made.
+//! cambered. Facets that still undercut on the halves' side surfaces are reported; a part parted
+//! at its silhouette along the pull (see [`super::SilhouetteSurface`]) leaves none where its
+//! sections are graphs across the pull, which is how [`super::build_tooling`] lofts a blade.
 //!
 //! [`PartingLines`]: super::PartingLines
 

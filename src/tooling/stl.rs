@@ -275,10 +275,63 @@ pub fn write_part_set_with_progress(
     check: &CheckParams,
     progress: &mut dyn FnMut(usize, usize, &str),
 ) -> Result<Vec<WrittenPart>, Error> {
+    let total = 2 * (parts.len() + copies.len());
+    let mut done = check_part_set(parts, copies, options, check, &mut |i, what| {
+        progress(i, total, what);
+    })?;
+    std::fs::create_dir_all(dir)
+        .map_err(|source| Error::Write { path: dir.display().to_string(), source })?;
+    let all: Vec<(&str, &Mesh)> = parts.iter().chain(copies).copied().collect();
+    let n = all.len();
+    for (i, (part, &(name, mesh))) in done.iter_mut().zip(&all).enumerate() {
+        part.path = dir.join(&part.path);
+        (part.size_bytes, part.sha256) = write_stl_digest(&part.path, name, mesh, options)?;
+        progress(n + i + 1, total, &format!("wrote {name}.stl"));
+    }
+    Ok(done)
+}
+
+/// Checks every part of `parts` and `copies` as [`write_part_set_with_progress`] does, then
+/// encodes each as STL in memory: the parts with their files' contents (path `NAME.stl`,
+/// relative), for a caller that puts the whole set in place itself, each file written once.
+/// `progress(done, total, what)` is called after each part is checked and each is encoded.
+pub fn encode_part_set_with_progress(
+    parts: &[(&str, &Mesh)],
+    copies: &[(&str, &Mesh)],
+    options: &StlOptions,
+    check: &CheckParams,
+    progress: &mut dyn FnMut(usize, usize, &str),
+) -> Result<Vec<(WrittenPart, Vec<u8>)>, Error> {
+    let total = 2 * (parts.len() + copies.len());
+    let done = check_part_set(parts, copies, options, check, &mut |i, what| {
+        progress(i, total, what);
+    })?;
+    let all: Vec<(&str, &Mesh)> = parts.iter().chain(copies).copied().collect();
+    let n = all.len();
+    let mut out = Vec::with_capacity(n);
+    for (i, (mut part, &(name, mesh))) in done.into_iter().zip(&all).enumerate() {
+        let mut bytes = Vec::new();
+        encode_stl(&mut bytes, name, mesh, options)
+            .map_err(|e| Error::Mesh(MeshError::Geometry(format!("{name}: {e}"))))?;
+        part.size_bytes = bytes.len() as u64;
+        part.sha256 = super::manifest::sha256_hex(&bytes);
+        out.push((part, bytes));
+        progress(n + i + 1, total, &format!("encoded {name}.stl"));
+    }
+    Ok(out)
+}
+
+/// The checks of a part set (see [`write_part_set_with_progress`]); each part's path is
+/// `NAME.stl`, relative. `progress(done, what)` after each part.
+fn check_part_set(
+    parts: &[(&str, &Mesh)],
+    copies: &[(&str, &Mesh)],
+    options: &StlOptions,
+    check: &CheckParams,
+    progress: &mut dyn FnMut(usize, &str),
+) -> Result<Vec<WrittenPart>, Error> {
     let full = parts.len();
     let parts: Vec<(&str, &Mesh)> = parts.iter().chain(copies).copied().collect();
-    let parts = parts.as_slice();
-    let total = 2 * parts.len();
     let check = CheckParams { unit: options.unit, ..check.clone() };
     let mut done = Vec::with_capacity(parts.len());
     for (i, &(name, mesh)) in parts.iter().enumerate() {
@@ -293,18 +346,12 @@ pub fn write_part_set_with_progress(
         check_solid(&rounded, name, &CheckParams { self_intersection: false, ..check.clone() })?;
         done.push(WrittenPart {
             name: name.into(),
-            path: dir.join(format!("{name}.stl")),
+            path: PathBuf::from(format!("{name}.stl")),
             summary,
             size_bytes: 0,
             sha256: String::new(),
         });
-        progress(i + 1, total, &format!("checked {name}"));
-    }
-    std::fs::create_dir_all(dir)
-        .map_err(|source| Error::Write { path: dir.display().to_string(), source })?;
-    for (i, (part, &(name, mesh))) in done.iter_mut().zip(parts).enumerate() {
-        (part.size_bytes, part.sha256) = write_stl_digest(&part.path, name, mesh, options)?;
-        progress(parts.len() + i + 1, total, &format!("wrote {name}.stl"));
+        progress(i + 1, &format!("checked {name}"));
     }
     Ok(done)
 }
