@@ -203,7 +203,14 @@ pub fn write_report(
     let stl = StlOptions { unit: params.unit, format: StlFormat::Binary };
     let tooling = build_and_write(p, &model.blade, &params, &stl, &dest.meshes, out)?;
     tell(&tooling, out);
-    let mut block = tooling.report(&p.name).to_block();
+    let tooling_report = tooling.report(&p.name);
+    let mut block = tooling_report.to_block();
+    block.figures.push((
+        "tooling-exploded".into(),
+        "The mould parts drawn apart along their pull directions (blade dashed, pulls as arrows)"
+            .into(),
+        tooling_report.exploded_svg(),
+    ));
     for w in &tooling.written {
         let name = w.path.file_name().map(|f| f.to_string_lossy().into_owned()).unwrap_or_default();
         files.push((relative(&dest.out, &w.path), format!("tooling part {name} (STL)")));
@@ -211,6 +218,10 @@ pub fn write_report(
     files.push((
         relative(&dest.out, &dest.meshes.join("tooling-summary.json")),
         "the tooling summary (JSON)".into(),
+    ));
+    files.push((
+        relative(&dest.out, &dest.meshes.join("tooling-exploded.svg")),
+        "the mould parts drawn apart along their pulls (SVG)".into(),
     ));
     files.push((
         relative(&dest.out, &dest.meshes.join("tooling-manifest.json")),

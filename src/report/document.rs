@@ -34,6 +34,8 @@ pub struct ReportBlock {
     pub warnings: Vec<String>,
     /// Notes.
     pub notes: Vec<String>,
+    /// Figures: id, caption and SVG drawing.
+    pub figures: Vec<(String, String, String)>,
 }
 
 /// Everything the report shows.
@@ -88,6 +90,9 @@ pub fn blade_report(inp: &ReportInputs<'_>) -> String {
         }
         for (caption, table) in &t.tables {
             s.table(caption.clone(), table);
+        }
+        for (id, caption, svg) in &t.figures {
+            s.figure(id.clone(), caption.clone(), svg.clone());
         }
         for w in &t.warnings {
             s.warning(w.clone());
