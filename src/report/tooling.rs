@@ -777,11 +777,24 @@ impl ToolingReport<'_> {
             "<title>{}: mould parts, exploded along their pulls</title>",
             xml(self.name)
         );
+        // Two title lines, each shrunk to the drawing's width (a mean advance of 0.6 em).
+        let room = w - 2.0 * pad;
+        let fit = |text: &str, base: f64| -> f64 {
+            let need = 0.6 * base * text.chars().count() as f64;
+            if need <= room { base } else { (base * room / need).max(6.0) }
+        };
+        let what = "Mould parts moved apart along their pulls (seen across the pull; pitch axis to \
+                    the right). Outlines only.";
         let _ = writeln!(
             s,
-            "<text x=\"{pad}\" y=\"24\">{}: mould parts moved apart along their pulls (seen across \
-             the pull; pitch axis to the right). Outlines only.</text>",
+            "<text x=\"{pad}\" y=\"22\" font-size=\"{:.1}\">{}</text>",
+            fit(self.name, 13.0),
             xml(self.name)
+        );
+        let _ = writeln!(
+            s,
+            "<text x=\"{pad}\" y=\"42\" font-size=\"{:.1}\">{what}</text>",
+            fit(what, 12.0)
         );
         for (name, pts, dir, dashed) in &shapes {
             if pts.is_empty() {
