@@ -43,17 +43,111 @@ fn covers(r: &[Cell; 2]) -> usize {
     (0..3).map(|k| (r[1][k] - r[0][k]) as usize + 1).product()
 }
 
+/// The axis along which the boxes' least coordinates spread most against the boxes' own mean
+/// extent: sorted along it, the fewest boxes overlap.
+fn sweep_axis(local: &[([P3; 2], u32)]) -> usize {
+    let mut best = (0, f64::NEG_INFINITY);
+    for k in 0..3 {
+        let (mut lo, mut hi, mut extent) = (f64::INFINITY, f64::NEG_INFINITY, 0.0);
+        for (b, _) in local {
+            lo = lo.min(b[0][k]);
+            hi = hi.max(b[0][k]);
+            extent += b[1][k] - b[0][k];
+        }
+        let ratio = (hi - lo) / (extent / local.len() as f64).max(f64::MIN_POSITIVE);
+        if ratio > best.1 {
+            best = (k, ratio);
+        }
+    }
+    best.0
+}
+
 fn overlap(a: &[P3; 2], b: &[P3; 2]) -> bool {
     (0..3).all(|k| a[0][k] <= b[1][k] && b[0][k] <= a[1][k])
 }
 
+/// A hashed grid: each triangle's cells, and the triangles of each slot (a counting sort).
+struct Grid {
+    bits: u32,
+    /// Each triangle's index box of cells.
+    ranges: Vec<[Cell; 2]>,
+    /// Start of each slot's triangles in `entry`, and the end.
+    first: Vec<u32>,
+    entry: Vec<u32>,
+}
+
+impl Grid {
+    /// The triangles whose boxes cover at most `BIG` cells hashed into slots; the others listed
+    /// apart.
+    fn new(boxes: &[[P3; 2]], origin: P3, cell: [f64; 3]) -> (Grid, Vec<usize>) {
+        let ranges: Vec<[Cell; 2]> = boxes.iter().map(|b| range_of(b, origin, cell)).collect();
+        let entries: usize = ranges.iter().map(covers).filter(|&c| c <= BIG).sum();
+        let bits = (entries.max(16).next_power_of_two().trailing_zeros() + 1).min(40);
+        let slots = 1usize << bits;
+        let mut first = vec![0u32; slots + 1];
+        let mut big = Vec::new();
+        for (t, r) in ranges.iter().enumerate() {
+            if covers(r) > BIG {
+                big.push(t);
+            } else {
+                for_cells(r, |c| first[slot(c, bits) + 1] += 1);
+            }
+        }
+        for s in 0..slots {
+            first[s + 1] += first[s];
+        }
+        let mut fill = first.clone();
+        let mut entry = vec![0u32; first[slots] as usize];
+        for (t, r) in ranges.iter().enumerate() {
+            if covers(r) <= BIG {
+                for_cells(r, |c| {
+                    let s = slot(c, bits);
+                    entry[fill[s] as usize] = t as u32;
+                    fill[s] += 1;
+                });
+            }
+        }
+        (Grid { bits, ranges, first, entry }, big)
+    }
+
+    fn slots(&self) -> usize {
+        1 << self.bits
+    }
+
+    fn list(&self, s: usize) -> &[u32] {
+        &self.entry[self.first[s] as usize..self.first[s + 1] as usize]
+    }
+
+    /// Whether slot `s` is where the pair is tested: that of the lowest cell both cover.
+    fn home(&self, a: usize, b: usize, s: usize) -> bool {
+        let (la, lb) = (self.ranges[a][0], self.ranges[b][0]);
+        slot([0, 1, 2].map(|i| la[i].max(lb[i])), self.bits) == s
+    }
+}
+
+/// The index box of cells that a box covers.
+fn range_of(b: &[P3; 2], origin: P3, cell: [f64; 3]) -> [Cell; 2] {
+    let index = |p: P3| {
+        [0, 1, 2].map(|k| {
+            let i = ((p[k] - origin[k]) / cell[k]).floor();
+            i.clamp(0.0, f64::from((1u32 << 21) - 1)) as u32
+        })
+    };
+    [index(b[0]), index(b[1])]
+}
+
 /// The first pair of triangles that meet, if any. Each triangle's data are computed once.
-/// Candidate pairs come from a grid whose cell, per axis, is twice the mean extent of the
-/// triangles along it (made larger only if the triangles would cover more than eight cells each
-/// on average), its occupied cells hashed into a table of slots filled by a counting sort. A pair
+///
+/// Candidate pairs come from a grid whose cell, per axis, is four times the median extent of the
+/// triangles along it, or half the mean if that is more (made larger only if the triangles would
+/// cover more than eight cells each on average, or more than one in 64 would be large), its occupied cells hashed into a table of slots filled by a counting sort. A pair
 /// whose boxes overlap shares its lowest common cell, so it is tested in that cell's slot and no
-/// other (two cells in one slot cost only candidates rejected by their boxes). Triangles that
-/// would cover more than `BIG` cells are tested against all others by box overlap instead.
+/// other (two cells in one slot cost only candidates rejected by their boxes). In each slot the
+/// boxes are swept along the axis they spread most along, so triangles of different sizes and
+/// shapes in one slot are not all paired. Triangles that would cover more than `BIG` cells (the
+/// long facets of a mould block's faces) are paired in a second grid of cells eight times as
+/// large, with every triangle; those too large for it are tested against all others by box
+/// overlap.
 pub(crate) fn find_self_intersection(mesh: &Mesh) -> Option<(usize, usize)> {
     let n = mesh.len();
     let bbox = mesh.bounding_box()?;
@@ -61,92 +155,100 @@ pub(crate) fn find_self_intersection(mesh: &Mesh) -> Option<(usize, usize)> {
     let boxes: Vec<[P3; 2]> = facets.iter().map(Facet::bounds).collect();
     let ext = bbox.extent();
     let mut cell = [0.0; 3];
+    let mut extent: Vec<f64> = vec![0.0; n];
     for k in 0..3 {
-        let mean = boxes.iter().map(|b| b[1][k] - b[0][k]).sum::<f64>() / n as f64;
-        // At most about a million cells along an axis, so that indices fit their 21 bits.
-        cell[k] = (2.0 * mean).max(ext[k] * 1e-6).max(f64::MIN_POSITIVE);
+        for (e, b) in extent.iter_mut().zip(&boxes) {
+            *e = b[1][k] - b[0][k];
+        }
+        let mean = extent.iter().sum::<f64>() / n as f64;
+        let median = *extent.select_nth_unstable_by(n / 2, f64::total_cmp).1;
+        // Half the mean at least, for the many flat facets of a face normal to an axis; at most
+        // about a million cells along an axis, so that indices fit their 21 bits.
+        cell[k] = (4.0 * median).max(0.5 * mean).max(ext[k] * 1e-6).max(f64::MIN_POSITIVE);
     }
-    let range_of = |b: &[P3; 2], cell: &[f64; 3]| -> [Cell; 2] {
-        let index = |p: P3| {
-            [0, 1, 2].map(|k| {
-                let i = ((p[k] - bbox.min[k]) / cell[k]).floor();
-                i.clamp(0.0, f64::from((1u32 << 21) - 1)) as u32
-            })
-        };
-        [index(b[0]), index(b[1])]
-    };
-    let mut ranges: Vec<[Cell; 2]>;
+    drop(extent);
     loop {
-        ranges = boxes.iter().map(|b| range_of(b, &cell)).collect();
-        let entries: usize = ranges.iter().map(covers).filter(|&c| c <= BIG).sum();
-        if entries as f64 <= MEAN_COVER * n as f64 {
+        let (mut entries, mut large) = (0usize, 0usize);
+        for b in &boxes {
+            match covers(&range_of(b, bbox.min, cell)) {
+                c if c > BIG => large += 1,
+                c => entries += c,
+            }
+        }
+        let crowded = entries as f64 / (MEAN_COVER * n as f64);
+        if crowded <= 1.0 && large <= n / 64 + 16 {
             break;
         }
-        let grow = (entries as f64 / (MEAN_COVER * n as f64)).cbrt() * 1.01;
+        let grow = if crowded > 1.0 { crowded.cbrt() * 1.01 } else { 2.0 };
         cell = cell.map(|c| c * grow);
     }
-    // Counting sort of (slot, triangle) entries.
-    let entries: usize = ranges.iter().map(covers).filter(|&c| c <= BIG).sum();
-    let bits = (entries.max(16).next_power_of_two().trailing_zeros() + 1).min(40);
-    let slots = 1usize << bits;
-    let mut first = vec![0u32; slots + 1];
-    let mut big = Vec::new();
-    for (t, r) in ranges.iter().enumerate() {
-        if covers(r) > BIG {
-            big.push(t);
-        } else {
-            for_cells(r, |c| first[slot(c, bits) + 1] += 1);
-        }
-    }
-    for s in 0..slots {
-        first[s + 1] += first[s];
-    }
-    let mut fill = first.clone();
-    let mut entry = vec![0u32; first[slots] as usize];
-    for (t, r) in ranges.iter().enumerate() {
-        if covers(r) <= BIG {
-            for_cells(r, |c| {
-                let s = slot(c, bits);
-                entry[fill[s] as usize] = t as u32;
-                fill[s] += 1;
-            });
-        }
-    }
-    drop(fill);
-    for s in 0..slots {
-        let list = &entry[first[s] as usize..first[s + 1] as usize];
+    let (grid, big) = Grid::new(&boxes, bbox.min, cell);
+    let test =
+        |a: usize, b: usize| facets_meet(&facets[a], &facets[b]).then_some((a.min(b), a.max(b)));
+    // Each slot's triangles gathered with their boxes and lowest cells, so the pair loop reads
+    // contiguous memory, and sorted along the sweep axis.
+    let mut local: Vec<([P3; 2], u32)> = Vec::new();
+    for s in 0..grid.slots() {
+        let list = grid.list(s);
         if list.len() < 2 {
             continue;
         }
-        for (k, &ta) in list.iter().enumerate() {
-            let ta = ta as usize;
-            let (ba, la) = (&boxes[ta], ranges[ta][0]);
-            for &tb in &list[k + 1..] {
-                let tb = tb as usize;
+        local.clear();
+        local.extend(list.iter().map(|&t| (boxes[t as usize], t)));
+        let axis = sweep_axis(&local);
+        local.sort_unstable_by(|a, b| a.0[0][axis].total_cmp(&b.0[0][axis]));
+        for (k, (ba, ta)) in local.iter().enumerate() {
+            for (bb, tb) in &local[k + 1..] {
+                if bb[0][axis] > ba[1][axis] {
+                    break;
+                }
                 // A triangle can fall in one slot by two cells.
-                if tb == ta || !overlap(ba, &boxes[tb]) {
+                if tb == ta || !overlap(ba, bb) {
                     continue;
                 }
-                // Test the pair only in the slot of the lowest cell both cover.
-                let lb = ranges[tb][0];
-                if slot([0, 1, 2].map(|i| la[i].max(lb[i])), bits) != s {
-                    continue;
-                }
-                if facets_meet(&facets[ta], &facets[tb]) {
-                    return Some((ta.min(tb), ta.max(tb)));
+                let (ta, tb) = (*ta as usize, *tb as usize);
+                if grid.home(ta, tb, s)
+                    && let Some(pair) = test(ta, tb)
+                {
+                    return Some(pair);
                 }
             }
         }
     }
-    for (k, &ta) in big.iter().enumerate() {
+    if big.is_empty() {
+        return None;
+    }
+    // The large triangles against every triangle, in a coarser grid.
+    let (coarse, huge) = Grid::new(&boxes, bbox.min, cell.map(|c| 8.0 * c));
+    let mut is_big = vec![false; n];
+    big.iter().for_each(|&t| is_big[t] = true);
+    for s in 0..coarse.slots() {
+        let list = coarse.list(s);
+        for &ta in list.iter().filter(|&&t| is_big[t as usize]) {
+            let ta = ta as usize;
+            for &tb in list {
+                let tb = tb as usize;
+                // Two large triangles are paired once, from the lower index.
+                if tb == ta || (is_big[tb] && tb < ta) || !overlap(&boxes[ta], &boxes[tb]) {
+                    continue;
+                }
+                if coarse.home(ta, tb, s)
+                    && let Some(pair) = test(ta, tb)
+                {
+                    return Some(pair);
+                }
+            }
+        }
+    }
+    for (k, &ta) in huge.iter().enumerate() {
         for tb in 0..n {
-            let earlier_big = big[..k].binary_search(&tb).is_ok();
+            let earlier = huge[..k].binary_search(&tb).is_ok();
             if tb != ta
-                && !earlier_big
+                && !earlier
                 && overlap(&boxes[ta], &boxes[tb])
-                && facets_meet(&facets[ta], &facets[tb])
+                && let Some(pair) = test(ta, tb)
             {
-                return Some((ta.min(tb), ta.max(tb)));
+                return Some(pair);
             }
         }
     }
