@@ -383,16 +383,7 @@ pub fn build_ply_book(
             file_safe(&p.id),
             file_safe(region.surface_name.trim_start_matches("web:"))
         );
-        // Where the net cannot close round a tight curvature (a nose, a root), finer cloth
-        // cells are tried: half and a quarter of the spacing.
-        let mut attempt = drape_region(region.surface(), &region.spec);
-        for divide in [2.0, 4.0] {
-            if attempt.is_ok() {
-                break;
-            }
-            let spec = RegionSpec { spacing: region.spec.spacing / divide, ..region.spec.clone() };
-            attempt = drape_region(region.surface(), &spec);
-        }
+        let attempt = drape_region(region.surface(), &region.spec);
         let flat = match attempt.map_err(|e| {
             let what = match e {
                 DrapeFailure::Seed => "the seed or the fibre direction is degenerate".to_string(),
@@ -442,6 +433,20 @@ pub fn build_ply_book(
             pattern: flat,
         };
         warnings.extend(drape_warning(&entry));
+        if let Some(&q) = entry.pattern.cut_short.first() {
+            let at = region.place(q);
+            warnings.push(format!(
+                "ply '{}' ({}): the draped net cannot be carried to r = {:.3} m, {} = {:.3} (a cell of the cloth would fold): the pattern ends short of the ply's region there ({} of {} outline points moved in, pattern area {:.4} m²); split the ply or add a dart, and check by a trial lay-up",
+                entry.ply,
+                entry.name,
+                at.r,
+                if region.surface_name.starts_with("web") { "height" } else { "x/c" },
+                at.along,
+                entry.pattern.cut_short.len(),
+                entry.pattern.outline.len(),
+                entry.area_m2
+            ));
+        }
         if let Some(&q) = entry.pattern.extrapolated.first() {
             let at = region.place(q);
             warnings.push(format!(
