@@ -59,8 +59,8 @@ pub(crate) fn failure(e: PlyBookError) -> Failure {
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let model = load_model(&args.project, out)?;
     let bar = out.progress(1, "ply book");
-    let book = build_ply_book(&model.blade, &model.project, &PlyBookParams::default())
-        .map_err(failure)?;
+    let book =
+        build_ply_book(&model.blade, &model.project, &PlyBookParams::default()).map_err(failure)?;
     bar.finish();
     let laminate_kg = model.mass().laminate_kg;
     let files = plybook_files(&book, Some(laminate_kg)).map_err(|e| Failure::Run(e.into()))?;

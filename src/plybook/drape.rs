@@ -433,7 +433,8 @@ impl Wanted {
             }
             cuts.sort_by(f64::total_cmp);
             for pair in cuts.chunks_exact(2) {
-                let (j0, j1) = ((pair[0].ceil() as i32).max(lo[1]), (pair[1].floor() as i32).min(hi[1]));
+                let (j0, j1) =
+                    ((pair[0].ceil() as i32).max(lo[1]), (pair[1].floor() as i32).min(hi[1]));
                 for j in j0..=j1 {
                     w.mark(i, j);
                 }

@@ -144,7 +144,9 @@ pub fn drape_region(
         if let Some((flat, _)) = locator.flat(q) {
             return Some(flat);
         }
-        let at = |t: f64| [spec.seed[0] + t * (q[0] - spec.seed[0]), spec.seed[1] + t * (q[1] - spec.seed[1])];
+        let at = |t: f64| {
+            [spec.seed[0] + t * (q[0] - spec.seed[0]), spec.seed[1] + t * (q[1] - spec.seed[1])]
+        };
         let (mut lo, mut hi) = (0.0, 1.0);
         locator.indices(at(lo), false)?;
         for _ in 0..40 {
