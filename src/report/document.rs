@@ -53,6 +53,8 @@ pub struct ReportInputs<'a> {
     pub section_drawings: Vec<SectionDrawing>,
     /// The tooling summary.
     pub tooling: Option<ReportBlock>,
+    /// The ply book.
+    pub plybook: Option<ReportBlock>,
     /// Side files (path relative to the report, label).
     pub files: Vec<(String, String)>,
     /// Date of the run (the library does not read the clock).
@@ -83,6 +85,21 @@ pub fn blade_report(inp: &ReportInputs<'_>) -> String {
     }
     if let Some(t) = &inp.tooling {
         let s = doc.section("Tooling");
+        for para in &t.paragraphs {
+            s.paragraph(para.clone());
+        }
+        for (caption, table) in &t.tables {
+            s.table(caption.clone(), table);
+        }
+        for w in &t.warnings {
+            s.warning(w.clone());
+        }
+        for n in &t.notes {
+            s.note(n.clone());
+        }
+    }
+    if let Some(t) = &inp.plybook {
+        let s = doc.section("Ply book");
         for para in &t.paragraphs {
             s.paragraph(para.clone());
         }

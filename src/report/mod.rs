@@ -11,6 +11,7 @@ pub mod html;
 mod laminate;
 mod modal;
 mod modal_text;
+mod plybook;
 mod section_svg;
 mod sections;
 mod stress;
@@ -31,6 +32,7 @@ pub use html::HtmlReport;
 pub use laminate::LaminateReport;
 pub use modal::{campbell_csv, modal_analysis_json, modal_json, mode_shapes_csv};
 pub use modal_text::{modal_text, model_statement};
+pub use plybook::{plybook_block, plybook_links};
 pub use section_svg::{section_svg, section_svg_names, section_svg_screen};
 pub use sections::{SectionsReport, laminate_label};
 pub use stress::{
