@@ -226,10 +226,14 @@ pub fn write_report(
     let book = build_ply_book(&model.blade, p, &PlyBookParams::default())
         .map_err(super::plybook::failure)?;
     let laminate_kg = model.mass().laminate_kg;
-    for (path, bytes) in plybook_files(&book, Some(laminate_kg)).map_err(|e| Failure::Run(e.into()))? {
+    for (path, bytes) in
+        plybook_files(&book, Some(laminate_kg)).map_err(|e| Failure::Run(e.into()))?
+    {
         set.add(format!("plybook/{path}"), bytes);
     }
-    for w in book.warnings.iter().map(String::clone).chain(book.failed.iter().map(|e| e.to_string())) {
+    for w in
+        book.warnings.iter().map(String::clone).chain(book.failed.iter().map(|e| e.to_string()))
+    {
         out.warn(&w);
     }
     files.extend(plybook_links(&book, "plybook"));

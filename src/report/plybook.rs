@@ -93,7 +93,9 @@ pub fn plybook_block(book: &PlyBook, laminate_kg: Option<f64>) -> ReportBlock {
         None => format!("Patterns {} kg in all.", sig4(mass)),
     });
     if let Some(c) = book.pattern_cost() {
-        block.paragraphs.push(format!("Cost of the patterns: {} (unit of cost_per_kg).", fixed(c, 2)));
+        block
+            .paragraphs
+            .push(format!("Cost of the patterns: {} (unit of cost_per_kg).", fixed(c, 2)));
     }
     block.warnings.extend(book.warnings.iter().cloned());
     block.warnings.extend(book.failed.iter().map(|e| e.to_string()));
