@@ -6,6 +6,8 @@
 
 mod support_browser;
 
+#[path = "plybook_browser.rs"]
+mod plybook_browser;
 #[path = "report_browser.rs"]
 mod report_browser;
 #[path = "report_demo_browser.rs"]

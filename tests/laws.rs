@@ -22,6 +22,8 @@ mod outline_files;
 mod property_equilibrium;
 #[path = "property_laminate.rs"]
 mod property_laminate;
+#[path = "property_nesting.rs"]
+mod property_nesting;
 #[path = "property_outlines.rs"]
 mod property_outlines;
 #[path = "property_section.rs"]

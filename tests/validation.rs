@@ -37,6 +37,8 @@ mod validation_modal_attached;
 mod validation_outlines;
 #[path = "validation_plybook.rs"]
 mod validation_plybook;
+#[path = "validation_plybook_book.rs"]
+mod validation_plybook_book;
 #[path = "validation_section.rs"]
 mod validation_section;
 #[path = "validation_stress.rs"]

@@ -155,9 +155,9 @@ fn a_cone_panel_drapes_to_its_exact_development() {
         let fibre = [c * radial[0] - s * radial[1], s * radial[0] + c * radial[1]];
         // Extents across the fibres are not invariant to the development's rotation unless
         // measured in its own fibre frame, which `fibre` gives.
-        // Measured 4.5e-6 at a 2.5 mm net (the discrete generators leave the cone's geodesics
-        // at second order in the spacing); held to 1e-5.
-        check_development(&pattern.outline, &exact, fibre, n, 1e-5);
+        // Issue 17: 1e-6 relative. (The generators are traced in quarter links: with whole
+        // links the discrete geodesics drift at second order in the spacing, 4.5e-6 here.)
+        check_development(&pattern.outline, &exact, fibre, n, 1e-6);
         // Zero up to the discretisation: 1e-5 rad is 0.0006°.
         assert!(pattern.max_shear.abs() < 1e-5, "shear {} rad", pattern.max_shear);
     }

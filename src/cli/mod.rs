@@ -10,6 +10,7 @@ mod materials;
 mod modes;
 mod output;
 mod pairs;
+mod plybook;
 mod project;
 mod report;
 mod sections;
@@ -49,6 +50,7 @@ enum Command {
     Modes(modes::Args),
     Check(check::Args),
     Tooling(tooling::Args),
+    Plybook(plybook::Args),
     Report(report::Args),
     Demo(demo::Args),
 }
@@ -117,6 +119,7 @@ pub fn main() -> ExitCode {
         Command::Stress(args) => stress::run(args, &out),
         Command::Sections(args) => sections::run(args, &out),
         Command::Tooling(args) => tooling::run(args, &out),
+        Command::Plybook(args) => plybook::run(args, &out),
     };
     match result {
         Ok(Outcome::Success) => ExitCode::SUCCESS,

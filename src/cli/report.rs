@@ -20,6 +20,8 @@ use layloft::report::{
 use super::project::{load_model, run_modal};
 use super::tooling::{build_and_write, tell};
 use super::{Failure, Outcome, Output};
+use layloft::plybook::{PlyBookParams, build_ply_book, plybook_files};
+use layloft::report::{plybook_block, plybook_links};
 use layloft::tooling::{StlFormat, StlOptions, ToolingParams};
 
 const EXAMPLES: &str = "\
@@ -231,6 +233,23 @@ pub fn write_report(
         block.notes.push("The project has no [tooling] table: the stated defaults apply (mm, 0.1 mm tolerance, 30 mm block margin) and the core-alloy mass is not computed.".into());
     }
 
+    // The ply book: its files in a folder of the report's set.
+    let book = build_ply_book(&model.blade, p, &PlyBookParams::default())
+        .map_err(super::plybook::failure)?;
+    let laminate_kg = model.mass().laminate_kg;
+    for (path, bytes) in
+        plybook_files(&book, Some(laminate_kg)).map_err(|e| Failure::Run(e.into()))?
+    {
+        set.add(format!("plybook/{path}"), bytes);
+    }
+    for w in
+        book.warnings.iter().map(String::clone).chain(book.failed.iter().map(|e| e.to_string()))
+    {
+        out.warn(&w);
+    }
+    files.extend(plybook_links(&book, "plybook"));
+    let plybook = Some(plybook_block(&book, Some(laminate_kg)));
+
     let html = blade_report(&ReportInputs {
         model,
         stress: &stress,
@@ -239,6 +258,7 @@ pub fn write_report(
         check: &check,
         section_drawings,
         tooling: Some(block),
+        plybook,
         files,
         date: Some(utc_date(SystemTime::now())),
     });

@@ -5,6 +5,7 @@ use super::drape::DrapeSurface;
 use super::nest::{NestItem, Nesting, nest};
 use super::pattern::{DrapeFailure, FlatPattern, RegionSpec, drape_region};
 use super::regions::{SkinLevel, WebPlane};
+use super::vec3::{cross, norm, sub};
 use crate::blade::{Blade, Surface};
 use crate::input::{PlySpec, Project, Region};
 use crate::material::{CuttingData, LaminaKind};
@@ -199,6 +200,32 @@ impl PlyRegion<'_> {
         }
     }
 
+    /// The region's area on its surface, m²: a grid of 96 by 24 parameter cells over the
+    /// region, each split into two flat triangles.
+    pub fn surface_area(&self) -> f64 {
+        let (n, m) = (96, 24);
+        let s = self.surface();
+        let rows: Vec<Vec<[f64; 3]>> = (0..=n)
+            .map(|i| {
+                let a = self.span[0] + (self.span[1] - self.span[0]) * i as f64 / n as f64;
+                let b = self.b_range(a);
+                (0..=m).map(|j| s.point([a, b[0] + (b[1] - b[0]) * j as f64 / m as f64])).collect()
+            })
+            .collect();
+        let tri = |p: [f64; 3], q: [f64; 3], r: [f64; 3]| {
+            let (u, v) = (sub(q, p), sub(r, p));
+            0.5 * norm(cross(u, v))
+        };
+        let mut area = 0.0;
+        for i in 0..n {
+            for j in 0..m {
+                let (p, q, r, t) = (rows[i][j], rows[i + 1][j], rows[i + 1][j + 1], rows[i][j + 1]);
+                area += tri(p, q, r) + tri(p, r, t);
+            }
+        }
+        area
+    }
+
     fn place(&self, p: [f64; 2]) -> PatternPlace {
         match &self.level {
             Level::Skin(s) => {
@@ -207,6 +234,34 @@ impl PlyRegion<'_> {
             Level::Web(_) => PatternPlace { r: p[0], along: p[1] },
         }
     }
+}
+
+/// The largest relative difference between a pattern's area and its region's area on the
+/// surface for a pattern the net covers whole (the drape keeps every link's length, so the two
+/// agree to the shear's second-order area change and the outline's sampling).
+const AREA_CHECK: f64 = 0.03;
+
+/// The first outline vertex whose following edge crosses a later, non-adjacent edge.
+fn self_crossing(p: &[[f64; 2]]) -> Option<usize> {
+    let n = p.len();
+    let orient = |a: [f64; 2], b: [f64; 2], c: [f64; 2]| {
+        (b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0])
+    };
+    for i in 0..n {
+        let (a, b) = (p[i], p[(i + 1) % n]);
+        for j in i + 2..n {
+            if (j + 1) % n == i {
+                continue;
+            }
+            let (c, d) = (p[j], p[(j + 1) % n]);
+            let (d1, d2) = (orient(a, b, c), orient(a, b, d));
+            let (d3, d4) = (orient(c, d, a), orient(c, d, b));
+            if d1 * d2 < 0.0 && d3 * d4 < 0.0 {
+                return Some(i);
+            }
+        }
+    }
+    None
 }
 
 fn zero_area(file: &str, p: &PlySpec, key: &str, found: String) -> PlyBookError {
@@ -383,16 +438,7 @@ pub fn build_ply_book(
             file_safe(&p.id),
             file_safe(region.surface_name.trim_start_matches("web:"))
         );
-        // Where the net cannot close round a tight curvature (a nose, a root), finer cloth
-        // cells are tried: half and a quarter of the spacing.
-        let mut attempt = drape_region(region.surface(), &region.spec);
-        for divide in [2.0, 4.0] {
-            if attempt.is_ok() {
-                break;
-            }
-            let spec = RegionSpec { spacing: region.spec.spacing / divide, ..region.spec.clone() };
-            attempt = drape_region(region.surface(), &spec);
-        }
+        let attempt = drape_region(region.surface(), &region.spec);
         let flat = match attempt.map_err(|e| {
             let what = match e {
                 DrapeFailure::Seed => "the seed or the fibre direction is degenerate".to_string(),
@@ -420,6 +466,33 @@ pub fn build_ply_book(
                 continue;
             }
         };
+        // A net that folds over itself, or a flat pattern whose area departs from the region's
+        // area on its surface, is not a pattern to cut: left out, and the book says where.
+        let surface_area = region.surface_area();
+        let mismatch = (flat.area - surface_area).abs() / surface_area;
+        let crossing = self_crossing(&flat.outline);
+        if crossing.is_some() || (flat.cut_short.is_empty() && mismatch > AREA_CHECK) {
+            let at = crossing
+                .map(|k| region.place(region.spec.boundary[k]))
+                .or_else(|| flat.extrapolated.first().map(|&q| region.place(q)))
+                .unwrap_or_else(|| region.place(region.spec.seed));
+            failed.push(PlyBookError::Drape {
+                file: project.files.plies.clone(),
+                line: p.line,
+                ply: p.id.clone(),
+                pattern: name.clone(),
+                what: format!(
+                    "the flat pattern {} ({:.4} m² against {:.4} m² of the region on its surface) near r = {:.3} m, {} = {:.3}; left out of the book",
+                    if crossing.is_some() { "crosses itself" } else { "does not keep the region's area" },
+                    flat.area,
+                    surface_area,
+                    at.r,
+                    if region.surface_name.starts_with("web") { "height" } else { "x/c" },
+                    at.along
+                ),
+            });
+            continue;
+        }
         let mass = flat.area * mat.ply_thickness * mat.density;
         let entry = PatternEntry {
             name,
@@ -442,6 +515,20 @@ pub fn build_ply_book(
             pattern: flat,
         };
         warnings.extend(drape_warning(&entry));
+        if let Some(&q) = entry.pattern.cut_short.first() {
+            let at = region.place(q);
+            warnings.push(format!(
+                "ply '{}' ({}): the draped net cannot be carried to r = {:.3} m, {} = {:.3} (a cell of the cloth would fold): the pattern ends short of the ply's region there ({} of {} outline points moved in, pattern area {:.4} m²); split the ply or add a dart, and check by a trial lay-up",
+                entry.ply,
+                entry.name,
+                at.r,
+                if region.surface_name.starts_with("web") { "height" } else { "x/c" },
+                at.along,
+                entry.pattern.cut_short.len(),
+                entry.pattern.outline.len(),
+                entry.area_m2
+            ));
+        }
         if let Some(&q) = entry.pattern.extrapolated.first() {
             let at = region.place(q);
             warnings.push(format!(

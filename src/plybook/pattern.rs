@@ -51,6 +51,10 @@ pub struct FlatPattern {
     /// from the nearest cells (more than one cell out): the cloth does not follow the surface
     /// there without folding or a dart.
     pub extrapolated: Vec<[f64; 2]>,
+    /// Boundary points (parameters) the net does not reach at all: the pattern ends short of
+    /// them, on the straight parameter line from the seed, where the net stops. Empty when the
+    /// whole region is covered.
+    pub cut_short: Vec<[f64; 2]>,
 }
 
 /// Why a region could not be flattened.
@@ -58,7 +62,8 @@ pub struct FlatPattern {
 pub enum DrapeFailure {
     /// The seed or the start direction is degenerate.
     Seed,
-    /// The net did not reach this point of the region (the cloth would have to fold there).
+    /// The net does not reach this point of the region, nor any point between it and the seed
+    /// (the cloth would have to fold there).
     Unreached([f64; 2]),
 }
 
@@ -85,10 +90,14 @@ pub fn drape_region(
             hi[k] = hi[k].max(p[k]);
         }
     }
-    // Nodes may need to stand outside the region on the way to its corners.
+    // Nodes may need to stand outside the region on the way to its corners: on a long, narrow
+    // region with the fibres at 45° the generators leave it across its short side and run on
+    // about as far as the region is long, so the bounds reach the region's greater extent
+    // beyond it in every direction.
     let size = [hi[0] - lo[0], hi[1] - lo[1]];
-    let bounds = [[lo[0] - size[0], hi[0] + size[0]], [lo[1] - size[1], hi[1] + size[1]]];
     let extent = (norm(t0[0]) * size[0]).max(norm(t0[1]) * size[1]);
+    let reach = [0, 1].map(|k| (extent / norm(t0[k]).max(1e-300)).max(size[k]));
+    let bounds = [[lo[0] - reach[0], hi[0] + reach[0]], [lo[1] - reach[1], hi[1] + reach[1]]];
     // A coarse net (four links in one) first, grown over the region mapped linearly with a wide
     // margin; it carries the region into net coordinates for the fine net, which then grows
     // only the nodes it needs.
@@ -127,15 +136,44 @@ pub fn drape_region(
     let locator = NetLocator::new(&net);
     let mut outline = Vec::with_capacity(spec.boundary.len());
     let mut extrapolated = Vec::new();
-    for &q in &spec.boundary {
-        let (flat, out) = locator.flat(q).ok_or(DrapeFailure::Unreached(q))?;
-        if out > 1.0 {
-            extrapolated.push(q);
+    let mut cut_short = Vec::new();
+    // A boundary point the net does not reach (a cell could not be closed on the way: the cloth
+    // would fold there) is moved in along the straight parameter line from the seed to the
+    // last place the net covers: the pattern ends there, and says so.
+    let reach = |q: [f64; 2]| -> Option<[f64; 2]> {
+        if let Some((flat, _)) = locator.flat(q) {
+            return Some(flat);
         }
-        outline.push(flat);
+        let at = |t: f64| {
+            [spec.seed[0] + t * (q[0] - spec.seed[0]), spec.seed[1] + t * (q[1] - spec.seed[1])]
+        };
+        let (mut lo, mut hi) = (0.0, 1.0);
+        locator.indices(at(lo), false)?;
+        for _ in 0..40 {
+            let mid = 0.5 * (lo + hi);
+            if locator.indices(at(mid), false).is_some() {
+                lo = mid;
+            } else {
+                hi = mid;
+            }
+        }
+        locator.flat(at(lo)).map(|(flat, _)| flat)
+    };
+    for &q in &spec.boundary {
+        match locator.flat(q) {
+            Some((flat, out)) => {
+                if out > 1.0 {
+                    extrapolated.push(q);
+                }
+                outline.push(flat);
+            }
+            None => {
+                outline.push(reach(q).ok_or(DrapeFailure::Unreached(q))?);
+                cut_short.push(q);
+            }
+        }
     }
-    let (root_mark, _) =
-        locator.flat(spec.root_mark).ok_or(DrapeFailure::Unreached(spec.root_mark))?;
+    let root_mark = reach(spec.root_mark).ok_or(DrapeFailure::Unreached(spec.root_mark))?;
     let mut pattern = FlatPattern {
         area: polygon_area(&outline).abs(),
         outline,
@@ -148,6 +186,7 @@ pub fn drape_region(
         max_deviation_at: spec.seed,
         shear_map: Vec::new(),
         extrapolated,
+        cut_short,
     };
     for (i, j, node) in net.nodes() {
         if !point_in_polygon(&spec.boundary, node.param) {

@@ -170,21 +170,29 @@ impl DrapeSurface for SkinLevel<'_> {
         if rc == r && uc == u {
             return x;
         }
-        // Continued along the tangents at the nearest inside point.
-        let h = 1e-6;
+        // Continued along the tangents at the nearest inside point, each taken by a one-sided
+        // second-order difference over a millimetre-scale step: a step near round-off would put
+        // noise of order eps/h into the continuation, which the drape's own differences of the
+        // continued surface then magnify until Newton's method cannot settle beyond the edge.
         let mut out = x;
         if rc != r {
-            let rr = if rc > self.span[0] + h { rc - h } else { rc + h };
-            let (y, _) = self.inside_point(rr, uc);
+            let h = 1e-3_f64.min(0.25 * (self.span[1] - self.span[0]));
+            let s = if rc > self.span[0] + 2.0 * h { -h } else { h };
+            let (y1, _) = self.inside_point(rc + s, uc);
+            let (y2, _) = self.inside_point(rc + 2.0 * s, uc);
             for k in 0..3 {
-                out[k] += (x[k] - y[k]) / (rc - rr) * (r - rc);
+                let slope = (-3.0 * x[k] + 4.0 * y1[k] - y2[k]) / (2.0 * s);
+                out[k] += slope * (r - rc);
             }
         }
         if uc != u {
-            let uu = if uc > -1.0 + h { uc - h } else { uc + h };
-            let (y, _) = self.inside_point(rc, uu);
+            let h = 1e-3;
+            let s = if uc > -1.0 + 2.0 * h { -h } else { h };
+            let (y1, _) = self.inside_point(rc, uc + s);
+            let (y2, _) = self.inside_point(rc, uc + 2.0 * s);
             for k in 0..3 {
-                out[k] += (x[k] - y[k]) / (uc - uu) * (u - uc);
+                let slope = (-3.0 * x[k] + 4.0 * y1[k] - y2[k]) / (2.0 * s);
+                out[k] += slope * (u - uc);
             }
         }
         out
@@ -233,7 +241,7 @@ impl<'a> WebPlane<'a> {
 
 impl DrapeSurface for WebPlane<'_> {
     fn point(&self, p: [f64; 2]) -> [f64; 3] {
-        let r = p[0].clamp(self.span[0] - 0.5, self.span[1] + 0.5);
+        let r = p[0];
         let rc = r.clamp(self.span[0], self.span[1]);
         let (zl, zu) = (
             self.lower.eval(rc) + self.lower.derivative(rc) * (r - rc),

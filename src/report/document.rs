@@ -55,6 +55,8 @@ pub struct ReportInputs<'a> {
     pub section_drawings: Vec<SectionDrawing>,
     /// The tooling summary.
     pub tooling: Option<ReportBlock>,
+    /// The ply book.
+    pub plybook: Option<ReportBlock>,
     /// Side files (path relative to the report, label).
     pub files: Vec<(String, String)>,
     /// Date of the run (the library does not read the clock).
@@ -93,6 +95,21 @@ pub fn blade_report(inp: &ReportInputs<'_>) -> String {
         }
         for (id, caption, svg) in &t.figures {
             s.figure(id.clone(), caption.clone(), svg.clone());
+        }
+        for w in &t.warnings {
+            s.warning(w.clone());
+        }
+        for n in &t.notes {
+            s.note(n.clone());
+        }
+    }
+    if let Some(t) = &inp.plybook {
+        let s = doc.section("Ply book");
+        for para in &t.paragraphs {
+            s.paragraph(para.clone());
+        }
+        for (caption, table) in &t.tables {
+            s.table(caption.clone(), table);
         }
         for w in &t.warnings {
             s.warning(w.clone());

@@ -12,6 +12,7 @@ mod laminate;
 mod modal;
 mod modal_text;
 pub mod plot;
+mod plybook;
 mod section_svg;
 mod sections;
 mod stress;
@@ -35,6 +36,7 @@ pub use modal::{
     campbell_csv, export_matrix_market, modal_analysis_json, modal_json, mode_shapes_csv,
 };
 pub use modal_text::{modal_text, model_statement};
+pub use plybook::{plybook_block, plybook_links};
 pub use section_svg::{section_svg, section_svg_names, section_svg_screen};
 pub use sections::{SectionsReport, laminate_label};
 pub use stress::{

@@ -1,0 +1,126 @@
+//! The ply book of a whole blade against independent computations: the DXF files read back
+//! through the same crate to the same outlines, and each pattern's area against its region's
+//! area on the surface, integrated here on a fine triangle mesh of the surface (not through the
+//! net). The blade is the invented mine-fan demo (`layups/mine-fan/`).
+
+use std::io::Cursor;
+
+use layloft::blade::Blade;
+use layloft::input::read_project;
+use layloft::plybook::{PlyBook, PlyBookParams, build_ply_book, pattern_dxf, ply_regions};
+
+fn mine_fan() -> (layloft::input::Project, Blade) {
+    let project = read_project("layups/mine-fan/blade.toml".as_ref()).expect("demo project");
+    let blade = Blade::from_project(&project).expect("demo blade");
+    (project, blade)
+}
+
+fn book(project: &layloft::input::Project, blade: &Blade) -> PlyBook {
+    build_ply_book(blade, project, &PlyBookParams::default()).expect("ply book")
+}
+
+#[test]
+fn dxf_files_read_back_to_the_same_outlines() {
+    let (project, blade) = mine_fan();
+    let book = book(&project, &blade);
+    assert!(book.patterns.len() >= 20, "only {} patterns", book.patterns.len());
+    for e in &book.patterns {
+        let bytes = pattern_dxf(e).expect("dxf");
+        // Read through the same crate the files are written with (`dxf`).
+        let drawing = dxf::Drawing::load(&mut Cursor::new(bytes)).expect("the DXF reads back");
+        let outlines: Vec<_> = drawing
+            .entities()
+            .filter(|ent| ent.common.layer == "OUTLINE")
+            .filter_map(|ent| match &ent.specific {
+                dxf::entities::EntityType::LwPolyline(p) => Some(p.clone()),
+                _ => None,
+            })
+            .collect();
+        assert_eq!(outlines.len(), 1, "{}: one closed outline", e.name);
+        let poly = &outlines[0];
+        assert!(poly.is_closed(), "{}: the outline is closed", e.name);
+        assert_eq!(poly.vertices.len(), e.pattern.outline.len(), "{}", e.name);
+        let worst = poly
+            .vertices
+            .iter()
+            .zip(&e.pattern.outline)
+            .map(|(v, q)| (v.x - q[0] * 1e3).hypot(v.y - q[1] * 1e3))
+            .fold(0.0, f64::max);
+        // DXF stores the coordinates in mm as decimal text; a micrometre is far below any cut.
+        assert!(worst < 1e-3, "{}: outline moved by {worst} mm", e.name);
+        for layer in ["FIBRE", "NOTCH", "LABEL"] {
+            assert!(
+                drawing.entities().any(|ent| ent.common.layer == layer),
+                "{}: no {layer} entity",
+                e.name
+            );
+        }
+    }
+}
+
+/// The area of a parameter region of a surface on a triangle mesh of `n × m` cells, each
+/// split into two flat triangles (the surface's own point function, no net).
+fn mesh_area(region: &layloft::plybook::PlyRegion, n: usize, m: usize) -> f64 {
+    let s = region.surface();
+    let span = region.span();
+    let rows: Vec<Vec<[f64; 3]>> = (0..=n)
+        .map(|i| {
+            let a = span[0] + (span[1] - span[0]) * i as f64 / n as f64;
+            let b = region.b_range(a);
+            (0..=m).map(|j| s.point([a, b[0] + (b[1] - b[0]) * j as f64 / m as f64])).collect()
+        })
+        .collect();
+    let tri = |p: [f64; 3], q: [f64; 3], r: [f64; 3]| {
+        let u = [q[0] - p[0], q[1] - p[1], q[2] - p[2]];
+        let v = [r[0] - p[0], r[1] - p[1], r[2] - p[2]];
+        let c = [u[1] * v[2] - u[2] * v[1], u[2] * v[0] - u[0] * v[2], u[0] * v[1] - u[1] * v[0]];
+        0.5 * (c[0] * c[0] + c[1] * c[1] + c[2] * c[2]).sqrt()
+    };
+    let mut area = 0.0;
+    for i in 0..n {
+        for j in 0..m {
+            area += tri(rows[i][j], rows[i + 1][j], rows[i + 1][j + 1])
+                + tri(rows[i][j], rows[i + 1][j + 1], rows[i][j + 1]);
+        }
+    }
+    area
+}
+
+#[test]
+fn each_pattern_keeps_its_region_area_on_the_surface() {
+    let (project, blade) = mine_fan();
+    let book = book(&project, &blade);
+    let regions = ply_regions(&blade, &project.files.plies, &PlyBookParams::default()).unwrap();
+    let mut checked = 0;
+    for e in book.patterns.iter().filter(|e| e.pattern.cut_short.is_empty()) {
+        let region = regions
+            .iter()
+            .find(|r| {
+                blade.ply(r.ply).is_some_and(|p| p.id == e.ply) && r.surface_name == e.surface
+            })
+            .expect("the pattern's region");
+        // The mesh converges at second order: two meshes give the Richardson estimate.
+        let (a1, a2) = (mesh_area(region, 200, 60), mesh_area(region, 400, 120));
+        let surface = a2 + (a2 - a1) / 3.0;
+        let rel = (e.area_m2 - surface) / surface;
+        // Issue 17 asks 0.5 %. The cloth is inextensible: a cell sheared by g covers cos(g) of
+        // its flat area on the surface, so a pattern is larger than its region by up to
+        // 1/cos(g_max) - 1 where the fabric shears (Mack & Taylor 1956, the net's cell
+        // geometry). Held to 0.5 % below and to 0.5 % or that shear allowance above, whichever
+        // is larger; most of the demo's patterns shear under 5° and meet 0.5 % plainly.
+        let allowance = (1.0 / e.pattern.max_shear.cos() - 1.0).max(5e-3);
+        assert!(
+            rel > -5e-3 && rel < allowance,
+            "{}: pattern {} m², surface {} m² ({rel:e}, shear {}°)",
+            e.name,
+            e.area_m2,
+            surface,
+            e.pattern.max_shear.to_degrees()
+        );
+        if e.pattern.max_shear.to_degrees().abs() < 5.0 {
+            assert!(rel.abs() < 5e-3, "{}: {rel:e} with little shear", e.name);
+        }
+        checked += 1;
+    }
+    assert!(checked >= 20, "only {checked} patterns checked");
+}
