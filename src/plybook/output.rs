@@ -134,6 +134,25 @@ pub fn pattern_svg(e: &PatternEntry) -> String {
     s
 }
 
+/// The header's dates and ids, which the `dxf` crate takes from the clock and a random source,
+/// set to fixed values so that the same ply book gives the same bytes (outputs are compared by
+/// checksum, and a report set must be reproducible). The local dates are given as local wall
+/// time, so they do not depend on the machine's time zone.
+fn fixed_header(h: &mut dxf::Header) {
+    use chrono::{Local, NaiveDate, TimeZone, Utc};
+    if let Some(noon) = NaiveDate::from_ymd_opt(2000, 1, 1).and_then(|d| d.and_hms_opt(12, 0, 0)) {
+        if let Some(local) = Local.from_local_datetime(&noon).earliest() {
+            h.creation_date = local;
+            h.update_date = local;
+        }
+        let utc = Utc.from_utc_datetime(&noon);
+        h.creation_date_universal = utc;
+        h.update_date_universal = utc;
+    }
+    h.fingerprint_guid = uuid::Uuid::nil();
+    h.version_guid = uuid::Uuid::nil();
+}
+
 /// One pattern as DXF (R2000, millimetres): layer `OUTLINE` the closed outline, `FIBRE` the
 /// fibre direction line, `NOTCH` the root notch, `LABEL` the label.
 pub fn pattern_dxf(e: &PatternEntry) -> Result<Vec<u8>, String> {
@@ -142,6 +161,7 @@ pub fn pattern_dxf(e: &PatternEntry) -> Result<Vec<u8>, String> {
     let mut d = Drawing::new();
     d.header.version = dxf::enums::AcadVersion::R2000;
     d.header.default_drawing_units = dxf::enums::Units::Millimeters;
+    fixed_header(&mut d.header);
     let outline: Vec<[f64; 2]> =
         e.pattern.outline.iter().map(|q| [q[0] * 1e3, q[1] * 1e3]).collect();
     let mut poly = LwPolyline::default();
