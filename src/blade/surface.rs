@@ -87,7 +87,7 @@ impl StationCurve {
 }
 
 /// A smooth step from 0 (at `xi ≤ -1`) to 1 (at `xi ≥ 1`): `3s² − 2s³` with `s = (xi + 1) / 2`.
-fn smooth_step(xi: f64) -> f64 {
+pub(crate) fn smooth_step(xi: f64) -> f64 {
     if xi <= -1.0 {
         0.0
     } else if xi >= 1.0 {

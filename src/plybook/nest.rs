@@ -81,7 +81,7 @@ struct Shape {
     hi: [f64; 2],
 }
 
-fn bbox(p: &[[f64; 2]]) -> ([f64; 2], [f64; 2]) {
+pub(super) fn bbox(p: &[[f64; 2]]) -> ([f64; 2], [f64; 2]) {
     let mut lo = [f64::INFINITY; 2];
     let mut hi = [f64::NEG_INFINITY; 2];
     for q in p {

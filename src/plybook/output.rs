@@ -7,23 +7,12 @@ use std::path::Path;
 use serde_json::json;
 
 use super::book::{MaterialNesting, PatternEntry, PlyBook};
+use super::nest::bbox;
 use crate::Error;
 
 /// Escapes text for XML.
 fn esc(s: &str) -> String {
     s.replace('&', "&amp;").replace('<', "&lt;").replace('>', "&gt;").replace('"', "&quot;")
-}
-
-fn bbox(p: &[[f64; 2]]) -> ([f64; 2], [f64; 2]) {
-    let mut lo = [f64::INFINITY; 2];
-    let mut hi = [f64::NEG_INFINITY; 2];
-    for q in p {
-        for k in 0..2 {
-            lo[k] = lo[k].min(q[k]);
-            hi[k] = hi[k].max(q[k]);
-        }
-    }
-    (lo, hi)
 }
 
 fn centroid(p: &[[f64; 2]]) -> [f64; 2] {

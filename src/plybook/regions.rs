@@ -3,21 +3,9 @@
 //! ply on the web's plane between the inner skins.
 
 use super::drape::DrapeSurface;
-use crate::blade::{Blade, BladeSurfaces, PLY_DROP_TAPER, Surface};
+use crate::blade::{Blade, BladeSurfaces, PLY_DROP_TAPER, Surface, smooth_step};
 use crate::input::Region;
 use crate::interp::CubicSpline;
-
-/// A smooth step from 0 (at `xi ≤ -1`) to 1 (at `xi ≥ 1`): `3s² − 2s³`, `s = (xi + 1) / 2`.
-fn smooth_step(xi: f64) -> f64 {
-    if xi <= -1.0 {
-        0.0
-    } else if xi >= 1.0 {
-        1.0
-    } else {
-        let s = 0.5 * (xi + 1.0);
-        s * s * (3.0 - 2.0 * s)
-    }
-}
 
 /// A ply laid before the one draped, with its edges ramped as the blade's inner surface ramps
 /// them (1:20 over the ply's thickness for a fibre ply, edges at the trailing edge, at a
