@@ -206,6 +206,34 @@ fn load_factor_below_one_is_a_warning_the_verdict_repeats() {
 }
 
 #[test]
+fn the_report_banner_repeats_the_input_warnings() {
+    // Issue 14: a value legal but unusual is seen with the verdict it led to, also in the HTML
+    // report, inside the verdict banner (before the first section).
+    let c = Copy::of("mine-fan");
+    c.edit("blade.toml", "load_factor = 1.35", "load_factor = 0.9");
+    let (code, _, stderr) = c.run("report", &["--out", "rep"]);
+    assert_eq!(code, Some(0), "{stderr}");
+    let html = fs::read_to_string(c.path("rep/report.html")).unwrap();
+    let banner = html.find("id=\"verdict\"").expect("a verdict banner");
+    let banner_end = banner + html[banner..].find("</section>").unwrap();
+    let warning = html.find("load factor of 0.9 below 1").expect("the warning in the report");
+    assert!(banner < warning && warning < banner_end, "the warning sits in the banner");
+    assert!(html[banner..banner_end].contains("load_case[2].load_factor"), "with its key");
+}
+
+#[test]
+fn tooling_of_mixed_trailing_edges_names_the_station_line() {
+    // Issue 14: the round-root demo (sharp round root, blunt flat-backed sections outboard)
+    // was refused by tooling naming only blade.toml; the message now names the first station
+    // whose trailing edge differs from the root's, by its line in the stations file.
+    Copy::of("round-root").refused(
+        "tooling",
+        &["--out", "out"],
+        &["stations.csv line 6, r_m", "one kind of trailing edge", "the root is sharp"],
+    );
+}
+
+#[test]
 fn blade_count_beyond_any_rotor_is_refused() {
     // Issue case: 4294967295 blades made blade passing vanish from the frequency check.
     Copy::of("mine-fan").edit("blade.toml", "blades = 9", "blades = 4294967295").refused(

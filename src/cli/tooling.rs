@@ -82,9 +82,14 @@ fn input(e: impl Into<Error>) -> Failure {
 
 /// A mesh error is bad input when it is about the settings (named with the project file), else
 /// a failed computation.
-fn mesh_failure(file: &str, e: MeshError) -> Failure {
+fn mesh_failure(project: &Project, e: MeshError) -> Failure {
+    let file = &project.file;
     match e {
         MeshError::Settings(text) => Failure::Input(anyhow!("{file}: {text}")),
+        // A shape given at one station: named by that station's line of the stations file.
+        MeshError::StationShape { r, .. } => {
+            input(layloft::analysis::place_at_station(project, r, Error::from(e)))
+        }
         MeshError::Parameter { .. } | MeshError::Unit(_) => {
             Failure::Input(anyhow!("{file}: {}", Error::from(e)))
         }
@@ -102,7 +107,7 @@ fn configure(args: &Args) -> Result<Config, Failure> {
             .map_err(|e| input(layloft::analysis::place_at_station(&project, r, e.into())))?;
     }
     let spec = project.tooling.clone().unwrap_or_default();
-    let mut params = ToolingParams::from_spec(&spec).map_err(|e| mesh_failure(&project.file, e))?;
+    let mut params = ToolingParams::from_spec(&spec).map_err(|e| mesh_failure(&project, e))?;
     if let Some(text) = &args.tolerance_mm {
         match text.trim().parse::<f64>() {
             Ok(t) if t.is_finite() && t > 0.0 => {
@@ -176,7 +181,7 @@ pub fn build_and_write(
         b.set_message(&format!("lofted {stage}"));
         b.inc(1);
     })
-    .map_err(|e| mesh_failure(&project.file, e))?;
+    .map_err(|e| mesh_failure(project, e))?;
     drop(bar);
     let parts: Vec<(&str, &layloft::tooling::Mesh)> =
         tooling.parts.iter().map(|p| (p.name.as_str(), &p.mesh)).collect();

@@ -78,6 +78,7 @@ pub fn blade_report(inp: &ReportInputs<'_>) -> String {
     }
     doc.meta("project file", p.file.clone());
     doc.design_check(inp.check);
+    doc.verdict_warnings(p.input_warnings.iter().cloned());
 
     blade_section(&mut doc, m);
     sections_section(&mut doc, m, &inp.section_drawings);

@@ -301,17 +301,23 @@ pub fn build_tooling(
         EndKind::Point
     } else {
         let kind = |b: bool| if b { "blunt" } else { "sharp" };
-        let list: Vec<String> = blade
-            .station_radii()
-            .iter()
-            .zip(&blunt)
-            .map(|(r, &b)| format!("r = {r} m {}", kind(b)))
-            .collect();
-        return Err(MeshError::Settings(format!(
-            "the tooling needs one kind of trailing edge at every station, blunt (open) or sharp \
-             (closed); found {}",
-            list.join(", ")
-        )));
+        let radii = blade.station_radii();
+        let list: Vec<String> =
+            radii.iter().zip(&blunt).map(|(r, &b)| format!("r = {r} m {}", kind(b))).collect();
+        // The first station whose kind differs from the root's is where the shape changes.
+        let at = blunt.iter().position(|&b| b != blunt[0]).unwrap_or(0);
+        return Err(MeshError::StationShape {
+            r: radii.get(at).copied().unwrap_or(0.0),
+            text: format!(
+                "the tooling needs one kind of trailing edge at every station, blunt (open) or \
+                 sharp (closed), and cannot yet blend one into the other along the span; the \
+                 root is {} but this station is {}: give every station the same kind of \
+                 trailing edge to make tooling; found {}",
+                kind(blunt[0]),
+                kind(!blunt[0]),
+                list.join(", ")
+            ),
+        });
     };
     let (r0, r1) = (blade.root_radius(), blade.tip_radius());
     let root_sphere = rotor.hub_radius + rotor.root_clearance;

@@ -71,6 +71,15 @@ pub enum MeshError {
     /// failed computation.
     #[error("{0}")]
     Settings(String),
+    /// Like [`MeshError::Settings`], but caused by the shape given at one station, so that the
+    /// message can name that station's line of the stations file.
+    #[error("{text}")]
+    StationShape {
+        /// Radius of the station, m.
+        r: f64,
+        /// What cannot work, in words.
+        text: String,
+    },
     /// The chordal tolerance could not be met by refinement (a discontinuous surface).
     #[error(
         "the {direction} grid cannot meet the tolerance near {at}: the surface is not continuous \

@@ -61,6 +61,7 @@ pub struct HtmlReport {
     date: Option<String>,
     meta: Vec<(String, String)>,
     verdict: Verdict,
+    verdict_warnings: Vec<String>,
     cautions: Vec<String>,
     sections: Vec<Section>,
 }
@@ -106,6 +107,7 @@ impl HtmlReport {
             date: None,
             meta: Vec::new(),
             verdict: Verdict::NotChecked,
+            verdict_warnings: Vec::new(),
             cautions: Vec::new(),
             sections: Vec::new(),
         }
@@ -164,6 +166,17 @@ impl HtmlReport {
             })
             .collect();
         self.verdict = Verdict::Checked { passed: check.passed(), lines };
+        self
+    }
+
+    /// Warnings repeated inside the verdict banner, after its lines: values of the input that
+    /// are legal but unusual, so that the reader sees them with the verdict they led to.
+    pub fn verdict_warnings<I, S>(&mut self, warnings: I) -> &mut Self
+    where
+        I: IntoIterator<Item = S>,
+        S: Into<String>,
+    {
+        self.verdict_warnings = warnings.into_iter().map(Into::into).collect();
         self
     }
 

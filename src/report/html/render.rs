@@ -41,7 +41,7 @@ pub(super) fn document(report: &HtmlReport) -> String {
     out.push_str(STYLE);
     out.push_str("</style>\n</head>\n<body>\n");
     masthead(report, &mut out);
-    verdict(&report.verdict, &mut out);
+    verdict(&report.verdict, &report.verdict_warnings, &mut out);
     cautions(&report.cautions, &mut out);
     contents(&report.sections, &mut out);
     out.push_str("<main>\n");
@@ -86,7 +86,7 @@ fn masthead(report: &HtmlReport, out: &mut String) {
     out.push_str("</dl>\n</header>\n");
 }
 
-fn verdict(verdict: &Verdict, out: &mut String) {
+fn verdict(verdict: &Verdict, warnings: &[String], out: &mut String) {
     let no_lines: &[VerdictLine] = &[];
     let (class, mark, head, lines) = match verdict {
         Verdict::NotChecked => (
@@ -116,6 +116,18 @@ fn verdict(verdict: &Verdict, out: &mut String) {
                 None => ("", ""),
             };
             out.push_str(&format!("<li{cls}>{tag}{}</li>\n", escape(text)));
+        }
+        out.push_str("</ul>\n");
+    }
+    if !warnings.is_empty() {
+        out.push_str(&format!(
+            "<p class=\"verdict-warnings-head\">With {} input warning{} (unusual values, check \
+             them):</p>\n<ul class=\"verdict-warnings\">\n",
+            warnings.len(),
+            if warnings.len() == 1 { "" } else { "s" }
+        ));
+        for w in warnings {
+            out.push_str(&format!("<li class=\"warn\">{}</li>\n", escape(w)));
         }
         out.push_str("</ul>\n");
     }

@@ -127,6 +127,22 @@ fn the_verdict_follows_the_design_check() {
 }
 
 #[test]
+fn input_warnings_are_repeated_inside_the_verdict_banner() {
+    // Issue 14 asks that a value legal but unusual be seen with the verdict it led to: the
+    // warnings sit inside the banner's section, after its lines, and before the cautions.
+    let mut r = HtmlReport::new("x");
+    r.design_check(&DesignCheck { rows: vec![row(true)] });
+    assert!(!r.render().contains("class=\"verdict-warnings\""), "no warnings, no list");
+    r.verdict_warnings(["load factor 0.6 < 1 on case 'gust'"]);
+    let html = r.render();
+    let banner_end = html[html.find("id=\"verdict\"").unwrap()..].find("</section>").unwrap()
+        + html.find("id=\"verdict\"").unwrap();
+    let warning = html.find("load factor 0.6 &lt; 1 on case").expect("warning rendered, escaped");
+    assert!(warning < banner_end, "the warning is inside the verdict banner");
+    assert!(html.contains("With 1 input warning (unusual values"));
+}
+
+#[test]
 fn the_document_is_self_contained() {
     let html = sample().render();
     assert!(html.starts_with("<!DOCTYPE html>"));
