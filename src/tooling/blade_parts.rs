@@ -312,7 +312,7 @@ pub fn build_tooling(
                 "the tooling needs one kind of trailing edge at every station, blunt (open) or \
                  sharp (closed), and cannot yet blend one into the other along the span; the \
                  root is {} but this station is {}: give every station the same kind of \
-                 trailing edge to make tooling; found {}",
+                 trailing edge to make tooling (a NACA code takes `-closed` for a sharp one); found {}",
                 kind(blunt[0]),
                 kind(!blunt[0]),
                 list.join(", ")
