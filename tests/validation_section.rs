@@ -128,6 +128,38 @@ fn rectangular_box_matches_bredt_batho() {
     assert_relative_eq!(p.shear_centre[0], 0.080, max_relative = 1e-9);
 }
 
+/// A closed outline with a sharp, thick trailing edge (a diamond, trailing-edge angle 33.4°,
+/// whose midline corner is offset as a mitre) and a web. With the vertices beside the trailing
+/// edge closer together than the wall is thick, the offset edges there fold and the trailing-edge
+/// vertex itself is taken out; the web must still find both walls (it once "missed the lower
+/// wall" on a closed NACA 0024 with a web). Thin-wall idealisation on the midline (Megson,
+/// Aircraft Structures for Engineering Students, thin-walled sections): EA = E t (P_mid + h_web)
+/// with the inward offset of a convex polygon by d having perimeter P − 2 d Σ cot(α_i/2)
+/// (α_i its interior angles; elementary geometry of parallel polygons) and the web running
+/// between the offset lines z = ±((b/a) y − d √(a² + b²)/a). Straight walls: exact (1e-9).
+#[test]
+fn closed_sharp_thick_trailing_edge_with_a_web_matches_the_midline_closed_form() {
+    let (e, nu, rho, t) = (70e9, 0.33, 2700.0, 2e-3);
+    let (a, b, y_web): (f64, f64, f64) = (0.1, 0.03, 0.064);
+    let d = t / 2.0;
+    let side = a.hypot(b);
+    let cot_sum = 2.0 * (a / b + b / a);
+    let p_mid = 4.0 * side - 2.0 * d * cot_sum;
+    let h_web = 2.0 * (b / a * y_web - d * side / a);
+    let wall = single(&isotropic("aluminium", e, nu, t, rho));
+    for m in [4, 40] {
+        let l = with_web(diamond(a, b, m, wall.clone()), "spar", y_web, 0);
+        let s = SolvedSection::solve(
+            &l,
+            &SectionParams { wall_curvature: WallCurvature::Held, ..SectionParams::default() },
+        )
+        .unwrap_or_else(|err| panic!("{m} edges per side: {err}"));
+        let p = &s.properties;
+        assert_relative_eq!(p.ea, e * t * (p_mid + h_web), max_relative = 1e-9);
+        assert_relative_eq!(p.mass_per_length, rho * t * (p_mid + h_web), max_relative = 1e-9);
+    }
+}
+
 /// The same box with the walls following the beam (the default): Bredt–Batho plus the walls'
 /// own terms. GJ = G J + 4 ∮ D66 ds (Saint-Venant thin strips, Timoshenko & Goodier, Theory of
 /// Elasticity, 1970, §109), EI_flap + 2 b D11 (the flanges bend about their own midplanes,

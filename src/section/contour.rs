@@ -226,7 +226,7 @@ pub(crate) fn build_contour(
     // Where the midline crosses itself: a swallowtail behind a thin trailing edge is cut off;
     // any other crossing means walls thicker than the section is deep. Crossings are in the
     // indices of the kept vertices (`idx` maps them to outer segments).
-    let te_pos = idx.iter().position(|&k| k == i_te).unwrap_or(0);
+    let te_pos = te_position(&idx, i_te);
     let crossings = self_crossings(&v);
     let merge =
         crossings.iter().filter(|c| c.i < te_pos && te_pos <= c.j).max_by_key(|c| c.j - c.i);
@@ -248,7 +248,7 @@ pub(crate) fn build_contour(
     match merge {
         None => nodes.extend((0..m0).map(|q| {
             let k = idx[q];
-            (v[q], if k == i_te { Node::TrailingEdge } else { Node::Plain }, k)
+            (v[q], if q == te_pos { Node::TrailingEdge } else { Node::Plain }, k)
         })),
         Some(c) => {
             nodes.extend((0..=c.i).map(|q| (v[q], Node::Plain, idx[q])));
@@ -413,7 +413,7 @@ fn check_inner_surface(
         .collect();
     let (idx, w) = collapse_folds(pts, tang, &full, w0, keep, max_mitre);
     let err = |p: Point| SectionError::WallsMeet { r: layout.r, y_c: y_c(layout, p[0]) };
-    let te_pos = idx.iter().position(|&k| k == i_te).unwrap_or(0);
+    let te_pos = te_position(&idx, i_te);
     let crossings = self_crossings(&w);
     let tail = crossings.iter().filter(|c| c.i < te_pos && te_pos <= c.j).max_by_key(|c| c.j - c.i);
     if let Some(c) = crossings.iter().find(|c| !tail.is_some_and(|m| m.i <= c.i && c.j <= m.j)) {
@@ -438,6 +438,14 @@ fn check_inner_surface(
         return Err(err([sy / n as f64, sz / n as f64]));
     }
     Ok(())
+}
+
+/// The place among the kept offset vertices (`idx`, ascending outer indices) of the trailing
+/// edge `i_te`: its own vertex, or, when a fold took that vertex out (a thick closed trailing
+/// edge, whose offset corner is the crossing of its neighbours' offset lines), the next vertex
+/// kept, which took the corner's place.
+fn te_position(idx: &[usize], i_te: usize) -> usize {
+    idx.iter().position(|&k| k >= i_te).unwrap_or(0)
 }
 
 /// Takes out the offset edges that run backwards against their outer edge (an edge shorter than

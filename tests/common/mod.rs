@@ -161,3 +161,21 @@ pub fn naca00(
     l.pitch_axis_frac = 0.25;
     l
 }
+
+/// A diamond (rhombus) of half-chord `a` and half-height `b`: leading edge at y = 0, top vertex
+/// at (a, b), trailing edge at (2a, 0), each side split into `m` edges clustered towards both of
+/// its ends (cosine spacing), so that the vertices beside the sharp leading and trailing edges
+/// lie closer together than a wall is thick. One laminate all round.
+pub fn diamond(a: f64, b: f64, m: usize, wall: Laminate) -> SectionLayout {
+    let corners = [[0.0, 0.0], [a, b], [2.0 * a, 0.0], [a, -b]];
+    let mut outer = Vec::with_capacity(4 * m);
+    for (s, c) in corners.iter().enumerate() {
+        let next = corners[(s + 1) % 4];
+        for k in 0..m {
+            let t = 0.5 * (1.0 - (PI * k as f64 / m as f64).cos());
+            outer.push([c[0] + (next[0] - c[0]) * t, c[1] + (next[1] - c[1]) * t]);
+        }
+    }
+    let n = outer.len();
+    layout(outer, vec![0; n], vec![wall])
+}
