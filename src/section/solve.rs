@@ -2,7 +2,7 @@
 
 use nalgebra::{DMatrix, Matrix4};
 
-use super::contour::{Contour, WallElement, build_contour, y_c};
+use super::contour::{Contour, Node, WallElement, build_contour, y_c};
 use super::error::SectionError;
 use super::layout::{SectionLayout, SectionProperties};
 use super::mass::mass_properties;
@@ -90,7 +90,13 @@ impl SolvedSection {
         let wall_thickness = used.fold([f64::INFINITY, 0.0], |[lo, hi], t| [lo.min(t), hi.max(t)]);
 
         let mut warnings = Vec::new();
-        let depth = depth_check(layout, &thickness, contour.merge, params.thick_wall_ratio);
+        let depth = depth_check(
+            layout,
+            &thickness,
+            contour.merge,
+            closed_corner(layout, &contour),
+            params.thick_wall_ratio,
+        );
         // The note on meeting trailing-edge walls is given only where the idealisation changes
         // a result: the torsion of a closed cell grows with the square of its enclosed area, so a
         // wedge aft of the meeting point holding under TE_NOTE_AREA of the section's area changes
@@ -276,6 +282,29 @@ struct DepthCheck {
     converging: Option<f64>,
 }
 
+/// The chordwise place `y` of the midline's trailing-edge corner when the outline ends in a
+/// sharp closed trailing edge whose walls do not cross (their offset corner is a mitre ahead of
+/// the edge); `None` for a blunt trailing edge or walls that meet (see [`Contour::merge`]).
+fn closed_corner(layout: &SectionLayout, contour: &Contour) -> Option<f64> {
+    if contour.merge.is_some() {
+        return None;
+    }
+    let pts = &layout.outer;
+    let n = pts.len();
+    let i_te = (0..n).fold(0, |b, i| if pts[i][0] > pts[b][0] { i } else { b });
+    // Sharp: both edges at the aftmost point run mostly along the chord (no base).
+    let along = |a: Point, b: Point| {
+        let d = sub(b, a);
+        (d[0] / norm(d)).abs() >= 0.5
+    };
+    let sharp = along(pts[(i_te + n - 1) % n], pts[i_te]) && along(pts[i_te], pts[(i_te + 1) % n]);
+    if !sharp {
+        return None;
+    }
+    let k = contour.loop_nodes.iter().position(|n| matches!(n, Node::TrailingEdge))?;
+    Some(contour.elements[k].start[0])
+}
+
 /// Wall thickness against the local depth normal to the chord, over the mostly chordwise walls.
 /// Chord fraction behind the leading edge where the depth test of wall thickness begins.
 const NOSE_FRACTION: f64 = 0.05;
@@ -320,6 +349,7 @@ fn depth_check(
     layout: &SectionLayout,
     thickness: &[f64],
     merge: Option<Point>,
+    corner: Option<f64>,
     limit: f64,
 ) -> DepthCheck {
     let pts = &layout.outer;
@@ -342,6 +372,11 @@ fn depth_check(
             continue;
         }
         let other = if i < i_te { &lower } else { &upper };
+        // Aft of the midline's corner at a sharp closed trailing edge the walls are one solid
+        // laminate, not thin walls: the depth there goes to nothing whatever the walls are.
+        if corner.is_some_and(|y| mid[0] > y) {
+            continue;
+        }
         let Some(z) = chain_z_at(other, mid[0]) else { continue };
         let depth = (mid[1] - z).abs();
         if depth > 0.0 {
@@ -353,7 +388,7 @@ fn depth_check(
         .fold((f64::NEG_INFINITY, 0.0), |b, s| if s.1 > b.0 { (s.1, s.0) } else { b })
         .1;
     let mut converging = None;
-    if merge.is_some() {
+    if merge.is_some() || corner.is_some() {
         // Walk forward from the trailing edge while the ratio stays above the limit.
         let mut aft: Vec<&(f64, f64, f64)> = samples.iter().filter(|s| s.0 > deepest).collect();
         aft.sort_by(|a, b| b.0.total_cmp(&a.0));
