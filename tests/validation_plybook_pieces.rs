@@ -195,7 +195,10 @@ fn a_generated_blade_with_a_ramp_is_cut_into_pieces_that_drape() {
     let project = generated(dir.path());
     let blade = Blade::from_project(&project).expect("blade");
     let book = book(&project, &blade);
-    check_complete(&project, &blade, &book);
+    // The ±45° and 30° fabrics over the whole wider, more twisted skin will not drape whole
+    // (when written: `outer` both skins, `over-ramp`, `lower-30`, each in two pieces).
+    let split = check_complete(&project, &blade, &book);
+    assert!(split >= 2, "only {split} regions cut in pieces");
     // Each pattern, piece or whole, is a pattern the net covers without folding.
     for e in &book.patterns {
         assert!(e.pattern.cut_short.is_empty(), "{} cut short", e.name);
