@@ -39,6 +39,8 @@ mod validation_outlines;
 mod validation_plybook;
 #[path = "validation_plybook_book.rs"]
 mod validation_plybook_book;
+#[path = "validation_plybook_pieces.rs"]
+mod validation_plybook_pieces;
 #[path = "validation_section.rs"]
 mod validation_section;
 #[path = "validation_stress.rs"]

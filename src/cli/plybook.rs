@@ -117,6 +117,9 @@ fn kit_text(book: &layloft::plybook::PlyBook, laminate_kg: f64) -> String {
             if e.locks() { "  past locking" } else { "" }
         );
     }
+    for p in &book.splices {
+        let _ = writeln!(s, "\nCut in pieces: {p}.");
+    }
     let _ = writeln!(
         s,
         "\nPatterns {:.3} kg against the laminate mass {:.3} kg of the sections (the patterns are cut on each ply's own level; webs between the skins' inner faces)",

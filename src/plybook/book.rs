@@ -145,6 +145,8 @@ pub struct PlyBook {
     pub warnings: Vec<String>,
     /// Regions that could not be draped, with the reason: left out of the book.
     pub failed: Vec<PlyBookError>,
+    /// Ply regions cut in pieces because one piece would not drape: the pieces and their joins.
+    pub splices: Vec<String>,
 }
 
 impl PlyBook {
@@ -174,8 +176,16 @@ pub struct PlyRegion<'a> {
     /// The region (parameters, seed, direction, spacing).
     pub spec: RegionSpec,
     level: Level<'a>,
+    at: At,
     span: [f64; 2],
     chord: [f64; 2],
+}
+
+/// Where a region lies, to rebuild a part of it.
+#[derive(Debug, Clone, Copy)]
+enum At {
+    Skin(Surface),
+    Web(usize),
 }
 
 impl PlyRegion<'_> {
@@ -293,18 +303,15 @@ pub fn ply_regions<'a>(
                 format!("{}..{} m within the blade's {root}..{tip} m", p.r_start, p.r_end),
             ));
         }
-        let sides: Vec<(Surface, &str)> = match &p.region {
-            Region::Upper => vec![(Surface::Upper, "upper")],
-            Region::Lower => vec![(Surface::Lower, "lower")],
-            Region::Both => vec![(Surface::Upper, "upper"), (Surface::Lower, "lower")],
+        let sides: Vec<Surface> = match &p.region {
+            Region::Upper => vec![Surface::Upper],
+            Region::Lower => vec![Surface::Lower],
+            Region::Both => vec![Surface::Upper, Surface::Lower],
             Region::Web(_) => Vec::new(),
         };
-        let mid = 0.5 * (span[0] + span[1]);
-        let axis = [1.0, 0.0, 0.0];
         if let Region::Web(name) = &p.region {
             let Some(w) = blade.webs().iter().position(|w| &w.name == name) else { continue };
-            let plane = WebPlane::new(blade, w);
-            let ws = plane.span();
+            let ws = WebPlane::new(blade, w).span();
             let span = [span[0].max(ws[0]), span[1].min(ws[1])];
             if !(span[1] - span[0] > 1e-6) {
                 return Err(zero_area(
@@ -314,81 +321,114 @@ pub fn ply_regions<'a>(
                     format!("{}..{} m outside web '{name}'", p.r_start, p.r_end),
                 ));
             }
-            let height = {
-                let a = plane.point([mid, 0.0]);
-                let b = plane.point([mid, 1.0]);
-                ((a[0] - b[0]).powi(2) + (a[1] - b[1]).powi(2) + (a[2] - b[2]).powi(2)).sqrt()
-            };
-            let spacing = spacing(span[1] - span[0], height, params);
-            let boundary = rectangle(span, [0.0, 1.0], 48, 12);
-            out.push(PlyRegion {
-                ply: k,
-                surface_name: format!("web:{name}"),
-                spec: RegionSpec {
-                    boundary,
-                    seed: [mid, 0.5],
-                    axis,
-                    angle: p.angle.rad(),
-                    spacing,
-                    root_mark: [span[0], 0.5],
-                },
-                level: Level::Web(plane),
-                span,
-                chord: [0.0, 1.0],
-            });
+            out.push(web_region(blade, k, w, span, params));
             continue;
         }
         if !(p.to - p.from > 1e-6) {
             return Err(zero_area(plies_file, p, "from, to", format!("{}..{}", p.from, p.to)));
         }
-        for (side, name) in sides {
-            let level = SkinLevel::new(blade, side, k);
-            let n_r = 48;
-            let n_c = 16;
-            let radii: Vec<f64> =
-                (0..=n_r).map(|i| span[0] + (span[1] - span[0]) * i as f64 / n_r as f64).collect();
-            let ranges: Vec<[f64; 2]> =
-                radii.iter().map(|&r| level.b_range(r, p.from, p.to)).collect();
-            let mut boundary = Vec::new();
-            for (r, b) in radii.iter().zip(&ranges) {
-                boundary.push([*r, b[0]]);
-            }
-            let end = ranges[n_r];
-            for m in 1..n_c {
-                boundary.push([span[1], end[0] + (end[1] - end[0]) * m as f64 / n_c as f64]);
-            }
-            for (r, b) in radii.iter().zip(&ranges).rev() {
-                boundary.push([*r, b[1]]);
-            }
-            let start = ranges[0];
-            for m in (1..n_c).rev() {
-                boundary.push([span[0], start[0] + (start[1] - start[0]) * m as f64 / n_c as f64]);
-            }
-            let bm = level.b_range(mid, p.from, p.to);
-            let c = blade.chord(mid);
-            let arc = c * (p.to - p.from) * 1.1;
-            // Cloth cells small enough to close round the nose: a fraction of the least chord.
-            let least_chord = radii.iter().map(|&r| blade.chord(r)).fold(f64::INFINITY, f64::min);
-            out.push(PlyRegion {
-                ply: k,
-                surface_name: name.to_string(),
-                spec: RegionSpec {
-                    boundary,
-                    seed: [mid, 0.5 * (bm[0] + bm[1])],
-                    axis,
-                    angle: p.angle.rad(),
-                    spacing: spacing(span[1] - span[0], arc, params)
-                        .min(params.chord_spacing * least_chord)
-                        .max(params.min_spacing),
-                    root_mark: [span[0], 0.5 * (start[0] + start[1])],
-                },
-                level: Level::Skin(level),
-                span,
-                chord: [p.from, p.to],
-            });
+        for side in sides {
+            out.push(skin_region(blade, k, side, span, [p.from, p.to], params));
         }
     }
     Ok(out)
+}
+
+/// The region of web ply `k` on web `w` over `span`.
+fn web_region<'a>(
+    blade: &'a Blade,
+    k: usize,
+    w: usize,
+    span: [f64; 2],
+    params: &PlyBookParams,
+) -> PlyRegion<'a> {
+    let plane = WebPlane::new(blade, w);
+    let name = &blade.webs()[w].name;
+    let mid = 0.5 * (span[0] + span[1]);
+    let height = {
+        let a = plane.point([mid, 0.0]);
+        let b = plane.point([mid, 1.0]);
+        ((a[0] - b[0]).powi(2) + (a[1] - b[1]).powi(2) + (a[2] - b[2]).powi(2)).sqrt()
+    };
+    let spacing = spacing(span[1] - span[0], height, params);
+    let boundary = rectangle(span, [0.0, 1.0], 48, 12);
+    PlyRegion {
+        ply: k,
+        surface_name: format!("web:{name}"),
+        spec: RegionSpec {
+            boundary,
+            seed: [mid, 0.5],
+            axis: [1.0, 0.0, 0.0],
+            angle: blade.ply(k).map_or(0.0, |p| p.angle.rad()),
+            spacing,
+            root_mark: [span[0], 0.5],
+        },
+        level: Level::Web(plane),
+        at: At::Web(w),
+        span,
+        chord: [0.0, 1.0],
+    }
+}
+
+/// The region of surface ply `k` on `side` over `span` and the chord fractions `chord`.
+fn skin_region<'a>(
+    blade: &'a Blade,
+    k: usize,
+    side: Surface,
+    span: [f64; 2],
+    chord: [f64; 2],
+    params: &PlyBookParams,
+) -> PlyRegion<'a> {
+    let level = SkinLevel::new(blade, side, k);
+    let mid = 0.5 * (span[0] + span[1]);
+    let n_r = 48;
+    let n_c = 16;
+    let radii: Vec<f64> =
+        (0..=n_r).map(|i| span[0] + (span[1] - span[0]) * i as f64 / n_r as f64).collect();
+    let ranges: Vec<[f64; 2]> =
+        radii.iter().map(|&r| level.b_range(r, chord[0], chord[1])).collect();
+    let mut boundary = Vec::new();
+    for (r, b) in radii.iter().zip(&ranges) {
+        boundary.push([*r, b[0]]);
+    }
+    let end = ranges[n_r];
+    for m in 1..n_c {
+        boundary.push([span[1], end[0] + (end[1] - end[0]) * m as f64 / n_c as f64]);
+    }
+    for (r, b) in radii.iter().zip(&ranges).rev() {
+        boundary.push([*r, b[1]]);
+    }
+    let start = ranges[0];
+    for m in (1..n_c).rev() {
+        boundary.push([span[0], start[0] + (start[1] - start[0]) * m as f64 / n_c as f64]);
+    }
+    let bm = level.b_range(mid, chord[0], chord[1]);
+    let c = blade.chord(mid);
+    let arc = c * (chord[1] - chord[0]) * 1.1;
+    // Cloth cells small enough to close round the nose: a fraction of the least chord.
+    let least_chord = radii.iter().map(|&r| blade.chord(r)).fold(f64::INFINITY, f64::min);
+    PlyRegion {
+        ply: k,
+        surface_name: match side {
+            Surface::Upper => "upper",
+            Surface::Lower => "lower",
+        }
+        .to_string(),
+        spec: RegionSpec {
+            boundary,
+            seed: [mid, 0.5 * (bm[0] + bm[1])],
+            axis: [1.0, 0.0, 0.0],
+            angle: blade.ply(k).map_or(0.0, |p| p.angle.rad()),
+            spacing: spacing(span[1] - span[0], arc, params)
+                .min(params.chord_spacing * least_chord)
+                .max(params.min_spacing),
+            root_mark: [span[0], 0.5 * (start[0] + start[1])],
+        },
+        level: Level::Skin(level),
+        at: At::Skin(side),
+        span,
+        chord,
+    }
 }
 
 fn spacing(a: f64, b: f64, params: &PlyBookParams) -> f64 {
@@ -413,8 +453,118 @@ fn rectangle(a: [f64; 2], b: [f64; 2], n: usize, m: usize) -> Vec<[f64; 2]> {
     out
 }
 
-/// Builds the ply book of a blade: every ply region draped and flattened, checked, and the
-/// patterns of each material nested on its roll.
+/// Most halvings of a region that cannot be draped in one piece (at most `2^5` pieces).
+const MAX_SPLITS: usize = 5;
+
+/// One attempt at draping and flattening a region: the flat pattern, or why it is not one to
+/// cut. A net that folds over itself, or a flat pattern whose area departs from the region's
+/// area on its surface, is not a pattern to cut.
+fn attempt(
+    region: &PlyRegion,
+    file: &str,
+    p: &PlySpec,
+    name: &str,
+) -> Result<FlatPattern, PlyBookError> {
+    let err = |what: String| PlyBookError::Drape {
+        file: file.to_string(),
+        line: p.line,
+        ply: p.id.clone(),
+        pattern: name.to_string(),
+        what,
+    };
+    let along = if region.surface_name.starts_with("web") { "height" } else { "x/c" };
+    let flat = drape_region(region.surface(), &region.spec).map_err(|e| match e {
+        DrapeFailure::Seed => err("the seed or the fibre direction is degenerate".to_string()),
+        DrapeFailure::Unreached(q) => {
+            let at = region.place(q);
+            err(format!(
+                "the net does not reach r = {:.4} m, {along} = {:.3} (the cloth would fold)",
+                at.r, at.along
+            ))
+        }
+    })?;
+    let surface_area = region.surface_area();
+    let mismatch = (flat.area - surface_area).abs() / surface_area;
+    let crossing = self_crossing(&flat.outline);
+    if crossing.is_some() || (flat.cut_short.is_empty() && mismatch > AREA_CHECK) {
+        let at = crossing
+            .map(|k| region.place(region.spec.boundary[k]))
+            .or_else(|| flat.extrapolated.first().map(|&q| region.place(q)))
+            .unwrap_or_else(|| region.place(region.spec.seed));
+        return Err(err(format!(
+            "the flat pattern {} ({:.4} m² against {:.4} m² of the region on its surface) near r = {:.3} m, {along} = {:.3}; left out of the book",
+            if crossing.is_some() { "crosses itself" } else { "does not keep the region's area" },
+            flat.area,
+            surface_area,
+            at.r,
+            at.along
+        )));
+    }
+    Ok(flat)
+}
+
+/// The two halves of a region: across the span at its middle radius where the region is at least
+/// as long as it is wide on the surface (always on a web), else across the chord at the middle
+/// chord fraction.
+fn halves<'a>(
+    blade: &'a Blade,
+    region: &PlyRegion<'a>,
+    params: &PlyBookParams,
+) -> [PlyRegion<'a>; 2] {
+    let (a, c) = (region.span, region.chord);
+    let mid = 0.5 * (a[0] + a[1]);
+    let k = region.ply;
+    match region.at {
+        At::Web(w) => [
+            web_region(blade, k, w, [a[0], mid], params),
+            web_region(blade, k, w, [mid, a[1]], params),
+        ],
+        At::Skin(side) => {
+            if a[1] - a[0] >= blade.chord(mid) * (c[1] - c[0]) {
+                [
+                    skin_region(blade, k, side, [a[0], mid], c, params),
+                    skin_region(blade, k, side, [mid, a[1]], c, params),
+                ]
+            } else {
+                let m = 0.5 * (c[0] + c[1]);
+                [
+                    skin_region(blade, k, side, a, [c[0], m], params),
+                    skin_region(blade, k, side, a, [m, c[1]], params),
+                ]
+            }
+        }
+    }
+}
+
+/// A region draped whole, or, where it cannot be draped in one piece (the net does not reach
+/// it, folds over itself, loses area or ends short of it), split in halves (see [`halves`]) and
+/// each half draped the same way, at most [`MAX_SPLITS`] times deep. When no split drapes whole
+/// the region's own result stands (a pattern cut short, with its warning, or the failure).
+fn drape_pieces<'a>(
+    blade: &'a Blade,
+    region: PlyRegion<'a>,
+    file: &str,
+    p: &PlySpec,
+    name: &str,
+    params: &PlyBookParams,
+    depth: usize,
+) -> Result<Vec<(PlyRegion<'a>, FlatPattern)>, PlyBookError> {
+    let whole = attempt(&region, file, p, name);
+    if matches!(&whole, Ok(f) if f.cut_short.is_empty()) || depth >= MAX_SPLITS {
+        return whole.map(|f| vec![(region, f)]);
+    }
+    let mut pieces = Vec::new();
+    for half in halves(blade, &region, params) {
+        match drape_pieces(blade, half, file, p, name, params, depth + 1) {
+            Ok(v) if v.iter().all(|(_, f)| f.cut_short.is_empty()) => pieces.extend(v),
+            _ => return whole.map(|f| vec![(region, f)]),
+        }
+    }
+    Ok(pieces)
+}
+
+/// Builds the ply book of a blade: every ply region draped and flattened (in pieces where one
+/// will not drape whole), checked, and the patterns of each material nested on its roll.
 pub fn build_ply_book(
     blade: &Blade,
     project: &Project,
@@ -424,7 +574,8 @@ pub fn build_ply_book(
     let mut patterns = Vec::with_capacity(regions.len());
     let mut warnings = Vec::new();
     let mut failed = Vec::new();
-    for region in &regions {
+    let mut splices = Vec::new();
+    for region in regions {
         let Some(p) = blade.ply(region.ply) else { continue };
         let Some(mat) = blade.ply_material(region.ply) else { continue };
         let cutting = project.materials.cutting(&p.material);
@@ -438,113 +589,98 @@ pub fn build_ply_book(
             file_safe(&p.id),
             file_safe(region.surface_name.trim_start_matches("web:"))
         );
-        let attempt = drape_region(region.surface(), &region.spec);
-        let flat = match attempt.map_err(|e| {
-            let what = match e {
-                DrapeFailure::Seed => "the seed or the fibre direction is degenerate".to_string(),
-                DrapeFailure::Unreached(q) => {
-                    let at = region.place(q);
-                    format!(
-                        "the net does not reach r = {:.4} m, {} = {:.3} (the cloth would fold)",
-                        at.r,
-                        if region.surface_name.starts_with("web") { "height" } else { "x/c" },
-                        at.along
-                    )
-                }
-            };
-            PlyBookError::Drape {
-                file: project.files.plies.clone(),
-                line: p.line,
-                ply: p.id.clone(),
-                pattern: name.clone(),
-                what,
-            }
-        }) {
-            Ok(f) => f,
+        let pieces = match drape_pieces(blade, region, &project.files.plies, p, &name, params, 0) {
+            Ok(v) => v,
             Err(e) => {
                 failed.push(e);
                 continue;
             }
         };
-        // A net that folds over itself, or a flat pattern whose area departs from the region's
-        // area on its surface, is not a pattern to cut: left out, and the book says where.
-        let surface_area = region.surface_area();
-        let mismatch = (flat.area - surface_area).abs() / surface_area;
-        let crossing = self_crossing(&flat.outline);
-        if crossing.is_some() || (flat.cut_short.is_empty() && mismatch > AREA_CHECK) {
-            let at = crossing
-                .map(|k| region.place(region.spec.boundary[k]))
-                .or_else(|| flat.extrapolated.first().map(|&q| region.place(q)))
-                .unwrap_or_else(|| region.place(region.spec.seed));
-            failed.push(PlyBookError::Drape {
-                file: project.files.plies.clone(),
-                line: p.line,
+        let count = pieces.len();
+        if count > 1 {
+            splices.push(splice_note(p, &name, &pieces));
+        }
+        for (n, (region, flat)) in pieces.into_iter().enumerate() {
+            let name = if count > 1 { piece_name(&name, n) } else { name.clone() };
+            let mass = flat.area * mat.ply_thickness * mat.density;
+            let entry = PatternEntry {
+                name,
                 ply: p.id.clone(),
-                pattern: name.clone(),
-                what: format!(
-                    "the flat pattern {} ({:.4} m² against {:.4} m² of the region on its surface) near r = {:.3} m, {} = {:.3}; left out of the book",
-                    if crossing.is_some() { "crosses itself" } else { "does not keep the region's area" },
-                    flat.area,
-                    surface_area,
+                order: region.ply + 1,
+                line: p.line,
+                material: p.material.clone(),
+                surface: region.surface_name.clone(),
+                angle_deg: p.angle.deg(),
+                kind,
+                r_range: region.span,
+                chord_range: matches!(region.level, Level::Skin(_)).then_some(region.chord),
+                area_m2: flat.area,
+                thickness_m: mat.ply_thickness,
+                mass_kg: mass,
+                cost: cutting.cost_per_kg.map(|c| c * mass),
+                locking_angle: cutting.locking_angle,
+                max_shear_place: region.place(flat.max_shear_at),
+                max_deviation_place: region.place(flat.max_deviation_at),
+                pattern: flat,
+            };
+            warnings.extend(drape_warning(&entry));
+            let along = if region.surface_name.starts_with("web") { "height" } else { "x/c" };
+            if let Some(&q) = entry.pattern.cut_short.first() {
+                let at = region.place(q);
+                warnings.push(format!(
+                    "ply '{}' ({}): the draped net cannot be carried to r = {:.3} m, {along} = {:.3} (a cell of the cloth would fold), not even in pieces: the pattern ends short of the ply's region there ({} of {} outline points moved in, pattern area {:.4} m²); add a dart, and check by a trial lay-up",
+                    entry.ply,
+                    entry.name,
                     at.r,
-                    if region.surface_name.starts_with("web") { "height" } else { "x/c" },
-                    at.along
-                ),
-            });
-            continue;
+                    at.along,
+                    entry.pattern.cut_short.len(),
+                    entry.pattern.outline.len(),
+                    entry.area_m2
+                ));
+            }
+            if let Some(&q) = entry.pattern.extrapolated.first() {
+                let at = region.place(q);
+                warnings.push(format!(
+                    "ply '{}' ({}): the draped net stops short of the region near r = {:.3} m, {along} = {:.3} ({} outline points extrapolated): the cloth will not follow the surface there without a dart or a split; check by a trial lay-up",
+                    entry.ply,
+                    entry.name,
+                    at.r,
+                    at.along,
+                    entry.pattern.extrapolated.len()
+                ));
+            }
+            patterns.push(entry);
         }
-        let mass = flat.area * mat.ply_thickness * mat.density;
-        let entry = PatternEntry {
-            name,
-            ply: p.id.clone(),
-            order: region.ply + 1,
-            line: p.line,
-            material: p.material.clone(),
-            surface: region.surface_name.clone(),
-            angle_deg: p.angle.deg(),
-            kind,
-            r_range: region.span,
-            chord_range: matches!(region.level, Level::Skin(_)).then_some(region.chord),
-            area_m2: flat.area,
-            thickness_m: mat.ply_thickness,
-            mass_kg: mass,
-            cost: cutting.cost_per_kg.map(|c| c * mass),
-            locking_angle: cutting.locking_angle,
-            max_shear_place: region.place(flat.max_shear_at),
-            max_deviation_place: region.place(flat.max_deviation_at),
-            pattern: flat,
-        };
-        warnings.extend(drape_warning(&entry));
-        if let Some(&q) = entry.pattern.cut_short.first() {
-            let at = region.place(q);
-            warnings.push(format!(
-                "ply '{}' ({}): the draped net cannot be carried to r = {:.3} m, {} = {:.3} (a cell of the cloth would fold): the pattern ends short of the ply's region there ({} of {} outline points moved in, pattern area {:.4} m²); split the ply or add a dart, and check by a trial lay-up",
-                entry.ply,
-                entry.name,
-                at.r,
-                if region.surface_name.starts_with("web") { "height" } else { "x/c" },
-                at.along,
-                entry.pattern.cut_short.len(),
-                entry.pattern.outline.len(),
-                entry.area_m2
-            ));
-        }
-        if let Some(&q) = entry.pattern.extrapolated.first() {
-            let at = region.place(q);
-            warnings.push(format!(
-                "ply '{}' ({}): the draped net stops short of the region near r = {:.3} m, {} = {:.3} ({} outline points extrapolated): the cloth will not follow the surface there without a dart or a split; check by a trial lay-up",
-                entry.ply,
-                entry.name,
-                at.r,
-                if region.surface_name.starts_with("web") { "height" } else { "x/c" },
-                at.along,
-                entry.pattern.extrapolated.len()
-            ));
-        }
-        patterns.push(entry);
     }
     let nestings = nest_materials(&patterns, project, params)?;
-    Ok(PlyBook { project: project.name.clone(), patterns, nestings, warnings, failed })
+    Ok(PlyBook { project: project.name.clone(), patterns, nestings, warnings, failed, splices })
+}
+
+/// The label of piece `n` (from 0) of a pattern cut in pieces: a letter after the name.
+fn piece_name(name: &str, n: usize) -> String {
+    let letter = char::from(b'a' + (n % 26) as u8);
+    format!("{name}-{letter}")
+}
+
+/// The note on a ply region cut in pieces: each piece with its range, and how they join.
+fn splice_note(p: &PlySpec, name: &str, pieces: &[(PlyRegion, FlatPattern)]) -> String {
+    let list: Vec<String> = pieces
+        .iter()
+        .enumerate()
+        .map(|(n, (r, _))| {
+            let mut s = format!("{} r {:.3}–{:.3} m", piece_name(name, n), r.span[0], r.span[1]);
+            if matches!(r.at, At::Skin(_)) {
+                s.push_str(&format!(", x/c {:.3}–{:.3}", r.chord[0], r.chord[1]));
+            }
+            s
+        })
+        .collect();
+    format!(
+        "ply '{}' ({name}) will not drape in one piece and is cut in {} pieces that do: {}; butt the pieces edge to edge along the splice lines (no overlap, so the kit's mass is the ply's) and stagger the splices of neighbouring plies (common practice)",
+        p.id,
+        pieces.len(),
+        list.join("; ")
+    )
 }
 
 fn drape_warning(e: &PatternEntry) -> Option<String> {

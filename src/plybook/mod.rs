@@ -63,7 +63,9 @@ pub use book::{
 };
 pub use drape::{DrapeSpec, DrapeSurface, DrapedNet, NetNode, Prune, drape};
 pub use nest::{NestItem, Nesting, Placement, TooWide, nest};
-pub use output::{pattern_dxf, pattern_svg, plybook_csv, plybook_files, plybook_json, write_files};
+pub use output::{
+    nesting_svg, pattern_dxf, pattern_svg, plybook_csv, plybook_files, plybook_json, write_files,
+};
 pub use pattern::{DrapeFailure, FlatPattern, RegionSpec, drape_region};
 pub use vec3::{point_in_polygon, polygon_area};
 

@@ -228,7 +228,7 @@ fn sheet_svg(book: &PlyBook, m: &MaterialNesting) -> String {
 }
 
 /// The nesting of one material on its roll, true scale, mm (roll length to the right).
-pub(crate) fn nesting_svg(book: &PlyBook, m: &MaterialNesting) -> String {
+pub fn nesting_svg(book: &PlyBook, m: &MaterialNesting) -> String {
     let n = &m.nesting;
     let (len, wid) = (n.length.max(0.01) * 1e3, n.width * 1e3);
     let margin = 20.0;
@@ -397,6 +397,7 @@ pub fn plybook_json(book: &PlyBook, laminate_mass_kg: Option<f64>) -> serde_json
         "patterns": patterns,
         "materials": materials,
         "warnings": book.warnings,
+        "splices": book.splices,
     })
 }
 

@@ -112,6 +112,9 @@ pub fn blade_report(inp: &ReportInputs<'_>) -> String {
         for (caption, table) in &t.tables {
             s.table(caption.clone(), table);
         }
+        for (id, caption, svg) in &t.figures {
+            s.figure(id.clone(), caption.clone(), svg.clone());
+        }
         for w in &t.warnings {
             s.warning(w.clone());
         }

@@ -1,10 +1,11 @@
 //! The ply book as a block of the HTML report: the kit in lay-up order (outer mould line
-//! first), the rolls with their nesting figures, and the draping warnings. The drawings
-//! themselves are the ply book's own files, linked from the report's list of data files.
+//! first), the rolls with their nesting figures and drawings (the same SVG as the ply book's
+//! `nesting-MATERIAL.svg`, inline), the plies cut in pieces, and the draping warnings. The
+//! pattern drawings are the ply book's own files, linked from the report's list of data files.
 
 use super::document::ReportBlock;
 use super::table::{Align, Table, fixed, sig4};
-use crate::plybook::PlyBook;
+use crate::plybook::{PlyBook, nesting_svg};
 
 /// The ply book as a report block; `laminate_kg` is the laminate mass from the sections.
 pub fn plybook_block(book: &PlyBook, laminate_kg: Option<f64>) -> ReportBlock {
@@ -83,6 +84,20 @@ pub fn plybook_block(book: &PlyBook, laminate_kg: Option<f64>) -> ReportBlock {
         "The rolls: length used, pattern area over roll area, length over the area bound (total pattern area over the width), scrap.".into(),
         rolls,
     ));
+    for m in &book.nestings {
+        block.figures.push((
+            format!("plybook-nesting-{}", m.material),
+            format!(
+                "Nesting of {} on its roll, {:.0} mm wide: the patterns as cut, labelled, warp along the roll (true scale, mm).",
+                m.material,
+                m.nesting.width * 1e3
+            ),
+            nesting_svg(book, m),
+        ));
+    }
+    for s in &book.splices {
+        block.paragraphs.push(format!("Cut in pieces: {s}."));
+    }
     let mass = book.pattern_mass_kg();
     block.paragraphs.push(match laminate_kg {
         Some(l) => format!(

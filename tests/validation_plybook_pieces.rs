@@ -1,0 +1,274 @@
+//! The ply book made whole: a ply region that cannot be draped in one piece is cut into pieces
+//! that can, and the kit then holds every ply of the schedule. Checked against independent
+//! computations: the pieces of a region tile it (their span and chord ranges, and their areas
+//! against the region's area on a fine triangle mesh of the surface), and the kit's mass
+//! against the blade's laminate mass integrated by `sections` (the outline rule of
+//! `blade::mass`, which never drapes anything).
+//!
+//! The blades: the invented demos, and a generated blade not in the repository (the mine-fan
+//! outline made wider and more twisted, an unsymmetric schedule with a thick foam ramp under a
+//! ±45° fabric on the upper skin only, and a fabric at 30° over the whole lower skin).
+
+use std::path::Path;
+
+use layloft::analysis::BladeModel;
+use layloft::blade::Blade;
+use layloft::input::{Project, read_project};
+use layloft::plybook::{PlyBook, PlyBookParams, build_ply_book, ply_regions};
+
+fn demo(name: &str) -> Project {
+    read_project(format!("layups/{name}/blade.toml").as_ref()).expect("demo project")
+}
+
+/// The generated blade in `dir` (see the module docs).
+fn generated(dir: &Path) -> Project {
+    let src = Path::new("layups/mine-fan");
+    for f in ["blade.toml", "materials.toml", "tip-section.dat"] {
+        std::fs::copy(src.join(f), dir.join(f)).expect("copy");
+    }
+    for f in ["loads-nominal.csv", "loads-overspeed.csv", "loads-surge.csv"] {
+        std::fs::copy(src.join(f), dir.join(f)).expect("copy");
+    }
+    let stations = std::fs::read_to_string(src.join("stations.csv")).expect("stations");
+    let mut out = String::new();
+    for line in stations.lines() {
+        let cells: Vec<&str> = line.split(',').collect();
+        match cells[0].parse::<f64>() {
+            Ok(_) if cells.len() == 5 => {
+                let chord: f64 = cells[1].parse().expect("chord");
+                let twist: f64 = cells[2].parse().expect("twist");
+                out.push_str(&format!(
+                    "{},{:.4},{:.2},{},{}\n",
+                    cells[0],
+                    1.3 * chord,
+                    1.25 * twist,
+                    cells[3],
+                    cells[4]
+                ));
+            }
+            _ => {
+                out.push_str(line);
+                out.push('\n');
+            }
+        }
+    }
+    std::fs::write(dir.join("stations.csv"), out).expect("stations");
+    std::fs::write(
+        dir.join("plies.csv"),
+        "ply,material,angle_deg,r_start_m,r_end_m,region,from,to\n\
+         outer,carbon-twill,45,0.40,0.90,both,0.00,1.00\n\
+         skin,glass-biax,0,0.40,0.90,both,0.00,1.00\n\
+         cap,carbon-ud,0,0.40,0.85,both,0.15,0.45\n\
+         ramp-core,pvc-foam,0,0.50,0.80,upper,0.45,0.80\n\
+         over-ramp,glass-biax,45,0.40,0.90,upper,0.00,1.00\n\
+         lower-30,carbon-twill,30,0.40,0.90,lower,0.00,1.00\n\
+         web-face-1,glass-biax,45,0.40,0.90,web:main,,\n\
+         web-core,pvc-foam,0,0.40,0.90,web:main,,\n\
+         web-face-2,glass-biax,45,0.40,0.90,web:main,,\n",
+    )
+    .expect("plies");
+    read_project(&dir.join("blade.toml")).expect("generated project")
+}
+
+fn book(project: &Project, blade: &Blade) -> PlyBook {
+    build_ply_book(blade, project, &PlyBookParams::default()).expect("ply book")
+}
+
+/// The area of a region on a triangle mesh of `n × m` parameter cells (the surface's own point
+/// function, no net).
+fn mesh_area(region: &layloft::plybook::PlyRegion, n: usize, m: usize) -> f64 {
+    let s = region.surface();
+    let span = region.span();
+    let rows: Vec<Vec<[f64; 3]>> = (0..=n)
+        .map(|i| {
+            let a = span[0] + (span[1] - span[0]) * i as f64 / n as f64;
+            let b = region.b_range(a);
+            (0..=m).map(|j| s.point([a, b[0] + (b[1] - b[0]) * j as f64 / m as f64])).collect()
+        })
+        .collect();
+    let tri = |p: [f64; 3], q: [f64; 3], r: [f64; 3]| {
+        let u = [q[0] - p[0], q[1] - p[1], q[2] - p[2]];
+        let v = [r[0] - p[0], r[1] - p[1], r[2] - p[2]];
+        let c = [u[1] * v[2] - u[2] * v[1], u[2] * v[0] - u[0] * v[2], u[0] * v[1] - u[1] * v[0]];
+        0.5 * (c[0] * c[0] + c[1] * c[1] + c[2] * c[2]).sqrt()
+    };
+    let mut area = 0.0;
+    for i in 0..n {
+        for j in 0..m {
+            area += tri(rows[i][j], rows[i + 1][j], rows[i + 1][j + 1])
+                + tri(rows[i][j], rows[i + 1][j + 1], rows[i][j + 1]);
+        }
+    }
+    area
+}
+
+/// Every region of the schedule is in the kit, whole or in pieces that tile it: the pieces'
+/// span × chord ranges add up to the region's, and their flat areas to the region's area on
+/// the surface (the cloth is inextensible; a sheared cell covers cos(g) of its flat area, Mack
+/// & Taylor 1956, so the pieces may exceed the region by up to 1/cos(g_max) − 1).
+fn check_complete(project: &Project, blade: &Blade, book: &PlyBook) -> usize {
+    assert!(book.failed.is_empty(), "left out: {:?}", book.failed);
+    let regions = ply_regions(blade, &project.files.plies, &PlyBookParams::default()).unwrap();
+    let mut split = 0;
+    for region in &regions {
+        let ply = blade.ply(region.ply).expect("ply");
+        let pieces: Vec<_> = book
+            .patterns
+            .iter()
+            .filter(|e| e.ply == ply.id && e.surface == region.surface_name)
+            .collect();
+        assert!(!pieces.is_empty(), "{} {}: no pattern", ply.id, region.surface_name);
+        // The pieces tile the region's parameter rectangle (span × chord fraction).
+        let span = region.span();
+        let rect = |e: &layloft::plybook::PatternEntry| {
+            let c = e.chord_range.unwrap_or([0.0, 1.0]);
+            (e.r_range[1] - e.r_range[0]) * (c[1] - c[0])
+        };
+        let whole = {
+            let c = pieces[0].chord_range.map_or([0.0, 1.0], |_| [ply.from, ply.to]);
+            (span[1] - span[0]) * (c[1] - c[0])
+        };
+        let tiled: f64 = pieces.iter().map(|e| rect(e)).sum();
+        assert!(
+            (tiled - whole).abs() < 1e-9 * whole.max(1.0),
+            "{}: pieces {tiled} of {whole}",
+            ply.id
+        );
+        for (a, e) in pieces.iter().enumerate() {
+            for f in &pieces[a + 1..] {
+                let c1 = e.chord_range.unwrap_or([0.0, 1.0]);
+                let c2 = f.chord_range.unwrap_or([0.0, 1.0]);
+                let overlap_r = e.r_range[1].min(f.r_range[1]) - e.r_range[0].max(f.r_range[0]);
+                let overlap_c = c1[1].min(c2[1]) - c1[0].max(c2[0]);
+                assert!(
+                    overlap_r <= 1e-12 || overlap_c <= 1e-12,
+                    "{} and {} overlap",
+                    e.name,
+                    f.name
+                );
+            }
+        }
+        if pieces.iter().any(|e| !e.pattern.cut_short.is_empty()) {
+            continue;
+        }
+        let (a1, a2) = (mesh_area(region, 200, 60), mesh_area(region, 400, 120));
+        let surface = a2 + (a2 - a1) / 3.0;
+        let area: f64 = pieces.iter().map(|e| e.area_m2).sum();
+        let shear = pieces.iter().map(|e| e.pattern.max_shear.abs()).fold(0.0, f64::max);
+        let rel = (area - surface) / surface;
+        let allowance = (1.0 / shear.cos() - 1.0).clamp(5e-3, 0.03);
+        assert!(
+            rel > -5e-3 && rel < allowance,
+            "{} {}: {} pieces {area} m², surface {surface} m² ({rel:e}, shear {}°)",
+            ply.id,
+            region.surface_name,
+            pieces.len(),
+            shear.to_degrees()
+        );
+        if pieces.len() > 1 {
+            split += 1;
+            for (k, e) in pieces.iter().enumerate() {
+                assert!(e.name.ends_with(&format!("-{}", (b'a' + k as u8) as char)), "{}", e.name);
+            }
+        }
+    }
+    split
+}
+
+#[test]
+fn every_ply_of_the_demos_is_in_the_kit() {
+    // Before the split, small-wind `skin-2` (both skins) and mine-fan `skin-out` (both skins)
+    // could not be draped whole and were left out with a warning.
+    for name in ["small-wind", "mine-fan"] {
+        let project = demo(name);
+        let blade = Blade::from_project(&project).expect("blade");
+        let book = book(&project, &blade);
+        let split = check_complete(&project, &blade, &book);
+        assert!(split >= 2, "{name}: {split} regions cut in pieces");
+        assert!(!book.splices.is_empty(), "{name}: the splices are described");
+    }
+}
+
+#[test]
+fn a_generated_blade_with_a_ramp_is_cut_into_pieces_that_drape() {
+    let dir = tempfile::tempdir().expect("tempdir");
+    let project = generated(dir.path());
+    let blade = Blade::from_project(&project).expect("blade");
+    let book = book(&project, &blade);
+    // The ±45° and 30° fabrics over the whole wider, more twisted skin will not drape whole
+    // (when written: `outer` both skins, `over-ramp`, `lower-30`, each in two pieces).
+    let split = check_complete(&project, &blade, &book);
+    assert!(split >= 2, "only {split} regions cut in pieces");
+    // Each pattern, piece or whole, is a pattern the net covers without folding.
+    for e in &book.patterns {
+        assert!(e.pattern.cut_short.is_empty(), "{} cut short", e.name);
+        assert!(e.area_m2 > 0.0, "{}", e.name);
+    }
+}
+
+/// The sum of the ply masses against the blade's laminate mass from `sections`. The two are
+/// computed independently: the sections weigh each station's outer-mould-line outline segment by
+/// segment (every ply of the stack at the outline's length, the webs' depth less the skins),
+/// the ply book weighs the flat patterns cut on each ply's own level. What is not comparable is
+/// taken out: a ply laid all round the section (`both`, chord 0 to 1) on plies laid all round
+/// before it lies on a closed curve moved inward by their thickness `d`, shorter than the outer
+/// mould line by `2π d` (Steiner's formula for parallel curves of a closed convex curve; the
+/// sections count it at the outer length), so the sections' mass less `Σ ρ t 2π ∫ d dr` over
+/// those plies is what the patterns should weigh. Partial plies (caps, cores, strips) lie where
+/// the outline turns little and are not corrected. Left in, and making the patterns the heavier:
+/// a sheared cell of cloth covers cos(g) of its flat area on the mould (Mack & Taylor 1956), so a
+/// pattern that shears is larger than the surface it covers (the cloth is cut flat and laid
+/// thicker there), and the surface runs on a slant with twist and taper where the sections take
+/// plane lengths. Measured when written: +0.48 % small-wind, +0.40 % mine-fan, +0.42 % generated
+/// (without the inward correction −0.56 %, −0.09 %). Issue 17 asks 0.5 %.
+fn check_mass(project: Project) -> (f64, f64) {
+    let model = BladeModel::build_at(project, &[]).expect("model");
+    let blade = &model.blade;
+    let book = book(&model.project, blade);
+    let all_round = |k: usize| {
+        blade.ply(k).is_some_and(|p| {
+            matches!(p.region, layloft::input::Region::Both) && p.from <= 0.0 && p.to >= 1.0
+        })
+    };
+    let mut inward = 0.0;
+    for k in (0..blade.ply_count()).filter(|&k| all_round(k)) {
+        let (p, m) = (blade.ply(k).expect("ply"), blade.ply_material(k).expect("material"));
+        let n = 400;
+        let h = (p.r_end - p.r_start) / n as f64;
+        let integral: f64 = (0..n)
+            .map(|i| {
+                let r = p.r_start + (i as f64 + 0.5) * h;
+                let d: f64 = (0..k)
+                    .filter(|&j| all_round(j))
+                    .filter_map(|j| {
+                        let q = blade.ply(j)?;
+                        (r > q.r_start && r < q.r_end)
+                            .then(|| blade.ply_material(j).map_or(0.0, |mj| mj.ply_thickness))
+                    })
+                    .sum();
+                d * h
+            })
+            .sum();
+        inward += m.density * m.ply_thickness * std::f64::consts::TAU * integral;
+    }
+    let laminate = model.mass().laminate_kg - inward;
+    (book.pattern_mass_kg(), laminate)
+}
+
+#[test]
+fn the_kit_weighs_what_the_sections_weigh() {
+    let dir = tempfile::tempdir().expect("tempdir");
+    let blades = [
+        ("small-wind", demo("small-wind")),
+        ("mine-fan", demo("mine-fan")),
+        ("generated", generated(dir.path())),
+    ];
+    for (name, project) in blades {
+        let (plies, laminate) = check_mass(project);
+        let rel = (plies - laminate) / laminate;
+        eprintln!(
+            "{name}: plies {plies} kg, sections less the inward offset {laminate} kg ({rel:e})"
+        );
+        assert!(rel.abs() < 5e-3, "{name}: plies {plies} kg, sections {laminate} kg ({rel:e})");
+    }
+}
