@@ -148,6 +148,59 @@ fn a_crescent_no_single_pull_draws_is_split_into_the_fewest_modules_and_every_pa
             meshes.push((mesh, format!("module {j} {}", piece.side)));
         }
     }
+    // Locating pins: each pin (lower half) and its socket (upper half) lie on one axis along the
+    // module's pull, through the point where the axis meets the parting surface: the pin's flat
+    // top and the socket's floor have their centre vertices on that line (the socket deeper by
+    // its clearance), so the socket leaves the pin along the pull even where the module's pull is
+    // turned from the block's frame (15° here).
+    for (j, set) in mould.parts.iter().enumerate() {
+        let d = set.halves[0].pull;
+        for &base in &set.halves[0].locators {
+            let on_axis = |mesh: &Mesh| -> Vec<f64> {
+                mesh.vertices
+                    .iter()
+                    .filter_map(|&p| {
+                        let w = [p[0] - base[0], p[1] - base[1], p[2] - base[2]];
+                        let t = w[0] * d[0] + w[1] * d[1] + w[2] * d[2];
+                        let off = [w[0] - t * d[0], w[1] - t * d[1], w[2] - t * d[2]];
+                        let r = (off[0] * off[0] + off[1] * off[1] + off[2] * off[2]).sqrt();
+                        (r < 1e-9 && t > 1e-6).then_some(t)
+                    })
+                    .collect()
+            };
+            let (pin, socket) = (on_axis(&set.half_meshes[1]), on_axis(&set.half_meshes[0]));
+            assert_eq!((pin.len(), socket.len()), (1, 1), "module {j}: {pin:?} {socket:?}");
+            assert!(socket[0] > pin[0] && socket[0] - pin[0] < 2e-4, "{pin:?} {socket:?}");
+        }
+    }
+    // The pins of the whole block register it one way only: turned half a turn about the pull
+    // (X and Y mirrored about the block's middle) or mirrored across the span or across the
+    // chord, some pin finds no socket within 1 mm.
+    let pins: Vec<[f64; 3]> =
+        mould.parts.iter().flat_map(|set| set.halves[0].locators.iter().copied()).collect();
+    assert_eq!(pins.len(), 3);
+    let centre = |k: usize| {
+        let (lo, hi) = pins
+            .iter()
+            .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), p| (a.min(p[k]), b.max(p[k])));
+        0.5 * (lo + hi)
+    };
+    for flip in [[true, true], [true, false], [false, true]] {
+        let image = |p: [f64; 3]| {
+            let mut q = p;
+            for k in 0..2 {
+                if flip[k] {
+                    q[k] = 2.0 * centre(k) - p[k];
+                }
+            }
+            q
+        };
+        let unmatched = pins.iter().any(|&p| {
+            let q = image(p);
+            pins.iter().all(|r| ((q[0] - r[0]).powi(2) + (q[1] - r[1]).powi(2)).sqrt() > 1e-3)
+        });
+        assert!(unmatched, "the pins are symmetric under {flip:?}");
+    }
     // The concave root end goes to an end piece of the first module, and only there.
     assert_eq!(
         mould.parts[0].end_pieces.iter().map(|e| e.1.side).collect::<Vec<_>>(),
@@ -199,4 +252,31 @@ fn a_crescent_no_single_pull_draws_is_split_into_the_fewest_modules_and_every_pa
         in_part += usize::from(holders[0].starts_with("part"));
     }
     assert!(in_part > 0, "no point fell in the blade");
+}
+
+/// A circular arc through (−c/2, 0) and (c/2, 0) spanning `±beta` about its middle (beyond a
+/// semicircle when `beta` > 90°), at parameter u ∈ [0, 1].
+fn wide_arc(beta: f64, u: f64) -> [f64; 2] {
+    let r = 0.5 * CHORD / beta.sin();
+    let t = -beta + 2.0 * beta * u;
+    [r * t.sin(), -r * beta.cos() + r * t.cos()]
+}
+
+#[test]
+fn a_section_folded_across_every_pull_is_refused_by_its_radius() {
+    // Both sides arcs of more than a half circle (300° and 280°): whatever the direction, the
+    // inner arc holds at least one of its extremes across it and the outer arc another, so the
+    // contour turns at least four times (geometry) and no split along the span helps.
+    let hook = FnSurface {
+        span: [0.2, 0.8],
+        upper: |_x: f64, u: f64| wide_arc(150f64.to_radians(), u),
+        lower: |_x: f64, u: f64| wide_arc(140f64.to_radians(), u),
+        chord_angle: |_x: f64| Angle::ZERO,
+        ends: ChainEnds { front: EndKind::Point, back: EndKind::Point },
+    };
+    let err = span_modules(&hook, hook.span(), 12, None).unwrap_err().to_string();
+    assert!(err.contains("radius 200.0 mm") && err.contains("every pull"), "{err}");
+    // The crescent of the test above draws at every radius along some pull.
+    let blade = crescent();
+    assert!(span_modules(&blade, blade.span(), 12, None).is_ok());
 }
