@@ -575,7 +575,7 @@ fn layout(
         // `shear` per unit height above it along the patch's own Y direction (0, 1, slope).
         let shear = lean / (1.0 - slope * lean);
         let rise = (height + LOCATOR_CLEARANCE) * (1.0 + (slope * shear).max(0.0));
-        if !(shear.abs() < 1.0) {
+        if shear.is_nan() || shear.abs() >= 1.0 {
             return Err(MeshError::Settings(format!(
                 "a module of the mould is pulled {:.1}° from its block's frame: its locating \
                  pins would lean too far",
