@@ -41,6 +41,14 @@
 //! at its silhouette along the pull (see [`super::SilhouetteSurface`]) leaves none where its
 //! sections are graphs across the pull, which is how [`super::build_tooling`] lofts a blade.
 //!
+//! **Span-wise modules** ([`build_modular_mould`]). Where no single pull draws every section
+//! (a strongly cambered section turned through more twist than its window of drawing pulls,
+//! see [`super::span_modules`]), the mould is made of modules along the span, each a mould of
+//! two halves with its own pull and its own silhouette parting, all in one block (the frame of
+//! the mean pull, one extent across the span); neighbouring modules meet flush on a plane
+//! `x = const`, which every pull normal to the pitch axis slides along. Only the outer modules
+//! have end pieces and corner patches for pins; the pins lean along their module's pull.
+//!
 //! [`PartingLines`]: super::PartingLines
 
 use super::draft::{DraftReport, evaluate_draft};
@@ -730,7 +738,7 @@ fn module_pull(psi: Angle) -> P3 {
 /// at the plane where it meets its neighbour (that face is normal to the pitch axis, parallel to
 /// every pull, so the modules slide apart along it). `params.pull` is not used. The locating pins
 /// of a module lean along its pull; a module between two others has no corner patch for them
-/// (see the locating keys between modules).
+/// and so no pins (keys across the flush faces between modules are not made yet).
 pub fn build_modular_mould(
     solids: &[LoftedSolid],
     modules: &[SpanModule],
