@@ -87,8 +87,11 @@ pub use manifest::{
     stale_files,
 };
 pub use mesh::{BoundingBox, Mesh, box_mesh};
-pub use mould::{MouldHalf, MouldParams, MouldParts, Undercut, build_mould_parts, build_moulds};
-pub use parting::SilhouetteSurface;
+pub use mould::{
+    ModularMould, MouldHalf, MouldParams, MouldParts, Undercut, build_modular_mould,
+    build_mould_parts, build_moulds, loft_modules,
+};
+pub use parting::{SilhouetteSurface, SpanModule, span_modules};
 pub use polygon::{loft_polygons, triangulate_polygon};
 pub use stl::{
     LengthUnit, StlFormat, StlOptions, WrittenPart, binary_header, encode_part_set_with_progress,

@@ -41,15 +41,28 @@
 //! at its silhouette along the pull (see [`super::SilhouetteSurface`]) leaves none where its
 //! sections are graphs across the pull, which is how [`super::build_tooling`] lofts a blade.
 //!
+//! **Span-wise modules** ([`build_modular_mould`]). Where no single pull draws every section
+//! (a strongly cambered section turned through more twist than its window of drawing pulls,
+//! see [`super::span_modules`]), the mould is made of modules along the span, each a mould of
+//! two halves with its own pull and its own silhouette parting, all in one block (the frame of
+//! the mean pull, one extent across the span); neighbouring modules meet flush on a plane
+//! `x = const`, which every pull normal to the pitch axis slides along. Only the outer modules
+//! have end pieces and corner patches for pins; the pins lean along their module's pull.
+//!
 //! [`PartingLines`]: super::PartingLines
 
 use super::draft::{DraftReport, evaluate_draft};
 use super::error::{MeshError, Place};
+use super::grid::LoftParams;
 use super::loft::LoftedSolid;
+use super::loft::loft_solid;
 use super::mesh::Mesh;
 use super::mould_block::{Frame, Layout, Locator, build_half};
 use super::orient::{compact, neighbours, orient_outward};
+use super::parting::{SilhouetteSurface, SpanModule};
 use super::stl::LengthUnit;
+use super::surface::SpanSurface;
+use super::trim::{EndTrim, Trims};
 use super::vec3::{self, P3};
 use crate::units::Angle;
 
@@ -59,6 +72,8 @@ const DRAFT_ROUND_OFF: f64 = 1e-9;
 const CONE_HALF_ANGLE_DEG: f64 = 10.0;
 /// Radial (and end) clearance of a socket round its pin, m.
 const LOCATOR_CLEARANCE: f64 = 0.1e-3;
+/// Vertices of a half closer than this are one (the flush ends of span-wise modules), m.
+const WELD: f64 = 1e-9;
 
 /// How the mould is made.
 #[derive(Debug, Clone, PartialEq)]
@@ -191,7 +206,7 @@ pub fn build_moulds(
     chord_angle: &dyn Fn(f64) -> Angle,
     params: &MouldParams,
 ) -> Result<([Mesh; 2], [MouldHalf; 2]), MeshError> {
-    let set = build_mould_set(part, chord_angle, params, Some([false; 2]))?;
+    let set = build_mould_set(part, chord_angle, params, Some([false; 2]), None)?;
     Ok((set.half_meshes, set.halves))
 }
 
@@ -214,15 +229,11 @@ pub fn build_mould_parts(
     chord_angle: &dyn Fn(f64) -> Angle,
     params: &MouldParams,
 ) -> Result<MouldParts, MeshError> {
-    build_mould_set(part, chord_angle, params, None)
+    build_mould_set(part, chord_angle, params, None, None)
 }
 
-fn build_mould_set(
-    part: &LoftedSolid,
-    chord_angle: &dyn Fn(f64) -> Angle,
-    params: &MouldParams,
-    force: Option<[bool; 2]>,
-) -> Result<MouldParts, MeshError> {
+/// The unit pull normal to the pitch axis from `params.pull`.
+fn unit_pull(params: &MouldParams) -> Result<P3, MeshError> {
     let ex = [1.0, 0.0, 0.0];
     let d = vec3::sub(params.pull, vec3::scale(ex, params.pull[0]));
     let len = vec3::norm(d);
@@ -233,14 +244,41 @@ fn build_mould_set(
             expected: "a finite, non-zero vector",
         });
     }
-    let ez = vec3::scale(d, 1.0 / len);
-    let frame = Frame { ex, ey: vec3::cross(ez, ex), ez };
+    Ok(vec3::scale(d, 1.0 / len))
+}
+
+/// The frame of a mould pulled along the unit `ez` (normal to the pitch axis).
+fn frame_of(ez: P3) -> Frame {
+    let ex = [1.0, 0.0, 0.0];
+    Frame { ex, ey: vec3::cross(ez, ex), ez }
+}
+
+/// What the span-wise modules of one mould share: the block's frame, its extent across the
+/// span (`[Y_a, Y_b, Z_bottom, Z_top]`, mould frame) and, per end (root, tip), the radius where
+/// the module meets its neighbour (its block ends there, flush, and the part runs on through).
+#[derive(Debug, Clone, Copy)]
+struct Block {
+    frame: Frame,
+    yz: Option<[f64; 4]>,
+    flush: [Option<f64>; 2],
+}
+
+fn build_mould_set(
+    part: &LoftedSolid,
+    chord_angle: &dyn Fn(f64) -> Angle,
+    params: &MouldParams,
+    force: Option<[bool; 2]>,
+    block: Option<&Block>,
+) -> Result<MouldParts, MeshError> {
+    let ez = unit_pull(params)?;
+    let frame = block.map_or_else(|| frame_of(ez), |b| b.frame);
+    let flush = block.map_or([None; 2], |b| b.flush);
     let (sides, loop0) = parting_loop(part)?;
     let seed = part.parting.upper[part.parting.upper.len() / 2];
     let faces = split_faces(&part.mesh, &loop0, seed)?;
-    let layout = layout(part, sides, &frame, chord_angle, params)?;
     let pulls = [ez, vec3::scale(ez, -1.0)];
-    // An end piece where a cap undercuts either half's pull (a facet turned away from it).
+    // An end piece where a cap undercuts either half's pull (a facet turned away from it); a
+    // flush end is open to the next module.
     let caps = [part.facets.root_cap.clone(), part.facets.tip_cap.clone()];
     let bored = force.unwrap_or_else(|| {
         [0, 1].map(|e| {
@@ -252,6 +290,8 @@ fn build_mould_set(
             })
         })
     });
+    let bored = [0, 1].map(|e| bored[e] || flush[e].is_some());
+    let layout = layout(part, sides, &frame, chord_angle, params, block, bored, ez)?;
     let mut meshes = [Mesh::new(), Mesh::new()];
     let mut halves = Vec::with_capacity(2);
     for (k, upper) in [true, false].into_iter().enumerate() {
@@ -280,6 +320,11 @@ fn build_mould_set(
             lay.sides[s] = arc;
         }
         let mut mesh = build_half(&part.mesh, &cavity, &lay, &frame, upper);
+        if flush.iter().any(Option::is_some) {
+            // A flush end's rulings have no length and its corner patches no area: their
+            // vertices are merged into the ring's and the collapsed facets dropped.
+            mesh.weld(WELD)?;
+        }
         orient_outward(&mut mesh);
         compact(&mut mesh);
         meshes[k] = mesh;
@@ -301,13 +346,13 @@ fn build_mould_set(
     let [upper, lower]: [MouldHalf; 2] =
         halves.try_into().map_err(|_| MeshError::Geometry("two mould halves expected".into()))?;
     let mut end_pieces = Vec::new();
-    for e in (0..2).filter(|&e| bored[e]) {
+    for e in (0..2).filter(|&e| bored[e] && flush[e].is_none()) {
         let s = if e == 0 { 3 } else { 1 };
         let ring = if e == 0 { &part.root_ring } else { &part.tip_ring };
         let x_end = layout.ends[s][0][0];
         let cap: Vec<usize> = caps[e].clone().collect();
         let mesh = end_piece(&part.mesh, &cap, ring, x_end, &frame)?;
-        let pull = if e == 0 { vec3::scale(ex, -1.0) } else { ex };
+        let pull = if e == 0 { vec3::scale(frame.ex, -1.0) } else { frame.ex };
         let draft = evaluate_draft(&part.mesh, Some(&cap), pull, params.min_draft, params.unit)?;
         let undercuts = undercut_regions(part, &draft, pull, params.unit);
         let cavity_area = cap.iter().map(|&t| part.mesh.triangle_area(t)).sum();
@@ -417,13 +462,18 @@ fn end_piece(
 }
 
 /// Where everything lies (see [`Layout`]); `chord_angle(x)` turns the section at radius x.
+#[allow(clippy::too_many_arguments)]
 fn layout(
     part: &LoftedSolid,
     sides: [Vec<u32>; 4],
     frame: &Frame,
     chord_angle: &dyn Fn(f64) -> Angle,
     params: &MouldParams,
+    block: Option<&Block>,
+    bored: [bool; 2],
+    pull: P3,
 ) -> Result<Layout, MeshError> {
+    let flush = block.map_or([None; 2], |b| b.flush);
     let q: Vec<P3> = part.mesh.vertices.iter().map(|&p| frame.to_mould(p)).collect();
     let (mut lo, mut hi) = ([f64::INFINITY; 3], [f64::NEG_INFINITY; 3]);
     for t in &part.mesh.triangles {
@@ -435,10 +485,23 @@ fn layout(
         }
     }
     let m = params.margin;
-    let [xa, xb, ya, yb] = [lo[0] - m, hi[0] + m, lo[1] - m, hi[1] + m];
+    let [mut xa, mut xb, mut ya, mut yb] = [lo[0] - m, hi[0] + m, lo[1] - m, hi[1] + m];
+    if let Some(x) = flush[0] {
+        xa = x;
+    }
+    if let Some(x) = flush[1] {
+        xb = x;
+    }
+    if let Some([a, b, _, _]) = block.and_then(|b| b.yz) {
+        (ya, yb) = (a, b);
+    }
     let place = |v: u32| Place { point: part.mesh.vertices[v as usize], unit: params.unit };
     // Each side's vertices must advance steadily along it (X along the edges, Y across the caps).
+    // (A bored end's side is replaced by the end ring.)
     for (s, line) in sides.iter().enumerate() {
+        if (s == 3 && bored[0]) || (s == 1 && bored[1]) {
+            continue;
+        }
         let (axis, sign) = [(0, 1.0), (1, 1.0), (0, -1.0), (1, -1.0)][s];
         if let Some(w) = line
             .windows(2)
@@ -483,8 +546,17 @@ fn layout(
         [xa, ya, ends[0][0][2]],
     ];
     let parting_z = ends.iter().flatten().chain(corners.iter()).map(|p| p[2]);
-    let z_top = parting_z.clone().fold(hi[2], f64::max) + m;
-    let z_bottom = parting_z.fold(lo[2], f64::min) - m;
+    let mut z_top = parting_z.clone().fold(hi[2], f64::max) + m;
+    let mut z_bottom = parting_z.fold(lo[2], f64::min) - m;
+    if let Some([_, _, b, t]) = block.and_then(|b| b.yz) {
+        (z_bottom, z_top) = (z_bottom.min(b), z_top.max(t));
+    }
+    // Pins lean along the pull where it is not the frame's Z (span-wise modules): `tan` of the
+    // pull's angle from Z in the (Y, Z) plane.
+    let lean = match block {
+        Some(_) => vec3::dot(pull, frame.ey) / vec3::dot(pull, frame.ez),
+        None => 0.0,
+    };
     // Locating features at half the margin from the part's corner, on three corner patches.
     let (base, height) = (m / 6.0, m / 3.0);
     let taper = CONE_HALF_ANGLE_DEG.to_radians().tan();
@@ -495,14 +567,30 @@ fn layout(
         n.div_ceil(4) * 4
     };
     let mut locators = Vec::with_capacity(3);
-    for corner in [3, 2, 1] {
+    // A corner next to a flush end has no patch.
+    let open = |c: usize| match c {
+        0 | 1 => flush[1].is_none(),
+        _ => flush[0].is_none(),
+    };
+    for corner in [3, 2, 1].into_iter().filter(|&c| open(c)) {
         let p = q[sides[corner][sides[corner].len() - 1] as usize];
         let k = corners[corner];
         let slope = (k[2] - p[2]) / (k[1] - p[1]);
         let (cx, cy) =
             (p[0] + 0.5 * m * (k[0] - p[0]).signum(), p[1] + 0.5 * m * (k[1] - p[1]).signum());
         let cz = p[2] + slope * (cy - p[1]);
-        if base - height * taper <= 0.0 || cz + height + LOCATOR_CLEARANCE >= z_top {
+        // The pin's axis along the pull: an affine lean that keeps the patch in place, by
+        // `shear` per unit height above it along the patch's own Y direction (0, 1, slope).
+        let shear = lean / (1.0 - slope * lean);
+        let rise = (height + LOCATOR_CLEARANCE) * (1.0 + (slope * shear).max(0.0));
+        if shear.is_nan() || shear.abs() >= 1.0 {
+            return Err(MeshError::Settings(format!(
+                "a module of the mould is pulled {:.1}° from its block's frame: its locating \
+                 pins would lean too far",
+                lean.atan().to_degrees()
+            )));
+        }
+        if base - height * taper <= 0.0 || cz + rise >= z_top {
             return Err(MeshError::Settings(format!(
                 "a mould margin of {:.1} mm leaves no room for the locating pins",
                 m * 1e3
@@ -517,6 +605,7 @@ fn layout(
             taper,
             clearance: LOCATOR_CLEARANCE,
             segments,
+            shear,
         });
     }
     Ok(Layout { sides, ends, corners, z_top, z_bottom, margin: m, locators, bored: [false; 2] })
@@ -588,4 +677,128 @@ fn undercut_regions(
     }
     out.sort_by(|a, b| b.area.total_cmp(&a.area));
     out
+}
+
+/// A mould of span-wise modules, each a mould of two halves pulled along its own direction
+/// normal to the pitch axis (see [`super::span_modules`] for how the modules are found).
+#[derive(Debug, Clone)]
+pub struct ModularMould {
+    /// The modules, root first.
+    pub modules: Vec<SpanModule>,
+    /// Each module's part: the surface parted at its own silhouette, ended by the blade's trim
+    /// at the outer ends and by the plane `x = const` where it meets its neighbour.
+    pub solids: Vec<LoftedSolid>,
+    /// Each module's halves and end pieces (only the first module can have a root end piece and
+    /// only the last a tip end piece).
+    pub parts: Vec<MouldParts>,
+    /// Size of the whole block (all modules together) along the common frame's X, Y and Z, m.
+    pub block_size: [f64; 3],
+}
+
+/// Lofts each module of `surface` parted at its silhouette along its own pull (its extremes
+/// sampled over the module's radii, the outer modules out to the surface's ends): the blade's
+/// `trims` at the outer ends, planes at the radii where modules meet. The modules should cover
+/// the surface's whole span (see [`super::span_modules`]).
+pub fn loft_modules(
+    surface: &dyn SpanSurface,
+    trims: &Trims,
+    loft: &LoftParams,
+    modules: &[SpanModule],
+) -> Result<Vec<LoftedSolid>, MeshError> {
+    let last = modules.len().saturating_sub(1);
+    modules
+        .iter()
+        .enumerate()
+        .map(|(j, m)| {
+            let t = Trims {
+                root: if j == 0 { trims.root } else { EndTrim::Plane { x: m.x_range[0] } },
+                tip: if j == last { trims.tip } else { EndTrim::Plane { x: m.x_range[1] } },
+            };
+            let span = surface.span();
+            let range = [
+                if j == 0 { span[0] } else { m.x_range[0] },
+                if j == last { span[1] } else { m.x_range[1] },
+            ];
+            loft_solid(&SilhouetteSurface::over(surface, m.pull_angle, range), &t, loft)
+                .map_err(|e| MeshError::Geometry(format!("mould module {}: {e}", j + 1)))
+        })
+        .collect()
+}
+
+/// The pull of a module of chord angle ψ: `(0, −sin ψ, cos ψ)`.
+fn module_pull(psi: Angle) -> P3 {
+    let (s, c) = psi.rad().sin_cos();
+    [0.0, -s, c]
+}
+
+/// Builds a mould of span-wise modules round the module parts `solids` (from [`loft_modules`],
+/// scaled as the cavity is to be): every module is a mould of two halves pulled along its own
+/// pull and parted at its own silhouette, the modules in one block whose frame is pulled along
+/// the mean of the modules' pulls, with one extent across the span; a module's block ends flush
+/// at the plane where it meets its neighbour (that face is normal to the pitch axis, parallel to
+/// every pull, so the modules slide apart along it). `params.pull` is not used. The locating pins
+/// of a module lean along its pull; a module between two others has no corner patch for them
+/// and so no pins (keys across the flush faces between modules are not made yet).
+pub fn build_modular_mould(
+    solids: &[LoftedSolid],
+    modules: &[SpanModule],
+    params: &MouldParams,
+) -> Result<ModularMould, MeshError> {
+    if solids.len() != modules.len() || modules.is_empty() {
+        return Err(MeshError::Geometry(format!(
+            "{} module parts for {} mould modules",
+            solids.len(),
+            modules.len()
+        )));
+    }
+    // The block's frame: the mean pull angle (the modules' angles unwrapped from the first).
+    let first = modules[0].pull_angle.deg();
+    let mean = modules
+        .iter()
+        .map(|m| first + (m.pull_angle.deg() - first + 90.0).rem_euclid(180.0) - 90.0)
+        .sum::<f64>()
+        / modules.len() as f64;
+    let frame = frame_of(module_pull(Angle::from_deg(mean)));
+    let last = modules.len() - 1;
+    let block_of = |j: usize, yz: Option<[f64; 4]>| Block {
+        frame,
+        yz,
+        flush: [
+            (j > 0).then_some(modules[j].x_range[0]),
+            (j < last).then_some(modules[j].x_range[1]),
+        ],
+    };
+    // First each module's own extent across the span, then all built in their union.
+    let mut yz = [f64::INFINITY, f64::NEG_INFINITY, f64::INFINITY, f64::NEG_INFINITY];
+    let mut x = [f64::INFINITY, f64::NEG_INFINITY];
+    for (j, (part, m)) in solids.iter().zip(modules).enumerate() {
+        let module = MouldParams { pull: module_pull(m.pull_angle), ..params.clone() };
+        let psi = m.pull_angle;
+        let (sides, _) = parting_loop(part)?;
+        let b = block_of(j, None);
+        // (Extents only: the caps' middles are not checked here.)
+        let l = layout(part, sides, &frame, &|_x| psi, &module, Some(&b), [true; 2], module.pull)
+            .map_err(|e| MeshError::Geometry(format!("mould module {}: {e}", j + 1)))?;
+        yz = [
+            yz[0].min(l.ends[0].iter().map(|p| p[1]).fold(f64::INFINITY, f64::min)),
+            yz[1].max(l.ends[2].iter().map(|p| p[1]).fold(f64::NEG_INFINITY, f64::max)),
+            yz[2].min(l.z_bottom),
+            yz[3].max(l.z_top),
+        ];
+        x = [x[0].min(l.corners[3][0]), x[1].max(l.corners[0][0])];
+    }
+    let mut parts = Vec::with_capacity(modules.len());
+    for (j, (part, m)) in solids.iter().zip(modules).enumerate() {
+        let module = MouldParams { pull: module_pull(m.pull_angle), ..params.clone() };
+        let psi = m.pull_angle;
+        let set = build_mould_set(part, &|_x| psi, &module, None, Some(&block_of(j, Some(yz))))
+            .map_err(|e| MeshError::Geometry(format!("mould module {}: {e}", j + 1)))?;
+        parts.push(set);
+    }
+    Ok(ModularMould {
+        modules: modules.to_vec(),
+        solids: solids.to_vec(),
+        parts,
+        block_size: [x[1] - x[0], yz[1] - yz[0], yz[3] - yz[2]],
+    })
 }

@@ -60,6 +60,21 @@ pub(crate) struct Locator {
     pub clearance: f64,
     /// Regular points on each circle (the four towards the patch's corners come besides).
     pub segments: usize,
+    /// The pin's lean: a point at height `h` above the patch moves by `h · shear` along the
+    /// patch's Y direction `(0, 1, slope)`, so its axis runs along the pull of a span-wise module
+    /// pulled off the frame's Z (0 for a mould of two halves).
+    pub shear: f64,
+}
+
+impl Locator {
+    /// `q` leant along the pin's axis (see `shear`).
+    fn lean(&self, q: P3) -> P3 {
+        if self.shear == 0.0 {
+            return q;
+        }
+        let h = q[2] - self.centre[2] - self.slope * (q[1] - self.centre[1]);
+        [q[0], q[1] + h * self.shear, q[2] + self.slope * h * self.shear]
+    }
 }
 
 /// Where everything of a half lies, mould frame.
@@ -278,14 +293,14 @@ fn locator(h: &mut Half<'_>, patch: [u32; 4], loc: &Locator, upper: bool) {
         .iter()
         .map(|&(a, _)| {
             let (s, c) = a.sin_cos();
-            h.add([cx + r1 * c, cy + r1 * s, z1])
+            h.add(loc.lean([cx + r1 * c, cy + r1 * s, z1]))
         })
         .collect();
     for i in 0..nr {
         let j = (i + 1) % nr;
         h.quad([hole[i], hole[j], far[j], far[i]]);
     }
-    let c = h.add([cx, cy, z1]);
+    let c = h.add(loc.lean([cx, cy, z1]));
     for i in 0..nr {
         h.mesh.triangles.push([far[i], far[(i + 1) % nr], c]);
     }

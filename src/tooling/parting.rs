@@ -43,8 +43,14 @@ impl<'a> SilhouetteSurface<'a> {
     /// frame): normal to a chord turned by `pull_angle` ψ, so that ψ equal to the chord angle of
     /// a section parts it at its leading and trailing edges.
     pub fn new(base: &'a dyn SpanSurface, pull_angle: Angle) -> Self {
+        Self::over(base, pull_angle, base.span())
+    }
+
+    /// As [`SilhouetteSurface::new`], the extremes sampled over the radii `span` only (a module
+    /// of a mould split along the span: beyond it the sections may not draw along this pull and
+    /// their extremes may jump).
+    pub fn over(base: &'a dyn SpanSurface, pull_angle: Angle, span: [f64; 2]) -> Self {
         let period = 2.0 + if base.ends().back == EndKind::Segment { BASE_LENGTH } else { 0.0 };
-        let span = base.span();
         let n = ((span[1] - span[0]) / 4e-3).ceil().clamp(48.0, 600.0) as usize;
         let radii: Vec<f64> =
             (0..=n).map(|i| span[0] + (span[1] - span[0]) * i as f64 / n as f64).collect();
@@ -136,4 +142,193 @@ impl SpanSurface for SilhouetteSurface<'_> {
     fn sample_radii(&self) -> Vec<f64> {
         self.base.sample_radii()
     }
+}
+
+/// Steps of the pull angle tried by [`span_modules`] over half a turn (0.5° apart).
+const PULL_STEPS: usize = 360;
+
+/// A stretch of the span moulded by one two-part module pulled along one direction: radii
+/// `x_range` (m), the pull's chord angle ψ (see [`SilhouetteSurface::new`]) and the width of
+/// the window of pulls that draw every sampled section of the stretch.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct SpanModule {
+    /// Radii where the module starts and ends, m.
+    pub x_range: [f64; 2],
+    /// The pull's chord angle ψ.
+    pub pull_angle: Angle,
+    /// Width of the window of pull angles that draw every sampled section of the module.
+    pub window: Angle,
+}
+
+/// Which pull angles ψ (index `i` for ψ = −90° + 0.5° i, half a turn: ψ and ψ + 180° are the
+/// same pair of pulls) part the section at radius `x` into two chains that draw, each on its own
+/// half: the contour (`samples` points) must be monotone across the pull, so that the product of
+/// the direction across the pull with the contour points has exactly one least and one greatest
+/// value round the contour (a closed polygon whose projection on a line folds nowhere).
+fn drawable_pulls(s: &dyn SpanSurface, x: f64, samples: usize) -> Vec<bool> {
+    // Cosine spacing gathers points at the edges, where the contour turns fastest.
+    let u: Vec<f64> = (0..=samples)
+        .map(|i| 0.5 * (1.0 - (std::f64::consts::PI * i as f64 / samples as f64).cos()))
+        .collect();
+    let poly = super::surface::contour_polygon(s, x, &u);
+    let scale = poly.iter().map(|p| p[0].abs().max(p[1].abs())).fold(0.0, f64::max);
+    let flat = 1e-12 * scale.max(f64::MIN_POSITIVE);
+    let phi = s.chord_angle(x).rad();
+    (0..PULL_STEPS)
+        .map(|i| {
+            let psi = (-90.0 + 180.0 * i as f64 / PULL_STEPS as f64).to_radians();
+            let e = [(psi - phi).cos(), (psi - phi).sin()];
+            let along: Vec<f64> = poly.iter().map(|p| p[0] * e[0] + p[1] * e[1]).collect();
+            let n = along.len();
+            let mut turns = 0;
+            let mut last = 0.0f64;
+            // Twice round: the sign of the first non-flat step is known on the second lap.
+            for k in 0..2 * n {
+                let d = along[(k + 1) % n] - along[k % n];
+                if d.abs() <= flat {
+                    continue;
+                }
+                if last != 0.0 && d.signum() != last.signum() && k >= n {
+                    turns += 1;
+                }
+                last = d;
+            }
+            turns <= 2
+        })
+        .collect()
+}
+
+/// The centre of the longest run of `true` in a cyclic mask, and the run's length.
+fn widest_run(mask: &[bool]) -> Option<(usize, usize)> {
+    let n = mask.len();
+    if mask.iter().all(|&m| m) {
+        return Some((n / 2, n));
+    }
+    let start = mask.iter().position(|&m| !m)?;
+    let (mut best, mut run, mut from) = (None::<(usize, usize)>, 0, 0);
+    for k in 1..=n {
+        let i = (start + k) % n;
+        if mask[i] {
+            if run == 0 {
+                from = i;
+            }
+            run += 1;
+            if best.is_none_or(|b| run > b.1) {
+                best = Some(((from + run / 2) % n, run));
+            }
+        } else {
+            run = 0;
+        }
+    }
+    best
+}
+
+/// The fewest span-wise modules of a mould whose halves are pulled normal to the pitch axis
+/// (each parted at its own silhouette, [`SilhouetteSurface`]) for which every section of the
+/// surface draws.
+///
+/// The search: at `samples + 1` radii evenly over the span, the set of pull angles ψ (0.5°
+/// apart over half a turn) at which the section is monotone across the pull is found
+/// (`drawable_pulls`); a section is then undercut-free on both halves, since a facet's normal
+/// seen in the section plane is the contour's normal (the span-wise slope only adds a part along
+/// the pitch axis, normal to every such pull). Walking from the root, a module grows while the
+/// intersection of its sections' sets is not empty and ends, halfway to the next sample, where
+/// it would become empty; a greedy cover of an interval by runs of this kind uses the fewest runs
+/// (an exchange argument: any cover's k-th run ends no further than the greedy k-th). Each
+/// module takes the middle of the widest window left in its intersection; with the fewest
+/// modules known, the search is repeated with every section's set shrunk by one more step either
+/// side while the count stays the same, so the module ends move to where each module keeps the
+/// most draft to spare on its worst section. `prefer`, when it draws every section of one module spanning the whole span,
+/// is kept (one module: the mould of two halves chosen elsewhere). A section that no pull draws
+/// (a contour folded across every direction) cannot be helped by span-wise splits: an error
+/// names its radius.
+pub fn span_modules(
+    s: &dyn SpanSurface,
+    span: [f64; 2],
+    samples: usize,
+    prefer: Option<Angle>,
+) -> Result<Vec<SpanModule>, super::error::MeshError> {
+    let samples = samples.max(2);
+    let at = |i: usize| span[0] + (span[1] - span[0]) * i as f64 / samples as f64;
+    let sets: Vec<Vec<bool>> = (0..=samples).map(|i| drawable_pulls(s, at(i), 400)).collect();
+    if let Some(i) = sets.iter().position(|m| !m.contains(&true)) {
+        return Err(super::error::MeshError::Geometry(format!(
+            "the section at radius {:.1} mm folds across every pull normal to the pitch axis: \
+             no split of the mould along the span lets it draw",
+            at(i) * 1e3
+        )));
+    }
+    let step = 180.0 / PULL_STEPS as f64;
+    let index_of =
+        |a: Angle| ((a.deg() + 90.0).rem_euclid(180.0) / step).round() as usize % PULL_STEPS;
+    // The fewest modules with no draft to spare, then the same count with each section's set
+    // shrunk by as many steps either side as it allows: the pulls move off the windows' edges,
+    // where a section's extreme across the pull is ill-defined.
+    let fewest = cover(&sets, &at, 0, s);
+    let mut modules = fewest.clone();
+    for spare in 1..=PULL_STEPS / 8 {
+        match cover(&sets, &at, spare, s) {
+            Some(m) if fewest.as_ref().is_some_and(|f| m.len() == f.len()) => modules = Some(m),
+            _ => break,
+        }
+    }
+    let mut modules = modules.ok_or_else(|| {
+        super::error::MeshError::Geometry("no pull draws the sections of the span".into())
+    })?;
+    if let (Some(p), [only]) = (prefer, modules.as_mut_slice()) {
+        let all = sets.iter().fold(vec![true; PULL_STEPS], |acc, m| {
+            acc.iter().zip(m).map(|(&a, &b)| a && b).collect()
+        });
+        if all[index_of(p)] {
+            only.pull_angle = p;
+        }
+    }
+    Ok(modules)
+}
+
+/// `mask` (cyclic) less `spare` steps at either edge of each run.
+fn erode(mask: &[bool], spare: usize) -> Vec<bool> {
+    let n = mask.len();
+    (0..n).map(|i| (0..=2 * spare).all(|k| mask[(i + n + k - spare) % n])).collect()
+}
+
+/// The greedy cover of the sampled span (see [`span_modules`]) with each section's set of
+/// drawing pulls shrunk by `spare` steps; `None` when a shrunk set is empty.
+fn cover(
+    sets: &[Vec<bool>],
+    at: &dyn Fn(usize) -> f64,
+    spare: usize,
+    s: &dyn SpanSurface,
+) -> Option<Vec<SpanModule>> {
+    let step = 180.0 / PULL_STEPS as f64;
+    let sets: Vec<Vec<bool>> = sets.iter().map(|m| erode(m, spare)).collect();
+    if sets.iter().any(|m| !m.contains(&true)) {
+        return None;
+    }
+    let finish = |cur: &[bool], from: f64, to: f64, modules: &mut Vec<SpanModule>| {
+        let (centre, run) = widest_run(cur).unwrap_or((0, 0));
+        modules.push(SpanModule {
+            x_range: [from, to],
+            pull_angle: Angle::from_deg(-90.0 + step * centre as f64),
+            window: Angle::from_deg(step * (run + 2 * spare) as f64),
+        });
+    };
+    let mut modules = Vec::new();
+    let mut cur = sets[0].clone();
+    let mut from = at(0);
+    for (i, set) in sets.iter().enumerate().skip(1) {
+        let next: Vec<bool> = cur.iter().zip(set).map(|(&a, &b)| a && b).collect();
+        if next.contains(&true) {
+            cur = next;
+            continue;
+        }
+        let to = 0.5 * (at(i - 1) + at(i));
+        finish(&cur, from, to, &mut modules);
+        from = to;
+        let mid = erode(&drawable_pulls(s, to, 400), spare);
+        let both: Vec<bool> = mid.iter().zip(set).map(|(&a, &b)| a && b).collect();
+        cur = if both.contains(&true) { both } else { set.clone() };
+    }
+    finish(&cur, from, at(sets.len() - 1), &mut modules);
+    Some(modules)
 }
