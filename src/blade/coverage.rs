@@ -51,6 +51,13 @@ impl Blade {
 
     /// Indices (in `plies.csv` order, outermost first) of the plies covering a surface point.
     pub(crate) fn surface_ply_indices(&self, r: f64, surface: Surface, x: f64) -> Vec<usize> {
+        self.chord_ply_indices(&self.surface_span_plies(r, surface), x)
+    }
+
+    /// Indices (in `plies.csv` order) of the plies of a surface that cover radius `r` at some
+    /// chord position: the candidates of [`Blade::chord_ply_indices`], found once per station
+    /// so that naming the plies of each of its wall segments does not scan the whole schedule.
+    pub(crate) fn surface_span_plies(&self, r: f64, surface: Surface) -> Vec<usize> {
         let tip = self.tip_radius();
         self.plies
             .iter()
@@ -62,10 +69,16 @@ impl Blade {
                         | (Region::Upper, Surface::Upper)
                         | (Region::Lower, Surface::Lower)
                 );
-                on_surface && covers_span(p, r, tip) && covers_chord(p, x)
+                on_surface && covers_span(p, r, tip)
             })
             .map(|(i, _)| i)
             .collect()
+    }
+
+    /// Those of `candidates` (from [`Blade::surface_span_plies`]) that cover chord fraction `x`,
+    /// in the same order.
+    pub(crate) fn chord_ply_indices(&self, candidates: &[usize], x: f64) -> Vec<usize> {
+        candidates.iter().copied().filter(|&i| covers_chord(&self.plies[i], x)).collect()
     }
 
     /// Indices of the plies of a web at a radius.

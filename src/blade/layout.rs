@@ -94,6 +94,8 @@ impl Blade {
                 keys.len() - 1
             })
         };
+        let upper_candidates = self.surface_span_plies(r, Surface::Upper);
+        let lower_candidates = self.surface_span_plies(r, Surface::Lower);
         for i in 0..outer.len() {
             let (surface, x) = if i < n_upper {
                 (Surface::Upper, 0.5 * (outline.upper[i][0] + outline.upper[i + 1][0]))
@@ -105,7 +107,11 @@ impl Blade {
                 let (a, b) = (outline.lower[k.min(outline.lower.len() - 1)], outline.lower[k - 1]);
                 (Surface::Lower, 0.5 * (a[0] + b[0]))
             };
-            let plies = self.surface_ply_indices(r, surface, x);
+            let candidates = match surface {
+                Surface::Upper => &upper_candidates,
+                Surface::Lower => &lower_candidates,
+            };
+            let plies = self.chord_ply_indices(candidates, x);
             if plies.is_empty() {
                 return Err(BladeError::NoPlies { file: self.plies_file.clone(), surface, x, r });
             }

@@ -45,7 +45,7 @@
 mod criteria;
 mod first_ply;
 
-pub use criteria::{hashin, max_strain, max_stress, tsai_wu};
+pub use criteria::{StrengthConstants, hashin, max_strain, max_stress, tsai_wu};
 pub use first_ply::{Face, FirstPlyFailure, LaminateStrength, PlyRatios};
 
 use std::fmt;
@@ -245,10 +245,5 @@ pub fn evaluate_all(
     load: &MaterialState,
     fixed: &MaterialState,
 ) -> CriteriaRatios {
-    CriteriaRatios {
-        tsai_wu: tsai_wu(lamina, &load.stress, &fixed.stress),
-        max_stress: max_stress(lamina, &load.stress, &fixed.stress),
-        max_strain: max_strain(lamina, &load.strain, &fixed.strain),
-        hashin: hashin(lamina, &load.stress, &fixed.stress),
-    }
+    StrengthConstants::new(lamina).evaluate_all(load, fixed)
 }

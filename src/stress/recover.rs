@@ -4,7 +4,7 @@
 use nalgebra::{Vector3, Vector4};
 
 use super::{PlyPoint, PointStress, StressError, WallLocation};
-use crate::failure::{self, CriteriaRatios, Criterion, MaterialState, StrengthRatio};
+use crate::failure::{CriteriaRatios, Criterion, MaterialState, StrengthConstants, StrengthRatio};
 use crate::laminate::{Deformation, Laminate, LaminateLoad, PlyState};
 use crate::loads::BeamResultants;
 use crate::section::{SectionLayout, SolvedSection, WallPart};
@@ -28,6 +28,32 @@ struct FaceUnit {
 #[derive(Debug, Clone)]
 pub(crate) struct UnitResponse {
     faces: Vec<FaceUnit>,
+    /// The strength constants of each ply's material, computed once per material of the
+    /// laminate (plies of one material share them).
+    strength: Vec<StrengthConstants>,
+    /// Per face: whether it is bit for bit the face before it with the same strength constants
+    /// (the top of a ply on the bottom of a ply of the same material and angle, as in a stack
+    /// of unidirectional cap plies), so that its ratios are those of the face before and are
+    /// not evaluated again.
+    repeats: Vec<bool>,
+}
+
+impl FaceUnit {
+    /// Whether two faces hold the same numbers, bit for bit.
+    fn same_bits(&self, other: &FaceUnit) -> bool {
+        let bits = |f: &FaceUnit| {
+            let mut out = [0u64; 42];
+            let vectors =
+                f.stress.iter().chain(&f.strain).chain([&f.fixed.stress, &f.fixed.strain]);
+            for (chunk, v) in out.chunks_exact_mut(3).zip(vectors) {
+                for (o, x) in chunk.iter_mut().zip(v.iter()) {
+                    *o = x.to_bits();
+                }
+            }
+            out
+        };
+        bits(self) == bits(other)
+    }
 }
 
 fn faces(p: &PlyState) -> [MaterialState; 2] {
@@ -84,7 +110,30 @@ impl UnitResponse {
                 });
             }
         }
-        Ok(UnitResponse { faces: out })
+        let mut known: Vec<(*const crate::material::Lamina, StrengthConstants)> = Vec::new();
+        let strength: Vec<StrengthConstants> = laminate
+            .plies()
+            .iter()
+            .map(|p| {
+                let key = std::sync::Arc::as_ptr(&p.material);
+                match known.iter().find(|(k, _)| *k == key) {
+                    Some((_, c)) => *c,
+                    None => {
+                        let c = StrengthConstants::new(&p.material);
+                        known.push((key, c));
+                        c
+                    }
+                }
+            })
+            .collect();
+        let repeats = (0..out.len())
+            .map(|f| {
+                f > 0
+                    && strength.get(f / 2) == strength.get((f - 1) / 2)
+                    && out[f].same_bits(&out[f - 1])
+            })
+            .collect();
+        Ok(UnitResponse { faces: out, strength, repeats })
     }
 
     /// Strength ratios of every ply (worst of its two faces) under the wall deformation `d`.
@@ -104,17 +153,33 @@ impl UnitResponse {
     ) {
         out.clear();
         let v = [d.strain.x, d.strain.y, d.strain.z, d.curvature.x, d.curvature.y, d.curvature.z];
-        for ((k, ply), pair) in laminate.plies().iter().enumerate().zip(self.faces.chunks_exact(2))
+        let n = laminate.plies().len().min(self.strength.len());
+        // The ratios and stresses of the face before, for a face that repeats it.
+        let mut before: Option<(CriteriaRatios, Vector3<f64>)> = None;
+        for (k, ((pair, repeats), strength)) in self
+            .faces
+            .chunks_exact(2)
+            .zip(self.repeats.chunks_exact(2))
+            .zip(&self.strength)
+            .take(n)
+            .enumerate()
         {
-            let [top, bottom] = [&pair[0], &pair[1]].map(|face| {
+            let mut face_ratios = |face: &FaceUnit, repeats: bool| {
+                if let (true, Some(b)) = (repeats, before) {
+                    return b;
+                }
                 let mut load = MaterialState { stress: Vector3::zeros(), strain: Vector3::zeros() };
                 for ((s, e), x) in face.stress.iter().zip(&face.strain).zip(v) {
                     load.stress += s * x;
                     load.strain += e * x;
                 }
-                let r = failure::evaluate_all(&ply.material, &load, &face.fixed);
-                (r, load.stress + face.fixed.stress)
-            });
+                let r =
+                    (strength.evaluate_all(&load, &face.fixed), load.stress + face.fixed.stress);
+                before = Some(r);
+                r
+            };
+            let top = face_ratios(&pair[0], repeats[0]);
+            let bottom = face_ratios(&pair[1], repeats[1]);
             // The face with the strictly lower governing ratio gives the stresses (the top face
             // on a tie); each criterion takes the worse of the two faces.
             let lower = governing_ratio(&bottom.0) < governing_ratio(&top.0);
@@ -159,6 +224,48 @@ fn governing_ratio(r: &CriteriaRatios) -> f64 {
 mod tests {
     use super::*;
     use crate::failure::{FailureMode, StrengthRatio};
+
+    #[test]
+    fn repeated_faces_give_the_ratios_of_every_face_evaluated() {
+        use crate::failure::evaluate_all;
+        use crate::laminate::{Deformation, Laminate, LayupCode};
+        use crate::material::Lamina;
+        // T300/5208 (Kaw, Mechanics of Composite Materials, 2nd ed., 2006, Table 2.1), with
+        // CTEs (0.02 and 22.5 µstrain/K, Kaw Table 2.1, from memory) so that the residual part
+        // is not zero.
+        let tape = Lamina::builder("t300")
+            .elastic(181e9, 10.3e9, 7.17e9, 0.28)
+            .ply_thickness(0.125e-3)
+            .strengths(1500e6, 1500e6, 40e6, 246e6, 68e6)
+            .cte(0.02e-6, 22.5e-6)
+            .build()
+            .unwrap();
+        // An unsymmetric wall with a stack of like plies (the faces inside it repeat) between
+        // unlike ones.
+        let code: LayupCode = "[45/0/0/0/0/-45/90/90]".parse().unwrap();
+        let laminate = Laminate::from_code(&code, &tape);
+        let unit = UnitResponse::new(&laminate, -100.0).unwrap();
+        assert!(unit.repeats.iter().filter(|&&r| r).count() >= 3, "{:?}", unit.repeats);
+        let d = Deformation {
+            strain: Vector3::new(2e-3, -4e-4, 1.5e-3),
+            curvature: Vector3::new(3.0, 0.0, -1.2),
+        };
+        let got = unit.ratios(&laminate, &d);
+        let v = [d.strain.x, d.strain.y, d.strain.z, d.curvature.x, d.curvature.y, d.curvature.z];
+        for (k, ply) in laminate.plies().iter().enumerate() {
+            let face = |f: &FaceUnit| {
+                let mut load = MaterialState { stress: Vector3::zeros(), strain: Vector3::zeros() };
+                for ((s, e), x) in f.stress.iter().zip(&f.strain).zip(v) {
+                    load.stress += s * x;
+                    load.strain += e * x;
+                }
+                evaluate_all(&ply.material, &load, &f.fixed)
+            };
+            let want = face(&unit.faces[2 * k]).worst(&face(&unit.faces[2 * k + 1]));
+            assert_eq!(got[k].ratios, want, "ply {k}");
+            assert_eq!(got[k].governing, want.governing(), "ply {k}");
+        }
+    }
 
     #[test]
     fn written_out_governing_agrees_with_the_library_on_ties_and_gaps() {
