@@ -64,6 +64,7 @@ mod mould_block;
 mod orient;
 mod parting;
 mod polygon;
+mod prints;
 mod spatial;
 mod stl;
 mod summary;
@@ -90,13 +91,14 @@ pub use mesh::{BoundingBox, Mesh, box_mesh};
 pub use mould::{MouldHalf, MouldParams, MouldParts, Undercut, build_mould_parts, build_moulds};
 pub use parting::SilhouetteSurface;
 pub use polygon::{loft_polygons, triangulate_polygon};
+pub use prints::CorePrint;
 pub use stl::{
     LengthUnit, StlFormat, StlOptions, WrittenPart, binary_header, encode_part_set_with_progress,
     encode_stl, write_part_set_with_progress, write_parts, write_parts_with_progress, write_stl,
     write_stl_digest,
 };
 pub use summary::{
-    MeltCheck, MeltFinding, PartMass, ScheduleContent, ToolingSummary, melt_check,
+    MeltCheck, MeltFinding, PartMass, ScheduleContent, ToolingSummary, drain_plan, melt_check,
     schedule_content, summarise,
 };
 pub use surface::{ChainEnds, EndKind, FnSurface, SpanSurface, contour_polygon, polygon_area};
