@@ -19,8 +19,7 @@ use std::path::{Path, PathBuf};
 use layloft::blade::Blade;
 use layloft::input::read_project;
 use layloft::tooling::{
-    BladeTooling, CheckParams, End, PartKind, ToolingParams, build_tooling, check_solid,
-    drain_plan,
+    BladeTooling, CheckParams, End, PartKind, ToolingParams, build_tooling, check_solid, drain_plan,
 };
 
 type P3 = [f64; 3];
@@ -137,13 +136,15 @@ fn check_prints(t: &BladeTooling) -> usize {
         let delta = 0.1 * t.params.tolerance;
         let mut checked = 0;
         for i in (0..n).step_by((n / 24).max(1)) {
-            let (a, q, b) = (p.section[(i + n - 1) % n], p.section[i], p.section[(i + 1) % n]);
-            // The outline's inward normal at q (counter-clockwise outline: left of the edge).
+            // The middle of the outline's edge from point i, and the edge's inward normal
+            // (left of the edge on a counter-clockwise outline).
+            let (a, b) = (p.section[i], p.section[(i + 1) % n]);
             let tng = [b[0] - a[0], b[1] - a[1]];
             let len = tng[0].hypot(tng[1]);
-            if len == 0.0 {
+            if len < 10.0 * delta {
                 continue;
             }
+            let q = [0.5 * (a[0] + b[0]), 0.5 * (a[1] + b[1])];
             let s = area2.signum();
             let inward = [-s * tng[1] / len, s * tng[0] / len];
             for (sign, in_port) in [(1.0, true), (-1.0, false)] {
@@ -223,4 +224,31 @@ fn cores_sealed_between_bulkheads_get_no_print_and_are_flagged() {
     let shell = &t.parts.iter().find(|p| p.name == "shell").unwrap().mesh;
     let s = check_solid(shell, "shell", &CheckParams::default()).unwrap();
     assert_eq!(s.shells, 1 + t.unprinted.len());
+}
+
+#[test]
+fn planar_ends_take_prints_and_ports_as_closed_outward_parts() {
+    // Planes at the first and last station: the holed end caps are flat; every core and the
+    // shell pass the mesh check, and each drain point is its core's lowest point.
+    let root = Path::new(env!("CARGO_MANIFEST_DIR"));
+    let project = read_project(&root.join("layups/mine-fan/blade.toml")).unwrap();
+    let blade = Blade::from_project(&project).unwrap();
+    let spec = project.tooling.as_ref().unwrap();
+    let params = ToolingParams {
+        tolerance: 0.5e-3,
+        ends: layloft::tooling::EndShape::Planes,
+        ..ToolingParams::from_spec(spec).unwrap()
+    };
+    let t = build_tooling(&blade, &params, &mut |_, _, _| {}).expect("the tooling builds");
+    assert_eq!(t.prints.len(), 2);
+    for part in t.parts.iter().filter(|p| matches!(p.kind, PartKind::Core | PartKind::Shell)) {
+        check_solid(&part.mesh, &part.name, &CheckParams::default()).expect("closed, outward");
+    }
+    for p in &t.prints {
+        let core = &t.parts.iter().find(|x| x.name == p.core).unwrap().mesh;
+        let low = core.vertices.iter().map(|&v| dot(p.down, v)).fold(f64::NEG_INFINITY, f64::max);
+        assert!((low - dot(p.down, p.drain_point)).abs() < 1e-12, "{}", p.core);
+        // A flat end drains whole: nothing of it lies below the print's entrance.
+        assert!(p.pool_depth < 1e-12, "{}: {}", p.core, p.pool_depth);
+    }
 }

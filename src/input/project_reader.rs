@@ -576,7 +576,7 @@ fn check_tooling(
                 "expected a print no longer than the mould margin (mould_margin_m = {} m): the \
                  print seats in the mould block beyond the part; found {} mm",
                 spec.mould_margin,
-                spec.core_print_length / MM
+                (spec.core_print_length / MM * 1e6).round() / 1e6
             ),
         ));
     }

@@ -37,18 +37,18 @@
 
 use std::collections::HashMap;
 
-use spade::{AngleLimit, ConstrainedDelaunayTriangulation, Point2, RefinementParameters};
 use spade::Triangulation;
+use spade::{AngleLimit, ConstrainedDelaunayTriangulation, Point2, RefinementParameters};
 
 use super::error::{End, MeshError};
 use super::loft::LoftedSolid;
 use super::mesh::Mesh;
 use super::orient::{compact, orient_outward};
 use super::polygon::triangulate_polygon;
+use super::surface::SpanSurface;
 use super::surface::polygon_area;
 use super::trim::EndTrim;
 use super::vec3::{self, P3};
-use super::surface::SpanSurface;
 
 /// A core's print and the shell's port it passes through.
 #[derive(Debug, Clone, PartialEq)]
@@ -200,7 +200,8 @@ pub(crate) fn cap_with_holes(
     let fail = |what: &str| MeshError::Geometry(format!("an end cap round a print: {what}"));
     let mut cdt = ConstrainedDelaunayTriangulation::<Point2<f64>>::new();
     let mut ids: HashMap<usize, u32> = HashMap::new();
-    let loops: Vec<&[u32]> = std::iter::once(ring).chain(holes.iter().map(|l| l.as_slice())).collect();
+    let loops: Vec<&[u32]> =
+        std::iter::once(ring).chain(holes.iter().map(|l| l.as_slice())).collect();
     let mut polys: Vec<Vec<[f64; 2]>> = Vec::with_capacity(loops.len());
     let mut handles = Vec::with_capacity(loops.len());
     for lp in &loops {
@@ -238,14 +239,15 @@ pub(crate) fn cap_with_holes(
         params = params.with_max_allowed_area(0.433 * h * h);
     }
     cdt.refine(params);
-    let mut used = Vec::new();
+    let mut tris: Vec<[u32; 3]> = Vec::new();
     for face in cdt.inner_faces() {
         let vs = face.vertices();
         let pts = vs.map(|v| {
             let p = v.position();
             [p.x, p.y]
         });
-        let mid = [(pts[0][0] + pts[1][0] + pts[2][0]) / 3.0, (pts[0][1] + pts[1][1] + pts[2][1]) / 3.0];
+        let mid =
+            [(pts[0][0] + pts[1][0] + pts[2][0]) / 3.0, (pts[0][1] + pts[1][1] + pts[2][1]) / 3.0];
         if !inside(&polys[0], mid) || polys[1..].iter().any(|p| inside(p, mid)) {
             continue;
         }
@@ -260,13 +262,53 @@ pub(crate) fn cap_with_holes(
                     id
                 }
             };
-            used.push(tri[k]);
         }
-        mesh.triangles.push(tri);
+        tris.push(tri);
     }
+    unslither(mesh, &mut tris);
+    let mut used: Vec<u32> = tris.iter().flatten().copied().collect();
     used.sort_unstable();
     used.dedup();
+    mesh.triangles.extend(tris);
     Ok(used)
+}
+
+/// Removes the facets whose middle corner lies on the line of the other two (three points of a
+/// straight closure that round-off leaves a hair apart): with a neighbour across the long edge,
+/// the two become two facets across the other diagonal; without one (the sliver lies outside
+/// the outline, which its middle dents by a hair) it is dropped.
+fn unslither(mesh: &Mesh, tris: &mut Vec<[u32; 3]>) {
+    let mut drop = Vec::new();
+    let p = |v: u32| mesh.vertices[v as usize];
+    for i in 0..tris.len() {
+        let t = tris[i];
+        let [a, b, c] = t.map(p);
+        let longest = vec3::dist(a, b).max(vec3::dist(b, c)).max(vec3::dist(c, a));
+        if vec3::norm(vec3::area_vector(a, b, c)) > 1e-9 * longest * longest {
+            continue;
+        }
+        // The long edge (u, w) and the corner on it (m).
+        let k = (0..3)
+            .max_by(|&i, &j| {
+                let len = |k: usize| vec3::dist(p(t[k]), p(t[(k + 1) % 3]));
+                len(i).total_cmp(&len(j))
+            })
+            .unwrap_or(0);
+        let (u, w, m) = (t[k], t[(k + 1) % 3], t[(k + 2) % 3]);
+        let other =
+            (0..tris.len()).find(|&j| j != i && tris[j].contains(&u) && tris[j].contains(&w));
+        match other {
+            Some(j) => {
+                let d = tris[j].iter().copied().find(|&v| v != u && v != w).unwrap_or(m);
+                tris[i] = [u, m, d];
+                tris[j] = [m, w, d];
+            }
+            None => drop.push(i),
+        }
+    }
+    for i in drop.into_iter().rev() {
+        tris.swap_remove(i);
+    }
 }
 
 /// Joins the loops `a` and `b` (same length, corresponding points) by a band of facets.
@@ -337,7 +379,8 @@ pub(crate) fn print_core(
     // The end contour at the mean radius of the end, chord frame: the upper chain front to
     // back, the lower back to front (the closures are the edges between them).
     let m = 240;
-    let mut contour: Vec<[f64; 2]> = (0..=m).map(|i| cell.upper(x_c, i as f64 / m as f64)).collect();
+    let mut contour: Vec<[f64; 2]> =
+        (0..=m).map(|i| cell.upper(x_c, i as f64 / m as f64)).collect();
     contour.extend((0..=m).rev().map(|i| cell.lower(x_c, i as f64 / m as f64)));
     // Anchored at the lowest point of the end in the drain orientation.
     let lowest = pts
@@ -357,9 +400,16 @@ pub(crate) fn print_core(
     for &q in &section {
         entrance.push(piece.push_vertex(lift_x(set.core_trim, q)?));
     }
-    let floor = cap_with_holes(&mut piece, ring, std::slice::from_ref(&entrance), set.core_trim, set.max_side)?;
+    let floor = cap_with_holes(
+        &mut piece,
+        ring,
+        std::slice::from_ref(&entrance),
+        set.core_trim,
+        set.max_side,
+    )?;
     // The port's points on the outer end surface, for the length.
-    let outer: Vec<P3> = section.iter().map(|&q| lift_x(set.outer_trim, q)).collect::<Result<_, _>>()?;
+    let outer: Vec<P3> =
+        section.iter().map(|&q| lift_x(set.outer_trim, q)).collect::<Result<_, _>>()?;
     // The outermost point of the port along the print's direction, then the length beyond it.
     let reach = outer.iter().map(|p| sign * p[0]).fold(f64::NEG_INFINITY, f64::max);
     let x_end = sign * (reach + set.length);
@@ -375,10 +425,8 @@ pub(crate) fn print_core(
     let n = section.len() as f64;
     let centre = section.iter().fold([0.0, 0.0], |a, q| [a[0] + q[0] / n, a[1] + q[1] / n]);
     let height = |p: P3| -vec3::dot(down, p);
-    let entrance_low = entrance
-        .iter()
-        .map(|&v| height(piece.vertices[v as usize]))
-        .fold(f64::INFINITY, f64::min);
+    let entrance_low =
+        entrance.iter().map(|&v| height(piece.vertices[v as usize])).fold(f64::INFINITY, f64::min);
     let floor_low =
         floor.iter().map(|&v| height(piece.vertices[v as usize])).fold(f64::INFINITY, f64::min);
     let volume = mesh.signed_volume() - solid.mesh.signed_volume();
