@@ -252,3 +252,30 @@ fn planar_ends_take_prints_and_ports_as_closed_outward_parts() {
         assert!(p.pool_depth < 1e-12, "{}: {}", p.core, p.pool_depth);
     }
 }
+
+#[test]
+fn ports_take_the_end_laminate_out_of_the_shell_and_prints_add_to_the_cores() {
+    // Volume balance (Cavalieri): the same blade with prints off and on. Each core gains its
+    // print beyond its end; the shell loses each port, the section times the end laminate to
+    // within the dome's depth across the section (a sphere's sag, d²/8R over a section of
+    // width d, bounded here by a tenth of the laminate volume).
+    let root = Path::new(env!("CARGO_MANIFEST_DIR"));
+    let project = read_project(&root.join("layups/mine-fan/blade.toml")).unwrap();
+    let blade = Blade::from_project(&project).unwrap();
+    let spec = project.tooling.as_ref().unwrap();
+    let on = ToolingParams { tolerance: 0.5e-3, ..ToolingParams::from_spec(spec).unwrap() };
+    let off = ToolingParams { print_fraction: 0.0, ..on.clone() };
+    let a = build_tooling(&blade, &off, &mut |_, _, _| {}).unwrap();
+    let b = build_tooling(&blade, &on, &mut |_, _, _| {}).unwrap();
+    let v = |t: &BladeTooling, name: &str| {
+        t.parts.iter().find(|p| p.name == name).unwrap().mesh.signed_volume()
+    };
+    let mut ports = 0.0;
+    for p in &b.prints {
+        let gain = v(&b, &p.core) - v(&a, &p.core);
+        assert!((gain / p.volume - 1.0).abs() < 1e-9, "{}: {gain} vs {}", p.core, p.volume);
+        ports += p.section_area * b.ends.root_laminate;
+    }
+    let lost = v(&a, "shell") - v(&b, "shell");
+    assert!((lost - ports).abs() < 0.1 * ports, "shell lost {lost} m³, ports {ports} m³");
+}

@@ -145,12 +145,13 @@ pub(crate) fn print_section(
     let (y0, y1) = contour
         .iter()
         .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), p| (a.min(p[0]), b.max(p[0])));
-    if !(y1 - y0 > 2.0 * inset) {
+    let room = y1 - y0 - 2.0 * inset;
+    if room.is_nan() || room <= 0.0 {
         return Err(small());
     }
     let ya = anchor[0].clamp(y0 + inset, y1 - inset);
     let (lo, hi) = interval_at(contour, ya).ok_or_else(small)?;
-    if !(hi - lo > 0.0) {
+    if (hi - lo).is_nan() || hi - lo <= 0.0 {
         return Err(small());
     }
     let delta = (inset / (hi - lo)).min(0.25);
@@ -166,7 +167,8 @@ pub(crate) fn print_section(
     }
     lower.reverse();
     upper.extend(lower);
-    if !(polygon_area(&upper).abs() > 0.0) {
+    let area = polygon_area(&upper).abs();
+    if area.is_nan() || area <= 0.0 {
         return Err(small());
     }
     Ok(upper)

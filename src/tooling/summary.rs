@@ -194,8 +194,8 @@ pub fn drain_plan(tooling: &BladeTooling, tolerance: f64) -> (Vec<String>, Vec<M
                 MeltFinding {
                     passed: Some(true),
                     text: format!(
-                        "{}: drains through its {} print: its end surface lies nowhere below the \
-                         print's entrance",
+                        "{}: drains through its {} print: its end surface lies at most {mm:.2} mm \
+                         below the print's entrance (a film, within 1 mm)",
                         p.core, p.end
                     ),
                 }
