@@ -70,6 +70,9 @@ fn demo_parts_end_on_their_spheres_at_every_pitch_in_the_range() {
         (rotor.hub_radius + rotor.root_clearance, rotor.tip_radius - rotor.tip_clearance);
     let mut base = params(&project);
     base.mould_margin = 0.03;
+    // Without core prints, which stand out of the cores' end spheres, take the ports out of the
+    // shell's end closures and have no seat in the block yet (validation_core_prints.rs).
+    base.print_fraction = 0.0;
     let (lo, hi) = (rotor.pitch_range.0.deg(), rotor.pitch_range.1.deg());
     let mut volumes: Option<Vec<f64>> = None;
     for pitch in [lo, 0.0, 12.5, hi] {
@@ -146,7 +149,14 @@ fn outer_mould_line_volume_matches_the_section_solvers_outline_by_slices() {
     assert!((coarse / exact - 1.0).abs() < 1e-7, "{coarse} vs {exact}");
     let mut last = f64::INFINITY;
     for tol in [0.2e-3, 0.05e-3] {
-        let p = ToolingParams { tolerance: tol, ends: EndShape::Planes, ..params(&project) };
+        // Without core prints, which stand out of the cores' end spheres, take the ports out of the
+        // shell's end closures and have no seat in the block yet (validation_core_prints.rs).
+        let p = ToolingParams {
+            tolerance: tol,
+            ends: EndShape::Planes,
+            print_fraction: 0.0,
+            ..params(&project)
+        };
         let t = build(&blade, &p);
         // The outer solid is the shell with its cavities, the cores, filled back in.
         let v: f64 = t
@@ -174,7 +184,9 @@ fn shell_laminate_volume_matches_the_ply_schedule_within_one_percent() {
     // Planar ends at the first and last station put the shell on the schedule's span; its end
     // closures (the end laminate over each core's end face) are taken off.
     let (project, blade) = mine_fan();
-    let p = ToolingParams { ends: EndShape::Planes, ..params(&project) };
+    // Without core prints, which stand out of the cores' end spheres, take the ports out of the
+    // shell's end closures and have no seat in the block yet (validation_core_prints.rs).
+    let p = ToolingParams { ends: EndShape::Planes, print_fraction: 0.0, ..params(&project) };
     let t = build(&blade, &p);
     let shell = part(&t, "shell").nominal_volume;
     let cap_area = |mesh: &layloft::tooling::Mesh, sign: f64| -> f64 {
@@ -248,7 +260,9 @@ fn shell_laminate_volume_matches_the_ply_schedule_within_one_percent() {
 #[test]
 fn mould_parts_part_and_socket_clearances_fill_the_block() {
     let (project, blade) = mine_fan();
-    let p = params(&project);
+    // Without core prints, which stand out of the cores' end spheres, take the ports out of the
+    // shell's end closures and have no seat in the block yet (validation_core_prints.rs).
+    let p = ToolingParams { print_fraction: 0.0, ..params(&project) };
     let t = build(&blade, &p);
     let v = |kind: PartKind| -> f64 {
         t.parts.iter().filter(|x| x.kind == kind).map(|x| x.mesh.signed_volume()).sum()

@@ -23,7 +23,8 @@
 //!   `cure_temperature_C`, `mould_margin_m` (0.03), `stl_unit` ("mm" or "m"), `tolerance_mm`
 //!   (0.1), `mould_expansion_factor` (1), `core_shrink_factor` (1), `min_draft_deg` (1, from 0 to 30),
 //!   `mould_material` (an `[isotropic.NAME]` record; its density gives the mould masses),
-//!   `min_core_thickness_mm` (2);
+//!   `min_core_thickness_mm` (2), `core_print_fraction` (0.5, from 0, no prints, to 0.9),
+//!   `core_print_length_mm` (15, at most the mould margin);
 //! - `[modal]`: `elements` (40), `modes` (8), `rpm_step`, `[modal.root_springs]` with
 //!   `axial_N_m`, `flap_Nm_rad`, `edge_Nm_rad`, `torsion_Nm_rad`;
 //! - `[sections]`: `contour_points` (240), `analysis_stations` (0: the project's stations),
@@ -568,6 +569,17 @@ fn check_tooling(
             ),
         ));
     }
+    if spec.core_print_fraction > 0.0 && spec.core_print_length > spec.mould_margin {
+        return Err(t.error(
+            "core_print_length_mm",
+            format!(
+                "expected a print no longer than the mould margin (mould_margin_m = {} m): the \
+                 print seats in the mould block beyond the part; found {} mm",
+                spec.mould_margin,
+                (spec.core_print_length / MM * 1e6).round() / 1e6
+            ),
+        ));
+    }
     let temps = [
         ("injection_temperature_C", spec.injection_temperature_c),
         ("gel_temperature_C", spec.gel_temperature_c),
@@ -981,6 +993,30 @@ fn read_tooling(
         }
         None => d.min_core_thickness,
     };
+    let core_print_fraction = match t.optional_f64("core_print_fraction")? {
+        Some(v) if (0.0..=0.9).contains(&v) => v,
+        Some(v) => {
+            return Err(t.error(
+                "core_print_fraction",
+                format!(
+                    "expected a fraction of the core's end section from 0 (no prints) to 0.9, \
+                     found {v}"
+                ),
+            ));
+        }
+        None => d.core_print_fraction,
+    };
+    let core_print_length = match t.optional_f64("core_print_length_mm")? {
+        Some(v) if v > 0.0 => v * MM,
+        Some(v) => {
+            return Err(t.error(
+                "core_print_length_mm",
+                format!("expected a positive print length, found {v}"),
+            ));
+        }
+        // Not given: 15 mm, or half the mould margin when that is less.
+        None => d.core_print_length.min(0.5 * mould_margin),
+    };
     Ok(ToolingSpec {
         core_alloy,
         mould_material,
@@ -994,6 +1030,8 @@ fn read_tooling(
         core_shrink_factor,
         min_draft,
         min_core_thickness,
+        core_print_fraction,
+        core_print_length,
     })
 }
 

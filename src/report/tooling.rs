@@ -35,6 +35,12 @@ pub struct ToolingReport<'a> {
     pub stale: &'a StaleFiles,
 }
 
+/// The caution on melting the cores out, beside the drain plan.
+const DRAIN_CAUTION: &str = "Melting out: low-melting core alloys give off metal fumes above \
+     their melting range; alloys with bismuth, lead or cadmium are toxic: melt out in a \
+     ventilated place or under extraction, wear gloves and eye protection, keep food away, \
+     catch and weigh every drop, and keep the alloy for recasting or hazardous-waste disposal.";
+
 /// `text` wrapped at 96 columns, the first line after `first`, the others after `rest`.
 fn wrap(text: &str, first: &str, rest: &str) -> String {
     let mut out = String::new();
@@ -119,6 +125,70 @@ impl ToolingReport<'_> {
             boxes.row(vec![p.name.clone(), span(0), span(1), span(2)]);
         }
         (table, boxes)
+    }
+
+    /// Each core's print: the end it leaves through, section, length, volume beyond the core's
+    /// end, drain point and the depth of alloy that cannot run into it.
+    fn prints_table(&self) -> Table {
+        let u = self.unit().symbol();
+        let mut table = Table::new(&[
+            ("core", Align::Left),
+            ("end", Align::Left),
+            ("section cm²", Align::Right),
+            (&format!("length {u}"), Align::Right),
+            ("print cm³", Align::Right),
+            (&format!("drain point (x, y, z) {u}"), Align::Left),
+            (&format!("pool {u}"), Align::Right),
+        ]);
+        for p in &self.tooling.prints {
+            let d = p.drain_point;
+            table.row(vec![
+                p.core.clone(),
+                p.end.to_string(),
+                sig4(p.section_area * 1e4),
+                self.small(p.length),
+                sig4(p.volume * 1e6),
+                format!("{}, {}, {}", self.len(d[0]), self.len(d[1]), self.len(d[2])),
+                self.small(p.pool_depth),
+            ]);
+        }
+        for core in &self.tooling.unprinted {
+            let none = "-".to_string();
+            table.row(vec![
+                core.clone(),
+                "none".into(),
+                none.clone(),
+                none.clone(),
+                none.clone(),
+                "sealed by bulkheads".into(),
+                none,
+            ]);
+        }
+        table
+    }
+
+    fn drain_text(&self, s: &mut String) {
+        let t = self.tooling;
+        if t.prints.is_empty() && t.unprinted.is_empty() {
+            return;
+        }
+        let _ = writeln!(
+            s,
+            "\nCore prints and drain ports (print section {} of the core's end section, {} {} \
+             beyond the shell)",
+            sig4(t.params.print_fraction),
+            self.small(t.params.print_length),
+            self.unit().symbol()
+        );
+        s.push_str(&self.prints_table().render(2));
+        for line in &self.summary.drain_orientation {
+            s.push_str(&wrap(line, "  ", "    "));
+        }
+        for f in &self.summary.drain_findings {
+            let mark = if f.passed == Some(false) { "FAIL" } else { "ok  " };
+            s.push_str(&wrap(&format!("{mark} {}", f.text), "  ", "    "));
+        }
+        s.push_str(&wrap(DRAIN_CAUTION, "  ! ", "    "));
     }
 
     /// Where the last core ends at the thin trailing edge, station by station.
@@ -282,6 +352,24 @@ impl ToolingReport<'_> {
                 .into(),
             self.machining_table(),
         ));
+        if !self.tooling.prints.is_empty() || !self.tooling.unprinted.is_empty() {
+            block.tables.push((
+                "Core prints and drain ports: the section, the length beyond the shell, the \
+                 print's volume beyond the core's end, the drain point (rotor frame) and the \
+                 depth of alloy that cannot run into the print."
+                    .into(),
+                self.prints_table(),
+            ));
+            block.paragraphs.extend(self.summary.drain_orientation.iter().cloned());
+            for f in &self.summary.drain_findings {
+                if f.passed == Some(false) {
+                    block.warnings.push(format!("draining: {}", f.text));
+                } else {
+                    block.notes.push(format!("passed: {}", f.text));
+                }
+            }
+            block.notes.push(DRAIN_CAUTION.to_string());
+        }
         block.notes.extend(self.stale_lines());
         for l in lines(&melt) {
             if l.starts_with("FAIL") {
@@ -341,6 +429,7 @@ impl ToolingReport<'_> {
         self.masses_text(&mut s);
         self.ends_text(&mut s);
         self.melt_text(&mut s);
+        self.drain_text(&mut s);
         self.moulds_text(&mut s);
         self.machining_text(&mut s);
         s
@@ -611,7 +700,7 @@ impl ToolingReport<'_> {
                 })
             })
             .collect();
-        json!({
+        let mut out = json!({
             "project": self.name,
             "format": self.format,
             "unit": self.unit().symbol(),
@@ -696,7 +785,37 @@ impl ToolingReport<'_> {
                 "mould_expansion_factor": num(t.params.mould_expansion_factor),
                 "core_shrink_factor": num(t.params.core_shrink_factor),
             },
-        })
+        });
+        // Prints and draining, after the keys above.
+        let prints = json!({
+            "core_prints": t.prints.iter().map(|p| json!({
+                "core": p.core,
+                "end": p.end.to_string(),
+                "section_area_m2": num(p.section_area),
+                "length_m": num(p.length),
+                "x_end_m": num(p.x_end),
+                "volume_m3": num(p.volume),
+                "drain_point": point(p.drain_point),
+                "down": p.down.map(num),
+                "pool_depth_m": num(p.pool_depth),
+                "section_m": p.section.iter().map(|q| [num(q[0]), num(q[1])]).collect::<Vec<_>>(),
+            })).collect::<Vec<_>>(),
+            "cores_without_print": t.unprinted,
+            "core_print_fraction": num(t.params.print_fraction),
+            "core_print_length_m": num(t.params.print_length),
+            "drain": {
+                "orientation": self.summary.drain_orientation,
+                "checks": self.summary.drain_findings.iter().map(|f| json!({
+                    "passed": f.passed,
+                    "text": f.text,
+                })).collect::<Vec<_>>(),
+                "caution": DRAIN_CAUTION,
+            },
+        });
+        if let (Some(o), Value::Object(p)) = (out.as_object_mut(), prints) {
+            o.extend(p);
+        }
+        out
     }
 }
 

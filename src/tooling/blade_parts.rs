@@ -27,13 +27,14 @@
 
 use super::blade_surface::span_samples;
 use super::blade_surface::{BladeSurface, CoreCell, CoreEnd, CutBound, Side, core_cuts};
-use super::error::MeshError;
+use super::error::{End, MeshError};
 use super::grid::LoftParams;
 use super::loft::{LoftedSolid, loft_solid};
 use super::machining::{MachiningFrame, to_machining_frame};
 use super::mesh::Mesh;
 use super::mould::{MouldHalf, MouldParams, MouldParts, build_mould_parts};
 use super::parting::SilhouetteSurface;
+use super::prints::{CorePrint, PrintSetting, print_core, shell_with_ports};
 use super::stl::LengthUnit;
 use super::surface::{EndKind, SpanSurface};
 use super::trim::{EndTrim, Trims};
@@ -64,6 +65,12 @@ pub struct ToolingParams {
     pub unit: LengthUnit,
     /// How the blade's ends are trimmed.
     pub ends: EndShape,
+    /// A core print's section as a fraction of the core's end section, chordwise and in depth
+    /// (0: no prints; see [`super::CorePrint`]).
+    pub print_fraction: f64,
+    /// How far a core print stands out beyond the shell's outer end surface, m (at most the
+    /// mould margin).
+    pub print_length: f64,
 }
 
 /// How the blade's ends are trimmed.
@@ -90,6 +97,8 @@ impl Default for ToolingParams {
             min_draft: Angle::from_deg(1.0),
             unit: LengthUnit::Millimetre,
             ends: EndShape::Spheres,
+            print_fraction: 0.5,
+            print_length: 0.015,
         }
     }
 }
@@ -107,6 +116,8 @@ impl ToolingParams {
             min_draft: spec.min_draft,
             unit: spec.stl_unit.parse()?,
             ends: EndShape::Spheres,
+            print_fraction: spec.core_print_fraction,
+            print_length: spec.core_print_length,
         })
     }
 
@@ -132,6 +143,23 @@ impl ToolingParams {
                 value: draft,
                 expected: "a draft of 0 to 30 degrees",
             });
+        }
+        if !(0.0..=0.9).contains(&self.print_fraction) {
+            return Err(MeshError::Parameter {
+                name: "core print fraction".into(),
+                value: self.print_fraction,
+                expected: "a fraction of the core's end section from 0 (no prints) to 0.9",
+            });
+        }
+        if self.print_fraction > 0.0 {
+            positive("core print length (m)", self.print_length)?;
+            if self.print_length > self.mould_margin {
+                return Err(MeshError::Parameter {
+                    name: "core print length (m)".into(),
+                    value: self.print_length,
+                    expected: "a print no longer than the mould margin (it seats in the block)",
+                });
+            }
         }
         for (name, f) in [
             ("mould expansion factor", self.mould_expansion_factor),
@@ -227,6 +255,11 @@ pub struct BladeTooling {
     /// The chord angle ψ the mould's pull is normal to: the upper half is pulled along
     /// `(0, −sin ψ, cos ψ)`, rotor frame (see [`build_tooling`]'s choice of the pull).
     pub mould_pull_angle: Angle,
+    /// The cores' prints and the shell's ports, in core order (see [`super::CorePrint`]).
+    pub prints: Vec<CorePrint>,
+    /// Cores without a print: closed by bulkheads at both ends, their cells reach no end of
+    /// the blade (none when prints are off).
+    pub unprinted: Vec<String>,
 }
 
 /// A mould part in its machining frame: the casting leaves the cavity along +Z, the back face
@@ -454,22 +487,71 @@ pub fn build_tooling(
         choose_pull(blade, &outer, &outer_trims, &loft, params, pitch, span)?;
     step("outer mould line", progress);
     let mut parts = Vec::with_capacity(total);
-    let mut shell = outer_solid.mesh.clone();
-    for (i, (cell, trims)) in cells.iter().enumerate() {
+    let printing = params.print_fraction > 0.0;
+    let side = |trim: EndTrim| trim.chord_for_sag(0.5 * params.tolerance).min(loft.max_edge);
+    let (mut printed, mut sealed, mut unprinted) = (Vec::new(), Vec::new(), Vec::new());
+    for (i, ((cell, trims), span)) in cells.iter().zip(&spans).enumerate() {
         let name = format!("core-{}", i + 1);
         let solid = loft_solid(cell, trims, &loft)
             .map_err(|e| MeshError::Geometry(format!("{name}: {e}")))?;
-        let mut cavity = solid.mesh.clone();
-        cavity.flip();
-        shell.merge(&cavity);
-        let nominal_volume = solid.mesh.signed_volume();
-        let mut mesh = solid.mesh;
+        // The print leaves through the root when the cell reaches it, else through the tip.
+        let end = if !printing {
+            None
+        } else if segments[span.first].0.is_none() {
+            Some(End::Root)
+        } else if segments[span.last].1.is_none() {
+            Some(End::Tip)
+        } else {
+            unprinted.push(name.clone());
+            None
+        };
+        let mesh = match end {
+            Some(end) => {
+                let set = PrintSetting {
+                    fraction: params.print_fraction,
+                    length: params.print_length,
+                    core_trim: trims.at(end),
+                    outer_trim: outer_trims.at(end),
+                    max_side: side(trims.at(end)),
+                    inset: 0.25 * params.min_core_thickness,
+                };
+                let p = print_core(&name, &solid, end, cell, &set)
+                    .map_err(|e| MeshError::Geometry(format!("{name}: {e}")))?;
+                let mesh = p.mesh.clone();
+                printed.push(p);
+                mesh
+            }
+            None => {
+                sealed.push(solid.mesh.clone());
+                solid.mesh
+            }
+        };
+        let nominal_volume = mesh.signed_volume();
+        let mut mesh = mesh;
         if params.core_shrink_factor != 1.0 {
             mesh.scale(params.core_shrink_factor);
         }
         parts.push(Part { name, kind: PartKind::Core, mesh, nominal_volume });
         step(&format!("core {}", i + 1), progress);
     }
+    let shell = if printed.is_empty() {
+        let mut shell = outer_solid.mesh.clone();
+        for core in &sealed {
+            let mut cavity = core.clone();
+            cavity.flip();
+            shell.merge(&cavity);
+        }
+        shell
+    } else {
+        shell_with_ports(
+            &outer_solid,
+            &printed.iter().collect::<Vec<_>>(),
+            &sealed.iter().collect::<Vec<_>>(),
+            [outer_trims.root, outer_trims.tip],
+            side(outer_trims.root).min(side(outer_trims.tip)),
+        )
+        .map_err(|e| MeshError::Geometry(format!("shell: {e}")))?
+    };
     let shell_volume = shell.signed_volume();
     parts.push(Part {
         name: "shell".into(),
@@ -502,6 +584,8 @@ pub fn build_tooling(
         machining,
         end_pieces,
         mould_pull_angle,
+        prints: printed.into_iter().map(|p| p.print).collect(),
+        unprinted,
     })
 }
 

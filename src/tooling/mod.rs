@@ -64,6 +64,7 @@ mod mould_block;
 mod orient;
 mod parting;
 mod polygon;
+mod prints;
 mod spatial;
 mod stl;
 mod summary;
@@ -93,13 +94,14 @@ pub use mould::{
 };
 pub use parting::{SilhouetteSurface, SpanModule, span_modules};
 pub use polygon::{loft_polygons, triangulate_polygon};
+pub use prints::CorePrint;
 pub use stl::{
     LengthUnit, StlFormat, StlOptions, WrittenPart, binary_header, encode_part_set_with_progress,
     encode_stl, write_part_set_with_progress, write_parts, write_parts_with_progress, write_stl,
     write_stl_digest,
 };
 pub use summary::{
-    MeltCheck, MeltFinding, PartMass, ScheduleContent, ToolingSummary, melt_check,
+    MeltCheck, MeltFinding, PartMass, ScheduleContent, ToolingSummary, drain_plan, melt_check,
     schedule_content, summarise,
 };
 pub use surface::{ChainEnds, EndKind, FnSurface, SpanSurface, contour_polygon, polygon_area};

@@ -20,8 +20,14 @@
 //!   `solidus ≤ injection` or `solidus ≤ gel` (it melts before the resin gels), or
 //!   `liquidus ≥ cure` (it never melts out); a missing temperature or melting range leaves its
 //!   comparison not checked.
+//! - **Draining** (common practice for fusible cores: the alloy leaves through the core prints
+//!   with the mould stood on the end they point out of): which way up to stand the mould, and
+//!   per print whether the core's end surface lies anywhere below the print's entrance (alloy
+//!   that pools there instead of running out, flagged beyond 1 mm or the chordal tolerance); a core
+//!   without a print is flagged, as its alloy cannot leave the shell.
 
 use super::blade_parts::{BladeTooling, PartKind};
+use super::error::End;
 use crate::blade::Blade;
 use crate::input::Project;
 use crate::material::{Isotropic, Material};
@@ -155,6 +161,68 @@ pub struct ToolingSummary {
     pub core_alloy: Option<f64>,
     /// The melting check.
     pub melt: MeltCheck,
+    /// How to stand the mould so the alloy drains, one sentence per end that has prints.
+    pub drain_orientation: Vec<String>,
+    /// Per print (and per core without one) whether its alloy drains, in core order.
+    pub drain_findings: Vec<MeltFinding>,
+}
+
+/// Which way to stand the mould so the cores drain, and whether each one does (see the module
+/// docs); `tolerance` is the chordal tolerance, m.
+pub fn drain_plan(tooling: &BladeTooling, tolerance: f64) -> (Vec<String>, Vec<MeltFinding>) {
+    let mut orientation = Vec::new();
+    for (end, other) in [(End::Root, End::Tip), (End::Tip, End::Root)] {
+        let cores: Vec<&str> =
+            tooling.prints.iter().filter(|p| p.end == end).map(|p| p.core.as_str()).collect();
+        if cores.is_empty() {
+            continue;
+        }
+        let first = if orientation.is_empty() { "Stand" } else { "Then turn it over and stand" };
+        orientation.push(format!(
+            "{first} the mould on its {end} end, the pitch axis vertical ({end} down, {other} \
+             up): the prints of {} point down and the alloy runs out through their ports.",
+            cores.join(", ")
+        ));
+    }
+    let mut findings: Vec<MeltFinding> = tooling
+        .prints
+        .iter()
+        .map(|p| {
+            let mm = p.pool_depth * 1e3;
+            // A film of a millimetre at the edge is left in any case (common practice).
+            if p.pool_depth <= tolerance.max(1e-3) {
+                MeltFinding {
+                    passed: Some(true),
+                    text: format!(
+                        "{}: drains through its {} print: its end surface lies at most {mm:.2} mm \
+                         below the print's entrance (a film, within 1 mm)",
+                        p.core, p.end
+                    ),
+                }
+            } else {
+                MeltFinding {
+                    passed: Some(false),
+                    text: format!(
+                        "{}: ALLOY POOLS UP TO {mm:.1} mm DEEP: with the mould upright its {} end \
+                         surface lies up to {mm:.1} mm below the print's entrance; tilt the \
+                         mould towards the lowest corner of that end while it drains, and check \
+                         the shell's mass after the melt-out",
+                        p.core, p.end
+                    ),
+                }
+            }
+        })
+        .collect();
+    for core in &tooling.unprinted {
+        findings.push(MeltFinding {
+            passed: Some(false),
+            text: format!(
+                "{core}: NO PRINT: bulkheads close both of its ends, so its alloy cannot leave the \
+                 shell; run one of its webs to an end of the blade"
+            ),
+        });
+    }
+    (orientation, findings)
 }
 
 /// Masses and the melting check of `tooling` for `project`'s blade.
@@ -221,5 +289,13 @@ pub fn summarise(project: &Project, blade: &Blade, tooling: &BladeTooling) -> To
             .sum()
     });
     let temps = [spec.injection_temperature_c, spec.gel_temperature_c, spec.cure_temperature_c];
-    ToolingSummary { masses, schedule, core_alloy, melt: melt_check(alloy.as_ref(), temps) }
+    let (drain_orientation, drain_findings) = drain_plan(tooling, tooling.params.tolerance);
+    ToolingSummary {
+        masses,
+        schedule,
+        core_alloy,
+        melt: melt_check(alloy.as_ref(), temps),
+        drain_orientation,
+        drain_findings,
+    }
 }

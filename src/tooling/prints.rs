@@ -1,0 +1,604 @@
+//! Core prints and drain ports.
+//!
+//! A core that reaches an end of the blade (the root when it does, else the tip) is carried on
+//! through that end into a **print**: a prism along the pitch axis whose section is the core's
+//! end section shrunk towards its middle, which stands out beyond the shell's outer surface by
+//! the print length and seats the core in the mould. The shell gets the matching **port**, the
+//! same section through the end laminate; the alloy drains through it when the core melts in
+//! the cure. A core closed at both ends by bulkheads has no print (its cell reaches no end).
+//!
+//! - **Section.** In the chord frame of the core's end (the cell's contour at the mean radius of
+//!   the end contour) every vertical line meets the contour in one interval `[lo, hi]` (the
+//!   chains are graphs over the chord, the closures straight). The section is that contour
+//!   scaled by the print fraction `f` about an anchor, chordwise and, at each chordwise place,
+//!   in relative depth `τ = (z − lo)/(hi − lo)`: `y' = y_a + f (y − y_a)`, `τ' = τ_a + f (τ − τ_a)`.
+//!   The anchor is the end contour's lowest point in the drain orientation, moved a quarter of
+//!   the least core thickness inside, so the print's entrance takes in the low corner of a
+//!   domed end. The section lies strictly inside the contour for `f < 1`, point for point, so
+//!   the print never breaks through the core's sides.
+//! - **Caps with holes.** The core's end cap (holed by the print), and the shell's outer end cap
+//!   (holed by every port at that end), are constrained Delaunay triangulations of the end
+//!   contour and the holes projected on the section plane `(y, z)` (the `spade` crate), refined
+//!   so that no facet is larger than an equilateral triangle whose side keeps the sag within
+//!   the tolerance (`√(8 R tol)` on a sphere), then lifted along the pitch axis onto the trim
+//!   surface. The boundary edges are kept as they are, so the caps share their edges with the
+//!   lofted sides and with the print's and the port's walls.
+//! - **Print and port.** The print's wall runs along the pitch axis from the core's end surface
+//!   to the plane of its outer end, `print length` beyond the nearest point of the port on the
+//!   shell's outer end surface; its end face is the section, ear-clipped. The port's wall is the
+//!   same prism between the shell's outer end surface and the core's.
+//! - **Draining.** The mould stands with the pitch axis vertical, the print's end down; the
+//!   print's end face is then the lowest of the core and its middle the drain point. The core's
+//!   end surface (the floor over which the alloy runs to the print) is checked against the
+//!   print's entrance: on a root sphere the floor is a dome, its rim lower than its middle
+//!   (which is why the section is anchored at the lowest corner), and the depth by which the
+//!   floor's lowest point lies below the entrance's lowest point is alloy that cannot drain
+//!   with the mould upright (`pool_depth`, reported, flagged beyond 1 mm).
+
+use std::collections::HashMap;
+
+use spade::Triangulation;
+use spade::{AngleLimit, ConstrainedDelaunayTriangulation, Point2, RefinementParameters};
+
+use super::error::{End, MeshError};
+use super::loft::LoftedSolid;
+use super::mesh::Mesh;
+use super::orient::{compact, orient_outward};
+use super::polygon::triangulate_polygon;
+use super::surface::SpanSurface;
+use super::surface::polygon_area;
+use super::trim::EndTrim;
+use super::vec3::{self, P3};
+
+/// A core's print and the shell's port it passes through.
+#[derive(Debug, Clone, PartialEq)]
+pub struct CorePrint {
+    /// The core's name (`core-1`, ...).
+    pub core: String,
+    /// The end of the blade it leaves through.
+    pub end: End,
+    /// The print's section in the section plane `(y, z)` of the rotor frame, m.
+    pub section: Vec<[f64; 2]>,
+    /// Area of the section, m².
+    pub section_area: f64,
+    /// The plane `x = x_end` of the print's outer end, m.
+    pub x_end: f64,
+    /// How far the print stands out beyond the shell's outer end surface, at the port's
+    /// nearest point, m.
+    pub length: f64,
+    /// Volume of the print beyond the core's own end surface (nominal), m³.
+    pub volume: f64,
+    /// The drain point: the middle of the print's outer end face, rotor frame, m.
+    pub drain_point: P3,
+    /// Down, rotor frame, when the mould stands to drain this core (a unit vector along the
+    /// pitch axis, towards the print's end).
+    pub down: P3,
+    /// How far the lowest point of the core's end surface lies below the lowest point of the
+    /// print's entrance in that orientation (alloy that cannot run into the print), m.
+    pub pool_depth: f64,
+}
+
+/// What [`print_core`] gives: the core with its print, its print, and the core's body open at
+/// the print's end for the shell (the body less its end cap, the end surface holed by the
+/// print, and the entrance loop).
+pub(crate) struct PrintedCore {
+    pub mesh: Mesh,
+    pub print: CorePrint,
+    pub piece: Mesh,
+    pub entrance: Vec<u32>,
+}
+
+/// The point of `trim` over `q = (y, z)`, along the pitch axis.
+fn lift_x(trim: EndTrim, q: [f64; 2]) -> Result<P3, MeshError> {
+    match trim {
+        EndTrim::Plane { x } => Ok([x, q[0], q[1]]),
+        EndTrim::Sphere { radius } => {
+            let h = radius * radius - q[0] * q[0] - q[1] * q[1];
+            if h > 0.0 {
+                Ok([h.sqrt(), q[0], q[1]])
+            } else {
+                Err(MeshError::Geometry(format!(
+                    "a print's section reaches ({:.6}, {:.6}) m, beyond the end sphere of radius \
+                     {radius:.6} m",
+                    q[0], q[1]
+                )))
+            }
+        }
+    }
+}
+
+/// The extent `[lo, hi]` of the closed polygon `poly` on the vertical line at `t`.
+fn interval_at(poly: &[[f64; 2]], t: f64) -> Option<(f64, f64)> {
+    let n = poly.len();
+    let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
+    for i in 0..n {
+        let (a, b) = (poly[i], poly[(i + 1) % n]);
+        let (y0, y1) = (a[0].min(b[0]), a[0].max(b[0]));
+        if t < y0 || t > y1 {
+            continue;
+        }
+        if y1 - y0 <= 1e-15 {
+            lo = lo.min(a[1].min(b[1]));
+            hi = hi.max(a[1].max(b[1]));
+        } else {
+            let s = (t - a[0]) / (b[0] - a[0]);
+            let z = a[1] + s * (b[1] - a[1]);
+            lo = lo.min(z);
+            hi = hi.max(z);
+        }
+    }
+    (lo <= hi).then_some((lo, hi))
+}
+
+/// The print's section (chord frame) for the end `contour` (a chord-frame polygon that every
+/// vertical line meets in one interval): the contour scaled by `fraction` about the `anchor`,
+/// chordwise and, at each chordwise place, in relative depth (see the module docs); the anchor
+/// is first moved `inset` inside the contour. `n` intervals a side.
+pub(crate) fn print_section(
+    contour: &[[f64; 2]],
+    anchor: [f64; 2],
+    fraction: f64,
+    inset: f64,
+    n: usize,
+) -> Result<Vec<[f64; 2]>, MeshError> {
+    let small = || MeshError::Geometry("a core's end is too small for a print".into());
+    let (y0, y1) = contour
+        .iter()
+        .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), p| (a.min(p[0]), b.max(p[0])));
+    let room = y1 - y0 - 2.0 * inset;
+    if room.is_nan() || room <= 0.0 {
+        return Err(small());
+    }
+    let ya = anchor[0].clamp(y0 + inset, y1 - inset);
+    let (lo, hi) = interval_at(contour, ya).ok_or_else(small)?;
+    if (hi - lo).is_nan() || hi - lo <= 0.0 {
+        return Err(small());
+    }
+    let delta = (inset / (hi - lo)).min(0.25);
+    let ta = ((anchor[1] - lo) / (hi - lo)).clamp(delta, 1.0 - delta);
+    let (ys, ye) = (ya + fraction * (y0 - ya), ya + fraction * (y1 - ya));
+    let mut upper = Vec::with_capacity(n + 1);
+    let mut lower = Vec::with_capacity(n + 1);
+    for k in 0..=n {
+        let y = ys + (ye - ys) * k as f64 / n as f64;
+        let (lo, hi) = interval_at(contour, y).ok_or_else(small)?;
+        upper.push([y, lo + (hi - lo) * (ta + fraction * (1.0 - ta))]);
+        lower.push([y, lo + (hi - lo) * ta * (1.0 - fraction)]);
+    }
+    lower.reverse();
+    upper.extend(lower);
+    let area = polygon_area(&upper).abs();
+    if area.is_nan() || area <= 0.0 {
+        return Err(small());
+    }
+    Ok(upper)
+}
+
+/// Whether `p` lies inside the closed polygon `poly` (even-odd rule).
+fn inside(poly: &[[f64; 2]], p: [f64; 2]) -> bool {
+    let n = poly.len();
+    let mut c = false;
+    for i in 0..n {
+        let (a, b) = (poly[i], poly[(i + n - 1) % n]);
+        if (a[1] > p[1]) != (b[1] > p[1])
+            && p[0] < (b[0] - a[0]) * (p[1] - a[1]) / (b[1] - a[1]) + a[0]
+        {
+            c = !c;
+        }
+    }
+    c
+}
+
+/// Caps the end contour `ring` (vertices of `mesh` on `trim`) with `holes` (loops of vertices
+/// on `trim`) left open (see the module docs); facets no larger than an equilateral triangle of
+/// side `h`. Returns the vertices of the cap.
+pub(crate) fn cap_with_holes(
+    mesh: &mut Mesh,
+    ring: &[u32],
+    holes: &[Vec<u32>],
+    trim: EndTrim,
+    h: f64,
+) -> Result<Vec<u32>, MeshError> {
+    let fail = |what: &str| MeshError::Geometry(format!("an end cap round a print: {what}"));
+    let mut cdt = ConstrainedDelaunayTriangulation::<Point2<f64>>::new();
+    let mut ids: HashMap<usize, u32> = HashMap::new();
+    let loops: Vec<&[u32]> =
+        std::iter::once(ring).chain(holes.iter().map(|l| l.as_slice())).collect();
+    let mut polys: Vec<Vec<[f64; 2]>> = Vec::with_capacity(loops.len());
+    let mut handles = Vec::with_capacity(loops.len());
+    for lp in &loops {
+        let mut hs = Vec::with_capacity(lp.len());
+        let mut poly = Vec::with_capacity(lp.len());
+        for &v in lp.iter() {
+            let p = mesh.vertices[v as usize];
+            let hnd = cdt
+                .insert(Point2::new(p[1], p[2]))
+                .map_err(|e| fail(&format!("a point cannot be placed ({e:?})")))?;
+            if ids.insert(hnd.index(), v).is_some_and(|old| old != v) {
+                return Err(fail("two points of its outlines coincide in the section plane"));
+            }
+            hs.push(hnd);
+            poly.push([p[1], p[2]]);
+        }
+        handles.push(hs);
+        polys.push(poly);
+    }
+    for hs in &handles {
+        for i in 0..hs.len() {
+            let (a, b) = (hs[i], hs[(i + 1) % hs.len()]);
+            if a == b || !cdt.can_add_constraint(a, b) {
+                return Err(fail("its outlines cross in the section plane"));
+            }
+            cdt.add_constraint(a, b);
+        }
+    }
+    let mut params = RefinementParameters::<f64>::new()
+        .exclude_outer_faces(true)
+        .keep_constraint_edges()
+        .with_angle_limit(AngleLimit::from_deg(20.0))
+        .with_max_additional_vertices(40 * cdt.num_vertices() + 1000);
+    if h.is_finite() {
+        params = params.with_max_allowed_area(0.433 * h * h);
+    }
+    cdt.refine(params);
+    let mut tris: Vec<[u32; 3]> = Vec::new();
+    for face in cdt.inner_faces() {
+        let vs = face.vertices();
+        let pts = vs.map(|v| {
+            let p = v.position();
+            [p.x, p.y]
+        });
+        let mid =
+            [(pts[0][0] + pts[1][0] + pts[2][0]) / 3.0, (pts[0][1] + pts[1][1] + pts[2][1]) / 3.0];
+        if !inside(&polys[0], mid) || polys[1..].iter().any(|p| inside(p, mid)) {
+            continue;
+        }
+        let mut tri = [0u32; 3];
+        for (k, v) in vs.iter().enumerate() {
+            let key = v.fix().index();
+            tri[k] = match ids.get(&key) {
+                Some(&id) => id,
+                None => {
+                    let id = mesh.push_vertex(lift_x(trim, pts[k])?);
+                    ids.insert(key, id);
+                    id
+                }
+            };
+        }
+        tris.push(tri);
+    }
+    unslither(mesh, &mut tris);
+    let mut used: Vec<u32> = tris.iter().flatten().copied().collect();
+    used.sort_unstable();
+    used.dedup();
+    mesh.triangles.extend(tris);
+    Ok(used)
+}
+
+/// Removes the facets whose middle corner lies on the line of the other two (three points of a
+/// straight closure that round-off leaves a hair apart): with a neighbour across the long edge,
+/// the two become two facets across the other diagonal; without one (the sliver lies outside
+/// the outline, which its middle dents by a hair) it is dropped.
+fn unslither(mesh: &Mesh, tris: &mut Vec<[u32; 3]>) {
+    let mut drop = Vec::new();
+    let p = |v: u32| mesh.vertices[v as usize];
+    for i in 0..tris.len() {
+        let t = tris[i];
+        let [a, b, c] = t.map(p);
+        let longest = vec3::dist(a, b).max(vec3::dist(b, c)).max(vec3::dist(c, a));
+        if vec3::norm(vec3::area_vector(a, b, c)) > 1e-9 * longest * longest {
+            continue;
+        }
+        // The long edge (u, w) and the corner on it (m).
+        let k = (0..3)
+            .max_by(|&i, &j| {
+                let len = |k: usize| vec3::dist(p(t[k]), p(t[(k + 1) % 3]));
+                len(i).total_cmp(&len(j))
+            })
+            .unwrap_or(0);
+        let (u, w, m) = (t[k], t[(k + 1) % 3], t[(k + 2) % 3]);
+        let other =
+            (0..tris.len()).find(|&j| j != i && tris[j].contains(&u) && tris[j].contains(&w));
+        match other {
+            Some(j) => {
+                let d = tris[j].iter().copied().find(|&v| v != u && v != w).unwrap_or(m);
+                tris[i] = [u, m, d];
+                tris[j] = [m, w, d];
+            }
+            None => drop.push(i),
+        }
+    }
+    for i in drop.into_iter().rev() {
+        tris.swap_remove(i);
+    }
+}
+
+/// Joins the loops `a` and `b` (same length, corresponding points) by a band of facets.
+pub(crate) fn band(mesh: &mut Mesh, a: &[u32], b: &[u32]) {
+    let n = a.len();
+    for i in 0..n {
+        let j = (i + 1) % n;
+        mesh.triangles.push([a[i], a[j], b[j]]);
+        mesh.triangles.push([a[i], b[j], b[i]]);
+    }
+}
+
+/// `solid`'s mesh without the cap at `end` (its vertices kept, so the rings stay valid).
+pub(crate) fn open_end(solid: &LoftedSolid, end: End) -> Mesh {
+    let cap = match end {
+        End::Root => solid.facets.root_cap.clone(),
+        End::Tip => solid.facets.tip_cap.clone(),
+    };
+    let mut mesh = solid.mesh.clone();
+    mesh.triangles = solid
+        .mesh
+        .triangles
+        .iter()
+        .enumerate()
+        .filter(|(i, _)| !cap.contains(i))
+        .map(|(_, t)| *t)
+        .collect();
+    mesh
+}
+
+/// The print's settings and the surfaces it passes.
+pub(crate) struct PrintSetting {
+    /// The section's fraction of the end section (linear).
+    pub fraction: f64,
+    /// Length beyond the shell's outer end surface, m.
+    pub length: f64,
+    /// The core's trim at the print's end.
+    pub core_trim: EndTrim,
+    /// The outer mould line's trim at that end.
+    pub outer_trim: EndTrim,
+    /// Largest facet side on the end caps, m.
+    pub max_side: f64,
+    /// Least gap between the print's section and the end contour, m.
+    pub inset: f64,
+}
+
+/// Intervals along each side of a print's section.
+const PRINT_INTERVALS: usize = 64;
+
+/// The core `solid` (named `name`, chord angle `phi` at its end) with a print at `end`.
+pub(crate) fn print_core(
+    name: &str,
+    solid: &LoftedSolid,
+    end: End,
+    cell: &dyn SpanSurface,
+    set: &PrintSetting,
+) -> Result<PrintedCore, MeshError> {
+    let ring = match end {
+        End::Root => &solid.root_ring,
+        End::Tip => &solid.tip_ring,
+    };
+    let (sign, down) = match end {
+        End::Root => (-1.0, [-1.0, 0.0, 0.0]),
+        End::Tip => (1.0, [1.0, 0.0, 0.0]),
+    };
+    let pts: Vec<P3> = ring.iter().map(|&v| solid.mesh.vertices[v as usize]).collect();
+    let x_c = pts.iter().map(|p| p[0]).sum::<f64>() / pts.len().max(1) as f64;
+    // The end contour at the mean radius of the end, chord frame: the upper chain front to
+    // back, the lower back to front (the closures are the edges between them).
+    let m = 240;
+    let mut contour: Vec<[f64; 2]> =
+        (0..=m).map(|i| cell.upper(x_c, i as f64 / m as f64)).collect();
+    contour.extend((0..=m).rev().map(|i| cell.lower(x_c, i as f64 / m as f64)));
+    // Anchored at the lowest point of the end in the drain orientation.
+    let lowest = pts
+        .iter()
+        .copied()
+        .max_by(|a, b| (sign * a[0]).total_cmp(&(sign * b[0])))
+        .ok_or_else(|| MeshError::Geometry("a core's end has no contour".into()))?;
+    let (s, c) = cell.chord_angle(x_c).rad().sin_cos();
+    let anchor = [lowest[1] * c + lowest[2] * s, -lowest[1] * s + lowest[2] * c];
+    let section: Vec<[f64; 2]> =
+        print_section(&contour, anchor, set.fraction, set.inset, PRINT_INTERVALS)?
+            .into_iter()
+            .map(|q| [q[0] * c - q[1] * s, q[0] * s + q[1] * c])
+            .collect();
+    let mut piece = open_end(solid, end);
+    let mut entrance = Vec::with_capacity(section.len());
+    for &q in &section {
+        entrance.push(piece.push_vertex(lift_x(set.core_trim, q)?));
+    }
+    let floor = cap_with_holes(
+        &mut piece,
+        ring,
+        std::slice::from_ref(&entrance),
+        set.core_trim,
+        set.max_side,
+    )?;
+    // The port's points on the outer end surface, for the length.
+    let outer: Vec<P3> =
+        section.iter().map(|&q| lift_x(set.outer_trim, q)).collect::<Result<_, _>>()?;
+    // The outermost point of the port along the print's direction, then the length beyond it.
+    let reach = outer.iter().map(|p| sign * p[0]).fold(f64::NEG_INFINITY, f64::max);
+    let x_end = sign * (reach + set.length);
+    let mut mesh = piece.clone();
+    let outlet: Vec<u32> = section.iter().map(|q| mesh.push_vertex([x_end, q[0], q[1]])).collect();
+    band(&mut mesh, &entrance, &outlet);
+    for t in triangulate_polygon(&section)? {
+        mesh.triangles.push(t.map(|i| outlet[i]));
+    }
+    orient_outward(&mut mesh);
+    compact(&mut mesh);
+    let area = polygon_area(&section).abs();
+    let n = section.len() as f64;
+    let centre = section.iter().fold([0.0, 0.0], |a, q| [a[0] + q[0] / n, a[1] + q[1] / n]);
+    let height = |p: P3| -vec3::dot(down, p);
+    let entrance_low =
+        entrance.iter().map(|&v| height(piece.vertices[v as usize])).fold(f64::INFINITY, f64::min);
+    let floor_low =
+        floor.iter().map(|&v| height(piece.vertices[v as usize])).fold(f64::INFINITY, f64::min);
+    let volume = mesh.signed_volume() - solid.mesh.signed_volume();
+    let print = CorePrint {
+        core: name.to_string(),
+        end,
+        section_area: area,
+        x_end,
+        length: set.length,
+        volume,
+        drain_point: [x_end, centre[0], centre[1]],
+        down,
+        pool_depth: (entrance_low - floor_low).max(0.0),
+        section,
+    };
+    Ok(PrintedCore { mesh, print, piece, entrance })
+}
+
+/// The shell: the outer solid `outer` with every core as a cavity, the printed cores' cavities
+/// opened to the outside through their ports (see the module docs).
+pub(crate) fn shell_with_ports(
+    outer: &LoftedSolid,
+    printed: &[&PrintedCore],
+    sealed: &[&Mesh],
+    trims: [EndTrim; 2],
+    max_side: f64,
+) -> Result<Mesh, MeshError> {
+    let mut shell = outer.mesh.clone();
+    let has = |end: End| printed.iter().any(|p| p.print.end == end);
+    let (root_cap, tip_cap) = (outer.facets.root_cap.clone(), outer.facets.tip_cap.clone());
+    let (cut_root, cut_tip) = (has(End::Root), has(End::Tip));
+    // The caps at the ported ends are dropped (their vertices stay until compacted).
+    shell.triangles = outer
+        .mesh
+        .triangles
+        .iter()
+        .enumerate()
+        .filter(|(i, _)| !(cut_root && root_cap.contains(i) || cut_tip && tip_cap.contains(i)))
+        .map(|(_, t)| *t)
+        .collect();
+    for (end, trim) in [(End::Root, trims[0]), (End::Tip, trims[1])] {
+        let here: Vec<&&PrintedCore> = printed.iter().filter(|p| p.print.end == end).collect();
+        if here.is_empty() {
+            continue;
+        }
+        let ring = match end {
+            End::Root => &outer.root_ring,
+            End::Tip => &outer.tip_ring,
+        };
+        let mut ports = Vec::with_capacity(here.len());
+        for p in &here {
+            let mut port = Vec::with_capacity(p.print.section.len());
+            for &q in &p.print.section {
+                port.push(shell.push_vertex(lift_x(trim, q)?));
+            }
+            ports.push(port);
+        }
+        cap_with_holes(&mut shell, ring, &ports, trim, max_side)?;
+        for (p, port) in here.iter().zip(&ports) {
+            let offset = shell.vertices.len() as u32;
+            shell.merge(&p.piece);
+            let entrance: Vec<u32> = p.entrance.iter().map(|&v| v + offset).collect();
+            band(&mut shell, port, &entrance);
+        }
+    }
+    orient_outward(&mut shell);
+    compact(&mut shell);
+    for core in sealed {
+        let mut cavity = (*core).clone();
+        cavity.flip();
+        shell.merge(&cavity);
+    }
+    Ok(shell)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_rectangular_end_gives_the_rectangle_scaled_by_the_fraction() {
+        // A 40 × 10 mm rectangle anchored at its middle: the section is the rectangle scaled by
+        // f about its middle in both directions, area f² w h (geometry).
+        let outline = [[-0.02, 0.005], [0.02, 0.005], [0.02, -0.005], [-0.02, -0.005]];
+        for f in [0.3, 0.5, 0.8] {
+            let section = print_section(&outline, [0.0, 0.0], f, 0.5e-3, 8).unwrap();
+            let area = polygon_area(&section).abs();
+            assert!((area / (f * f * 0.04 * 0.01) - 1.0).abs() < 1e-9, "{f}: {area}");
+        }
+        // Anchored at a corner, the section keeps the fraction's area and stays the inset
+        // scaled by 1 − f from that corner's sides.
+        let (f, inset) = (0.5, 0.5e-3);
+        let section = print_section(&outline, [0.02, -0.005], f, inset, 8).unwrap();
+        let area = polygon_area(&section).abs();
+        assert!((area / (f * f * 0.04 * 0.01) - 1.0).abs() < 1e-9, "{area}");
+        let right = section.iter().map(|q| q[0]).fold(f64::NEG_INFINITY, f64::max);
+        let bottom = section.iter().map(|q| q[1]).fold(f64::INFINITY, f64::min);
+        assert!((0.02 - right - (1.0 - f) * inset).abs() < 1e-12, "{right}");
+        let delta = inset / 0.01;
+        assert!((bottom + 0.005 - 0.01 * delta * (1.0 - f)).abs() < 1e-12, "{bottom}");
+    }
+
+    #[test]
+    fn an_elliptic_end_gives_the_closed_form_area() {
+        // Ellipse of semi-axes a (chord) and b (depth) anchored at its middle: the section keeps
+        // y' = f y and half the depth f b √(1 − y'²/a²), so its area is 2 f b ∫ √(1 − y²/a²) dy
+        // over |y| ≤ f a = 2 f a b (f √(1 − f²) + asin f) (elementary integral); the polygon's
+        // area converges on it as the points multiply.
+        let (a, b) = (0.03, 0.006);
+        let n = 4000;
+        let outline: Vec<[f64; 2]> = (0..n)
+            .map(|i| {
+                let t = std::f64::consts::TAU * i as f64 / n as f64;
+                [-a * t.cos(), b * t.sin()]
+            })
+            .collect();
+        for f in [0.4, 0.6] {
+            let section = print_section(&outline, [0.0, 0.0], f, 0.5e-3, 2000).unwrap();
+            let area = polygon_area(&section).abs();
+            let exact = 2.0 * f * a * b * (f * (1.0 - f * f).sqrt() + f.asin());
+            assert!((area / exact - 1.0).abs() < 1e-4, "{f}: {area} vs {exact}");
+        }
+    }
+
+    #[test]
+    fn a_holed_cap_on_a_sphere_is_within_the_tolerance_and_on_the_sphere_at_its_edges() {
+        // A square ring on the sphere of radius 0.2 m with a square hole: every cap vertex lies
+        // on the sphere, and the cap's area is the ring's less the hole's, projected, to within
+        // the sag (the cap is a graph over the section plane).
+        let r = 0.2;
+        let trim = EndTrim::Sphere { radius: r };
+        let square = |h: f64, n: usize| -> Vec<[f64; 2]> {
+            let mut v = Vec::new();
+            for i in 0..n {
+                v.push([-h + 2.0 * h * i as f64 / n as f64, -h]);
+            }
+            for i in 0..n {
+                v.push([h, -h + 2.0 * h * i as f64 / n as f64]);
+            }
+            for i in 0..n {
+                v.push([h - 2.0 * h * i as f64 / n as f64, h]);
+            }
+            for i in 0..n {
+                v.push([-h, h - 2.0 * h * i as f64 / n as f64]);
+            }
+            v
+        };
+        let mut mesh = Mesh::new();
+        let ring: Vec<u32> =
+            square(0.03, 12).iter().map(|&q| mesh.push_vertex(lift_x(trim, q).unwrap())).collect();
+        let hole: Vec<u32> =
+            square(0.01, 4).iter().map(|&q| mesh.push_vertex(lift_x(trim, q).unwrap())).collect();
+        let h = trim.chord_for_sag(0.05e-3);
+        cap_with_holes(&mut mesh, &ring, &[hole], trim, h).unwrap();
+        for p in &mesh.vertices {
+            assert!((vec3::norm(*p) / r - 1.0).abs() < 1e-12);
+        }
+        let projected: f64 = (0..mesh.len())
+            .map(|t| {
+                let [a, b, c] = mesh.corners(t);
+                0.5 * vec3::area_vector(a, b, c)[0].abs()
+            })
+            .sum();
+        let exact = 0.06 * 0.06 - 0.02 * 0.02;
+        assert!((projected / exact - 1.0).abs() < 1e-9, "{projected} vs {exact}");
+        // Every facet edge within the sag's chord (the refinement's area bound).
+        for t in 0..mesh.len() {
+            let [a, b, c] = mesh.corners(t);
+            let longest = vec3::dist(a, b).max(vec3::dist(b, c)).max(vec3::dist(c, a));
+            assert!(longest < 2.5 * h, "{longest} vs {h}");
+        }
+    }
+}
