@@ -68,7 +68,12 @@ fn build(project: &Path, tol: f64) -> BladeTooling {
     let project = read_project(project).expect("the project reads");
     let blade = Blade::from_project(&project).expect("the blade lofts");
     let spec = project.tooling.as_ref().expect("[tooling]");
-    let params = ToolingParams { tolerance: tol, ..ToolingParams::from_spec(spec).unwrap() };
+    // Prints are off by default (the mould has no seats for them yet): asked for here.
+    let params = ToolingParams {
+        tolerance: tol,
+        print_fraction: 0.5,
+        ..ToolingParams::from_spec(spec).unwrap()
+    };
     build_tooling(&blade, &params, &mut |_, _, _| {}).expect("the tooling builds")
 }
 
@@ -177,7 +182,13 @@ fn one_web_demo_prints_seat_in_the_ports_at_the_root_and_drain_at_their_ends() {
     let (orientation, findings) = drain_plan(&t, t.params.tolerance);
     assert_eq!(orientation.len(), 1, "{orientation:?}");
     assert!(orientation[0].contains("root end") && orientation[0].contains("core-1, core-2"));
-    assert_eq!(findings.len(), 2);
+    // One drain finding per print, and one warning per print that its seat in the mould is
+    // still to be cut by hand (the mould parts are not pocketed for prints).
+    let (seats, drains): (Vec<_>, Vec<_>) =
+        findings.iter().partition(|f| f.text.contains("NO SEAT IN THE MOULD"));
+    assert_eq!(drains.len(), 2);
+    assert_eq!(seats.len(), 2);
+    assert!(seats.iter().all(|f| f.passed == Some(false)));
     // The cores with their prints are the parts written.
     for p in &t.prints {
         let core = t.parts.iter().find(|x| x.name == p.core).unwrap();
@@ -237,6 +248,7 @@ fn planar_ends_take_prints_and_ports_as_closed_outward_parts() {
     let params = ToolingParams {
         tolerance: 0.5e-3,
         ends: layloft::tooling::EndShape::Planes,
+        print_fraction: 0.5,
         ..ToolingParams::from_spec(spec).unwrap()
     };
     let t = build_tooling(&blade, &params, &mut |_, _, _| {}).expect("the tooling builds");
@@ -263,7 +275,11 @@ fn ports_take_the_end_laminate_out_of_the_shell_and_prints_add_to_the_cores() {
     let project = read_project(&root.join("layups/mine-fan/blade.toml")).unwrap();
     let blade = Blade::from_project(&project).unwrap();
     let spec = project.tooling.as_ref().unwrap();
-    let on = ToolingParams { tolerance: 0.5e-3, ..ToolingParams::from_spec(spec).unwrap() };
+    let on = ToolingParams {
+        tolerance: 0.5e-3,
+        print_fraction: 0.5,
+        ..ToolingParams::from_spec(spec).unwrap()
+    };
     let off = ToolingParams { print_fraction: 0.0, ..on.clone() };
     let a = build_tooling(&blade, &off, &mut |_, _, _| {}).unwrap();
     let b = build_tooling(&blade, &on, &mut |_, _, _| {}).unwrap();

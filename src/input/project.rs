@@ -355,7 +355,7 @@ impl Default for ToolingSpec {
             core_shrink_factor: 1.0,
             min_draft: Angle::from_deg(1.0),
             min_core_thickness: 2.0e-3,
-            core_print_fraction: 0.5,
+            core_print_fraction: 0.0,
             core_print_length: 0.015,
         }
     }

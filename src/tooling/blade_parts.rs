@@ -97,7 +97,8 @@ impl Default for ToolingParams {
             min_draft: Angle::from_deg(1.0),
             unit: LengthUnit::Millimetre,
             ends: EndShape::Spheres,
-            print_fraction: 0.5,
+            // Off until the mould parts carry seats for the prints (see docs/decisions.md).
+            print_fraction: 0.0,
             print_length: 0.015,
         }
     }

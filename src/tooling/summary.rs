@@ -213,6 +213,27 @@ pub fn drain_plan(tooling: &BladeTooling, tolerance: f64) -> (Vec<String>, Vec<M
             }
         })
         .collect();
+    // The mould parts are not yet pocketed for the prints: each print stands into the end
+    // piece (or the halves, with planar ends) and the shop must cut its seat by hand.
+    for p in &tooling.prints {
+        let n = p.section.len().max(1) as f64;
+        let c = p.section.iter().fold([0.0, 0.0], |a, q| [a[0] + q[0] / n, a[1] + q[1] / n]);
+        findings.push(MeltFinding {
+            passed: Some(false),
+            text: format!(
+                "{}: NO SEAT IN THE MOULD YET: the mould parts are not pocketed for this print; \
+                 before closing the mould, pocket the {} end of the mould by the print's section \
+                 ({:.1} cm²) on the pitch-axis line through y = {:.1} mm, z = {:.1} mm (rotor \
+                 frame) to x = {:.1} mm, with a drain channel from it out of the mould",
+                p.core,
+                p.end,
+                p.section_area * 1e4,
+                c[0] * 1e3,
+                c[1] * 1e3,
+                p.x_end * 1e3
+            ),
+        });
+    }
     for core in &tooling.unprinted {
         findings.push(MeltFinding {
             passed: Some(false),
