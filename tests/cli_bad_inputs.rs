@@ -234,6 +234,21 @@ fn tooling_of_mixed_trailing_edges_names_the_station_line() {
 }
 
 #[test]
+fn the_report_of_a_blade_the_tooling_cannot_make_stands_without_tooling() {
+    // The round-root demo's trailing edge changes kind along the span, which the tooling cannot
+    // loft yet: the report is still written, its tooling section giving the reason and the
+    // station's line, instead of no report at all.
+    let c = Copy::of("round-root");
+    let (code, _, stderr) = c.run("report", &["--out", "rep"]);
+    assert_eq!(code, Some(0), "{stderr}");
+    assert!(stderr.contains("no tooling was made"), "{stderr}");
+    let html = fs::read_to_string(c.path("rep/report.html")).unwrap();
+    assert!(html.contains("no tooling was made"), "the reason is in the report");
+    assert!(html.contains("stations.csv line 6"), "with the station's line");
+    assert!(!c.path("rep/meshes").exists(), "no tooling files");
+}
+
+#[test]
 fn blade_count_beyond_any_rotor_is_refused() {
     // Issue case: 4294967295 blades made blade passing vanish from the frequency check.
     Copy::of("mine-fan").edit("blade.toml", "blades = 9", "blades = 4294967295").refused(

@@ -21,7 +21,7 @@ use super::project::{load_model, run_modal};
 use super::tooling::{build_and_write, tell};
 use super::{Failure, Outcome, Output};
 use layloft::plybook::{PlyBookParams, build_ply_book, plybook_files};
-use layloft::report::{plybook_block, plybook_links};
+use layloft::report::{ReportBlock, plybook_block, plybook_links};
 use layloft::tooling::{StlFormat, StlOptions, ToolingParams};
 
 const EXAMPLES: &str = "\
@@ -82,6 +82,52 @@ fn ensure_dir(dir: &Path) -> Result<(), Failure> {
 
 fn json_text(v: &Value) -> Result<String, Failure> {
     serde_json::to_string_pretty(v).map_err(|e| Failure::Run(anyhow!("cannot format JSON: {e}")))
+}
+
+/// The tooling built, checked and written to `dest.meshes`, with its block for the report; the
+/// files it wrote are added to `files`.
+fn tooling_block(
+    model: &BladeModel,
+    dest: &Destination,
+    out: &Output,
+    files: &mut Vec<(String, String)>,
+) -> Result<ReportBlock, Failure> {
+    let p = &model.project;
+    ensure_dir(&dest.meshes)?;
+    let spec = p.tooling.clone().unwrap_or_default();
+    let params = ToolingParams::from_spec(&spec)
+        .map_err(|e| Failure::Input(anyhow!("{}: {}", p.file, layloft::Error::from(e))))?;
+    let stl = StlOptions { unit: params.unit, format: StlFormat::Binary };
+    let tooling = build_and_write(p, &model.blade, &params, &stl, &dest.meshes, out)?;
+    tell(&tooling, out);
+    let tooling_report = tooling.report(&p.name);
+    let mut block = tooling_report.to_block();
+    block.figures.push((
+        "tooling-exploded".into(),
+        "The mould parts drawn apart along their pull directions (blade dashed, pulls as arrows)"
+            .into(),
+        tooling_report.exploded_svg(),
+    ));
+    for w in &tooling.written {
+        let name = w.path.file_name().map(|f| f.to_string_lossy().into_owned()).unwrap_or_default();
+        files.push((relative(&dest.out, &w.path), format!("tooling part {name} (STL)")));
+    }
+    files.push((
+        relative(&dest.out, &dest.meshes.join("tooling-summary.json")),
+        "the tooling summary (JSON)".into(),
+    ));
+    files.push((
+        relative(&dest.out, &dest.meshes.join("tooling-exploded.svg")),
+        "the mould parts drawn apart along their pulls (SVG)".into(),
+    ));
+    files.push((
+        relative(&dest.out, &dest.meshes.join("tooling-manifest.json")),
+        "the list of the tooling files with their SHA-256 checksums (JSON)".into(),
+    ));
+    if p.tooling.is_none() {
+        block.notes.push("The project has no [tooling] table: the stated defaults apply (mm, 0.1 mm tolerance, 30 mm block margin) and the core-alloy mass is not computed.".into());
+    }
+    Ok(block)
 }
 
 /// Runs every stage on `model` and writes the report; returns the design check.
@@ -197,41 +243,22 @@ pub fn write_report(
             SectionDrawing { r: st.layout.r, svg: section_svg_screen(&p.name, &model.blade, st) }
         })
         .collect();
-    // Tooling: every part built and checked, then written beside the report.
-    ensure_dir(&dest.meshes)?;
-    let spec = p.tooling.clone().unwrap_or_default();
-    let params = ToolingParams::from_spec(&spec)
-        .map_err(|e| Failure::Input(anyhow!("{}: {}", p.file, layloft::Error::from(e))))?;
-    let stl = StlOptions { unit: params.unit, format: StlFormat::Binary };
-    let tooling = build_and_write(p, &model.blade, &params, &stl, &dest.meshes, out)?;
-    tell(&tooling, out);
-    let tooling_report = tooling.report(&p.name);
-    let mut block = tooling_report.to_block();
-    block.figures.push((
-        "tooling-exploded".into(),
-        "The mould parts drawn apart along their pull directions (blade dashed, pulls as arrows)"
-            .into(),
-        tooling_report.exploded_svg(),
-    ));
-    for w in &tooling.written {
-        let name = w.path.file_name().map(|f| f.to_string_lossy().into_owned()).unwrap_or_default();
-        files.push((relative(&dest.out, &w.path), format!("tooling part {name} (STL)")));
-    }
-    files.push((
-        relative(&dest.out, &dest.meshes.join("tooling-summary.json")),
-        "the tooling summary (JSON)".into(),
-    ));
-    files.push((
-        relative(&dest.out, &dest.meshes.join("tooling-exploded.svg")),
-        "the mould parts drawn apart along their pulls (SVG)".into(),
-    ));
-    files.push((
-        relative(&dest.out, &dest.meshes.join("tooling-manifest.json")),
-        "the list of the tooling files with their SHA-256 checksums (JSON)".into(),
-    ));
-    if p.tooling.is_none() {
-        block.notes.push("The project has no [tooling] table: the stated defaults apply (mm, 0.1 mm tolerance, 30 mm block margin) and the core-alloy mass is not computed.".into());
-    }
+    // Tooling: every part built and checked, then written beside the report. A blade the
+    // tooling cannot make yet (a trailing edge that changes kind along the span) gets the reason
+    // in the tooling section and as a warning; the rest of the report stands.
+    let block = match layloft::tooling::trailing_edge_kind(&model.blade) {
+        Ok(_) => tooling_block(model, dest, out, &mut files)?,
+        Err(e) => {
+            let r = match &e {
+                layloft::tooling::MeshError::StationShape { r, .. } => *r,
+                _ => model.blade.root_radius(),
+            };
+            let place = layloft::analysis::place_at_station(p, r, e.into());
+            let text = format!("no tooling was made: {place}");
+            out.warn(&text);
+            ReportBlock { warnings: vec![text], ..ReportBlock::default() }
+        }
+    };
 
     // The ply book: its files in a folder of the report's set.
     let book = build_ply_book(&model.blade, p, &PlyBookParams::default())

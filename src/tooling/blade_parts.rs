@@ -294,6 +294,39 @@ struct Bulkhead {
     thickness: f64,
 }
 
+/// The one kind of trailing edge the blade has at every station: a closing segment (blunt) or
+/// a point (sharp). A blade whose trailing edge changes kind along the span (a closed round root
+/// blending into blunt sections) cannot be lofted yet: [`MeshError::StationShape`] at the first
+/// station whose kind differs from the root's. A caller may ask this before building, to go on
+/// without tooling.
+pub fn trailing_edge_kind(blade: &Blade) -> Result<EndKind, MeshError> {
+    let blunt = blade.surfaces().blunt_trailing_edges();
+    if blunt.iter().all(|&b| b) {
+        Ok(EndKind::Segment)
+    } else if blunt.iter().all(|&b| !b) {
+        Ok(EndKind::Point)
+    } else {
+        let kind = |b: bool| if b { "blunt" } else { "sharp" };
+        let radii = blade.station_radii();
+        let list: Vec<String> =
+            radii.iter().zip(&blunt).map(|(r, &b)| format!("r = {r} m {}", kind(b))).collect();
+        // The first station whose kind differs from the root's is where the shape changes.
+        let at = blunt.iter().position(|&b| b != blunt[0]).unwrap_or(0);
+        Err(MeshError::StationShape {
+            r: radii.get(at).copied().unwrap_or(0.0),
+            text: format!(
+                "the tooling needs one kind of trailing edge at every station, blunt (open) or \
+                 sharp (closed), and cannot yet blend one into the other along the span; the \
+                 root is {} but this station is {}: give every station the same kind of \
+                 trailing edge to make tooling (a NACA code takes `-closed` for a sharp one); found {}",
+                kind(blunt[0]),
+                kind(!blunt[0]),
+                list.join(", ")
+            ),
+        })
+    }
+}
+
 /// Builds the tooling of `blade` (see the module docs). `progress(done, total, stage)` is called
 /// as each part is lofted.
 ///
@@ -328,31 +361,7 @@ pub fn build_tooling(
     params.validate()?;
     let surfaces = blade.surfaces();
     let rotor = blade.rotor();
-    let blunt = surfaces.blunt_trailing_edges();
-    let back = if blunt.iter().all(|&b| b) {
-        EndKind::Segment
-    } else if blunt.iter().all(|&b| !b) {
-        EndKind::Point
-    } else {
-        let kind = |b: bool| if b { "blunt" } else { "sharp" };
-        let radii = blade.station_radii();
-        let list: Vec<String> =
-            radii.iter().zip(&blunt).map(|(r, &b)| format!("r = {r} m {}", kind(b))).collect();
-        // The first station whose kind differs from the root's is where the shape changes.
-        let at = blunt.iter().position(|&b| b != blunt[0]).unwrap_or(0);
-        return Err(MeshError::StationShape {
-            r: radii.get(at).copied().unwrap_or(0.0),
-            text: format!(
-                "the tooling needs one kind of trailing edge at every station, blunt (open) or \
-                 sharp (closed), and cannot yet blend one into the other along the span; the \
-                 root is {} but this station is {}: give every station the same kind of \
-                 trailing edge to make tooling (a NACA code takes `-closed` for a sharp one); found {}",
-                kind(blunt[0]),
-                kind(!blunt[0]),
-                list.join(", ")
-            ),
-        });
-    };
+    let back = trailing_edge_kind(blade)?;
     let (r0, r1) = (blade.root_radius(), blade.tip_radius());
     let root_sphere = rotor.hub_radius + rotor.root_clearance;
     let tip_sphere = rotor.tip_radius - rotor.tip_clearance;
