@@ -43,8 +43,24 @@ impl CubicSpline {
 
     /// The value at `t`, extrapolating linearly beyond the ends.
     pub(crate) fn eval(&self, t: f64) -> f64 {
+        self.eval_on(self.segment(t), t)
+    }
+
+    /// The first derivative at `t`, held at its end value beyond the ends.
+    pub(crate) fn derivative(&self, t: f64) -> f64 {
+        self.derivative_on(self.segment(t), t)
+    }
+
+    /// The segment `[x_{i-1}, x_i]` that `eval` and `derivative` use at `t`, as its index `i`:
+    /// found once, it serves every spline on the same knots (the two coordinates of a curve).
+    pub(crate) fn segment(&self, t: f64) -> usize {
         let n = self.x.len();
-        let i = self.x.partition_point(|&v| v <= t).clamp(1, n - 1);
+        self.x.partition_point(|&v| v <= t).clamp(1, n - 1)
+    }
+
+    /// [`CubicSpline::eval`] on segment `i` (from [`CubicSpline::segment`] of a spline with the
+    /// same knots).
+    pub(crate) fn eval_on(&self, i: usize, t: f64) -> f64 {
         let (x0, x1) = (self.x[i - 1], self.x[i]);
         let h = x1 - x0;
         let a = (x1 - t) / h;
@@ -54,10 +70,8 @@ impl CubicSpline {
             + ((a * a * a - a) * self.m[i - 1] + (b * b * b - b) * self.m[i]) * h * h / 6.0
     }
 
-    /// The first derivative at `t`, held at its end value beyond the ends.
-    pub(crate) fn derivative(&self, t: f64) -> f64 {
-        let n = self.x.len();
-        let i = self.x.partition_point(|&v| v <= t).clamp(1, n - 1);
+    /// [`CubicSpline::derivative`] on segment `i` (see [`CubicSpline::eval_on`]).
+    pub(crate) fn derivative_on(&self, i: usize, t: f64) -> f64 {
         let (x0, x1) = (self.x[i - 1], self.x[i]);
         let h = x1 - x0;
         let a = ((x1 - t) / h).clamp(0.0, 1.0);

@@ -22,6 +22,23 @@ fn demo(name: &str) -> Project {
 
 /// The generated blade in `dir` (see the module docs).
 fn generated(dir: &Path) -> Project {
+    generated_with(
+        dir,
+        "ply,material,angle_deg,r_start_m,r_end_m,region,from,to\n\
+         outer,carbon-twill,45,0.40,0.90,both,0.00,1.00\n\
+         skin,glass-biax,0,0.40,0.90,both,0.00,1.00\n\
+         cap,carbon-ud,0,0.40,0.85,both,0.15,0.45\n\
+         ramp-core,pvc-foam,0,0.50,0.80,upper,0.45,0.80\n\
+         over-ramp,glass-biax,45,0.40,0.90,upper,0.00,1.00\n\
+         lower-30,carbon-twill,30,0.40,0.90,lower,0.00,1.00\n\
+         web-face-1,glass-biax,45,0.40,0.90,web:main,,\n\
+         web-core,pvc-foam,0,0.40,0.90,web:main,,\n\
+         web-face-2,glass-biax,45,0.40,0.90,web:main,,\n",
+    )
+}
+
+/// The generated blade's outline in `dir` with the schedule `plies` (a `plies.csv`).
+fn generated_with(dir: &Path, plies: &str) -> Project {
     let src = Path::new("layups/mine-fan");
     for f in ["blade.toml", "materials.toml", "tip-section.dat"] {
         std::fs::copy(src.join(f), dir.join(f)).expect("copy");
@@ -53,20 +70,7 @@ fn generated(dir: &Path) -> Project {
         }
     }
     std::fs::write(dir.join("stations.csv"), out).expect("stations");
-    std::fs::write(
-        dir.join("plies.csv"),
-        "ply,material,angle_deg,r_start_m,r_end_m,region,from,to\n\
-         outer,carbon-twill,45,0.40,0.90,both,0.00,1.00\n\
-         skin,glass-biax,0,0.40,0.90,both,0.00,1.00\n\
-         cap,carbon-ud,0,0.40,0.85,both,0.15,0.45\n\
-         ramp-core,pvc-foam,0,0.50,0.80,upper,0.45,0.80\n\
-         over-ramp,glass-biax,45,0.40,0.90,upper,0.00,1.00\n\
-         lower-30,carbon-twill,30,0.40,0.90,lower,0.00,1.00\n\
-         web-face-1,glass-biax,45,0.40,0.90,web:main,,\n\
-         web-core,pvc-foam,0,0.40,0.90,web:main,,\n\
-         web-face-2,glass-biax,45,0.40,0.90,web:main,,\n",
-    )
-    .expect("plies");
+    std::fs::write(dir.join("plies.csv"), plies).expect("plies");
     read_project(&dir.join("blade.toml")).expect("generated project")
 }
 
@@ -271,4 +275,119 @@ fn the_kit_weighs_what_the_sections_weigh() {
         );
         assert!(rel.abs() < 5e-3, "{name}: plies {plies} kg, sections {laminate} kg ({rel:e})");
     }
+}
+
+/// The splice lines of a book, from its patterns alone: each piece's lower edge inside its ply's
+/// region (the root-side edge at a radius, the leading-edge-side edge at a chord fraction), with
+/// the ply, the surface and the range the line runs over.
+struct Line {
+    ply: String,
+    order: usize,
+    surface: String,
+    across_span: bool,
+    at: f64,
+    extent: [f64; 2],
+}
+
+fn splice_lines(blade: &Blade, book: &PlyBook) -> Vec<Line> {
+    let mut out = Vec::new();
+    for e in &book.patterns {
+        let ply = blade.ply(e.order - 1).expect("ply");
+        let chord = e.chord_range.unwrap_or([0.0, 1.0]);
+        let from = if e.chord_range.is_some() { ply.from } else { 0.0 };
+        let root = ply.r_start.max(blade.root_radius());
+        if e.r_range[0] > root + 1e-9 {
+            out.push(Line {
+                ply: e.ply.clone(),
+                order: e.order,
+                surface: e.surface.clone(),
+                across_span: true,
+                at: e.r_range[0],
+                extent: chord,
+            });
+        }
+        if chord[0] > from + 1e-9 {
+            out.push(Line {
+                ply: e.ply.clone(),
+                order: e.order,
+                surface: e.surface.clone(),
+                across_span: false,
+                at: chord[0],
+                extent: e.r_range,
+            });
+        }
+    }
+    out
+}
+
+#[test]
+fn the_splices_of_successive_plies_on_a_skin_are_staggered() {
+    // Four plies of cloth over the whole skin of the generated blade, each at an angle that
+    // will not drape whole, so that each is cut and all at the same middle if nothing moved
+    // them: two both skins, one the upper skin, one the lower. Their parallel splices on one
+    // skin must lie at least the stagger apart (25 mm, common practice), measured on the
+    // surface: a radius difference for cuts across the span, the least chord of the overlap
+    // times the chord-fraction difference for cuts along it (no longer than the surface's
+    // arc between them).
+    let dir = tempfile::tempdir().expect("tempdir");
+    let project = generated_with(
+        dir.path(),
+        "ply,material,angle_deg,r_start_m,r_end_m,region,from,to\n\
+         outer,carbon-twill,45,0.40,0.90,both,0.00,1.00\n\
+         second,carbon-twill,-45,0.40,0.90,both,0.00,1.00\n\
+         third,glass-biax,45,0.40,0.90,upper,0.00,1.00\n\
+         fourth,carbon-twill,30,0.40,0.90,lower,0.00,1.00\n\
+         web-face,glass-biax,45,0.40,0.90,web:main,,\n",
+    );
+    let blade = Blade::from_project(&project).expect("blade");
+    let params = PlyBookParams::default();
+    assert_eq!(params.stagger, 0.025);
+    let book = book(&project, &blade);
+    check_complete(&project, &blade, &book);
+    let lines = splice_lines(&blade, &book);
+    for w in &book.warnings {
+        assert!(!w.contains("could not be kept"), "{w}");
+    }
+    let mut pairs = 0;
+    for (k, a) in lines.iter().enumerate() {
+        for b in &lines[k + 1..] {
+            if a.ply == b.ply || a.surface != b.surface || a.across_span != b.across_span {
+                continue;
+            }
+            let overlap = [a.extent[0].max(b.extent[0]), a.extent[1].min(b.extent[1])];
+            if overlap[1] - overlap[0] <= 1e-9 {
+                continue;
+            }
+            let distance = if a.across_span {
+                (a.at - b.at).abs()
+            } else {
+                let least = (0..=50)
+                    .map(|i| blade.chord(overlap[0] + (overlap[1] - overlap[0]) * i as f64 / 50.0))
+                    .fold(f64::INFINITY, f64::min);
+                least * (a.at - b.at).abs()
+            };
+            pairs += 1;
+            eprintln!(
+                "{} {} (ply {}) and {} (ply {}) at {:.4} and {:.4}: {:.1} mm",
+                a.surface,
+                a.ply,
+                a.order,
+                b.ply,
+                b.order,
+                a.at,
+                b.at,
+                distance * 1e3
+            );
+            assert!(
+                distance >= 0.025 - 1e-9,
+                "{}: splices of '{}' and '{}' {:.1} mm apart",
+                a.surface,
+                a.ply,
+                b.ply,
+                distance * 1e3
+            );
+        }
+    }
+    // Not vacuous: plies were cut along parallel lines on a shared skin.
+    assert!(pairs >= 2, "only {pairs} pairs of parallel splices on one skin");
 }

@@ -35,7 +35,7 @@ mod layout;
 mod loft;
 mod mass;
 mod surface;
-pub(crate) use surface::smooth_step;
+pub(crate) use surface::{AtRadius, smooth_step};
 
 pub use coverage::Surface;
 pub use surface::{BladeSurfaces, CORE_EDGE_TAPER, PLY_DROP_TAPER};

@@ -79,10 +79,15 @@ impl StationCurve {
         }
     }
 
-    /// Point (chord fractions) and its derivative in `u`.
+    /// Point (chord fractions) and its derivative in `u`. The two coordinates share their knots,
+    /// so the segment is found once for all four values.
     fn point(&self, surface: Surface, u: f64) -> ([f64; 2], [f64; 2]) {
         let (s, ds) = self.arc(surface, u);
-        ([self.x.eval(s), self.y.eval(s)], [self.x.derivative(s) * ds, self.y.derivative(s) * ds])
+        let i = self.x.segment(s);
+        (
+            [self.x.eval_on(i, s), self.y.eval_on(i, s)],
+            [self.x.derivative_on(i, s) * ds, self.y.derivative_on(i, s) * ds],
+        )
     }
 }
 
@@ -177,6 +182,18 @@ impl SmoothPly {
     }
 }
 
+/// The quantities of one radius shared by every point of the surfaces there (see
+/// [`BladeSurfaces::at_radius`]).
+#[derive(Debug, Clone, Copy)]
+pub(crate) struct AtRadius {
+    /// Radius, m.
+    pub(crate) r: f64,
+    bracket: (usize, usize, f64),
+    /// Chord, m.
+    pub(crate) chord: f64,
+    pitch_axis: f64,
+}
+
 /// The blade's outer mould line and inner laminate surface, continuous in radius and chordwise
 /// parameter (see the module docs).
 #[derive(Debug, Clone)]
@@ -224,9 +241,30 @@ impl BladeSurfaces<'_> {
         (i - 1, i, ((r - a) / (b - a)).clamp(0.0, 1.0))
     }
 
+    /// What a point at radius `r` needs that does not depend on the chordwise parameter: the
+    /// stations blended and the chord and pitch axis there. Worked out once, it serves every
+    /// point of that radius (see [`BladeSurfaces::outer_with_normal_at`]).
+    pub(crate) fn at_radius(&self, r: f64) -> AtRadius {
+        AtRadius {
+            r,
+            bracket: self.bracket(r),
+            chord: self.blade.chord(r),
+            pitch_axis: self.blade.pitch_axis_frac(r),
+        }
+    }
+
     /// The outer point in chord fractions and its derivative in `u`.
     fn outer_fractions(&self, r: f64, surface: Surface, u: f64) -> ([f64; 2], [f64; 2]) {
-        let (i, j, w) = self.bracket(r);
+        self.outer_fractions_in(self.bracket(r), surface, u)
+    }
+
+    /// [`BladeSurfaces::outer_fractions`] between the stations `(i, j)` blended by `w`.
+    fn outer_fractions_in(
+        &self,
+        (i, j, w): (usize, usize, f64),
+        surface: Surface,
+        u: f64,
+    ) -> ([f64; 2], [f64; 2]) {
         let (pa, da) = self.curves[i].point(surface, u);
         if w == 0.0 {
             return (pa, da);
@@ -245,7 +283,18 @@ impl BladeSurfaces<'_> {
 
     /// The outer point, its outward unit normal in the section plane and its chord fraction.
     pub fn outer_with_normal(&self, r: f64, surface: Surface, u: f64) -> ([f64; 2], [f64; 2], f64) {
-        let (p, d) = self.outer_fractions(r, surface, u);
+        self.outer_with_normal_at(&self.at_radius(r), surface, u)
+    }
+
+    /// [`BladeSurfaces::outer_with_normal`] at the radius of `at` (the same numbers, without
+    /// working out the radius's quantities again).
+    pub(crate) fn outer_with_normal_at(
+        &self,
+        at: &AtRadius,
+        surface: Surface,
+        u: f64,
+    ) -> ([f64; 2], [f64; 2], f64) {
+        let (p, d) = self.outer_fractions_in(at.bracket, surface, u);
         let len = d[0].hypot(d[1]);
         // The contour runs clockwise (upper surface towards the trailing edge, lower surface
         // back): the outward normal is the tangent turned a quarter turn to the left on the
@@ -258,7 +307,8 @@ impl BladeSurfaces<'_> {
         } else {
             [-1.0, 0.0]
         };
-        (self.to_chord_frame(r, p), n, p[0])
+        let c = at.chord;
+        ([(p[0] - at.pitch_axis) * c, p[1] * c], n, p[0])
     }
 
     /// A point of the inner laminate surface: the outer point moved inward along its normal by

@@ -22,11 +22,24 @@ pub struct PlyBookParams {
     pub gap: f64,
     /// Largest net spacing on a skin as a fraction of the least chord the ply covers.
     pub chord_spacing: f64,
+    /// Least distance between a splice of a ply cut in pieces and a parallel splice of a ply
+    /// laid before it on the same skin or web, m (see [`SPLICE_STAGGER`]).
+    pub stagger: f64,
 }
+
+/// Butt splices of successive plies are staggered by at least 25 mm (common practice), so that
+/// no two plies of a laminate are cut along one line.
+pub const SPLICE_STAGGER: f64 = 0.025;
 
 impl Default for PlyBookParams {
     fn default() -> Self {
-        PlyBookParams { links: 60, min_spacing: 0.002, gap: 0.01, chord_spacing: 0.08 }
+        PlyBookParams {
+            links: 60,
+            min_spacing: 0.002,
+            gap: 0.01,
+            chord_spacing: 0.08,
+            stagger: SPLICE_STAGGER,
+        }
     }
 }
 
@@ -503,43 +516,153 @@ fn attempt(
     Ok(flat)
 }
 
-/// The two halves of a region: across the span at its middle radius where the region is at least
-/// as long as it is wide on the surface (always on a web), else across the chord at the middle
-/// chord fraction.
+/// A splice line of a ply cut in pieces: across the span at a radius (over a range of chord
+/// fractions, or of heights on a web), or along the span at a chord fraction (over a range of
+/// radii).
+#[derive(Debug, Clone)]
+struct Splice {
+    /// Index of the ply in the schedule.
+    ply: usize,
+    /// The skin or web (`upper`, `lower`, `web:NAME`).
+    surface: String,
+    /// Across the span (at a radius) rather than along it (at a chord fraction).
+    across_span: bool,
+    /// The radius (m) or the chord fraction of the line.
+    at: f64,
+    /// The chord fractions (heights) or radii the line runs over.
+    extent: [f64; 2],
+}
+
+/// The splices between the pieces of a region (each the lower edge of a piece inside the
+/// region).
+fn splices_of(span: [f64; 2], chord: [f64; 2], pieces: &[(PlyRegion, FlatPattern)]) -> Vec<Splice> {
+    let mut out = Vec::new();
+    for (piece, _) in pieces {
+        if piece.span[0] > span[0] + 1e-9 {
+            out.push(Splice {
+                ply: piece.ply,
+                surface: piece.surface_name.clone(),
+                across_span: true,
+                at: piece.span[0],
+                extent: piece.chord,
+            });
+        }
+        if piece.chord[0] > chord[0] + 1e-9 {
+            out.push(Splice {
+                ply: piece.ply,
+                surface: piece.surface_name.clone(),
+                across_span: false,
+                at: piece.chord[0],
+                extent: piece.span,
+            });
+        }
+    }
+    out
+}
+
+/// Where to cut `[lo, hi]` in two: the middle, or where the middle lies within `clear` of a
+/// splice of an earlier ply (`lines`: the ply and the line's place), the nearest place that
+/// keeps `clear` from them all while each half keeps at least a quarter of the range. When no
+/// place is clear of them all, the splices of the earliest plies are given up first, the
+/// latest ply's kept as long as any; the plies whose splices could not be kept clear are
+/// returned with the place.
+fn stagger_cut(lo: f64, hi: f64, clear: f64, lines: &[(usize, f64)]) -> (f64, Vec<usize>) {
+    let mid = 0.5 * (lo + hi);
+    let window = [lo + 0.25 * (hi - lo), hi - 0.25 * (hi - lo)];
+    let mut plies: Vec<usize> = lines.iter().map(|l| l.0).collect();
+    plies.sort_unstable();
+    plies.dedup();
+    // The latest plies first; `keep` of them respected.
+    plies.reverse();
+    for keep in (1..=plies.len()).rev() {
+        let kept = &plies[..keep];
+        let near: Vec<f64> = lines.iter().filter(|l| kept.contains(&l.0)).map(|l| l.1).collect();
+        let clear_of = |c: f64| near.iter().all(|&a| (c - a).abs() >= clear * (1.0 - 1e-9));
+        let mut best: Option<f64> = None;
+        let candidates =
+            std::iter::once(mid).chain(near.iter().flat_map(|&a| [a - clear, a + clear]));
+        for c in candidates {
+            if c < window[0] || c > window[1] || !clear_of(c) {
+                continue;
+            }
+            if best.is_none_or(|b| (c - mid).abs() < (b - mid).abs()) {
+                best = Some(c);
+            }
+        }
+        if let Some(c) = best {
+            return (c, plies[keep..].to_vec());
+        }
+    }
+    (mid, plies)
+}
+
+/// The two halves of a region: across the span where the region is at least as long as it is
+/// wide on the surface (always on a web), else across the chord; at the middle, or off it to
+/// keep [`PlyBookParams::stagger`] from the parallel splices of earlier plies on the same skin
+/// or web (see [`stagger_cut`]; on a skin a chordwise distance is taken at the least chord of
+/// the region's span, less than the distance on the surface). Also the earlier plies whose
+/// splices the cut could not keep clear of.
 fn halves<'a>(
     blade: &'a Blade,
     region: &PlyRegion<'a>,
     params: &PlyBookParams,
-) -> [PlyRegion<'a>; 2] {
+    earlier: &[Splice],
+) -> ([PlyRegion<'a>; 2], Vec<usize>) {
     let (a, c) = (region.span, region.chord);
     let mid = 0.5 * (a[0] + a[1]);
     let k = region.ply;
-    match region.at {
-        At::Web(w) => [
-            web_region(blade, k, w, [a[0], mid], params),
-            web_region(blade, k, w, [mid, a[1]], params),
-        ],
-        At::Skin(side) => {
-            if a[1] - a[0] >= blade.chord(mid) * (c[1] - c[0]) {
-                [
-                    skin_region(blade, k, side, [a[0], mid], c, params),
-                    skin_region(blade, k, side, [mid, a[1]], c, params),
-                ]
-            } else {
-                let m = 0.5 * (c[0] + c[1]);
-                [
-                    skin_region(blade, k, side, a, [c[0], m], params),
-                    skin_region(blade, k, side, a, [m, c[1]], params),
-                ]
-            }
-        }
+    let across_span = match region.at {
+        At::Web(_) => true,
+        At::Skin(_) => a[1] - a[0] >= blade.chord(mid) * (c[1] - c[0]),
+    };
+    let overlaps = |e: [f64; 2], f: [f64; 2]| e[1].min(f[1]) - e[0].max(f[0]) > 1e-9;
+    let lines: Vec<(usize, f64)> = earlier
+        .iter()
+        .filter(|s| s.surface == region.surface_name && s.across_span == across_span)
+        .filter(|s| overlaps(s.extent, if across_span { c } else { a }))
+        .map(|s| (s.ply, s.at))
+        .collect();
+    if across_span {
+        let (m, missed) = stagger_cut(a[0], a[1], params.stagger, &lines);
+        let pair = match region.at {
+            At::Web(w) => [
+                web_region(blade, k, w, [a[0], m], params),
+                web_region(blade, k, w, [m, a[1]], params),
+            ],
+            At::Skin(side) => [
+                skin_region(blade, k, side, [a[0], m], c, params),
+                skin_region(blade, k, side, [m, a[1]], c, params),
+            ],
+        };
+        return (pair, missed);
     }
+    let least_chord = (0..=16)
+        .map(|i| blade.chord(a[0] + (a[1] - a[0]) * i as f64 / 16.0))
+        .fold(f64::INFINITY, f64::min);
+    let (m, missed) = stagger_cut(c[0], c[1], params.stagger / least_chord, &lines);
+    let side = match region.at {
+        At::Skin(side) => side,
+        At::Web(_) => Surface::Upper,
+    };
+    (
+        [
+            skin_region(blade, k, side, a, [c[0], m], params),
+            skin_region(blade, k, side, a, [m, c[1]], params),
+        ],
+        missed,
+    )
 }
 
+/// The pieces of a region, each with its flat pattern.
+type Pieces<'a> = Vec<(PlyRegion<'a>, FlatPattern)>;
+
 /// A region draped whole, or, where it cannot be draped in one piece (the net does not reach
-/// it, folds over itself, loses area or ends short of it), split in halves (see [`halves`]) and
-/// each half draped the same way, at most [`MAX_SPLITS`] times deep. When no split drapes whole
-/// the region's own result stands (a pattern cut short, with its warning, or the failure).
+/// it, folds over itself, loses area or ends short of it), split in halves (see [`halves`],
+/// which staggers the cut from the `earlier` plies' splices) and each half draped the same way,
+/// at most [`MAX_SPLITS`] times deep. When no split drapes whole the region's own result stands
+/// (a pattern cut short, with its warning, or the failure). With the pieces, the earlier plies
+/// a cut could not be staggered from.
+#[allow(clippy::too_many_arguments)]
 fn drape_pieces<'a>(
     blade: &'a Blade,
     region: PlyRegion<'a>,
@@ -547,20 +670,27 @@ fn drape_pieces<'a>(
     p: &PlySpec,
     name: &str,
     params: &PlyBookParams,
+    earlier: &[Splice],
     depth: usize,
-) -> Result<Vec<(PlyRegion<'a>, FlatPattern)>, PlyBookError> {
+) -> Result<(Pieces<'a>, Vec<usize>), PlyBookError> {
     let whole = attempt(&region, file, p, name);
     if matches!(&whole, Ok(f) if f.cut_short.is_empty()) || depth >= MAX_SPLITS {
-        return whole.map(|f| vec![(region, f)]);
+        return whole.map(|f| (vec![(region, f)], Vec::new()));
     }
     let mut pieces = Vec::new();
-    for half in halves(blade, &region, params) {
-        match drape_pieces(blade, half, file, p, name, params, depth + 1) {
-            Ok(v) if v.iter().all(|(_, f)| f.cut_short.is_empty()) => pieces.extend(v),
-            _ => return whole.map(|f| vec![(region, f)]),
+    let (pair, mut missed) = halves(blade, &region, params, earlier);
+    for half in pair {
+        match drape_pieces(blade, half, file, p, name, params, earlier, depth + 1) {
+            Ok((v, m)) if v.iter().all(|(_, f)| f.cut_short.is_empty()) => {
+                pieces.extend(v);
+                missed.extend(m);
+            }
+            _ => return whole.map(|f| (vec![(region, f)], Vec::new())),
         }
     }
-    Ok(pieces)
+    missed.sort_unstable();
+    missed.dedup();
+    Ok((pieces, missed))
 }
 
 /// Builds the ply book of a blade: every ply region draped and flattened (in pieces where one
@@ -575,6 +705,7 @@ pub fn build_ply_book(
     let mut warnings = Vec::new();
     let mut failed = Vec::new();
     let mut splices = Vec::new();
+    let mut splice_lines: Vec<Splice> = Vec::new();
     for region in regions {
         let Some(p) = blade.ply(region.ply) else { continue };
         let Some(mat) = blade.ply_material(region.ply) else { continue };
@@ -589,16 +720,33 @@ pub fn build_ply_book(
             file_safe(&p.id),
             file_safe(region.surface_name.trim_start_matches("web:"))
         );
-        let pieces = match drape_pieces(blade, region, &project.files.plies, p, &name, params, 0) {
-            Ok(v) => v,
-            Err(e) => {
-                failed.push(e);
-                continue;
-            }
-        };
+        let whole = (region.span, region.chord, region.surface_name.clone());
+        let file = &project.files.plies;
+        let (pieces, missed) =
+            match drape_pieces(blade, region, file, p, &name, params, &splice_lines, 0) {
+                Ok(v) => v,
+                Err(e) => {
+                    failed.push(e);
+                    continue;
+                }
+            };
         let count = pieces.len();
         if count > 1 {
-            splices.push(splice_note(p, &name, &pieces));
+            splices.push(splice_note(p, &name, &pieces, params.stagger));
+            splice_lines.extend(splices_of(whole.0, whole.1, &pieces));
+        }
+        if !missed.is_empty() {
+            let ids: Vec<String> = missed
+                .iter()
+                .filter_map(|&k| blade.ply(k).map(|q| format!("'{}'", q.id)))
+                .collect();
+            warnings.push(format!(
+                "ply '{}' ({name}): a splice could not be kept {:.0} mm from the splices of ply {} on the same {} (the region is too small to move it): stagger them by hand or cut the ply elsewhere",
+                p.id,
+                params.stagger * 1e3,
+                ids.join(", "),
+                if whole.2.starts_with("web") { "web" } else { "skin" }
+            ));
         }
         for (n, (region, flat)) in pieces.into_iter().enumerate() {
             let name = if count > 1 { piece_name(&name, n) } else { name.clone() };
@@ -663,7 +811,12 @@ fn piece_name(name: &str, n: usize) -> String {
 }
 
 /// The note on a ply region cut in pieces: each piece with its range, and how they join.
-fn splice_note(p: &PlySpec, name: &str, pieces: &[(PlyRegion, FlatPattern)]) -> String {
+fn splice_note(
+    p: &PlySpec,
+    name: &str,
+    pieces: &[(PlyRegion, FlatPattern)],
+    stagger: f64,
+) -> String {
     let list: Vec<String> = pieces
         .iter()
         .enumerate()
@@ -676,10 +829,11 @@ fn splice_note(p: &PlySpec, name: &str, pieces: &[(PlyRegion, FlatPattern)]) -> 
         })
         .collect();
     format!(
-        "ply '{}' ({name}) will not drape in one piece and is cut in {} pieces that do: {}; butt the pieces edge to edge along the splice lines (no overlap, so the kit's mass is the ply's) and stagger the splices of neighbouring plies (common practice)",
+        "ply '{}' ({name}) will not drape in one piece and is cut in {} pieces that do: {}; butt the pieces edge to edge along the splice lines (no overlap, so the kit's mass is the ply's) ; the cuts are placed at least {:.0} mm from the parallel splices of the plies laid before on the same surface (common practice)",
         p.id,
         pieces.len(),
-        list.join("; ")
+        list.join("; "),
+        stagger * 1e3
     )
 }
 

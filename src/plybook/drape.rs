@@ -149,9 +149,10 @@ impl DrapedNet {
 /// link).
 pub(crate) fn frame(s: &dyn DrapeSurface, p: [f64; 2]) -> ([f64; 3], [f64; 3], [[f64; 3]; 2]) {
     let h = s.step();
+    // The points of one radius first (a surface may share the work of a radius between them).
     let x = s.point(p);
-    let sa = scale(sub(s.point([p[0] + h[0], p[1]]), s.point([p[0] - h[0], p[1]])), 0.5 / h[0]);
     let sb = scale(sub(s.point([p[0], p[1] + h[1]]), s.point([p[0], p[1] - h[1]])), 0.5 / h[1]);
+    let sa = scale(sub(s.point([p[0] + h[0], p[1]]), s.point([p[0] - h[0], p[1]])), 0.5 / h[0]);
     (x, unit(cross(sa, sb)), [sa, sb])
 }
 

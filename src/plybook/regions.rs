@@ -3,9 +3,10 @@
 //! ply on the web's plane between the inner skins.
 
 use super::drape::DrapeSurface;
-use crate::blade::{Blade, BladeSurfaces, PLY_DROP_TAPER, Surface, smooth_step};
+use crate::blade::{AtRadius, Blade, BladeSurfaces, PLY_DROP_TAPER, Surface, smooth_step};
 use crate::input::Region;
 use crate::interp::CubicSpline;
+use std::cell::RefCell;
 
 /// A ply laid before the one draped, with its edges ramped as the blade's inner surface ramps
 /// them (1:20 over the ply's thickness for a fibre ply, edges at the trailing edge, at a
@@ -20,21 +21,32 @@ struct Beneath {
 }
 
 impl Beneath {
-    fn factor(&self, r: f64, x: f64, chord: f64) -> f64 {
+    /// The fraction of the ply present at radius `r` by its span ramps: `None` where the ply is
+    /// absent (off an end that is not ramped).
+    fn span_factor(&self, r: f64) -> Option<f64> {
         let h = (0.5 * PLY_DROP_TAPER * self.thickness).min(0.25 * (self.span[1] - self.span[0]));
         let mut f = 1.0;
         if self.span_edge[0] {
             f *= smooth_step((r - self.span[0]) / h);
         } else if r < self.span[0] - 1e-9 {
-            return 0.0;
+            return None;
         }
         if self.span_edge[1] {
             f *= smooth_step((self.span[1] - r) / h);
         } else if r > self.span[1] + 1e-9 {
-            return 0.0;
+            return None;
         }
-        let hx = (0.5 * PLY_DROP_TAPER * self.thickness / chord)
-            .min(0.25 * (self.chord[1] - self.chord[0]));
+        Some(f)
+    }
+
+    /// Half the chordwise ramp on a section of chord `chord`, chord fractions.
+    fn chord_ramp(&self, chord: f64) -> f64 {
+        (0.5 * PLY_DROP_TAPER * self.thickness / chord).min(0.25 * (self.chord[1] - self.chord[0]))
+    }
+
+    /// The fraction of the ply present at chord fraction `x`, its span part `f` and the half
+    /// ramp `hx` given.
+    fn chord_factor(&self, mut f: f64, x: f64, hx: f64) -> f64 {
         if self.chord_edge[0] {
             f *= smooth_step((x - self.chord[0]) / hx);
         }
@@ -43,6 +55,17 @@ impl Beneath {
         }
         f
     }
+}
+
+/// What the points of a level at one radius share: the surfaces' quantities there, the rotation
+/// into the rotor frame, and each ply beneath's span factor and chordwise half ramp. The drape
+/// asks for several points at one radius in a row (the point and its chordwise differences, the
+/// Newton steps' frames), so the last radius is kept.
+#[derive(Debug, Clone)]
+struct RadiusCache {
+    at: AtRadius,
+    sin_cos: (f64, f64),
+    beneath: Vec<(Option<f64>, f64)>,
 }
 
 /// One skin's ply level as a surface. Parameters `(r, b)`: radius (m) and `b = u` on the upper
@@ -56,6 +79,7 @@ pub(crate) struct SkinLevel<'a> {
     side: Surface,
     beneath: Vec<Beneath>,
     span: [f64; 2],
+    cache: RefCell<Option<RadiusCache>>,
 }
 
 impl<'a> SkinLevel<'a> {
@@ -80,7 +104,14 @@ impl<'a> SkinLevel<'a> {
                 })
             })
             .collect();
-        SkinLevel { surfaces: blade.surfaces(), blade, side, beneath, span: [root, tip] }
+        SkinLevel {
+            surfaces: blade.surfaces(),
+            blade,
+            side,
+            beneath,
+            span: [root, tip],
+            cache: RefCell::new(None),
+        }
     }
 
     fn sign(&self) -> f64 {
@@ -90,10 +121,35 @@ impl<'a> SkinLevel<'a> {
         }
     }
 
-    /// The offset of this level below the outer mould line, m.
-    fn offset(&self, r: f64, x: f64) -> f64 {
-        let c = self.blade.chord(r);
-        self.beneath.iter().map(|p| p.thickness * p.factor(r, x, c)).sum()
+    /// Runs `f` with the quantities of radius `r` (worked out again only when `r` is not the
+    /// radius of the last call).
+    fn with_radius<T>(&self, r: f64, f: impl FnOnce(&RadiusCache) -> T) -> T {
+        let mut cache = self.cache.borrow_mut();
+        let c = match cache.take() {
+            Some(c) if c.at.r.to_bits() == r.to_bits() => c,
+            old => {
+                let at = self.surfaces.at_radius(r);
+                let phi = (self.blade.twist(r) + self.blade.rotor().pitch).rad();
+                let mut beneath = old.map(|c| c.beneath).unwrap_or_default();
+                beneath.clear();
+                beneath.extend(
+                    self.beneath.iter().map(|p| (p.span_factor(r), p.chord_ramp(at.chord))),
+                );
+                RadiusCache { at, sin_cos: phi.sin_cos(), beneath }
+            }
+        };
+        let out = f(&c);
+        *cache = Some(c);
+        out
+    }
+
+    /// The offset of this level below the outer mould line at chord fraction `x`, m.
+    fn offset(&self, c: &RadiusCache, x: f64) -> f64 {
+        self.beneath
+            .iter()
+            .zip(&c.beneath)
+            .map(|(p, &(f, hx))| p.thickness * f.map_or(0.0, |f| p.chord_factor(f, x, hx)))
+            .sum()
     }
 
     /// The point inside the blade's ends and `u ∈ [-1, 1]` (a negative `u` is round the leading
@@ -110,15 +166,19 @@ impl<'a> SkinLevel<'a> {
         } else {
             (self.side, u)
         };
-        let (p, n, x) = self.surfaces.outer_with_normal(r, side, u);
-        let t = self.offset(r, x);
-        let yz = [p[0] - t * n[0], p[1] - t * n[1]];
-        (self.blade.to_rotor_frame(r, yz, self.blade.rotor().pitch), x)
+        self.with_radius(r, |c| {
+            let (p, n, x) = self.surfaces.outer_with_normal_at(&c.at, side, u);
+            let t = self.offset(c, x);
+            let yz = [p[0] - t * n[0], p[1] - t * n[1]];
+            // As `Blade::to_rotor_frame`.
+            let (s, cs) = c.sin_cos;
+            ([r, yz[0] * cs - yz[1] * s, yz[0] * s + yz[1] * cs], x)
+        })
     }
 
     /// The chord fraction at `(r, u)`.
     pub(crate) fn chord_fraction(&self, r: f64, u: f64) -> f64 {
-        self.surfaces.outer_with_normal(r, self.side, u).2
+        self.with_radius(r, |c| self.surfaces.outer_with_normal_at(&c.at, self.side, u).2)
     }
 
     /// The parameter `b` where the chord fraction is `x` at radius `r` (bisection on `u`).
@@ -205,8 +265,14 @@ impl<'a> WebPlane<'a> {
         let n = 120;
         let radii: Vec<f64> = (0..=n).map(|i| a + (b - a) * i as f64 / n as f64).collect();
         let z_at = |side: Surface, r: f64| {
-            let level =
-                SkinLevel { surfaces: s.clone(), blade, side, beneath: Vec::new(), span: [a, b] };
+            let level = SkinLevel {
+                surfaces: s.clone(),
+                blade,
+                side,
+                beneath: Vec::new(),
+                span: [a, b],
+                cache: RefCell::new(None),
+            };
             let u = level.sign() * level.b_at(r, w.chord_frac);
             s.inner(r, side, u)[1]
         };
