@@ -25,6 +25,12 @@ const COPLANAR: f64 = 1e-12;
 /// The outcome is that of the band as stated, not an approximation of it.
 const SQUARE_BOUND: f64 = 2.000_001;
 
+/// `(x + y)² ≥ x² + y²` for `x, y ≥ 0`, with the same margin the other way: an orientation whose
+/// square is below the tolerance band squared by this bound (exactly zero included, as for the
+/// many collinear corners of a flat face) is within the band for certain, again with no square
+/// root.
+const SQUARE_FLOOR: f64 = 0.999_999;
+
 /// A triangle with what the tests reuse: corners, vertex indices, area vector, the squared
 /// product of its two edge lengths from corner 0, and the distance of corner 0 from the origin
 /// (and its square).
@@ -72,6 +78,9 @@ impl Facet {
         if det * det > tol2 * SQUARE_BOUND * (ww + self.reach2) {
             return det;
         }
+        if det * det <= tol2 * SQUARE_FLOOR * (ww + self.reach2) {
+            return 0.0;
+        }
         let band = ww.sqrt() + self.reach;
         if det * det <= COPLANAR * COPLANAR * self.uv2 * band * band { 0.0 } else { det }
     }
@@ -100,6 +109,9 @@ fn orient_2d(a: [f64; 2], b: [f64; 2], c: [f64; 2]) -> f64 {
     let bound = ac[0] * ac[0] + ac[1] * ac[1] + a[0] * a[0] + a[1] * a[1];
     if det * det > COPLANAR * COPLANAR * ab2 * SQUARE_BOUND * bound {
         return det;
+    }
+    if det * det <= COPLANAR * COPLANAR * ab2 * SQUARE_FLOOR * bound {
+        return 0.0;
     }
     let scale = vec3::dist_2d(a, b) * (vec3::dist_2d(a, c) + a[0].hypot(a[1]));
     if det.abs() <= COPLANAR * scale { 0.0 } else { det }
