@@ -62,7 +62,9 @@ impl Facet {
     /// The facet's axis-aligned box, `[least, greatest]`.
     pub fn bounds(&self) -> [P3; 2] {
         let [a, b, c] = self.p;
-        [[0, 1, 2].map(|k| a[k].min(b[k]).min(c[k])), [0, 1, 2].map(|k| a[k].max(b[k]).max(c[k]))]
+        let lo = |k: usize| a[k].min(b[k]).min(c[k]);
+        let hi = |k: usize| a[k].max(b[k]).max(c[k]);
+        [[lo(0), lo(1), lo(2)], [hi(0), hi(1), hi(2)]]
     }
 
     /// `orient(p0, p1, p2, q)` from the stored area vector; zero when `q` lies within
@@ -169,7 +171,7 @@ fn segments_meet_2d(p: [f64; 2], q: [f64; 2], a: [f64; 2], b: [f64; 2]) -> bool 
 
 fn inside_triangle_2d(p: [f64; 2], t: &[[f64; 2]; 3]) -> bool {
     let s = [orient_2d(t[0], t[1], p), orient_2d(t[1], t[2], p), orient_2d(t[2], t[0], p)];
-    s.iter().all(|&x| x >= 0.0) || s.iter().all(|&x| x <= 0.0)
+    (s[0] >= 0.0 && s[1] >= 0.0 && s[2] >= 0.0) || (s[0] <= 0.0 && s[1] <= 0.0 && s[2] <= 0.0)
 }
 
 fn segment_meets_triangle_2d(p: [f64; 2], q: [f64; 2], t: &[[f64; 2]; 3]) -> bool {
