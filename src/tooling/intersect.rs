@@ -133,7 +133,7 @@ fn segment_meets(p: P3, q: P3, f: &Facet, op: f64, oq: f64) -> bool {
         return false;
     }
     let axes = f.axes();
-    let t2 = f.p.map(|v| project(v, axes));
+    let t2 = [project(f.p[0], axes), project(f.p[1], axes), project(f.p[2], axes)];
     match (op == 0.0, oq == 0.0) {
         (true, true) => segment_meets_triangle_2d(project(p, axes), project(q, axes), &t2),
         (true, false) => inside_triangle_2d(project(p, axes), &t2),
@@ -145,6 +145,7 @@ fn segment_meets(p: P3, q: P3, f: &Facet, op: f64, oq: f64) -> bool {
     }
 }
 
+#[inline]
 fn project(p: P3, [i, j]: [usize; 2]) -> [f64; 2] {
     [p[i], p[j]]
 }
@@ -184,7 +185,7 @@ fn segment_meets_triangle_2d(p: [f64; 2], q: [f64; 2], t: &[[f64; 2]; 3]) -> boo
 /// (`dq[i] == 0`: one corner or one edge), tested in that plane.
 fn touches_in_plane(t: &Facet, q: &[P3; 3], dq: [f64; 3]) -> bool {
     let axes = t.axes();
-    let t2 = t.p.map(|v| project(v, axes));
+    let t2 = [project(t.p[0], axes), project(t.p[1], axes), project(t.p[2], axes)];
     let mut on = [[0.0; 2]; 3];
     let mut count = 0;
     for i in (0..3).filter(|&i| dq[i] == 0.0) {
@@ -201,11 +202,11 @@ fn touches_in_plane(t: &Facet, q: &[P3; 3], dq: [f64; 3]) -> bool {
 /// Whether two triangles with no vertex in common meet.
 fn triangles_meet(fa: &Facet, fb: &Facet) -> bool {
     let (a, b) = (&fa.p, &fb.p);
-    let da = b.map(|v| fa.side(v));
+    let da = [fa.side(b[0]), fa.side(b[1]), fa.side(b[2])];
     if (da.iter().all(|&x| x > 0.0)) || da.iter().all(|&x| x < 0.0) {
         return false;
     }
-    let db = a.map(|v| fb.side(v));
+    let db = [fb.side(a[0]), fb.side(a[1]), fb.side(a[2])];
     if (db.iter().all(|&x| x > 0.0)) || db.iter().all(|&x| x < 0.0) {
         return false;
     }
