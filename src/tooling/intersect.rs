@@ -25,6 +25,12 @@ const COPLANAR: f64 = 1e-12;
 /// The outcome is that of the band as stated, not an approximation of it.
 const SQUARE_BOUND: f64 = 2.000_001;
 
+/// `(x + y)² ≥ x² + y²` for `x, y ≥ 0`, with the same margin the other way: an orientation whose
+/// square is below the tolerance band squared by this bound (exactly zero included, as for the
+/// many collinear corners of a flat face) is within the band for certain, again with no square
+/// root.
+const SQUARE_FLOOR: f64 = 0.999_999;
+
 /// A triangle with what the tests reuse: corners, vertex indices, area vector, the squared
 /// product of its two edge lengths from corner 0, and the distance of corner 0 from the origin
 /// (and its square).
@@ -56,7 +62,9 @@ impl Facet {
     /// The facet's axis-aligned box, `[least, greatest]`.
     pub fn bounds(&self) -> [P3; 2] {
         let [a, b, c] = self.p;
-        [[0, 1, 2].map(|k| a[k].min(b[k]).min(c[k])), [0, 1, 2].map(|k| a[k].max(b[k]).max(c[k]))]
+        let lo = |k: usize| a[k].min(b[k]).min(c[k]);
+        let hi = |k: usize| a[k].max(b[k]).max(c[k]);
+        [[lo(0), lo(1), lo(2)], [hi(0), hi(1), hi(2)]]
     }
 
     /// `orient(p0, p1, p2, q)` from the stored area vector; zero when `q` lies within
@@ -71,6 +79,9 @@ impl Facet {
         let tol2 = COPLANAR * COPLANAR * self.uv2;
         if det * det > tol2 * SQUARE_BOUND * (ww + self.reach2) {
             return det;
+        }
+        if det * det <= tol2 * SQUARE_FLOOR * (ww + self.reach2) {
+            return 0.0;
         }
         let band = ww.sqrt() + self.reach;
         if det * det <= COPLANAR * COPLANAR * self.uv2 * band * band { 0.0 } else { det }
@@ -101,6 +112,9 @@ fn orient_2d(a: [f64; 2], b: [f64; 2], c: [f64; 2]) -> f64 {
     if det * det > COPLANAR * COPLANAR * ab2 * SQUARE_BOUND * bound {
         return det;
     }
+    if det * det <= COPLANAR * COPLANAR * ab2 * SQUARE_FLOOR * bound {
+        return 0.0;
+    }
     let scale = vec3::dist_2d(a, b) * (vec3::dist_2d(a, c) + a[0].hypot(a[1]));
     if det.abs() <= COPLANAR * scale { 0.0 } else { det }
 }
@@ -119,7 +133,7 @@ fn segment_meets(p: P3, q: P3, f: &Facet, op: f64, oq: f64) -> bool {
         return false;
     }
     let axes = f.axes();
-    let t2 = f.p.map(|v| project(v, axes));
+    let t2 = [project(f.p[0], axes), project(f.p[1], axes), project(f.p[2], axes)];
     match (op == 0.0, oq == 0.0) {
         (true, true) => segment_meets_triangle_2d(project(p, axes), project(q, axes), &t2),
         (true, false) => inside_triangle_2d(project(p, axes), &t2),
@@ -131,6 +145,7 @@ fn segment_meets(p: P3, q: P3, f: &Facet, op: f64, oq: f64) -> bool {
     }
 }
 
+#[inline]
 fn project(p: P3, [i, j]: [usize; 2]) -> [f64; 2] {
     [p[i], p[j]]
 }
@@ -157,7 +172,7 @@ fn segments_meet_2d(p: [f64; 2], q: [f64; 2], a: [f64; 2], b: [f64; 2]) -> bool 
 
 fn inside_triangle_2d(p: [f64; 2], t: &[[f64; 2]; 3]) -> bool {
     let s = [orient_2d(t[0], t[1], p), orient_2d(t[1], t[2], p), orient_2d(t[2], t[0], p)];
-    s.iter().all(|&x| x >= 0.0) || s.iter().all(|&x| x <= 0.0)
+    (s[0] >= 0.0 && s[1] >= 0.0 && s[2] >= 0.0) || (s[0] <= 0.0 && s[1] <= 0.0 && s[2] <= 0.0)
 }
 
 fn segment_meets_triangle_2d(p: [f64; 2], q: [f64; 2], t: &[[f64; 2]; 3]) -> bool {
@@ -170,7 +185,7 @@ fn segment_meets_triangle_2d(p: [f64; 2], q: [f64; 2], t: &[[f64; 2]; 3]) -> boo
 /// (`dq[i] == 0`: one corner or one edge), tested in that plane.
 fn touches_in_plane(t: &Facet, q: &[P3; 3], dq: [f64; 3]) -> bool {
     let axes = t.axes();
-    let t2 = t.p.map(|v| project(v, axes));
+    let t2 = [project(t.p[0], axes), project(t.p[1], axes), project(t.p[2], axes)];
     let mut on = [[0.0; 2]; 3];
     let mut count = 0;
     for i in (0..3).filter(|&i| dq[i] == 0.0) {
@@ -187,11 +202,11 @@ fn touches_in_plane(t: &Facet, q: &[P3; 3], dq: [f64; 3]) -> bool {
 /// Whether two triangles with no vertex in common meet.
 fn triangles_meet(fa: &Facet, fb: &Facet) -> bool {
     let (a, b) = (&fa.p, &fb.p);
-    let da = b.map(|v| fa.side(v));
+    let da = [fa.side(b[0]), fa.side(b[1]), fa.side(b[2])];
     if (da.iter().all(|&x| x > 0.0)) || da.iter().all(|&x| x < 0.0) {
         return false;
     }
-    let db = a.map(|v| fb.side(v));
+    let db = [fb.side(a[0]), fb.side(a[1]), fb.side(a[2])];
     if (db.iter().all(|&x| x > 0.0)) || db.iter().all(|&x| x < 0.0) {
         return false;
     }

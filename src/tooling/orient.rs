@@ -6,30 +6,59 @@
 //!
 //! [`check_solid`]: super::check_solid
 
-use std::collections::HashMap;
-
 use super::mesh::Mesh;
 use super::vec3;
 
-/// The facets on an undirected edge: facet, which of its edges, whether it runs low to high.
-type EdgeUses = Vec<(u32, u8, bool)>;
-
 /// For every facet, its neighbours across its three edges (`u32::MAX` where an edge does not
 /// have exactly two facets), with whether the neighbour runs the shared edge the same way.
+///
+/// Half-edges are bucketed by their lower vertex (a counting sort) and grouped by the other
+/// within each bucket: no hashing and no allocation per edge.
 pub(crate) fn neighbours(mesh: &Mesh) -> Vec<[(u32, bool); 3]> {
-    let mut edges: HashMap<(u32, u32), EdgeUses> = HashMap::with_capacity(3 * mesh.len() / 2 + 1);
+    let nv = mesh.triangles.iter().flatten().map(|&i| i as usize + 1).max().unwrap_or(0);
+    let mut first = vec![0u32; nv + 1];
+    for tri in &mesh.triangles {
+        for k in 0..3 {
+            first[tri[k].min(tri[(k + 1) % 3]) as usize + 1] += 1;
+        }
+    }
+    for v in 0..nv {
+        first[v + 1] += first[v];
+    }
+    let mut fill = first.clone();
+    // (other vertex, half-edge `3 t + k`) in the bucket of the lower vertex.
+    let mut uses = vec![(0u32, 0u32); 3 * mesh.len()];
     for (t, tri) in mesh.triangles.iter().enumerate() {
         for k in 0..3 {
             let (a, b) = (tri[k], tri[(k + 1) % 3]);
-            edges.entry((a.min(b), a.max(b))).or_default().push((t as u32, k as u8, a < b));
+            let lo = a.min(b) as usize;
+            uses[fill[lo] as usize] = (a.max(b), (3 * t + k) as u32);
+            fill[lo] += 1;
         }
     }
+    drop(fill);
+    let runs_up = |h: u32| {
+        let tri = mesh.triangles[h as usize / 3];
+        let k = h as usize % 3;
+        tri[k] < tri[(k + 1) % 3]
+    };
     let mut out = vec![[(u32::MAX, false); 3]; mesh.len()];
-    for list in edges.values() {
-        if let [(t0, k0, d0), (t1, k1, d1)] = list.as_slice() {
-            let same = d0 == d1;
-            out[*t0 as usize][*k0 as usize] = (*t1, same);
-            out[*t1 as usize][*k1 as usize] = (*t0, same);
+    for lo in 0..nv {
+        let bucket = &mut uses[first[lo] as usize..first[lo + 1] as usize];
+        bucket.sort_unstable();
+        let mut i = 0;
+        while i < bucket.len() {
+            let mut j = i + 1;
+            while j < bucket.len() && bucket[j].0 == bucket[i].0 {
+                j += 1;
+            }
+            if j - i == 2 {
+                let (h0, h1) = (bucket[i].1, bucket[i + 1].1);
+                let same = runs_up(h0) == runs_up(h1);
+                out[h0 as usize / 3][h0 as usize % 3] = (h1 / 3, same);
+                out[h1 as usize / 3][h1 as usize % 3] = (h0 / 3, same);
+            }
+            i = j;
         }
     }
     out

@@ -62,8 +62,14 @@ fn sweep_axis(local: &[([P3; 2], u32)]) -> usize {
     best.0
 }
 
+#[inline]
 fn overlap(a: &[P3; 2], b: &[P3; 2]) -> bool {
-    (0..3).all(|k| a[0][k] <= b[1][k] && b[0][k] <= a[1][k])
+    a[0][0] <= b[1][0]
+        && b[0][0] <= a[1][0]
+        && a[0][1] <= b[1][1]
+        && b[0][1] <= a[1][1]
+        && a[0][2] <= b[1][2]
+        && b[0][2] <= a[1][2]
 }
 
 /// A hashed grid: each triangle's cells, and the triangles of each slot (a counting sort).
@@ -120,20 +126,30 @@ impl Grid {
 
     /// Whether slot `s` is where the pair is tested: that of the lowest cell both cover.
     fn home(&self, a: usize, b: usize, s: usize) -> bool {
-        let (la, lb) = (self.ranges[a][0], self.ranges[b][0]);
-        slot([0, 1, 2].map(|i| la[i].max(lb[i])), self.bits) == s
+        self.home_of(self.ranges[a][0], self.ranges[b][0], s)
+    }
+
+    /// [`Grid::home`] from the two triangles' lowest cells.
+    #[inline]
+    fn home_of(&self, la: Cell, lb: Cell, s: usize) -> bool {
+        slot([la[0].max(lb[0]), la[1].max(lb[1]), la[2].max(lb[2])], self.bits) == s
     }
 }
 
-/// The index box of cells that a box covers.
-fn range_of(b: &[P3; 2], origin: P3, cell: [f64; 3]) -> [Cell; 2] {
-    let index = |p: P3| {
-        [0, 1, 2].map(|k| {
-            let i = ((p[k] - origin[k]) / cell[k]).floor();
-            i.clamp(0.0, f64::from((1u32 << 21) - 1)) as u32
-        })
+/// The cell that holds the point `p`.
+#[inline]
+fn cell_of(p: P3, origin: P3, cell: [f64; 3]) -> Cell {
+    let index = |k: usize| {
+        let i = ((p[k] - origin[k]) / cell[k]).floor();
+        i.clamp(0.0, f64::from((1u32 << 21) - 1)) as u32
     };
-    [index(b[0]), index(b[1])]
+    [index(0), index(1), index(2)]
+}
+
+/// The index box of cells that a box covers.
+#[inline]
+fn range_of(b: &[P3; 2], origin: P3, cell: [f64; 3]) -> [Cell; 2] {
+    [cell_of(b[0], origin, cell), cell_of(b[1], origin, cell)]
 }
 
 /// The first pair of triangles that meet, if any. Each triangle's data are computed once.
@@ -185,9 +201,11 @@ pub(crate) fn find_self_intersection(mesh: &Mesh) -> Option<(usize, usize)> {
     let (grid, big) = Grid::new(&boxes, bbox.min, cell);
     let test =
         |a: usize, b: usize| facets_meet(&facets[a], &facets[b]).then_some((a.min(b), a.max(b)));
-    // Each slot's triangles gathered with their boxes and lowest cells, so the pair loop reads
-    // contiguous memory, and sorted along the sweep axis.
+    // Each slot's triangles gathered with their boxes and lowest cells (recomputed from the
+    // box, not read from the grid), so the pair loop reads contiguous memory, and sorted along
+    // the sweep axis.
     let mut local: Vec<([P3; 2], u32)> = Vec::new();
+    let mut lowest: Vec<Cell> = Vec::new();
     for s in 0..grid.slots() {
         let list = grid.list(s);
         if list.len() < 2 {
@@ -197,18 +215,22 @@ pub(crate) fn find_self_intersection(mesh: &Mesh) -> Option<(usize, usize)> {
         local.extend(list.iter().map(|&t| (boxes[t as usize], t)));
         let axis = sweep_axis(&local);
         local.sort_unstable_by(|a, b| a.0[0][axis].total_cmp(&b.0[0][axis]));
-        for (k, (ba, ta)) in local.iter().enumerate() {
-            for (bb, tb) in &local[k + 1..] {
-                if bb[0][axis] > ba[1][axis] {
+        lowest.clear();
+        lowest.extend(local.iter().map(|(b, _)| cell_of(b[0], bbox.min, cell)));
+        for k in 0..local.len() {
+            let (ba, ta) = &local[k];
+            let end = ba[1][axis];
+            for j in k + 1..local.len() {
+                let (bb, tb) = &local[j];
+                if bb[0][axis] > end {
                     break;
                 }
                 // A triangle can fall in one slot by two cells.
                 if tb == ta || !overlap(ba, bb) {
                     continue;
                 }
-                let (ta, tb) = (*ta as usize, *tb as usize);
-                if grid.home(ta, tb, s)
-                    && let Some(pair) = test(ta, tb)
+                if grid.home_of(lowest[k], lowest[j], s)
+                    && let Some(pair) = test(*ta as usize, *tb as usize)
                 {
                     return Some(pair);
                 }
