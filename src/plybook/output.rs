@@ -232,7 +232,21 @@ pub fn nesting_svg(book: &PlyBook, m: &MaterialNesting) -> String {
     let n = &m.nesting;
     let (len, wid) = (n.length.max(0.01) * 1e3, n.width * 1e3);
     let margin = 20.0;
-    let (w, h) = (len + 2.0 * margin, wid + 2.0 * margin + 30.0);
+    let caption = format!(
+        "{}: roll {:.0} mm wide, {:.3} m used, utilisation {:.1} %, {:.2} times the area bound; \
+         warp along the roll; true scale, mm",
+        m.material,
+        wid,
+        n.length,
+        100.0 * n.utilisation(),
+        n.length_over_bound()
+    );
+    // The drawing is at least as wide as its caption (10-unit sans-serif, at most about 0.62 of
+    // the size per character), so that a short roll's caption stays inside the figure; the
+    // blank space added keeps the true scale.
+    let caption_width = 0.62 * 10.0 * caption.chars().count() as f64;
+    let (w, h) =
+        ((len + 2.0 * margin).max(caption_width + 2.0 * margin), wid + 2.0 * margin + 30.0);
     let mut s = format!(
         r##"<svg xmlns="http://www.w3.org/2000/svg" width="{w:.1}mm" height="{h:.1}mm" viewBox="0 0 {w:.2} {h:.2}"><title>{} nesting</title>"##,
         esc(&m.material)
@@ -261,14 +275,10 @@ pub fn nesting_svg(book: &PlyBook, m: &MaterialNesting) -> String {
     }
     let _ = write!(
         s,
-        r##"<text x="{margin:.1}" y="{:.1}" font-family="sans-serif" font-size="10" fill="#111">{}: roll {:.0} mm wide, {:.3} m used, utilisation {:.1} %, {:.2} times the area bound; warp along the roll; true scale, mm</text></svg>
+        r##"<text x="{margin:.1}" y="{:.1}" font-family="sans-serif" font-size="10" fill="#111">{}</text></svg>
 "##,
         h - 10.0,
-        esc(&m.material),
-        wid,
-        n.length,
-        100.0 * n.utilisation(),
-        n.length_over_bound()
+        esc(&caption)
     );
     s
 }
