@@ -142,25 +142,7 @@ fn pair_edges(mesh: &Mesh, part: &str, params: &CheckParams) -> Result<Vec<u32>,
     let place = |i: u32| Place { point: mesh.vertices[i as usize], unit: params.unit };
     // Half-edges bucketed by their lower vertex (a counting sort), then grouped by the other.
     let nv = mesh.vertices.len();
-    let mut first = vec![0u32; nv + 1];
-    for tri in &mesh.triangles {
-        for k in 0..3 {
-            first[tri[k].min(tri[(k + 1) % 3]) as usize + 1] += 1;
-        }
-    }
-    for v in 0..nv {
-        first[v + 1] += first[v];
-    }
-    let mut fill = first.clone();
-    let mut slots = vec![(0u32, 0u32); 3 * mesh.len()];
-    for (t, tri) in mesh.triangles.iter().enumerate() {
-        for k in 0..3 {
-            let (a, b) = (tri[k], tri[(k + 1) % 3]);
-            let lo = a.min(b) as usize;
-            slots[fill[lo] as usize] = (a.max(b), (3 * t + k) as u32);
-            fill[lo] += 1;
-        }
-    }
+    let (first, mut slots) = super::mesh::half_edges_by_lower_vertex(mesh, nv);
     let start = |h: u32| mesh.triangles[h as usize / 3][h as usize % 3];
     let mut twins = vec![u32::MAX; slots.len()];
     let mut conflicts: Vec<(u32, u32)> = Vec::new();

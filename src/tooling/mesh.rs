@@ -251,6 +251,33 @@ impl Mesh {
     }
 }
 
+/// The half-edges of `mesh` bucketed by their lower vertex (a counting sort over `nv` vertices,
+/// which must exceed every index used): `slots[first[v]..first[v + 1]]` holds `(other vertex,
+/// half-edge 3 t + k)` for each edge from corner `k` to corner `k + 1` of triangle `t` whose lower
+/// vertex is `v`. No hashing and no allocation per edge.
+pub(crate) fn half_edges_by_lower_vertex(mesh: &Mesh, nv: usize) -> (Vec<u32>, Vec<(u32, u32)>) {
+    let mut first = vec![0u32; nv + 1];
+    for tri in &mesh.triangles {
+        for k in 0..3 {
+            first[tri[k].min(tri[(k + 1) % 3]) as usize + 1] += 1;
+        }
+    }
+    for v in 0..nv {
+        first[v + 1] += first[v];
+    }
+    let mut fill = first.clone();
+    let mut slots = vec![(0u32, 0u32); 3 * mesh.len()];
+    for (t, tri) in mesh.triangles.iter().enumerate() {
+        for k in 0..3 {
+            let (a, b) = (tri[k], tri[(k + 1) % 3]);
+            let lo = a.min(b) as usize;
+            slots[fill[lo] as usize] = (a.max(b), (3 * t + k) as u32);
+            fill[lo] += 1;
+        }
+    }
+    (first, slots)
+}
+
 /// A closed axis-aligned box as a mesh of 12 outward-facing triangles, m.
 pub fn box_mesh(min: [f64; 3], max: [f64; 3]) -> Mesh {
     let v = |i: usize| {

@@ -6,7 +6,7 @@
 //!
 //! [`check_solid`]: super::check_solid
 
-use super::mesh::Mesh;
+use super::mesh::{Mesh, half_edges_by_lower_vertex};
 use super::vec3;
 
 /// For every facet, its neighbours across its three edges (`u32::MAX` where an edge does not
@@ -16,27 +16,8 @@ use super::vec3;
 /// within each bucket: no hashing and no allocation per edge.
 pub(crate) fn neighbours(mesh: &Mesh) -> Vec<[(u32, bool); 3]> {
     let nv = mesh.triangles.iter().flatten().map(|&i| i as usize + 1).max().unwrap_or(0);
-    let mut first = vec![0u32; nv + 1];
-    for tri in &mesh.triangles {
-        for k in 0..3 {
-            first[tri[k].min(tri[(k + 1) % 3]) as usize + 1] += 1;
-        }
-    }
-    for v in 0..nv {
-        first[v + 1] += first[v];
-    }
-    let mut fill = first.clone();
     // (other vertex, half-edge `3 t + k`) in the bucket of the lower vertex.
-    let mut uses = vec![(0u32, 0u32); 3 * mesh.len()];
-    for (t, tri) in mesh.triangles.iter().enumerate() {
-        for k in 0..3 {
-            let (a, b) = (tri[k], tri[(k + 1) % 3]);
-            let lo = a.min(b) as usize;
-            uses[fill[lo] as usize] = (a.max(b), (3 * t + k) as u32);
-            fill[lo] += 1;
-        }
-    }
-    drop(fill);
+    let (first, mut uses) = half_edges_by_lower_vertex(mesh, nv);
     let runs_up = |h: u32| {
         let tri = mesh.triangles[h as usize / 3];
         let k = h as usize % 3;
