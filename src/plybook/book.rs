@@ -23,7 +23,7 @@ pub struct PlyBookParams {
     /// Largest net spacing on a skin as a fraction of the least chord the ply covers.
     pub chord_spacing: f64,
     /// Least distance between a splice of a ply cut in pieces and a parallel splice of a ply
-    /// laid before it on the same skin or web, m (see [`SPLICE_STAGGER`]).
+    /// laid before it on the same skin or web, m (25 mm by default, common practice).
     pub stagger: f64,
 }
 
