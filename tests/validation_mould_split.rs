@@ -27,6 +27,8 @@ use layloft::tooling::{
 };
 use layloft::units::Angle;
 
+use crate::common::inside_mesh as inside;
+
 const CHORD: f64 = 0.1;
 const SAG_UPPER: f64 = 0.045;
 const SAG_LOWER: f64 = 0.034;
@@ -69,38 +71,6 @@ fn check(mesh: &Mesh, part: &str) -> f64 {
         Ok(s) => s.volume,
         Err(e) => panic!("{e}"),
     }
-}
-
-/// Whether `p` is inside the closed mesh, by the parity of the crossings of a ray in a fixed,
-/// skew direction.
-fn inside(mesh: &Mesh, p: [f64; 3]) -> bool {
-    let d = [0.5773, 0.3141, 0.7536];
-    let sub = |a: [f64; 3], b: [f64; 3]| [a[0] - b[0], a[1] - b[1], a[2] - b[2]];
-    let cross = |a: [f64; 3], b: [f64; 3]| {
-        [a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]]
-    };
-    let dot = |a: [f64; 3], b: [f64; 3]| a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
-    let mut count = 0;
-    for t in &mesh.triangles {
-        let [a, b, c] = t.map(|v| mesh.vertices[v as usize]);
-        let (e1, e2) = (sub(b, a), sub(c, a));
-        let h = cross(d, e2);
-        let det = dot(e1, h);
-        if det.abs() < 1e-18 {
-            continue;
-        }
-        let s = sub(p, a);
-        let u = dot(s, h) / det;
-        let q = cross(s, e1);
-        let v = dot(d, q) / det;
-        if u < 0.0 || v < 0.0 || u + v > 1.0 {
-            continue;
-        }
-        if dot(e2, q) / det > 0.0 {
-            count += 1;
-        }
-    }
-    count % 2 == 1
 }
 
 #[test]
