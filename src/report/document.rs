@@ -87,40 +87,10 @@ pub fn blade_report(inp: &ReportInputs<'_>) -> String {
         vibration_section(&mut doc, m, modal, inp.nominal_modes);
     }
     if let Some(t) = &inp.tooling {
-        let s = doc.section("Tooling");
-        for para in &t.paragraphs {
-            s.paragraph(para.clone());
-        }
-        for (caption, table) in &t.tables {
-            s.table(caption.clone(), table);
-        }
-        for (id, caption, svg) in &t.figures {
-            s.figure(id.clone(), caption.clone(), svg.clone());
-        }
-        for w in &t.warnings {
-            s.warning(w.clone());
-        }
-        for n in &t.notes {
-            s.note(n.clone());
-        }
+        block_section(&mut doc, "Tooling", t);
     }
     if let Some(t) = &inp.plybook {
-        let s = doc.section("Ply book");
-        for para in &t.paragraphs {
-            s.paragraph(para.clone());
-        }
-        for (caption, table) in &t.tables {
-            s.table(caption.clone(), table);
-        }
-        for (id, caption, svg) in &t.figures {
-            s.figure(id.clone(), caption.clone(), svg.clone());
-        }
-        for w in &t.warnings {
-            s.warning(w.clone());
-        }
-        for n in &t.notes {
-            s.note(n.clone());
-        }
+        block_section(&mut doc, "Ply book", t);
     }
     if !inp.files.is_empty() {
         let s = doc.section("Data files");
@@ -132,6 +102,26 @@ pub fn blade_report(inp: &ReportInputs<'_>) -> String {
         }
     }
     doc.render()
+}
+
+/// A section made of a ready-made block: paragraphs, tables, figures, warnings, notes.
+fn block_section(doc: &mut HtmlReport, title: &str, t: &ReportBlock) {
+    let s = doc.section(title);
+    for para in &t.paragraphs {
+        s.paragraph(para.clone());
+    }
+    for (caption, table) in &t.tables {
+        s.table(caption.clone(), table);
+    }
+    for (id, caption, svg) in &t.figures {
+        s.figure(id.clone(), caption.clone(), svg.clone());
+    }
+    for w in &t.warnings {
+        s.warning(w.clone());
+    }
+    for n in &t.notes {
+        s.note(n.clone());
+    }
 }
 
 fn blade_section(doc: &mut HtmlReport, m: &BladeModel) {
