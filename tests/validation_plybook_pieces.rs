@@ -11,6 +11,7 @@
 
 use std::path::Path;
 
+use crate::common::mesh_area;
 use layloft::analysis::BladeModel;
 use layloft::blade::Blade;
 use layloft::input::{Project, read_project};
@@ -76,34 +77,6 @@ fn generated_with(dir: &Path, plies: &str) -> Project {
 
 fn book(project: &Project, blade: &Blade) -> PlyBook {
     build_ply_book(blade, project, &PlyBookParams::default()).expect("ply book")
-}
-
-/// The area of a region on a triangle mesh of `n × m` parameter cells (the surface's own point
-/// function, no net).
-fn mesh_area(region: &layloft::plybook::PlyRegion, n: usize, m: usize) -> f64 {
-    let s = region.surface();
-    let span = region.span();
-    let rows: Vec<Vec<[f64; 3]>> = (0..=n)
-        .map(|i| {
-            let a = span[0] + (span[1] - span[0]) * i as f64 / n as f64;
-            let b = region.b_range(a);
-            (0..=m).map(|j| s.point([a, b[0] + (b[1] - b[0]) * j as f64 / m as f64])).collect()
-        })
-        .collect();
-    let tri = |p: [f64; 3], q: [f64; 3], r: [f64; 3]| {
-        let u = [q[0] - p[0], q[1] - p[1], q[2] - p[2]];
-        let v = [r[0] - p[0], r[1] - p[1], r[2] - p[2]];
-        let c = [u[1] * v[2] - u[2] * v[1], u[2] * v[0] - u[0] * v[2], u[0] * v[1] - u[1] * v[0]];
-        0.5 * (c[0] * c[0] + c[1] * c[1] + c[2] * c[2]).sqrt()
-    };
-    let mut area = 0.0;
-    for i in 0..n {
-        for j in 0..m {
-            area += tri(rows[i][j], rows[i + 1][j], rows[i + 1][j + 1])
-                + tri(rows[i][j], rows[i + 1][j + 1], rows[i][j + 1]);
-        }
-    }
-    area
 }
 
 /// Every region of the schedule is in the kit, whole or in pieces that tile it: the pieces'

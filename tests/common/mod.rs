@@ -212,3 +212,31 @@ pub fn inside_mesh(mesh: &layloft::tooling::Mesh, p: [f64; 3]) -> bool {
     }
     count % 2 == 1
 }
+
+/// The area of a parameter region of a surface on a triangle mesh of `n × m` cells, each
+/// split into two flat triangles (the surface's own point function, no net).
+pub fn mesh_area(region: &layloft::plybook::PlyRegion, n: usize, m: usize) -> f64 {
+    let s = region.surface();
+    let span = region.span();
+    let rows: Vec<Vec<[f64; 3]>> = (0..=n)
+        .map(|i| {
+            let a = span[0] + (span[1] - span[0]) * i as f64 / n as f64;
+            let b = region.b_range(a);
+            (0..=m).map(|j| s.point([a, b[0] + (b[1] - b[0]) * j as f64 / m as f64])).collect()
+        })
+        .collect();
+    let tri = |p: [f64; 3], q: [f64; 3], r: [f64; 3]| {
+        let u = [q[0] - p[0], q[1] - p[1], q[2] - p[2]];
+        let v = [r[0] - p[0], r[1] - p[1], r[2] - p[2]];
+        let c = [u[1] * v[2] - u[2] * v[1], u[2] * v[0] - u[0] * v[2], u[0] * v[1] - u[1] * v[0]];
+        0.5 * (c[0] * c[0] + c[1] * c[1] + c[2] * c[2]).sqrt()
+    };
+    let mut area = 0.0;
+    for i in 0..n {
+        for j in 0..m {
+            area += tri(rows[i][j], rows[i + 1][j], rows[i + 1][j + 1])
+                + tri(rows[i][j], rows[i + 1][j + 1], rows[i][j + 1]);
+        }
+    }
+    area
+}
