@@ -355,15 +355,23 @@ fn depth_check(
     let pts = &layout.outer;
     let n = pts.len();
     let i_te = (0..n).fold(0, |b, i| if pts[i][0] > pts[b][0] { i } else { b });
-    let upper: Vec<Point> = pts[..=i_te].to_vec();
+    let mut upper: Vec<Point> = pts[..=i_te].to_vec();
     let mut lower: Vec<Point> = pts[i_te..].to_vec();
     lower.push(pts[0]);
     lower.reverse();
+    // A blunt trailing edge's base is no part of either wall: the aftmost point may be either
+    // corner of it, and a base square to a cambered mean line leans along the chord, so that
+    // a depth taken to it would measure the base's lean (a fraction of a millimetre) instead of
+    // the distance between the walls.
+    for chain in [&mut upper, &mut lower] {
+        while chain.len() > 2 && !chordwise(chain[chain.len() - 2], chain[chain.len() - 1]) {
+            chain.pop();
+        }
+    }
     let mut samples: Vec<(f64, f64, f64)> = Vec::with_capacity(n); // (y, depth, ratio)
     for i in 0..n {
         let (a, b) = (pts[i], pts[(i + 1) % n]);
-        let d = sub(b, a);
-        if (d[0] / norm(d)).abs() < 0.7 {
+        if !chordwise(a, b) {
             continue;
         }
         let mid = lerp(a, b, 0.5);
@@ -404,6 +412,13 @@ fn depth_check(
         |b: Option<(f64, f64)>, s| if b.is_none_or(|b| s.2 > b.0) { Some((s.2, s.0)) } else { b },
     );
     DepthCheck { worst, converging }
+}
+
+/// Whether the segment from `a` to `b` runs mostly along the chord (a wall whose depth is
+/// judged), not across it (a nose or a trailing-edge base).
+fn chordwise(a: Point, b: Point) -> bool {
+    let d = sub(b, a);
+    (d[0] / norm(d)).abs() >= 0.7
 }
 
 #[cfg(test)]

@@ -43,7 +43,8 @@ pub fn as4_chandra() -> Lamina {
         .expect("valid lamina")
 }
 
-fn layout(
+/// A section layout of the closed outline `outer` (chord and pitch axis from its extent).
+pub fn layout(
     outer: Vec<[f64; 2]>,
     segment_laminate: Vec<usize>,
     laminates: Vec<Laminate>,
