@@ -90,6 +90,7 @@ pub mod laminate;
 pub mod loads;
 pub mod material;
 pub mod modal;
+mod parallel;
 pub mod plybook;
 pub mod report;
 pub mod section;

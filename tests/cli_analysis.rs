@@ -174,3 +174,28 @@ fn check_passes_the_demos_and_fails_an_impossible_demand() {
         .code(2)
         .stderr(predicate::str::contains("no/such/blade.toml"));
 }
+
+/// The stations are solved and recovered on several threads, in blocks joined in station
+/// order: the outputs must not depend on the number of threads, to the last digit (a law of
+/// the method: each station's arithmetic is the same on any thread, and the summaries are
+/// joined in the order one thread would fold them). Three threads split the stations unevenly.
+#[test]
+fn outputs_do_not_depend_on_the_number_of_threads() {
+    for demo in ["mine-fan", "small-wind", "round-root"] {
+        let file = format!("layups/{demo}/blade.toml");
+        for command in ["check", "stress", "sections"] {
+            let run = |threads: &str| {
+                let out = layloft()
+                    .env("LAYLOFT_THREADS", threads)
+                    .args([command, file.as_str(), "--json"])
+                    .output()
+                    .unwrap();
+                assert!(out.status.code().is_some_and(|c| c <= 1), "{demo} {command}");
+                out.stdout
+            };
+            let one = run("1");
+            assert!(one.len() > 100, "{demo} {command}: some output");
+            assert!(one == run("3"), "{demo} {command}: 1 and 3 threads differ");
+        }
+    }
+}

@@ -96,15 +96,32 @@ impl BladeModel {
         progress: &mut dyn FnMut(usize, usize),
     ) -> Result<Self, Error> {
         let params = section_params(&project);
-        let mut stations = Vec::with_capacity(radii.len());
-        for (i, &r) in radii.iter().enumerate() {
+        // The stations are independent: solved in blocks on all cores, gathered in order (the
+        // first error in station order is the one reported, as on one thread).
+        let station = |r: f64| -> Result<AnalysisStation, Error> {
             let (layout, plies) = blade
                 .section_layout_with_plies(r, project.sections.contour_points)
                 .map_err(|e| place_at_station(&project, r, e.into()))?;
             let section = SolvedSection::solve(&layout, &params)
                 .map_err(|e| place_at_station(&project, r, e.into()))?;
-            stations.push(AnalysisStation { layout, plies, section });
-            progress(i + 1, radii.len());
+            Ok(AnalysisStation { layout, plies, section })
+        };
+        let total = radii.len();
+        let blocks = crate::parallel::in_blocks(
+            total,
+            |range, tick| {
+                let mut out = Vec::with_capacity(range.len());
+                for &r in &radii[range] {
+                    out.push(station(r)?);
+                    tick();
+                }
+                Ok::<_, Error>(out)
+            },
+            &mut |done| progress(done, total),
+        );
+        let mut stations = Vec::with_capacity(total);
+        for block in blocks {
+            stations.extend(block?);
         }
         let mut model = BladeModel { project, blade, stations, mass: OnceLock::new() };
         model.add_buoyancy();

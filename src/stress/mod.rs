@@ -338,53 +338,73 @@ pub fn analyse_case_detail(
     let loads = span_loads(&dist);
     let fine = span_loads(&dist.clone().refine(8));
     let tip_deflection = crate::loads::tip_deflection(&props, &fine)?;
+    // The stations are independent: recovered in blocks on all cores, each block folding its
+    // own summary; the blocks' results are joined in station order, which gives the same
+    // summary, to the bit, as one pass (see [`summary::Summary::join`]).
+    let blocks = crate::parallel::in_blocks(
+        model.stations.len(),
+        |range, _tick| -> Result<_, StressError> {
+            let mut stations = Vec::with_capacity(range.len());
+            let mut buckling = Vec::with_capacity(range.len());
+            let mut summary = summary::Summary::new(model);
+            let mut scratch: Vec<PlyPoint> = Vec::new();
+            let mut by_element: Vec<Option<(f64, f64)>> = Vec::new();
+            for si in range {
+                let st = &model.stations[si];
+                let units = st
+                    .layout
+                    .laminates
+                    .iter()
+                    .map(|l| UnitResponse::new(l, case.delta_t))
+                    .collect::<Result<Vec<_>, _>>()?;
+                let elements = st.section.elements();
+                let locator = Locator::new(&st.layout);
+                let states = section_states(&st.section, &loads.chord_at(st.layout.r));
+                by_element.clear();
+                by_element.resize(elements.len(), None);
+                let mut points =
+                    Vec::with_capacity(if detail == Detail::Points { states.len() } else { 0 });
+                for (pi, state) in states.into_iter().enumerate() {
+                    let e = &elements[state.element];
+                    let laminate = &st.layout.laminates[e.laminate];
+                    units[e.laminate].ratios_into(laminate, &state.deformation, &mut scratch);
+                    summary.add(model, si, pi, state.element, e.laminate, &scratch);
+                    if let Some(slot) = by_element.get_mut(state.element) {
+                        *slot = Some((state.n_x, state.n_xs));
+                    }
+                    if detail == Detail::Points {
+                        points.push(PointStress {
+                            element: state.element,
+                            laminate: e.laminate,
+                            position: state.position,
+                            location: locator.locate(&e.part, e.midpoint()),
+                            n_x: state.n_x,
+                            n_xs: state.n_xs,
+                            deformation: state.deformation,
+                            plies: scratch.clone(),
+                        });
+                    }
+                }
+                summary.end_station(model, si, st.layout.r);
+                // As many stations checked as there are panel lists (every station, from
+                // `model_panels`).
+                if let Some(p) = panels.get(si) {
+                    buckling.push(check_station(st, p, &by_element));
+                }
+                stations.push(StationStress { r: st.layout.r, points });
+            }
+            Ok((stations, buckling, summary))
+        },
+        &mut |_| {},
+    );
     let mut stations = Vec::with_capacity(model.stations.len());
     let mut buckling = Vec::with_capacity(model.stations.len());
     let mut summary = summary::Summary::new(model);
-    let mut scratch: Vec<PlyPoint> = Vec::new();
-    let mut by_element: Vec<Option<(f64, f64)>> = Vec::new();
-    for (si, st) in model.stations.iter().enumerate() {
-        let units = st
-            .layout
-            .laminates
-            .iter()
-            .map(|l| UnitResponse::new(l, case.delta_t))
-            .collect::<Result<Vec<_>, _>>()?;
-        let elements = st.section.elements();
-        let locator = Locator::new(&st.layout);
-        let states = section_states(&st.section, &loads.chord_at(st.layout.r));
-        by_element.clear();
-        by_element.resize(elements.len(), None);
-        let mut points =
-            Vec::with_capacity(if detail == Detail::Points { states.len() } else { 0 });
-        for (pi, state) in states.into_iter().enumerate() {
-            let e = &elements[state.element];
-            let laminate = &st.layout.laminates[e.laminate];
-            units[e.laminate].ratios_into(laminate, &state.deformation, &mut scratch);
-            summary.add(model, si, pi, state.element, e.laminate, &scratch);
-            if let Some(slot) = by_element.get_mut(state.element) {
-                *slot = Some((state.n_x, state.n_xs));
-            }
-            if detail == Detail::Points {
-                points.push(PointStress {
-                    element: state.element,
-                    laminate: e.laminate,
-                    position: state.position,
-                    location: locator.locate(&e.part, e.midpoint()),
-                    n_x: state.n_x,
-                    n_xs: state.n_xs,
-                    deformation: state.deformation,
-                    plies: scratch.clone(),
-                });
-            }
-        }
-        summary.end_station(model, si, st.layout.r);
-        // As many stations checked as there are panel lists (every station, from
-        // `model_panels`).
-        if let Some(p) = panels.get(si) {
-            buckling.push(check_station(st, p, &by_element));
-        }
-        stations.push(StationStress { r: st.layout.r, points });
+    for block in blocks {
+        let (s, b, part) = block?;
+        stations.extend(s);
+        buckling.extend(b);
+        summary.join(part);
     }
     let radii: Vec<f64> = stations.iter().map(|s| s.r).collect();
     let (critical, ply_worst) = summary.finish(model, &radii);

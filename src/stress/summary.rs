@@ -188,6 +188,20 @@ impl Summary {
         }
     }
 
+    /// Joins the summary of the stations that follow this one's (folded on its own, from
+    /// [`Summary::new`]): the same as folding those stations' points into this summary, to the
+    /// bit. The lowest reserve factor replaces this one's only when strictly lower, as in
+    /// [`Summary::add`], so that on a tie the earlier station keeps it; the finished rows are
+    /// appended in station order.
+    pub(super) fn join(&mut self, later: Summary) {
+        if let Some(b) = later.best {
+            if self.best.as_ref().is_none_or(|a| a.reserve_factor > b.reserve_factor) {
+                self.best = Some(b);
+            }
+        }
+        self.out.extend(later.out);
+    }
+
     /// The lowest reserve factor and where, and the worst value of every ply at every station.
     pub(super) fn finish(
         self,

@@ -1,0 +1,124 @@
+//! Work over the analysis stations on all cores: contiguous blocks of indices, one scoped thread
+//! each, results returned in index order, so that what is computed, and the order in which it
+//! is folded together, does not depend on the number of threads.
+//!
+//! The number of threads is the machine's available parallelism, or `LAYLOFT_THREADS` when set
+//! to a positive whole number (`LAYLOFT_THREADS=1` runs everything on one worker, for timing
+//! and for comparing outputs).
+
+use std::ops::Range;
+use std::sync::mpsc;
+
+/// The environment variable that sets the number of worker threads.
+pub(crate) const THREADS_VAR: &str = "LAYLOFT_THREADS";
+
+/// The number of worker threads: `LAYLOFT_THREADS` when it holds a positive whole number,
+/// otherwise the machine's available parallelism (1 when unknown).
+pub(crate) fn threads() -> usize {
+    std::env::var(THREADS_VAR)
+        .ok()
+        .and_then(|v| v.trim().parse::<usize>().ok())
+        .filter(|&n| n > 0)
+        .unwrap_or_else(|| std::thread::available_parallelism().map_or(1, |n| n.get()))
+}
+
+/// `0..n` cut into at most `parts` contiguous blocks whose lengths differ by at most one, in
+/// order; none is empty.
+pub(crate) fn blocks(n: usize, parts: usize) -> Vec<Range<usize>> {
+    let parts = parts.clamp(1, n.max(1));
+    let (base, extra) = (n / parts, n % parts);
+    let mut start = 0;
+    (0..parts)
+        .map(|k| {
+            let len = base + usize::from(k < extra);
+            let r = start..start + len;
+            start += len;
+            r
+        })
+        .filter(|r| !r.is_empty())
+        .collect()
+}
+
+/// Runs `run(block, tick)` for contiguous blocks of `0..n` on up to [`threads`] scoped
+/// threads and returns the blocks' results in order. `run` calls `tick()` once per index done;
+/// the calling thread turns the ticks into `progress(done)` calls. A panic in a worker is
+/// resumed on the calling thread.
+pub(crate) fn in_blocks<R: Send>(
+    n: usize,
+    run: impl Fn(Range<usize>, &dyn Fn()) -> R + Sync,
+    progress: &mut dyn FnMut(usize),
+) -> Vec<R> {
+    let ranges = blocks(n, threads());
+    if ranges.len() <= 1 {
+        let done = std::cell::Cell::new(0usize);
+        let progress = std::cell::RefCell::new(progress);
+        let tick = || {
+            done.set(done.get() + 1);
+            (progress.borrow_mut())(done.get());
+        };
+        return ranges.into_iter().map(|r| run(r, &tick)).collect();
+    }
+    let (tx, rx) = mpsc::channel::<()>();
+    std::thread::scope(|s| {
+        let run = &run;
+        let handles: Vec<_> = ranges
+            .into_iter()
+            .map(|r| {
+                let tx = tx.clone();
+                s.spawn(move || {
+                    run(r, &|| {
+                        // The receiver lives until every worker has finished.
+                        let _ = tx.send(());
+                    })
+                })
+            })
+            .collect();
+        drop(tx);
+        let mut done = 0;
+        while rx.recv().is_ok() {
+            done += 1;
+            progress(done);
+        }
+        handles
+            .into_iter()
+            .map(|h| h.join().unwrap_or_else(|e| std::panic::resume_unwind(e)))
+            .collect()
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn blocks_cover_the_range_in_order_without_gaps() {
+        for n in 0..40 {
+            for parts in 1..9 {
+                let b = blocks(n, parts);
+                let flat: Vec<usize> = b.iter().flat_map(|r| r.clone()).collect();
+                assert_eq!(flat, (0..n).collect::<Vec<_>>(), "n {n}, parts {parts}");
+                assert!(b.len() <= parts.max(1));
+                let lens: Vec<usize> = b.iter().map(|r| r.len()).collect();
+                if let (Some(lo), Some(hi)) = (lens.iter().min(), lens.iter().max()) {
+                    assert!(hi - lo <= 1, "{lens:?}");
+                }
+            }
+        }
+    }
+
+    #[test]
+    fn results_come_back_in_block_order_with_every_tick_counted() {
+        let mut ticks = Vec::new();
+        let out = in_blocks(
+            17,
+            |r, tick| {
+                r.clone().for_each(|_| tick());
+                r.collect::<Vec<_>>()
+            },
+            &mut |d| ticks.push(d),
+        );
+        let flat: Vec<usize> = out.into_iter().flatten().collect();
+        assert_eq!(flat, (0..17).collect::<Vec<_>>());
+        assert_eq!(ticks.last(), Some(&17));
+    }
+}
