@@ -78,18 +78,20 @@ impl UnitResponse {
     /// free in its membrane (`N_x = N_s = N_xs = 0`) with its curvatures held at zero, as the
     /// closed beam holds them: an unsymmetric wall cannot curl as a free plate would.
     pub(crate) fn new(laminate: &Laminate, delta_t: f64) -> Result<Self, StressError> {
-        let basis = |i: usize| {
+        let basis = [0, 1, 2, 3, 4, 5].map(|i| {
             let mut d = Deformation::default();
             if i < 3 {
                 d.strain[i] = 1.0;
             } else {
                 d.curvature[i - 3] = 1.0;
             }
-            laminate
-                .response(&LaminateLoad::Deformation(d), 0.0)
-                .map(|r| r.plies.iter().map(faces).collect::<Vec<_>>())
-        };
-        let unit = [basis(0)?, basis(1)?, basis(2)?, basis(3)?, basis(4)?, basis(5)?];
+            LaminateLoad::Deformation(d)
+        });
+        let unit: Vec<Vec<[MaterialState; 2]>> = laminate
+            .responses(&basis, 0.0)?
+            .iter()
+            .map(|r| r.plies.iter().map(faces).collect())
+            .collect();
         let (nt, _) = laminate.thermal_resultants(delta_t);
         let a = laminate.abd().a;
         let strain = if nt.norm() > 0.0 {
