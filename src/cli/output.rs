@@ -63,13 +63,18 @@ impl Output {
     /// An error and its chain of causes, prefixed with the tool's name.
     pub fn error(&self, e: &anyhow::Error) {
         let mut err = std::io::stderr().lock();
-        let _ = writeln!(err, "{} {e}", self.paint("1;31", "layloft: error:"));
+        let _ = writeln!(
+            err,
+            "{} {}",
+            self.paint("1;31", "layloft: error:"),
+            compact_numbers(&e.to_string())
+        );
         let mut said = e.to_string();
         for cause in e.chain().skip(1) {
             // A message that already quotes its cause (`{source}` in the text) says it once.
             let text = cause.to_string();
             if !said.contains(&text) {
-                let _ = writeln!(err, "  caused by: {text}");
+                let _ = writeln!(err, "  caused by: {}", compact_numbers(&text));
                 said.push_str(&text);
             }
         }
@@ -87,8 +92,9 @@ impl Output {
         if !self.quiet {
             let _ = writeln!(
                 std::io::stderr().lock(),
-                "{} {text}",
-                self.paint("33", "layloft: warning:")
+                "{} {}",
+                self.paint("33", "layloft: warning:"),
+                compact_numbers(text)
             );
         }
     }
@@ -182,5 +188,58 @@ mod tests {
         let hidden = output(false, false).progress(10, "speeds");
         hidden.inc(3);
         assert_eq!(hidden.position(), 0);
+    }
+}
+
+/// A message with every number written out in more than [`LONGEST_NUMBER`] characters (`1e-300`
+/// is displayed as 0.000…0001, 302 characters, and `1e300` as 301 digits) put in scientific
+/// notation: a message echoes what was typed, but never as a wall of digits.
+fn compact_numbers(text: &str) -> std::borrow::Cow<'_, str> {
+    let long = |run: &str| run.len() > LONGEST_NUMBER && run.parse::<f64>().is_ok();
+    let runs = text.split(|c: char| !(c.is_ascii_digit() || c == '.'));
+    if !runs.clone().any(long) {
+        return std::borrow::Cow::Borrowed(text);
+    }
+    let mut out = String::with_capacity(text.len());
+    let mut run = String::new();
+    let flush = |run: &mut String, out: &mut String| {
+        match run.parse::<f64>() {
+            Ok(v) if run.len() > LONGEST_NUMBER => out.push_str(&format!("{v:e}")),
+            _ => out.push_str(run),
+        }
+        run.clear();
+    };
+    for c in text.chars() {
+        if c.is_ascii_digit() || c == '.' {
+            run.push(c);
+        } else {
+            flush(&mut run, &mut out);
+            out.push(c);
+        }
+    }
+    flush(&mut run, &mut out);
+    std::borrow::Cow::Owned(out)
+}
+
+/// The longest number a message shows as it is: 17 significant digits, a point, a few zeros.
+const LONGEST_NUMBER: usize = 24;
+
+#[cfg(test)]
+mod number_tests {
+    use super::*;
+
+    #[test]
+    fn walls_of_digits_become_scientific_and_the_rest_stays() {
+        let tiny = format!("found {}: too small", 1e-300);
+        assert!(tiny.len() > 300);
+        assert_eq!(compact_numbers(&tiny), "found 1e-300: too small");
+        let huge = format!("found {} m.", 1e300);
+        assert_eq!(compact_numbers(&huge), "found 1e300 m.");
+        let plain = "blade.toml line 36, load_factor: found 0.35 (version 1.2.3, 1090 rpm)";
+        assert_eq!(compact_numbers(plain), plain);
+        assert_eq!(
+            compact_numbers("-1.25e-7 and 123456789012345678901234567890"),
+            "-1.25e-7 and 1.2345678901234568e29"
+        );
     }
 }
