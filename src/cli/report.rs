@@ -20,7 +20,7 @@ use layloft::report::{
 use super::project::{load_model, run_modal};
 use super::tooling::{build_and_write, tell};
 use super::{Failure, Outcome, Output};
-use layloft::plybook::{PlyBookParams, build_ply_book, plybook_files};
+use layloft::plybook::{PlyBook, PlyBookError, PlyBookParams, build_ply_book, plybook_files};
 use layloft::report::{ReportBlock, plybook_block, plybook_links};
 use layloft::tooling::{StlFormat, StlOptions, ToolingParams};
 
@@ -131,10 +131,29 @@ fn tooling_block(
 }
 
 /// Runs every stage on `model` and writes the report; returns the design check.
+///
+/// The ply book, which needs only the lofted blade, is built on a second thread while the
+/// other stages run; it is taken up where the report needs it, so that the outputs, the order
+/// of the messages and the error reported first are those of one thread.
 pub fn write_report(
     model: &BladeModel,
     dest: &Destination,
     out: &Output,
+) -> Result<DesignCheck, Failure> {
+    std::thread::scope(|s| {
+        let book =
+            s.spawn(|| build_ply_book(&model.blade, &model.project, &PlyBookParams::default()));
+        write_report_with(model, dest, out, move || {
+            book.join().unwrap_or_else(|e| std::panic::resume_unwind(e))
+        })
+    })
+}
+
+fn write_report_with(
+    model: &BladeModel,
+    dest: &Destination,
+    out: &Output,
+    ply_book: impl FnOnce() -> Result<PlyBook, PlyBookError>,
 ) -> Result<DesignCheck, Failure> {
     ensure_dir(&dest.out)?;
     let p = &model.project;
@@ -261,8 +280,7 @@ pub fn write_report(
     };
 
     // The ply book: its files in a folder of the report's set.
-    let book = build_ply_book(&model.blade, p, &PlyBookParams::default())
-        .map_err(super::plybook::failure)?;
+    let book = ply_book().map_err(super::plybook::failure)?;
     let laminate_kg = model.mass().laminate_kg;
     for (path, bytes) in
         plybook_files(&book, Some(laminate_kg)).map_err(|e| Failure::Run(e.into()))?
