@@ -656,16 +656,22 @@ fn halves<'a>(
 /// The pieces of a region, each with its flat pattern.
 type Pieces<'a> = Vec<(PlyRegion<'a>, FlatPattern)>;
 
+/// A drape attempt's outcome (see [`attempt`]).
+type Attempt = Result<FlatPattern, PlyBookError>;
+
 /// A region draped whole, or, where it cannot be draped in one piece (the net does not reach
 /// it, folds over itself, loses area or ends short of it), split in halves (see [`halves`],
 /// which staggers the cut from the `earlier` plies' splices) and each half draped the same way,
 /// at most [`MAX_SPLITS`] times deep. When no split drapes whole the region's own result stands
 /// (a pattern cut short, with its warning, or the failure). With the pieces, the earlier plies
-/// a cut could not be staggered from.
+/// a cut could not be staggered from. `whole` is the region's own attempt when it was already
+/// made (see [`first_attempts`]). The two halves are draped side by side on two threads; their
+/// results are taken in order, so the pieces are those of draping them one after the other.
 #[allow(clippy::too_many_arguments)]
 fn drape_pieces<'a>(
     blade: &'a Blade,
     region: PlyRegion<'a>,
+    whole: Option<Attempt>,
     file: &str,
     p: &PlySpec,
     name: &str,
@@ -673,14 +679,22 @@ fn drape_pieces<'a>(
     earlier: &[Splice],
     depth: usize,
 ) -> Result<(Pieces<'a>, Vec<usize>), PlyBookError> {
-    let whole = attempt(&region, file, p, name);
+    let whole = whole.unwrap_or_else(|| attempt(&region, file, p, name));
     if matches!(&whole, Ok(f) if f.cut_short.is_empty()) || depth >= MAX_SPLITS {
         return whole.map(|f| (vec![(region, f)], Vec::new()));
     }
     let mut pieces = Vec::new();
-    let (pair, mut missed) = halves(blade, &region, params, earlier);
-    for half in pair {
-        match drape_pieces(blade, half, file, p, name, params, earlier, depth + 1) {
+    let ([first, second], mut missed) = halves(blade, &region, params, earlier);
+    let drape_half =
+        |half| drape_pieces(blade, half, None, file, p, name, params, earlier, depth + 1);
+    let results = std::thread::scope(|scope| {
+        let other = scope.spawn(|| drape_half(first));
+        let second = drape_half(second);
+        let first = other.join().unwrap_or_else(|e| std::panic::resume_unwind(e));
+        [first, second]
+    });
+    for result in results {
+        match result {
             Ok((v, m)) if v.iter().all(|(_, f)| f.cut_short.is_empty()) => {
                 pieces.extend(v);
                 missed.extend(m);
@@ -692,6 +706,55 @@ fn drape_pieces<'a>(
     missed.dedup();
     Ok((pieces, missed))
 }
+
+/// The pattern name of a region: the ply's id and its skin or web.
+fn region_name(p: &PlySpec, region: &PlyRegion) -> String {
+    format!("{}-{}", file_safe(&p.id), file_safe(region.surface_name.trim_start_matches("web:")))
+}
+
+/// Every region's first attempt, draped whole (see [`attempt`]), the regions shared out over
+/// the machine's cores (at most [`THREADS`]); the attempts do not depend on each other, so the
+/// results are those of one thread, in the regions' order. `None` for a region of a ply
+/// without a material (left out of the book).
+fn first_attempts<'a>(
+    blade: &'a Blade,
+    regions: Vec<PlyRegion<'a>>,
+    file: &str,
+) -> Vec<(PlyRegion<'a>, Option<Attempt>)> {
+    let count = regions.len();
+    let threads = std::thread::available_parallelism().map_or(1, |n| n.get()).clamp(1, THREADS);
+    let queue = std::sync::Mutex::new(regions.into_iter().enumerate());
+    let work = || {
+        let mut done = Vec::new();
+        loop {
+            let next = match queue.lock() {
+                Ok(mut q) => q.next(),
+                Err(poisoned) => poisoned.into_inner().next(),
+            };
+            let Some((k, region)) = next else { break };
+            let tried = match (blade.ply(region.ply), blade.ply_material(region.ply)) {
+                (Some(p), Some(_)) => Some(attempt(&region, file, p, &region_name(p, &region))),
+                _ => None,
+            };
+            done.push((k, region, tried));
+        }
+        done
+    };
+    let mut all: Vec<(usize, PlyRegion<'a>, Option<Attempt>)> = std::thread::scope(|scope| {
+        let helpers: Vec<_> = (1..threads).map(|_| scope.spawn(work)).collect();
+        let mut all = work();
+        for h in helpers {
+            all.extend(h.join().unwrap_or_else(|e| std::panic::resume_unwind(e)));
+        }
+        all
+    });
+    all.sort_by_key(|(k, _, _)| *k);
+    debug_assert_eq!(all.len(), count);
+    all.into_iter().map(|(_, region, tried)| (region, tried)).collect()
+}
+
+/// Most threads the first attempts are shared over.
+const THREADS: usize = 8;
 
 /// Builds the ply book of a blade: every ply region draped and flattened (in pieces where one
 /// will not drape whole), checked, and the patterns of each material nested on its roll.
@@ -706,7 +769,8 @@ pub fn build_ply_book(
     let mut failed = Vec::new();
     let mut splices = Vec::new();
     let mut splice_lines: Vec<Splice> = Vec::new();
-    for region in regions {
+    let file = &project.files.plies;
+    for (region, whole) in first_attempts(blade, regions, file) {
         let Some(p) = blade.ply(region.ply) else { continue };
         let Some(mat) = blade.ply_material(region.ply) else { continue };
         let cutting = project.materials.cutting(&p.material);
@@ -715,15 +779,10 @@ pub fn build_ply_book(
             LaminaKind::Orthotropic if mat.e2 >= 0.8 * mat.e1 => FabricKind::Fabric,
             LaminaKind::Orthotropic => FabricKind::Unidirectional,
         };
-        let name = format!(
-            "{}-{}",
-            file_safe(&p.id),
-            file_safe(region.surface_name.trim_start_matches("web:"))
-        );
-        let whole = (region.span, region.chord, region.surface_name.clone());
-        let file = &project.files.plies;
+        let name = region_name(p, &region);
+        let extent = (region.span, region.chord, region.surface_name.clone());
         let (pieces, missed) =
-            match drape_pieces(blade, region, file, p, &name, params, &splice_lines, 0) {
+            match drape_pieces(blade, region, whole, file, p, &name, params, &splice_lines, 0) {
                 Ok(v) => v,
                 Err(e) => {
                     failed.push(e);
@@ -733,7 +792,7 @@ pub fn build_ply_book(
         let count = pieces.len();
         if count > 1 {
             splices.push(splice_note(p, &name, &pieces, params.stagger));
-            splice_lines.extend(splices_of(whole.0, whole.1, &pieces));
+            splice_lines.extend(splices_of(extent.0, extent.1, &pieces));
         }
         if !missed.is_empty() {
             let ids: Vec<String> = missed
@@ -745,7 +804,7 @@ pub fn build_ply_book(
                 p.id,
                 params.stagger * 1e3,
                 ids.join(", "),
-                if whole.2.starts_with("web") { "web" } else { "skin" }
+                if extent.2.starts_with("web") { "web" } else { "skin" }
             ));
         }
         for (n, (region, flat)) in pieces.into_iter().enumerate() {
