@@ -483,6 +483,13 @@ fn barycentric(t: [[f64; 2]; 3], p: [f64; 2]) -> Option<[f64; 3]> {
     w.iter().all(|&x| x >= -1e-12).then_some(w)
 }
 
+/// Whether `p` lies strictly inside the plan triangle `t` (a sliver's middle outside an outline
+/// by round-off is not taken in).
+fn strictly_inside(t: [[f64; 2]; 3], p: [f64; 2]) -> bool {
+    let s = cross2(t[0], t[1], t[2]).signum();
+    s != 0.0 && (0..3).all(|k| s * cross2(t[k], t[(k + 1) % 3], p) > 0.0)
+}
+
 /// Distance in plan from `p` to the triangle `t`.
 fn dist_to_triangle(t: [[f64; 2]; 3], p: [f64; 2]) -> f64 {
     if barycentric(t, p).is_some() {
@@ -619,19 +626,72 @@ fn fill_patch(
         let pts = vs.map(|v| [v.position().x, v.position().y]);
         let mid =
             [(pts[0][0] + pts[1][0] + pts[2][0]) / 3.0, (pts[0][1] + pts[1][1] + pts[2][1]) / 3.0];
-        if !polys.iter().any(|t| barycentric(*t, mid).is_some()) || inside_polygon(&circle2, mid) {
+        if !polys.iter().any(|t| strictly_inside(*t, mid)) || inside_polygon(&circle2, mid) {
             continue;
         }
         let mut tri = [0u32; 3];
         for (k, v) in vs.iter().enumerate() {
             tri[k] = *ids.get(&v.fix().index()).ok_or_else(|| fail("a point was added"))?;
         }
-        if cross2(pts[0], pts[1], pts[2]) < 0.0 {
-            tri.swap(1, 2);
-        }
         tris.push(tri);
     }
+    settle(mesh, &mut tris, frame);
     Ok((ring, tris))
+}
+
+/// Turns the slivers of a triangulation (a corner on the line of the other two, as round-off
+/// leaves the collinear corners of a block face) over with their neighbour across the long
+/// edge, or drops one with no neighbour there (it lies outside the outline by a hair); then
+/// turns every facet to face up (counter-clockwise in plan). As the ports' caps do.
+fn settle(mesh: &Mesh, tris: &mut Vec<[u32; 3]>, frame: &Plan) {
+    let p = |v: u32| mesh.vertices[v as usize];
+    // A turn may leave a sliver where more corners lie on one line: again, a few times.
+    for _ in 0..16 {
+        if !unsliver(mesh, tris) {
+            break;
+        }
+    }
+    for tri in tris.iter_mut() {
+        let q = tri.map(|v| frame.plan(p(v)));
+        if cross2(q[0], q[1], q[2]) < 0.0 {
+            tri.swap(1, 2);
+        }
+    }
+}
+
+/// One pass of [`settle`]'s turning of slivers; whether it found one.
+fn unsliver(mesh: &Mesh, tris: &mut Vec<[u32; 3]>) -> bool {
+    let p = |v: u32| mesh.vertices[v as usize];
+    let mut drop = Vec::new();
+    let mut found = false;
+    for i in 0..tris.len() {
+        let t = tris[i];
+        let [a, b, c] = t.map(p);
+        let longest = vec3::dist(a, b).max(vec3::dist(b, c)).max(vec3::dist(c, a));
+        if vec3::norm(vec3::area_vector(a, b, c)) > 1e-9 * longest * longest {
+            continue;
+        }
+        found = true;
+        let len = |k: usize| vec3::dist(p(t[k]), p(t[(k + 1) % 3]));
+        let k = (0..3).max_by(|&i, &j| len(i).total_cmp(&len(j))).unwrap_or(0);
+        let (u, w, m) = (t[k], t[(k + 1) % 3], t[(k + 2) % 3]);
+        let other =
+            (0..tris.len()).find(|&j| j != i && tris[j].contains(&u) && tris[j].contains(&w));
+        match other {
+            Some(j) => {
+                let d = tris[j].iter().copied().find(|&v| v != u && v != w).unwrap_or(m);
+                tris[i] = [u, m, d];
+                tris[j] = [m, w, d];
+            }
+            None => drop.push(i),
+        }
+    }
+    drop.sort_unstable();
+    drop.dedup();
+    for i in drop.into_iter().rev() {
+        tris.swap_remove(i);
+    }
+    found
 }
 
 /// Even-odd test of `p` in the polygon `poly`.
@@ -721,7 +781,7 @@ fn holed_face(
         let pts = vs.map(|v| [v.position().x, v.position().y]);
         let mid =
             [(pts[0][0] + pts[1][0] + pts[2][0]) / 3.0, (pts[0][1] + pts[1][1] + pts[2][1]) / 3.0];
-        if !polys.iter().any(|t| barycentric(*t, mid).is_some())
+        if !polys.iter().any(|t| strictly_inside(*t, mid))
             || loops2.iter().any(|l| inside_polygon(l, mid))
         {
             continue;
@@ -730,11 +790,9 @@ fn holed_face(
         for (k, v) in vs.iter().enumerate() {
             tri[k] = *ids.get(&v.fix().index()).ok_or_else(|| fail("a point was added"))?;
         }
-        if cross2(pts[0], pts[1], pts[2]) < 0.0 {
-            tri.swap(1, 2);
-        }
         tris.push(tri);
     }
+    settle(mesh, &mut tris, frame);
     Ok(tris)
 }
 
