@@ -483,6 +483,16 @@ fn barycentric(t: [[f64; 2]; 3], p: [f64; 2]) -> Option<[f64; 3]> {
     w.iter().all(|&x| x >= -1e-12).then_some(w)
 }
 
+/// Whether the facet of a triangulation with corners `pts` and middle `mid` lies in the region
+/// covered by the plan triangles `polys`: its middle strictly inside one, or, unless it is a
+/// sliver (which round-off may put outside an outline by a hair), on one's edge.
+fn taken(polys: &[[[f64; 2]; 3]], pts: [[f64; 2]; 3], mid: [f64; 2]) -> bool {
+    let longest = (0..3).map(|k| vec3::dist_2d(pts[k], pts[(k + 1) % 3])).fold(0.0, f64::max);
+    let sliver = cross2(pts[0], pts[1], pts[2]).abs() <= 1e-9 * longest * longest;
+    polys.iter().any(|t| strictly_inside(*t, mid))
+        || (!sliver && polys.iter().any(|t| barycentric(*t, mid).is_some()))
+}
+
 /// Whether `p` lies strictly inside the plan triangle `t` (a sliver's middle outside an outline
 /// by round-off is not taken in).
 fn strictly_inside(t: [[f64; 2]; 3], p: [f64; 2]) -> bool {
@@ -626,7 +636,7 @@ fn fill_patch(
         let pts = vs.map(|v| [v.position().x, v.position().y]);
         let mid =
             [(pts[0][0] + pts[1][0] + pts[2][0]) / 3.0, (pts[0][1] + pts[1][1] + pts[2][1]) / 3.0];
-        if !polys.iter().any(|t| strictly_inside(*t, mid)) || inside_polygon(&circle2, mid) {
+        if !taken(&polys, pts, mid) || inside_polygon(&circle2, mid) {
             continue;
         }
         let mut tri = [0u32; 3];
@@ -781,9 +791,7 @@ fn holed_face(
         let pts = vs.map(|v| [v.position().x, v.position().y]);
         let mid =
             [(pts[0][0] + pts[1][0] + pts[2][0]) / 3.0, (pts[0][1] + pts[1][1] + pts[2][1]) / 3.0];
-        if !polys.iter().any(|t| strictly_inside(*t, mid))
-            || loops2.iter().any(|l| inside_polygon(l, mid))
-        {
+        if !taken(&polys, pts, mid) || loops2.iter().any(|l| inside_polygon(l, mid)) {
             continue;
         }
         let mut tri = [0u32; 3];
