@@ -266,3 +266,27 @@ fn casting_moulds_of_one_and_two_webs_hold_their_checks() {
         }
     }
 }
+
+/// The alloy's shrinkage: the record's `shrinkage_pct`, else its thermal contraction from the
+/// solidus to 20 °C (the demo's Bi58Sn42: 15e-6 /K × 118 K = 0.177 %, arithmetic); a value out
+/// of the plausible range is refused naming the file and the key.
+#[test]
+fn the_alloy_shrinkage_is_read_from_its_record() {
+    let dir = tempfile::tempdir().unwrap();
+    let project = demo(dir.path(), None);
+    let spec = read_project(&project).unwrap().tooling.unwrap();
+    assert!((spec.core_alloy_shrinkage - 15e-6 * 118.0).abs() < 1e-12);
+    let materials = dir.path().join("materials.toml");
+    let text = std::fs::read_to_string(&materials).unwrap();
+    let given = text.replace("solidus_C = 138\n", "solidus_C = 138\nshrinkage_pct = 0.5\n");
+    assert_ne!(given, text);
+    std::fs::write(&materials, &given).unwrap();
+    let spec = read_project(&project).unwrap().tooling.unwrap();
+    assert!((spec.core_alloy_shrinkage - 0.005).abs() < 1e-15);
+    std::fs::write(&materials, given.replace("shrinkage_pct = 0.5", "shrinkage_pct = 9")).unwrap();
+    let err = read_project(&project).expect_err("9 % is refused").to_string();
+    assert!(
+        err.contains("materials.toml") && err.contains("shrinkage_pct") && err.contains("found 9"),
+        "{err}"
+    );
+}
