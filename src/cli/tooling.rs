@@ -344,15 +344,15 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     out.note(&format!(
         "wrote {} STL files (and {} in machining frames), {SUMMARY_FILE}, {EXPLODED_FILE} and \
          {MANIFEST_FILE} into {}",
-        result.tooling.parts.len() + cast_parts(&result),
-        result.tooling.machining.len() + cast_parts(&result),
+        result.tooling.parts.len(),
+        result.tooling.machining.len(),
         args.out.display()
     ));
-    let cast: usize = result.tooling.casting.iter().map(|m| m.parts.len()).sum();
+    let cast = cast_parts(&result);
     if cast > 0 {
         out.note(&format!(
-            "of which {cast} are parts of the cores' casting moulds (core-N-cast-*.stl), each \
-             also in its machining frame"
+            "and {cast} STL files of the cores' casting moulds (core-N-cast-*.stl), and each \
+             again in its machining frame"
         ));
     }
     for n in &result.tooling.casting_notes {
