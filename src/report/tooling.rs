@@ -296,7 +296,7 @@ impl ToolingReport<'_> {
             ("up (pouring)", Align::Left),
             (&format!("sprue in/out {u}"), Align::Left),
             (&format!("vent in/out {u}"), Align::Left),
-            (&format!("vent below top {u}"), Align::Right),
+            (&format!("vent below highest {u}"), Align::Right),
             ("parts", Align::Left),
         ]);
         let v =
