@@ -1,7 +1,8 @@
 //! Tooling kernel: loft and write about two million triangles (binary STL), and check them; and
 //! the whole tooling of the invented mine-fan demo (`layups/mine-fan/`): cores, shell and mould
 //! halves built, then checked and written as `layloft tooling` does (`whole_run`: with the
-//! machining copies, the digests and the masses).
+//! machining copies, the cores' casting moulds, the digests and the masses;
+//! `whole_run_without_casting`: the same without the casting moulds).
 //!
 //! Run with `cargo bench --bench tooling`. The input is fixed (no randomness): an invented
 //! straight NACA 0012 blade, 0.10 m chord, 30° of twist per metre, trimmed by spheres of
@@ -97,26 +98,36 @@ fn bench_demo(c: &mut Criterion) {
     });
     // The whole run of `layloft tooling`: parts built, every part and machining copy checked and
     // written with its digest, masses summarised (the demo's goal: under 2 s).
-    g.bench_function("whole_run", |b| {
-        b.iter(|| {
-            let t = build_tooling(&blade, &params, &mut |_, _, _| {}).expect("the demo's tooling");
-            let parts: Vec<(&str, &Mesh)> =
-                t.parts.iter().map(|p| (p.name.as_str(), &p.mesh)).collect();
-            let copies: Vec<(&str, &Mesh)> =
-                t.machining.iter().map(|m| (m.name.as_str(), &m.mesh)).collect();
-            let w = write_part_set_with_progress(
-                dir.path(),
-                &parts,
-                &copies,
-                &StlOptions::default(),
-                &CheckParams::default(),
-                &mut |_, _, _| {},
-            )
-            .expect("written");
-            let summary = summarise(&project, &blade, &t);
-            (w.len(), summary.masses.len())
-        })
-    });
+    // With the cores' casting moulds (as `layloft tooling` now runs), and without them (the
+    // run before they were added), for the ratio in one run.
+    let without = ToolingParams { casting: None, ..params.clone() };
+    for (label, params) in [("whole_run", &params), ("whole_run_without_casting", &without)] {
+        g.bench_function(label, |b| {
+            b.iter(|| {
+                let t =
+                    build_tooling(&blade, params, &mut |_, _, _| {}).expect("the demo's tooling");
+                let mut parts: Vec<(&str, &Mesh)> =
+                    t.parts.iter().map(|p| (p.name.as_str(), &p.mesh)).collect();
+                let mut copies: Vec<(&str, &Mesh)> =
+                    t.machining.iter().map(|m| (m.name.as_str(), &m.mesh)).collect();
+                for m in &t.casting {
+                    parts.extend(m.parts.iter().map(|p| (p.name.as_str(), &p.mesh)));
+                    copies.extend(m.machining.iter().map(|c| (c.name.as_str(), &c.mesh)));
+                }
+                let w = write_part_set_with_progress(
+                    dir.path(),
+                    &parts,
+                    &copies,
+                    &StlOptions::default(),
+                    &CheckParams::default(),
+                    &mut |_, _, _| {},
+                )
+                .expect("written");
+                let summary = summarise(&project, &blade, &t);
+                (w.len(), summary.masses.len())
+            })
+        });
+    }
     g.bench_function("check_and_write_parts", |b| {
         b.iter(|| {
             let parts: Vec<(&str, &Mesh)> =

@@ -47,6 +47,14 @@ fn the_mine_fan_demo_writes_closed_outward_parts_and_a_summary() {
     }
     // The list of the set's files, by which the next run knows which files are the tool's.
     want.push(".layloft-set".into());
+    // Each core's casting mould: two halves and, the core's ends being spheres, an end piece
+    // at each end; each part again in its machining frame.
+    for core in ["core-1", "core-2"] {
+        for part in ["upper", "lower", "root-end", "tip-end"] {
+            want.push(format!("{core}-cast-{part}.stl"));
+            want.push(format!("{core}-cast-{part}-machining.stl"));
+        }
+    }
     want.sort();
     assert_eq!(names, want, "no temporary files or other leftovers");
     let json: Value = serde_json::from_str(&stdout).unwrap_or_else(|e| panic!("{e}: {stdout}"));
@@ -119,6 +127,8 @@ fn the_mine_fan_demo_writes_closed_outward_parts_and_a_summary() {
     assert!(svg.contains("confirm by test"));
     // Five parts and the two end pieces.
     assert!(stderr.contains("wrote 7 STL files"), "{stderr}");
+    // Two cores, each cast in two halves and two end pieces.
+    assert!(stderr.contains("and 8 STL files of the cores' casting moulds"), "{stderr}");
 }
 
 #[test]

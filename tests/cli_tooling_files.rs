@@ -158,14 +158,41 @@ fn a_web_removed_leaves_exactly_the_new_set_and_files_the_tool_did_not_write() {
     .iter()
     .map(|s| s.to_string())
     .collect();
+    // The two cores' casting moulds (halves and end pieces, each also machined).
+    for core in ["core-1", "core-2"] {
+        for part in ["upper", "lower", "root-end", "tip-end"] {
+            want.push(format!("{core}-cast-{part}.stl"));
+            want.push(format!("{core}-cast-{part}-machining.stl"));
+        }
+    }
     want.sort();
     assert_eq!(files_in(&out), want);
-    assert_eq!(json["earlier_files"]["removed"], serde_json::json!(["core-3.stl", "core-4.stl"]));
+    // Removed: core-3 and core-4 and the files of their casting moulds, exactly the files of
+    // the earlier manifest that belong to those cores.
+    let mut gone: Vec<String> = listed
+        .iter()
+        .filter(|f| {
+            ["core-3.", "core-4.", "core-3-cast-", "core-4-cast-"].iter().any(|p| f.starts_with(p))
+        })
+        .cloned()
+        .collect();
+    gone.sort();
+    assert!(gone.contains(&"core-3.stl".to_string()) && gone.contains(&"core-4.stl".to_string()));
+    assert!(gone.len() > 2, "the removed cores' casting moulds are among the removed files");
+    let mut removed: Vec<String> = json["earlier_files"]["removed"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|f| f.as_str().unwrap().to_string())
+        .collect();
+    removed.sort();
+    assert_eq!(removed, gone);
     assert!(
-        stderr.contains(
-            "removed 2 file(s) of the earlier run that the new set no longer holds: \
-                         core-3.stl, core-4.stl"
-        ),
+        stderr.contains(&format!(
+            "removed {} file(s) of the earlier run that the new set no longer holds: ",
+            gone.len()
+        )) && stderr.contains("core-3.stl")
+            && stderr.contains("core-4.stl"),
         "{stderr}"
     );
     assert_eq!(std::fs::read_to_string(out.join("core-9.stl")).unwrap(), "not ours");

@@ -23,6 +23,8 @@ mod validation_blade_tooling;
 mod validation_buckling;
 #[path = "validation_buoyancy_build.rs"]
 mod validation_buoyancy_build;
+#[path = "validation_casting.rs"]
+mod validation_casting;
 #[path = "validation_core_prints.rs"]
 mod validation_core_prints;
 #[path = "validation_failure.rs"]

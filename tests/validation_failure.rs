@@ -162,6 +162,7 @@ fn bimetal_strip_curvature_matches_timoshenko_1925() {
         shear_strength: None,
         cte: Some(cte),
         melting_range_c: None,
+        shrinkage_pct: None,
         safety_note: None,
         core: None,
     };

@@ -32,7 +32,9 @@ Examples:
 
 Writes one STL file per part into the folder (core-1.stl, core-2.stl, ..., shell.stl,
 mould-upper.stl, mould-lower.stl), each mould part again in its machining frame
-(mould-upper-machining.stl, ...), tooling-summary.json, tooling-exploded.svg (the mould parts
+(mould-upper-machining.stl, ...), each core's casting mould (core-1-cast-upper.stl,
+core-1-cast-lower.stl, end pieces where its ends need them, each also in its machining frame),
+tooling-summary.json, tooling-exploded.svg (the mould parts
 drawn apart along their pulls) and tooling-manifest.json (every file of
 the set with its size and SHA-256). Files of an earlier run that the new set no longer holds are
 removed, but only those the earlier manifest lists and that are unchanged since; any other file
@@ -183,10 +185,15 @@ pub fn build_and_write(
     })
     .map_err(|e| mesh_failure(project, e))?;
     drop(bar);
-    let parts: Vec<(&str, &layloft::tooling::Mesh)> =
+    let mut parts: Vec<(&str, &layloft::tooling::Mesh)> =
         tooling.parts.iter().map(|p| (p.name.as_str(), &p.mesh)).collect();
-    let copies: Vec<(&str, &layloft::tooling::Mesh)> =
+    let mut copies: Vec<(&str, &layloft::tooling::Mesh)> =
         tooling.machining.iter().map(|m| (m.name.as_str(), &m.mesh)).collect();
+    // The cores' casting moulds, after the blade's parts and their machining frames.
+    for m in &tooling.casting {
+        parts.extend(m.parts.iter().map(|p| (p.name.as_str(), &p.mesh)));
+        copies.extend(m.machining.iter().map(|c| (c.name.as_str(), &c.mesh)));
+    }
     // The new set, and what an earlier run left in the folder that it does not hold.
     let mut set: Vec<String> =
         parts.iter().chain(&copies).map(|(n, _)| format!("{n}.stl")).collect();
@@ -269,6 +276,11 @@ pub fn build_and_write(
     Ok(result)
 }
 
+/// How many casting-mould parts the run wrote (each once more in its machining frame).
+fn cast_parts(result: &Written) -> usize {
+    result.tooling.casting.iter().map(|m| m.parts.len()).sum()
+}
+
 /// File name of the tooling summary in the output folder.
 const SUMMARY_FILE: &str = "tooling-summary.json";
 
@@ -336,6 +348,16 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         result.tooling.machining.len(),
         args.out.display()
     ));
+    let cast = cast_parts(&result);
+    if cast > 0 {
+        out.note(&format!(
+            "and {cast} STL files of the cores' casting moulds (core-N-cast-*.stl), and each \
+             again in its machining frame"
+        ));
+    }
+    for n in &result.tooling.casting_notes {
+        out.note(&format!("casting moulds: {n}"));
+    }
     let failed = tell(&result, out);
     if !args.json {
         // The verdict of the melting check is the last line.

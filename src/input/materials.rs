@@ -126,6 +126,10 @@ const LAMINA_KEYS: &[&str] = &[
 ];
 
 /// Every key an `[isotropic.NAME]` table may hold.
+/// Plausible linear casting shrinkage of a core alloy, % (bismuth alloys grow a little on
+/// freezing; foundry alloys shrink by up to about 2.5 %: common practice, with room either way).
+const SHRINKAGE_PCT: (f64, f64) = (-1.0, 6.0);
+
 const ISOTROPIC_KEYS: &[&str] = &[
     "E_GPa",
     "nu",
@@ -135,6 +139,7 @@ const ISOTROPIC_KEYS: &[&str] = &[
     "compressive_strength_MPa",
     "shear_strength_MPa",
     "cte_ustrain_K",
+    "shrinkage_pct",
     "solidus_C",
     "liquidus_C",
     "safety_note",
@@ -229,6 +234,19 @@ fn read_isotropic(name: &str, t: &mut TableReader<'_>) -> Result<Isotropic, Inpu
             ));
         }
     }
+    let shrinkage_pct = t.optional_f64("shrinkage_pct")?;
+    if let Some(v) = shrinkage_pct {
+        if !(SHRINKAGE_PCT.0..=SHRINKAGE_PCT.1).contains(&v) {
+            return Err(t.error(
+                "shrinkage_pct",
+                format!(
+                    "expected a linear casting shrinkage of {} to {} % (a fusible alloy shrinks \
+                     by a few tenths of a per cent; bismuth alloys may grow), found {v}",
+                    SHRINKAGE_PCT.0, SHRINKAGE_PCT.1
+                ),
+            ));
+        }
+    }
     let safety_note = t.optional_str("safety_note")?;
     t.optional_str("source")?;
     let core = read_core(t, e)?;
@@ -243,6 +261,7 @@ fn read_isotropic(name: &str, t: &mut TableReader<'_>) -> Result<Isotropic, Inpu
         shear_strength,
         cte,
         melting_range_c,
+        shrinkage_pct,
         safety_note,
         core,
     })

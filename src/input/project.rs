@@ -338,6 +338,10 @@ pub struct ToolingSpec {
     pub core_print_fraction: f64,
     /// How far a core print stands out beyond the shell's end, m.
     pub core_print_length: f64,
+    /// Linear shrinkage of the core alloy from its solidus to room temperature (a fraction),
+    /// for the core casting moulds: the alloy record's `shrinkage_pct`, else its
+    /// `cte_ustrain_K` times the fall from `solidus_C` to 20 °C, else 0.2 %.
+    pub core_alloy_shrinkage: f64,
 }
 
 impl Default for ToolingSpec {
@@ -357,6 +361,7 @@ impl Default for ToolingSpec {
             min_core_thickness: 2.0e-3,
             core_print_fraction: 0.0,
             core_print_length: 0.015,
+            core_alloy_shrinkage: 0.002,
         }
     }
 }

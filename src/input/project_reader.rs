@@ -918,9 +918,21 @@ fn read_tooling(
 ) -> Result<ToolingSpec, InputError> {
     let d = ToolingSpec::default();
     let core_alloy = t.optional_str("core_alloy")?;
+    let mut core_alloy_shrinkage = d.core_alloy_shrinkage;
     if let Some(name) = &core_alloy {
         match materials.get(name) {
-            Ok(Material::Isotropic(_)) => {}
+            Ok(Material::Isotropic(i)) => {
+                // The record's own shrinkage, else its thermal contraction from the solidus
+                // to 20 °C (the casting shrinks as a solid; the change of volume on freezing is
+                // left out: bismuth alloys barely shrink or grow then).
+                core_alloy_shrinkage = match (i.shrinkage_pct, i.cte, i.melting_range_c) {
+                    (Some(pct), _, _) => pct / 100.0,
+                    (None, Some(cte), Some([solidus, _])) if solidus > 20.0 => {
+                        cte * (solidus - 20.0)
+                    }
+                    _ => d.core_alloy_shrinkage,
+                };
+            }
             Ok(Material::Lamina(_)) => {
                 return Err(t.error("core_alloy", format!("'{name}' is a lamina: expected an [isotropic.NAME] record with a melting range")));
             }
@@ -1033,6 +1045,7 @@ fn read_tooling(
         min_core_thickness,
         core_print_fraction,
         core_print_length,
+        core_alloy_shrinkage,
     })
 }
 

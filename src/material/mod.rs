@@ -248,6 +248,9 @@ pub struct Isotropic {
     pub cte: Option<f64>,
     /// Melting range (solidus, liquidus) in °C, for fusible core alloys.
     pub melting_range_c: Option<[f64; 2]>,
+    /// Linear casting shrinkage from the solidus to room temperature, %, for fusible core
+    /// alloys (`shrinkage_pct`).
+    pub shrinkage_pct: Option<f64>,
     /// Free-text handling note printed beside the material in reports (e.g. "contains lead").
     pub safety_note: Option<String>,
     /// Sandwich-core properties when the record is marked as a core (foam, balsa, honeycomb).
@@ -358,6 +361,7 @@ mod tests {
             shear_strength: None,
             cte: Some(23e-6),
             melting_range_c: None,
+            shrinkage_pct: None,
             safety_note: None,
             core: None,
         };

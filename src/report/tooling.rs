@@ -41,6 +41,13 @@ const DRAIN_CAUTION: &str = "Melting out: low-melting core alloys give off metal
      ventilated place or under extraction, wear gloves and eye protection, keep food away, \
      catch and weigh every drop, and keep the alloy for recasting or hazardous-waste disposal.";
 
+/// The caution on casting the cores, beside the casting moulds.
+const CASTING_CAUTION: &str = "Casting the cores: molten low-melting alloys burn and give off \
+     metal fumes; alloys with bismuth, lead or cadmium are toxic: pour in a ventilated place or \
+     under extraction, dry and warm the mould first (moisture under molten metal flashes to \
+     steam), wear a face shield, gloves and closed clothing, keep food away, and keep the \
+     sprue, the vent and the spills for recasting or hazardous-waste disposal.";
+
 /// `text` wrapped at 96 columns, the first line after `first`, the others after `rest`.
 fn wrap(text: &str, first: &str, rest: &str) -> String {
     let mut out = String::new();
@@ -278,6 +285,62 @@ impl ToolingReport<'_> {
         table
     }
 
+    /// The cores' casting moulds: alloy to melt, pouring position, sprue and vent, parts.
+    fn casting_table(&self) -> Table {
+        let u = self.unit().symbol();
+        let mut table = Table::new(&[
+            ("core", Align::Left),
+            ("alloy cm³", Align::Right),
+            ("alloy kg", Align::Right),
+            ("shrink %", Align::Right),
+            ("up (pouring)", Align::Left),
+            (&format!("sprue in/out {u}"), Align::Left),
+            (&format!("vent in/out {u}"), Align::Left),
+            (&format!("vent below highest {u}"), Align::Right),
+            ("parts", Align::Left),
+        ]);
+        let v =
+            |a: [f64; 3]| format!("({}, {}, {})", fixed(a[0], 3), fixed(a[1], 3), fixed(a[2], 3));
+        let p =
+            |a: [f64; 3]| format!("({}, {}, {})", self.len(a[0]), self.len(a[1]), self.len(a[2]));
+        for (m, a) in self.tooling.casting.iter().zip(&self.summary.casting_alloy) {
+            table.row(vec![
+                m.core.clone(),
+                sig4(m.metal_volume * 1e6),
+                a.mass.map_or("-".into(), sig4),
+                fixed(m.shrinkage * 100.0, 2),
+                v(m.up),
+                format!("{} -> {}", p(m.sprue.entry), p(m.sprue.outlet)),
+                format!("{} -> {}", p(m.vent.entry), p(m.vent.outlet)),
+                self.small(m.vent_shortfall),
+                m.parts.len().to_string(),
+            ]);
+        }
+        table
+    }
+
+    fn casting_text(&self, s: &mut String) {
+        let t = self.tooling;
+        if t.casting.is_empty() && t.casting_notes.is_empty() {
+            return;
+        }
+        s.push('\n');
+        s.push_str(&wrap(
+            "Core casting moulds (core-N-cast-upper/-lower.stl, end pieces where an end needs \
+             them, each also in its machining frame): the cavity is the core scaled by the \
+             alloy's shrinkage; pour with the block on the lower half's back face, up as given \
+             (rotor frame); the sprue and the vent run up to the top face, narrowing; alloy to \
+             melt is the cavity, the sprue and the vent",
+            "",
+            "  ",
+        ));
+        s.push_str(&self.casting_table().render(2));
+        for n in &t.casting_notes {
+            s.push_str(&wrap(n, "  ", "    "));
+        }
+        s.push_str(&wrap(CASTING_CAUTION, "  ! ", "    "));
+    }
+
     /// What became of the files of an earlier run, as lines (empty when nothing was there).
     fn stale_lines(&self) -> Vec<String> {
         let st = self.stale;
@@ -370,6 +433,18 @@ impl ToolingReport<'_> {
             }
             block.notes.push(DRAIN_CAUTION.to_string());
         }
+        if !self.tooling.casting.is_empty() {
+            block.tables.push((
+                "Core casting moulds: alloy to melt (cavity, sprue and vent), shrinkage, up when \
+                 pouring, the sprue's and the vent's axis from the cavity to the top face \
+                 (rotor frame), how far the cavity's highest point lies above the vent's foot, \
+                 and the number of parts."
+                    .into(),
+                self.casting_table(),
+            ));
+            block.notes.push(CASTING_CAUTION.to_string());
+        }
+        block.notes.extend(self.tooling.casting_notes.iter().cloned());
         block.notes.extend(self.stale_lines());
         for l in lines(&melt) {
             if l.starts_with("FAIL") {
@@ -432,6 +507,7 @@ impl ToolingReport<'_> {
         self.drain_text(&mut s);
         self.moulds_text(&mut s);
         self.machining_text(&mut s);
+        self.casting_text(&mut s);
         s
     }
 
@@ -814,6 +890,60 @@ impl ToolingReport<'_> {
         });
         if let (Some(o), Value::Object(p)) = (out.as_object_mut(), prints) {
             o.extend(p);
+        }
+        // The cores' casting moulds, after the keys above.
+        let channel = |c: &crate::tooling::Channel| {
+            json!({
+                "entry": point(c.entry),
+                "outlet": point(c.outlet),
+                "entry_diameter_m": num(c.entry_diameter),
+                "outlet_diameter_m": num(c.outlet_diameter),
+                "volume_m3": num(c.volume),
+            })
+        };
+        let casting = json!({
+            "casting_moulds": t.casting.iter().zip(&self.summary.casting_alloy).map(|(m, a)| json!({
+                "core": m.core,
+                "shrinkage_pct": num(m.shrinkage * 100.0),
+                "core_volume_m3": num(m.core_volume),
+                "cavity_volume_m3": num(m.cavity_volume),
+                "alloy_volume_m3": num(m.metal_volume),
+                "alloy_mass_kg": opt(a.mass),
+                "alloy_mass_basis": a.basis,
+                "pull_chord_angle_deg": num(m.pull_angle.deg()),
+                "pouring_up": m.up.map(num),
+                "highest_point": point(m.highest),
+                "vent_below_highest_m": num(m.vent_shortfall),
+                "sprue": channel(&m.sprue),
+                "vent": channel(&m.vent),
+                "block_volume_m3": num(m.block_volume),
+                "parts": m.parts.iter().map(|p| json!({
+                    "name": p.name,
+                    "file": format!("{}.stl", p.name),
+                    "pull": {"x": num(p.pull[0]), "y": num(p.pull[1]), "z": num(p.pull[2])},
+                    "volume_m3": num(p.mesh.signed_volume()),
+                })).collect::<Vec<_>>(),
+                "halves": m.halves.iter().chain(&m.end_pieces).map(|h| json!({
+                    "part": h.side,
+                    "least_draft_deg": num(h.draft.min_draft.deg()),
+                    "below_least_draft_area_m2": num(h.draft.below_min_area),
+                    "undercut_area_m2": num(h.draft.undercut_area),
+                })).collect::<Vec<_>>(),
+                "machining_frames": m.machining.iter().map(|c| json!({
+                    "part": c.part,
+                    "name": c.name,
+                    "file": format!("{}.stl", c.name),
+                    "x_axis": c.frame.axes[0].map(num),
+                    "y_axis": c.frame.axes[1].map(num),
+                    "z_axis": c.frame.axes[2].map(num),
+                    "origin_m": c.frame.origin.map(num),
+                })).collect::<Vec<_>>(),
+            })).collect::<Vec<_>>(),
+            "casting_notes": t.casting_notes,
+            "casting_caution": CASTING_CAUTION,
+        });
+        if let (Some(o), Value::Object(c)) = (out.as_object_mut(), casting) {
+            o.extend(c);
         }
         out
     }

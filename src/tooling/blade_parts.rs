@@ -27,6 +27,7 @@
 
 use super::blade_surface::span_samples;
 use super::blade_surface::{BladeSurface, CoreCell, CoreEnd, CutBound, Side, core_cuts};
+use super::casting::{CastingInput, CastingMould, CastingParams, casting_mould};
 use super::error::{End, MeshError};
 use super::grid::LoftParams;
 use super::loft::{LoftedSolid, loft_solid};
@@ -71,6 +72,8 @@ pub struct ToolingParams {
     /// How far a core print stands out beyond the shell's outer end surface, m (at most the
     /// mould margin).
     pub print_length: f64,
+    /// How each core's casting mould is made (`None`: no casting moulds).
+    pub casting: Option<CastingParams>,
 }
 
 /// How the blade's ends are trimmed.
@@ -100,6 +103,7 @@ impl Default for ToolingParams {
             // Off until the mould parts carry seats for the prints (see docs/decisions.md).
             print_fraction: 0.0,
             print_length: 0.015,
+            casting: Some(CastingParams::default()),
         }
     }
 }
@@ -119,6 +123,10 @@ impl ToolingParams {
             ends: EndShape::Spheres,
             print_fraction: spec.core_print_fraction,
             print_length: spec.core_print_length,
+            casting: Some(CastingParams {
+                shrinkage: spec.core_alloy_shrinkage,
+                ..CastingParams::default()
+            }),
         })
     }
 
@@ -261,6 +269,10 @@ pub struct BladeTooling {
     /// Cores without a print: closed by bulkheads at both ends, their cells reach no end of
     /// the blade (none when prints are off).
     pub unprinted: Vec<String>,
+    /// Each core's casting mould, in core order (see [`super::CastingMould`]).
+    pub casting: Vec<CastingMould>,
+    /// Cores without a casting mould, each with the reason.
+    pub casting_notes: Vec<String>,
 }
 
 /// A mould part in its machining frame: the casting leaves the cavity along +Z, the back face
@@ -582,6 +594,10 @@ pub fn build_tooling(
         let name = format!("{}-machining", p.name);
         machining.push(MachinedPart { part: p.name.clone(), name, mesh, frame });
     }
+    let (casting, casting_notes) = match &params.casting {
+        Some(c) => casting_moulds(&cells, &loft, params, c, mould_pull_angle, printing),
+        None => (Vec::new(), Vec::new()),
+    };
     Ok(BladeTooling {
         parts,
         core_ends,
@@ -596,7 +612,48 @@ pub fn build_tooling(
         mould_pull_angle,
         prints: printed.into_iter().map(|p| p.print).collect(),
         unprinted,
+        casting,
+        casting_notes,
     })
+}
+
+/// The casting mould of every core (see [`super::CastingMould`]); a core whose mould cannot be
+/// made is named with the reason instead, and the rest of the tooling stands.
+fn casting_moulds(
+    cells: &[(CoreCell<'_>, Trims)],
+    loft: &LoftParams,
+    params: &ToolingParams,
+    casting: &CastingParams,
+    first: Angle,
+    printing: bool,
+) -> (Vec<CastingMould>, Vec<String>) {
+    let (mut moulds, mut notes) = (Vec::new(), Vec::new());
+    for (i, (cell, trims)) in cells.iter().enumerate() {
+        let name = format!("core-{}", i + 1);
+        let input = CastingInput {
+            name: &name,
+            cell,
+            trims,
+            loft,
+            first,
+            margin: params.mould_margin,
+            tolerance: params.tolerance,
+            min_draft: params.min_draft,
+            unit: params.unit,
+        };
+        match casting_mould(&input, casting) {
+            Ok(m) => moulds.push(m),
+            Err(e) => notes.push(format!("{name}: no casting mould ({e})")),
+        }
+    }
+    if printing && !moulds.is_empty() {
+        notes.push(
+            "the casting moulds cast the cores without their prints: the prints are not in them \
+             yet"
+            .into(),
+        );
+    }
+    (moulds, notes)
 }
 
 /// Chooses the mould's pull and lofts the outer mould line parted for it; the pull's chord

@@ -49,6 +49,7 @@
 mod blade_parts;
 mod blade_surface;
 mod cap;
+mod casting;
 mod cells;
 mod check;
 mod draft;
@@ -77,6 +78,7 @@ pub use blade_parts::{
     trailing_edge_kind,
 };
 pub use blade_surface::CoreEnd;
+pub use casting::{CastPart, CastingMould, CastingParams, Channel};
 pub use cells::{Cell, WebPosition, split_cells};
 pub use check::{CheckParams, MeshSummary, check_solid};
 pub use draft::{DraftReport, evaluate_draft};

@@ -165,6 +165,8 @@ pub struct ToolingSummary {
     pub drain_orientation: Vec<String>,
     /// Per print (and per core without one) whether its alloy drains, in core order.
     pub drain_findings: Vec<MeltFinding>,
+    /// Alloy to melt for each core's casting, in the order of [`BladeTooling::casting`].
+    pub casting_alloy: Vec<PartMass>,
 }
 
 /// Which way to stand the mould so the cores drain, and whether each one does (see the module
@@ -311,6 +313,23 @@ pub fn summarise(project: &Project, blade: &Blade, tooling: &BladeTooling) -> To
     });
     let temps = [spec.injection_temperature_c, spec.gel_temperature_c, spec.cure_temperature_c];
     let (drain_orientation, drain_findings) = drain_plan(tooling, tooling.params.tolerance);
+    // Each casting takes the cavity, the sprue and the vent full of alloy.
+    let casting_alloy = tooling
+        .casting
+        .iter()
+        .map(|m| match &alloy {
+            Some(a) => PartMass {
+                mass: Some(m.metal_volume * a.density),
+                resin: None,
+                basis: format!("core alloy {} at {} kg/m³", a.name, a.density),
+            },
+            None => PartMass {
+                mass: None,
+                resin: None,
+                basis: "not computed: no core_alloy in [tooling]".into(),
+            },
+        })
+        .collect();
     ToolingSummary {
         masses,
         schedule,
@@ -318,5 +337,6 @@ pub fn summarise(project: &Project, blade: &Blade, tooling: &BladeTooling) -> To
         melt: melt_check(alloy.as_ref(), temps),
         drain_orientation,
         drain_findings,
+        casting_alloy,
     }
 }
