@@ -604,7 +604,7 @@ pub fn build_tooling(
     step("shell", progress);
     let (moulds, end_pieces, modular) = match mould {
         Mould::Whole(set) => {
-            let (moulds, end_pieces) = push_mould_parts(set, &mut parts);
+            let (moulds, end_pieces) = push_mould_parts(*set, &mut parts);
             (moulds, end_pieces, None)
         }
         Mould::Modular(m) => {
@@ -647,7 +647,7 @@ pub fn build_tooling(
 
 /// The mould chosen by [`build_tooling`]: two halves (and end pieces), or span-wise modules.
 enum Mould {
-    Whole(MouldParts),
+    Whole(Box<MouldParts>),
     Modular(ModularMould),
 }
 
@@ -680,9 +680,11 @@ fn choose_mould(
     };
     let mut best = match chosen {
         Ok((solid, angle, set)) if undercut(&set) == 0.0 => {
-            return Ok((solid, angle, Mould::Whole(set)));
+            return Ok((solid, angle, Mould::Whole(Box::new(set))));
         }
-        Ok((solid, angle, set)) => Some((undercut(&set), solid, angle, Mould::Whole(set))),
+        Ok((solid, angle, set)) => {
+            Some((undercut(&set), solid, angle, Mould::Whole(Box::new(set))))
+        }
         Err(e) => {
             let prefer = None;
             return match split_mould(outer, trims, loft, params, span, prefer) {
@@ -692,7 +694,7 @@ fn choose_mould(
                 }
                 Ok(Split::One(angle)) => {
                     let (solid, set) = single_mould(outer, trims, loft, params, angle)?;
-                    Ok((solid, angle, Mould::Whole(set)))
+                    Ok((solid, angle, Mould::Whole(Box::new(set))))
                 }
                 Err(_) => Err(e),
             };
@@ -709,7 +711,7 @@ fn choose_mould(
         Ok(Split::One(angle)) if Some(angle) == prefer => None,
         Ok(Split::One(angle)) => single_mould(outer, trims, loft, params, angle)
             .ok()
-            .map(|(solid, set)| (undercut(&set), solid, angle, Mould::Whole(set))),
+            .map(|(solid, set)| (undercut(&set), solid, angle, Mould::Whole(Box::new(set)))),
         Err(_) => None,
     };
     if let Some(c) = candidate {
