@@ -619,13 +619,17 @@ impl ToolingReport<'_> {
             );
             s.push_str(&wrap(&text, "  ", "    "));
         }
-        for h in t.mould_halves() {
+        for (name, h, _, _) in self.mould_parts() {
+            // A mould of modules names each part by its file name (several halves share a side).
+            let side = match t.modular {
+                Some(_) => name.to_string(),
+                None => format!("{} half", h.side),
+            };
             if h.undercuts.is_empty() {
-                let _ = writeln!(s, "  {} half: no undercuts", h.side);
+                let _ = writeln!(s, "  {side}: no undercuts");
                 continue;
             }
-            let _ =
-                writeln!(s, "  undercuts of the {} half ({} regions):", h.side, h.undercuts.len());
+            let _ = writeln!(s, "  undercuts of the {side} ({} regions):", h.undercuts.len());
             for r in h.undercuts.iter().take(8) {
                 let text = format!(
                     "{} cm² on the {}, x {}..{} {u}, worst {:.2}° at {}",
