@@ -380,6 +380,8 @@ fn the_demo_mould_parts_draft_and_fill_the_block_point_by_point() {
     // (the root cap at asin(x/|p|), geometry); no end undercut is left in the halves.
     let sides: Vec<&str> = t.end_pieces.iter().map(|e| e.side).collect();
     assert_eq!(sides, ["root end", "tip end"]);
+    // One pull draws the demo: two halves, no split along the span.
+    assert!(t.modular.is_none());
     for e in &t.end_pieces {
         assert!(e.undercuts.is_empty(), "{}: {:?}", e.side, e.undercuts);
         assert!(e.draft.min_draft.deg() >= t.params.min_draft.deg() - 1e-9, "{}", e.side);
@@ -431,6 +433,7 @@ fn the_small_wind_demo_mould_has_no_undercut_facet() {
     let blade = Blade::from_project(&project).expect("the demo blade lofts");
     // Without a [tooling] table: the stated defaults.
     let t = build(&blade, &ToolingParams { tolerance: 0.5e-3, ..ToolingParams::default() });
+    assert!(t.modular.is_none(), "one pull draws the demo: no split along the span");
     for h in t.moulds.iter().chain(&t.end_pieces) {
         assert!(h.undercuts.is_empty(), "{}: {:?}", h.side, h.undercuts);
         assert_eq!(h.draft.undercut_area, 0.0, "{}", h.side);

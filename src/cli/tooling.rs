@@ -290,7 +290,7 @@ pub const EXPLODED_FILE: &str = "tooling-exploded.svg";
 /// Notes on stderr about undercuts, and warnings about a failed melting check; whether the
 /// melting check failed.
 pub fn tell(result: &Written, out: &Output) -> bool {
-    for h in result.tooling.moulds.iter().chain(&result.tooling.end_pieces) {
+    for h in result.tooling.mould_halves() {
         if !h.undercuts.is_empty() {
             out.note(&format!(
                 "the {} mould half has {:.1} cm² of undercut in {} regions (see the summary)",

@@ -221,7 +221,7 @@ impl ToolingReport<'_> {
             .iter()
             .zip(&self.summary.masses)
             .filter(|(p, _)| p.kind.is_mould())
-            .zip(t.moulds.iter().chain(&t.end_pieces))
+            .zip(t.mould_halves())
             .map(|((p, m), h)| (p.name.as_str(), h, p.nominal_volume, m.mass))
             .collect()
     }
@@ -238,9 +238,15 @@ impl ToolingReport<'_> {
             ("volume cm³", Align::Right),
             ("mass kg", Align::Right),
         ]);
-        for (_, h, volume, mass) in self.mould_parts() {
+        let modular = self.tooling.modular.is_some();
+        for (name, h, volume, mass) in self.mould_parts() {
             table.row(vec![
-                h.side.to_string(),
+                // A mould split along the span names its modules' halves by part name.
+                if modular {
+                    name.trim_start_matches("mould-").to_string()
+                } else {
+                    h.side.to_string()
+                },
                 format!(
                     "({}, {}, {})",
                     fixed(h.pull[0], 3),
@@ -456,7 +462,7 @@ impl ToolingReport<'_> {
                 });
             }
         }
-        for h in self.tooling.moulds.iter().chain(&self.tooling.end_pieces) {
+        for h in self.tooling.mould_halves() {
             if !h.undercuts.is_empty() {
                 block.warnings.push(format!(
                     "the {} mould half has {} cm² of undercut in {} regions along its pull (worst {:.1}°)",
@@ -674,13 +680,32 @@ impl ToolingReport<'_> {
         ));
         let table = self.moulds_table();
         s.push_str(&table.render(2));
-        for h in t.moulds.iter().chain(&t.end_pieces) {
+        if let Some(m) = &t.modular {
+            let text = format!(
+                "no single pull draws every section: the mould is split along the span into {} \
+                 modules, each two halves with its own pull parted at its own silhouette, meeting \
+                 flush on planes normal to the pitch axis (radii {} {u}); take the end pieces off \
+                 first, then each module's halves",
+                m.modules.len(),
+                m.modules[1..]
+                    .iter()
+                    .map(|k| self.len(k.x_range[0]))
+                    .collect::<Vec<_>>()
+                    .join(", ")
+            );
+            s.push_str(&wrap(&text, "  ", "    "));
+        }
+        for (name, h, _, _) in self.mould_parts() {
+            // A mould of modules names each part by its file name (several halves share a side).
+            let side = match t.modular {
+                Some(_) => name.to_string(),
+                None => format!("{} half", h.side),
+            };
             if h.undercuts.is_empty() {
-                let _ = writeln!(s, "  {} half: no undercuts", h.side);
+                let _ = writeln!(s, "  {side}: no undercuts");
                 continue;
             }
-            let _ =
-                writeln!(s, "  undercuts of the {} half ({} regions):", h.side, h.undercuts.len());
+            let _ = writeln!(s, "  undercuts of the {side} ({} regions):", h.undercuts.len());
             for r in h.undercuts.iter().take(8) {
                 let text = format!(
                     "{} cm² on the {}, x {}..{} {u}, worst {:.2}° at {}",
@@ -707,7 +732,7 @@ impl ToolingReport<'_> {
             );
             s.push_str(&wrap(&text, "  ", "    "));
         }
-        let b = t.moulds[0].block_size;
+        let b = t.modular.as_ref().map_or(t.moulds[0].block_size, |m| m.block_size);
         let text = format!(
             "block {} x {} x {} {u} (along the pitch axis, the middle chord, the pull); three \
              conical locating pins on the lower half's corners register the halves one way round",
@@ -944,6 +969,21 @@ impl ToolingReport<'_> {
         });
         if let (Some(o), Value::Object(c)) = (out.as_object_mut(), casting) {
             o.extend(c);
+        }
+        // A mould split along the span (only then: a mould of two halves keeps its keys).
+        if let (Some(o), Some(m)) = (out.as_object_mut(), &t.modular) {
+            o.insert(
+                "mould_modules".into(),
+                json!({
+                    "modules": m.modules.iter().map(|k| json!({
+                        "x_from_m": num(k.x_range[0]),
+                        "x_to_m": num(k.x_range[1]),
+                        "pull_chord_angle_deg": num(k.pull_angle.deg()),
+                        "drawing_window_deg": num(k.window.deg()),
+                    })).collect::<Vec<_>>(),
+                    "block_size_m": m.block_size.map(num),
+                }),
+            );
         }
         out
     }

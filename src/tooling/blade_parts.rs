@@ -33,8 +33,11 @@ use super::grid::LoftParams;
 use super::loft::{LoftedSolid, loft_solid};
 use super::machining::{MachiningFrame, to_machining_frame};
 use super::mesh::Mesh;
-use super::mould::{MouldHalf, MouldParams, MouldParts, build_mould_parts};
-use super::parting::SilhouetteSurface;
+use super::mould::{
+    ModularMould, MouldHalf, MouldParams, MouldParts, build_modular_mould, build_mould_parts,
+    loft_modules,
+};
+use super::parting::{SilhouetteSurface, SpanModule, span_modules};
 use super::prints::{CorePrint, PrintSetting, print_core, shell_with_ports};
 use super::stl::LengthUnit;
 use super::surface::{EndKind, SpanSurface};
@@ -273,6 +276,34 @@ pub struct BladeTooling {
     pub casting: Vec<CastingMould>,
     /// Cores without a casting mould, each with the reason.
     pub casting_notes: Vec<String>,
+    /// The mould split along the span, when no single pull draws every section (see
+    /// [`build_tooling`]); `None` for a mould of two halves.
+    pub modular: Option<MouldModules>,
+}
+
+/// A mould split along the span into modules, each two halves with its own pull.
+#[derive(Debug, Clone)]
+pub struct MouldModules {
+    /// The modules, root first (radii, pull angle, window of drawing pulls).
+    pub modules: Vec<SpanModule>,
+    /// Every module's halves in the order of the parts (`mould-1-upper`, `mould-1-lower`,
+    /// `mould-2-upper`, ...); [`BladeTooling::moulds`] holds the first module's.
+    pub halves: Vec<MouldHalf>,
+    /// Size of the whole block (all modules together) along the pitch axis, across it and along
+    /// the mean pull, m.
+    pub block_size: [f64; 3],
+}
+
+impl BladeTooling {
+    /// What each mould part is, in the order of the mould parts in [`BladeTooling::parts`]:
+    /// the halves (of every module when the mould is split along the span), then the end pieces.
+    pub fn mould_halves(&self) -> Vec<&MouldHalf> {
+        let halves: Vec<&MouldHalf> = match &self.modular {
+            Some(m) => m.halves.iter().collect(),
+            None => self.moulds.iter().collect(),
+        };
+        halves.into_iter().chain(&self.end_pieces).collect()
+    }
 }
 
 /// A mould part in its machining frame: the casting leaves the cavity along +Z, the back face
@@ -505,8 +536,9 @@ pub fn build_tooling(
     };
     // The outer mould line is parted at its silhouette along the mould's pull, which is chosen
     // here (see `choose_pull`).
-    let (outer_solid, mould_pull_angle, mould_set) =
-        choose_pull(blade, &outer, &outer_trims, &loft, params, pitch, span)?;
+    let chosen = choose_pull(blade, &outer, &outer_trims, &loft, params, pitch, span);
+    let (outer_solid, mould_pull_angle, mould) =
+        choose_mould(chosen, &outer, &outer_trims, &loft, params, span)?;
     step("outer mould line", progress);
     let mut parts = Vec::with_capacity(total);
     let printing = params.print_fraction > 0.0;
@@ -582,12 +614,25 @@ pub fn build_tooling(
         nominal_volume: shell_volume,
     });
     step("shell", progress);
-    let (moulds, end_pieces) = push_mould_parts(mould_set, &mut parts);
+    let (moulds, end_pieces, modular) = match mould {
+        Mould::Whole(set) => {
+            let (moulds, end_pieces) = push_mould_parts(*set, &mut parts);
+            (moulds, end_pieces, None)
+        }
+        Mould::Modular(m) => {
+            let (moulds, end_pieces, modular) = push_modular_parts(m, &mut parts)?;
+            (moulds, end_pieces, Some(modular))
+        }
+    };
     step("mould halves", progress);
     let root_extension = r0 - root_trim_x(&outer_solid);
     let mut machining = Vec::new();
+    let descriptions: Vec<&MouldHalf> = match &modular {
+        Some(m) => m.halves.iter().collect(),
+        None => moulds.iter().collect(),
+    };
     for (p, half) in
-        parts.iter().filter(|p| p.kind.is_mould()).zip(moulds.iter().chain(&end_pieces))
+        parts.iter().filter(|p| p.kind.is_mould()).zip(descriptions.into_iter().chain(&end_pieces))
     {
         // The casting leaves a half's cavity against the half's own pull.
         let (mesh, frame) = to_machining_frame(&p.mesh, vec3::scale(half.pull, -1.0))?;
@@ -614,7 +659,183 @@ pub fn build_tooling(
         unprinted,
         casting,
         casting_notes,
+        modular,
     })
+}
+
+/// The mould chosen by [`build_tooling`]: two halves (and end pieces), or span-wise modules.
+enum Mould {
+    Whole(Box<MouldParts>),
+    Modular(ModularMould),
+}
+
+/// The outer solid the shell is made from, the pull angle reported and the mould.
+///
+/// When the best single pull (`chosen`, see `choose_pull`) still leaves undercut facets on the
+/// mould parts, or none lofts, [`span_modules`] finds the fewest stretches of the span each
+/// drawn by one pull normal to the pitch axis (sampled every 4 mm or so, at least 48 and at most
+/// 240 radii; the chosen pull kept where it draws a whole module):
+///
+/// - one stretch: the whole span draws along the pull it found, which the few candidates of
+///   `choose_pull` missed; the mould of two halves along that pull is kept if it leaves less
+///   undercut;
+/// - several: [`loft_modules`] lofts each parted at its own silhouette and
+///   [`build_modular_mould`] builds their halves in one block, end pieces at the outer ends;
+///   kept if it leaves less undercut than the single pull. The shell is then lofted from the
+///   outer surface parted at its edges (no one pull's silhouette parts every section), and the
+///   reported pull angle is the first module's.
+fn choose_mould(
+    chosen: Result<(LoftedSolid, Angle, MouldParts), MeshError>,
+    outer: &BladeSurface<'_>,
+    trims: &Trims,
+    loft: &LoftParams,
+    params: &ToolingParams,
+    span: [f64; 2],
+) -> Result<(LoftedSolid, Angle, Mould), MeshError> {
+    let undercut = |set: &MouldParts| -> f64 {
+        let ends = set.end_pieces.iter().map(|e| &e.1);
+        set.halves.iter().chain(ends).map(|h| h.draft.undercut_area).sum()
+    };
+    let mut best = match chosen {
+        Ok((solid, angle, set)) if undercut(&set) == 0.0 => {
+            return Ok((solid, angle, Mould::Whole(Box::new(set))));
+        }
+        Ok((solid, angle, set)) => {
+            Some((undercut(&set), solid, angle, Mould::Whole(Box::new(set))))
+        }
+        Err(e) => {
+            let prefer = None;
+            return match split_mould(outer, trims, loft, params, span, prefer) {
+                Ok(Split::Many(m)) => {
+                    let angle = m.modules[0].pull_angle;
+                    Ok((loft_edges(outer, trims, loft)?, angle, Mould::Modular(m)))
+                }
+                Ok(Split::One(angle)) => {
+                    let (solid, set) = single_mould(outer, trims, loft, params, angle)?;
+                    Ok((solid, angle, Mould::Whole(Box::new(set))))
+                }
+                Err(_) => Err(e),
+            };
+        }
+    };
+    let prefer = best.as_ref().map(|b| b.2);
+    // A failed split leaves the single pull's mould, its undercuts reported.
+    let candidate = match split_mould(outer, trims, loft, params, span, prefer) {
+        Ok(Split::Many(m)) => {
+            let left: f64 = m.parts.iter().map(undercut).sum();
+            let angle = m.modules[0].pull_angle;
+            loft_edges(outer, trims, loft).ok().map(|s| (left, s, angle, Mould::Modular(m)))
+        }
+        Ok(Split::One(angle)) if Some(angle) == prefer => None,
+        Ok(Split::One(angle)) => single_mould(outer, trims, loft, params, angle)
+            .ok()
+            .map(|(solid, set)| (undercut(&set), solid, angle, Mould::Whole(Box::new(set)))),
+        Err(_) => None,
+    };
+    if let Some(c) = candidate {
+        if best.as_ref().is_none_or(|b| c.0 < b.0) {
+            best = Some(c);
+        }
+    }
+    let (_, solid, angle, mould) =
+        best.ok_or_else(|| MeshError::Geometry("no mould to choose".into()))?;
+    Ok((solid, angle, mould))
+}
+
+/// The outer surface lofted parted at its edges (the shell of a mould split along the span).
+fn loft_edges(
+    outer: &BladeSurface<'_>,
+    trims: &Trims,
+    loft: &LoftParams,
+) -> Result<LoftedSolid, MeshError> {
+    loft_solid(outer, trims, loft)
+        .map_err(|e| MeshError::Geometry(format!("the outer mould line: {e}")))
+}
+
+/// The outer surface parted at its silhouette along the pull of chord angle `angle`, and the
+/// mould of two halves round it.
+fn single_mould(
+    outer: &BladeSurface<'_>,
+    trims: &Trims,
+    loft: &LoftParams,
+    params: &ToolingParams,
+    angle: Angle,
+) -> Result<(LoftedSolid, MouldParts), MeshError> {
+    let solid = loft_solid(&SilhouetteSurface::new(outer, angle), trims, loft)
+        .map_err(|e| MeshError::Geometry(format!("the outer mould line: {e}")))?;
+    let set = mould_parts(&solid, params, angle)?;
+    Ok((solid, set))
+}
+
+/// What [`span_modules`] found: one pull for the whole span, or a mould of several modules.
+enum Split {
+    One(Angle),
+    Many(ModularMould),
+}
+
+/// The mould split along the span (see [`choose_mould`]).
+fn split_mould(
+    outer: &BladeSurface<'_>,
+    trims: &Trims,
+    loft: &LoftParams,
+    params: &ToolingParams,
+    span: [f64; 2],
+    prefer: Option<Angle>,
+) -> Result<Split, MeshError> {
+    let samples = (((span[1] - span[0]) / 4e-3).ceil() as usize).clamp(48, 240);
+    let modules = span_modules(outer, span, samples, prefer)?;
+    if let [only] = modules.as_slice() {
+        return Ok(Split::One(only.pull_angle));
+    }
+    let mut solids = loft_modules(outer, trims, loft, &modules)?;
+    if params.mould_expansion_factor != 1.0 {
+        for s in &mut solids {
+            s.mesh.scale(params.mould_expansion_factor);
+        }
+    }
+    let mould = MouldParams {
+        pull: [0.0, 0.0, 1.0],
+        margin: params.mould_margin,
+        tolerance: params.tolerance,
+        min_draft: params.min_draft,
+        unit: params.unit,
+    };
+    build_modular_mould(&solids, &modules, &mould).map(Split::Many)
+}
+
+/// Adds the parts of a mould split along the span to `parts`: `mould-<k>-upper` and
+/// `mould-<k>-lower` for module k (root first), then the end pieces; the first module's halves,
+/// the end pieces and the split.
+fn push_modular_parts(
+    mould: ModularMould,
+    parts: &mut Vec<Part>,
+) -> Result<([MouldHalf; 2], Vec<MouldHalf>, MouldModules), MeshError> {
+    let (mut named, mut end_named) = (Vec::new(), Vec::new());
+    let (mut halves, mut ends) = (Vec::new(), Vec::new());
+    for (k, set) in mould.parts.into_iter().enumerate() {
+        let [upper, lower] = set.half_meshes;
+        named.push((format!("mould-{}-upper", k + 1), PartKind::MouldUpper, upper));
+        named.push((format!("mould-{}-lower", k + 1), PartKind::MouldLower, lower));
+        halves.extend(set.halves);
+        for (mesh, piece) in set.end_pieces {
+            end_named.push((
+                format!("mould-{}", piece.side.replace(' ', "-")),
+                PartKind::MouldEnd,
+                mesh,
+            ));
+            ends.push(piece);
+        }
+    }
+    for (name, kind, mesh) in named.into_iter().chain(end_named) {
+        let nominal_volume = mesh.signed_volume();
+        parts.push(Part { name, kind, mesh, nominal_volume });
+    }
+    let first: [MouldHalf; 2] = match halves.get(..2) {
+        Some([a, b]) => [a.clone(), b.clone()],
+        _ => return Err(MeshError::Geometry("a mould module without two halves".into())),
+    };
+    let split = MouldModules { modules: mould.modules, halves, block_size: mould.block_size };
+    Ok((first, ends, split))
 }
 
 /// The casting mould of every core (see [`super::CastingMould`]); a core whose mould cannot be
@@ -694,10 +915,21 @@ fn choose_pull(
     }
     candidates.extend([Angle::from_deg(hi + 0.5), Angle::from_deg(lo - 0.5)]);
     let mut best: Option<(LoftedSolid, Angle, MouldParts, f64)> = None;
+    let mut failed = None;
     for angle in candidates {
-        let solid = loft_solid(&SilhouetteSurface::new(outer, angle), trims, loft)
-            .map_err(|e| MeshError::Geometry(format!("the outer mould line: {e}")))?;
-        let set = mould_parts(&solid, params, angle)?;
+        // A pull that does not draw every section may part the surface where it folds: the
+        // loft or the mould can fail there, and the next candidate (or the split along the
+        // span, see `choose_mould`) is tried.
+        let tried = loft_solid(&SilhouetteSurface::new(outer, angle), trims, loft)
+            .map_err(|e| MeshError::Geometry(format!("the outer mould line: {e}")))
+            .and_then(|solid| Ok((mould_parts(&solid, params, angle)?, solid)));
+        let (set, solid) = match tried {
+            Ok(t) => t,
+            Err(e) => {
+                failed.get_or_insert(e);
+                continue;
+            }
+        };
         let undercut: f64 = set.halves.iter().map(|h| h.draft.undercut_area).sum();
         if best.as_ref().is_none_or(|b| undercut < b.3) {
             best = Some((solid, angle, set, undercut));
@@ -706,8 +938,11 @@ fn choose_pull(
             break;
         }
     }
-    let (solid, angle, set, _) =
-        best.ok_or_else(|| MeshError::Geometry("no pull direction to try".into()))?;
+    let (solid, angle, set, _) = match (best, failed) {
+        (Some(b), _) => b,
+        (None, Some(e)) => return Err(e),
+        (None, None) => return Err(MeshError::Geometry("no pull direction to try".into())),
+    };
     Ok((solid, angle, set))
 }
 

@@ -74,8 +74,8 @@ mod trim;
 mod vec3;
 
 pub use blade_parts::{
-    BladeTooling, EndShape, EndSpheres, MachinedPart, Part, PartKind, ToolingParams, build_tooling,
-    trailing_edge_kind,
+    BladeTooling, EndShape, EndSpheres, MachinedPart, MouldModules, Part, PartKind, ToolingParams,
+    build_tooling, trailing_edge_kind,
 };
 pub use blade_surface::CoreEnd;
 pub use casting::{CastPart, CastingMould, CastingParams, Channel};

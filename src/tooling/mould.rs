@@ -787,6 +787,20 @@ pub fn build_modular_mould(
         ];
         x = [x[0].min(l.corners[3][0]), x[1].max(l.corners[0][0])];
     }
+    // Then their heights with the parting surfaces carried out to the common faces Y_a, Y_b:
+    // a ruling along a module's chord line climbs (or falls) the further it runs when the
+    // module's pull is turned from the block's, so each module's top and bottom are found
+    // again with those faces, and the block takes the highest top and the lowest bottom.
+    let across = yz;
+    for (j, (part, m)) in solids.iter().zip(modules).enumerate() {
+        let module = MouldParams { pull: module_pull(m.pull_angle), ..params.clone() };
+        let psi = m.pull_angle;
+        let (sides, _) = parting_loop(part)?;
+        let b = block_of(j, Some(across));
+        let l = layout(part, sides, &frame, &|_x| psi, &module, Some(&b), [true; 2], module.pull)
+            .map_err(|e| MeshError::Geometry(format!("mould module {}: {e}", j + 1)))?;
+        yz = [yz[0], yz[1], yz[2].min(l.z_bottom), yz[3].max(l.z_top)];
+    }
     let mut parts = Vec::with_capacity(modules.len());
     for (j, (part, m)) in solids.iter().zip(modules).enumerate() {
         let module = MouldParams { pull: module_pull(m.pull_angle), ..params.clone() };
