@@ -22,7 +22,7 @@
 //! - Closed, outward, no self-intersection: the library's mesh check (`check_solid`).
 
 use std::collections::{HashMap, HashSet};
-use std::path::{Path, PathBuf};
+use std::path::Path;
 
 use layloft::blade::Blade;
 use layloft::input::read_project;
@@ -31,40 +31,12 @@ use layloft::tooling::{
     check_solid,
 };
 
-use crate::common::inside_mesh;
+use crate::common::{inside_mesh, mine_fan_with_rear_web};
 
 type P3 = [f64; 3];
 
 fn dot(a: P3, b: P3) -> f64 {
     a[0] * b[0] + a[1] * b[1] + a[2] * b[2]
-}
-
-/// A copy of the mine-fan demo in `dir` with an invented rear web at 62 % chord from `from`
-/// (0: the root) to `to` (m), or none.
-fn demo(dir: &Path, rear: Option<(f64, f64)>) -> PathBuf {
-    let src = Path::new(env!("CARGO_MANIFEST_DIR")).join("layups/mine-fan");
-    for e in std::fs::read_dir(&src).unwrap() {
-        let e = e.unwrap();
-        std::fs::copy(e.path(), dir.join(e.file_name())).unwrap();
-    }
-    if let Some((from, to)) = rear {
-        let toml = dir.join("blade.toml");
-        let start = if from > 0.0 { format!("r_start_m = {from}\n") } else { String::new() };
-        let text = std::fs::read_to_string(&toml).unwrap().replace(
-            "[[point_mass]]",
-            &format!(
-                "[[web]]\nname = \"rear\"\nchord_frac = 0.62\n{start}r_end_m = {to}\n\n[[point_mass]]"
-            ),
-        );
-        std::fs::write(&toml, text).unwrap();
-        let plies = dir.join("plies.csv");
-        let mut text = std::fs::read_to_string(&plies).unwrap();
-        let lo = if from > 0.0 { from } else { 0.40 };
-        text.push_str(&format!("rear-1,glass-biax,45,{lo},{to},web:rear,,\n"));
-        text.push_str(&format!("rear-2,glass-biax,-45,{lo},{to},web:rear,,\n"));
-        std::fs::write(&plies, text).unwrap();
-    }
-    dir.join("blade.toml")
 }
 
 const TOL: f64 = 0.4e-3;
@@ -252,7 +224,7 @@ fn casting_moulds_of_one_and_two_webs_hold_their_checks() {
     ];
     for (what, rear) in cases {
         let dir = tempfile::tempdir().unwrap();
-        let t = build(&demo(dir.path(), rear));
+        let t = build(&mine_fan_with_rear_web(dir.path(), rear));
         assert!(
             t.casting_notes.iter().all(|n| !n.contains("no casting mould")),
             "{what}: {:?}",
@@ -273,7 +245,7 @@ fn casting_moulds_of_one_and_two_webs_hold_their_checks() {
 #[test]
 fn the_alloy_shrinkage_is_read_from_its_record() {
     let dir = tempfile::tempdir().unwrap();
-    let project = demo(dir.path(), None);
+    let project = mine_fan_with_rear_web(dir.path(), None);
     let spec = read_project(&project).unwrap().tooling.unwrap();
     assert!((spec.core_alloy_shrinkage - 15e-6 * 118.0).abs() < 1e-12);
     let materials = dir.path().join("materials.toml");

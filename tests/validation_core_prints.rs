@@ -14,8 +14,9 @@
 //!   (down along the unit vector it gives) is the largest `down · p` over the core's vertices.
 //! - Closed, outward meshes: the library's own mesh check (`check_solid`).
 
-use std::path::{Path, PathBuf};
+use std::path::Path;
 
+use crate::common::mine_fan_with_rear_web;
 use layloft::blade::Blade;
 use layloft::input::read_project;
 use layloft::tooling::{
@@ -75,34 +76,6 @@ fn build(project: &Path, tol: f64) -> BladeTooling {
         ..ToolingParams::from_spec(spec).unwrap()
     };
     build_tooling(&blade, &params, &mut |_, _, _| {}).expect("the tooling builds")
-}
-
-/// A copy of the mine-fan demo in `dir` with an invented rear web at 62 % chord from `from` to
-/// `to` (m), or none.
-fn demo(dir: &Path, rear: Option<(f64, f64)>) -> PathBuf {
-    let src = Path::new(env!("CARGO_MANIFEST_DIR")).join("layups/mine-fan");
-    for e in std::fs::read_dir(&src).unwrap() {
-        let e = e.unwrap();
-        std::fs::copy(e.path(), dir.join(e.file_name())).unwrap();
-    }
-    if let Some((from, to)) = rear {
-        let toml = dir.join("blade.toml");
-        let start = if from > 0.0 { format!("r_start_m = {from}\n") } else { String::new() };
-        let text = std::fs::read_to_string(&toml).unwrap().replace(
-            "[[point_mass]]",
-            &format!(
-                "[[web]]\nname = \"rear\"\nchord_frac = 0.62\n{start}r_end_m = {to}\n\n[[point_mass]]"
-            ),
-        );
-        std::fs::write(&toml, text).unwrap();
-        let plies = dir.join("plies.csv");
-        let mut text = std::fs::read_to_string(&plies).unwrap();
-        let lo = if from > 0.0 { from } else { 0.40 };
-        text.push_str(&format!("rear-1,glass-biax,45,{lo},{to},web:rear,,\n"));
-        text.push_str(&format!("rear-2,glass-biax,-45,{lo},{to},web:rear,,\n"));
-        std::fs::write(&plies, text).unwrap();
-    }
-    dir.join("blade.toml")
 }
 
 /// The checks every print must pass (see the module docs); returns how many prints.
@@ -202,7 +175,7 @@ fn a_core_that_starts_at_a_bulkhead_takes_its_print_through_the_tip() {
     // two cells behind the main web end at the rear web's bulkhead, and the cell beyond it
     // starts there and reaches only the tip.
     let dir = tempfile::tempdir().unwrap();
-    let t = build(&demo(dir.path(), Some((0.0, 0.70))), 0.5e-3);
+    let t = build(&mine_fan_with_rear_web(dir.path(), Some((0.0, 0.70))), 0.5e-3);
     assert_eq!(check_prints(&t), 4);
     let ends: Vec<(&str, End)> = t.prints.iter().map(|p| (p.core.as_str(), p.end)).collect();
     assert_eq!(
@@ -220,7 +193,7 @@ fn cores_sealed_between_bulkheads_get_no_print_and_are_flagged() {
     // The rear web from r = 0.55 to 0.75 m: behind the main web, the cells between its two
     // bulkheads reach neither end of the blade.
     let dir = tempfile::tempdir().unwrap();
-    let t = build(&demo(dir.path(), Some((0.55, 0.75))), 0.5e-3);
+    let t = build(&mine_fan_with_rear_web(dir.path(), Some((0.55, 0.75))), 0.5e-3);
     check_prints(&t);
     assert_eq!(t.unprinted.len(), 2, "{:?}", t.unprinted);
     let (_, findings) = drain_plan(&t, t.params.tolerance);

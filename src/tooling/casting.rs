@@ -657,7 +657,7 @@ fn settle(mesh: &Mesh, tris: &mut Vec<[u32; 3]>, frame: &Plan) {
     let p = |v: u32| mesh.vertices[v as usize];
     // A turn may leave a sliver where more corners lie on one line: again, a few times.
     for _ in 0..16 {
-        if !unsliver(mesh, tris) {
+        if !super::prints::unslither(mesh, tris) {
             break;
         }
     }
@@ -667,41 +667,6 @@ fn settle(mesh: &Mesh, tris: &mut Vec<[u32; 3]>, frame: &Plan) {
             tri.swap(1, 2);
         }
     }
-}
-
-/// One pass of [`settle`]'s turning of slivers; whether it found one.
-fn unsliver(mesh: &Mesh, tris: &mut Vec<[u32; 3]>) -> bool {
-    let p = |v: u32| mesh.vertices[v as usize];
-    let mut drop = Vec::new();
-    let mut found = false;
-    for i in 0..tris.len() {
-        let t = tris[i];
-        let [a, b, c] = t.map(p);
-        let longest = vec3::dist(a, b).max(vec3::dist(b, c)).max(vec3::dist(c, a));
-        if vec3::norm(vec3::area_vector(a, b, c)) > 1e-9 * longest * longest {
-            continue;
-        }
-        found = true;
-        let len = |k: usize| vec3::dist(p(t[k]), p(t[(k + 1) % 3]));
-        let k = (0..3).max_by(|&i, &j| len(i).total_cmp(&len(j))).unwrap_or(0);
-        let (u, w, m) = (t[k], t[(k + 1) % 3], t[(k + 2) % 3]);
-        let other =
-            (0..tris.len()).find(|&j| j != i && tris[j].contains(&u) && tris[j].contains(&w));
-        match other {
-            Some(j) => {
-                let d = tris[j].iter().copied().find(|&v| v != u && v != w).unwrap_or(m);
-                tris[i] = [u, m, d];
-                tris[j] = [m, w, d];
-            }
-            None => drop.push(i),
-        }
-    }
-    drop.sort_unstable();
-    drop.dedup();
-    for i in drop.into_iter().rev() {
-        tris.swap_remove(i);
-    }
-    found
 }
 
 /// Even-odd test of `p` in the polygon `poly`.

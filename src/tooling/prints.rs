@@ -278,9 +278,10 @@ pub(crate) fn cap_with_holes(
 /// Removes the facets whose middle corner lies on the line of the other two (three points of a
 /// straight closure that round-off leaves a hair apart): with a neighbour across the long edge,
 /// the two become two facets across the other diagonal; without one (the sliver lies outside
-/// the outline, which its middle dents by a hair) it is dropped.
-fn unslither(mesh: &Mesh, tris: &mut Vec<[u32; 3]>) {
+/// the outline, which its middle dents by a hair) it is dropped. Whether it found one.
+pub(crate) fn unslither(mesh: &Mesh, tris: &mut Vec<[u32; 3]>) -> bool {
     let mut drop = Vec::new();
+    let mut found = false;
     let p = |v: u32| mesh.vertices[v as usize];
     for i in 0..tris.len() {
         let t = tris[i];
@@ -289,6 +290,7 @@ fn unslither(mesh: &Mesh, tris: &mut Vec<[u32; 3]>) {
         if vec3::norm(vec3::area_vector(a, b, c)) > 1e-9 * longest * longest {
             continue;
         }
+        found = true;
         // The long edge (u, w) and the corner on it (m).
         let k = (0..3)
             .max_by(|&i, &j| {
@@ -311,6 +313,7 @@ fn unslither(mesh: &Mesh, tris: &mut Vec<[u32; 3]>) {
     for i in drop.into_iter().rev() {
         tris.swap_remove(i);
     }
+    found
 }
 
 /// Joins the loops `a` and `b` (same length, corresponding points) by a band of facets.

@@ -241,3 +241,34 @@ pub fn mesh_area(region: &layloft::plybook::PlyRegion, n: usize, m: usize) -> f6
     }
     area
 }
+
+/// A copy of the mine-fan demo in `dir` with an invented rear web at 62 % chord from `from`
+/// (0: the root) to `to` (m), or none; the path of its `blade.toml`.
+pub fn mine_fan_with_rear_web(
+    dir: &std::path::Path,
+    rear: Option<(f64, f64)>,
+) -> std::path::PathBuf {
+    let src = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("layups/mine-fan");
+    for e in std::fs::read_dir(&src).unwrap() {
+        let e = e.unwrap();
+        std::fs::copy(e.path(), dir.join(e.file_name())).unwrap();
+    }
+    if let Some((from, to)) = rear {
+        let toml = dir.join("blade.toml");
+        let start = if from > 0.0 { format!("r_start_m = {from}\n") } else { String::new() };
+        let text = std::fs::read_to_string(&toml).unwrap().replace(
+            "[[point_mass]]",
+            &format!(
+                "[[web]]\nname = \"rear\"\nchord_frac = 0.62\n{start}r_end_m = {to}\n\n[[point_mass]]"
+            ),
+        );
+        std::fs::write(&toml, text).unwrap();
+        let plies = dir.join("plies.csv");
+        let mut text = std::fs::read_to_string(&plies).unwrap();
+        let lo = if from > 0.0 { from } else { 0.40 };
+        text.push_str(&format!("rear-1,glass-biax,45,{lo},{to},web:rear,,\n"));
+        text.push_str(&format!("rear-2,glass-biax,-45,{lo},{to},web:rear,,\n"));
+        std::fs::write(&plies, text).unwrap();
+    }
+    dir.join("blade.toml")
+}
