@@ -636,7 +636,7 @@ fn fill_patch(
         let pts = vs.map(|v| [v.position().x, v.position().y]);
         let mid =
             [(pts[0][0] + pts[1][0] + pts[2][0]) / 3.0, (pts[0][1] + pts[1][1] + pts[2][1]) / 3.0];
-        if !taken(&polys, pts, mid) || inside_polygon(&circle2, mid) {
+        if !taken(&polys, pts, mid) || super::prints::inside(&circle2, mid) {
             continue;
         }
         let mut tri = [0u32; 3];
@@ -667,21 +667,6 @@ fn settle(mesh: &Mesh, tris: &mut Vec<[u32; 3]>, frame: &Plan) {
             tri.swap(1, 2);
         }
     }
-}
-
-/// Even-odd test of `p` in the polygon `poly`.
-fn inside_polygon(poly: &[[f64; 2]], p: [f64; 2]) -> bool {
-    let n = poly.len();
-    let mut c = false;
-    for i in 0..n {
-        let (a, b) = (poly[i], poly[(i + n - 1) % n]);
-        if (a[1] > p[1]) != (b[1] > p[1])
-            && p[0] < (b[0] - a[0]) * (p[1] - a[1]) / (b[1] - a[1]) + a[0]
-        {
-            c = !c;
-        }
-    }
-    c
 }
 
 /// The facets of `face` (a plane face normal to the pull, facing up) retriangulated round the
@@ -756,7 +741,7 @@ fn holed_face(
         let pts = vs.map(|v| [v.position().x, v.position().y]);
         let mid =
             [(pts[0][0] + pts[1][0] + pts[2][0]) / 3.0, (pts[0][1] + pts[1][1] + pts[2][1]) / 3.0];
-        if !taken(&polys, pts, mid) || loops2.iter().any(|l| inside_polygon(l, mid)) {
+        if !taken(&polys, pts, mid) || loops2.iter().any(|l| super::prints::inside(l, mid)) {
             continue;
         }
         let mut tri = [0u32; 3];

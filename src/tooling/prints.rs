@@ -175,7 +175,7 @@ pub(crate) fn print_section(
 }
 
 /// Whether `p` lies inside the closed polygon `poly` (even-odd rule).
-fn inside(poly: &[[f64; 2]], p: [f64; 2]) -> bool {
+pub(crate) fn inside(poly: &[[f64; 2]], p: [f64; 2]) -> bool {
     let n = poly.len();
     let mut c = false;
     for i in 0..n {
