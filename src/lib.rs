@@ -99,6 +99,7 @@ pub mod tooling;
 pub mod units;
 
 pub use error::Error;
+pub use parallel::set_threads;
 
 /// The cautions every report and the README carry, one sentence per line.
 pub const CAUTIONS: &[&str] = &[

@@ -2,24 +2,30 @@
 //! each, results returned in index order, so that what is computed, and the order in which it
 //! is folded together, does not depend on the number of threads.
 //!
-//! The number of threads is the machine's available parallelism, or `LAYLOFT_THREADS` when set
-//! to a positive whole number (`LAYLOFT_THREADS=1` runs everything on one worker, for timing
-//! and for comparing outputs).
+//! The number of threads is the machine's available parallelism unless a program sets it with
+//! [`set_threads`] (the command line does, from `LAYLOFT_THREADS`); one thread computes the same
+//! numbers, for timing and for comparing outputs.
 
 use std::ops::Range;
+use std::sync::atomic::{AtomicUsize, Ordering};
 use std::sync::mpsc;
 
-/// The environment variable that sets the number of worker threads.
-pub(crate) const THREADS_VAR: &str = "LAYLOFT_THREADS";
+/// The number of worker threads asked for; 0: the machine's available parallelism.
+static THREADS: AtomicUsize = AtomicUsize::new(0);
 
-/// The number of worker threads: `LAYLOFT_THREADS` when it holds a positive whole number,
-/// otherwise the machine's available parallelism (1 when unknown).
+/// Sets the number of worker threads for the stations' work (sections, stress recovery); 0
+/// returns to the machine's available parallelism. The results do not depend on it.
+pub fn set_threads(n: usize) {
+    THREADS.store(n, Ordering::Relaxed);
+}
+
+/// The number of worker threads: as set by [`set_threads`], otherwise the machine's available
+/// parallelism (1 when unknown).
 pub(crate) fn threads() -> usize {
-    std::env::var(THREADS_VAR)
-        .ok()
-        .and_then(|v| v.trim().parse::<usize>().ok())
-        .filter(|&n| n > 0)
-        .unwrap_or_else(|| std::thread::available_parallelism().map_or(1, |n| n.get()))
+    match THREADS.load(Ordering::Relaxed) {
+        0 => std::thread::available_parallelism().map_or(1, |n| n.get()),
+        n => n,
+    }
 }
 
 /// `0..n` cut into at most `parts` contiguous blocks whose lengths differ by at most one, in

@@ -109,6 +109,11 @@ pub fn main() -> ExitCode {
         }
     };
     let out = Output::new(cli.quiet);
+    // `LAYLOFT_THREADS=N` (a positive whole number) runs the stations' work on N threads; the
+    // results are the same on any number.
+    if let Some(n) = std::env::var("LAYLOFT_THREADS").ok().and_then(|v| v.trim().parse().ok()) {
+        layloft::set_threads(n);
+    }
     let result = match cli.command {
         Command::Check(args) => check::run(args, &out),
         Command::Demo(args) => demo::run(args, &out),

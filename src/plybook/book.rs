@@ -722,7 +722,7 @@ fn first_attempts<'a>(
     file: &str,
 ) -> Vec<(PlyRegion<'a>, Option<Attempt>)> {
     let count = regions.len();
-    let threads = std::thread::available_parallelism().map_or(1, |n| n.get()).clamp(1, THREADS);
+    let threads = crate::parallel::threads().clamp(1, THREADS);
     let queue = std::sync::Mutex::new(regions.into_iter().enumerate());
     let work = || {
         let mut done = Vec::new();
