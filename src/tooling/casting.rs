@@ -630,23 +630,37 @@ fn fill_patch(
     }
     let polys: Vec<[[f64; 2]; 3]> = hole.facets.iter().map(|&t| tri2(mesh, frame, t)).collect();
     let circle2: Vec<[f64; 2]> = hole.circle.iter().map(|&p| frame.plan(p)).collect();
+    let mut tris = kept_faces(&cdt, &ids, &polys, std::slice::from_ref(&circle2))
+        .ok_or_else(|| fail("a point was added"))?;
+    settle(mesh, &mut tris, frame);
+    Ok((ring, tris))
+}
+
+/// The facets of a constrained triangulation of a face (in plan) that lie on the face's own
+/// facets `polys` and outside every hole, as mesh vertex triples through `ids`; `None` when the
+/// triangulation added a point of its own.
+fn kept_faces(
+    cdt: &ConstrainedDelaunayTriangulation<Point2<f64>>,
+    ids: &HashMap<usize, u32>,
+    polys: &[[[f64; 2]; 3]],
+    holes: &[Vec<[f64; 2]>],
+) -> Option<Vec<[u32; 3]>> {
     let mut tris = Vec::new();
     for face in cdt.inner_faces() {
         let vs = face.vertices();
         let pts = vs.map(|v| [v.position().x, v.position().y]);
         let mid =
             [(pts[0][0] + pts[1][0] + pts[2][0]) / 3.0, (pts[0][1] + pts[1][1] + pts[2][1]) / 3.0];
-        if !taken(&polys, pts, mid) || super::prints::inside(&circle2, mid) {
+        if !taken(polys, pts, mid) || holes.iter().any(|h| super::prints::inside(h, mid)) {
             continue;
         }
         let mut tri = [0u32; 3];
         for (k, v) in vs.iter().enumerate() {
-            tri[k] = *ids.get(&v.fix().index()).ok_or_else(|| fail("a point was added"))?;
+            tri[k] = *ids.get(&v.fix().index())?;
         }
         tris.push(tri);
     }
-    settle(mesh, &mut tris, frame);
-    Ok((ring, tris))
+    Some(tris)
 }
 
 /// Turns the slivers of a triangulation (a corner on the line of the other two, as round-off
@@ -735,21 +749,8 @@ fn holed_face(
         loops2.push(hole.iter().map(|&p| frame.plan(p)).collect::<Vec<_>>());
     }
     let polys: Vec<[[f64; 2]; 3]> = face.iter().map(|&t| tri2(mesh, frame, t)).collect();
-    let mut tris = Vec::new();
-    for f in cdt.inner_faces() {
-        let vs = f.vertices();
-        let pts = vs.map(|v| [v.position().x, v.position().y]);
-        let mid =
-            [(pts[0][0] + pts[1][0] + pts[2][0]) / 3.0, (pts[0][1] + pts[1][1] + pts[2][1]) / 3.0];
-        if !taken(&polys, pts, mid) || loops2.iter().any(|l| super::prints::inside(l, mid)) {
-            continue;
-        }
-        let mut tri = [0u32; 3];
-        for (k, v) in vs.iter().enumerate() {
-            tri[k] = *ids.get(&v.fix().index()).ok_or_else(|| fail("a point was added"))?;
-        }
-        tris.push(tri);
-    }
+    let mut tris =
+        kept_faces(&cdt, &ids, &polys, &loops2).ok_or_else(|| fail("a point was added"))?;
     settle(mesh, &mut tris, frame);
     Ok(tris)
 }

@@ -263,22 +263,24 @@ pub fn summarise(project: &Project, blade: &Blade, tooling: &BladeTooling) -> To
     let has_laminate = schedule.volume > 0.0;
     let density = schedule.mass / schedule.volume;
     let resin_density = schedule.resin.filter(|_| has_laminate).map(|r| r / schedule.volume);
+    // The core alloy filling a volume (a core, or a casting's cavity, sprue and vent).
+    let alloy_mass = |volume: f64| match &alloy {
+        Some(a) => PartMass {
+            mass: Some(volume * a.density),
+            resin: None,
+            basis: format!("core alloy {} at {} kg/m³", a.name, a.density),
+        },
+        None => PartMass {
+            mass: None,
+            resin: None,
+            basis: "not computed: no core_alloy in [tooling]".into(),
+        },
+    };
     let masses: Vec<PartMass> = tooling
         .parts
         .iter()
         .map(|p| match p.kind {
-            PartKind::Core => match &alloy {
-                Some(a) => PartMass {
-                    mass: Some(p.nominal_volume * a.density),
-                    resin: None,
-                    basis: format!("core alloy {} at {} kg/m³", a.name, a.density),
-                },
-                None => PartMass {
-                    mass: None,
-                    resin: None,
-                    basis: "not computed: no core_alloy in [tooling]".into(),
-                },
-            },
+            PartKind::Core => alloy_mass(p.nominal_volume),
             PartKind::Shell if !has_laminate => PartMass {
                 mass: None,
                 resin: None,
@@ -314,22 +316,7 @@ pub fn summarise(project: &Project, blade: &Blade, tooling: &BladeTooling) -> To
     let temps = [spec.injection_temperature_c, spec.gel_temperature_c, spec.cure_temperature_c];
     let (drain_orientation, drain_findings) = drain_plan(tooling, tooling.params.tolerance);
     // Each casting takes the cavity, the sprue and the vent full of alloy.
-    let casting_alloy = tooling
-        .casting
-        .iter()
-        .map(|m| match &alloy {
-            Some(a) => PartMass {
-                mass: Some(m.metal_volume * a.density),
-                resin: None,
-                basis: format!("core alloy {} at {} kg/m³", a.name, a.density),
-            },
-            None => PartMass {
-                mass: None,
-                resin: None,
-                basis: "not computed: no core_alloy in [tooling]".into(),
-            },
-        })
-        .collect();
+    let casting_alloy = tooling.casting.iter().map(|m| alloy_mass(m.metal_volume)).collect();
     ToolingSummary {
         masses,
         schedule,
