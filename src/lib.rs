@@ -87,6 +87,7 @@ pub mod failure;
 pub mod input;
 mod interp;
 pub mod laminate;
+pub mod layout;
 pub mod loads;
 pub mod material;
 pub mod modal;

@@ -90,5 +90,9 @@ fn thick_walls_are_warned_about_not_hidden() {
     // 6 mm walls in a 40 mm deep box: 15 % of the depth (warned above 10 %, common practice).
     let l = rect(0.2, 0.04, 4, [0; 4], vec![steel(6e-3)]);
     let p = solve_section(&l, &SectionParams::default()).unwrap();
-    assert!(p.warnings.iter().any(|w| w.contains("15 % of the local depth")), "{:?}", p.warnings);
+    assert!(
+        p.warnings.iter().any(|w| w.to_string().contains("15 % of the local depth")),
+        "{:?}",
+        p.warnings
+    );
 }

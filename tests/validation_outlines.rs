@@ -162,7 +162,7 @@ fn flat_back_with_points_along_the_base_solves_at_any_number_of_points() {
     let project = read_project(&dir.path().join("blade.toml")).unwrap();
     let blade = Blade::from_project(&project).unwrap();
     assert!(
-        blade.warnings().iter().any(|w| w.contains("trailing-edge base")),
+        blade.warnings().iter().any(|w| w.to_string().contains("trailing-edge base")),
         "a note on the base"
     );
     let solved: Vec<SectionProperties> = [120, 240, 480]

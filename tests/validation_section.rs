@@ -162,7 +162,7 @@ fn closed_sharp_thick_trailing_edge_with_a_web_matches_the_midline_closed_form()
         // (it once read "11234 % of the local depth at y/c = 1.000"). The corner lies
         // d / sin(α/2) ahead of the edge, α/2 = atan(b/a).
         let corner_yc = 1.0 - d / (b / a).atan().sin() / (2.0 * a);
-        for w in &p.warnings {
+        for w in p.warnings.iter().map(ToString::to_string) {
             if let Some(at) = w.split("local depth at y/c = ").nth(1) {
                 let yc: f64 = at[..5].parse().expect("a y/c");
                 assert!(yc < corner_yc, "{m} edges per side: {w}");
@@ -220,7 +220,8 @@ fn blunt_cambered_trailing_edge_is_judged_by_the_depth_between_the_walls() {
         .properties
         .warnings
         .iter()
-        .filter_map(|w| w.split("wall thickness reaches ").nth(1))
+        .map(ToString::to_string)
+        .filter_map(|w| w.split("wall thickness reaches ").nth(1).map(str::to_owned))
         .map(|rest| rest.split(' ').next().and_then(|v| v.parse().ok()).expect("a percentage"))
         .collect();
     assert_eq!(reported.len(), 1, "{:?}", s.properties.warnings);
@@ -639,14 +640,14 @@ fn doubling_contour_points_changes_stiffness_by_less_than_half_a_percent() {
     }
     // The walls of the sharp trailing edge meet a hair ahead of it: the wedge aft holds far less
     // than 0.25 % of the section's area and changes no result, so it is not noted.
-    assert!(!b.warnings.iter().any(|w| w.contains("walls meet")), "{:?}", b.warnings);
+    assert!(!b.warnings.iter().any(|w| w.to_string().contains("walls meet")), "{:?}", b.warnings);
     // With a skin six times as thick they meet well ahead of the edge, and it is said.
     let thick = single(&isotropic("skin", 40e9, 0.3, 6e-3, 1900.0));
     let l = naca00(0.15, 0.3, 400, &[0.15, 0.45], vec![thick, cap.clone()], |x, _| {
         usize::from((0.15..0.45).contains(&x))
     });
     let c = solve(&with_web(l, "main", 0.05 * 0.3, 0)).properties;
-    assert!(c.warnings.iter().any(|w| w.contains("walls meet")), "{:?}", c.warnings);
+    assert!(c.warnings.iter().any(|w| w.to_string().contains("walls meet")), "{:?}", c.warnings);
 }
 
 /// Stress recovery on the 160 × 80 × 6 mm box: under a flapwise moment the wall axial force is

@@ -18,11 +18,11 @@
 use std::sync::OnceLock;
 
 use crate::Error;
-use crate::blade::Blade;
+use crate::blade::{Blade, BladeWarning};
 use crate::input::{Buoyancy, BuoyantSection, Project};
 use crate::modal::{Attachments, FluidSection};
 use crate::section::{
-    SectionLayout, SectionParams, SectionProperties, SolvedSection, WallCurvature,
+    SectionLayout, SectionParams, SectionProperties, SectionWarning, SolvedSection, WallCurvature,
 };
 
 /// One analysis station: its wall layout, the schedule's plies in each of its laminates, and the
@@ -198,36 +198,41 @@ impl BladeModel {
         }
     }
 
-    /// Warnings of the blade and its sections, alike ones grouped: each with the radii where it
-    /// occurs.
+    /// Warnings of the input, the blade and its sections, alike ones grouped: each with the radii
+    /// where it occurs. The report turns them into words (`report::warnings`).
     pub fn warnings(&self) -> Vec<GroupedWarning> {
         let mut groups: Vec<GroupedWarning> = self
             .project
             .input_warnings
             .iter()
             .cloned()
-            .chain(self.blade.warnings())
+            .map(Warning::Input)
+            .chain(self.blade.warnings().into_iter().map(Warning::Blade))
             .map(|w| GroupedWarning { first: w, radii: vec![] })
             .collect();
         let rotor = &self.project.rotor;
         for case in self.project.load_cases.iter().filter(|c| c.rpm > rotor.rpm_max) {
             groups.push(GroupedWarning {
-                first: format!(
-                    "load case '{}' runs at {} rpm, above rpm_max = {} rpm: an overspeed case; \
-                     the frequency check covers speeds up to rpm_max only",
-                    case.name, case.rpm, rotor.rpm_max
-                ),
+                first: Warning::Overspeed {
+                    case: case.name.clone(),
+                    rpm: case.rpm,
+                    rpm_max: rotor.rpm_max,
+                },
                 radii: vec![],
             });
         }
         for st in &self.stations {
             for w in &st.section.properties.warnings {
-                let key = shape_of(w);
-                match groups.iter_mut().find(|g| !g.radii.is_empty() && shape_of(&g.first) == key) {
+                let alike = |g: &GroupedWarning| match &g.first {
+                    Warning::Section(first) => !g.radii.is_empty() && first.same_kind(w),
+                    _ => false,
+                };
+                match groups.iter_mut().find(|g| alike(g)) {
                     Some(g) => g.radii.push(st.layout.r),
-                    None => {
-                        groups.push(GroupedWarning { first: w.clone(), radii: vec![st.layout.r] })
-                    }
+                    None => groups.push(GroupedWarning {
+                        first: Warning::Section(w.clone()),
+                        radii: vec![st.layout.r],
+                    }),
                 }
             }
         }
@@ -270,32 +275,33 @@ pub fn section_params(project: &Project) -> SectionParams {
     SectionParams { wall_curvature, ..SectionParams::default() }
 }
 
-/// A warning and the radii where it (or one like it with other numbers) occurs; no radii for a
-/// warning about the whole blade.
+/// A warning of a blade model: a value with its places and numbers.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Warning {
+    /// A value of the input that is legal but unusual, in the reader's words (they name the
+    /// file and the key or line).
+    Input(String),
+    /// About the blade as a whole.
+    Blade(BladeWarning),
+    /// A load case above the rotor's greatest speed: the frequency check does not cover it.
+    Overspeed {
+        /// The load case.
+        case: String,
+        /// Its speed, rpm.
+        rpm: f64,
+        /// The rotor's greatest speed, rpm.
+        rpm_max: f64,
+    },
+    /// About one section (the station's radius is kept by the [`GroupedWarning`]).
+    Section(SectionWarning),
+}
+
+/// A warning and the radii where it (or one of its kind with other numbers) occurs; no radii for
+/// a warning about the whole blade.
 #[derive(Debug, Clone, PartialEq)]
 pub struct GroupedWarning {
-    /// The first occurrence, in full.
-    pub first: String,
+    /// The first occurrence.
+    pub first: Warning,
     /// Radii where it occurs, m.
     pub radii: Vec<f64>,
-}
-
-impl std::fmt::Display for GroupedWarning {
-    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
-        match self.radii.as_slice() {
-            [] => write!(f, "{}", self.first),
-            [r] => write!(f, "r = {r:.3} m: {}", self.first),
-            [r, .., last] => write!(
-                f,
-                "r = {r:.3} m: {} (and alike at {} more stations up to r = {last:.3} m)",
-                self.first,
-                self.radii.len() - 1
-            ),
-        }
-    }
-}
-
-/// The words of a message without its numbers, to group alike messages.
-fn shape_of(message: &str) -> String {
-    message.chars().filter(|c| !c.is_ascii_digit() && *c != '.' && *c != '-').collect()
 }

@@ -5,7 +5,7 @@ use std::collections::HashMap;
 use super::coverage::Surface;
 use super::{Blade, BladeError};
 use crate::input::Region;
-use crate::section::{SectionLayout, WebLayout};
+use crate::layout::{SectionLayout, WebLayout};
 
 impl Blade {
     /// The wall layout of the section at `r` with about `contour_points` points on the outer

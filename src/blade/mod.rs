@@ -35,10 +35,12 @@ mod layout;
 mod loft;
 mod mass;
 mod surface;
+mod warning;
 pub(crate) use surface::{AtRadius, smooth_step};
 
 pub use coverage::Surface;
 pub use surface::{BladeSurfaces, CORE_EDGE_TAPER, PLY_DROP_TAPER};
+pub use warning::BladeWarning;
 
 use std::sync::{Arc, OnceLock};
 
@@ -282,19 +284,17 @@ impl Blade {
         [r, yz[0] * c - yz[1] * s, yz[0] * s + yz[1] * c]
     }
 
-    /// Warnings about the blade as a whole where beam theory is strained.
-    pub fn warnings(&self) -> Vec<String> {
+    /// Warnings about the blade as a whole: the notes of its coordinate files, and where beam
+    /// theory is strained.
+    pub fn warnings(&self) -> Vec<BladeWarning> {
         let span = self.tip_radius() - self.root_radius();
         let radii = self.analysis_radii(21);
         let mean_chord = radii.iter().map(|&r| self.chord(r)).sum::<f64>() / radii.len() as f64;
-        let mut w = self.notes.clone();
+        let mut w: Vec<BladeWarning> =
+            self.notes.iter().cloned().map(BladeWarning::CoordinateFile).collect();
+        // Beam theory is strained below about two mean chords of span (common practice).
         if span < 2.0 * mean_chord {
-            w.push(format!(
-                "the blade is short and stubby: span {span:.3} m is {:.1} mean chords; beam theory \
-                 is strained below about 2 (common practice) — check stiffness and modes by test or \
-                 a finer model",
-                span / mean_chord
-            ));
+            w.push(BladeWarning::Stubby { span, mean_chord });
         }
         w
     }

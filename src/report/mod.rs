@@ -21,6 +21,7 @@ mod stress_map;
 pub use plot as svg;
 mod table;
 mod tooling;
+mod warnings;
 mod write;
 
 pub use blade_plots::{

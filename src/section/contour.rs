@@ -27,11 +27,11 @@
 use std::ops::Range;
 
 use super::error::SectionError;
-use super::layout::SectionLayout;
 use super::outline::{
     Crossing, Point, add, cross, dot, lerp, norm, offset_vertex, outward_normal, scale,
     self_crossings, sub, twice_signed_area,
 };
+use crate::layout::SectionLayout;
 
 /// Which part of the section a wall element models.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]

@@ -11,8 +11,8 @@
 use nalgebra::Matrix2;
 
 use super::contour::Contour;
-use super::layout::MassInertia;
 use super::outline::sub;
+use super::properties::MassInertia;
 use super::wall::WallStiffness;
 
 /// Mass per length (kg/m), mass centre (m) and inertia about it (kg·m).

@@ -92,18 +92,21 @@
 
 mod contour;
 mod error;
-mod layout;
 mod mass;
 mod outline;
+mod properties;
 mod recovery;
 mod shear_flow;
 mod solve;
 mod stiffness;
 mod wall;
+mod warning;
 
+pub use crate::layout::{SectionLayout, WebLayout};
 pub use contour::{WallElement, WallPart};
 pub use error::SectionError;
-pub use layout::{MassInertia, SectionLayout, SectionProperties, WebLayout};
+pub use properties::{MassInertia, SectionProperties};
 pub use recovery::WallState;
 pub use solve::{SectionParams, SolvedSection, solve_section};
 pub use wall::{WallCurvature, WallStiffness};
+pub use warning::SectionWarning;

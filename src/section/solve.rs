@@ -4,12 +4,14 @@ use nalgebra::{DMatrix, Matrix4};
 
 use super::contour::{Contour, Node, WallElement, build_contour, y_c};
 use super::error::SectionError;
-use super::layout::{SectionLayout, SectionProperties};
 use super::mass::mass_properties;
 use super::outline::{Point, chain_z_at, lerp, norm, sub};
+use super::properties::SectionProperties;
 use super::shear_flow::{ShearSolution, solve_shear};
 use super::stiffness::{assemble, elastic_centre, principal, shift};
 use super::wall::{WallCurvature, WallStiffness};
+use super::warning::SectionWarning;
+use crate::layout::SectionLayout;
 use crate::units::Angle;
 
 /// Tuning of the section solver.
@@ -105,33 +107,21 @@ impl SolvedSection {
             area_aft(&layout.outer, x[0]) > TE_NOTE_AREA * polygon_area(&layout.outer)
         });
         if let Some(x) = contour.merge.filter(|_| te_matters) {
-            let strained = depth.converging.map_or(String::new(), |y| {
-                format!(
-                    "; the walls pass {:.0} % of the local depth from y/c = {:.3} aft",
-                    100.0 * params.thick_wall_ratio,
-                    y_c(layout, y)
-                )
+            warnings.push(SectionWarning::WallsMeet {
+                at_y_c: y_c(layout, x[0]),
+                converging_from_y_c: depth.converging.map(|y| y_c(layout, y)),
+                limit_ratio: params.thick_wall_ratio,
             });
-            warnings.push(format!(
-                "the upper and lower walls meet at y/c = {:.3}, ahead of the trailing edge: aft of \
-                 it the walls are taken as solid laminate on the mean line, carrying no torsional \
-                 shear flow{strained}",
-                y_c(layout, x[0])
-            ));
         }
         if let Some((ratio, y)) = depth.worst {
-            warnings.push(format!(
-                "wall thickness reaches {:.0} % of the local depth at y/c = {:.3}; thin-wall theory \
-                 is usually trusted below about {:.0} % (common practice), so the stiffness there \
-                 is approximate",
-                100.0 * ratio,
-                y_c(layout, y),
-                100.0 * params.thick_wall_ratio
-            ));
+            warnings.push(SectionWarning::ThickWall {
+                ratio,
+                at_y_c: y_c(layout, y),
+                limit_ratio: params.thick_wall_ratio,
+            });
         }
         if mass.mass.is_nan() || mass.mass <= 0.0 {
-            warnings
-                .push("the walls have no mass: the mass centre is put at the pitch axis".into());
+            warnings.push(SectionWarning::NoMass);
         }
 
         let properties = SectionProperties {

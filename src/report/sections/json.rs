@@ -52,7 +52,10 @@ fn station(blade: &Blade, st: &AnalysisStation) -> Value {
         })
         .collect();
     m.insert("laminates".into(), Value::Array(laminates));
-    m.insert("warnings".into(), json!(p.warnings));
+    m.insert(
+        "warnings".into(),
+        json!(p.warnings.iter().map(ToString::to_string).collect::<Vec<_>>()),
+    );
     Value::Object(m)
 }
 
@@ -94,7 +97,7 @@ pub(super) fn report(r: &SectionsReport<'_>) -> Value {
         .iter()
         .map(|w| {
             json!({
-                "message": w.first,
+                "message": w.first.to_string(),
                 "r_m": w.radii,
                 "text": w.to_string(),
             })

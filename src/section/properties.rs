@@ -1,5 +1,5 @@
-//! What the section solver takes and what it gives: the wall layout of one section, and the
-//! section's stiffness, centres and mass properties.
+//! What the section solver gives: the section's stiffness, centres and mass properties (it
+//! takes a [`crate::layout::SectionLayout`]).
 //!
 //! Frame: the chord frame of docs/conventions.md. `y` along the chord from the leading edge towards the
 //! trailing edge, `z` normal to the chord towards the upper surface, origin on the pitch axis,
@@ -16,45 +16,8 @@
 
 use nalgebra::Matrix4;
 
-use crate::laminate::Laminate;
+use super::warning::SectionWarning;
 use crate::units::Angle;
-
-/// The wall layout of one section, as the blade module builds it for the section solver.
-#[derive(Debug, Clone)]
-pub struct SectionLayout {
-    /// Radius of the section, m.
-    pub r: f64,
-    /// Chord, m.
-    pub chord: f64,
-    /// Station twist (chord angle before the pitch setting).
-    pub twist: Angle,
-    /// Pitch axis as a fraction of chord from the leading edge.
-    pub pitch_axis_frac: f64,
-    /// Outer mould line, chord frame, m; a closed polygon (the last point joins the first)
-    /// starting at the leading edge, running over the upper surface to the trailing edge and
-    /// back along the lower surface (the direction of wall axis 2 = n × x). A blunt trailing
-    /// edge appears as a straight base segment.
-    pub outer: Vec<[f64; 2]>,
-    /// Distinct laminates of this section; walls and webs refer to them by index.
-    pub laminates: Vec<Laminate>,
-    /// Laminate of each outer segment `i` (from point `i` to point `i + 1`, the last closing the
-    /// loop), an index into `laminates`. Plies are listed from the outer mould line inward.
-    pub segment_laminate: Vec<usize>,
-    /// Shear webs, leading edge first.
-    pub webs: Vec<WebLayout>,
-}
-
-/// One shear web in a [`SectionLayout`].
-#[derive(Debug, Clone)]
-pub struct WebLayout {
-    /// The web's name.
-    pub name: String,
-    /// Chordwise position of the web's midplane, chord frame y, m.
-    pub y: f64,
-    /// Index into [`SectionLayout::laminates`]; the web laminate's first ply faces the leading
-    /// edge side.
-    pub laminate: usize,
-}
 
 /// Stiffness, centres and mass properties of one section.
 #[derive(Debug, Clone, PartialEq)]
@@ -107,8 +70,8 @@ pub struct SectionProperties {
     pub wall_thickness: [f64; 2],
     /// Area enclosed by the wall midline, m² (all cells).
     pub enclosed_area: f64,
-    /// Where the thin-wall idealisation is strained, in words.
-    pub warnings: Vec<String>,
+    /// Where the thin-wall idealisation is strained.
+    pub warnings: Vec<SectionWarning>,
 }
 
 /// Mass moments of inertia per unit length about the mass centre, kg·m.

@@ -1,0 +1,17 @@
+//! Warnings about the blade as a whole: values, turned into words by the report
+//! (`report::warnings`).
+
+/// A warning about the whole blade.
+#[derive(Debug, Clone, PartialEq)]
+pub enum BladeWarning {
+    /// What was changed to read an airfoil coordinate file (points reversed, repeats removed),
+    /// in the words of the coordinate reader, which names the file.
+    CoordinateFile(String),
+    /// The blade is short for its chord: beam theory is strained.
+    Stubby {
+        /// Span from the first to the last station, m.
+        span: f64,
+        /// Mean chord over the span, m.
+        mean_chord: f64,
+    },
+}

@@ -1,0 +1,88 @@
+//! Warnings in words: the typed warnings of the blade model (input, blade, sections, load
+//! cases) rendered as the sentences the commands print and the report shows. The stages keep
+//! values with their places and numbers; only this file turns them into English.
+
+use std::fmt;
+
+use crate::analysis::{GroupedWarning, Warning};
+use crate::blade::BladeWarning;
+use crate::section::SectionWarning;
+
+impl fmt::Display for SectionWarning {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            SectionWarning::WallsMeet { at_y_c, converging_from_y_c, limit_ratio } => {
+                write!(
+                    f,
+                    "the upper and lower walls meet at y/c = {at_y_c:.3}, ahead of the trailing \
+                     edge: aft of it the walls are taken as solid laminate on the mean line, \
+                     carrying no torsional shear flow"
+                )?;
+                if let Some(y) = converging_from_y_c {
+                    write!(
+                        f,
+                        "; the walls pass {:.0} % of the local depth from y/c = {y:.3} aft",
+                        100.0 * limit_ratio
+                    )?;
+                }
+                Ok(())
+            }
+            SectionWarning::ThickWall { ratio, at_y_c, limit_ratio } => write!(
+                f,
+                "wall thickness reaches {:.0} % of the local depth at y/c = {at_y_c:.3}; \
+                 thin-wall theory is usually trusted below about {:.0} % (common practice), so \
+                 the stiffness there is approximate",
+                100.0 * ratio,
+                100.0 * limit_ratio
+            ),
+            SectionWarning::NoMass => {
+                write!(f, "the walls have no mass: the mass centre is put at the pitch axis")
+            }
+        }
+    }
+}
+
+impl fmt::Display for BladeWarning {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            BladeWarning::CoordinateFile(note) => write!(f, "{note}"),
+            BladeWarning::Stubby { span, mean_chord } => write!(
+                f,
+                "the blade is short and stubby: span {span:.3} m is {:.1} mean chords; beam \
+                 theory is strained below about 2 (common practice) — check stiffness and modes \
+                 by test or a finer model",
+                span / mean_chord
+            ),
+        }
+    }
+}
+
+impl fmt::Display for Warning {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            Warning::Input(text) => write!(f, "{text}"),
+            Warning::Blade(w) => write!(f, "{w}"),
+            Warning::Overspeed { case, rpm, rpm_max } => write!(
+                f,
+                "load case '{case}' runs at {rpm} rpm, above rpm_max = {rpm_max} rpm: an overspeed \
+                 case; the frequency check covers speeds up to rpm_max only"
+            ),
+            Warning::Section(w) => write!(f, "{w}"),
+        }
+    }
+}
+
+impl fmt::Display for GroupedWarning {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self.radii.as_slice() {
+            [] => write!(f, "{}", self.first),
+            [r] => write!(f, "r = {r:.3} m: {}", self.first),
+            [r, .., last] => write!(
+                f,
+                "r = {r:.3} m: {} (and alike at {} more stations up to r = {last:.3} m)",
+                self.first,
+                self.radii.len() - 1
+            ),
+        }
+    }
+}
