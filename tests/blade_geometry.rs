@@ -168,3 +168,37 @@ fn demo_models_build_and_their_mass_matches_the_sections() {
         );
     }
 }
+
+/// Each ply of a section's laminates carries its place in the schedule: the cap of the fixture's
+/// plies file (row 2) is found inside the skin (row 1) where the file puts it, and nowhere it
+/// does not reach; every ply's material and angle are those of its schedule row.
+#[test]
+fn every_laminate_ply_knows_its_schedule_row() {
+    let p = read_project("tests/data/blade-basic/blade.toml".as_ref()).unwrap();
+    let b = Blade::from_project(&p).unwrap();
+    // Upper surface at 30 % chord, r = 1.0: skin then cap (rows 1 and 2 of plies.csv).
+    let ids = |lam: &layloft::laminate::Laminate| -> Vec<Option<usize>> {
+        lam.plies().iter().map(|q| q.schedule_ply).collect()
+    };
+    assert_eq!(ids(&b.surface_laminate(1.0, Surface::Upper, 0.3)), [Some(0), Some(1)]);
+    // Outboard of the cap's end only the skin.
+    assert_eq!(ids(&b.surface_laminate(2.0, Surface::Upper, 0.3)), [Some(0)]);
+    for r in [0.6, 1.0, 1.4, 2.4] {
+        let (layout, rows) = b.section_layout_with_plies(r, 120).unwrap();
+        for (lam, rows) in layout.laminates.iter().zip(&rows) {
+            assert_eq!(ids(lam), rows.iter().map(|&i| Some(i)).collect::<Vec<_>>(), "r = {r}");
+            for (ply, &i) in lam.plies().iter().zip(rows) {
+                assert_eq!(ply.material.name, p.plies[i].material, "r = {r}");
+                assert_eq!(ply.angle, p.plies[i].angle, "r = {r}");
+            }
+        }
+    }
+    // A laminate from a code has no schedule.
+    let m = std::sync::Arc::new(
+        b.surface_laminate(1.0, Surface::Upper, 0.3).plies()[0].material.as_ref().clone(),
+    );
+    assert_eq!(
+        layloft::laminate::Ply::new(m, layloft::units::Angle::from_deg(0.0)).schedule_ply,
+        None
+    );
+}

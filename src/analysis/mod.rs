@@ -25,16 +25,26 @@ use crate::section::{
     SectionLayout, SectionParams, SectionProperties, SectionWarning, SolvedSection, WallCurvature,
 };
 
-/// One analysis station: its wall layout, the schedule's plies in each of its laminates, and the
-/// solved section.
+/// One analysis station: its wall layout (each ply of its laminates knows its place in the
+/// schedule) and the solved section.
 #[derive(Debug, Clone)]
 pub struct AnalysisStation {
     /// The wall layout.
     pub layout: SectionLayout,
-    /// For each laminate of the layout, the indices of its plies in the schedule.
-    pub plies: Vec<Vec<usize>>,
     /// The solved section.
     pub section: SolvedSection,
+}
+
+impl AnalysisStation {
+    /// The schedule indices of the plies of laminate `laminate` of the layout, outermost first
+    /// (empty for an index out of range).
+    pub fn schedule_plies(&self, laminate: usize) -> Vec<usize> {
+        self.layout
+            .laminates
+            .get(laminate)
+            .map(|l| l.plies().iter().filter_map(|p| p.schedule_ply).collect())
+            .unwrap_or_default()
+    }
 }
 
 /// Mass of the blade.
@@ -99,12 +109,12 @@ impl BladeModel {
         // The stations are independent: solved in blocks on all cores, gathered in order (the
         // first error in station order is the one reported, as on one thread).
         let station = |r: f64| -> Result<AnalysisStation, Error> {
-            let (layout, plies) = blade
-                .section_layout_with_plies(r, project.sections.contour_points)
+            let layout = blade
+                .section_layout(r, project.sections.contour_points)
                 .map_err(|e| place_at_station(&project, r, e.into()))?;
             let section = SolvedSection::solve(&layout, &params)
                 .map_err(|e| place_at_station(&project, r, e.into()))?;
-            Ok(AnalysisStation { layout, plies, section })
+            Ok(AnalysisStation { layout, section })
         };
         let total = radii.len();
         let blocks = crate::parallel::in_blocks(

@@ -99,7 +99,9 @@ impl Blade {
         Laminate::new(
             indices
                 .iter()
-                .map(|&i| Ply::new(self.plies[i].material.clone(), self.plies[i].spec.angle))
+                .map(|&i| {
+                    Ply::of_schedule(self.plies[i].material.clone(), self.plies[i].spec.angle, i)
+                })
                 .collect(),
         )
     }

@@ -19,13 +19,22 @@ pub struct Ply {
     pub angle: Angle,
     /// Cured thickness, m.
     pub thickness: f64,
+    /// The ply's place in a blade's ply schedule (0 = first row of the plies file), when the
+    /// laminate was built from one: its identity, which travels with it into every result that
+    /// names plies. `None` for a laminate given by code or by hand.
+    pub schedule_ply: Option<usize>,
 }
 
 impl Ply {
     /// A ply of the material's cured ply thickness.
     pub fn new(material: Arc<Lamina>, angle: Angle) -> Self {
         let thickness = material.ply_thickness;
-        Ply { material, angle, thickness }
+        Ply { material, angle, thickness, schedule_ply: None }
+    }
+
+    /// A ply of the material's cured ply thickness that is ply `index` of a blade's schedule.
+    pub fn of_schedule(material: Arc<Lamina>, angle: Angle, index: usize) -> Self {
+        Ply { schedule_ply: Some(index), ..Ply::new(material, angle) }
     }
 }
 

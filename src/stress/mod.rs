@@ -112,6 +112,9 @@ impl std::fmt::Display for WallLocation {
 pub struct PlyPoint {
     /// Position of the ply in its laminate (0 = outermost).
     pub ply_in_laminate: usize,
+    /// The ply's index in the blade's schedule, carried by the laminate's ply
+    /// ([`crate::laminate::Ply::schedule_ply`]); `None` for a laminate not built from a schedule.
+    pub schedule_ply: Option<usize>,
     /// Ratios by every criterion.
     pub ratios: CriteriaRatios,
     /// The governing criterion and its ratio (`ratios.governing()`, kept beside them).
@@ -368,7 +371,7 @@ pub fn analyse_case_detail(
                     let e = &elements[state.element];
                     let laminate = &st.layout.laminates[e.laminate];
                     units[e.laminate].ratios_into(laminate, &state.deformation, &mut scratch);
-                    summary.add(model, si, pi, state.element, e.laminate, &scratch);
+                    summary.add(si, pi, state.element, &scratch);
                     if let Some(slot) = by_element.get_mut(state.element) {
                         *slot = Some((state.n_x, state.n_xs));
                     }

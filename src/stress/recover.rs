@@ -188,6 +188,7 @@ impl UnitResponse {
             let ratios = top.0.worst(&bottom.0);
             out.push(PlyPoint {
                 ply_in_laminate: k,
+                schedule_ply: laminate.plies().get(k).and_then(|p| p.schedule_ply),
                 governing: governing(&ratios),
                 ratios,
                 stress_12: if lower { bottom.1 } else { top.1 },

@@ -105,20 +105,13 @@ impl Summary {
         }
     }
 
-    /// Folds in the plies of wall point `point` (element `element`, laminate `laminate`) of
-    /// station `station`, in the order of the points and plies.
-    pub(super) fn add(
-        &mut self,
-        model: &BladeModel,
-        station: usize,
-        point: usize,
-        element: usize,
-        laminate: usize,
-        plies: &[PlyPoint],
-    ) {
-        let plies_of = &model.stations[station].plies[laminate];
+    /// Folds in the plies of wall point `point` (element `element`) of station `station`, in the
+    /// order of the points and plies.
+    pub(super) fn add(&mut self, station: usize, point: usize, element: usize, plies: &[PlyPoint]) {
         for p in plies {
-            let index = plies_of[p.ply_in_laminate];
+            // Every laminate of a blade model is built from its schedule, so every ply knows its
+            // place in it; a ply without one has no schedule row to be summed into.
+            let Some(index) = p.schedule_ply else { continue };
             let governing = p.governing;
             if let Some((criterion, ratio)) = governing {
                 let beats = self.best.as_ref().is_none_or(|b| b.reserve_factor > ratio.ratio);

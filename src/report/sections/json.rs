@@ -40,8 +40,12 @@ fn station(blade: &Blade, st: &AnalysisStation) -> Value {
         .iter()
         .enumerate()
         .map(|(k, l)| {
-            let plies: Vec<&str> =
-                st.plies[k].iter().filter_map(|&i| blade.ply(i)).map(|s| s.id.as_str()).collect();
+            let plies: Vec<&str> = st
+                .schedule_plies(k)
+                .into_iter()
+                .filter_map(|i| blade.ply(i))
+                .map(|s| s.id.as_str())
+                .collect();
             json!({
                 "index": k,
                 "plies": plies,

@@ -83,10 +83,11 @@ impl<'a> SectionsReport<'a> {
 /// joined by '/', and its thickness, as "skin-out/skin-biax/cap-1/skin-in, 1.35 mm".
 pub fn laminate_label(blade: &Blade, station: &AnalysisStation, index: usize) -> String {
     let ids: Vec<&str> = station
-        .plies
-        .get(index)
-        .map(|p| p.iter().filter_map(|&i| blade.ply(i)).map(|s| s.id.as_str()).collect())
-        .unwrap_or_default();
+        .schedule_plies(index)
+        .into_iter()
+        .filter_map(|i| blade.ply(i))
+        .map(|s| s.id.as_str())
+        .collect();
     let t = station.layout.laminates.get(index).map_or(0.0, |l| l.thickness());
     let name = if ids.is_empty() { format!("laminate {}", index + 1) } else { ids.join("/") };
     format!("{name}, {} mm", super::sig4(t * 1e3))
