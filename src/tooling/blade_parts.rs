@@ -28,24 +28,24 @@
 use super::blade_surface::span_samples;
 use super::blade_surface::{BladeSurface, CoreCell, CoreEnd, CutBound, Side, core_cuts};
 use super::casting::{CastingInput, CastingMould, CastingParams, casting_mould};
-use super::error::{End, MeshError};
 use super::grid::LoftParams;
 use super::loft::{LoftedSolid, loft_solid};
 use super::machining::{MachiningFrame, to_machining_frame};
-use super::mesh::Mesh;
 use super::mould::{
     ModularMould, MouldHalf, MouldParams, MouldParts, build_modular_mould, build_mould_parts,
     loft_modules,
 };
 use super::parting::{SilhouetteSurface, SpanModule, span_modules};
 use super::prints::{CorePrint, PrintSetting, print_core, shell_with_ports};
-use super::stl::LengthUnit;
 use super::surface::{EndKind, SpanSurface};
 use super::trim::{EndTrim, Trims};
-use super::vec3;
 use crate::blade::{Blade, BladeSurfaces, Surface};
 use crate::input::ToolingSpec;
 use crate::interp::Pchip;
+use crate::mesh::LengthUnit;
+use crate::mesh::Mesh;
+use crate::mesh::vec3;
+use crate::mesh::{End, MeshError};
 use crate::units::Angle;
 
 /// Settings of a blade's tooling.
@@ -376,7 +376,8 @@ pub fn trailing_edge_kind(blade: &Blade) -> Result<EndKind, MeshError> {
 /// ```
 /// use layloft::blade::Blade;
 /// use layloft::input::read_project;
-/// use layloft::tooling::{CheckParams, ToolingParams, build_tooling, check_solid};
+/// use layloft::mesh::{CheckParams, check_solid};
+/// use layloft::tooling::{ToolingParams, build_tooling};
 ///
 /// # fn main() -> Result<(), layloft::Error> {
 /// let project = read_project("layups/mine-fan/blade.toml".as_ref())?;

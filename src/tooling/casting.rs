@@ -35,19 +35,19 @@ use std::collections::HashMap;
 
 use spade::{ConstrainedDelaunayTriangulation, Point2, Triangulation};
 
-use super::error::MeshError;
 use super::grid::LoftParams;
 use super::loft::{LoftedSolid, loft_solid};
 use super::machining::to_machining_frame;
-use super::mesh::Mesh;
 use super::mould::{MouldHalf, MouldParams, MouldParts, build_mould_parts};
-use super::orient::{compact, neighbours};
 use super::parting::SilhouetteSurface;
-use super::stl::LengthUnit;
 use super::surface::SpanSurface;
 use super::trim::Trims;
-use super::vec3::{self, P3};
 use super::{MachinedPart, MachiningFrame};
+use crate::mesh::LengthUnit;
+use crate::mesh::Mesh;
+use crate::mesh::MeshError;
+use crate::mesh::orient::{compact, neighbours};
+use crate::mesh::vec3::{self, P3};
 use crate::units::Angle;
 
 /// Sides of the polygon of a sprue's or a vent's circle.

@@ -52,18 +52,18 @@
 //! [`PartingLines`]: super::PartingLines
 
 use super::draft::{DraftReport, evaluate_draft};
-use super::error::{MeshError, Place};
 use super::grid::LoftParams;
 use super::loft::LoftedSolid;
 use super::loft::loft_solid;
-use super::mesh::Mesh;
 use super::mould_block::{Frame, Layout, Locator, build_half};
-use super::orient::{compact, neighbours, orient_outward};
 use super::parting::{SilhouetteSurface, SpanModule};
-use super::stl::LengthUnit;
 use super::surface::SpanSurface;
 use super::trim::{EndTrim, Trims};
-use super::vec3::{self, P3};
+use crate::mesh::LengthUnit;
+use crate::mesh::Mesh;
+use crate::mesh::orient::{compact, neighbours, orient_outward};
+use crate::mesh::vec3::{self, P3};
+use crate::mesh::{MeshError, Place};
 use crate::units::Angle;
 
 /// `n · d` below this is an undercut (as the draft evaluator counts it).
@@ -454,7 +454,7 @@ fn end_piece(
             [q[1], q[2]]
         })
         .collect();
-    let tris = super::polygon::triangulate_polygon(&pts)?;
+    let tris = crate::mesh::triangulate_polygon(&pts)?;
     mesh.triangles.extend(tris.iter().map(|t| t.map(|i| far[i])));
     orient_outward(&mut mesh);
     compact(&mut mesh);

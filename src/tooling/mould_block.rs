@@ -15,8 +15,8 @@
 //! quarter of the margin apart) and the top (or bottom) face, a fan about its centre. Three corner patches carry the locating features
 //! (see [`Locator`]). Facets are wound afterwards by [`super::orient::orient_outward`].
 
-use super::mesh::Mesh;
-use super::vec3::{self, P3};
+use crate::mesh::Mesh;
+use crate::mesh::vec3::{self, P3};
 
 /// The orthonormal mould frame in the rotor frame.
 #[derive(Debug, Clone, Copy)]
@@ -202,7 +202,7 @@ pub(crate) fn build_half(
                     [q[1], q[2]]
                 })
                 .collect();
-            if let Ok(tris) = super::polygon::triangulate_polygon(&pts) {
+            if let Ok(tris) = crate::mesh::triangulate_polygon(&pts) {
                 h.mesh.triangles.extend(tris.iter().map(|t| t.map(|i| ring[i])));
             }
             rim_far.push(far_corners[k0]);

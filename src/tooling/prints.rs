@@ -40,15 +40,15 @@ use std::collections::HashMap;
 use spade::Triangulation;
 use spade::{AngleLimit, ConstrainedDelaunayTriangulation, Point2, RefinementParameters};
 
-use super::error::{End, MeshError};
 use super::loft::LoftedSolid;
-use super::mesh::Mesh;
-use super::orient::{compact, orient_outward};
-use super::polygon::triangulate_polygon;
 use super::surface::SpanSurface;
-use super::surface::polygon_area;
 use super::trim::EndTrim;
-use super::vec3::{self, P3};
+use crate::mesh::Mesh;
+use crate::mesh::orient::{compact, orient_outward};
+use crate::mesh::polygon_area;
+use crate::mesh::triangulate_polygon;
+use crate::mesh::vec3::{self, P3};
+use crate::mesh::{End, MeshError};
 
 /// A core's print and the shell's port it passes through.
 #[derive(Debug, Clone, PartialEq)]
