@@ -278,7 +278,7 @@ fn mould_parts_part_and_socket_clearances_fill_the_block() {
     let gap = block - (moulds + outer);
     // Three sockets, each the pin grown by c = 0.1 mm radially and on top: the clearance is at
     // most c times the socket's wall and floor. Pin: base radius m/6, height m/3, 10° half-angle
-    // (src/tooling/mould.rs), the base on a patch sloping at most tan 20°.
+    // (src/tooling/mould/), the base on a patch sloping at most tan 20°.
     let m = p.mould_margin;
     let c = 0.1e-3;
     let (rb, h) = (m / 6.0 + c, m / 3.0 + c);

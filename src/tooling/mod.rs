@@ -57,7 +57,6 @@ mod loft;
 mod machining;
 mod manifest;
 mod mould;
-mod mould_block;
 mod parting;
 mod prints;
 mod prism;

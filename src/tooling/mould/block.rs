@@ -13,7 +13,7 @@
 //! A half is one closed surface: the part's facets on its side (the cavity wall), the parting
 //! surface, the four block faces (each fanned from a row of vertices along its top edge, a
 //! quarter of the margin apart) and the top (or bottom) face, a fan about its centre. Three corner patches carry the locating features
-//! (see [`Locator`]). Facets are wound afterwards by [`super::orient::orient_outward`].
+//! (see [`Locator`]). Facets are wound afterwards by `crate::mesh::orient::orient_outward`.
 
 use crate::mesh::Mesh;
 use crate::mesh::vec3::{self, P3};
