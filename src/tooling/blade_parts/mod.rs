@@ -51,7 +51,9 @@ use crate::units::Angle;
 mod build;
 mod mould_choice;
 pub use build::{build_tooling, trailing_edge_kind};
-use mould_choice::*;
+use mould_choice::{
+    Mould, casting_moulds, choose_mould, choose_pull, push_modular_parts, push_mould_parts,
+};
 
 /// Settings of a blade's tooling.
 #[derive(Debug, Clone, PartialEq)]
