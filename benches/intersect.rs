@@ -15,9 +15,8 @@
 
 use std::time::Instant;
 
-use layloft::tooling::{
-    ChainEnds, CheckParams, EndKind, EndTrim, FnSurface, LoftParams, Trims, check_solid, loft_solid,
-};
+use layloft::mesh::{CheckParams, check_solid};
+use layloft::tooling::{ChainEnds, EndKind, EndTrim, FnSurface, LoftParams, Trims, loft_solid};
 use layloft::units::Angle;
 
 fn yt(x: f64) -> f64 {

@@ -13,10 +13,11 @@
 use criterion::{Criterion, criterion_group, criterion_main};
 use layloft::blade::Blade;
 use layloft::input::read_project;
+use layloft::mesh::{CheckParams, Mesh, StlOptions, check_solid, encode_stl};
+use layloft::output::{write_part_set_with_progress, write_parts, write_stl};
 use layloft::tooling::{
-    ChainEnds, CheckParams, EndKind, FnSurface, LoftParams, Mesh, StlOptions, ToolingParams, Trims,
-    build_tooling, check_solid, encode_stl, loft_solid, summarise, write_part_set_with_progress,
-    write_parts, write_stl,
+    ChainEnds, EndKind, FnSurface, LoftParams, ToolingParams, Trims, build_tooling, loft_solid,
+    summarise,
 };
 use layloft::units::Angle;
 

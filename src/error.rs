@@ -5,11 +5,11 @@ use crate::input::InputError;
 use crate::laminate::LaminateError;
 use crate::loads::LoadsError;
 use crate::material::MaterialError;
+use crate::mesh::MeshError;
 use crate::modal::ModalError;
 use crate::plybook::PlyBookError;
 use crate::section::SectionError;
 use crate::stress::StressError;
-use crate::tooling::MeshError;
 
 /// Any error layloft's library can return.
 #[derive(Debug, thiserror::Error)]

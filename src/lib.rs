@@ -8,11 +8,11 @@
 //!    [`loads`], [`stress`]);
 //! 2. do the natural frequencies of the spinning blade stay clear of the rotor harmonics
 //!    ([`modal`]);
-//! 3. what tooling must be made ([`tooling`]).
+//! 3. what tooling must be made ([`tooling`], on the triangle-mesh kit [`mesh`]).
 //!
 //! Data flows one way: inputs → geometry → laminates → sections → beam → results → outputs.
 //! Every quantity inside the library is SI (m, kg, s, N, Pa, rad); units are converted only
-//! where data enter ([`input`]) and leave ([`report`]).
+//! where data enter ([`input`]) and leave ([`report`]; files are written only by [`output`]).
 //!
 //! # Caution
 //!
@@ -90,7 +90,9 @@ pub mod laminate;
 pub mod layout;
 pub mod loads;
 pub mod material;
+pub mod mesh;
 pub mod modal;
+pub mod output;
 mod parallel;
 pub mod plybook;
 pub mod report;

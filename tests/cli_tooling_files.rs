@@ -64,7 +64,7 @@ fn run(project: &Path, out: &Path) -> (Value, String, String) {
 }
 
 fn sha256_file(path: &Path) -> String {
-    layloft::tooling::sha256_hex(&std::fs::read(path).unwrap())
+    layloft::mesh::sha256_hex(&std::fs::read(path).unwrap())
 }
 
 fn x_range(path: &Path) -> [f64; 2] {

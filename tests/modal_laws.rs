@@ -7,7 +7,7 @@ use layloft::modal::{
     BeamModel, BeamSection, LanczosParams, ModalError, ModeKind, SpeedRange, excitation_orders,
     mac, solve_dense, solve_lowest,
 };
-use layloft::report::export_matrix_market;
+use layloft::output::export_matrix_market;
 use layloft::section::MassInertia;
 
 fn blade_model(elements: usize, springs: bool) -> BeamModel {

@@ -4,9 +4,8 @@
 
 use std::f64::consts::PI;
 
-use layloft::tooling::{
-    ChainEnds, CheckParams, EndKind, FnSurface, LoftParams, Trims, check_solid, loft_solid,
-};
+use layloft::mesh::{CheckParams, check_solid};
+use layloft::tooling::{ChainEnds, EndKind, FnSurface, LoftParams, Trims, loft_solid};
 use layloft::units::Angle;
 use proptest::prelude::*;
 

@@ -24,9 +24,9 @@
 use layloft::analysis::BladeModel;
 use layloft::blade::{Blade, Surface};
 use layloft::input::{Project, read_project};
+use layloft::mesh::{CheckParams, check_solid};
 use layloft::tooling::{
-    BladeTooling, CheckParams, EndShape, PartKind, ToolingParams, build_tooling, check_solid,
-    schedule_content,
+    BladeTooling, EndShape, PartKind, ToolingParams, build_tooling, schedule_content,
 };
 use layloft::units::Angle;
 
@@ -56,7 +56,7 @@ fn radius(p: [f64; 3]) -> f64 {
 }
 
 /// Least and greatest distance from the rotor centre over the vertices the facets use.
-fn reach(mesh: &layloft::tooling::Mesh) -> (f64, f64) {
+fn reach(mesh: &layloft::mesh::Mesh) -> (f64, f64) {
     mesh.triangles
         .iter()
         .flatten()
@@ -191,7 +191,7 @@ fn shell_laminate_volume_matches_the_ply_schedule_within_one_percent() {
     let p = ToolingParams { ends: EndShape::Planes, print_fraction: 0.0, ..params(&project) };
     let t = build(&blade, &p);
     let shell = part(&t, "shell").nominal_volume;
-    let cap_area = |mesh: &layloft::tooling::Mesh, sign: f64| -> f64 {
+    let cap_area = |mesh: &layloft::mesh::Mesh, sign: f64| -> f64 {
         (0..mesh.len())
             .filter(|&f| mesh.triangle_normal(f)[0] * sign > 1.0 - 1e-9)
             .map(|f| mesh.triangle_area(f))
@@ -278,7 +278,7 @@ fn mould_parts_part_and_socket_clearances_fill_the_block() {
     let gap = block - (moulds + outer);
     // Three sockets, each the pin grown by c = 0.1 mm radially and on top: the clearance is at
     // most c times the socket's wall and floor. Pin: base radius m/6, height m/3, 10° half-angle
-    // (src/tooling/mould.rs), the base on a patch sloping at most tan 20°.
+    // (src/tooling/mould/), the base on a patch sloping at most tan 20°.
     let m = p.mould_margin;
     let c = 0.1e-3;
     let (rb, h) = (m / 6.0 + c, m / 3.0 + c);

@@ -26,10 +26,8 @@ use std::path::Path;
 
 use layloft::blade::Blade;
 use layloft::input::read_project;
-use layloft::tooling::{
-    BladeTooling, CastingMould, CheckParams, Mesh, PartKind, ToolingParams, build_tooling,
-    check_solid,
-};
+use layloft::mesh::{CheckParams, Mesh, check_solid};
+use layloft::tooling::{BladeTooling, CastingMould, PartKind, ToolingParams, build_tooling};
 
 use crate::common::{inside_mesh, mine_fan_with_rear_web};
 

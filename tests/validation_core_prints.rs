@@ -19,9 +19,8 @@ use std::path::Path;
 use crate::common::mine_fan_with_rear_web;
 use layloft::blade::Blade;
 use layloft::input::read_project;
-use layloft::tooling::{
-    BladeTooling, CheckParams, End, PartKind, ToolingParams, build_tooling, check_solid, drain_plan,
-};
+use layloft::mesh::{CheckParams, End, check_solid};
+use layloft::tooling::{BladeTooling, PartKind, ToolingParams, build_tooling, drain_plan};
 
 type P3 = [f64; 3];
 
@@ -36,7 +35,7 @@ fn dot(a: P3, b: P3) -> f64 {
 }
 
 /// Whether `p` lies inside the closed mesh: the parity of the crossings of a ray from `p`.
-fn inside(mesh: &layloft::tooling::Mesh, p: P3) -> bool {
+fn inside(mesh: &layloft::mesh::Mesh, p: P3) -> bool {
     // A direction with no special relation to the axes or the mesh.
     let d = [0.5773, 0.6123, -0.5404];
     let mut crossings = 0;

@@ -25,9 +25,8 @@ use std::path::{Path, PathBuf};
 
 use layloft::blade::Blade;
 use layloft::input::read_project;
-use layloft::tooling::{
-    BladeTooling, CheckParams, PartKind, ToolingParams, build_tooling, check_solid,
-};
+use layloft::mesh::{CheckParams, check_solid};
+use layloft::tooling::{BladeTooling, PartKind, ToolingParams, build_tooling};
 
 use crate::common::inside_mesh as inside;
 
@@ -211,7 +210,7 @@ fn along(a: P3, d: P3, s: f64) -> P3 {
 
 /// The least distance from `p` to the facets of `mesh`: the closest point of each triangle by
 /// its Voronoi regions (Ericson, Real-Time Collision Detection, 2005, section 5.1.5).
-fn distance_to_mesh(mesh: &layloft::tooling::Mesh, p: P3) -> f64 {
+fn distance_to_mesh(mesh: &layloft::mesh::Mesh, p: P3) -> f64 {
     let closest = |[a, b, c]: [P3; 3]| -> P3 {
         let (ab, ac, ap) = (sub(b, a), sub(c, a), sub(p, a));
         let (d1, d2) = (dot(ab, ap), dot(ac, ap));

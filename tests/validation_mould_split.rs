@@ -21,9 +21,10 @@
 
 use std::f64::consts::PI;
 
+use layloft::mesh::{CheckParams, LengthUnit, Mesh, check_solid};
 use layloft::tooling::{
-    ChainEnds, CheckParams, EndKind, FnSurface, LengthUnit, LoftParams, Mesh, MouldParams,
-    SpanSurface, Trims, build_modular_mould, check_solid, loft_modules, span_modules,
+    ChainEnds, EndKind, FnSurface, LoftParams, MouldParams, SpanSurface, Trims,
+    build_modular_mould, loft_modules, span_modules,
 };
 use layloft::units::Angle;
 

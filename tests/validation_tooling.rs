@@ -22,11 +22,13 @@ use std::f64::consts::PI;
 
 use crate::support_stl::closed_outward;
 
+use layloft::mesh::{
+    CheckParams, LengthUnit, Mesh, MeshError, StlFormat, StlOptions, box_mesh, check_solid,
+};
+use layloft::output::write_parts;
 use layloft::tooling::{
-    ChainEnds, CheckParams, EndKind, FnSurface, LengthUnit, LoftParams, Mesh, MeshError,
-    MouldParams, SilhouetteSurface, SpanSurface, StlFormat, StlOptions, Trims, box_mesh,
-    build_mould_parts, build_moulds, check_solid, loft_annulus, loft_hollow, loft_solid,
-    split_cells, write_parts,
+    ChainEnds, EndKind, FnSurface, LoftParams, MouldParams, SilhouetteSurface, SpanSurface, Trims,
+    build_mould_parts, build_moulds, loft_annulus, loft_hollow, loft_solid, split_cells,
 };
 use layloft::units::Angle;
 
@@ -75,7 +77,7 @@ fn params(tol: f64) -> LoftParams {
     LoftParams { tolerance: tol, ..LoftParams::default() }
 }
 
-fn check(mesh: &Mesh, part: &str) -> layloft::tooling::MeshSummary {
+fn check(mesh: &Mesh, part: &str) -> layloft::mesh::MeshSummary {
     match check_solid(mesh, part, &CheckParams::default()) {
         Ok(s) => s,
         Err(e) => panic!("{e}"),
@@ -757,7 +759,7 @@ fn a_part_set_encoded_in_memory_is_byte_for_byte_the_set_written_to_files() {
     let copies = [("block-b", &b)];
     let dir = tempfile::tempdir().unwrap();
     let options = StlOptions { unit: LengthUnit::Millimetre, format: StlFormat::Binary };
-    let written = layloft::tooling::write_part_set_with_progress(
+    let written = layloft::output::write_part_set_with_progress(
         dir.path(),
         &parts,
         &copies,
@@ -766,7 +768,7 @@ fn a_part_set_encoded_in_memory_is_byte_for_byte_the_set_written_to_files() {
         &mut |_, _, _| {},
     )
     .unwrap();
-    let encoded = layloft::tooling::encode_part_set_with_progress(
+    let encoded = layloft::mesh::encode_part_set_with_progress(
         &parts,
         &copies,
         &options,
@@ -780,7 +782,7 @@ fn a_part_set_encoded_in_memory_is_byte_for_byte_the_set_written_to_files() {
         assert_eq!(&file, bytes, "{}", w.name);
         assert_eq!(e.path, std::path::PathBuf::from(format!("{}.stl", w.name)));
         assert_eq!((e.size_bytes, &e.sha256), (w.size_bytes, &w.sha256));
-        assert_eq!(e.sha256, layloft::tooling::sha256_hex(&file));
+        assert_eq!(e.sha256, layloft::mesh::sha256_hex(&file));
         assert_eq!(file.len(), 84 + 50 * 12);
     }
     // A part that fails its check encodes nothing.
@@ -788,7 +790,7 @@ fn a_part_set_encoded_in_memory_is_byte_for_byte_the_set_written_to_files() {
     open.triangles.pop();
     let bad = [("open", &open)];
     assert!(
-        layloft::tooling::encode_part_set_with_progress(
+        layloft::mesh::encode_part_set_with_progress(
             &bad,
             &[],
             &options,

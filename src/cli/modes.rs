@@ -6,7 +6,7 @@ use std::path::PathBuf;
 use anyhow::anyhow;
 
 use layloft::modal::SpeedRange;
-use layloft::report::export_matrix_market;
+use layloft::output::export_matrix_market;
 use layloft::report::{
     campbell_csv, campbell_svg, modal_analysis_json, modal_text, mode_shapes_csv, write_atomic,
 };

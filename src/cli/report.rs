@@ -20,9 +20,10 @@ use layloft::report::{
 use super::project::{load_model, run_modal};
 use super::tooling::{build_and_write, tell};
 use super::{Failure, Outcome, Output};
+use layloft::mesh::{StlFormat, StlOptions};
 use layloft::plybook::{PlyBook, PlyBookError, PlyBookParams, build_ply_book, plybook_files};
 use layloft::report::{ReportBlock, plybook_block, plybook_links};
-use layloft::tooling::{StlFormat, StlOptions, ToolingParams};
+use layloft::tooling::ToolingParams;
 
 const EXAMPLES: &str = "\
 Examples:
@@ -269,7 +270,7 @@ fn write_report_with(
         Ok(_) => tooling_block(model, dest, out, &mut files)?,
         Err(e) => {
             let r = match &e {
-                layloft::tooling::MeshError::StationShape { r, .. } => *r,
+                layloft::mesh::MeshError::StationShape { r, .. } => *r,
                 _ => model.blade.root_radius(),
             };
             let place = layloft::analysis::place_at_station(p, r, e.into());

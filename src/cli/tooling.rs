@@ -15,11 +15,14 @@ use anyhow::anyhow;
 use layloft::Error;
 use layloft::blade::Blade;
 use layloft::input::{Project, read_project};
-use layloft::report::{FileSet, ToolingReport};
+use layloft::mesh::{
+    CheckParams, Mesh, MeshError, StlFormat, StlOptions, WrittenPart,
+    encode_part_set_with_progress, sha256_hex,
+};
+use layloft::output::{FileSet, stale_files};
+use layloft::report::ToolingReport;
 use layloft::tooling::{
-    CheckParams, MANIFEST_FILE, Manifest, ManifestEntry, MeshError, StaleFiles, StlFormat,
-    StlOptions, ToolingParams, build_tooling, encode_part_set_with_progress, sha256_hex,
-    stale_files, summarise,
+    MANIFEST_FILE, Manifest, ManifestEntry, StaleFiles, ToolingParams, build_tooling, summarise,
 };
 use layloft::units::MM;
 
@@ -144,7 +147,7 @@ pub struct Written {
     /// The parts and what their construction found.
     pub tooling: layloft::tooling::BladeTooling,
     /// The files, one per part.
-    pub written: Vec<layloft::tooling::WrittenPart>,
+    pub written: Vec<WrittenPart>,
     /// Masses and the melting check.
     pub summary: layloft::tooling::ToolingSummary,
     /// "binary STL in mm".
@@ -185,9 +188,9 @@ pub fn build_and_write(
     })
     .map_err(|e| mesh_failure(project, e))?;
     drop(bar);
-    let mut parts: Vec<(&str, &layloft::tooling::Mesh)> =
+    let mut parts: Vec<(&str, &Mesh)> =
         tooling.parts.iter().map(|p| (p.name.as_str(), &p.mesh)).collect();
-    let mut copies: Vec<(&str, &layloft::tooling::Mesh)> =
+    let mut copies: Vec<(&str, &Mesh)> =
         tooling.machining.iter().map(|m| (m.name.as_str(), &m.mesh)).collect();
     // The cores' casting moulds, after the blade's parts and their machining frames.
     for m in &tooling.casting {
@@ -213,12 +216,7 @@ pub fn build_and_write(
             bar.inc(1);
         },
     )
-    .map_err(|e| match e {
-        Error::Mesh(m) => {
-            Failure::Run(anyhow!("a part failed its check, nothing was written: {m}"))
-        }
-        other => Failure::Run(other.into()),
-    })?;
+    .map_err(|m| Failure::Run(anyhow!("a part failed its check, nothing was written: {m}")))?;
     bar.finish();
     let summary = summarise(project, blade, &tooling);
     let format = format!(

@@ -1,12 +1,10 @@
-//! Outputs: JSON, CSV, SVG plots, the HTML report and terminal tables, and the one way files are
-//! written (atomically: a temporary file in the same folder, then a rename, so that a reader never
-//! sees half a file and a failed run leaves what was there before).
+//! Outputs: JSON, CSV, SVG plots, the HTML report and terminal tables. Files are written through
+//! the output edge (`crate::output`, re-exported here for the report's callers).
 
 mod blade_plots;
 mod buckling_map;
 mod campbell;
 mod document;
-mod file_set;
 pub mod html;
 mod laminate;
 mod modal;
@@ -22,20 +20,19 @@ pub use plot as svg;
 mod table;
 mod tooling;
 mod warnings;
-mod write;
 
+pub use crate::output::{
+    FileSet, SET_LIST, SetOutcome, ensure_folder, remove_leftovers, write_atomic, write_atomic_with,
+};
 pub use blade_plots::{
     mass_svg, mode_shapes_svg, pitch_moment_svg, planform_svg, stiffness_svg, twist_svg,
 };
 pub use buckling_map::buckling_svg;
 pub use campbell::{campbell_svg, kind_colour};
 pub use document::{ReportBlock, ReportInputs, SectionDrawing, blade_report};
-pub use file_set::{FileSet, SET_LIST, SetOutcome};
 pub use html::HtmlReport;
 pub use laminate::LaminateReport;
-pub use modal::{
-    campbell_csv, export_matrix_market, modal_analysis_json, modal_json, mode_shapes_csv,
-};
+pub use modal::{campbell_csv, modal_analysis_json, modal_json, mode_shapes_csv};
 pub use modal_text::{modal_text, model_statement};
 pub use plybook::{plybook_block, plybook_links};
 pub use section_svg::{section_svg, section_svg_names, section_svg_screen};
@@ -46,4 +43,3 @@ pub use stress::{
 pub use stress_map::stress_svg;
 pub use table::{Align, Table, cautions_text, fixed, sig4};
 pub use tooling::ToolingReport;
-pub use write::{ensure_folder, remove_leftovers, write_atomic, write_atomic_with};

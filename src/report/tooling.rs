@@ -15,7 +15,8 @@ use std::fmt::Write as _;
 use serde_json::{Value, json};
 
 use super::table::{Align, Table, fixed, sig4};
-use crate::tooling::{BladeTooling, LengthUnit, StaleFiles, ToolingSummary, WrittenPart};
+use crate::mesh::{LengthUnit, WrittenPart};
+use crate::tooling::{BladeTooling, StaleFiles, ToolingSummary};
 
 /// What `layloft tooling` reports.
 #[derive(Debug, Clone, Copy)]
@@ -1026,7 +1027,7 @@ impl ToolingReport<'_> {
         let t = self.tooling;
         let up = t.moulds[0].pull;
         let view = |p: [f64; 3]| [p[0], p[0] * up[0] + p[1] * up[1] + p[2] * up[2]];
-        let outline = |m: &crate::tooling::Mesh| -> Vec<[f64; 2]> {
+        let outline = |m: &crate::mesh::Mesh| -> Vec<[f64; 2]> {
             hull(m.vertices.iter().map(|&p| view(p)).collect())
         };
         let b = t.moulds[0].block_size;

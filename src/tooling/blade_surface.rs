@@ -10,10 +10,10 @@
 //! the interpolation error of their chordwise position.
 
 use super::cells::crossing;
-use super::error::MeshError;
 use super::surface::{ChainEnds, EndKind, SpanSurface};
 use crate::blade::{BladeSurfaces, Surface};
 use crate::interp::Pchip;
+use crate::mesh::MeshError;
 use crate::units::Angle;
 
 /// Which of the blade's two surfaces a [`BladeSurface`] is.

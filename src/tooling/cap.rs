@@ -12,12 +12,12 @@
 //! Facets face outward for a contour that runs clockwise in the chord plane: +x-ish at the tip,
 //! −x-ish at the root.
 
-use super::error::End;
 use super::grid::Grid;
-use super::mesh::Mesh;
 use super::surface::EndKind;
 use super::trim::EndTrim;
-use super::vec3;
+use crate::mesh::End;
+use crate::mesh::Mesh;
+use crate::mesh::vec3;
 
 fn push(mesh: &mut Mesh, end: End, [a, b, c]: [u32; 3]) {
     mesh.triangles.push(match end {

@@ -6,8 +6,8 @@
 //! variant of regula falsi on `[0, 1]` (Dowell & Jarratt, BIT 11 (1971) 168–174), which needs
 //! `y` to increase along each chain from front to back.
 
-use super::error::MeshError;
 use super::surface::{ChainEnds, EndKind, SpanSurface};
+use crate::mesh::MeshError;
 use crate::units::Angle;
 
 /// The chordwise position of a web's midplane at radius `x`: chord-frame `y`, m.

@@ -7,10 +7,10 @@
 //! of mould design (common practice); a surface all of whose facets draw is a graph over the
 //! plane normal to `d` when its projection does not fold, which the parting line ensures.
 
-use super::error::{MeshError, Place};
-use super::mesh::Mesh;
-use super::stl::LengthUnit;
-use super::vec3;
+use crate::mesh::LengthUnit;
+use crate::mesh::Mesh;
+use crate::mesh::vec3;
+use crate::mesh::{MeshError, Place};
 use crate::units::Angle;
 
 /// A facet parallel to the pull has `n · d` of round-off size; below `-ROUND_OFF` (a draft of

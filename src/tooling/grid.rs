@@ -6,12 +6,12 @@
 //! chord is no longer than the longest edge allowed); the other half of the tolerance is left to
 //! the other direction, so a facet stays within about the tolerance of the surface.
 
-use super::error::{End, MeshError, Place};
-use super::polygon::quad_centre_ok;
-use super::stl::LengthUnit;
 use super::surface::{ChainEnds, EndKind, SpanSurface, to_rotor};
 use super::trim::{Trims, solve_end};
-use super::vec3;
+use crate::mesh::LengthUnit;
+use crate::mesh::quad_centre_ok;
+use crate::mesh::vec3;
+use crate::mesh::{End, MeshError, Place};
 use std::collections::HashMap;
 
 /// How finely a surface is meshed.

@@ -7,13 +7,14 @@
 //! the trim surfaces.
 
 use super::cap::{annular_cap, column_cap};
-use super::error::{End, MeshError};
 use super::grid::{Grid, LoftParams, TrimmedLines, build_grid, build_stations, trim_lines};
-use super::mesh::Mesh;
-use super::surface::{EndKind, SpanSurface, contour_polygon, polygon_area};
+use super::surface::{EndKind, SpanSurface, contour_polygon};
 use super::trim::Trims;
-use super::vec3;
-use super::vec3::P3;
+use crate::mesh::Mesh;
+use crate::mesh::polygon_area;
+use crate::mesh::vec3;
+use crate::mesh::vec3::P3;
+use crate::mesh::{End, MeshError};
 
 /// A lofted solid and what its construction knows.
 #[derive(Debug, Clone)]

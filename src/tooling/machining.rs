@@ -8,9 +8,9 @@
 //! the pitch axis (the part's length) made normal to Z, Y = Z × X. Nothing is scaled, so volumes,
 //! areas and drafts carry over unchanged.
 
-use super::error::MeshError;
-use super::mesh::Mesh;
-use super::vec3::{self, P3};
+use crate::mesh::Mesh;
+use crate::mesh::MeshError;
+use crate::mesh::vec3::{self, P3};
 
 /// The rigid motion from a part's machining frame back to the rotor frame: `p = origin + R q`.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -86,7 +86,7 @@ pub fn to_machining_frame(
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::tooling::mesh::box_mesh;
+    use crate::mesh::box_mesh;
 
     #[test]
     fn a_box_turned_upside_down_lands_in_the_positive_octant() {

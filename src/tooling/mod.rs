@@ -6,9 +6,9 @@
 //! spacing follows a chordal tolerance in both directions, trims each end by a sphere about the
 //! rotor centre (or a plane) with every end vertex exactly on it, and closes the ends with caps
 //! lifted onto the trim surfaces ([`loft_solid`], [`loft_annulus`], [`loft_hollow`]). Webs cut a
-//! family into cells ([`split_cells`]). Meshes are checked ([`check_solid`]: closed 2-manifold,
-//! outward, no degenerate facets, no self-intersection) before they are written as STL
-//! ([`write_parts`]).
+//! family into cells ([`split_cells`]). The parts are meshes of the general kit
+//! ([`crate::mesh`]), which checks them ([`crate::mesh::check_solid`]) and encodes them as STL;
+//! tooling never writes a file (the output edge, `crate::output`, does).
 //!
 //! A blade's tooling ([`build_tooling`]): the outer mould line lofted from the blade's own
 //! interpolation, the inner surface offset by the laminate, one core per cell between the webs
@@ -25,8 +25,8 @@
 //! scaled to the output unit only when written.
 //!
 //! ```
-//! use layloft::tooling::{CheckParams, ChainEnds, EndKind, FnSurface, LoftParams, Trims};
-//! use layloft::tooling::{check_solid, loft_solid};
+//! use layloft::mesh::{CheckParams, check_solid};
+//! use layloft::tooling::{ChainEnds, EndKind, FnSurface, LoftParams, Trims, loft_solid};
 //! use layloft::units::Angle;
 //!
 //! # fn main() -> Result<(), layloft::Error> {
@@ -51,27 +51,18 @@ mod blade_surface;
 mod cap;
 mod casting;
 mod cells;
-mod check;
 mod draft;
-mod error;
 mod grid;
-mod intersect;
 mod loft;
 mod machining;
 mod manifest;
-mod mesh;
 mod mould;
-mod mould_block;
-mod orient;
 mod parting;
-mod polygon;
 mod prints;
-mod spatial;
-mod stl;
+mod prism;
 mod summary;
 mod surface;
 mod trim;
-mod vec3;
 
 pub use blade_parts::{
     BladeTooling, EndShape, EndSpheres, MachinedPart, MouldModules, Part, PartKind, ToolingParams,
@@ -80,32 +71,23 @@ pub use blade_parts::{
 pub use blade_surface::CoreEnd;
 pub use casting::{CastPart, CastingMould, CastingParams, Channel};
 pub use cells::{Cell, WebPosition, split_cells};
-pub use check::{CheckParams, MeshSummary, check_solid};
 pub use draft::{DraftReport, evaluate_draft};
-pub use error::{End, MeshError, Place};
 pub use grid::LoftParams;
 pub use loft::{FacetRanges, LoftedSolid, PartingLines, loft_annulus, loft_hollow, loft_solid};
 pub use machining::{MachiningFrame, to_machining_frame};
-pub use manifest::{
-    MANIFEST_FILE, Manifest, ManifestEntry, Sha256, StaleFiles, remove_stale, sha256_hex,
-    stale_files,
-};
-pub use mesh::{BoundingBox, Mesh, box_mesh};
+pub use manifest::{MANIFEST_FILE, Manifest, ManifestEntry, StaleFiles};
 pub use mould::{
     ModularMould, MouldHalf, MouldParams, MouldParts, Undercut, build_modular_mould,
     build_mould_parts, build_moulds, loft_modules,
 };
 pub use parting::{SilhouetteSurface, SpanModule, span_modules};
-pub use polygon::{loft_polygons, triangulate_polygon};
 pub use prints::CorePrint;
-pub use stl::{
-    LengthUnit, StlFormat, StlOptions, WrittenPart, binary_header, encode_part_set_with_progress,
-    encode_stl, write_part_set_with_progress, write_parts, write_parts_with_progress, write_stl,
-    write_stl_digest,
-};
+pub use prism::loft_polygons;
 pub use summary::{
     MeltCheck, MeltFinding, PartMass, ScheduleContent, ToolingSummary, drain_plan, melt_check,
     schedule_content, summarise,
 };
-pub use surface::{ChainEnds, EndKind, FnSurface, SpanSurface, contour_polygon, polygon_area};
+pub use surface::{ChainEnds, EndKind, FnSurface, SpanSurface, contour_polygon};
 pub use trim::{EndTrim, Trims};
+
+pub(crate) use manifest::plain_file_name;

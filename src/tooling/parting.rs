@@ -247,12 +247,12 @@ pub fn span_modules(
     span: [f64; 2],
     samples: usize,
     prefer: Option<Angle>,
-) -> Result<Vec<SpanModule>, super::error::MeshError> {
+) -> Result<Vec<SpanModule>, crate::mesh::MeshError> {
     let samples = samples.max(2);
     let at = |i: usize| span[0] + (span[1] - span[0]) * i as f64 / samples as f64;
     let sets: Vec<Vec<bool>> = (0..=samples).map(|i| drawable_pulls(s, at(i), 400)).collect();
     if let Some(i) = sets.iter().position(|m| !m.contains(&true)) {
-        return Err(super::error::MeshError::Geometry(format!(
+        return Err(crate::mesh::MeshError::Geometry(format!(
             "the section at radius {:.1} mm folds across every pull normal to the pitch axis: \
              no split of the mould along the span lets it draw",
             at(i) * 1e3
@@ -273,7 +273,7 @@ pub fn span_modules(
         }
     }
     let mut modules = modules.ok_or_else(|| {
-        super::error::MeshError::Geometry("no pull draws the sections of the span".into())
+        crate::mesh::MeshError::Geometry("no pull draws the sections of the span".into())
     })?;
     if let (Some(p), [only]) = (prefer, modules.as_mut_slice()) {
         let all = sets.iter().fold(vec![true; PULL_STEPS], |acc, m| {

@@ -27,10 +27,10 @@
 //!   without a print is flagged, as its alloy cannot leave the shell.
 
 use super::blade_parts::{BladeTooling, PartKind};
-use super::error::End;
 use crate::blade::Blade;
 use crate::input::Project;
 use crate::material::{Isotropic, Material};
+use crate::mesh::End;
 
 /// Volume, mass and resin mass of the ply schedule over the blade's stations.
 #[derive(Debug, Clone, Copy, PartialEq)]

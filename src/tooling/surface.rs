@@ -77,18 +77,6 @@ pub fn contour_polygon(surface: &dyn SpanSurface, x: f64, u: &[f64]) -> Vec<[f64
     pts
 }
 
-/// Signed area of a closed polygon in the plane (positive counter-clockwise), m².
-pub fn polygon_area(points: &[[f64; 2]]) -> f64 {
-    let n = points.len();
-    (0..n)
-        .map(|i| {
-            let (a, b) = (points[i], points[(i + 1) % n]);
-            a[0] * b[1] - b[0] * a[1]
-        })
-        .sum::<f64>()
-        / 2.0
-}
-
 /// A [`SpanSurface`] from closures, for surfaces given by formulas (tests, examples, simple
 /// parts).
 pub struct FnSurface<U, L, A>

@@ -7,8 +7,8 @@
 //! pitch setting, which is why spherical ends keep the clearance to the hub and the duct constant
 //! while the blade pitches (common practice).
 
-use super::error::{End, MeshError};
-use super::vec3::{self, P3};
+use crate::mesh::vec3::{self, P3};
+use crate::mesh::{End, MeshError};
 
 /// The surface that ends a solid at its root or its tip.
 #[derive(Debug, Clone, Copy, PartialEq)]

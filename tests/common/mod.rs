@@ -184,7 +184,7 @@ pub fn diamond(a: f64, b: f64, m: usize, wall: Laminate) -> SectionLayout {
 /// Whether `p` is inside the closed mesh, by the parity of the crossings of a ray in a fixed,
 /// skew direction (Möller and Trumbore, "Fast, minimum storage ray-triangle intersection",
 /// 1997, for each crossing).
-pub fn inside_mesh(mesh: &layloft::tooling::Mesh, p: [f64; 3]) -> bool {
+pub fn inside_mesh(mesh: &layloft::mesh::Mesh, p: [f64; 3]) -> bool {
     let d = [0.5773, 0.3141, 0.7536];
     let sub = |a: [f64; 3], b: [f64; 3]| [a[0] - b[0], a[1] - b[1], a[2] - b[2]];
     let cross = |a: [f64; 3], b: [f64; 3]| {

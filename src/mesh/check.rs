@@ -4,9 +4,9 @@
 //! (cavities inward), and no self-intersection.
 
 use super::error::{MeshError, Place};
-use super::mesh::{BoundingBox, Mesh};
 use super::spatial;
-use super::stl::LengthUnit;
+use super::triangles::{BoundingBox, Mesh};
+use super::unit::LengthUnit;
 use super::vec3::{self, P3};
 
 /// Thresholds and switches of [`check_solid`].
@@ -142,7 +142,7 @@ fn pair_edges(mesh: &Mesh, part: &str, params: &CheckParams) -> Result<Vec<u32>,
     let place = |i: u32| Place { point: mesh.vertices[i as usize], unit: params.unit };
     // Half-edges bucketed by their lower vertex (a counting sort), then grouped by the other.
     let nv = mesh.vertices.len();
-    let (first, mut slots) = super::mesh::half_edges_by_lower_vertex(mesh, nv);
+    let (first, mut slots) = super::triangles::half_edges_by_lower_vertex(mesh, nv);
     let start = |h: u32| mesh.triangles[h as usize / 3][h as usize % 3];
     let mut twins = vec![u32::MAX; slots.len()];
     let mut conflicts: Vec<(u32, u32)> = Vec::new();

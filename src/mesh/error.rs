@@ -1,8 +1,9 @@
-//! `MeshError`: everything the tooling kernel can refuse, each with the part and the place.
+//! `MeshError`: everything the mesh kit and the tooling built on it can refuse, each with the
+//! part and the place.
 
 use std::fmt;
 
-use super::stl::LengthUnit;
+use super::unit::LengthUnit;
 
 /// A point in the rotor frame, shown in the unit of the output files.
 #[derive(Debug, Clone, Copy, PartialEq)]

@@ -14,7 +14,7 @@
 //! their size, so a flat strip far from the origin is not told apart from a fold by noise (touching
 //! counts as meeting).
 
-use super::mesh::Mesh;
+use super::triangles::Mesh;
 use super::vec3::{self, P3};
 
 const COPLANAR: f64 = 1e-12;

@@ -8,7 +8,7 @@
 //! shape, and the work grows with the count of triangles.
 
 use super::intersect::{Facet, facets_meet};
-use super::mesh::Mesh;
+use super::triangles::Mesh;
 use super::vec3::P3;
 
 /// Triangles that would cover more cells than this are tested against all others by box overlap.
@@ -280,7 +280,7 @@ pub(crate) fn find_self_intersection(mesh: &Mesh) -> Option<(usize, usize)> {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::tooling::intersect::pair_meets;
+    use crate::mesh::intersect::pair_meets;
 
     #[test]
     fn the_grid_finds_what_all_pairs_find() {

@@ -13,10 +13,10 @@
 //! A half is one closed surface: the part's facets on its side (the cavity wall), the parting
 //! surface, the four block faces (each fanned from a row of vertices along its top edge, a
 //! quarter of the margin apart) and the top (or bottom) face, a fan about its centre. Three corner patches carry the locating features
-//! (see [`Locator`]). Facets are wound afterwards by [`super::orient::orient_outward`].
+//! (see [`Locator`]). Facets are wound afterwards by `crate::mesh::orient::orient_outward`.
 
-use super::mesh::Mesh;
-use super::vec3::{self, P3};
+use crate::mesh::Mesh;
+use crate::mesh::vec3::{self, P3};
 
 /// The orthonormal mould frame in the rotor frame.
 #[derive(Debug, Clone, Copy)]
@@ -202,7 +202,7 @@ pub(crate) fn build_half(
                     [q[1], q[2]]
                 })
                 .collect();
-            if let Ok(tris) = super::polygon::triangulate_polygon(&pts) {
+            if let Ok(tris) = crate::mesh::triangulate_polygon(&pts) {
                 h.mesh.triangles.extend(tris.iter().map(|t| t.map(|i| ring[i])));
             }
             rim_far.push(far_corners[k0]);

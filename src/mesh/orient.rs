@@ -6,7 +6,7 @@
 //!
 //! [`check_solid`]: super::check_solid
 
-use super::mesh::{Mesh, half_edges_by_lower_vertex};
+use super::triangles::{Mesh, half_edges_by_lower_vertex};
 use super::vec3;
 
 /// For every facet, its neighbours across its three edges (`u32::MAX` where an edge does not
@@ -111,7 +111,7 @@ pub(crate) fn compact(mesh: &mut Mesh) {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::tooling::box_mesh;
+    use crate::mesh::box_mesh;
 
     #[test]
     fn a_box_with_scrambled_facets_is_turned_outward() {
@@ -128,6 +128,6 @@ mod tests {
         compact(&mut m);
         assert_eq!(m.vertices.len(), 8);
         assert!((m.signed_volume() - 6.0).abs() < 1e-12);
-        crate::tooling::check_solid(&m, "box", &crate::tooling::CheckParams::default()).unwrap();
+        crate::mesh::check_solid(&m, "box", &crate::mesh::CheckParams::default()).unwrap();
     }
 }

@@ -40,15 +40,22 @@ use std::collections::HashMap;
 use spade::Triangulation;
 use spade::{AngleLimit, ConstrainedDelaunayTriangulation, Point2, RefinementParameters};
 
-use super::error::{End, MeshError};
 use super::loft::LoftedSolid;
-use super::mesh::Mesh;
-use super::orient::{compact, orient_outward};
-use super::polygon::triangulate_polygon;
 use super::surface::SpanSurface;
-use super::surface::polygon_area;
 use super::trim::EndTrim;
-use super::vec3::{self, P3};
+use crate::mesh::Mesh;
+use crate::mesh::orient::{compact, orient_outward};
+use crate::mesh::polygon_area;
+use crate::mesh::triangulate_polygon;
+use crate::mesh::vec3::{self, P3};
+use crate::mesh::{End, MeshError};
+
+mod caps;
+mod section;
+pub(crate) use caps::unslither;
+use caps::{band, cap_with_holes, open_end};
+pub(crate) use section::inside;
+use section::{lift_x, print_section};
 
 /// A core's print and the shell's port it passes through.
 #[derive(Debug, Clone, PartialEq)]
@@ -86,262 +93,6 @@ pub(crate) struct PrintedCore {
     pub print: CorePrint,
     pub piece: Mesh,
     pub entrance: Vec<u32>,
-}
-
-/// The point of `trim` over `q = (y, z)`, along the pitch axis.
-fn lift_x(trim: EndTrim, q: [f64; 2]) -> Result<P3, MeshError> {
-    match trim {
-        EndTrim::Plane { x } => Ok([x, q[0], q[1]]),
-        EndTrim::Sphere { radius } => {
-            let h = radius * radius - q[0] * q[0] - q[1] * q[1];
-            if h > 0.0 {
-                Ok([h.sqrt(), q[0], q[1]])
-            } else {
-                Err(MeshError::Geometry(format!(
-                    "a print's section reaches ({:.6}, {:.6}) m, beyond the end sphere of radius \
-                     {radius:.6} m",
-                    q[0], q[1]
-                )))
-            }
-        }
-    }
-}
-
-/// The extent `[lo, hi]` of the closed polygon `poly` on the vertical line at `t`.
-fn interval_at(poly: &[[f64; 2]], t: f64) -> Option<(f64, f64)> {
-    let n = poly.len();
-    let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
-    for i in 0..n {
-        let (a, b) = (poly[i], poly[(i + 1) % n]);
-        let (y0, y1) = (a[0].min(b[0]), a[0].max(b[0]));
-        if t < y0 || t > y1 {
-            continue;
-        }
-        if y1 - y0 <= 1e-15 {
-            lo = lo.min(a[1].min(b[1]));
-            hi = hi.max(a[1].max(b[1]));
-        } else {
-            let s = (t - a[0]) / (b[0] - a[0]);
-            let z = a[1] + s * (b[1] - a[1]);
-            lo = lo.min(z);
-            hi = hi.max(z);
-        }
-    }
-    (lo <= hi).then_some((lo, hi))
-}
-
-/// The print's section (chord frame) for the end `contour` (a chord-frame polygon that every
-/// vertical line meets in one interval): the contour scaled by `fraction` about the `anchor`,
-/// chordwise and, at each chordwise place, in relative depth (see the module docs); the anchor
-/// is first moved `inset` inside the contour. `n` intervals a side.
-pub(crate) fn print_section(
-    contour: &[[f64; 2]],
-    anchor: [f64; 2],
-    fraction: f64,
-    inset: f64,
-    n: usize,
-) -> Result<Vec<[f64; 2]>, MeshError> {
-    let small = || MeshError::Geometry("a core's end is too small for a print".into());
-    let (y0, y1) = contour
-        .iter()
-        .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), p| (a.min(p[0]), b.max(p[0])));
-    let room = y1 - y0 - 2.0 * inset;
-    if room.is_nan() || room <= 0.0 {
-        return Err(small());
-    }
-    let ya = anchor[0].clamp(y0 + inset, y1 - inset);
-    let (lo, hi) = interval_at(contour, ya).ok_or_else(small)?;
-    if (hi - lo).is_nan() || hi - lo <= 0.0 {
-        return Err(small());
-    }
-    let delta = (inset / (hi - lo)).min(0.25);
-    let ta = ((anchor[1] - lo) / (hi - lo)).clamp(delta, 1.0 - delta);
-    let (ys, ye) = (ya + fraction * (y0 - ya), ya + fraction * (y1 - ya));
-    let mut upper = Vec::with_capacity(n + 1);
-    let mut lower = Vec::with_capacity(n + 1);
-    for k in 0..=n {
-        let y = ys + (ye - ys) * k as f64 / n as f64;
-        let (lo, hi) = interval_at(contour, y).ok_or_else(small)?;
-        upper.push([y, lo + (hi - lo) * (ta + fraction * (1.0 - ta))]);
-        lower.push([y, lo + (hi - lo) * ta * (1.0 - fraction)]);
-    }
-    lower.reverse();
-    upper.extend(lower);
-    let area = polygon_area(&upper).abs();
-    if area.is_nan() || area <= 0.0 {
-        return Err(small());
-    }
-    Ok(upper)
-}
-
-/// Whether `p` lies inside the closed polygon `poly` (even-odd rule).
-pub(crate) fn inside(poly: &[[f64; 2]], p: [f64; 2]) -> bool {
-    let n = poly.len();
-    let mut c = false;
-    for i in 0..n {
-        let (a, b) = (poly[i], poly[(i + n - 1) % n]);
-        if (a[1] > p[1]) != (b[1] > p[1])
-            && p[0] < (b[0] - a[0]) * (p[1] - a[1]) / (b[1] - a[1]) + a[0]
-        {
-            c = !c;
-        }
-    }
-    c
-}
-
-/// Caps the end contour `ring` (vertices of `mesh` on `trim`) with `holes` (loops of vertices
-/// on `trim`) left open (see the module docs); facets no larger than an equilateral triangle of
-/// side `h`. Returns the vertices of the cap.
-pub(crate) fn cap_with_holes(
-    mesh: &mut Mesh,
-    ring: &[u32],
-    holes: &[Vec<u32>],
-    trim: EndTrim,
-    h: f64,
-) -> Result<Vec<u32>, MeshError> {
-    let fail = |what: &str| MeshError::Geometry(format!("an end cap round a print: {what}"));
-    let mut cdt = ConstrainedDelaunayTriangulation::<Point2<f64>>::new();
-    let mut ids: HashMap<usize, u32> = HashMap::new();
-    let loops: Vec<&[u32]> =
-        std::iter::once(ring).chain(holes.iter().map(|l| l.as_slice())).collect();
-    let mut polys: Vec<Vec<[f64; 2]>> = Vec::with_capacity(loops.len());
-    let mut handles = Vec::with_capacity(loops.len());
-    for lp in &loops {
-        let mut hs = Vec::with_capacity(lp.len());
-        let mut poly = Vec::with_capacity(lp.len());
-        for &v in lp.iter() {
-            let p = mesh.vertices[v as usize];
-            let hnd = cdt
-                .insert(Point2::new(p[1], p[2]))
-                .map_err(|e| fail(&format!("a point cannot be placed ({e:?})")))?;
-            if ids.insert(hnd.index(), v).is_some_and(|old| old != v) {
-                return Err(fail("two points of its outlines coincide in the section plane"));
-            }
-            hs.push(hnd);
-            poly.push([p[1], p[2]]);
-        }
-        handles.push(hs);
-        polys.push(poly);
-    }
-    for hs in &handles {
-        for i in 0..hs.len() {
-            let (a, b) = (hs[i], hs[(i + 1) % hs.len()]);
-            if a == b || !cdt.can_add_constraint(a, b) {
-                return Err(fail("its outlines cross in the section plane"));
-            }
-            cdt.add_constraint(a, b);
-        }
-    }
-    let mut params = RefinementParameters::<f64>::new()
-        .exclude_outer_faces(true)
-        .keep_constraint_edges()
-        .with_angle_limit(AngleLimit::from_deg(20.0))
-        .with_max_additional_vertices(40 * cdt.num_vertices() + 1000);
-    if h.is_finite() {
-        params = params.with_max_allowed_area(0.433 * h * h);
-    }
-    cdt.refine(params);
-    let mut tris: Vec<[u32; 3]> = Vec::new();
-    for face in cdt.inner_faces() {
-        let vs = face.vertices();
-        let pts = vs.map(|v| {
-            let p = v.position();
-            [p.x, p.y]
-        });
-        let mid =
-            [(pts[0][0] + pts[1][0] + pts[2][0]) / 3.0, (pts[0][1] + pts[1][1] + pts[2][1]) / 3.0];
-        if !inside(&polys[0], mid) || polys[1..].iter().any(|p| inside(p, mid)) {
-            continue;
-        }
-        let mut tri = [0u32; 3];
-        for (k, v) in vs.iter().enumerate() {
-            let key = v.fix().index();
-            tri[k] = match ids.get(&key) {
-                Some(&id) => id,
-                None => {
-                    let id = mesh.push_vertex(lift_x(trim, pts[k])?);
-                    ids.insert(key, id);
-                    id
-                }
-            };
-        }
-        tris.push(tri);
-    }
-    unslither(mesh, &mut tris);
-    let mut used: Vec<u32> = tris.iter().flatten().copied().collect();
-    used.sort_unstable();
-    used.dedup();
-    mesh.triangles.extend(tris);
-    Ok(used)
-}
-
-/// Removes the facets whose middle corner lies on the line of the other two (three points of a
-/// straight closure that round-off leaves a hair apart): with a neighbour across the long edge,
-/// the two become two facets across the other diagonal; without one (the sliver lies outside
-/// the outline, which its middle dents by a hair) it is dropped. Whether it found one.
-pub(crate) fn unslither(mesh: &Mesh, tris: &mut Vec<[u32; 3]>) -> bool {
-    let mut drop = Vec::new();
-    let mut found = false;
-    let p = |v: u32| mesh.vertices[v as usize];
-    for i in 0..tris.len() {
-        let t = tris[i];
-        let [a, b, c] = t.map(p);
-        let longest = vec3::dist(a, b).max(vec3::dist(b, c)).max(vec3::dist(c, a));
-        if vec3::norm(vec3::area_vector(a, b, c)) > 1e-9 * longest * longest {
-            continue;
-        }
-        found = true;
-        // The long edge (u, w) and the corner on it (m).
-        let k = (0..3)
-            .max_by(|&i, &j| {
-                let len = |k: usize| vec3::dist(p(t[k]), p(t[(k + 1) % 3]));
-                len(i).total_cmp(&len(j))
-            })
-            .unwrap_or(0);
-        let (u, w, m) = (t[k], t[(k + 1) % 3], t[(k + 2) % 3]);
-        let other =
-            (0..tris.len()).find(|&j| j != i && tris[j].contains(&u) && tris[j].contains(&w));
-        match other {
-            Some(j) => {
-                let d = tris[j].iter().copied().find(|&v| v != u && v != w).unwrap_or(m);
-                tris[i] = [u, m, d];
-                tris[j] = [m, w, d];
-            }
-            None => drop.push(i),
-        }
-    }
-    for i in drop.into_iter().rev() {
-        tris.swap_remove(i);
-    }
-    found
-}
-
-/// Joins the loops `a` and `b` (same length, corresponding points) by a band of facets.
-pub(crate) fn band(mesh: &mut Mesh, a: &[u32], b: &[u32]) {
-    let n = a.len();
-    for i in 0..n {
-        let j = (i + 1) % n;
-        mesh.triangles.push([a[i], a[j], b[j]]);
-        mesh.triangles.push([a[i], b[j], b[i]]);
-    }
-}
-
-/// `solid`'s mesh without the cap at `end` (its vertices kept, so the rings stay valid).
-pub(crate) fn open_end(solid: &LoftedSolid, end: End) -> Mesh {
-    let cap = match end {
-        End::Root => solid.facets.root_cap.clone(),
-        End::Tip => solid.facets.tip_cap.clone(),
-    };
-    let mut mesh = solid.mesh.clone();
-    mesh.triangles = solid
-        .mesh
-        .triangles
-        .iter()
-        .enumerate()
-        .filter(|(i, _)| !cap.contains(i))
-        .map(|(_, t)| *t)
-        .collect();
-    mesh
 }
 
 /// The print's settings and the surfaces it passes.

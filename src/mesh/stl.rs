@@ -1,5 +1,6 @@
-//! STL output: binary through `stl_io`, ASCII by our own writer, scaled to the output unit and
-//! written atomically; and [`write_parts`], which checks every part before it writes any.
+//! STL encoding in memory: binary and ASCII by our own writer, scaled to the output unit; and
+//! [`encode_part_set_with_progress`], which checks every part of a set before it encodes any.
+//! The files are written by the output edge (`crate::output`).
 //!
 //! STL stores single-precision coordinates without a unit; the unit the project names (mm by
 //! default) is the scale applied here. Facet normals are the unit normals of the triangles as
@@ -7,62 +8,12 @@
 
 use std::collections::HashMap;
 use std::io::Write;
-use std::path::{Path, PathBuf};
-use std::str::FromStr;
+use std::path::PathBuf;
 
 use super::check::{CheckParams, MeshSummary, check_solid};
 use super::error::{MeshError, Place};
-use super::manifest::{DigestWriter, Sha256};
-use super::mesh::Mesh;
-use crate::Error;
-use crate::report::write_atomic_with;
-
-/// The length unit of output files.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
-pub enum LengthUnit {
-    /// Millimetres (the default).
-    #[default]
-    Millimetre,
-    /// Metres.
-    Metre,
-}
-
-impl LengthUnit {
-    /// Output units in one metre.
-    pub fn per_metre(self) -> f64 {
-        match self {
-            LengthUnit::Millimetre => 1e3,
-            LengthUnit::Metre => 1.0,
-        }
-    }
-
-    /// The unit's symbol, as the project file spells it.
-    pub fn symbol(self) -> &'static str {
-        match self {
-            LengthUnit::Millimetre => "mm",
-            LengthUnit::Metre => "m",
-        }
-    }
-
-    /// Decimals that show a micrometre.
-    pub(crate) fn decimals(self) -> usize {
-        match self {
-            LengthUnit::Millimetre => 3,
-            LengthUnit::Metre => 6,
-        }
-    }
-}
-
-impl FromStr for LengthUnit {
-    type Err = MeshError;
-    fn from_str(s: &str) -> Result<Self, MeshError> {
-        match s.trim() {
-            "mm" => Ok(LengthUnit::Millimetre),
-            "m" => Ok(LengthUnit::Metre),
-            other => Err(MeshError::Unit(other.to_string())),
-        }
-    }
-}
+use super::triangles::Mesh;
+use super::unit::LengthUnit;
 
 /// Binary or ASCII STL.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
@@ -154,33 +105,7 @@ pub fn encode_stl(
     }
 }
 
-/// Writes one part to `path` atomically. `name` (letters, digits, `-`, `_`) goes into the ASCII
-/// `solid` line as `layloft-NAME`. The mesh is written as it is: check it first (see
-/// [`write_parts`]).
-pub fn write_stl(path: &Path, name: &str, mesh: &Mesh, options: &StlOptions) -> Result<(), Error> {
-    write_stl_digest(path, name, mesh, options).map(|_| ())
-}
-
-/// [`write_stl`], giving the size in bytes and the SHA-256 digest of what was written.
-pub fn write_stl_digest(
-    path: &Path,
-    name: &str,
-    mesh: &Mesh,
-    options: &StlOptions,
-) -> Result<(u64, String), Error> {
-    check_part_name(name)?;
-    let mut digest = None;
-    write_atomic_with(path, |w| {
-        let mut d = DigestWriter { inner: w, digest: Sha256::new(), bytes: 0 };
-        encode_stl(&mut d, name, mesh, options)?;
-        digest = Some((d.bytes, d.digest));
-        Ok(())
-    })?;
-    let (bytes, digest) = digest.unwrap_or_default();
-    Ok((bytes, digest.finish_hex()))
-}
-
-fn check_part_name(name: &str) -> Result<(), MeshError> {
+pub(crate) fn check_part_name(name: &str) -> Result<(), MeshError> {
     let ok =
         !name.is_empty() && name.chars().all(|c| c.is_ascii_alphanumeric() || c == '-' || c == '_');
     if ok {
@@ -192,7 +117,7 @@ fn check_part_name(name: &str) -> Result<(), MeshError> {
     }
 }
 
-/// A part written by [`write_parts`].
+/// A part of a checked set: its file name and, once encoded or written, its size and digest.
 #[derive(Debug, Clone, PartialEq)]
 pub struct WrittenPart {
     /// The part's name.
@@ -238,59 +163,6 @@ fn as_written(mesh: &Mesh, part: &str, unit: LengthUnit) -> Result<Mesh, MeshErr
     Ok(rounded)
 }
 
-/// Checks every part (see [`check_solid`]) as computed and, except for self-intersection, as
-/// rounded to single precision for the file; only when all pass writes each to
-/// `DIR/NAME.stl`, creating `dir` if needed. A failed check writes nothing; each file is written
-/// atomically, so none is ever half written (if the disk fails part-way, the files already
-/// renamed into place are whole and the rest are untouched).
-pub fn write_parts(
-    dir: &Path,
-    parts: &[(&str, &Mesh)],
-    options: &StlOptions,
-    check: &CheckParams,
-) -> Result<Vec<WrittenPart>, Error> {
-    write_parts_with_progress(dir, parts, options, check, &mut |_, _, _| {})
-}
-
-/// [`write_parts`], calling `progress(done, total, what)` after each part is checked and after
-/// each file is written (`total` is twice the number of parts).
-pub fn write_parts_with_progress(
-    dir: &Path,
-    parts: &[(&str, &Mesh)],
-    options: &StlOptions,
-    check: &CheckParams,
-    progress: &mut dyn FnMut(usize, usize, &str),
-) -> Result<Vec<WrittenPart>, Error> {
-    write_part_set_with_progress(dir, parts, &[], options, check, progress)
-}
-
-/// [`write_parts_with_progress`] for `parts` and `copies`, rigid motions of parts among `parts`
-/// (a mould part in its machining frame): a copy is checked like every part except for
-/// self-intersection, which a rigid motion cannot create; all are checked before any is written.
-pub fn write_part_set_with_progress(
-    dir: &Path,
-    parts: &[(&str, &Mesh)],
-    copies: &[(&str, &Mesh)],
-    options: &StlOptions,
-    check: &CheckParams,
-    progress: &mut dyn FnMut(usize, usize, &str),
-) -> Result<Vec<WrittenPart>, Error> {
-    let total = 2 * (parts.len() + copies.len());
-    let mut done = check_part_set(parts, copies, options, check, &mut |i, what| {
-        progress(i, total, what);
-    })?;
-    std::fs::create_dir_all(dir)
-        .map_err(|source| Error::Write { path: dir.display().to_string(), source })?;
-    let all: Vec<(&str, &Mesh)> = parts.iter().chain(copies).copied().collect();
-    let n = all.len();
-    for (i, (part, &(name, mesh))) in done.iter_mut().zip(&all).enumerate() {
-        part.path = dir.join(&part.path);
-        (part.size_bytes, part.sha256) = write_stl_digest(&part.path, name, mesh, options)?;
-        progress(n + i + 1, total, &format!("wrote {name}.stl"));
-    }
-    Ok(done)
-}
-
 /// Checks every part of `parts` and `copies` as [`write_part_set_with_progress`] does, then
 /// encodes each as STL in memory: the parts with their files' contents (path `NAME.stl`,
 /// relative), for a caller that puts the whole set in place itself, each file written once.
@@ -301,7 +173,7 @@ pub fn encode_part_set_with_progress(
     options: &StlOptions,
     check: &CheckParams,
     progress: &mut dyn FnMut(usize, usize, &str),
-) -> Result<Vec<(WrittenPart, Vec<u8>)>, Error> {
+) -> Result<Vec<(WrittenPart, Vec<u8>)>, MeshError> {
     let total = 2 * (parts.len() + copies.len());
     let done = check_part_set(parts, copies, options, check, &mut |i, what| {
         progress(i, total, what);
@@ -312,9 +184,9 @@ pub fn encode_part_set_with_progress(
     for (i, (mut part, &(name, mesh))) in done.into_iter().zip(&all).enumerate() {
         let mut bytes = Vec::new();
         encode_stl(&mut bytes, name, mesh, options)
-            .map_err(|e| Error::Mesh(MeshError::Geometry(format!("{name}: {e}"))))?;
+            .map_err(|e| MeshError::Geometry(format!("{name}: {e}")))?;
         part.size_bytes = bytes.len() as u64;
-        part.sha256 = super::manifest::sha256_hex(&bytes);
+        part.sha256 = super::digest::sha256_hex(&bytes);
         out.push((part, bytes));
         progress(n + i + 1, total, &format!("encoded {name}.stl"));
     }
@@ -323,13 +195,13 @@ pub fn encode_part_set_with_progress(
 
 /// The checks of a part set (see [`write_part_set_with_progress`]); each part's path is
 /// `NAME.stl`, relative. `progress(done, what)` after each part.
-fn check_part_set(
+pub(crate) fn check_part_set(
     parts: &[(&str, &Mesh)],
     copies: &[(&str, &Mesh)],
     options: &StlOptions,
     check: &CheckParams,
     progress: &mut dyn FnMut(usize, &str),
-) -> Result<Vec<WrittenPart>, Error> {
+) -> Result<Vec<WrittenPart>, MeshError> {
     let full = parts.len();
     let parts: Vec<(&str, &Mesh)> = parts.iter().chain(copies).copied().collect();
     let check = CheckParams { unit: options.unit, ..check.clone() };
@@ -337,7 +209,7 @@ fn check_part_set(
     for (i, &(name, mesh)) in parts.iter().enumerate() {
         check_part_name(name)?;
         if parts[..i].iter().any(|&(other, _)| other == name) {
-            return Err(MeshError::DuplicatePart(name.into()).into());
+            return Err(MeshError::DuplicatePart(name.into()));
         }
         let own =
             CheckParams { self_intersection: check.self_intersection && i < full, ..check.clone() };

@@ -1,0 +1,390 @@
+//! Building a blade's tooling: the end trims, the cores cell by cell with their bulkheads and
+//! prints, the shell, and the mould and casting moulds chosen in `mould_choice`.
+
+use super::*;
+
+/// A core cell through consecutive span segments: bounded in front by the leading-edge cut
+/// (`None`) or web `k`'s back face, behind by web `k`'s front face or the trailing-edge cut.
+#[derive(Debug, Clone, Copy)]
+pub(super) struct CellSpan {
+    pub(super) front: Option<usize>,
+    pub(super) back: Option<usize>,
+    pub(super) first: usize,
+    pub(super) last: usize,
+}
+
+/// A web that starts or ends inside the span: a bulkhead across the cells it bounds.
+#[derive(Debug, Clone, Copy)]
+pub(super) struct Bulkhead {
+    pub(super) r: f64,
+    pub(super) thickness: f64,
+}
+
+/// The one kind of trailing edge the blade has at every station: a closing segment (blunt) or
+/// a point (sharp). A blade whose trailing edge changes kind along the span (a closed round root
+/// blending into blunt sections) cannot be lofted yet: [`MeshError::StationShape`] at the first
+/// station whose kind differs from the root's. A caller may ask this before building, to go on
+/// without tooling.
+pub fn trailing_edge_kind(blade: &Blade) -> Result<EndKind, MeshError> {
+    let blunt = blade.surfaces().blunt_trailing_edges();
+    if blunt.iter().all(|&b| b) {
+        Ok(EndKind::Segment)
+    } else if blunt.iter().all(|&b| !b) {
+        Ok(EndKind::Point)
+    } else {
+        let kind = |b: bool| if b { "blunt" } else { "sharp" };
+        let radii = blade.station_radii();
+        let list: Vec<String> =
+            radii.iter().zip(&blunt).map(|(r, &b)| format!("r = {r} m {}", kind(b))).collect();
+        // The first station whose kind differs from the root's is where the shape changes.
+        let at = blunt.iter().position(|&b| b != blunt[0]).unwrap_or(0);
+        Err(MeshError::StationShape {
+            r: radii.get(at).copied().unwrap_or(0.0),
+            text: format!(
+                "the tooling needs one kind of trailing edge at every station, blunt (open) or \
+                 sharp (closed), and cannot yet blend one into the other along the span; the \
+                 root is {} but this station is {}: give every station the same kind of \
+                 trailing edge to make tooling (a NACA code takes `-closed` for a sharp one); found {}",
+                kind(blunt[0]),
+                kind(!blunt[0]),
+                list.join(", ")
+            ),
+        })
+    }
+}
+
+/// Builds the tooling of `blade` (see the module docs). `progress(done, total, stage)` is called
+/// as each part is lofted.
+///
+/// ```
+/// use layloft::blade::Blade;
+/// use layloft::input::read_project;
+/// use layloft::mesh::{CheckParams, check_solid};
+/// use layloft::tooling::{ToolingParams, build_tooling};
+///
+/// # fn main() -> Result<(), layloft::Error> {
+/// let project = read_project("layups/mine-fan/blade.toml".as_ref())?;
+/// let blade = Blade::from_project(&project)?;
+/// let params = ToolingParams { tolerance: 0.5e-3, ..ToolingParams::default() };
+/// let tooling = build_tooling(&blade, &params, &mut |_, _, _| {})?;
+/// let names: Vec<&str> = tooling.parts.iter().map(|p| p.name.as_str()).collect();
+/// let parts = ["core-1", "core-2", "shell", "mould-upper", "mould-lower"];
+/// // The spherical ends undercut the halves' pull: an end piece at each end.
+/// assert_eq!(names, [&parts[..], &["mould-root-end", "mould-tip-end"]].concat());
+/// // The least clearance to the duct is the rotor's tip clearance.
+/// let shell = &tooling.parts[2].mesh;
+/// let reach = shell.vertices.iter().map(|p| p.iter().map(|c| c * c).sum::<f64>().sqrt());
+/// let gap = project.rotor.tip_radius - reach.fold(0.0, f64::max);
+/// assert!((gap - project.rotor.tip_clearance).abs() < 1e-9);
+/// check_solid(shell, "shell", &CheckParams::default())?;
+/// # Ok(())
+/// # }
+/// ```
+pub fn build_tooling(
+    blade: &Blade,
+    params: &ToolingParams,
+    progress: &mut dyn FnMut(usize, usize, &str),
+) -> Result<BladeTooling, MeshError> {
+    params.validate()?;
+    let surfaces = blade.surfaces();
+    let rotor = blade.rotor();
+    let back = trailing_edge_kind(blade)?;
+    let (r0, r1) = (blade.root_radius(), blade.tip_radius());
+    let root_sphere = rotor.hub_radius + rotor.root_clearance;
+    let tip_sphere = rotor.tip_radius - rotor.tip_clearance;
+    let reach = section_reach(&surfaces, r0);
+    if root_sphere <= reach {
+        return Err(MeshError::Settings(format!(
+            "the root sphere (hub_radius_m + root_clearance_m = {root_sphere:.4} m) does not reach \
+             past the root section, which extends {reach:.4} m from the pitch axis: the sphere \
+             cannot end the blade"
+        )));
+    }
+    let x_lo = ((root_sphere * root_sphere - reach * reach).sqrt() - 0.05 * reach - 1e-3).max(0.0);
+    let span = [x_lo, tip_sphere.max(r1) + 1e-3];
+    let ends = EndSpheres {
+        root: root_sphere,
+        tip: tip_sphere,
+        root_laminate: surfaces.least_skin_thickness(r0),
+        tip_laminate: surfaces.least_skin_thickness(r1),
+    };
+    let pitch = params.pitch.unwrap_or(rotor.pitch);
+    let outer = BladeSurface { surfaces: &surfaces, side: Side::Outer, pitch, span, back };
+    let inner = BladeSurface { surfaces: &surfaces, side: Side::Inner, pitch, span, back };
+    let loft = LoftParams { tolerance: params.tolerance, ..LoftParams::default() };
+
+    // Where the cores close at the leading and trailing edges, solved every 4 mm or so along the
+    // span and interpolated (each cut keeps a tenth of the least core thickness clear of where the
+    // inner chains stop facing each other, far more than the interpolation moves it).
+    let radii = span_samples(span);
+    let cut_radii: Vec<f64> = {
+        let n = ((span[1] - span[0]) / 4e-3).ceil().clamp(48.0, 600.0) as usize;
+        (0..=n).map(|i| span[0] + (span[1] - span[0]) * i as f64 / n as f64).collect()
+    };
+    let base = |x: f64| surfaces.thickness(x, Surface::Upper, 1.0);
+    let (mut le_y, mut te_y) = (Vec::with_capacity(cut_radii.len()), Vec::new());
+    for &x in &cut_radii {
+        let [front, back] = core_cuts(&inner, x, params.min_core_thickness, base(x))?;
+        le_y.push(front);
+        te_y.push(back);
+    }
+    let le_cut = Pchip::new(&cut_radii, &le_y);
+    let te_cut = Pchip::new(&cut_radii, &te_y);
+    let core_ends = blade
+        .station_radii()
+        .iter()
+        .map(|&r| {
+            let y = te_cut.eval(r);
+            let (c, pa) = (blade.chord(r), blade.pitch_axis_frac(r));
+            CoreEnd { r, y, chord_fraction: y / c + pa, solid_chord: (1.0 - pa) * c - y }
+        })
+        .collect();
+
+    // Spanwise segments between web ends, and the cells of each.
+    let bulkheads = bulkheads(&surfaces);
+    let (outer_trims, inner_trims) = match params.ends {
+        EndShape::Spheres => (
+            Trims::spheres(root_sphere, tip_sphere),
+            Trims::spheres(root_sphere + ends.root_laminate, tip_sphere - ends.tip_laminate),
+        ),
+        EndShape::Planes => {
+            (Trims::planes(r0, r1), Trims::planes(r0 + ends.root_laminate, r1 - ends.tip_laminate))
+        }
+    };
+    // Each cell is bounded by the leading-edge cut or a web's back face in front, and a web's
+    // front face or the trailing-edge cut behind; it runs through every segment where that pair
+    // bounds a cell, so a bulkhead closes only the cells that end at it.
+    let segments: Vec<(Option<Bulkhead>, Option<Bulkhead>)> = (0..=bulkheads.len())
+        .map(|seg| (seg.checked_sub(1).map(|i| bulkheads[i]), bulkheads.get(seg).copied()))
+        .collect();
+    let mut spans: Vec<CellSpan> = Vec::new();
+    for (seg, &(lo, hi)) in segments.iter().enumerate() {
+        let mid = match (lo, hi) {
+            (Some(a), Some(b)) => 0.5 * (a.r + b.r),
+            (Some(a), None) => 0.5 * (a.r + r1),
+            (None, Some(b)) => 0.5 * (r0 + b.r),
+            (None, None) => 0.5 * (r0 + r1),
+        };
+        let active: Vec<usize> = (0..blade.webs().len())
+            .filter(|&k| {
+                let w = &blade.webs()[k];
+                mid >= w.r_start - 1e-9 && mid <= w.r_end + 1e-9
+            })
+            .collect();
+        let mut bounds = vec![None];
+        bounds.extend(active.iter().map(|&k| Some(k)));
+        bounds.push(None);
+        for pair in bounds.windows(2) {
+            let (front, back) = (pair[0], pair[1]);
+            match spans.iter_mut().find(|c| c.front == front && c.back == back && c.last + 1 == seg)
+            {
+                Some(c) => c.last = seg,
+                None => spans.push(CellSpan { front, back, first: seg, last: seg }),
+            }
+        }
+    }
+    let mut cells: Vec<(CoreCell<'_>, Trims)> = Vec::with_capacity(spans.len());
+    for c in &spans {
+        let trims = Trims {
+            root: segments[c.first]
+                .0
+                .map_or(inner_trims.root, |b| EndTrim::Plane { x: b.r + 0.5 * b.thickness }),
+            tip: segments[c.last]
+                .1
+                .map_or(inner_trims.tip, |b| EndTrim::Plane { x: b.r - 0.5 * b.thickness }),
+        };
+        let face = |k: usize, sign: f64| {
+            let w = blade.webs()[k].clone();
+            let s = &surfaces;
+            move |x: f64| {
+                let xr = x.clamp(w.r_start, w.r_end);
+                s.web_y(x, k) + sign * 0.5 * s.web_thickness(xr, k)
+            }
+        };
+        let front = match c.front {
+            None => CutBound::new(&inner, &radii, |x| le_cut.eval(x))?,
+            Some(k) => CutBound::new(&inner, &radii, face(k, 1.0))?,
+        };
+        let back = match c.back {
+            None => CutBound::new(&inner, &radii, |x| te_cut.eval(x))?,
+            Some(k) => CutBound::new(&inner, &radii, face(k, -1.0))?,
+        };
+        cells.push((CoreCell { inner: &inner, front, back }, trims));
+    }
+
+    let total = cells.len() + 3;
+    let mut done = 0;
+    let mut step = |label: &str, progress: &mut dyn FnMut(usize, usize, &str)| {
+        done += 1;
+        progress(done, total, label);
+    };
+    // The outer mould line is parted at its silhouette along the mould's pull, which is chosen
+    // here (see `choose_pull`).
+    let chosen = choose_pull(blade, &outer, &outer_trims, &loft, params, pitch, span);
+    let (outer_solid, mould_pull_angle, mould) =
+        choose_mould(chosen, &outer, &outer_trims, &loft, params, span)?;
+    step("outer mould line", progress);
+    let mut parts = Vec::with_capacity(total);
+    let printing = params.print_fraction > 0.0;
+    let side = |trim: EndTrim| trim.chord_for_sag(0.5 * params.tolerance).min(loft.max_edge);
+    let (mut printed, mut sealed, mut unprinted) = (Vec::new(), Vec::new(), Vec::new());
+    for (i, ((cell, trims), span)) in cells.iter().zip(&spans).enumerate() {
+        let name = format!("core-{}", i + 1);
+        let solid = loft_solid(cell, trims, &loft)
+            .map_err(|e| MeshError::Geometry(format!("{name}: {e}")))?;
+        // The print leaves through the root when the cell reaches it, else through the tip.
+        let end = if !printing {
+            None
+        } else if segments[span.first].0.is_none() {
+            Some(End::Root)
+        } else if segments[span.last].1.is_none() {
+            Some(End::Tip)
+        } else {
+            unprinted.push(name.clone());
+            None
+        };
+        let mesh = match end {
+            Some(end) => {
+                let set = PrintSetting {
+                    fraction: params.print_fraction,
+                    length: params.print_length,
+                    core_trim: trims.at(end),
+                    outer_trim: outer_trims.at(end),
+                    max_side: side(trims.at(end)),
+                    inset: 0.25 * params.min_core_thickness,
+                };
+                let p = print_core(&name, &solid, end, cell, &set)
+                    .map_err(|e| MeshError::Geometry(format!("{name}: {e}")))?;
+                let mesh = p.mesh.clone();
+                printed.push(p);
+                mesh
+            }
+            None => {
+                sealed.push(solid.mesh.clone());
+                solid.mesh
+            }
+        };
+        let nominal_volume = mesh.signed_volume();
+        let mut mesh = mesh;
+        if params.core_shrink_factor != 1.0 {
+            mesh.scale(params.core_shrink_factor);
+        }
+        parts.push(Part { name, kind: PartKind::Core, mesh, nominal_volume });
+        step(&format!("core {}", i + 1), progress);
+    }
+    let shell = if printed.is_empty() {
+        let mut shell = outer_solid.mesh.clone();
+        for core in &sealed {
+            let mut cavity = core.clone();
+            cavity.flip();
+            shell.merge(&cavity);
+        }
+        shell
+    } else {
+        shell_with_ports(
+            &outer_solid,
+            &printed.iter().collect::<Vec<_>>(),
+            &sealed.iter().collect::<Vec<_>>(),
+            [outer_trims.root, outer_trims.tip],
+            side(outer_trims.root).min(side(outer_trims.tip)),
+        )
+        .map_err(|e| MeshError::Geometry(format!("shell: {e}")))?
+    };
+    let shell_volume = shell.signed_volume();
+    parts.push(Part {
+        name: "shell".into(),
+        kind: PartKind::Shell,
+        mesh: shell,
+        nominal_volume: shell_volume,
+    });
+    step("shell", progress);
+    let (moulds, end_pieces, modular) = match mould {
+        Mould::Whole(set) => {
+            let (moulds, end_pieces) = push_mould_parts(*set, &mut parts);
+            (moulds, end_pieces, None)
+        }
+        Mould::Modular(m) => {
+            let (moulds, end_pieces, modular) = push_modular_parts(m, &mut parts)?;
+            (moulds, end_pieces, Some(modular))
+        }
+    };
+    step("mould halves", progress);
+    let root_extension = r0 - root_trim_x(&outer_solid);
+    let mut machining = Vec::new();
+    let descriptions: Vec<&MouldHalf> = match &modular {
+        Some(m) => m.halves.iter().collect(),
+        None => moulds.iter().collect(),
+    };
+    for (p, half) in
+        parts.iter().filter(|p| p.kind.is_mould()).zip(descriptions.into_iter().chain(&end_pieces))
+    {
+        // The casting leaves a half's cavity against the half's own pull.
+        let (mesh, frame) = to_machining_frame(&p.mesh, vec3::scale(half.pull, -1.0))?;
+        let name = format!("{}-machining", p.name);
+        machining.push(MachinedPart { part: p.name.clone(), name, mesh, frame });
+    }
+    let (casting, casting_notes) = match &params.casting {
+        Some(c) => casting_moulds(&cells, &loft, params, c, mould_pull_angle, printing),
+        None => (Vec::new(), Vec::new()),
+    };
+    Ok(BladeTooling {
+        parts,
+        core_ends,
+        ends,
+        root_extension: root_extension.max(0.0),
+        tip_extension: (tip_sphere - r1).max(0.0),
+        moulds,
+        pitch,
+        params: params.clone(),
+        machining,
+        end_pieces,
+        mould_pull_angle,
+        prints: printed.into_iter().map(|p| p.print).collect(),
+        unprinted,
+        casting,
+        casting_notes,
+        modular,
+    })
+}
+
+/// The least x of the root ring: where the root sphere meets the farthest line.
+pub(super) fn root_trim_x(solid: &LoftedSolid) -> f64 {
+    solid
+        .root_ring
+        .iter()
+        .map(|&v| solid.mesh.vertices[v as usize][0])
+        .fold(f64::INFINITY, f64::min)
+}
+
+/// The greatest distance of the outer contour at `r` from the pitch axis, m (400 points a
+/// surface, plus 1 %).
+pub(super) fn section_reach(surfaces: &BladeSurfaces<'_>, r: f64) -> f64 {
+    let far = (0..=400)
+        .flat_map(|i| {
+            let u = i as f64 / 400.0;
+            [surfaces.outer(r, Surface::Upper, u), surfaces.outer(r, Surface::Lower, u)]
+        })
+        .map(|p| p[0].hypot(p[1]))
+        .fold(0.0, f64::max);
+    1.01 * far
+}
+
+/// Web ends strictly inside the span, with the web laminate there, root first.
+pub(super) fn bulkheads(surfaces: &BladeSurfaces<'_>) -> Vec<Bulkhead> {
+    let blade = surfaces.blade();
+    let (r0, r1) = (blade.root_radius(), blade.tip_radius());
+    let mut out: Vec<Bulkhead> = Vec::new();
+    for (k, w) in blade.webs().iter().enumerate() {
+        for r in [w.r_start, w.r_end] {
+            if r > r0 + 1e-9 && r < r1 - 1e-9 {
+                let thickness = surfaces.web_thickness(r, k);
+                match out.iter_mut().find(|b| (b.r - r).abs() < 1e-9) {
+                    Some(b) => b.thickness = b.thickness.max(thickness),
+                    None => out.push(Bulkhead { r, thickness }),
+                }
+            }
+        }
+    }
+    out.sort_by(|a, b| a.r.total_cmp(&b.r));
+    out
+}

@@ -1,0 +1,106 @@
+//! A print's section: points lifted onto the end trim along the pitch axis, the extent of a
+//! polygon on a vertical line, the print's section scaled from the end contour, and the
+//! even-odd test of a point in a polygon.
+
+use super::*;
+
+/// The point of `trim` over `q = (y, z)`, along the pitch axis.
+pub(super) fn lift_x(trim: EndTrim, q: [f64; 2]) -> Result<P3, MeshError> {
+    match trim {
+        EndTrim::Plane { x } => Ok([x, q[0], q[1]]),
+        EndTrim::Sphere { radius } => {
+            let h = radius * radius - q[0] * q[0] - q[1] * q[1];
+            if h > 0.0 {
+                Ok([h.sqrt(), q[0], q[1]])
+            } else {
+                Err(MeshError::Geometry(format!(
+                    "a print's section reaches ({:.6}, {:.6}) m, beyond the end sphere of radius \
+                     {radius:.6} m",
+                    q[0], q[1]
+                )))
+            }
+        }
+    }
+}
+
+/// The extent `[lo, hi]` of the closed polygon `poly` on the vertical line at `t`.
+pub(super) fn interval_at(poly: &[[f64; 2]], t: f64) -> Option<(f64, f64)> {
+    let n = poly.len();
+    let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
+    for i in 0..n {
+        let (a, b) = (poly[i], poly[(i + 1) % n]);
+        let (y0, y1) = (a[0].min(b[0]), a[0].max(b[0]));
+        if t < y0 || t > y1 {
+            continue;
+        }
+        if y1 - y0 <= 1e-15 {
+            lo = lo.min(a[1].min(b[1]));
+            hi = hi.max(a[1].max(b[1]));
+        } else {
+            let s = (t - a[0]) / (b[0] - a[0]);
+            let z = a[1] + s * (b[1] - a[1]);
+            lo = lo.min(z);
+            hi = hi.max(z);
+        }
+    }
+    (lo <= hi).then_some((lo, hi))
+}
+
+/// The print's section (chord frame) for the end `contour` (a chord-frame polygon that every
+/// vertical line meets in one interval): the contour scaled by `fraction` about the `anchor`,
+/// chordwise and, at each chordwise place, in relative depth (see the module docs); the anchor
+/// is first moved `inset` inside the contour. `n` intervals a side.
+pub(crate) fn print_section(
+    contour: &[[f64; 2]],
+    anchor: [f64; 2],
+    fraction: f64,
+    inset: f64,
+    n: usize,
+) -> Result<Vec<[f64; 2]>, MeshError> {
+    let small = || MeshError::Geometry("a core's end is too small for a print".into());
+    let (y0, y1) = contour
+        .iter()
+        .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), p| (a.min(p[0]), b.max(p[0])));
+    let room = y1 - y0 - 2.0 * inset;
+    if room.is_nan() || room <= 0.0 {
+        return Err(small());
+    }
+    let ya = anchor[0].clamp(y0 + inset, y1 - inset);
+    let (lo, hi) = interval_at(contour, ya).ok_or_else(small)?;
+    if (hi - lo).is_nan() || hi - lo <= 0.0 {
+        return Err(small());
+    }
+    let delta = (inset / (hi - lo)).min(0.25);
+    let ta = ((anchor[1] - lo) / (hi - lo)).clamp(delta, 1.0 - delta);
+    let (ys, ye) = (ya + fraction * (y0 - ya), ya + fraction * (y1 - ya));
+    let mut upper = Vec::with_capacity(n + 1);
+    let mut lower = Vec::with_capacity(n + 1);
+    for k in 0..=n {
+        let y = ys + (ye - ys) * k as f64 / n as f64;
+        let (lo, hi) = interval_at(contour, y).ok_or_else(small)?;
+        upper.push([y, lo + (hi - lo) * (ta + fraction * (1.0 - ta))]);
+        lower.push([y, lo + (hi - lo) * ta * (1.0 - fraction)]);
+    }
+    lower.reverse();
+    upper.extend(lower);
+    let area = polygon_area(&upper).abs();
+    if area.is_nan() || area <= 0.0 {
+        return Err(small());
+    }
+    Ok(upper)
+}
+
+/// Whether `p` lies inside the closed polygon `poly` (even-odd rule).
+pub(crate) fn inside(poly: &[[f64; 2]], p: [f64; 2]) -> bool {
+    let n = poly.len();
+    let mut c = false;
+    for i in 0..n {
+        let (a, b) = (poly[i], poly[(i + n - 1) % n]);
+        if (a[1] > p[1]) != (b[1] > p[1])
+            && p[0] < (b[0] - a[0]) * (p[1] - a[1]) / (b[1] - a[1]) + a[0]
+        {
+            c = !c;
+        }
+    }
+    c
+}
