@@ -1,6 +1,6 @@
 //! The design check of a blade model from its stress and modal results.
 
-use super::{Bound, CheckRow, DesignCheck};
+use super::{Bound, CheckRow, DesignCheck, Place};
 
 /// The design check of a model against its project's `[criteria]`, from the stress results of
 /// every load case and the modal analysis (either may be absent when its criterion is not set).
@@ -21,10 +21,15 @@ pub fn evaluate(
         let (found, location) = match worst {
             Some((s, k)) => (
                 Some(k.reserve_factor),
-                format!("case '{}', r = {:.3} m, {}, ply {}", s.name, k.r, k.location, k.ply_id),
+                Place::Ply {
+                    case: s.name.clone(),
+                    r_m: k.r,
+                    location: k.location.clone(),
+                    ply_id: k.ply_id.clone(),
+                },
             ),
-            None if !stress.is_empty() => (Some(f64::INFINITY), "no ply can fail".to_string()),
-            None => (None, "no load case".to_string()),
+            None if !stress.is_empty() => (Some(f64::INFINITY), Place::NoPlyCanFail),
+            None => (None, Place::NoLoadCase),
         };
         rows.push(CheckRow::new(
             "min_reserve_factor",
@@ -51,17 +56,15 @@ pub fn evaluate(
                 let p = &s.buckling[i].panels[j];
                 (
                     Some(p.check.reserve_factor),
-                    format!(
-                        "case '{}', r = {:.3} m, {}, {}",
-                        s.name,
-                        s.buckling[i].r,
-                        crate::report::panel_place(p),
-                        p.check.mode.label()
-                    ),
+                    Place::Panel {
+                        case: s.name.clone(),
+                        r_m: s.buckling[i].r,
+                        panel: Box::new(p.clone()),
+                    },
                 )
             }
-            None if !stress.is_empty() => (Some(f64::INFINITY), "no wall panel".to_string()),
-            None => (None, "no load case".to_string()),
+            None if !stress.is_empty() => (Some(f64::INFINITY), Place::NoWallPanel),
+            None => (None, Place::NoLoadCase),
         };
         rows.push(CheckRow::new(
             "min_buckling_factor",
@@ -82,26 +85,22 @@ pub fn evaluate(
         });
         let (found, location) = match (modal, least) {
             (Some(m), Some((check, mm))) => {
-                let label = m
-                    .campbell
-                    .tracks
-                    .iter()
-                    .find(|t| t.id == mm.track)
-                    .map_or(String::from("a mode"), |t| t.label.clone());
+                let track =
+                    m.campbell.tracks.iter().find(|t| t.id == mm.track).map(|t| t.label.clone());
                 (
                     Some(mm.margin_pct),
-                    format!(
-                        "{label} at {:.1} Hz{} against {} ({:.1} Hz), {} speed {:.0} rpm",
-                        mm.frequency_hz,
-                        if m.dry.is_empty() { "" } else { " (wet)" },
-                        mm.excitation.label(),
-                        mm.excitation_hz,
-                        check.name,
-                        check.rpm
-                    ),
+                    Place::Mode {
+                        track,
+                        frequency_hz: mm.frequency_hz,
+                        wet: !m.dry.is_empty(),
+                        excitation: mm.excitation.clone(),
+                        excitation_hz: mm.excitation_hz,
+                        speed: check.name.clone(),
+                        rpm: check.rpm,
+                    },
                 )
             }
-            _ => (None, "modal analysis not run".to_string()),
+            _ => (None, Place::ModalNotRun),
         };
         rows.push(CheckRow::new(
             "frequency_margin_pct",
@@ -122,15 +121,15 @@ pub fn evaluate(
             Bound::AtMost,
             Some(m.total_kg),
             "kg",
-            format!("laminates {:.3} kg + point masses {:.3} kg", m.laminate_kg, m.point_masses_kg),
+            Place::Mass { laminate_kg: m.laminate_kg, point_masses_kg: m.point_masses_kg },
         ));
     }
     if let Some(limit) = c.max_tip_deflection_m {
         let worst =
             stress.iter().max_by(|a, b| a.tip_deflection.total.total_cmp(&b.tip_deflection.total));
         let (found, location) = match worst {
-            Some(s) => (Some(s.tip_deflection.total), format!("case '{}'", s.name)),
-            None => (None, "no load case".to_string()),
+            Some(s) => (Some(s.tip_deflection.total), Place::Case { name: s.name.clone() }),
+            None => (None, Place::NoLoadCase),
         };
         rows.push(CheckRow::new(
             "max_tip_deflection_m",

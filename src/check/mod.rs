@@ -1,10 +1,15 @@
 //! The design check: each criterion of the project's `[criteria]` against the value the analysis
 //! found, with PASS or FAIL. A criterion the project does not set is not checked; a criterion whose
 //! value could not be computed fails (a check that cannot be made is not a pass).
+//!
+//! The check returns values: the limit, the value found and where it occurs as a [`Place`];
+//! `report::check` puts them into words (demand, value with its unit, place, verdict line).
 
 mod evaluate;
+mod place;
 
 pub use evaluate::evaluate;
+pub use place::Place;
 
 /// What the analysis does not cover, one line each (see [`crate::buckling::NOT_COVERED`]).
 pub use crate::buckling::NOT_COVERED;
@@ -54,8 +59,8 @@ pub struct CheckRow {
     pub found: Option<f64>,
     /// Unit of `limit` and `found` (empty for ratios).
     pub unit: &'static str,
-    /// Where the governing value occurs, in words.
-    pub location: String,
+    /// Where the governing value occurs.
+    pub location: Place,
     /// The outcome.
     pub status: Status,
 }
@@ -69,7 +74,7 @@ impl CheckRow {
         bound: Bound,
         found: Option<f64>,
         unit: &'static str,
-        location: String,
+        location: Place,
     ) -> Self {
         let status = match (found, bound) {
             (Some(v), Bound::AtLeast) if v >= limit => Status::Pass,
@@ -79,25 +84,6 @@ impl CheckRow {
         CheckRow { key, label, limit, bound, found, unit, location, status }
     }
 
-    /// The demand in words, e.g. ">= 1.5" or "<= 20.00 mm".
-    pub fn demand(&self) -> String {
-        let op = match self.bound {
-            Bound::AtLeast => ">=",
-            Bound::AtMost => "<=",
-        };
-        format!("{op} {}", self.show(self.limit))
-    }
-
-    /// The value found in words with its unit: "none" when infinite (nothing can fail), "not
-    /// computed" when absent.
-    pub fn found_text(&self) -> String {
-        match self.found {
-            Some(v) if v.is_finite() => self.show(v),
-            Some(_) => "none".to_string(),
-            None => "not computed".to_string(),
-        }
-    }
-
     /// The unit as a key suffix for data files: `pct` for percent, `ratio` for a dimensionless
     /// ratio, otherwise the SI unit itself (`kg`, `m`).
     pub fn unit_key(&self) -> &'static str {
@@ -105,16 +91,6 @@ impl CheckRow {
             "" => "ratio",
             "%" => "pct",
             unit => unit,
-        }
-    }
-
-    /// A value in the unit a reader expects (lengths below a metre in millimetres).
-    fn show(&self, v: f64) -> String {
-        let sig4 = crate::report::sig4;
-        match self.unit {
-            "" => sig4(v),
-            "m" if v.abs() < 1.0 => format!("{} mm", sig4(v * 1e3)),
-            unit => format!("{} {unit}", sig4(v)),
         }
     }
 }
@@ -131,25 +107,6 @@ impl DesignCheck {
     pub fn passed(&self) -> bool {
         self.rows.iter().all(|r| r.status == Status::Pass)
     }
-
-    /// The verdict in one line, naming every criterion that fails with its value and demand:
-    /// "PASS (every criterion met)", "FAIL: least reserve factor 0.84, demand >= 1.5", or
-    /// "NOT CHECKED (the project sets no \[criteria\])".
-    pub fn verdict_line(&self) -> String {
-        if self.rows.is_empty() {
-            return "NOT CHECKED (the project sets no [criteria])".to_string();
-        }
-        if self.passed() {
-            return "PASS (every criterion met)".to_string();
-        }
-        let failed: Vec<String> = self
-            .rows
-            .iter()
-            .filter(|r| r.status != Status::Pass)
-            .map(|r| format!("{} {}, demand {}", r.label, r.found_text(), r.demand()))
-            .collect();
-        format!("FAIL: {}", failed.join("; "))
-    }
 }
 
 #[cfg(test)]
@@ -165,11 +122,9 @@ mod tests {
             Bound::AtMost,
             Some(1.9),
             "kg",
-            String::new(),
+            Place::Unstated,
         );
         assert_eq!(r.status, Status::Pass);
-        assert_eq!(r.demand(), "<= 2.000 kg");
-        assert_eq!(r.found_text(), "1.900 kg");
         let r = CheckRow::new(
             "min_reserve_factor",
             "reserve factor",
@@ -177,7 +132,7 @@ mod tests {
             Bound::AtLeast,
             Some(1.49),
             "",
-            String::new(),
+            Place::Unstated,
         );
         assert_eq!(r.status, Status::Fail);
         let r = CheckRow::new(
@@ -187,7 +142,7 @@ mod tests {
             Bound::AtMost,
             None,
             "m",
-            String::new(),
+            Place::Unstated,
         );
         assert_eq!(r.status, Status::Fail);
         assert!(!DesignCheck { rows: vec![r] }.passed());

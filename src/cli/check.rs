@@ -1,14 +1,11 @@
 //! `layloft check`: the design check against the project's `[criteria]`, PASS or FAIL, with an
 //! exit status a shop's own CI can use.
 
-use std::fmt::Write as _;
 use std::path::PathBuf;
 
 use anyhow::anyhow;
-use serde_json::json;
-
-use layloft::check::{DesignCheck, Status, evaluate};
-use layloft::report::{Align, Table};
+use layloft::check::evaluate;
+use layloft::report::check::{check_json, check_text};
 use layloft::stress::{Detail, analyse_cases_detail};
 
 use super::project::{load_model, run_modal};
@@ -39,43 +36,6 @@ pub struct Args {
     pub json: bool,
 }
 
-fn text(project: &layloft::input::Project, check: &DesignCheck) -> String {
-    let mut out = String::new();
-    let _ = writeln!(out, "layloft check — {}", project.name);
-    out.push_str(&layloft::report::cautions_text());
-    let _ = writeln!(out);
-    let mut t = Table::new(&[
-        ("criterion", Align::Left),
-        ("demand", Align::Right),
-        ("found", Align::Right),
-        ("verdict", Align::Left),
-        ("where", Align::Left),
-    ]);
-    for r in &check.rows {
-        let found = r.found_text();
-        t.row(vec![
-            r.label.to_string(),
-            r.demand(),
-            found,
-            r.status.to_string(),
-            r.location.clone(),
-        ]);
-    }
-    if t.is_empty() {
-        let _ = writeln!(out, "The project sets no [criteria]: nothing to check.");
-        let _ = writeln!(out);
-        out.push_str(&layloft::report::not_covered_text());
-    } else {
-        out.push_str(&t.render(2));
-        let _ = writeln!(out);
-        out.push_str(&layloft::report::not_covered_text());
-        // The verdict is the last line.
-        let _ = writeln!(out);
-        let _ = writeln!(out, "{}", super::verdict(check, project));
-    }
-    out
-}
-
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let model = load_model(&args.blade, out)?;
     let criteria = &model.project.criteria;
@@ -92,44 +52,14 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         None => None,
     };
     let check = evaluate(&model, &stress, modal.as_ref());
+    let p = &model.project;
     if args.json {
-        let rows: Vec<serde_json::Value> = check
-            .rows
-            .iter()
-            .map(|r| {
-                let found = r.found.filter(|v| v.is_finite());
-                let mut row = json!({
-                    "criterion": r.key,
-                    "label": r.label,
-                    "limit": r.limit,
-                    "bound": match r.bound { layloft::check::Bound::AtLeast => "at_least", layloft::check::Bound::AtMost => "at_most" },
-                    "found": found,
-                    "unit": r.unit,
-                    "where": r.location,
-                    "pass": r.status == Status::Pass,
-                });
-                // The same limit and value under keys that carry their unit.
-                row[format!("limit_{}", r.unit_key())] = json!(r.limit);
-                row[format!("found_{}", r.unit_key())] = json!(found);
-                row
-            })
-            .collect();
-        let mut doc = json!({
-            "project": model.project.name,
-            "pass": check.passed(),
-            "criteria": rows,
-            "not_covered": layloft::check::NOT_COVERED,
-            "cautions": layloft::CAUTIONS,
-        });
-        // Only when there are any, so that the output of a project without them is unchanged.
-        if !model.project.input_warnings.is_empty() {
-            doc["input_warnings"] = json!(model.project.input_warnings);
-        }
+        let doc = check_json(&p.name, &check, &p.input_warnings);
         let text = serde_json::to_string_pretty(&doc)
             .map_err(|e| Failure::Run(anyhow!("cannot format the JSON report: {e}")))?;
         out.data(&text);
     } else {
-        out.data(&text(&model.project, &check));
+        out.data(&check_text(&p.name, &check, &p.input_warnings));
     }
     Ok(if check.passed() { Outcome::Success } else { Outcome::CheckFailed })
 }

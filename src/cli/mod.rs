@@ -83,20 +83,9 @@ impl From<layloft::Error> for Failure {
     }
 }
 
-/// The verdict line of a design check, last on stdout: with the input warnings of the project
-/// repeated after it, so that a value that is legal but unusual is seen with the verdict it led
-/// to.
+/// The verdict line of a design check, last on stdout, with the project's input warnings.
 pub fn verdict(check: &layloft::check::DesignCheck, project: &layloft::input::Project) -> String {
-    let line = format!("Design check: {}", check.verdict_line());
-    match project.input_warnings.as_slice() {
-        [] => line,
-        warnings => format!(
-            "{line}, with {} input warning{} (unusual values, check them):\n  ! {}",
-            warnings.len(),
-            if warnings.len() == 1 { "" } else { "s" },
-            warnings.join("\n  ! ")
-        ),
-    }
+    layloft::report::check::verdict_text(check, &project.input_warnings)
 }
 
 /// Parses the arguments, runs the command and maps the result to the exit status.

@@ -239,17 +239,7 @@ fn write_report_with(
         "mode shapes at the nominal speed (CSV)",
         mode_shapes_csv(&nominal).as_bytes(),
     )?;
-    let rows: Vec<Value> = check
-        .rows
-        .iter()
-        .map(|r| {
-            serde_json::json!({
-                "criterion": r.key, "limit": r.limit, "found": r.found.filter(|v| v.is_finite()),
-                "unit": r.unit, "where": r.location, "pass": r.status == layloft::check::Status::Pass,
-            })
-        })
-        .collect();
-    let cjson = serde_json::json!({ "project": p.name, "pass": check.passed(), "criteria": rows });
+    let cjson = layloft::report::check::check_file_json(&p.name, &check);
     put("check.json", "the design check (JSON)", json_text(&cjson)?.as_bytes())?;
 
     // Drawings of the root, mid-span and tip sections.

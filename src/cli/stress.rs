@@ -4,7 +4,10 @@ use std::path::PathBuf;
 
 use anyhow::anyhow;
 
-use layloft::report::{stress_csv, stress_json, stress_svg, stress_text, write_atomic};
+use layloft::report::{
+    buckling_warning, ply_failure_warning, stress_csv, stress_json, stress_svg, stress_text,
+    write_atomic,
+};
 use layloft::stress::analyse_cases;
 
 use super::project::load_model;
@@ -80,31 +83,17 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     } else {
         out.data(&stress_text(&model, &cases));
     }
-    let failing: Vec<String> = cases
-        .iter()
-        .filter_map(|c| c.critical.as_ref().filter(|k| k.reserve_factor < 1.0).map(|k| (c, k)))
-        .map(|(c, k)| format!("'{}' (reserve factor {:.3})", c.name, k.reserve_factor))
-        .collect();
-    let buckling: Vec<String> = cases
-        .iter()
-        .filter_map(|c| c.least_buckling().map(|(i, j)| (c, &c.buckling[i].panels[j])))
-        .filter(|(_, p)| p.check.reserve_factor < 1.0)
-        .map(|(c, p)| {
-            format!("'{}' (buckling reserve factor {:.3})", c.name, p.check.reserve_factor)
-        })
-        .collect();
-    if !buckling.is_empty() {
-        out.warn(&format!(
-            "a wall panel buckles under the factored load of {}",
-            buckling.join(", ")
-        ));
+    let buckling = buckling_warning(&cases);
+    if let Some(text) = &buckling {
+        out.warn(text);
     }
-    if failing.is_empty() && buckling.is_empty() {
-        Ok(Outcome::Success)
-    } else {
-        if !failing.is_empty() {
-            out.warn(&format!("a ply fails under the factored load of {}", failing.join(", ")));
+    match ply_failure_warning(&cases) {
+        None if buckling.is_none() => Ok(Outcome::Success),
+        failing => {
+            if let Some(text) = failing {
+                out.warn(&text);
+            }
+            Ok(Outcome::CheckFailed)
         }
-        Ok(Outcome::CheckFailed)
     }
 }

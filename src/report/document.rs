@@ -3,7 +3,7 @@
 //! vibration and tooling, each with its plots and tables.
 
 use super::html::HtmlReport;
-use super::modal_text::crossings_table;
+use super::modes::crossings_table;
 use super::stress::critical_table;
 use super::{
     Align, Table, campbell_svg, fixed, mass_svg, mode_shapes_svg, pitch_moment_svg, planform_svg,
@@ -352,7 +352,7 @@ fn vibration_section(
     if !a.dry.is_empty() {
         s.table(
             "Dry and wet frequencies (Hz): the sweep, crossings and margins use the wet ones.",
-            &super::modal_text::dry_table(a),
+            &super::modes::dry_table(a),
         );
     }
     s.figure(

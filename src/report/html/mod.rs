@@ -155,13 +155,13 @@ impl HtmlReport {
             .rows
             .iter()
             .map(|row| {
-                let found = row.found_text();
-                let place = if row.location.is_empty() {
-                    String::new()
-                } else {
-                    format!(", {}", row.location)
+                let found = crate::report::check::found_text(row);
+                let place = match crate::report::check::place_text(&row.location) {
+                    p if p.is_empty() => p,
+                    p => format!(", {p}"),
                 };
-                let text = format!("{}: {found} (demand {}){place}", row.label, row.demand());
+                let demand = crate::report::check::demand_text(row);
+                let text = format!("{}: {found} (demand {demand}){place}", row.label);
                 (Some(row.status == Status::Pass), text)
             })
             .collect();

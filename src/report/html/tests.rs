@@ -1,5 +1,5 @@
 use super::*;
-use crate::check::{Bound, CheckRow};
+use crate::check::{Bound, CheckRow, Place};
 use crate::report::Align;
 
 const SVG: &str = "<svg xmlns=\"http://www.w3.org/2000/svg\" viewBox=\"0 0 4 4\"></svg>";
@@ -97,7 +97,7 @@ fn row(status_ok: bool) -> CheckRow {
         Bound::AtLeast,
         found,
         "",
-        "r = 0.52 m, upper spar cap".into(),
+        Place::Named("r = 0.52 m, upper spar cap".into()),
     )
 }
 

@@ -35,9 +35,12 @@
 //! # }
 //! ```
 
+mod drawing;
 mod json;
 mod rows;
 mod text;
+
+pub use drawing::{section_svg, section_svg_names, section_svg_screen};
 
 use nalgebra::Matrix4;
 

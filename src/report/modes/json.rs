@@ -1,4 +1,4 @@
-//! Modal results as JSON and CSV, units in every field name.
+//! Modal results as JSON, units in every field name.
 //!
 //! JSON (`modal_json`): `rpm_nominal`, `rpm_max`, `blades`; `speeds[]` with `rpm` and `modes[]`
 //! (`frequency_hz`, `kind`, `track` and the kinetic energy shares `flap_share` ...);
@@ -11,17 +11,11 @@
 //! excitation), `margin_pct`, `pass`). `modal_analysis_json` adds the model's boundary
 //! condition, point masses, fluid and dry/wet frequencies. A pass that was not asked for, or a value
 //! that is not finite, is `null`.
-//!
-//! CSV: the Campbell data one row per mode and speed (`campbell_csv`), and mode shapes one row
-//! per mode and node (`mode_shapes_csv`: `mode, track, frequency_hz, kind, r_m, axial_m,
-//! in_plane_m, out_of_plane_m, twist_rad`, rotor frame, scaled as `modal::ModeShape` says).
-
-use std::fmt::Write;
 
 use serde_json::{Value, json};
 
 use crate::input::Rotor;
-use crate::modal::{Campbell, Crossing, Excitation, MarginCheck, ModalAnalysis, ModeSet};
+use crate::modal::{Campbell, Crossing, Excitation, MarginCheck, ModalAnalysis};
 
 /// The modal results as one JSON document.
 pub fn modal_json(
@@ -201,45 +195,4 @@ pub fn modal_analysis_json(a: &ModalAnalysis) -> Value {
         obj.insert("dry_wet".into(), Value::Array(dry));
     }
     v
-}
-
-/// The Campbell data: `rpm, track, label, kind, frequency_hz`, one row per mode and speed.
-pub fn campbell_csv(campbell: &Campbell) -> String {
-    let mut s = String::from("rpm,track,label,kind,frequency_hz\n");
-    for set in &campbell.speeds {
-        for m in &set.modes {
-            let (id, label) = match m.track.and_then(|t| campbell.tracks.get(t)) {
-                Some(t) => (t.id.to_string(), t.label.as_str()),
-                None => (String::new(), ""),
-            };
-            let _ = writeln!(s, "{},{id},{label},{},{}", set.rpm, m.kind.name(), m.frequency_hz);
-        }
-    }
-    s
-}
-
-/// Mode shapes at one speed, one row per mode and node.
-pub fn mode_shapes_csv(set: &ModeSet) -> String {
-    let mut s = String::from(
-        "mode,track,frequency_hz,kind,r_m,axial_m,in_plane_m,out_of_plane_m,twist_rad\n",
-    );
-    for (i, m) in set.modes.iter().enumerate() {
-        let track = m.track.map(|t| t.to_string()).unwrap_or_default();
-        let sh = &m.shape;
-        for n in 0..sh.r.len() {
-            let _ = writeln!(
-                s,
-                "{},{track},{},{},{},{},{},{},{}",
-                i + 1,
-                m.frequency_hz,
-                m.kind.name(),
-                sh.r[n],
-                sh.axial[n],
-                sh.in_plane[n],
-                sh.out_of_plane[n],
-                sh.twist[n]
-            );
-        }
-    }
-    s
 }

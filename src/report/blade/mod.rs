@@ -2,9 +2,9 @@
 //! the pitching moment over the pitch range, and mode shapes. Every axis is labelled with its
 //! unit.
 
-use super::plot::{Anchor, Figure, LineStyle, Marker, palette};
 use crate::analysis::BladeModel;
 use crate::modal::{ModeKind, ModeSet};
+use crate::report::plot::{Anchor, Figure, LineStyle, Marker, palette};
 use crate::stress::CaseStress;
 
 fn span_grid(model: &BladeModel, n: usize) -> Vec<f64> {

@@ -2,15 +2,15 @@
 
 use std::fmt::Write as _;
 
-use super::{Align, Table, fixed, sig4};
 use crate::modal::ModalAnalysis;
+use crate::report::{Align, Table, fixed, sig4};
 
 /// Frequencies at standstill and at the checked speeds, the margins with their verdicts, and
 /// the crossings inside the speed range.
 pub fn modal_text(project: &str, a: &ModalAnalysis) -> String {
     let mut out = String::new();
     let _ = writeln!(out, "layloft modes — {project}");
-    out.push_str(&super::cautions_text());
+    out.push_str(&crate::report::cautions_text());
     let _ = writeln!(out);
     let first = a.campbell.speeds.first();
     let mut headers: Vec<(String, Align)> =

@@ -5,10 +5,10 @@
 //! Axes as on the reserve map: radius across; chord fraction from the leading edge on the upper
 //! surface above 0 and on the lower surface below 0 (mirrored), webs in bands above 1.
 
-use super::plot::{Anchor, Marker, palette};
-use super::stress_map::{SpanChordMap, station_band};
+use super::map::{SpanChordMap, station_band};
 use crate::analysis::BladeModel;
 use crate::buckling::PanelPart;
+use crate::report::plot::{Anchor, Marker, palette};
 use crate::stress::{CaseStress, WallLocation};
 
 /// Reserve-factor bins, as on the reserve map (our own scale; red below 1 means buckling).
@@ -69,7 +69,7 @@ pub fn buckling_svg(model: &BladeModel, cases: &[CaseStress]) -> String {
     for (k, w) in webs.iter().enumerate() {
         fig.label(r0, 1.1 + 0.1 * k as f64, &format!("web {w}"), palette::INK, Anchor::Start);
     }
-    fig.line(&[(r0, 0.0), (r1, 0.0)], &super::plot::LineStyle::solid(palette::INK, 1.0));
+    fig.line(&[(r0, 0.0), (r1, 0.0)], &crate::report::plot::LineStyle::solid(palette::INK, 1.0));
     let least =
         cases.iter().filter_map(|c| c.least_buckling().map(|(i, j)| (c, i, j))).min_by(|a, b| {
             let rf = |x: &(&CaseStress, usize, usize)| {

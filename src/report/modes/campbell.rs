@@ -5,8 +5,8 @@
 //! inside the operating range), the operating range shaded, axes "rotor speed (rpm)" and
 //! "frequency (Hz)".
 
-use super::plot::{Anchor, Figure, LineStyle, Marker, palette};
 use crate::modal::{Campbell, Crossing, Excitation, ModeKind};
+use crate::report::plot::{Anchor, Figure, LineStyle, Marker, palette};
 
 /// Colour of a mode kind.
 pub fn kind_colour(kind: ModeKind) -> &'static str {

@@ -7,8 +7,8 @@
 //! wall panel with the lowest buckling reserve factor is marked with a diamond (every panel is
 //! drawn on the buckling map beside this one, `buckling_map.rs`).
 
-use super::plot::{Anchor, Figure, Marker, palette};
 use crate::analysis::BladeModel;
+use crate::report::plot::{Anchor, Figure, Marker, palette};
 use crate::stress::{CaseStress, WallLocation};
 
 /// Reserve-factor bins: upper bound and colour (our own scale; red below 1 means failure).
@@ -136,7 +136,7 @@ pub fn stress_svg(model: &BladeModel, cases: &[CaseStress]) -> String {
     for (k, w) in webs.iter().enumerate() {
         fig.label(r0, 1.1 + 0.1 * k as f64, &format!("web {w}"), palette::INK, Anchor::Start);
     }
-    fig.line(&[(r0, 0.0), (r1, 0.0)], &super::plot::LineStyle::solid(palette::INK, 1.0));
+    fig.line(&[(r0, 0.0), (r1, 0.0)], &crate::report::plot::LineStyle::solid(palette::INK, 1.0));
     // The critical location of the worst case.
     if let Some((case, c)) = cases
         .iter()

@@ -1,0 +1,63 @@
+//! The design check as JSON: the full object of `layloft check --json` and the shorter
+//! `check.json` of the report folder.
+
+use serde_json::{Value, json};
+
+use super::words::place_text;
+use crate::check::{Bound, DesignCheck, Status};
+
+/// The object of `layloft check --json`: every criterion with its limit, bound, value found
+/// (`null` when not computed or infinite), unit, place and pass, the limit and value again
+/// under keys that carry their unit, what the analysis does not cover and the cautions; the
+/// project's input warnings when there are any.
+pub fn check_json(project: &str, check: &DesignCheck, input_warnings: &[String]) -> Value {
+    let rows: Vec<Value> = check
+        .rows
+        .iter()
+        .map(|r| {
+            let found = r.found.filter(|v| v.is_finite());
+            let mut row = json!({
+                "criterion": r.key,
+                "label": r.label,
+                "limit": r.limit,
+                "bound": match r.bound { Bound::AtLeast => "at_least", Bound::AtMost => "at_most" },
+                "found": found,
+                "unit": r.unit,
+                "where": place_text(&r.location),
+                "pass": r.status == Status::Pass,
+            });
+            // The same limit and value under keys that carry their unit.
+            row[format!("limit_{}", r.unit_key())] = json!(r.limit);
+            row[format!("found_{}", r.unit_key())] = json!(found);
+            row
+        })
+        .collect();
+    let mut doc = json!({
+        "project": project,
+        "pass": check.passed(),
+        "criteria": rows,
+        "not_covered": crate::check::NOT_COVERED,
+        "cautions": crate::CAUTIONS,
+    });
+    // Only when there are any, so that the output of a project without them is unchanged.
+    if !input_warnings.is_empty() {
+        doc["input_warnings"] = json!(input_warnings);
+    }
+    doc
+}
+
+/// The `check.json` of the report folder: each criterion's limit, value found, unit, place and
+/// pass.
+pub fn check_file_json(project: &str, check: &DesignCheck) -> Value {
+    let rows: Vec<Value> = check
+        .rows
+        .iter()
+        .map(|r| {
+            json!({
+                "criterion": r.key, "limit": r.limit, "found": r.found.filter(|v| v.is_finite()),
+                "unit": r.unit, "where": place_text(&r.location), "pass": r.status == Status::Pass,
+            })
+        })
+        .collect();
+    json!({ "project": project, "pass": check.passed(), "criteria": rows })
+}

@@ -1,0 +1,43 @@
+//! The listing of `layloft materials`: each record of a materials file with its key values.
+
+use std::fmt::Write as _;
+
+use crate::material::{Material, MaterialLibrary};
+
+/// One line per record (lamina: moduli, ply thickness, density; isotropic: modulus, Poisson's
+/// ratio, density, melting range and safety note), after a first line naming the file.
+pub fn materials_text(file: &str, library: &MaterialLibrary) -> String {
+    let mut text = String::new();
+    let _ = writeln!(text, "{file}: {} materials, all values valid", library.len());
+    for m in library.iter() {
+        let _ = match m {
+            Material::Lamina(l) => writeln!(
+                text,
+                "  lamina     {:<20} E1 {:>7.1} GPa  E2 {:>6.2} GPa  G12 {:>5.2} GPa  t {:.3} mm  {:.0} kg/m3",
+                l.name,
+                l.e1 / 1e9,
+                l.e2 / 1e9,
+                l.g12 / 1e9,
+                l.ply_thickness * 1e3,
+                l.density
+            ),
+            Material::Isotropic(i) => writeln!(
+                text,
+                "  isotropic  {:<20} E {:>8.2} GPa  nu {:.2}  {:.0} kg/m3{}",
+                i.name,
+                i.e / 1e9,
+                i.nu,
+                i.density,
+                i.melting_range_c
+                    .map(|[s, l]| format!("  melts {s:.0}..{l:.0} C"))
+                    .unwrap_or_default()
+            ),
+        };
+        if let Material::Isotropic(i) = m
+            && let Some(note) = &i.safety_note
+        {
+            let _ = writeln!(text, "             safety: {note}");
+        }
+    }
+    text
+}
