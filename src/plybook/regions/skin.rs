@@ -78,7 +78,22 @@ pub(crate) struct SkinLevel<'a> {
     beneath: Vec<Beneath>,
     span: [f64; 2],
     cache: RefCell<Option<RadiusCache>>,
+    edges: RefCell<Vec<Edge>>,
 }
+
+/// The surface's continuation beyond its edges at one clamped point `(r, u)`: the point and the
+/// tangent slopes along `r` and `u` there, each worked out when first asked for. A drape's
+/// finite differences ask for several points continued from one clamped point in a row.
+#[derive(Debug, Clone, Copy)]
+struct Edge {
+    key: [u64; 2],
+    x: [f64; 3],
+    along_r: Option<[f64; 3]>,
+    along_u: Option<[f64; 3]>,
+}
+
+/// Clamped points whose continuation is kept.
+const EDGES_KEPT: usize = 4;
 
 impl<'a> SkinLevel<'a> {
     /// The level of ply `index` (in schedule order) on `side`.
@@ -109,6 +124,7 @@ impl<'a> SkinLevel<'a> {
             beneath,
             span: [root, tip],
             cache: RefCell::new(None),
+            edges: RefCell::new(Vec::new()),
         }
     }
 
@@ -121,6 +137,7 @@ impl<'a> SkinLevel<'a> {
             beneath: Vec::new(),
             span,
             cache: RefCell::new(None),
+            edges: RefCell::new(Vec::new()),
         }
     }
 
@@ -224,33 +241,53 @@ impl DrapeSurface for SkinLevel<'_> {
         let (r, u) = (p[0], self.sign() * p[1]);
         let rc = r.clamp(self.span[0], self.span[1]);
         let uc = u.clamp(-1.0, 1.0);
-        let (x, _) = self.inside_point(rc, uc);
         if rc == r && uc == u {
-            return x;
+            return self.inside_point(rc, uc).0;
         }
         // Continued along the tangents at the nearest inside point, each taken by a one-sided
         // second-order difference over a millimetre-scale step: a step near round-off would put
         // noise of order eps/h into the continuation, which the drape's own differences of the
         // continued surface then magnify until Newton's method cannot settle beyond the edge.
-        let mut out = x;
-        if rc != r {
+        let key = [rc.to_bits(), uc.to_bits()];
+        let kept = self.edges.borrow().iter().rev().find(|e| e.key == key).copied();
+        let mut e = kept.unwrap_or_else(|| Edge {
+            key,
+            x: self.inside_point(rc, uc).0,
+            along_r: None,
+            along_u: None,
+        });
+        let x = e.x;
+        if rc != r && e.along_r.is_none() {
             let h = 1e-3_f64.min(0.25 * (self.span[1] - self.span[0]));
             let s = if rc > self.span[0] + 2.0 * h { -h } else { h };
             let (y1, _) = self.inside_point(rc + s, uc);
             let (y2, _) = self.inside_point(rc + 2.0 * s, uc);
-            for k in 0..3 {
-                let slope = (-3.0 * x[k] + 4.0 * y1[k] - y2[k]) / (2.0 * s);
-                out[k] += slope * (r - rc);
-            }
+            e.along_r = Some([0, 1, 2].map(|k| (-3.0 * x[k] + 4.0 * y1[k] - y2[k]) / (2.0 * s)));
         }
-        if uc != u {
+        if uc != u && e.along_u.is_none() {
             let h = 1e-3;
             let s = if uc > -1.0 + 2.0 * h { -h } else { h };
             let (y1, _) = self.inside_point(rc, uc + s);
             let (y2, _) = self.inside_point(rc, uc + 2.0 * s);
+            e.along_u = Some([0, 1, 2].map(|k| (-3.0 * x[k] + 4.0 * y1[k] - y2[k]) / (2.0 * s)));
+        }
+        {
+            let mut edges = self.edges.borrow_mut();
+            edges.retain(|k| k.key != key);
+            if edges.len() >= EDGES_KEPT {
+                edges.remove(0);
+            }
+            edges.push(e);
+        }
+        let mut out = x;
+        if let (true, Some(slope)) = (rc != r, e.along_r) {
             for k in 0..3 {
-                let slope = (-3.0 * x[k] + 4.0 * y1[k] - y2[k]) / (2.0 * s);
-                out[k] += slope * (u - uc);
+                out[k] += slope[k] * (r - rc);
+            }
+        }
+        if let (true, Some(slope)) = (uc != u, e.along_u) {
+            for k in 0..3 {
+                out[k] += slope[k] * (u - uc);
             }
         }
         out
