@@ -45,7 +45,6 @@ const KNOWN_DEBTS: &[(&str, &str)] = &[
     ("input", "material"),
     // Stages that return the crate-wide error instead of their own.
     ("analysis", "error"),
-    ("plybook", "error"),
 ];
 
 fn level(module: &str) -> Option<usize> {

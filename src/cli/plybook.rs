@@ -49,7 +49,7 @@ pub struct Args {
 /// Maps a ply-book error to its exit status: the user's input (2) or a computation (3).
 pub(crate) fn failure(e: PlyBookError) -> Failure {
     match e {
-        PlyBookError::Drape { .. } => {
+        PlyBookError::Drape { .. } | PlyBookError::Output { .. } => {
             Failure::Run(anyhow!(layloft::Error::from(e)).context("the ply book cannot be made"))
         }
         other => Failure::Input(layloft::Error::from(other).into()),
@@ -63,7 +63,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         build_ply_book(&model.blade, &model.project, &PlyBookParams::default()).map_err(failure)?;
     bar.finish();
     let laminate_kg = model.mass().laminate_kg;
-    let files = plybook_files(&book, Some(laminate_kg)).map_err(|e| Failure::Run(e.into()))?;
+    let files = plybook_files(&book, Some(laminate_kg)).map_err(failure)?;
     let mut set = FileSet::new();
     for (path, bytes) in files {
         set.add(path, bytes);

@@ -273,9 +273,7 @@ fn write_report_with(
     // The ply book: its files in a folder of the report's set.
     let book = ply_book().map_err(super::plybook::failure)?;
     let laminate_kg = model.mass().laminate_kg;
-    for (path, bytes) in
-        plybook_files(&book, Some(laminate_kg)).map_err(|e| Failure::Run(e.into()))?
-    {
+    for (path, bytes) in plybook_files(&book, Some(laminate_kg)).map_err(super::plybook::failure)? {
         set.add(format!("plybook/{path}"), bytes);
     }
     for w in

@@ -100,9 +100,15 @@ impl<'a> NetLocator<'a> {
         }
         // Outside every complete cell: extrapolated from the nearest one, up to one cell out
         // (the net may stop short of an edge where the surface turns sharply, as round a nose).
+        // Only a cell that `q` may lie within `limit` cells of can be the nearest one (or the
+        // nearest within `FAR_OUT`): the others are passed over without inverting their map.
+        let limit = best.map_or(FAR_OUT, |(_, o)| o.min(FAR_OUT));
         let mut near: Option<([f64; 2], f64)> = None;
         for (i, j, _) in self.net.nodes() {
             let Some(c) = cell_params(self.net, i, j) else { continue };
+            if beyond(&c, q, limit) {
+                continue;
+            }
             let Some(st) = inverse_bilinear(&c, q) else { continue };
             let out = (-st[0]).max(st[0] - 1.0).max(-st[1]).max(st[1] - 1.0).max(0.0);
             if near.is_none_or(|(_, o)| out < o) {
@@ -117,9 +123,6 @@ impl<'a> NetLocator<'a> {
     fn refine(&self, start: [f64; 2], q: [f64; 2]) -> [f64; 2] {
         let mut xi = start;
         for _ in 0..8 {
-            if bicubic(self.net, xi).is_none() {
-                return xi;
-            }
             let Some((p, j)) = bicubic(self.net, xi) else { return xi };
             let r = [p[0] - q[0], p[1] - q[1]];
             let det = j[0][0] * j[1][1] - j[0][1] * j[1][0];
@@ -156,6 +159,20 @@ fn cell_params(net: &DrapedNet, i: i32, j: i32) -> Option<[[f64; 2]; 4]> {
         net.node(i + 1, j + 1)?.param,
         net.node(i, j + 1)?.param,
     ])
+}
+
+/// Whether `q` lies more than `limit` cells outside the bilinear cell `c`: the map
+/// `c0 + s e1 + t e3 + s t e2` over `s, t ∈ [-limit, 1 + limit]` stays within
+/// `m (|e1| + |e3|) + m² |e2|` of the corner `c0`, with `m = 1 + limit`; a point farther than
+/// that (with a margin for round-off) has no local coordinates within `limit` of the cell.
+fn beyond(c: &[[f64; 2]; 4], q: [f64; 2], limit: f64) -> bool {
+    let len = |v: [f64; 2]| (v[0] * v[0] + v[1] * v[1]).sqrt();
+    let e1 = [c[1][0] - c[0][0], c[1][1] - c[0][1]];
+    let e3 = [c[3][0] - c[0][0], c[3][1] - c[0][1]];
+    let e2 = [c[2][0] - c[1][0] - c[3][0] + c[0][0], c[2][1] - c[1][1] - c[3][1] + c[0][1]];
+    let m = 1.0 + limit;
+    let reach = m * (len(e1) + len(e3)) + m * m * len(e2);
+    len([q[0] - c[0][0], q[1] - c[0][1]]) > 1.01 * reach + 1e-12
 }
 
 /// Local coordinates `(s, t)` of `q` in the bilinear cell `c` (corners 00, 10, 11, 01).

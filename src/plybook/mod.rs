@@ -41,6 +41,13 @@
 //! # }
 //! ```
 
+//! The stages, a file or folder each: `regions` (the ply regions and the surfaces they lie
+//! on), `drape` (the net), `flatten` (net to flat cloth), `pattern` (one region draped and
+//! flattened), `pieces` and `splice` (a region that will not drape whole, cut in pieces), `kit`
+//! (the book built, checked and nested), `nest` (the patterns on the roll), `output` (the files
+//! as bytes: the ply book writes nothing itself). `book` holds the book's types, `error` its
+//! error.
+
 // Negated comparisons are meant: they refuse NaN. DXF records are built field by field.
 #![allow(
     clippy::neg_cmp_op_on_partial_ord,
@@ -50,74 +57,23 @@
 
 mod book;
 mod drape;
+mod error;
 mod flatten;
+mod kit;
 mod nest;
 mod output;
 mod pattern;
+mod pieces;
 mod regions;
+mod splice;
 mod vec3;
 
-pub use book::{
-    FabricKind, MaterialNesting, PatternEntry, PatternPlace, PlyBook, PlyBookParams, PlyRegion,
-    build_ply_book, ply_regions,
-};
+pub use book::{FabricKind, MaterialNesting, PatternEntry, PatternPlace, PlyBook, PlyBookParams};
 pub use drape::{DrapeSpec, DrapeSurface, DrapedNet, NetNode, Prune, drape};
+pub use error::PlyBookError;
+pub use kit::build_ply_book;
 pub use nest::{NestItem, Nesting, Placement, TooWide, nest};
-pub use output::{
-    nesting_svg, pattern_dxf, pattern_svg, plybook_csv, plybook_files, plybook_json, write_files,
-};
+pub use output::{nesting_svg, pattern_dxf, pattern_svg, plybook_csv, plybook_files, plybook_json};
 pub use pattern::{DrapeFailure, FlatPattern, RegionSpec, drape_region};
+pub use regions::{PlyRegion, ply_regions};
 pub use vec3::{point_in_polygon, polygon_area};
-
-/// What can go wrong when making the ply book.
-#[derive(Debug, Clone, thiserror::Error)]
-pub enum PlyBookError {
-    /// A ply region with no area.
-    #[error("{file} line {line}, ply '{ply}': the region has no area ({key}: {found})")]
-    ZeroArea {
-        /// The plies file.
-        file: String,
-        /// Line of the ply.
-        line: usize,
-        /// The ply's id.
-        ply: String,
-        /// The keys at fault.
-        key: String,
-        /// What was found.
-        found: String,
-    },
-    /// A pattern wider than its roll in every rotation allowed.
-    #[error(
-        "ply '{ply}' ({pattern}): the pattern is {least_mm:.0} mm wide at its narrowest allowed turn, wider than the roll of '{material}' (roll_width_mm = {roll_mm:.0} in {file}); give a wider roll or split the ply"
-    )]
-    RollTooNarrow {
-        /// The ply's id.
-        ply: String,
-        /// The pattern.
-        pattern: String,
-        /// The material.
-        material: String,
-        /// The materials file.
-        file: String,
-        /// The pattern's least width, mm.
-        least_mm: f64,
-        /// The roll width, mm.
-        roll_mm: f64,
-    },
-    /// A region the net could not cover.
-    #[error(
-        "{file} line {line}, ply '{ply}' ({pattern}): the cloth cannot be draped over the region: {what}"
-    )]
-    Drape {
-        /// The plies file.
-        file: String,
-        /// Line of the ply.
-        line: usize,
-        /// The ply's id.
-        ply: String,
-        /// The pattern.
-        pattern: String,
-        /// What failed, with the place.
-        what: String,
-    },
-}

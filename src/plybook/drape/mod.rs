@@ -1,7 +1,13 @@
 //! The kinematic (pin-jointed net) drape of Mack & Taylor (1956): two generator threads from the
 //! seed, then every cell of the net closed from its two known sides.
 
+mod net;
+mod wanted;
+
+pub use net::{DrapedNet, NetNode};
+
 use super::vec3::{add, cross, dot, norm, scale, sub, unit};
+use wanted::Wanted;
 
 /// A surface to drape on: a smooth map from a parameter plane into space (m). It should be
 /// defined (and smooth) a few net spacings beyond the region draped, since the net is grown
@@ -42,106 +48,6 @@ pub enum Prune {
     /// A closed polygon in net coordinates (links along the warp and the weft from the seed)
     /// and a margin in links.
     Net(Vec<[f64; 2]>, f64),
-}
-
-/// One node of the draped net.
-#[derive(Debug, Clone, Copy)]
-pub struct NetNode {
-    /// Parameters.
-    pub param: [f64; 2],
-    /// Point in space, m.
-    pub point: [f64; 3],
-    /// Unit normal `S_a × S_b`.
-    pub normal: [f64; 3],
-}
-
-/// The draped net: node `(i, j)` sits `i` links along the warp and `j` along the weft from the
-/// seed; in the flat cloth it is at `(i d, j d)`.
-#[derive(Debug, Clone)]
-pub struct DrapedNet {
-    /// Net spacing, m.
-    pub spacing: f64,
-    /// Half-size: indices run at most from `-half` to `half`.
-    pub half: i32,
-    /// The least warp and weft indices of the box the net may fill.
-    lo: [i32; 2],
-    /// Nodes of the box along the warp and the weft.
-    dims: [i32; 2],
-    nodes: Vec<Option<NetNode>>,
-}
-
-impl DrapedNet {
-    fn index(&self, i: i32, j: i32) -> Option<usize> {
-        let (a, b) = (i - self.lo[0], j - self.lo[1]);
-        (a >= 0 && b >= 0 && a < self.dims[0] && b < self.dims[1])
-            .then(|| (a * self.dims[1] + b) as usize)
-    }
-
-    /// The node `(i, j)`, when the net reached it.
-    pub fn node(&self, i: i32, j: i32) -> Option<&NetNode> {
-        self.index(i, j).and_then(|k| self.nodes[k].as_ref())
-    }
-
-    fn set(&mut self, i: i32, j: i32, node: Option<NetNode>) {
-        if let Some(k) = self.index(i, j) {
-            self.nodes[k] = node;
-        }
-    }
-
-    /// Every node with its indices.
-    pub fn nodes(&self) -> impl Iterator<Item = (i32, i32, &NetNode)> {
-        let n = self.dims[1];
-        self.nodes.iter().enumerate().filter_map(move |(k, v)| {
-            v.as_ref().map(|v| (k as i32 / n + self.lo[0], k as i32 % n + self.lo[1], v))
-        })
-    }
-
-    /// The range of warp indices `[first, last]` the net may fill.
-    pub fn warp_range(&self) -> [i32; 2] {
-        [self.lo[0], self.lo[0] + self.dims[0] - 1]
-    }
-
-    /// The range of weft indices `[first, last]` the net may fill.
-    pub fn weft_range(&self) -> [i32; 2] {
-        [self.lo[1], self.lo[1] + self.dims[1] - 1]
-    }
-
-    /// Shear angle at node `(i, j)`: 90° less the angle between the warp and the weft threads
-    /// there (central differences where both neighbours exist), rad; `None` where a thread has no
-    /// neighbour.
-    pub fn shear(&self, i: i32, j: i32) -> Option<f64> {
-        let node = self.node(i, j)?;
-        let warp = self.tangent(i, j, 1, 0)?;
-        let weft = self.tangent(i, j, 0, 1)?;
-        let n = node.normal;
-        let (warp, weft) = (sub(warp, scale(n, dot(warp, n))), sub(weft, scale(n, dot(weft, n))));
-        let c = dot(warp, weft) / (norm(warp) * norm(weft));
-        Some(std::f64::consts::FRAC_PI_2 - c.clamp(-1.0, 1.0).acos())
-    }
-
-    /// The thread's tangent at node `(i, j)` along index step `(di, dj)`: the derivative of the
-    /// quartic through five nodes where they exist (error of order d⁴), of the parabola through
-    /// three, or a one-sided difference.
-    fn tangent(&self, i: i32, j: i32, di: i32, dj: i32) -> Option<[f64; 3]> {
-        let p = |k: i32| self.node(i + k * di, j + k * dj).map(|n| n.point);
-        match (p(-2), p(-1), p(0), p(1), p(2)) {
-            (Some(a), Some(b), _, Some(c), Some(e)) => {
-                Some(add(scale(sub(c, b), 8.0 / 12.0), scale(sub(a, e), 1.0 / 12.0)))
-            }
-            (_, Some(b), _, Some(c), _) => Some(scale(sub(c, b), 0.5)),
-            (_, None, Some(o), Some(c), _) => Some(sub(c, o)),
-            (_, Some(b), Some(o), None, _) => Some(sub(o, b)),
-            _ => None,
-        }
-    }
-
-    /// Unit warp direction at node `(i, j)` in space.
-    pub fn warp_direction(&self, i: i32, j: i32) -> Option<[f64; 3]> {
-        let n = self.node(i, j)?.normal;
-        let t = self.tangent(i, j, 1, 0)?;
-        let t = sub(t, scale(n, dot(t, n)));
-        (norm(t) > 0.0).then(|| unit(t))
-    }
 }
 
 /// Surface point, unit normal and the tangent vectors at `p` (central differences: a
@@ -408,104 +314,6 @@ pub fn drape(surface: &dyn DrapeSurface, spec: &DrapeSpec) -> Option<DrapedNet> 
         }
     }
     Some(net)
-}
-
-/// Which nodes the net needs (see [`DrapeSpec::region`]), over the box of indices they fill
-/// (the seed included).
-struct Wanted {
-    lo: [i32; 2],
-    dims: [i32; 2],
-    need: Vec<bool>,
-}
-
-impl Wanted {
-    fn new(poly: &[[f64; 2]], margin: f64, half: i32) -> Self {
-        let (mut a, mut b) = ([0.0_f64; 2], [0.0_f64; 2]);
-        for q in poly {
-            for k in 0..2 {
-                a[k] = a[k].min(q[k]);
-                b[k] = b[k].max(q[k]);
-            }
-        }
-        let lo = [0, 1].map(|k| ((a[k] - margin).floor() as i32 - 1).clamp(-half, 0));
-        let hi = [0, 1].map(|k| ((b[k] + margin).ceil() as i32 + 1).clamp(0, half));
-        let dims = [hi[0] - lo[0] + 1, hi[1] - lo[1] + 1];
-        let mut w = Wanted { lo, dims, need: vec![false; (dims[0] * dims[1]) as usize] };
-        // Inside: crossings of the polygon with each warp line `x = i`.
-        let m = poly.len();
-        let mut cuts = Vec::new();
-        for i in lo[0]..=hi[0] {
-            let x = i as f64;
-            cuts.clear();
-            for k in 0..m {
-                let (p, q) = (poly[k], poly[(k + 1) % m]);
-                if (p[0] > x) != (q[0] > x) {
-                    cuts.push(p[1] + (q[1] - p[1]) * (x - p[0]) / (q[0] - p[0]));
-                }
-            }
-            cuts.sort_by(f64::total_cmp);
-            for pair in cuts.chunks_exact(2) {
-                let (j0, j1) =
-                    ((pair[0].ceil() as i32).max(lo[1]), (pair[1].floor() as i32).min(hi[1]));
-                for j in j0..=j1 {
-                    w.mark(i, j);
-                }
-            }
-        }
-        // Within the margin of an edge.
-        for k in 0..m {
-            let (p, q) = (poly[k], poly[(k + 1) % m]);
-            let (dx, dy) = (q[0] - p[0], q[1] - p[1]);
-            let l2 = dx * dx + dy * dy;
-            let i0 = ((p[0].min(q[0]) - margin).floor() as i32).max(lo[0]);
-            let i1 = ((p[0].max(q[0]) + margin).ceil() as i32).min(hi[0]);
-            let j0 = ((p[1].min(q[1]) - margin).floor() as i32).max(lo[1]);
-            let j1 = ((p[1].max(q[1]) + margin).ceil() as i32).min(hi[1]);
-            for i in i0..=i1 {
-                for j in j0..=j1 {
-                    let (x, y) = (i as f64, j as f64);
-                    let t = if l2 > 0.0 {
-                        (((x - p[0]) * dx + (y - p[1]) * dy) / l2).clamp(0.0, 1.0)
-                    } else {
-                        0.0
-                    };
-                    if (x - p[0] - t * dx).hypot(y - p[1] - t * dy) <= margin {
-                        w.mark(i, j);
-                    }
-                }
-            }
-        }
-        // And every node from which a wanted node is reached outwards from the seed.
-        for (si, sj) in [(1, 1), (-1, 1), (-1, -1), (1, -1)] {
-            let ni = if si > 0 { hi[0] } else { -lo[0] };
-            let nj = if sj > 0 { hi[1] } else { -lo[1] };
-            for i in (0..=ni).rev() {
-                for j in (0..=nj).rev() {
-                    let (ii, jj) = (si * i, sj * j);
-                    if w.get(ii + si, jj) || w.get(ii, jj + sj) {
-                        w.mark(ii, jj);
-                    }
-                }
-            }
-        }
-        w
-    }
-
-    fn index(&self, i: i32, j: i32) -> Option<usize> {
-        let (a, b) = (i - self.lo[0], j - self.lo[1]);
-        (a >= 0 && b >= 0 && a < self.dims[0] && b < self.dims[1])
-            .then(|| (a * self.dims[1] + b) as usize)
-    }
-
-    fn mark(&mut self, i: i32, j: i32) {
-        if let Some(k) = self.index(i, j) {
-            self.need[k] = true;
-        }
-    }
-
-    fn get(&self, i: i32, j: i32) -> bool {
-        self.index(i, j).is_some_and(|k| self.need[k])
-    }
 }
 
 /// Sub-links per link of a generator thread.

@@ -1,11 +1,9 @@
-//! The ply regions of a blade as surfaces to drape: a surface ply on one skin (upper or lower),
-//! on its own level (the outer mould line moved inward by the plies laid before it), or a web
-//! ply on the web's plane between the inner skins.
+//! A skin's ply level as a surface to drape: the outer mould line moved inward by the plies laid
+//! before the one draped, their edges ramped as the blade's inner surface ramps them.
 
-use super::drape::DrapeSurface;
+use super::super::drape::DrapeSurface;
 use crate::blade::{AtRadius, Blade, BladeSurfaces, PLY_DROP_TAPER, Surface, smooth_step};
 use crate::input::Region;
-use crate::interp::CubicSpline;
 use std::cell::RefCell;
 
 /// A ply laid before the one draped, with its edges ramped as the blade's inner surface ramps
@@ -80,7 +78,22 @@ pub(crate) struct SkinLevel<'a> {
     beneath: Vec<Beneath>,
     span: [f64; 2],
     cache: RefCell<Option<RadiusCache>>,
+    edges: RefCell<Vec<Edge>>,
 }
+
+/// The surface's continuation beyond its edges at one clamped point `(r, u)`: the point and the
+/// tangent slopes along `r` and `u` there, each worked out when first asked for. A drape's
+/// finite differences ask for several points continued from one clamped point in a row.
+#[derive(Debug, Clone, Copy)]
+struct Edge {
+    key: [u64; 2],
+    x: [f64; 3],
+    along_r: Option<[f64; 3]>,
+    along_u: Option<[f64; 3]>,
+}
+
+/// Clamped points whose continuation is kept.
+const EDGES_KEPT: usize = 4;
 
 impl<'a> SkinLevel<'a> {
     /// The level of ply `index` (in schedule order) on `side`.
@@ -111,10 +124,24 @@ impl<'a> SkinLevel<'a> {
             beneath,
             span: [root, tip],
             cache: RefCell::new(None),
+            edges: RefCell::new(Vec::new()),
         }
     }
 
-    fn sign(&self) -> f64 {
+    /// The outer mould line itself (no plies beneath) on `side` over `span`.
+    pub(super) fn outer_mould_line(blade: &'a Blade, side: Surface, span: [f64; 2]) -> Self {
+        SkinLevel {
+            surfaces: blade.surfaces(),
+            blade,
+            side,
+            beneath: Vec::new(),
+            span,
+            cache: RefCell::new(None),
+            edges: RefCell::new(Vec::new()),
+        }
+    }
+
+    pub(super) fn sign(&self) -> f64 {
         match self.side {
             Surface::Upper => 1.0,
             Surface::Lower => -1.0,
@@ -214,95 +241,55 @@ impl DrapeSurface for SkinLevel<'_> {
         let (r, u) = (p[0], self.sign() * p[1]);
         let rc = r.clamp(self.span[0], self.span[1]);
         let uc = u.clamp(-1.0, 1.0);
-        let (x, _) = self.inside_point(rc, uc);
         if rc == r && uc == u {
-            return x;
+            return self.inside_point(rc, uc).0;
         }
         // Continued along the tangents at the nearest inside point, each taken by a one-sided
         // second-order difference over a millimetre-scale step: a step near round-off would put
         // noise of order eps/h into the continuation, which the drape's own differences of the
         // continued surface then magnify until Newton's method cannot settle beyond the edge.
-        let mut out = x;
-        if rc != r {
+        let key = [rc.to_bits(), uc.to_bits()];
+        let kept = self.edges.borrow().iter().rev().find(|e| e.key == key).copied();
+        let mut e = kept.unwrap_or_else(|| Edge {
+            key,
+            x: self.inside_point(rc, uc).0,
+            along_r: None,
+            along_u: None,
+        });
+        let x = e.x;
+        if rc != r && e.along_r.is_none() {
             let h = 1e-3_f64.min(0.25 * (self.span[1] - self.span[0]));
             let s = if rc > self.span[0] + 2.0 * h { -h } else { h };
             let (y1, _) = self.inside_point(rc + s, uc);
             let (y2, _) = self.inside_point(rc + 2.0 * s, uc);
-            for k in 0..3 {
-                let slope = (-3.0 * x[k] + 4.0 * y1[k] - y2[k]) / (2.0 * s);
-                out[k] += slope * (r - rc);
-            }
+            e.along_r = Some([0, 1, 2].map(|k| (-3.0 * x[k] + 4.0 * y1[k] - y2[k]) / (2.0 * s)));
         }
-        if uc != u {
+        if uc != u && e.along_u.is_none() {
             let h = 1e-3;
             let s = if uc > -1.0 + 2.0 * h { -h } else { h };
             let (y1, _) = self.inside_point(rc, uc + s);
             let (y2, _) = self.inside_point(rc, uc + 2.0 * s);
+            e.along_u = Some([0, 1, 2].map(|k| (-3.0 * x[k] + 4.0 * y1[k] - y2[k]) / (2.0 * s)));
+        }
+        {
+            let mut edges = self.edges.borrow_mut();
+            edges.retain(|k| k.key != key);
+            if edges.len() >= EDGES_KEPT {
+                edges.remove(0);
+            }
+            edges.push(e);
+        }
+        let mut out = x;
+        if let (true, Some(slope)) = (rc != r, e.along_r) {
             for k in 0..3 {
-                let slope = (-3.0 * x[k] + 4.0 * y1[k] - y2[k]) / (2.0 * s);
-                out[k] += slope * (u - uc);
+                out[k] += slope[k] * (r - rc);
+            }
+        }
+        if let (true, Some(slope)) = (uc != u, e.along_u) {
+            for k in 0..3 {
+                out[k] += slope[k] * (u - uc);
             }
         }
         out
-    }
-}
-
-/// A web's mid-plane between the inner skins as a surface. Parameters `(r, η)`: radius (m) and
-/// `η` from 0 at the lower inner skin to 1 at the upper; continued linearly beyond.
-pub(crate) struct WebPlane<'a> {
-    blade: &'a Blade,
-    chord_frac: f64,
-    lower: CubicSpline,
-    upper: CubicSpline,
-    span: [f64; 2],
-}
-
-impl<'a> WebPlane<'a> {
-    pub(crate) fn new(blade: &'a Blade, web: usize) -> Self {
-        let w = &blade.webs()[web];
-        let s = blade.surfaces();
-        let (a, b) = (w.r_start.max(blade.root_radius()), w.r_end.min(blade.tip_radius()));
-        let n = 120;
-        let radii: Vec<f64> = (0..=n).map(|i| a + (b - a) * i as f64 / n as f64).collect();
-        let z_at = |side: Surface, r: f64| {
-            let level = SkinLevel {
-                surfaces: s.clone(),
-                blade,
-                side,
-                beneath: Vec::new(),
-                span: [a, b],
-                cache: RefCell::new(None),
-            };
-            let u = level.sign() * level.b_at(r, w.chord_frac);
-            s.inner(r, side, u)[1]
-        };
-        let lower: Vec<f64> = radii.iter().map(|&r| z_at(Surface::Lower, r)).collect();
-        let upper: Vec<f64> = radii.iter().map(|&r| z_at(Surface::Upper, r)).collect();
-        WebPlane {
-            blade,
-            chord_frac: w.chord_frac,
-            lower: CubicSpline::natural(&radii, &lower),
-            upper: CubicSpline::natural(&radii, &upper),
-            span: [a, b],
-        }
-    }
-
-    /// The web's span, m.
-    pub(crate) fn span(&self) -> [f64; 2] {
-        self.span
-    }
-}
-
-impl DrapeSurface for WebPlane<'_> {
-    fn point(&self, p: [f64; 2]) -> [f64; 3] {
-        let r = p[0];
-        let rc = r.clamp(self.span[0], self.span[1]);
-        let (zl, zu) = (
-            self.lower.eval(rc) + self.lower.derivative(rc) * (r - rc),
-            self.upper.eval(rc) + self.upper.derivative(rc) * (r - rc),
-        );
-        let y = (self.chord_frac - self.blade.pitch_axis_frac(rc)) * self.blade.chord(rc);
-        let z = zl + p[1] * (zu - zl);
-        self.blade.to_rotor_frame(r, [y, z], self.blade.rotor().pitch)
     }
 }

@@ -1,0 +1,213 @@
+//! The kit: every region draped (in pieces where needed), each pattern with its material, mass,
+//! cost and draping checks, in lay-up order, and the patterns of each material nested on its
+//! roll.
+
+use super::PlyBookError;
+use super::book::{
+    FabricKind, MaterialNesting, PatternEntry, PatternPlace, PlyBook, PlyBookParams,
+};
+use super::nest::{NestItem, nest};
+use super::pieces::{drape_pieces, first_attempts};
+use super::regions::{Level, PlyRegion, ply_regions};
+use super::splice::{Splice, piece_name, splice_note, splices_of};
+use crate::blade::Blade;
+use crate::input::{PlySpec, Project};
+use crate::material::{CuttingData, LaminaKind};
+
+/// The pattern name of a region: the ply's id and its skin or web.
+pub(super) fn region_name(p: &PlySpec, region: &PlyRegion) -> String {
+    format!("{}-{}", file_safe(&p.id), file_safe(region.surface_name.trim_start_matches("web:")))
+}
+
+/// Builds the ply book of a blade: every ply region draped and flattened (in pieces where one
+/// will not drape whole), checked, and the patterns of each material nested on its roll.
+pub fn build_ply_book(
+    blade: &Blade,
+    project: &Project,
+    params: &PlyBookParams,
+) -> Result<PlyBook, PlyBookError> {
+    let regions = ply_regions(blade, &project.files.plies, params)?;
+    let mut patterns = Vec::with_capacity(regions.len());
+    let mut warnings = Vec::new();
+    let mut failed = Vec::new();
+    let mut splices = Vec::new();
+    let mut splice_lines: Vec<Splice> = Vec::new();
+    let file = &project.files.plies;
+    for (region, whole) in first_attempts(blade, regions, file) {
+        let Some(p) = blade.ply(region.ply) else { continue };
+        let Some(mat) = blade.ply_material(region.ply) else { continue };
+        let cutting = project.materials.cutting(&p.material);
+        let kind = match mat.kind {
+            LaminaKind::Isotropic => FabricKind::Sheet,
+            LaminaKind::Orthotropic if mat.e2 >= 0.8 * mat.e1 => FabricKind::Fabric,
+            LaminaKind::Orthotropic => FabricKind::Unidirectional,
+        };
+        let name = region_name(p, &region);
+        let extent = (region.span, region.chord, region.surface_name.clone());
+        let (pieces, missed) =
+            match drape_pieces(blade, region, whole, file, p, &name, params, &splice_lines, 0) {
+                Ok(v) => v,
+                Err(e) => {
+                    failed.push(e);
+                    continue;
+                }
+            };
+        let count = pieces.len();
+        if count > 1 {
+            splices.push(splice_note(p, &name, &pieces, params.stagger));
+            splice_lines.extend(splices_of(extent.0, extent.1, &pieces));
+        }
+        if !missed.is_empty() {
+            let ids: Vec<String> = missed
+                .iter()
+                .filter_map(|&k| blade.ply(k).map(|q| format!("'{}'", q.id)))
+                .collect();
+            warnings.push(format!(
+                "ply '{}' ({name}): a splice could not be kept {:.0} mm from the splices of ply {} on the same {} (the region is too small to move it): stagger them by hand or cut the ply elsewhere",
+                p.id,
+                params.stagger * 1e3,
+                ids.join(", "),
+                if extent.2.starts_with("web") { "web" } else { "skin" }
+            ));
+        }
+        for (n, (region, flat)) in pieces.into_iter().enumerate() {
+            let name = if count > 1 { piece_name(&name, n) } else { name.clone() };
+            let mass = flat.area * mat.ply_thickness * mat.density;
+            let entry = PatternEntry {
+                name,
+                ply: p.id.clone(),
+                order: region.ply + 1,
+                line: p.line,
+                material: p.material.clone(),
+                surface: region.surface_name.clone(),
+                angle_deg: p.angle.deg(),
+                kind,
+                r_range: region.span,
+                chord_range: matches!(region.level, Level::Skin(_)).then_some(region.chord),
+                area_m2: flat.area,
+                thickness_m: mat.ply_thickness,
+                mass_kg: mass,
+                cost: cutting.cost_per_kg.map(|c| c * mass),
+                locking_angle: cutting.locking_angle,
+                max_shear_place: region.place(flat.max_shear_at),
+                max_deviation_place: region.place(flat.max_deviation_at),
+                pattern: flat,
+            };
+            warnings.extend(drape_warning(&entry));
+            let along = if region.surface_name.starts_with("web") { "height" } else { "x/c" };
+            if let Some(&q) = entry.pattern.cut_short.first() {
+                let at = region.place(q);
+                warnings.push(format!(
+                    "ply '{}' ({}): the draped net cannot be carried to r = {:.3} m, {along} = {:.3} (a cell of the cloth would fold), not even in pieces: the pattern ends short of the ply's region there ({} of {} outline points moved in, pattern area {:.4} m²); add a dart, and check by a trial lay-up",
+                    entry.ply,
+                    entry.name,
+                    at.r,
+                    at.along,
+                    entry.pattern.cut_short.len(),
+                    entry.pattern.outline.len(),
+                    entry.area_m2
+                ));
+            }
+            if let Some(&q) = entry.pattern.extrapolated.first() {
+                let at = region.place(q);
+                warnings.push(format!(
+                    "ply '{}' ({}): the draped net stops short of the region near r = {:.3} m, {along} = {:.3} ({} outline points extrapolated): the cloth will not follow the surface there without a dart or a split; check by a trial lay-up",
+                    entry.ply,
+                    entry.name,
+                    at.r,
+                    at.along,
+                    entry.pattern.extrapolated.len()
+                ));
+            }
+            patterns.push(entry);
+        }
+    }
+    let nestings = nest_materials(&patterns, project, params)?;
+    Ok(PlyBook { project: project.name.clone(), patterns, nestings, warnings, failed, splices })
+}
+
+fn drape_warning(e: &PatternEntry) -> Option<String> {
+    let place = |p: PatternPlace| {
+        if e.surface.starts_with("web") {
+            format!("r = {:.3} m, height {:.2}", p.r, p.along)
+        } else {
+            format!("r = {:.3} m, x/c = {:.3}", p.r, p.along)
+        }
+    };
+    match e.kind {
+        FabricKind::Fabric if e.locks() => Some(format!(
+            "ply '{}' ({}): the fabric shears {:.1}° at {}, past its locking angle of {:.1}°: it will wrinkle there; split the ply or add darts",
+            e.ply,
+            e.name,
+            e.pattern.max_shear.to_degrees().abs(),
+            place(e.max_shear_place),
+            e.locking_angle.to_degrees()
+        )),
+        FabricKind::Unidirectional if e.pattern.max_deviation.to_degrees().abs() > 5.0 => {
+            Some(format!(
+                "ply '{}' ({}): the fibres deviate {:.1}° from the intended direction at {} (more than 5°, common practice)",
+                e.ply,
+                e.name,
+                e.pattern.max_deviation.to_degrees().abs(),
+                place(e.max_deviation_place)
+            ))
+        }
+        _ => None,
+    }
+}
+
+fn nest_materials(
+    patterns: &[PatternEntry],
+    project: &Project,
+    params: &PlyBookParams,
+) -> Result<Vec<MaterialNesting>, PlyBookError> {
+    let mut materials: Vec<&str> = Vec::new();
+    for p in patterns {
+        if !materials.contains(&p.material.as_str()) {
+            materials.push(&p.material);
+        }
+    }
+    let mut out = Vec::new();
+    for m in materials {
+        let cutting: CuttingData = project.materials.cutting(m);
+        let idx: Vec<usize> = (0..patterns.len()).filter(|&k| patterns[k].material == m).collect();
+        let items: Vec<NestItem> = idx
+            .iter()
+            .map(|&k| NestItem {
+                outline: patterns[k].pattern.outline.clone(),
+                quarter_turns: patterns[k].kind.quarter_turns(),
+            })
+            .collect();
+        let nesting = nest(&items, cutting.roll_width, params.gap).map_err(|e| {
+            let p = &patterns[idx[e.item]];
+            PlyBookError::RollTooNarrow {
+                ply: p.ply.clone(),
+                pattern: p.name.clone(),
+                material: m.to_string(),
+                file: project.files.materials.clone(),
+                least_mm: e.least_width * 1e3,
+                roll_mm: cutting.roll_width * 1e3,
+            }
+        })?;
+        let first = &patterns[idx[0]];
+        let areal_mass = first.mass_kg / first.area_m2;
+        let roll_area = nesting.length * nesting.width;
+        let scrap_kg = (roll_area - nesting.pattern_area).max(0.0) * areal_mass;
+        out.push(MaterialNesting {
+            material: m.to_string(),
+            roll_cost: cutting.cost_per_kg.map(|c| c * roll_area * areal_mass),
+            nesting,
+            patterns: idx,
+            areal_mass,
+            scrap_kg,
+        });
+    }
+    Ok(out)
+}
+
+/// Letters, digits, `-` and `_`; anything else becomes `-`.
+fn file_safe(s: &str) -> String {
+    s.chars()
+        .map(|c| if c.is_ascii_alphanumeric() || c == '-' || c == '_' { c } else { '-' })
+        .collect()
+}
