@@ -92,9 +92,11 @@ pub mod material;
 pub mod modal;
 mod parallel;
 pub mod plybook;
+pub mod project;
 pub mod report;
 pub mod section;
 pub mod stress;
+pub mod text;
 pub mod tooling;
 pub mod units;
 

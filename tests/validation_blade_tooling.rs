@@ -23,7 +23,8 @@
 
 use layloft::analysis::BladeModel;
 use layloft::blade::{Blade, Surface};
-use layloft::input::{Project, read_project};
+use layloft::input::read_project;
+use layloft::project::Project;
 use layloft::tooling::{
     BladeTooling, CheckParams, EndShape, PartKind, ToolingParams, build_tooling, check_solid,
     schedule_content,

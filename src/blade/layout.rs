@@ -4,7 +4,7 @@ use std::collections::HashMap;
 
 use super::coverage::Surface;
 use super::{Blade, BladeError};
-use crate::input::Region;
+use crate::project::Region;
 use crate::section::{SectionLayout, WebLayout};
 
 impl Blade {

@@ -39,7 +39,7 @@ pub struct Args {
     pub json: bool,
 }
 
-fn text(project: &layloft::input::Project, check: &DesignCheck) -> String {
+fn text(project: &layloft::project::Project, check: &DesignCheck) -> String {
     let mut out = String::new();
     let _ = writeln!(out, "layloft check — {}", project.name);
     out.push_str(&layloft::report::cautions_text());

@@ -86,7 +86,7 @@ impl From<layloft::Error> for Failure {
 /// The verdict line of a design check, last on stdout: with the input warnings of the project
 /// repeated after it, so that a value that is legal but unusual is seen with the verdict it led
 /// to.
-pub fn verdict(check: &layloft::check::DesignCheck, project: &layloft::input::Project) -> String {
+pub fn verdict(check: &layloft::check::DesignCheck, project: &layloft::project::Project) -> String {
     let line = format!("Design check: {}", check.verdict_line());
     match project.input_warnings.as_slice() {
         [] => line,

@@ -14,7 +14,8 @@ use anyhow::anyhow;
 
 use layloft::Error;
 use layloft::blade::Blade;
-use layloft::input::{Project, read_project};
+use layloft::input::read_project;
+use layloft::project::Project;
 use layloft::report::{FileSet, ToolingReport};
 use layloft::tooling::{
     CheckParams, MANIFEST_FILE, Manifest, ManifestEntry, MeshError, StaleFiles, StlFormat,

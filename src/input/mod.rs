@@ -29,24 +29,20 @@
 //! # }
 //! ```
 
+mod coordinates;
 mod csv_table;
 mod location;
 mod materials;
-mod project;
 mod project_files;
 mod project_reader;
 mod toml_table;
 
+pub use crate::text::{closest, excerpt};
+pub use coordinates::{read_coordinates, read_coordinates_noted};
 pub use csv_table::{CsvRecord, CsvTable};
 pub use location::{
-    InputError, Location, MAX_INPUT_BYTES, SourceText, closest, excerpt, project_path, read_bytes,
-    read_text,
+    InputError, Location, MAX_INPUT_BYTES, SourceText, project_path, read_bytes, read_text,
 };
 pub use materials::{read_materials, read_materials_str};
-pub use project::{
-    AirfoilSpec, Buoyancy, BuoyantSection, Criteria, DistributedLoadRow, ExcitationSpec,
-    FixedExcitation, FluidSpec, LoadCaseSpec, ModalSpec, PlySpec, PointMass, Project, ProjectFiles,
-    Region, RootSprings, Rotor, SectionSpec, Station, ToolingSpec, WebSpec,
-};
 pub use project_reader::{limits, read_project, tolerance_message, tolerance_range};
 pub use toml_table::TableReader;

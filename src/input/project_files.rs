@@ -3,9 +3,10 @@
 use std::path::Path;
 
 use super::csv_table::{CsvRecord, CsvTable};
-use super::location::{InputError, Location, closest};
-use super::project::*;
+use super::location::{InputError, Location};
 use crate::material::MaterialLibrary;
+use crate::project::*;
+use crate::text::closest;
 use crate::units::Angle;
 
 /// Tolerance on radii when comparing against the blade's span, m.
@@ -247,7 +248,7 @@ pub(super) fn read_plies(
                 format!(
                     "ply '{}' is listed twice (first on line {}): expected each ply once, with \
                      its own id (a row pasted twice doubles the ply)",
-                    super::location::excerpt(&id),
+                    crate::text::excerpt(&id),
                     earlier.line
                 ),
             ));

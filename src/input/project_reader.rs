@@ -38,11 +38,12 @@
 
 use std::path::Path;
 
-use super::location::{InputError, Location, SourceText, excerpt};
-use super::project::*;
+use super::location::{InputError, Location, SourceText};
 use super::project_files::{read_distributed, read_plies, read_stations};
 use super::toml_table::{Scalar, TableReader};
 use crate::material::Material;
+use crate::project::*;
+use crate::text::excerpt;
 use crate::units::{Angle, MM};
 
 /// The greatest load-case speed accepted, as a multiple of `rpm_max`: proof and burst tests of

@@ -7,8 +7,8 @@ use super::pattern::{DrapeFailure, FlatPattern, RegionSpec, drape_region};
 use super::regions::{SkinLevel, WebPlane};
 use super::vec3::{cross, norm, sub};
 use crate::blade::{Blade, Surface};
-use crate::input::{PlySpec, Project, Region};
 use crate::material::{CuttingData, LaminaKind};
+use crate::project::{PlySpec, Project, Region};
 
 /// Settings of the ply book.
 #[derive(Debug, Clone, Copy, PartialEq)]

@@ -20,8 +20,8 @@ use std::fmt::Write;
 
 use serde_json::{Value, json};
 
-use crate::input::Rotor;
 use crate::modal::{Campbell, Crossing, Excitation, MarginCheck, ModalAnalysis, ModeSet};
+use crate::project::Rotor;
 
 /// The modal results as one JSON document.
 pub fn modal_json(

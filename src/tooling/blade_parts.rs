@@ -44,8 +44,8 @@ use super::surface::{EndKind, SpanSurface};
 use super::trim::{EndTrim, Trims};
 use super::vec3;
 use crate::blade::{Blade, BladeSurfaces, Surface};
-use crate::input::ToolingSpec;
 use crate::interp::Pchip;
+use crate::project::ToolingSpec;
 use crate::units::Angle;
 
 /// Settings of a blade's tooling.

@@ -29,8 +29,8 @@
 use super::blade_parts::{BladeTooling, PartKind};
 use super::error::End;
 use crate::blade::Blade;
-use crate::input::Project;
 use crate::material::{Isotropic, Material};
+use crate::project::Project;
 
 /// Volume, mass and resin mass of the ply schedule over the blade's stations.
 #[derive(Debug, Clone, Copy, PartialEq)]
