@@ -1,5 +1,8 @@
-//! Reading and validating layloft's input files: `materials.toml` here; the blade project
-//! (`blade.toml`, `stations.csv`, `plies.csv`, load files) in the files beside it.
+//! Reading and validating layloft's input files: `materials.toml`, the blade project
+//! (`blade.toml`, `stations.csv`, `plies.csv`, load files) and airfoil coordinate files. The
+//! reader turns the files into the records of [`crate::project`] (the domain model); only the
+//! command line and the library's entry points call it. `project_reader/` holds one file per
+//! group of `blade.toml` tables.
 //!
 //! Every error names the file, the line and the key or column, says what was expected and what
 //! was found, and, for a misspelt key or name, suggests the closest valid one. Units are
@@ -33,7 +36,6 @@ mod coordinates;
 mod csv_table;
 mod location;
 mod materials;
-mod project_files;
 mod project_reader;
 mod toml_table;
 
