@@ -16,11 +16,12 @@ use std::hint::black_box;
 
 use criterion::{Criterion, criterion_group, criterion_main};
 use layloft::analysis::BladeModel;
-use layloft::input::{ExcitationSpec, PointMass, read_project};
+use layloft::input::read_project;
 use layloft::modal::{
     Attachments, BeamModel, FluidSection, LanczosParams, ModalAnalysis, ModalInputs, SpeedRange,
     solve_dense, solve_lowest,
 };
+use layloft::project::{ExcitationSpec, PointMass};
 use modal_support::{rotor, spec, twisted_blade};
 
 fn model() -> BeamModel {

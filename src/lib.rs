@@ -95,9 +95,11 @@ pub mod modal;
 pub mod output;
 mod parallel;
 pub mod plybook;
+pub mod project;
 pub mod report;
 pub mod section;
 pub mod stress;
+pub mod text;
 pub mod tooling;
 pub mod units;
 

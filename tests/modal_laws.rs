@@ -14,7 +14,7 @@ fn blade_model(elements: usize, springs: bool) -> BeamModel {
     let spec = if springs {
         spec_with_springs(
             elements,
-            layloft::input::RootSprings { axial: 5e7, flap: 2e3, edge: 4e4, torsion: 800.0 },
+            layloft::project::RootSprings { axial: 5e7, flap: 2e3, edge: 4e4, torsion: 800.0 },
         )
     } else {
         spec(elements)
@@ -250,7 +250,7 @@ fn bad_input_gets_a_clear_message() {
     let m =
         message(BeamModel::new(&[beam.to_section(), nan.to_section()], &r, &spec(4)).unwrap_err());
     assert!(m.contains("r = 1 m: inertia.flap is not a finite number"), "{m}");
-    let springs = layloft::input::RootSprings { axial: 1.0, flap: -2.0, edge: 1.0, torsion: 1.0 };
+    let springs = layloft::project::RootSprings { axial: 1.0, flap: -2.0, edge: 1.0, torsion: 1.0 };
     let m = message(
         BeamModel::new(&uniform(&beam, 0.0, 1.0), &r, &spec_with_springs(4, springs)).unwrap_err(),
     );

@@ -2,8 +2,8 @@
 //! the command line promises, and the CSV files carry units in their column names.
 
 use crate::modal_support::*;
-use layloft::input::Criteria;
 use layloft::modal::{BeamModel, ModalAnalysis, SpeedRange, excitation_orders};
+use layloft::project::Criteria;
 use layloft::report::{campbell_csv, campbell_svg, modal_json, mode_shapes_csv};
 
 /// Checks that every tag is closed in order (a small XML well-formedness check: elements,

@@ -3,8 +3,8 @@
 //! force and moment densities written out here), plus the point masses.
 
 use crate::support::beam_section;
-use layloft::input::{DistributedLoadRow, LoadCaseSpec, PointMass};
 use layloft::loads::{LoadDistribution, span_loads};
+use layloft::project::{DistributedLoadRow, LoadCaseSpec, PointMass};
 use layloft::section::MassInertia;
 use layloft::units::{Angle, rpm_to_rad_s};
 use proptest::prelude::*;

@@ -23,8 +23,9 @@
 
 use layloft::analysis::BladeModel;
 use layloft::blade::{Blade, Surface};
-use layloft::input::{Project, read_project};
+use layloft::input::read_project;
 use layloft::mesh::{CheckParams, check_solid};
+use layloft::project::Project;
 use layloft::tooling::{
     BladeTooling, EndShape, PartKind, ToolingParams, build_tooling, schedule_content,
 };

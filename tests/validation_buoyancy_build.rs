@@ -8,8 +8,9 @@ use layloft::analysis::BladeModel;
 use std::fs;
 use std::path::Path;
 
-use layloft::input::{LoadCaseSpec, Project, read_project};
+use layloft::input::read_project;
 use layloft::loads::{LoadDistribution, span_loads};
+use layloft::project::{LoadCaseSpec, Project};
 
 const RHO: f64 = 1025.0;
 const G: f64 = 9.81;

@@ -2,8 +2,8 @@
 
 use crate::support::{beam_section, uniform_blade};
 use approx::assert_relative_eq;
-use layloft::input::{DistributedLoadRow, LoadCaseSpec, PointMass};
 use layloft::loads::{LoadDistribution, span_loads, tip_deflection};
+use layloft::project::{DistributedLoadRow, LoadCaseSpec, PointMass};
 use layloft::section::MassInertia;
 use layloft::units::{Angle, rpm_to_rad_s};
 
@@ -172,7 +172,7 @@ fn buoyancy_takes_the_displaced_weight_off_the_gravity_load() {
     // water (1025 kg/m³) under gravity along -Z at standstill: root force Z = -(m - rho A) g L,
     // root torque about X = y_b rho A g L. The displaced area comes from the outline (shoelace
     // formula) of a 0.1 m × 0.025 m rectangle.
-    use layloft::input::{Buoyancy, BuoyantSection};
+    use layloft::project::{Buoyancy, BuoyantSection};
     let (r0, r1, m, rho, g) = (0.5, 2.0, 4.0, 1025.0, 9.81);
     let sections = uniform_blade(r0, r1, 4, |r| plain(r, m));
     let rect = [[0.0, -0.0125], [0.1, -0.0125], [0.1, 0.0125], [0.0, 0.0125]];

@@ -125,7 +125,7 @@ fn a_root_spring_agrees_with_an_independent_shooting_solution() {
     // Flexible hub: rotational spring k = 5 EI / L at the root, non-rotating and at lambda 4.
     // Reference: RK4 shooting with EI w''(0) = k w'(0) (tests/modal_support).
     let beam = unit_flap_beam();
-    let springs = layloft::input::RootSprings { axial: 1e9, flap: 5.0, edge: 1e6, torsion: 1e6 };
+    let springs = layloft::project::RootSprings { axial: 1e9, flap: 5.0, edge: 1e6, torsion: 1e6 };
     let model = BeamModel::new(
         &uniform(&beam, 0.0, 1.0),
         &rotor(2, 100.0, 200.0, 0.0),
@@ -141,7 +141,7 @@ fn a_root_spring_agrees_with_an_independent_shooting_solution() {
         }
     }
     // A clamped root is the limit of a stiff spring (the same beam, table at lambda 4).
-    let stiff = layloft::input::RootSprings { flap: 1e9, ..springs };
+    let stiff = layloft::project::RootSprings { flap: 1e9, ..springs };
     let model = BeamModel::new(
         &uniform(&beam, 0.0, 1.0),
         &rotor(2, 100.0, 200.0, 0.0),

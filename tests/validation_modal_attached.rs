@@ -5,11 +5,11 @@
 use std::f64::consts::PI;
 
 use crate::modal_support::*;
-use layloft::input::{ExcitationSpec, FixedExcitation};
 use layloft::modal::{
     Attachments, BeamModel, BeamSection, FluidSection, ModeKind, PointBody, ellipse_added_mass,
     machine_excitations,
 };
+use layloft::project::{ExcitationSpec, FixedExcitation};
 use layloft::section::SectionProperties;
 use nalgebra::{DMatrix, SymmetricEigen};
 
@@ -469,7 +469,7 @@ fn a_stiff_blade_on_a_flap_root_spring_flaps_as_a_rigid_hinged_blade() {
     // is the centrifugal moment Omega² ∫ m (e + x) x dx over I, derived here).
     let (m, l, e, k) = (2.0, 1.2, 0.3, 5000.0);
     let beam = BeamSection::uniform(0.0, 1e12, 1e9, 1e9, 1e11, m);
-    let springs = layloft::input::RootSprings { axial: 1e12, flap: k, edge: 1e12, torsion: 1e12 };
+    let springs = layloft::project::RootSprings { axial: 1e12, flap: k, edge: 1e12, torsion: 1e12 };
     let model = BeamModel::new(
         &uniform(&beam, e, l),
         &rotor(3, 300.0, 400.0, 0.0),

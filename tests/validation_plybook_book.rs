@@ -10,13 +10,13 @@ use layloft::blade::Blade;
 use layloft::input::read_project;
 use layloft::plybook::{PlyBook, PlyBookParams, build_ply_book, pattern_dxf, ply_regions};
 
-fn mine_fan() -> (layloft::input::Project, Blade) {
+fn mine_fan() -> (layloft::project::Project, Blade) {
     let project = read_project("layups/mine-fan/blade.toml".as_ref()).expect("demo project");
     let blade = Blade::from_project(&project).expect("demo blade");
     (project, blade)
 }
 
-fn book(project: &layloft::input::Project, blade: &Blade) -> PlyBook {
+fn book(project: &layloft::project::Project, blade: &Blade) -> PlyBook {
     build_ply_book(blade, project, &PlyBookParams::default()).expect("ply book")
 }
 

@@ -14,8 +14,9 @@ use std::path::Path;
 use crate::common::mesh_area;
 use layloft::analysis::BladeModel;
 use layloft::blade::Blade;
-use layloft::input::{Project, read_project};
+use layloft::input::read_project;
 use layloft::plybook::{PlyBook, PlyBookParams, build_ply_book, ply_regions};
+use layloft::project::Project;
 
 fn demo(name: &str) -> Project {
     read_project(format!("layups/{name}/blade.toml").as_ref()).expect("demo project")
@@ -204,7 +205,7 @@ fn check_mass(project: Project) -> (f64, f64) {
     let book = book(&model.project, blade);
     let all_round = |k: usize| {
         blade.ply(k).is_some_and(|p| {
-            matches!(p.region, layloft::input::Region::Both) && p.from <= 0.0 && p.to >= 1.0
+            matches!(p.region, layloft::project::Region::Both) && p.from <= 0.0 && p.to >= 1.0
         })
     };
     let mut inward = 0.0;

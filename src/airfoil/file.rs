@@ -13,12 +13,42 @@
 //! ends `\n`, `\r\n` or `\r`. Points in either direction round the outline are accepted
 //! (reversed, with a note); a point that repeats the one before it is removed, with a note.
 
-use std::path::Path;
+use std::fmt;
 
 use super::normalise::{Loop, outline_from_loop};
 use super::plane::{P, dist, turn};
 use super::{AirfoilError, Outline};
-use crate::input::{InputError, Location};
+
+/// What is wrong with a coordinate file: the file as messages name it, the 1-based line where
+/// the fault is known, and what was expected and found. Shown as `file line N: message` (or
+/// `file: message`), the form of every input error; the reader turns it into one.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct CoordinateError {
+    /// The file as messages name it.
+    pub file: String,
+    /// 1-based line, where the fault has one.
+    pub line: Option<usize>,
+    /// What was expected and what was found.
+    pub message: String,
+}
+
+impl fmt::Display for CoordinateError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(&self.file)?;
+        if let Some(line) = self.line {
+            write!(f, " line {line}")?;
+        }
+        write!(f, ": {}", self.message)
+    }
+}
+
+impl std::error::Error for CoordinateError {}
+
+impl CoordinateError {
+    fn at(file: &str, line: Option<usize>, message: impl Into<String>) -> Self {
+        CoordinateError { file: file.to_string(), line, message: message.into() }
+    }
+}
 
 /// Points with their file lines.
 type Points = Vec<(usize, P)>;
@@ -26,32 +56,17 @@ type Points = Vec<(usize, P)>;
 /// Fewest points a coordinate file must give.
 const MIN_POINTS: usize = 10;
 
-/// Reads a coordinate file; `display` is how messages name it.
-pub fn read_coordinates(path: &Path, display: &str) -> Result<Outline, InputError> {
-    read_coordinates_noted(path, display).map(|(o, _)| o)
-}
-
-/// Reads a coordinate file, with notes on what was changed to read it (points reversed,
-/// repeated points removed, a base given as points along it), each naming the file.
-pub fn read_coordinates_noted(
-    path: &Path,
-    display: &str,
-) -> Result<(Outline, Vec<String>), InputError> {
-    let bytes = crate::input::read_bytes(path, display)?;
-    let text = String::from_utf8_lossy(&bytes);
-    parse_coordinates_noted(&text, display)
-}
-
 /// Parses the text of a coordinate file.
-pub fn parse_coordinates(text: &str, display: &str) -> Result<Outline, InputError> {
+pub fn parse_coordinates(text: &str, display: &str) -> Result<Outline, CoordinateError> {
     parse_coordinates_noted(text, display).map(|(o, _)| o)
 }
 
-/// Parses the text of a coordinate file, with notes as [`read_coordinates_noted`].
+/// Parses the text of a coordinate file, with notes on what was changed to read it (points
+/// reversed, repeated points removed, a base given as points along it), each naming the file.
 pub fn parse_coordinates_noted(
     text: &str,
     display: &str,
-) -> Result<(Outline, Vec<String>), InputError> {
+) -> Result<(Outline, Vec<String>), CoordinateError> {
     let text = text.strip_prefix('\u{feff}').unwrap_or(text);
     let text = text.replace("\r\n", "\n").replace('\r', "\n");
     let mut points: Vec<(usize, P)> = Vec::new();
@@ -85,7 +100,7 @@ fn arrange(
     mut points: Vec<(usize, P)>,
     display: &str,
     notes: &mut Vec<String>,
-) -> Result<Loop, InputError> {
+) -> Result<Loop, CoordinateError> {
     let file_err = |e: AirfoilError| locate(display, e);
     // A line of counts before two surfaces.
     let mut counts = None;
@@ -256,9 +271,10 @@ fn arrange(
     Ok(Loop { pts: pts_only, lines, closed })
 }
 
-fn layout_err(display: &str) -> InputError {
-    InputError::at(
-        Location::file(display),
+fn layout_err(display: &str) -> CoordinateError {
+    CoordinateError::at(
+        display,
+        None,
         "cannot tell the layout of the points: expected one loop from the trailing edge over the \
          upper surface to the leading edge and back, or the upper surface then the lower one, \
          each from the leading edge to the trailing edge"
@@ -266,30 +282,33 @@ fn layout_err(display: &str) -> InputError {
     )
 }
 
-fn bad_line(display: &str, line: usize, content: &str) -> InputError {
-    InputError::at(
-        Location::line(display, line),
+fn bad_line(display: &str, line: usize, content: &str) -> CoordinateError {
+    CoordinateError::at(
+        display,
+        Some(line),
         format!(
             "expected two numbers 'x y' in chord fractions, found '{}'",
-            crate::input::excerpt(content)
+            crate::text::excerpt(content)
         ),
     )
 }
 
-fn locate(display: &str, e: AirfoilError) -> InputError {
-    let line = match &e {
-        AirfoilError::Repeated { line } | AirfoilError::DoublesBack { line, .. } => Some(*line),
-        AirfoilError::Crossing { line_a, .. } => Some(*line_a),
-        _ => None,
-    };
-    let location = match line {
-        Some(l) => Location::line(display, l),
-        None => Location::file(display),
-    };
-    let message = e.to_string();
-    let message = match message.split_once(": ") {
-        Some((head, rest)) if head.starts_with("line ") => rest.to_string(),
-        _ => message,
-    };
-    InputError::at(location, message)
+/// The file error of an outline fault, with the line as a number where the fault has one (the
+/// outline's own message for those faults starts with the line, which the file error gives
+/// in its place).
+fn locate(display: &str, e: AirfoilError) -> CoordinateError {
+    match e {
+        AirfoilError::Repeated { line } => {
+            CoordinateError::at(display, Some(line), "the point repeats the one before it")
+        }
+        AirfoilError::DoublesBack { surface, line } => CoordinateError::at(
+            display,
+            Some(line),
+            format!("the {surface} surface doubles back towards the leading edge"),
+        ),
+        AirfoilError::Crossing { line_a, .. } => {
+            CoordinateError::at(display, Some(line_a), e.to_string())
+        }
+        e => CoordinateError::at(display, None, e.to_string()),
+    }
 }

@@ -31,9 +31,7 @@ mod outline;
 mod plane;
 mod shapes;
 
-pub use file::{
-    parse_coordinates, parse_coordinates_noted, read_coordinates, read_coordinates_noted,
-};
+pub use file::{CoordinateError, parse_coordinates, parse_coordinates_noted};
 pub use naca::Naca4;
 pub use outline::{Outline, clustered_stations};
 pub use shapes::Shape;

@@ -19,8 +19,8 @@ use std::sync::OnceLock;
 
 use crate::Error;
 use crate::blade::{Blade, BladeWarning};
-use crate::input::{Buoyancy, BuoyantSection, Project};
 use crate::modal::{Attachments, FluidSection};
+use crate::project::{Buoyancy, BuoyantSection, Project};
 use crate::section::{
     SectionLayout, SectionParams, SectionProperties, SectionWarning, SolvedSection, WallCurvature,
 };

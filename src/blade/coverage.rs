@@ -3,8 +3,8 @@
 use std::fmt;
 
 use super::{Blade, ResolvedPly};
-use crate::input::{Region, WebSpec};
 use crate::laminate::{Laminate, Ply};
+use crate::project::{Region, WebSpec};
 
 /// A surface of the blade.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]

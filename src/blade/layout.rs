@@ -4,8 +4,8 @@ use std::collections::HashMap;
 
 use super::coverage::Surface;
 use super::{Blade, BladeError};
-use crate::input::Region;
 use crate::layout::{SectionLayout, WebLayout};
+use crate::project::Region;
 
 impl Blade {
     /// The wall layout of the section at `r` with about `contour_points` points on the outer

@@ -5,8 +5,8 @@ use std::sync::{Arc, Mutex};
 
 use super::ResolvedStation;
 use crate::airfoil::{Outline, clustered_stations};
-use crate::input::Station;
 use crate::interp::Pchip;
+use crate::project::Station;
 use crate::units::Angle;
 
 #[derive(Debug, Clone)]

@@ -15,8 +15,8 @@
 
 use super::{Blade, BladeError, ResolvedPly};
 use crate::airfoil::Outline;
-use crate::input::{Region, WebSpec};
 use crate::material::LaminaKind;
+use crate::project::{Region, WebSpec};
 
 /// Intervals of the span-wise midpoint rule.
 pub(crate) const SPAN_INTERVALS: usize = 400;

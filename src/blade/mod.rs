@@ -45,8 +45,9 @@ pub use warning::BladeWarning;
 use std::sync::{Arc, OnceLock};
 
 use crate::airfoil::{Naca4, Outline};
-use crate::input::{AirfoilSpec, InputError, Location, PlySpec, Project, Rotor, WebSpec};
+use crate::input::{InputError, Location};
 use crate::material::{Lamina, MaterialError};
+use crate::project::{AirfoilSpec, PlySpec, Project, Rotor, WebSpec};
 use crate::units::Angle;
 
 /// What can go wrong when building the blade or one of its sections.
@@ -167,7 +168,7 @@ impl Blade {
                 }
                 AirfoilSpec::File(path) => {
                     let (outline, file_notes) =
-                        crate::airfoil::read_coordinates_noted(path, &path.display().to_string())?;
+                        crate::input::read_coordinates_noted(path, &path.display().to_string())?;
                     for note in file_notes {
                         if !notes.contains(&note) {
                             notes.push(note);

@@ -30,8 +30,8 @@
 
 use super::coverage::Surface;
 use super::{Blade, ResolvedPly};
-use crate::input::Region;
 use crate::interp::CubicSpline;
+use crate::project::Region;
 
 /// Ply drops are ramped over this many ply thicknesses (a 1:20 taper, common practice for
 /// dropped plies in moulded laminates).

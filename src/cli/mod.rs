@@ -84,7 +84,7 @@ impl From<layloft::Error> for Failure {
 }
 
 /// The verdict line of a design check, last on stdout, with the project's input warnings.
-pub fn verdict(check: &layloft::check::DesignCheck, project: &layloft::input::Project) -> String {
+pub fn verdict(check: &layloft::check::DesignCheck, project: &layloft::project::Project) -> String {
     layloft::report::check::verdict_text(check, &project.input_warnings)
 }
 

@@ -57,7 +57,7 @@ pub fn run_modal(
 /// blade that the spin makes statically unstable below `rpm_max` (exit 2 naming the key, not an
 /// internal failure).
 fn modal_failure(
-    p: &layloft::input::Project,
+    p: &layloft::project::Project,
     range_given: bool,
     modes_given: bool,
     e: layloft::modal::ModalError,

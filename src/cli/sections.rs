@@ -10,7 +10,8 @@ use std::path::{Path, PathBuf};
 use anyhow::anyhow;
 
 use layloft::analysis::BladeModel;
-use layloft::input::{Project, read_project};
+use layloft::input::read_project;
+use layloft::project::Project;
 use layloft::report::{
     SectionsReport, section_svg, section_svg_names, write_atomic, write_atomic_with,
 };

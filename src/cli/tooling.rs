@@ -14,12 +14,13 @@ use anyhow::anyhow;
 
 use layloft::Error;
 use layloft::blade::Blade;
-use layloft::input::{Project, read_project};
+use layloft::input::read_project;
 use layloft::mesh::{
     CheckParams, Mesh, MeshError, StlFormat, StlOptions, WrittenPart,
     encode_part_set_with_progress, sha256_hex,
 };
 use layloft::output::{FileSet, stale_files};
+use layloft::project::Project;
 use layloft::report::ToolingReport;
 use layloft::tooling::{
     MANIFEST_FILE, Manifest, ManifestEntry, StaleFiles, ToolingParams, build_tooling, summarise,

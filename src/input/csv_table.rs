@@ -3,7 +3,8 @@
 
 use std::path::Path;
 
-use super::location::{InputError, Location, closest, excerpt};
+use super::location::{InputError, Location};
+use crate::text::{closest, excerpt};
 
 /// A CSV file: header and rows, each row with its 1-based line number.
 #[derive(Debug, Clone)]

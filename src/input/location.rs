@@ -196,19 +196,6 @@ pub fn lone_cr_to_lf(text: String) -> String {
     out
 }
 
-/// At most `MAX` characters of a value for a message, with `…` and the full length when cut, so
-/// that a runaway value (a 2 MB number) is not echoed whole.
-pub fn excerpt(text: &str) -> String {
-    const MAX: usize = 40;
-    let count = text.chars().count();
-    if count <= MAX {
-        text.to_string()
-    } else {
-        let head: String = text.chars().take(MAX).collect();
-        format!("{head}… ({count} characters)")
-    }
-}
-
 /// A path relative to a project folder, and the name messages use for it.
 pub fn project_path(dir: &Path, file: &str) -> (PathBuf, String) {
     let path = dir.join(file);
@@ -216,19 +203,10 @@ pub fn project_path(dir: &Path, file: &str) -> (PathBuf, String) {
     (path, display)
 }
 
-/// The candidate closest to `name` by Jaro–Winkler similarity, when it is close enough to be a
-/// likely typo.
-pub fn closest<'a>(name: &str, candidates: impl Iterator<Item = &'a str>) -> Option<String> {
-    candidates
-        .map(|c| (strsim::jaro_winkler(&name.to_lowercase(), &c.to_lowercase()), c))
-        .filter(|(score, _)| *score > 0.75)
-        .max_by(|a, b| a.0.total_cmp(&b.0))
-        .map(|(_, c)| c.to_string())
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::text::excerpt;
 
     #[test]
     fn byte_offsets_map_to_lines() {

@@ -1,5 +1,8 @@
-//! Reading and validating layloft's input files: `materials.toml` here; the blade project
-//! (`blade.toml`, `stations.csv`, `plies.csv`, load files) in the files beside it.
+//! Reading and validating layloft's input files: `materials.toml`, the blade project
+//! (`blade.toml`, `stations.csv`, `plies.csv`, load files) and airfoil coordinate files. The
+//! reader turns the files into the records of [`crate::project`] (the domain model); only the
+//! command line and the library's entry points call it. `project_reader/` holds one file per
+//! group of `blade.toml` tables.
 //!
 //! Every error names the file, the line and the key or column, says what was expected and what
 //! was found, and, for a misspelt key or name, suggests the closest valid one. Units are
@@ -29,24 +32,19 @@
 //! # }
 //! ```
 
+mod coordinates;
 mod csv_table;
 mod location;
 mod materials;
-mod project;
-mod project_files;
 mod project_reader;
 mod toml_table;
 
+pub use crate::text::{closest, excerpt};
+pub use coordinates::{read_coordinates, read_coordinates_noted};
 pub use csv_table::{CsvRecord, CsvTable};
 pub use location::{
-    InputError, Location, MAX_INPUT_BYTES, SourceText, closest, excerpt, project_path, read_bytes,
-    read_text,
+    InputError, Location, MAX_INPUT_BYTES, SourceText, project_path, read_bytes, read_text,
 };
 pub use materials::{read_materials, read_materials_str};
-pub use project::{
-    AirfoilSpec, Buoyancy, BuoyantSection, Criteria, DistributedLoadRow, ExcitationSpec,
-    FixedExcitation, FluidSpec, LoadCaseSpec, ModalSpec, PlySpec, PointMass, Project, ProjectFiles,
-    Region, RootSprings, Rotor, SectionSpec, Station, ToolingSpec, WebSpec,
-};
 pub use project_reader::{limits, read_project, tolerance_message, tolerance_range};
 pub use toml_table::TableReader;

@@ -6,7 +6,8 @@ use std::ops::Range;
 use toml::Spanned;
 use toml::de::{DeTable, DeValue};
 
-use super::location::{InputError, Location, SourceText, closest, excerpt};
+use super::location::{InputError, Location, SourceText};
+use crate::text::{closest, excerpt};
 
 /// A setting given by name or by value.
 #[derive(Debug, Clone, PartialEq)]

@@ -4,7 +4,7 @@
 //! neglected).
 
 use super::LoadsError;
-use crate::input::{DistributedLoadRow, LoadCaseSpec, PointMass};
+use crate::project::{DistributedLoadRow, LoadCaseSpec, PointMass};
 use crate::section::SectionProperties;
 use crate::units::{Angle, rpm_to_rad_s};
 
@@ -57,7 +57,7 @@ fn mass_at(sections: &[SectionProperties], r: f64) -> MassState {
 }
 
 /// Displaced area and its centroid at `r`, interpolated linearly (held beyond the ends).
-fn buoyant_at(sections: &[crate::input::BuoyantSection], r: f64) -> (f64, [f64; 2]) {
+fn buoyant_at(sections: &[crate::project::BuoyantSection], r: f64) -> (f64, [f64; 2]) {
     match sections {
         [] => (0.0, [0.0, 0.0]),
         [one] => (one.area, one.centroid),

@@ -70,12 +70,12 @@ pub enum LoadsError {
 
 /// The load case of a project with that name, or an error with the closest name as a hint.
 pub fn find_case<'a>(
-    project: &'a crate::input::Project,
+    project: &'a crate::project::Project,
     name: &str,
-) -> Result<&'a crate::input::LoadCaseSpec, LoadsError> {
+) -> Result<&'a crate::project::LoadCaseSpec, LoadsError> {
     project.load_cases.iter().find(|c| c.name == name).ok_or_else(|| LoadsError::UnknownCase {
         name: name.to_string(),
-        hint: crate::input::closest(name, project.load_cases.iter().map(|c| c.name.as_str())),
+        hint: crate::text::closest(name, project.load_cases.iter().map(|c| c.name.as_str())),
         known: project.load_cases.iter().map(|c| c.name.clone()).collect(),
     })
 }

@@ -4,7 +4,7 @@
 use super::LoadsError;
 use super::distribution::LoadDistribution;
 use super::integrate::span_loads;
-use crate::input::{LoadCaseSpec, PointMass, Rotor};
+use crate::project::{LoadCaseSpec, PointMass, Rotor};
 use crate::section::SectionProperties;
 use crate::units::Angle;
 

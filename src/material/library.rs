@@ -1,7 +1,7 @@
 //! A named collection of material records, as read from one `materials.toml`.
 
 use super::{Isotropic, Lamina, MaterialError};
-use crate::input::closest;
+use crate::text::closest;
 
 /// One record of a materials file.
 #[derive(Debug, Clone, PartialEq)]

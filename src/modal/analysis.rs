@@ -9,7 +9,7 @@ use super::campbell::{
 };
 use super::modes::ModeSet;
 use super::track::mac_table;
-use crate::input::{Criteria, ExcitationSpec, ModalSpec, Rotor};
+use crate::project::{Criteria, ExcitationSpec, ModalSpec, Rotor};
 use crate::section::SectionProperties;
 
 /// Everything the modal stage reads, for [`ModalAnalysis::run_inputs`].

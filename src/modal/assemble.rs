@@ -12,7 +12,7 @@ use super::attached::Attachments;
 use super::band::BandMatrix;
 use super::element::{NE, element_matrices};
 use super::span::Span;
-use crate::input::{ModalSpec, RootSprings, Rotor};
+use crate::project::{ModalSpec, RootSprings, Rotor};
 use crate::section::SectionProperties;
 use crate::units::rpm_to_rad_s;
 

@@ -54,7 +54,7 @@ pub struct Attachments {
 
 impl Attachments {
     /// The point masses of a project, without a fluid.
-    pub fn of_point_masses(masses: &[crate::input::PointMass]) -> Self {
+    pub fn of_point_masses(masses: &[crate::project::PointMass]) -> Self {
         Attachments { bodies: masses.iter().map(PointBody::from_point_mass).collect(), fluid: None }
     }
 
@@ -79,7 +79,7 @@ pub struct PointBody {
 
 impl PointBody {
     /// The body of a project's point mass.
-    pub fn from_point_mass(p: &crate::input::PointMass) -> Self {
+    pub fn from_point_mass(p: &crate::project::PointMass) -> Self {
         PointBody { r: p.r, mass: p.mass, offset: [p.y, p.z], inertia: p.inertia }
     }
 }

@@ -18,7 +18,7 @@ use super::ModalError;
 use super::assemble::BeamModel;
 use super::modes::{EnergyShares, ModeKind, ModeSet};
 use super::track::{continue_tracks, start_tracks};
-use crate::input::{ExcitationSpec, Rotor};
+use crate::project::{ExcitationSpec, Rotor};
 
 /// Progress of a sweep: called with (speeds done, speeds in all) after each speed, so that a
 /// caller can show a progress bar.

@@ -58,7 +58,7 @@
 //! in the rotor frame (see [`EnergyShares`]), tracks by the mass-weighted MAC ([`mac`]).
 //!
 //! ```
-//! use layloft::input::{ModalSpec, Rotor};
+//! use layloft::project::{ModalSpec, Rotor};
 //! use layloft::modal::{BeamModel, BeamSection};
 //! use layloft::units::Angle;
 //!

@@ -11,8 +11,8 @@ use super::pieces::{drape_pieces, first_attempts};
 use super::regions::{Level, PlyRegion, ply_regions};
 use super::splice::{Splice, piece_name, splice_note, splices_of};
 use crate::blade::Blade;
-use crate::input::{PlySpec, Project};
 use crate::material::{CuttingData, LaminaKind};
+use crate::project::{PlySpec, Project};
 
 /// The pattern name of a region: the ply's id and its skin or web.
 pub(super) fn region_name(p: &PlySpec, region: &PlyRegion) -> String {

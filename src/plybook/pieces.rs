@@ -9,7 +9,7 @@ use super::pattern::{DrapeFailure, FlatPattern, drape_region};
 use super::regions::PlyRegion;
 use super::splice::{Splice, halves};
 use crate::blade::Blade;
-use crate::input::PlySpec;
+use crate::project::PlySpec;
 
 /// The largest relative difference between a pattern's area and its region's area on the
 /// surface for a pattern the net covers whole (the drape keeps every link's length, so the two

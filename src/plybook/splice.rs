@@ -5,7 +5,7 @@ use super::book::PlyBookParams;
 use super::pattern::FlatPattern;
 use super::regions::{At, PlyRegion, skin_region, web_region};
 use crate::blade::{Blade, Surface};
-use crate::input::PlySpec;
+use crate::project::PlySpec;
 
 /// A splice line of a ply cut in pieces: across the span at a radius (over a range of chord
 /// fractions, or of heights on a web), or along the span at a chord fraction (over a range of

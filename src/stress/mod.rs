@@ -42,11 +42,11 @@ use nalgebra::Vector3;
 use crate::analysis::BladeModel;
 use crate::buckling::{Panel, PanelCheck, PanelSolver, check_panel, find_panels};
 use crate::failure::{CriteriaRatios, Criterion, StrengthRatio};
-use crate::input::LoadCaseSpec;
 use crate::laminate::LaminateError;
 use crate::loads::{
     LoadDistribution, LoadsError, PitchReaction, Resultant, TipDeflection, span_loads,
 };
+use crate::project::LoadCaseSpec;
 use recover::{Locator, UnitResponse, recover_section, section_states};
 
 /// What can go wrong in stress recovery.

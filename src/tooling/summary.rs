@@ -28,9 +28,9 @@
 
 use super::blade_parts::{BladeTooling, PartKind};
 use crate::blade::Blade;
-use crate::input::Project;
 use crate::material::{Isotropic, Material};
 use crate::mesh::End;
+use crate::project::Project;
 
 /// Volume, mass and resin mass of the ply schedule over the blade's stations.
 #[derive(Debug, Clone, Copy, PartialEq)]

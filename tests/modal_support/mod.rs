@@ -3,8 +3,8 @@
 
 #![allow(dead_code)]
 
-use layloft::input::{ModalSpec, RootSprings, Rotor};
 use layloft::modal::BeamSection;
+use layloft::project::{ModalSpec, RootSprings, Rotor};
 use layloft::section::{MassInertia, SectionProperties};
 use layloft::units::Angle;
 

@@ -15,7 +15,7 @@ use super::drape::DrapeSurface;
 use super::pattern::RegionSpec;
 use super::vec3::{cross, norm, sub};
 use crate::blade::{Blade, Surface};
-use crate::input::{PlySpec, Region};
+use crate::project::{PlySpec, Region};
 
 /// The surface a region lies on.
 pub(super) enum Level<'a> {

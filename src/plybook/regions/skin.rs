@@ -3,7 +3,7 @@
 
 use super::super::drape::DrapeSurface;
 use crate::blade::{AtRadius, Blade, BladeSurfaces, PLY_DROP_TAPER, Surface, smooth_step};
-use crate::input::Region;
+use crate::project::Region;
 use std::cell::RefCell;
 
 /// A ply laid before the one draped, with its edges ramped as the blade's inner surface ramps

@@ -14,8 +14,8 @@
 
 use serde_json::{Value, json};
 
-use crate::input::Rotor;
 use crate::modal::{Campbell, Crossing, Excitation, MarginCheck, ModalAnalysis};
+use crate::project::Rotor;
 
 /// The modal results as one JSON document.
 pub fn modal_json(

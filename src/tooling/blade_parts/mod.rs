@@ -40,12 +40,12 @@ use super::prints::{CorePrint, PrintSetting, print_core, shell_with_ports};
 use super::surface::{EndKind, SpanSurface};
 use super::trim::{EndTrim, Trims};
 use crate::blade::{Blade, BladeSurfaces, Surface};
-use crate::input::ToolingSpec;
 use crate::interp::Pchip;
 use crate::mesh::LengthUnit;
 use crate::mesh::Mesh;
 use crate::mesh::vec3;
 use crate::mesh::{End, MeshError};
+use crate::project::ToolingSpec;
 use crate::units::Angle;
 
 mod build;

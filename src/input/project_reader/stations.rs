@@ -1,15 +1,12 @@
-//! The CSV files of a blade project: `stations.csv`, `plies.csv` and distributed load files.
+//! `stations.csv`: the stations of the blade root to tip, each with its airfoil (a NACA code, a
+//! built-in shape or a coordinate file), checked for order and spacing.
 
 use std::path::Path;
 
-use super::csv_table::{CsvRecord, CsvTable};
-use super::location::{InputError, Location, closest};
-use super::project::*;
-use crate::material::MaterialLibrary;
+use crate::input::csv_table::{CsvRecord, CsvTable};
+use crate::input::location::{InputError, Location};
+use crate::project::*;
 use crate::units::Angle;
-
-/// Tolerance on radii when comparing against the blade's span, m.
-const R_EPS: f64 = 1e-9;
 
 /// `stations.csv`: `r_m, chord_m, twist_deg, pitch_axis_frac, airfoil`.
 pub(super) fn read_stations(dir: &Path, file: &str) -> Result<Vec<Station>, InputError> {
@@ -106,9 +103,6 @@ pub(super) fn read_stations(dir: &Path, file: &str) -> Result<Vec<Station>, Inpu
 /// apart (`[sections] analysis_stations`, at most 2000).
 const MAX_STATIONS: usize = 2000;
 
-/// Most plies in a schedule: a large blade's schedule holds some thousands of plies.
-const MAX_PLIES: usize = 10_000;
-
 /// Least spacing of two stations, as a fraction of the blade's length.
 const MIN_STATION_GAP: f64 = 1e-4;
 
@@ -204,192 +198,4 @@ fn parse_airfoil(rec: &CsvRecord<'_>, dir: &Path) -> Result<AirfoilSpec, InputEr
         ));
     }
     Ok(AirfoilSpec::File(path))
-}
-
-/// `plies.csv`: `ply, material, angle_deg, r_start_m, r_end_m, region, from, to`.
-pub(super) fn read_plies(
-    dir: &Path,
-    file: &str,
-    materials: &MaterialLibrary,
-    webs: &[WebSpec],
-    r_root: f64,
-    r_tip: f64,
-) -> Result<Vec<PlySpec>, InputError> {
-    let path = dir.join(file);
-    let display = path.display().to_string();
-    let table = CsvTable::read(&path, &display)?;
-    table.check_columns(
-        &["ply", "material", "angle_deg", "r_start_m", "r_end_m", "region", "from", "to"],
-        &[],
-    )?;
-    if table.is_empty() {
-        return Err(InputError::at(
-            Location::file(display),
-            "expected at least one ply, found none",
-        ));
-    }
-    if table.len() > MAX_PLIES {
-        return Err(InputError::at(
-            Location::file(display),
-            format!(
-                "expected at most {MAX_PLIES} plies, found {}: a large blade's schedule holds some \
-                 thousands",
-                table.len()
-            ),
-        ));
-    }
-    let mut plies: Vec<PlySpec> = Vec::with_capacity(table.len());
-    for rec in table.records() {
-        let id = rec.required_text("ply")?.to_string();
-        if let Some(earlier) = plies.iter().find(|p| p.id == id) {
-            return Err(rec.error(
-                "ply",
-                format!(
-                    "ply '{}' is listed twice (first on line {}): expected each ply once, with \
-                     its own id (a row pasted twice doubles the ply)",
-                    super::location::excerpt(&id),
-                    earlier.line
-                ),
-            ));
-        }
-        let material = rec.required_text("material")?.to_string();
-        if let Err(e) = materials.ply_material(&material) {
-            return Err(rec.error("material", e.to_string()));
-        }
-        let angle = rec.number("angle_deg")?;
-        if angle.abs() > 90.0 {
-            return Err(rec.error(
-                "angle_deg",
-                format!("expected a ply angle within -90..90 degrees, found {angle}"),
-            ));
-        }
-        let r_start = rec.number("r_start_m")?;
-        let r_end = rec.number("r_end_m")?;
-        if r_start >= r_end {
-            return Err(rec.error(
-                "r_end_m",
-                format!("expected r_end_m above r_start_m = {r_start}, found {r_end}"),
-            ));
-        }
-        if r_start < r_root - R_EPS || r_end > r_tip + R_EPS {
-            return Err(rec.error(
-                if r_start < r_root - R_EPS { "r_start_m" } else { "r_end_m" },
-                format!(
-                    "ply '{id}' covers r = {r_start}..{r_end} m, outside the blade ({r_root}..{r_tip} m)"
-                ),
-            ));
-        }
-        let region_text = rec.required_text("region")?;
-        let region = match region_text {
-            "upper" => Region::Upper,
-            "lower" => Region::Lower,
-            "both" => Region::Both,
-            other => match other.strip_prefix("web:") {
-                Some(name) => {
-                    let web = webs.iter().find(|w| w.name == name).ok_or_else(|| {
-                        let names: Vec<String> =
-                            webs.iter().map(|w| format!("'web:{}'", w.name)).collect();
-                        let known = if names.is_empty() {
-                            "; the project has no webs: define one with a [[web]] table in \
-                             blade.toml"
-                                .to_string()
-                        } else {
-                            format!("; the webs are {}", names.join(", "))
-                        };
-                        let hint = closest(name, webs.iter().map(|w| w.name.as_str()))
-                            .map(|h| format!("; did you mean 'web:{h}'?"))
-                            .unwrap_or_default();
-                        let hint = format!("{hint}{known}");
-                        rec.error("region", format!("no web named '{name}'{hint}"))
-                    })?;
-                    if r_start < web.r_start - R_EPS || r_end > web.r_end + R_EPS {
-                        return Err(rec.error(
-                            "r_start_m",
-                            format!(
-                                "ply '{id}' covers r = {r_start}..{r_end} m but web '{name}' only spans {}..{} m",
-                                web.r_start, web.r_end
-                            ),
-                        ));
-                    }
-                    Region::Web(name.to_string())
-                }
-                None => {
-                    return Err(rec.error(
-                        "region",
-                        format!("expected upper, lower, both or web:NAME, found '{other}'"),
-                    ));
-                }
-            },
-        };
-        let (from, to) = match region {
-            Region::Web(_) => (
-                rec.optional_number("from")?.unwrap_or(0.0),
-                rec.optional_number("to")?.unwrap_or(1.0),
-            ),
-            _ => (rec.number("from")?, rec.number("to")?),
-        };
-        if !(0.0..=1.0).contains(&from) || !(0.0..=1.0).contains(&to) || from >= to {
-            return Err(rec.error(
-                "from",
-                format!(
-                    "expected chord fractions 0 <= from < to <= 1, found from = {from}, to = {to}"
-                ),
-            ));
-        }
-        plies.push(PlySpec {
-            id,
-            material,
-            angle: Angle::from_deg(angle),
-            r_start,
-            r_end,
-            region,
-            from,
-            to,
-            line: rec.line,
-        });
-    }
-    Ok(plies)
-}
-
-/// A distributed load file: `r_m, f_flap_N_m, f_edge_N_m, m_pitch_Nm_m`.
-pub(super) fn read_distributed(
-    dir: &Path,
-    file: &str,
-    r_root: f64,
-    r_tip: f64,
-) -> Result<Vec<DistributedLoadRow>, InputError> {
-    let path = dir.join(file);
-    let display = path.display().to_string();
-    let table = CsvTable::read(&path, &display)?;
-    table.check_columns(&["r_m", "f_flap_N_m", "f_edge_N_m"], &["m_pitch_Nm_m"])?;
-    if table.len() < 2 {
-        return Err(InputError::at(
-            Location::file(display),
-            format!("expected at least two rows of distributed load, found {}", table.len()),
-        ));
-    }
-    let mut rows: Vec<DistributedLoadRow> = Vec::with_capacity(table.len());
-    for rec in table.records() {
-        let r = rec.number("r_m")?;
-        if r < r_root - R_EPS || r > r_tip + R_EPS {
-            return Err(rec.error(
-                "r_m",
-                format!("the load runs outside the blade: expected a radius in {r_root}..{r_tip} m, found {r}"),
-            ));
-        }
-        if let Some(prev) = rows.last() {
-            if r <= prev.r {
-                return Err(
-                    rec.error("r_m", format!("radii must increase: found {r} after {}", prev.r))
-                );
-            }
-        }
-        rows.push(DistributedLoadRow {
-            r,
-            f_flap: rec.number("f_flap_N_m")?,
-            f_edge: rec.number("f_edge_N_m")?,
-            m_pitch: rec.optional_number("m_pitch_Nm_m")?.unwrap_or(0.0),
-        });
-    }
-    Ok(rows)
 }
