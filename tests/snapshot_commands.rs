@@ -13,10 +13,27 @@ use crate::support_cli::layloft;
 fn check(name: &str, args: &[&str], expected_status: i32) {
     let (status, stdout, stderr) = layloft(args);
     assert_eq!(status, Some(expected_status), "layloft {args:?}: stderr\n{stderr}");
+    compare(name, args, &stdout);
+}
+
+/// As [`check`] for a command that writes into the folder `--out OUT`: the folder's temporary
+/// path is shown as `OUT` in the snapshot.
+fn check_writing(name: &str, args: &[&str], expected_status: i32) {
+    let dir = tempfile::tempdir().expect("temporary folder");
+    let out = dir.path().join("out");
+    let out = out.to_str().expect("a UTF-8 path");
+    let mut all = args.to_vec();
+    all.extend(["--out", out]);
+    let (status, stdout, stderr) = layloft(&all);
+    assert_eq!(status, Some(expected_status), "layloft {all:?}: stderr\n{stderr}");
+    compare(name, args, &stdout.replace(out, "OUT"));
+}
+
+fn compare(name: &str, args: &[&str], stdout: &str) {
     let file =
         Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/snapshots").join(format!("{name}.txt"));
     if std::env::var_os("LAYLOFT_UPDATE_SNAPSHOTS").is_some() {
-        std::fs::write(&file, &stdout).expect("snapshot written");
+        std::fs::write(&file, stdout).expect("snapshot written");
         return;
     }
     let want = std::fs::read_to_string(&file)
@@ -69,4 +86,11 @@ fn sections_stress_modes_and_check_of_both_demos() {
             check(&format!("{command}-{blade}"), &["-q", command, &project], 0);
         }
     }
+}
+
+#[test]
+fn tooling_plybook_and_report_of_the_mine_fan() {
+    check_writing("tooling-mine-fan", &["-q", "tooling", "layups/mine-fan"], 0);
+    check_writing("plybook-mine-fan", &["-q", "plybook", "layups/mine-fan"], 0);
+    check_writing("report-mine-fan", &["-q", "report", "layups/mine-fan"], 0);
 }
