@@ -6,6 +6,7 @@
 use layloft::analysis::BladeModel;
 use layloft::input::read_project;
 use layloft::modal::BeamModel;
+use layloft::units::rpm_of;
 
 #[test]
 fn doubling_the_elements_moves_the_demo_frequencies_by_less_than_a_fifth_of_a_percent() {
@@ -20,7 +21,7 @@ fn doubling_the_elements_moves_the_demo_frequencies_by_less_than_a_fifth_of_a_pe
         let a = BeamModel::new(&sections, &p.rotor, &coarse).unwrap();
         let b = BeamModel::new(&sections, &p.rotor, &fine).unwrap();
         let mut worst: f64 = 0.0;
-        for rpm in [p.rotor.rpm_nominal, p.rotor.rpm_max] {
+        for rpm in [rpm_of(p.rotor.omega_nominal), rpm_of(p.rotor.omega_max)] {
             let fa = a.modes(rpm, 6).unwrap();
             let fb = b.modes(rpm, 6).unwrap();
             for (ma, mb) in fa.modes.iter().zip(&fb.modes) {

@@ -9,6 +9,7 @@ use layloft::modal::{
 };
 use layloft::output::export_matrix_market;
 use layloft::section::MassInertia;
+use layloft::units::rpm_of;
 
 fn blade_model(elements: usize, springs: bool) -> BeamModel {
     let spec = if springs {
@@ -106,7 +107,7 @@ fn tracks_follow_modes_through_the_sweep_and_crossings_are_found() {
     let r = rotor(2, 20.0 / RAD_S_PER_RPM, 24.0 / RAD_S_PER_RPM, 0.0);
     let model = BeamModel::new(&uniform(&beam, 0.0, 1.0), &r, &spec(30)).unwrap();
     let range = SpeedRange::for_rotor(&r, None).unwrap();
-    let speeds = range.speeds(&[r.rpm_nominal]);
+    let speeds = range.speeds(&[rpm_of(r.omega_nominal)]);
     let mut calls = 0;
     let campbell = model
         .campbell(&speeds, 4, &mut |done, total| {
@@ -126,7 +127,7 @@ fn tracks_follow_modes_through_the_sweep_and_crossings_are_found() {
     let c = crossings.iter().find(|c| c.track == 0 && c.order == 2).expect("flap 1 meets 2P");
     // Bisection on g(rpm) = f1(rpm) - 2 rpm / 60 with directly solved modes.
     let g = |rpm: f64| model.modes(rpm, 1).unwrap().modes[0].frequency_hz - 2.0 * rpm / 60.0;
-    let (mut lo, mut hi) = (0.0, r.rpm_max);
+    let (mut lo, mut hi) = (0.0, rpm_of(r.omega_max));
     for _ in 0..50 {
         let mid = 0.5 * (lo + hi);
         if g(mid) > 0.0 { lo = mid } else { hi = mid }
@@ -140,28 +141,29 @@ fn tracks_follow_modes_through_the_sweep_and_crossings_are_found() {
 fn margins_are_the_separation_from_the_nearest_excitation() {
     let model = blade_model(20, false);
     let r = model.rotor().clone();
-    let speeds =
-        SpeedRange::for_rotor(&r, Some(600.0)).unwrap().speeds(&[r.rpm_nominal, r.rpm_max]);
+    let speeds = SpeedRange::for_rotor(&r, Some(600.0))
+        .unwrap()
+        .speeds(&[rpm_of(r.omega_nominal), rpm_of(r.omega_max)]);
     let campbell = model.campbell(&speeds, 6, &mut |_, _| {}).unwrap();
     let orders = excitation_orders(12, r.blades, 2);
-    let checks = campbell.rotor_margins(&r, &orders, Some(5.0)).unwrap();
-    assert_eq!(checks[0].rpm, r.rpm_nominal);
-    let direct = model.modes(r.rpm_nominal, 6).unwrap();
+    let checks = campbell.rotor_margins(&r, &orders, Some(0.05)).unwrap();
+    assert_eq!(checks[0].rpm, rpm_of(r.omega_nominal));
+    let direct = model.modes(rpm_of(r.omega_nominal), 6).unwrap();
     for (m, d) in checks[0].modes.iter().zip(&direct.modes) {
         assert!((m.frequency_hz / d.frequency_hz - 1.0).abs() < 1e-9);
         // The least separation over all orders, by hand.
         let least = orders
             .iter()
             .map(|e| {
-                (d.frequency_hz - e.frequency_hz(r.rpm_nominal)).abs()
-                    / e.frequency_hz(r.rpm_nominal)
+                (d.frequency_hz - e.frequency_hz(rpm_of(r.omega_nominal))).abs()
+                    / e.frequency_hz(rpm_of(r.omega_nominal))
             })
             .fold(f64::INFINITY, f64::min)
             * 100.0;
-        assert!((m.margin_pct - least).abs() < 1e-9, "{} vs {least}", m.margin_pct);
-        assert_eq!(m.pass, Some(m.margin_pct >= 5.0));
+        assert!((m.margin * 100.0 - least).abs() < 1e-9, "{} vs {least}", m.margin * 100.0);
+        assert_eq!(m.pass, Some(m.margin >= 0.05));
     }
-    assert_eq!(checks[0].pass, Some(checks[0].modes.iter().all(|m| m.margin_pct >= 5.0)));
+    assert_eq!(checks[0].pass, Some(checks[0].modes.iter().all(|m| m.margin >= 0.05)));
     let unchecked = campbell.rotor_margins(&r, &orders, None).unwrap();
     assert!(unchecked.iter().all(|c| c.pass.is_none()));
     // Between sweep speeds the frequencies are interpolated along the tracks.

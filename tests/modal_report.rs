@@ -5,6 +5,7 @@ use crate::modal_support::*;
 use layloft::modal::{BeamModel, ModalAnalysis, SpeedRange, excitation_orders};
 use layloft::project::Criteria;
 use layloft::report::{campbell_csv, campbell_svg, modal_json, mode_shapes_csv};
+use layloft::units::{fraction_of_pct, rpm_of};
 
 /// Checks that every tag is closed in order (a small XML well-formedness check: elements,
 /// self-closing tags, comments and declarations).
@@ -41,7 +42,7 @@ fn the_campbell_diagram_is_well_formed_and_labelled() {
     let model =
         BeamModel::new(&twisted_blade(6), &rotor(5, 3000.0, 3600.0, 8.0), &spec(20)).unwrap();
     let r = model.rotor().clone();
-    let speeds = SpeedRange::for_rotor(&r, None).unwrap().speeds(&[r.rpm_nominal]);
+    let speeds = SpeedRange::for_rotor(&r, None).unwrap().speeds(&[rpm_of(r.omega_nominal)]);
     let campbell = model.campbell(&speeds, 6, &mut |_, _| {}).unwrap();
     let orders = excitation_orders(12, r.blades, 2);
     let crossings = campbell.crossings(&orders);
@@ -50,7 +51,7 @@ fn the_campbell_diagram_is_well_formed_and_labelled() {
         &campbell,
         &orders,
         &crossings,
-        (r.rpm_nominal, r.rpm_max),
+        (rpm_of(r.omega_nominal), rpm_of(r.omega_max)),
         "Campbell <invented blade>",
     );
     assert!(svg.starts_with("<svg xmlns=\"http://www.w3.org/2000/svg\""));
@@ -102,7 +103,7 @@ fn the_campbell_diagram_is_well_formed_and_labelled() {
 fn the_whole_stage_runs_in_one_call_and_gives_a_verdict() {
     let r = rotor(5, 3000.0, 3600.0, 8.0);
     let criteria = |pct: Option<f64>| Criteria {
-        frequency_margin_pct: pct,
+        frequency_margin: pct.map(fraction_of_pct),
         harmonics: 12,
         ..Criteria::default()
     };
@@ -123,7 +124,7 @@ fn the_whole_stage_runs_in_one_call_and_gives_a_verdict() {
     assert_eq!(run.campbell.speeds.len(), 61);
     assert!(run.campbell.speeds.iter().all(|s| s.modes.len() == 5));
     assert_eq!(run.margins.len(), 2);
-    let all_pass = run.margins.iter().all(|m| m.modes.iter().all(|x| x.margin_pct >= 3.0));
+    let all_pass = run.margins.iter().all(|m| m.modes.iter().all(|x| x.margin >= 0.03));
     assert_eq!(run.pass(), Some(all_pass));
     // No margin asked: no verdict. A range below the nominal speed: no margins checked there.
     let none = ModalAnalysis::run(

@@ -77,7 +77,7 @@ proptest! {
             .collect();
         let case = LoadCaseSpec {
             name: "random".into(),
-            rpm: b.rpm,
+            omega: rpm_to_rad_s(b.rpm),
             pitch: None,
             distributed: vec![
                 DistributedLoadRow { r: b.r0, f_flap: b.flap[0], f_edge: b.edge[0], m_pitch: 0.0 },

@@ -10,7 +10,7 @@ use layloft::units::{Angle, rpm_to_rad_s};
 fn case(rpm: f64) -> LoadCaseSpec {
     LoadCaseSpec {
         name: "test".into(),
-        rpm,
+        omega: rpm_to_rad_s(rpm),
         pitch: None,
         distributed: Vec::new(),
         distributed_file: None,

@@ -221,12 +221,12 @@ impl BladeModel {
             .map(|w| GroupedWarning { first: w, radii: vec![] })
             .collect();
         let rotor = &self.project.rotor;
-        for case in self.project.load_cases.iter().filter(|c| c.rpm > rotor.rpm_max) {
+        for case in self.project.load_cases.iter().filter(|c| c.omega > rotor.omega_max) {
             groups.push(GroupedWarning {
                 first: Warning::Overspeed {
                     case: case.name.clone(),
-                    rpm: case.rpm,
-                    rpm_max: rotor.rpm_max,
+                    omega: case.omega,
+                    omega_max: rotor.omega_max,
                 },
                 radii: vec![],
             });
@@ -297,10 +297,10 @@ pub enum Warning {
     Overspeed {
         /// The load case.
         case: String,
-        /// Its speed, rpm.
-        rpm: f64,
-        /// The rotor's greatest speed, rpm.
-        rpm_max: f64,
+        /// Its speed, rad/s.
+        omega: f64,
+        /// The rotor's greatest speed, rad/s.
+        omega_max: f64,
     },
     /// About one section (the station's radius is kept by the [`GroupedWarning`]).
     Section(SectionWarning),

@@ -1,6 +1,7 @@
 //! The design check of a blade model from its stress and modal results.
 
 use super::{Bound, CheckRow, DesignCheck, Place};
+use crate::units::pct_of;
 
 /// The design check of a model against its project's `[criteria]`, from the stress results of
 /// every load case and the modal analysis (either may be absent when its criterion is not set).
@@ -76,19 +77,21 @@ pub fn evaluate(
             location,
         ));
     }
-    if let Some(limit) = c.frequency_margin_pct {
+    if let Some(limit) = c.frequency_margin {
+        // The check rows are in the unit they are shown in: percent.
+        let limit = pct_of(limit);
         let least = modal.and_then(|m| {
             m.margins
                 .iter()
                 .flat_map(|check| check.modes.iter().map(move |mm| (check, mm)))
-                .min_by(|a, b| a.1.margin_pct.total_cmp(&b.1.margin_pct))
+                .min_by(|a, b| a.1.margin.total_cmp(&b.1.margin))
         });
         let (found, location) = match (modal, least) {
             (Some(m), Some((check, mm))) => {
                 let track =
                     m.campbell.tracks.iter().find(|t| t.id == mm.track).map(|t| t.label.clone());
                 (
-                    Some(mm.margin_pct),
+                    Some(mm.margin * 100.0),
                     Place::Mode {
                         track,
                         frequency_hz: mm.frequency_hz,

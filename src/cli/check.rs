@@ -47,7 +47,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     } else {
         Vec::new()
     };
-    let modal = match criteria.frequency_margin_pct {
+    let modal = match criteria.frequency_margin {
         Some(_) => Some(run_modal(&model, out, None, None)?),
         None => None,
     };

@@ -10,6 +10,7 @@ use layloft::output::export_matrix_market;
 use layloft::report::{
     campbell_csv, campbell_svg, modal_analysis_json, modal_text, mode_shapes_csv, write_atomic,
 };
+use layloft::units::rpm_of;
 
 use super::project::{load_model, run_modal};
 use super::{Failure, Outcome, Output};
@@ -95,12 +96,13 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let p = &model.project;
     let analysis = run_modal(&model, out, range, args.modes)?;
     let title = format!("Campbell diagram — {}", p.name);
+    let rpm_nominal = rpm_of(p.rotor.omega_nominal);
     if let Some(path) = &args.svg {
         let svg = campbell_svg(
             &analysis.campbell,
             &analysis.excitations,
             &analysis.crossings,
-            (p.rotor.rpm_nominal, p.rotor.rpm_max),
+            (rpm_nominal, rpm_of(p.rotor.omega_max)),
             &title,
         );
         write_atomic(path, svg.as_bytes())?;
@@ -109,17 +111,17 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         write_atomic(path, campbell_csv(&analysis.campbell).as_bytes())?;
     }
     if let Some(path) = &args.shapes {
-        let set = match analysis.at_speed(p.rotor.rpm_nominal) {
+        let set = match analysis.at_speed(rpm_nominal) {
             Some(set) => set.clone(),
             None => analysis
                 .model
-                .modes(p.rotor.rpm_nominal, args.modes.unwrap_or(p.modal.modes))
+                .modes(rpm_nominal, args.modes.unwrap_or(p.modal.modes))
                 .map_err(layloft::Error::from)?,
         };
         write_atomic(path, mode_shapes_csv(&set).as_bytes())?;
     }
     if let Some(dir) = &args.export_matrices {
-        let rpm = args.matrices_rpm.unwrap_or(p.rotor.rpm_nominal);
+        let rpm = args.matrices_rpm.unwrap_or(rpm_nominal);
         let m = analysis.model.system_matrices(rpm).map_err(layloft::Error::from)?;
         let files = export_matrix_market(dir, &m)?;
         out.note(&format!(

@@ -24,6 +24,7 @@ use layloft::mesh::{StlFormat, StlOptions};
 use layloft::plybook::{PlyBook, PlyBookError, PlyBookParams, build_ply_book, plybook_files};
 use layloft::report::{ReportBlock, plybook_block, plybook_links};
 use layloft::tooling::ToolingParams;
+use layloft::units::rpm_of;
 
 const EXAMPLES: &str = "\
 Examples:
@@ -172,11 +173,10 @@ fn write_report_with(
         all
     };
     let modal = run_modal(model, out, None, None)?;
-    let nominal = match modal.at_speed(p.rotor.rpm_nominal) {
+    let rpm_nominal = rpm_of(p.rotor.omega_nominal);
+    let nominal = match modal.at_speed(rpm_nominal) {
         Some(set) => set.clone(),
-        None => {
-            modal.model.modes(p.rotor.rpm_nominal, p.modal.modes).map_err(layloft::Error::from)?
-        }
+        None => modal.model.modes(rpm_nominal, p.modal.modes).map_err(layloft::Error::from)?,
     };
     let check = evaluate(model, &stress, Some(&modal));
 
@@ -230,7 +230,7 @@ fn write_report_with(
         &modal.campbell,
         &modal.excitations,
         &modal.crossings,
-        (p.rotor.rpm_nominal, p.rotor.rpm_max),
+        (rpm_nominal, rpm_of(p.rotor.omega_max)),
         &title,
     );
     put("campbell.svg", "Campbell diagram (SVG)", csvg.as_bytes())?;

@@ -6,7 +6,7 @@
 use super::LoadsError;
 use crate::project::{DistributedLoadRow, LoadCaseSpec, PointMass};
 use crate::section::SectionProperties;
-use crate::units::{Angle, rpm_to_rad_s};
+use crate::units::Angle;
 
 /// The load state per unit length at one radius, rotor frame.
 #[derive(Debug, Clone, Copy, PartialEq, Default)]
@@ -113,7 +113,7 @@ impl<'a> LoadDistribution<'a> {
                 return Err(LoadsError::Unordered { r: w[1].r, previous: w[0].r });
             }
         }
-        let omega = rpm_to_rad_s(case.rpm);
+        let omega = case.omega;
         let mut d =
             LoadDistribution { sections, case, omega, pitch, points: Vec::new(), grid: Vec::new() };
         let k = case.load_factor;

@@ -35,8 +35,8 @@ pub struct BeamResultants {
 pub struct SpanLoads {
     /// The case's name.
     pub case: String,
-    /// Rotor speed, rpm.
-    pub rpm: f64,
+    /// Rotor speed, rad/s.
+    pub omega: f64,
     /// Pitch setting.
     pub pitch: Angle,
     /// Radii, root to tip, m.
@@ -146,7 +146,7 @@ pub fn span_loads(dist: &LoadDistribution<'_>) -> SpanLoads {
         .collect();
     SpanLoads {
         case: dist.case().name.clone(),
-        rpm: dist.case().rpm,
+        omega: dist.case().omega,
         pitch: dist.pitch(),
         r: grid,
         chord_angle,

@@ -11,6 +11,7 @@ use super::modes::ModeSet;
 use super::track::mac_table;
 use crate::project::{Criteria, ExcitationSpec, ModalSpec, Rotor};
 use crate::section::SectionProperties;
+use crate::units::rpm_of;
 
 /// Everything the modal stage reads, for [`ModalAnalysis::run_inputs`].
 #[derive(Debug, Clone, Copy)]
@@ -65,7 +66,7 @@ pub struct ModalAnalysis {
 }
 
 impl ModalAnalysis {
-    /// Builds the model, sweeps `range` (the rotor's 0..rpm_max in `spec.rpm_step` when `None`)
+    /// Builds the model, sweeps `range` (the rotor's 0..omega_max in `spec.omega_step` when `None`)
     /// for `modes` modes (`spec.modes` when `None`), and checks crossings and margins against
     /// `criteria` (`harmonics`, `frequency_margin_pct`). `progress(done, total)` after each speed.
     pub fn run(
@@ -99,9 +100,12 @@ impl ModalAnalysis {
         let model = BeamModel::with_attachments(sections, rotor, spec, attachments)?;
         let range = match range {
             Some(r) => r,
-            None => SpeedRange::for_rotor(rotor, spec.rpm_step)?,
+            None => SpeedRange::for_rotor(rotor, spec.omega_step.map(rpm_of))?,
         };
-        let speeds = range.speeds(&[rotor.rpm_nominal, rotor.rpm_max]);
+        // The sweep is a grid in rpm, the speeds the report tabulates; the rotor's speeds join
+        // it through `rpm_of`, which gives back the numbers the input gave.
+        let (rpm_nominal, rpm_max) = (rpm_of(rotor.omega_nominal), rpm_of(rotor.omega_max));
+        let speeds = range.speeds(&[rpm_nominal, rpm_max]);
         let count = modes.unwrap_or(spec.modes);
         let campbell = model.campbell(&speeds, count, progress)?;
         let excitations = machine_excitations(
@@ -112,13 +116,13 @@ impl ModalAnalysis {
         );
         let crossings = campbell.crossings(&excitations);
         let mut margins = Vec::new();
-        for (name, rpm) in [("nominal", rotor.rpm_nominal), ("maximum", rotor.rpm_max)] {
+        for (name, rpm) in [("nominal", rpm_nominal), ("maximum", rpm_max)] {
             if rpm >= range.from_rpm && rpm <= range.to_rpm {
                 margins.push(campbell.margins(
                     &excitations,
                     name,
                     rpm,
-                    criteria.frequency_margin_pct,
+                    criteria.frequency_margin,
                 )?);
             }
         }

@@ -19,6 +19,7 @@ use super::assemble::BeamModel;
 use super::modes::{EnergyShares, ModeKind, ModeSet};
 use super::track::{continue_tracks, start_tracks};
 use crate::project::{ExcitationSpec, Rotor};
+use crate::units::rpm_of;
 
 /// Progress of a sweep: called with (speeds done, speeds in all) after each speed, so that a
 /// caller can show a progress bar.
@@ -68,9 +69,10 @@ impl SpeedRange {
         Ok(SpeedRange { from_rpm, to_rpm, step_rpm })
     }
 
-    /// The rotor's sweep: 0 to `rpm_max` in `step_rpm`, or in 60 steps when not given.
+    /// The rotor's sweep: 0 to its greatest speed in `step_rpm`, or in 60 steps when not given.
     pub fn for_rotor(rotor: &Rotor, step_rpm: Option<f64>) -> Result<Self, ModalError> {
-        SpeedRange::new(0.0, rotor.rpm_max, step_rpm.unwrap_or(rotor.rpm_max / 60.0))
+        let rpm_max = rpm_of(rotor.omega_max);
+        SpeedRange::new(0.0, rpm_max, step_rpm.unwrap_or(rpm_max / 60.0))
     }
 
     /// The speeds, ascending: the steps from `from_rpm`, `to_rpm` itself, and every speed of
@@ -293,8 +295,8 @@ pub struct ModeMargin {
     pub excitation: Excitation,
     /// Its frequency, Hz.
     pub excitation_hz: f64,
-    /// `|f - f_h| / f_h`, percent (0 inside a fixed band).
-    pub margin_pct: f64,
+    /// `|f - f_h| / f_h`, a fraction (0 inside a fixed band).
+    pub margin: f64,
     /// Against the required margin; `None` when none is required.
     pub pass: Option<bool>,
 }
@@ -306,8 +308,8 @@ pub struct MarginCheck {
     pub name: String,
     /// Speed, rpm.
     pub rpm: f64,
-    /// Required margin, percent, when one is required.
-    pub required_pct: Option<f64>,
+    /// Required margin, a fraction, when one is required.
+    pub required: Option<f64>,
     /// One per mode, by increasing frequency.
     pub modes: Vec<ModeMargin>,
     /// All modes pass; `None` when no margin is required.
@@ -489,13 +491,13 @@ impl Campbell {
     }
 
     /// The margin of every mode at `rpm` to its nearest excitation, and pass or fail against
-    /// `required_pct`. Frequencies between sweep speeds are interpolated linearly along tracks.
+    /// `required` (a fraction). Frequencies between sweep speeds are interpolated linearly along tracks.
     pub fn margins(
         &self,
         excitations: &[Excitation],
         name: &str,
         rpm: f64,
-        required_pct: Option<f64>,
+        required: Option<f64>,
     ) -> Result<MarginCheck, ModalError> {
         let (first, last) = match (self.speeds.first(), self.speeds.last()) {
             (Some(a), Some(b)) => (a.rpm, b.rpm),
@@ -512,10 +514,10 @@ impl Campbell {
             .collect();
         modes.sort_by(|a, b| a.frequency_hz.total_cmp(&b.frequency_hz));
         for m in &mut modes {
-            m.pass = required_pct.map(|req| m.margin_pct >= req);
+            m.pass = required.map(|req| m.margin >= req);
         }
-        let pass = required_pct.map(|_| modes.iter().all(|m| m.pass == Some(true)));
-        Ok(MarginCheck { name: name.to_string(), rpm, required_pct, modes, pass })
+        let pass = required.map(|_| modes.iter().all(|m| m.pass == Some(true)));
+        Ok(MarginCheck { name: name.to_string(), rpm, required, modes, pass })
     }
 
     /// The margins at the rotor's nominal and maximum speeds.
@@ -523,11 +525,11 @@ impl Campbell {
         &self,
         rotor: &Rotor,
         excitations: &[Excitation],
-        required_pct: Option<f64>,
+        required: Option<f64>,
     ) -> Result<Vec<MarginCheck>, ModalError> {
         Ok(vec![
-            self.margins(excitations, "nominal", rotor.rpm_nominal, required_pct)?,
-            self.margins(excitations, "maximum", rotor.rpm_max, required_pct)?,
+            self.margins(excitations, "nominal", rpm_of(rotor.omega_nominal), required)?,
+            self.margins(excitations, "maximum", rpm_of(rotor.omega_max), required)?,
         ])
     }
 
@@ -567,9 +569,9 @@ fn nearest(excitations: &[Excitation], rpm: f64, f: f64, track: usize) -> Option
                 frequency_hz: f,
                 excitation: e.clone(),
                 excitation_hz: fh,
-                margin_pct: (f - fh).abs() / fh * 100.0,
+                margin: (f - fh).abs() / fh,
                 pass: None,
             }
         })
-        .min_by(|a, b| a.margin_pct.total_cmp(&b.margin_pct))
+        .min_by(|a, b| a.margin.total_cmp(&b.margin))
 }

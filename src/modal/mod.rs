@@ -60,7 +60,7 @@
 //! ```
 //! use layloft::project::{ModalSpec, Rotor};
 //! use layloft::modal::{BeamModel, BeamSection};
-//! use layloft::units::Angle;
+//! use layloft::units::{Angle, rpm_to_rad_s};
 //!
 //! # fn main() -> Result<(), layloft::Error> {
 //! // A uniform steel strip, 1 m long, clamped on the rotor axis (invented example).
@@ -70,8 +70,8 @@
 //!     blades: 2,
 //!     hub_radius: 0.0,
 //!     tip_radius: 1.0,
-//!     rpm_nominal: 300.0,
-//!     rpm_max: 360.0,
+//!     omega_nominal: rpm_to_rad_s(300.0),
+//!     omega_max: rpm_to_rad_s(360.0),
 //!     pitch: Angle::ZERO,
 //!     pitch_range: (Angle::ZERO, Angle::ZERO),
 //!     root_clearance: 0.0,

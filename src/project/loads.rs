@@ -21,8 +21,8 @@ pub struct DistributedLoadRow {
 pub struct LoadCaseSpec {
     /// Name, unique in the project.
     pub name: String,
-    /// Rotor speed, rpm.
-    pub rpm: f64,
+    /// Rotor speed, rad/s (`rpm` in the input).
+    pub omega: f64,
     /// Pitch setting for this case (the rotor's pitch when not given).
     pub pitch: Option<Angle>,
     /// Distributed external loads, when the case names a file.

@@ -11,10 +11,11 @@ pub struct Rotor {
     pub hub_radius: f64,
     /// Rotor axis to the blade tip, m.
     pub tip_radius: f64,
-    /// Nominal speed, rpm.
-    pub rpm_nominal: f64,
-    /// Maximum (overspeed) speed, rpm; the Campbell sweep covers 0..rpm_max.
-    pub rpm_max: f64,
+    /// Nominal speed, rad/s (`rpm_nominal` in the input).
+    pub omega_nominal: f64,
+    /// Greatest operating speed, rad/s (`rpm_max` in the input); the Campbell sweep covers
+    /// 0..omega_max.
+    pub omega_max: f64,
     /// Pitch setting added to the station twist.
     pub pitch: Angle,
     /// Pitch range (least, greatest) for variable pitch.

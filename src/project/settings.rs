@@ -1,15 +1,16 @@
 //! The settings records of a project: the design criteria and the options of each stage
 //! (buckling, tooling, modal, fluid, excitation, sections).
 
-use crate::units::Angle;
+use crate::units::{Angle, Temperature};
 
 /// What the design check demands (`[criteria]`); each is checked only when given.
 #[derive(Debug, Clone, PartialEq, Default)]
 pub struct Criteria {
     /// Least reserve factor at the factored load.
     pub min_reserve_factor: Option<f64>,
-    /// Least separation of every mode from every harmonic, percent of the harmonic.
-    pub frequency_margin_pct: Option<f64>,
+    /// Least separation of every mode from every harmonic, a fraction of the harmonic
+    /// (`frequency_margin_pct` in the input: 5 % is 0.05).
+    pub frequency_margin: Option<f64>,
     /// Number of rotor harmonics nP to check (12 unless given).
     pub harmonics: u32,
     /// Greatest blade mass, kg.
@@ -42,12 +43,12 @@ pub struct ToolingSpec {
     pub core_alloy: Option<String>,
     /// Mould material, an `[isotropic.NAME]` record whose density gives the mould parts' masses.
     pub mould_material: Option<String>,
-    /// Resin injection temperature, °C.
-    pub injection_temperature_c: Option<f64>,
-    /// Resin gel temperature, °C.
-    pub gel_temperature_c: Option<f64>,
-    /// Cure temperature, °C.
-    pub cure_temperature_c: Option<f64>,
+    /// Resin injection temperature (`injection_temperature_C` in the input).
+    pub injection_temperature: Option<Temperature>,
+    /// Resin gel temperature (`gel_temperature_C` in the input).
+    pub gel_temperature: Option<Temperature>,
+    /// Cure temperature (`cure_temperature_C` in the input).
+    pub cure_temperature: Option<Temperature>,
     /// Block margin around the cavity, m.
     pub mould_margin: f64,
     /// Unit of the STL files ("mm" or "m").
@@ -77,9 +78,9 @@ impl Default for ToolingSpec {
         ToolingSpec {
             core_alloy: None,
             mould_material: None,
-            injection_temperature_c: None,
-            gel_temperature_c: None,
-            cure_temperature_c: None,
+            injection_temperature: None,
+            gel_temperature: None,
+            cure_temperature: None,
             mould_margin: 0.03,
             stl_unit: "mm".to_string(),
             tolerance: 0.1e-3,
@@ -101,15 +102,15 @@ pub struct ModalSpec {
     pub elements: usize,
     /// Modes to find at each speed.
     pub modes: usize,
-    /// Speed step of the Campbell sweep, rpm.
-    pub rpm_step: Option<f64>,
+    /// Speed step of the Campbell sweep, rad/s (`rpm_step` in the input).
+    pub omega_step: Option<f64>,
     /// Root spring stiffnesses (flap, edge, torsion, N·m/rad; axial N/m); clamped when absent.
     pub root_springs: Option<RootSprings>,
 }
 
 impl Default for ModalSpec {
     fn default() -> Self {
-        ModalSpec { elements: 40, modes: 8, rpm_step: None, root_springs: None }
+        ModalSpec { elements: 40, modes: 8, omega_step: None, root_springs: None }
     }
 }
 

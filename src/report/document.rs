@@ -13,6 +13,7 @@ use crate::analysis::BladeModel;
 use crate::check::DesignCheck;
 use crate::modal::{ModalAnalysis, ModeSet};
 use crate::stress::CaseStress;
+use crate::units::{pct_of, rpm_of};
 
 /// A drawing of one section for the report.
 #[derive(Debug, Clone)]
@@ -71,7 +72,11 @@ pub fn blade_report(inp: &ReportInputs<'_>) -> String {
     let mut doc = HtmlReport::new(p.name.clone());
     doc.subtitle(format!(
         "{} blades, radius {:.3}–{:.3} m, {:.0} rpm nominal, {:.0} rpm maximum",
-        r.blades, r.hub_radius, r.tip_radius, r.rpm_nominal, r.rpm_max
+        r.blades,
+        r.hub_radius,
+        r.tip_radius,
+        rpm_of(r.omega_nominal),
+        rpm_of(r.omega_max)
     ));
     if let Some(d) = &inp.date {
         doc.date(d.clone());
@@ -141,7 +146,14 @@ fn blade_section(doc: &mut HtmlReport, m: &BladeModel) {
                 m.blade.tip_radius()
             ),
         ),
-        ("speeds", format!("{:.0} rpm nominal, {:.0} rpm maximum", r.rpm_nominal, r.rpm_max)),
+        (
+            "speeds",
+            format!(
+                "{:.0} rpm nominal, {:.0} rpm maximum",
+                rpm_of(r.omega_nominal),
+                rpm_of(r.omega_max)
+            ),
+        ),
         (
             "pitch",
             format!(
@@ -358,7 +370,7 @@ fn vibration_section(
     s.figure(
         "campbell",
         "Campbell diagram: natural frequencies against rotor speed, excitation lines, crossings, and the operating range shaded.",
-        campbell_svg(&a.campbell, &a.excitations, &a.crossings, (p.rotor.rpm_nominal, p.rotor.rpm_max), &format!("Campbell diagram — {}", p.name)),
+        campbell_svg(&a.campbell, &a.excitations, &a.crossings, (rpm_of(p.rotor.omega_nominal), rpm_of(p.rotor.omega_max)), &format!("Campbell diagram — {}", p.name)),
     );
     for check in &a.margins {
         let mut t = Table::new(&[
@@ -386,7 +398,7 @@ fn vibration_section(
                 sig4(mm.frequency_hz),
                 mm.excitation.label(),
                 sig4(mm.excitation_hz),
-                fixed(mm.margin_pct, 1),
+                fixed(mm.margin * 100.0, 1),
                 verdict.into(),
             ]);
         }
@@ -395,7 +407,7 @@ fn vibration_section(
                 "Margins at the {} speed, {:.0} rpm{}.",
                 check.name,
                 check.rpm,
-                check.required_pct.map(|v| format!(" (required {v} %)")).unwrap_or_default()
+                check.required.map(|v| format!(" (required {} %)", pct_of(v))).unwrap_or_default()
             ),
             &t,
         );

@@ -7,6 +7,7 @@ use std::fmt;
 use crate::analysis::{GroupedWarning, Warning};
 use crate::blade::BladeWarning;
 use crate::section::SectionWarning;
+use crate::units::rpm_of;
 
 impl fmt::Display for SectionWarning {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
@@ -62,10 +63,12 @@ impl fmt::Display for Warning {
         match self {
             Warning::Input(text) => write!(f, "{text}"),
             Warning::Blade(w) => write!(f, "{w}"),
-            Warning::Overspeed { case, rpm, rpm_max } => write!(
+            Warning::Overspeed { case, omega, omega_max } => write!(
                 f,
-                "load case '{case}' runs at {rpm} rpm, above rpm_max = {rpm_max} rpm: an overspeed \
-                 case; the frequency check covers speeds up to rpm_max only"
+                "load case '{case}' runs at {} rpm, above rpm_max = {} rpm: an overspeed case; the \
+                 frequency check covers speeds up to rpm_max only",
+                rpm_of(*omega),
+                rpm_of(*omega_max)
             ),
             Warning::Section(w) => write!(f, "{w}"),
         }

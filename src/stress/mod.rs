@@ -171,8 +171,8 @@ pub struct StationStress {
 pub struct CaseStress {
     /// Case name.
     pub name: String,
-    /// Rotor speed, rpm.
-    pub rpm: f64,
+    /// Rotor speed, rad/s.
+    pub omega: f64,
     /// Load factor applied.
     pub load_factor: f64,
     /// Root reaction (rotor frame, about the pitch axis at the root).
@@ -420,7 +420,7 @@ pub fn analyse_case_detail(
     )?;
     Ok(CaseStress {
         name: case.name.clone(),
-        rpm: case.rpm,
+        omega: case.omega,
         load_factor: case.load_factor,
         root: loads.root(),
         tip_deflection,

@@ -31,6 +31,7 @@ use crate::blade::Blade;
 use crate::material::{Isotropic, Material};
 use crate::mesh::End;
 use crate::project::Project;
+use crate::units::Temperature;
 
 /// Volume, mass and resin mass of the ply schedule over the blade's stations.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -87,10 +88,11 @@ impl MeltCheck {
     }
 }
 
-/// The melting check of `alloy` against the `[injection, gel, cure]` temperatures, °C (see the
+/// The melting check of `alloy` against the `[injection, gel, cure]` temperatures (see the
 /// module docs).
-pub fn melt_check(alloy: Option<&Isotropic>, temps: [Option<f64>; 3]) -> MeltCheck {
-    let [injection, gel, cure] = temps;
+pub fn melt_check(alloy: Option<&Isotropic>, temps: [Option<Temperature>; 3]) -> MeltCheck {
+    // The alloy's melting range is given in °C; the findings word both in °C.
+    let [injection, gel, cure] = temps.map(|t| t.map(Temperature::celsius));
     let range = alloy.and_then(|a| a.melting_range_c);
     let mut findings = Vec::new();
     let missing = |what: &str| MeltFinding { passed: None, text: format!("not checked: {what}") };
@@ -313,7 +315,7 @@ pub fn summarise(project: &Project, blade: &Blade, tooling: &BladeTooling) -> To
             .filter_map(|(m, _)| m.mass)
             .sum()
     });
-    let temps = [spec.injection_temperature_c, spec.gel_temperature_c, spec.cure_temperature_c];
+    let temps = [spec.injection_temperature, spec.gel_temperature, spec.cure_temperature];
     let (drain_orientation, drain_findings) = drain_plan(tooling, tooling.params.tolerance);
     // Each casting takes the cavity, the sprue and the vent full of alloy.
     let casting_alloy = tooling.casting.iter().map(|m| alloy_mass(m.metal_volume)).collect();

@@ -6,7 +6,7 @@
 use layloft::modal::BeamSection;
 use layloft::project::{ModalSpec, RootSprings, Rotor};
 use layloft::section::{MassInertia, SectionProperties};
-use layloft::units::Angle;
+use layloft::units::{Angle, rpm_to_rad_s};
 
 /// A rotor with the given speeds and blade count; radii from the sections.
 pub fn rotor(blades: u32, rpm_nominal: f64, rpm_max: f64, pitch_deg: f64) -> Rotor {
@@ -14,8 +14,8 @@ pub fn rotor(blades: u32, rpm_nominal: f64, rpm_max: f64, pitch_deg: f64) -> Rot
         blades,
         hub_radius: 0.0,
         tip_radius: 1.0,
-        rpm_nominal,
-        rpm_max,
+        omega_nominal: rpm_to_rad_s(rpm_nominal),
+        omega_max: rpm_to_rad_s(rpm_max),
         pitch: Angle::from_deg(pitch_deg),
         pitch_range: (Angle::from_deg(-10.0), Angle::from_deg(30.0)),
         root_clearance: 0.0,
@@ -25,12 +25,12 @@ pub fn rotor(blades: u32, rpm_nominal: f64, rpm_max: f64, pitch_deg: f64) -> Rot
 
 /// Modal settings with `elements` elements and a clamped root.
 pub fn spec(elements: usize) -> ModalSpec {
-    ModalSpec { elements, modes: 8, rpm_step: None, root_springs: None }
+    ModalSpec { elements, modes: 8, omega_step: None, root_springs: None }
 }
 
 /// Modal settings with root springs.
 pub fn spec_with_springs(elements: usize, springs: RootSprings) -> ModalSpec {
-    ModalSpec { elements, modes: 8, rpm_step: None, root_springs: Some(springs) }
+    ModalSpec { elements, modes: 8, omega_step: None, root_springs: Some(springs) }
 }
 
 /// A uniform beam from `r0` to `r0 + length` as two identical sections.

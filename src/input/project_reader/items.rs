@@ -107,7 +107,7 @@ pub(super) fn read_load_case(
     let delta_t = t.optional_f64("delta_T_K")?.unwrap_or(0.0);
     Ok(LoadCaseSpec {
         name,
-        rpm,
+        omega: rpm_to_rad_s(rpm),
         pitch,
         distributed,
         distributed_file,

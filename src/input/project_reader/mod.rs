@@ -54,7 +54,7 @@ use super::toml_table::{Scalar, TableReader};
 use crate::material::Material;
 use crate::project::*;
 use crate::text::excerpt;
-use crate::units::{Angle, MM};
+use crate::units::{Angle, MM, Temperature, fraction_of_pct, rpm_of, rpm_to_rad_s};
 use plies::{read_distributed, read_plies};
 use stations::read_stations;
 
@@ -153,7 +153,9 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
     check_rotor_against_stations(&places, &rotor, r_root, r_tip, &mut warnings)?;
     // The tip speed at the greatest speed, once the tip radius is known to fit the stations: a
     // rotor speed given in rad/s or per hour, or a radius in mm, shows here.
-    let tip_speed = rotor.rpm_max * std::f64::consts::PI / 30.0 * rotor.tip_radius;
+    // The reader is an edge: the messages give the speeds in rpm, as they were written.
+    let rpm_max = rpm_of(rotor.omega_max);
+    let tip_speed = rpm_max * std::f64::consts::PI / 30.0 * rotor.tip_radius;
     if tip_speed > MAX_TIP_SPEED_M_S {
         return Err(InputError::at(
             places[2].clone(),
@@ -161,22 +163,23 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
                 "rpm_max = {} rpm at tip_radius_m = {} gives a tip speed of {tip_speed:.0} m/s: \
                  expected at most {MAX_TIP_SPEED_M_S} m/s (the fastest composite fan blades run \
                  at about 500 m/s), at most {:.0} rpm",
-                excerpt(&rotor.rpm_max.to_string()),
+                excerpt(&rpm_max.to_string()),
                 rotor.tip_radius,
                 MAX_TIP_SPEED_M_S * 30.0 / (std::f64::consts::PI * rotor.tip_radius)
             ),
         ));
     }
-    if modal.rpm_step.is_some_and(|step| rotor.rpm_max / step > MAX_SWEEP_STEPS) {
-        let step = modal.rpm_step.unwrap_or(1.0);
+    let rpm_step = modal.omega_step.map(rpm_of);
+    if rpm_step.is_some_and(|step| rpm_max / step > MAX_SWEEP_STEPS) {
+        let step = rpm_step.unwrap_or(1.0);
         return Err(InputError::at(
             doc.location_of("modal").with_field("modal.rpm_step"),
             format!(
                 "a step of {step} rpm up to rpm_max = {} rpm makes {:.0} speeds: expected at most \
                  {MAX_SWEEP_STEPS} (each speed is an eigen solution), a step of at least {} rpm",
-                rotor.rpm_max,
-                rotor.rpm_max / step,
-                rotor.rpm_max / MAX_SWEEP_STEPS
+                rpm_max,
+                rpm_max / step,
+                rpm_max / MAX_SWEEP_STEPS
             ),
         ));
     }
@@ -212,14 +215,15 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
         delta_t_places.push(t.location_of("delta_T_K"));
         // An overspeed or proof case may run above the greatest operating speed (it is then
         // named in the warnings); twice that speed is taken as a typing error.
-        if case.rpm > OVERSPEED_LIMIT * rotor.rpm_max {
+        let rpm = rpm_of(case.omega);
+        if rpm > OVERSPEED_LIMIT * rpm_max {
             return Err(t.error(
                 "rpm",
                 format!(
                     "expected at most {OVERSPEED_LIMIT} x rpm_max = {} rpm for a load case, found \
                      {}: an overspeed case runs above rpm_max, but not this far",
-                    OVERSPEED_LIMIT * rotor.rpm_max,
-                    case.rpm
+                    OVERSPEED_LIMIT * rpm_max,
+                    rpm
                 ),
             ));
         }
@@ -235,7 +239,7 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
             let spec = read_tooling(&mut t, &materials)?;
             check_tooling(&t, &spec, blade_length, c_min, c_max, &mut warnings)?;
             t.finish()?;
-            if let Some(cure) = spec.cure_temperature_c {
+            if let Some(cure) = spec.cure_temperature.map(Temperature::celsius) {
                 for (case, place) in load_cases.iter().zip(&delta_t_places) {
                     if cure + case.delta_t <= ABSOLUTE_ZERO_C {
                         return Err(InputError::at(

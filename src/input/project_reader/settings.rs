@@ -86,7 +86,7 @@ pub(super) fn read_excitation(t: &mut TableReader<'_>) -> Result<ExcitationSpec,
 pub(super) fn read_criteria(t: &mut TableReader<'_>) -> Result<Criteria, InputError> {
     let c = Criteria {
         min_reserve_factor: t.optional_positive("min_reserve_factor")?,
-        frequency_margin_pct: t.optional_positive("frequency_margin_pct")?,
+        frequency_margin: t.optional_positive("frequency_margin_pct")?.map(fraction_of_pct),
         harmonics: t.optional_u32("harmonics")?.unwrap_or(12),
         max_mass_kg: t.optional_positive("max_mass_kg")?,
         max_tip_deflection_m: t.optional_positive("max_tip_deflection_m")?,
@@ -156,7 +156,7 @@ pub(super) fn read_modal(t: &mut TableReader<'_>) -> Result<ModalSpec, InputErro
             ),
         ));
     }
-    let rpm_step = t.optional_positive("rpm_step")?;
+    let omega_step = t.optional_positive("rpm_step")?.map(rpm_to_rad_s);
     let root_springs = match t.optional_table("root_springs")? {
         Some(mut s) => {
             // Every key is known before any is read, so a misspelt key is named as unknown (with
@@ -174,7 +174,7 @@ pub(super) fn read_modal(t: &mut TableReader<'_>) -> Result<ModalSpec, InputErro
         None => None,
     };
     t.finish()?;
-    Ok(ModalSpec { elements, modes, rpm_step, root_springs })
+    Ok(ModalSpec { elements, modes, omega_step, root_springs })
 }
 
 pub(super) fn read_sections(t: &mut TableReader<'_>) -> Result<SectionSpec, InputError> {

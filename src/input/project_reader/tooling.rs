@@ -124,9 +124,11 @@ pub(super) fn read_tooling(
     Ok(ToolingSpec {
         core_alloy,
         mould_material,
-        injection_temperature_c: t.optional_f64("injection_temperature_C")?,
-        gel_temperature_c: t.optional_f64("gel_temperature_C")?,
-        cure_temperature_c: t.optional_f64("cure_temperature_C")?,
+        injection_temperature: t
+            .optional_f64("injection_temperature_C")?
+            .map(Temperature::from_celsius),
+        gel_temperature: t.optional_f64("gel_temperature_C")?.map(Temperature::from_celsius),
+        cure_temperature: t.optional_f64("cure_temperature_C")?.map(Temperature::from_celsius),
         mould_margin,
         stl_unit,
         tolerance,
@@ -180,9 +182,9 @@ pub(super) fn check_tooling(
         ));
     }
     let temps = [
-        ("injection_temperature_C", spec.injection_temperature_c),
-        ("gel_temperature_C", spec.gel_temperature_c),
-        ("cure_temperature_C", spec.cure_temperature_c),
+        ("injection_temperature_C", spec.injection_temperature.map(Temperature::celsius)),
+        ("gel_temperature_C", spec.gel_temperature.map(Temperature::celsius)),
+        ("cure_temperature_C", spec.cure_temperature.map(Temperature::celsius)),
     ];
     for (key, v) in temps {
         let Some(v) = v else { continue };

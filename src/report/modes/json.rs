@@ -16,6 +16,7 @@ use serde_json::{Value, json};
 
 use crate::modal::{Campbell, Crossing, Excitation, MarginCheck, ModalAnalysis};
 use crate::project::Rotor;
+use crate::units::{pct_of, rpm_of};
 
 /// The modal results as one JSON document.
 pub fn modal_json(
@@ -105,7 +106,7 @@ pub fn modal_json(
                         "excitation": m.excitation.label(),
                         "blade_passing": m.excitation.blade_passing,
                         "harmonic_hz": m.excitation_hz,
-                        "margin_pct": m.margin_pct,
+                        "margin_pct": m.margin * 100.0,
                         "pass": m.pass,
                     })
                 })
@@ -113,15 +114,15 @@ pub fn modal_json(
             json!({
                 "speed": check.name,
                 "rpm": check.rpm,
-                "required_margin_pct": check.required_pct,
+                "required_margin_pct": check.required.map(pct_of),
                 "pass": check.pass,
                 "modes": modes,
             })
         })
         .collect();
     json!({
-        "rpm_nominal": rotor.rpm_nominal,
-        "rpm_max": rotor.rpm_max,
+        "rpm_nominal": rpm_of(rotor.omega_nominal),
+        "rpm_max": rpm_of(rotor.omega_max),
         "blades": rotor.blades,
         "speeds": speeds,
         "tracks": tracks,

@@ -4,6 +4,7 @@ use std::fmt::Write as _;
 
 use crate::modal::ModalAnalysis;
 use crate::report::{Align, Table, fixed, sig4};
+use crate::units::pct_of;
 
 /// Frequencies at standstill and at the checked speeds, the margins with their verdicts, and
 /// the crossings inside the speed range.
@@ -47,7 +48,7 @@ pub fn modal_text(project: &str, a: &ModalAnalysis) -> String {
                         Some(false) => " FAIL",
                         None => "",
                     };
-                    row.push(format!("{}{verdict}", fixed(mm.margin_pct, 1)));
+                    row.push(format!("{}{verdict}", fixed(mm.margin * 100.0, 1)));
                 }
                 None => row.extend(["-".to_string(), String::new(), String::new()]),
             }
@@ -74,7 +75,7 @@ pub fn modal_text(project: &str, a: &ModalAnalysis) -> String {
         let _ = writeln!(out);
     }
     for m in &a.margins {
-        let verdict = match (m.pass, m.required_pct) {
+        let verdict = match (m.pass, m.required.map(pct_of)) {
             (Some(true), Some(req)) => {
                 format!("PASS: every mode at least {req} % from every excitation")
             }

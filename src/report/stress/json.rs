@@ -4,6 +4,7 @@ use serde_json::{Value, json};
 
 use crate::analysis::BladeModel;
 use crate::stress::{CaseStress, Critical, PanelResult, WallLocation};
+use crate::units::rpm_of;
 
 fn finite(v: f64) -> Value {
     if v.is_finite() { json!(v) } else { Value::Null }
@@ -147,7 +148,7 @@ pub fn stress_json(model: &BladeModel, cases: &[CaseStress]) -> Value {
                 least.get("reserve_factor").cloned().unwrap_or(Value::Null);
             json!({
                 "name": c.name,
-                "rpm": c.rpm,
+                "rpm": rpm_of(c.omega),
                 "load_factor": c.load_factor,
                 "min_reserve_factor": c.critical.as_ref().map(|k| json!(k.reserve_factor)).unwrap_or(Value::Null),
                 "critical": c.critical.as_ref().map(critical_json).unwrap_or(Value::Null),

@@ -6,6 +6,7 @@ use std::fmt::Write as _;
 use crate::analysis::BladeModel;
 use crate::report::{Align, Table, fixed, sig4};
 use crate::stress::{CaseStress, PanelResult, WallLocation};
+use crate::units::rpm_of;
 
 /// The lowest reserve factor of each case with where it occurs, one row per case.
 pub fn critical_table(cases: &[CaseStress]) -> Table {
@@ -23,7 +24,7 @@ pub fn critical_table(cases: &[CaseStress]) -> Table {
         match &c.critical {
             Some(k) => t.row(vec![
                 c.name.clone(),
-                fixed(c.rpm, 0),
+                fixed(rpm_of(c.omega), 0),
                 fixed(c.load_factor, 2),
                 fixed(k.reserve_factor, 2),
                 fixed(k.r, 3),
@@ -32,7 +33,8 @@ pub fn critical_table(cases: &[CaseStress]) -> Table {
                 format!("{}, {}", k.criterion.label(), k.mode.label()),
             ]),
             None => {
-                t.row(vec![c.name.clone(), fixed(c.rpm, 0), fixed(c.load_factor, 2), "none".into()])
+                let rpm = fixed(rpm_of(c.omega), 0);
+                t.row(vec![c.name.clone(), rpm, fixed(c.load_factor, 2), "none".into()])
             }
         }
     }
