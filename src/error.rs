@@ -66,7 +66,7 @@ impl Error {
     pub fn placed(e: AnalysisError, project: &Project) -> Error {
         match e {
             AnalysisError::Blade(e) => e.into(),
-            AnalysisError::Station { r, source } => Error::at_station(project, r, source.into()),
+            AnalysisError::Station { r, source } => Error::at_station(project, r, (*source).into()),
         }
     }
 
@@ -108,7 +108,7 @@ impl From<AnalysisError> for Error {
     fn from(e: AnalysisError) -> Self {
         match e {
             AnalysisError::Blade(e) => e.into(),
-            AnalysisError::Station { source, .. } => source.into(),
+            AnalysisError::Station { source, .. } => (*source).into(),
         }
     }
 }

@@ -16,8 +16,8 @@ pub enum AnalysisError {
     Station {
         /// Radius of the station, m.
         r: f64,
-        /// What went wrong there.
-        source: StationError,
+        /// What went wrong there (boxed: a section error is large).
+        source: Box<StationError>,
     },
 }
 

@@ -114,7 +114,7 @@ impl BladeModel {
         let params = section_params(&project);
         // The stations are independent: solved in blocks on all cores, gathered in order (the
         // first error in station order is the one reported, as on one thread).
-        let at = |r: f64| move |e: StationError| AnalysisError::Station { r, source: e };
+        let at = |r: f64| move |e: StationError| AnalysisError::Station { r, source: Box::new(e) };
         let station = |r: f64| -> Result<AnalysisStation, AnalysisError> {
             let layout = blade
                 .section_layout(r, project.sections.contour_points)
