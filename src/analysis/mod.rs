@@ -1,6 +1,9 @@
 //! The chain every command shares: a project read and checked, its lofted blade, and the solved
 //! section at every analysis station, with the blade's mass.
 //!
+//! The chain returns its own [`AnalysisError`], which names the radius but no file;
+//! [`crate::Error::placed`] turns it into the crate's error at the station nearest that radius.
+//!
 //! ```no_run
 //! use layloft::analysis::BladeModel;
 //! use layloft::input::read_project;
@@ -15,9 +18,12 @@
 //! # }
 //! ```
 
+mod error;
+
+pub use error::{AnalysisError, StationError};
+
 use std::sync::OnceLock;
 
-use crate::Error;
 use crate::blade::{Blade, BladeWarning};
 use crate::modal::{Attachments, FluidSection};
 use crate::project::{Buoyancy, BuoyantSection, Project};
@@ -78,7 +84,7 @@ pub struct BladeModel {
 
 impl BladeModel {
     /// Lofts the blade and solves every analysis station.
-    pub fn build(project: Project) -> Result<Self, Error> {
+    pub fn build(project: Project) -> Result<Self, AnalysisError> {
         Self::build_with_progress(project, &mut |_, _| {})
     }
 
@@ -86,7 +92,7 @@ impl BladeModel {
     pub fn build_with_progress(
         project: Project,
         progress: &mut dyn FnMut(usize, usize),
-    ) -> Result<Self, Error> {
+    ) -> Result<Self, AnalysisError> {
         let blade = Blade::from_project(&project)?;
         let radii = blade.analysis_radii(project.sections.analysis_stations);
         Self::solve_at(project, blade, &radii, progress)
@@ -94,7 +100,7 @@ impl BladeModel {
 
     /// Lofts the blade and solves the sections at `radii` (root to tip, m) instead of the
     /// project's analysis stations.
-    pub fn build_at(project: Project, radii: &[f64]) -> Result<Self, Error> {
+    pub fn build_at(project: Project, radii: &[f64]) -> Result<Self, AnalysisError> {
         let blade = Blade::from_project(&project)?;
         Self::solve_at(project, blade, radii, &mut |_, _| {})
     }
@@ -104,16 +110,16 @@ impl BladeModel {
         blade: Blade,
         radii: &[f64],
         progress: &mut dyn FnMut(usize, usize),
-    ) -> Result<Self, Error> {
+    ) -> Result<Self, AnalysisError> {
         let params = section_params(&project);
         // The stations are independent: solved in blocks on all cores, gathered in order (the
         // first error in station order is the one reported, as on one thread).
-        let station = |r: f64| -> Result<AnalysisStation, Error> {
+        let at = |r: f64| move |e: StationError| AnalysisError::Station { r, source: Box::new(e) };
+        let station = |r: f64| -> Result<AnalysisStation, AnalysisError> {
             let layout = blade
                 .section_layout(r, project.sections.contour_points)
-                .map_err(|e| place_at_station(&project, r, e.into()))?;
-            let section = SolvedSection::solve(&layout, &params)
-                .map_err(|e| place_at_station(&project, r, e.into()))?;
+                .map_err(|e| at(r)(e.into()))?;
+            let section = SolvedSection::solve(&layout, &params).map_err(|e| at(r)(e.into()))?;
             Ok(AnalysisStation { layout, section })
         };
         let total = radii.len();
@@ -125,7 +131,7 @@ impl BladeModel {
                     out.push(station(r)?);
                     tick();
                 }
-                Ok::<_, Error>(out)
+                Ok::<_, AnalysisError>(out)
             },
             &mut |done| progress(done, total),
         );
@@ -248,33 +254,6 @@ impl BladeModel {
         }
         groups
     }
-}
-
-/// An error of the section at radius `r` that names no line of an input file (a section error,
-/// or a blade error naming only the plies file, such as a web without plies) placed at the nearest station of the stations
-/// file, so that the user knows where to look; input errors, which carry their own place, are
-/// left as they are.
-pub fn place_at_station(project: &Project, r: f64, e: Error) -> Error {
-    if let Error::Input(_) = e {
-        return e;
-    }
-    let text = e.to_string();
-    if text.contains(" line ") {
-        return e;
-    }
-    let nearest =
-        project.stations.iter().min_by(|a, b| (a.r - r).abs().total_cmp(&(b.r - r).abs()));
-    let location = match nearest {
-        Some(s) => {
-            crate::input::Location::line(project.files.stations.clone(), s.line).with_field("r_m")
-        }
-        None => crate::input::Location::file(project.files.stations.clone()),
-    };
-    crate::input::InputError::at(
-        location,
-        format!("{text} (this is the station nearest to r = {r:.4} m)"),
-    )
-    .into()
 }
 
 /// The section solver's settings for a project: the defaults, with the wall curvature model of

@@ -45,7 +45,6 @@ pub use warning::BladeWarning;
 use std::sync::{Arc, OnceLock};
 
 use crate::airfoil::{Naca4, Outline};
-use crate::input::{InputError, Location};
 use crate::material::{Lamina, MaterialError};
 use crate::project::{AirfoilSpec, PlySpec, Project, Rotor, WebSpec};
 use crate::units::Angle;
@@ -53,9 +52,16 @@ use crate::units::Angle;
 /// What can go wrong when building the blade or one of its sections.
 #[derive(Debug, thiserror::Error)]
 pub enum BladeError {
-    /// An input file (an airfoil coordinate file).
-    #[error(transparent)]
-    Input(#[from] InputError),
+    /// A station's airfoil that gives no outline (a NACA code the reader did not check).
+    #[error("{file} line {line}: {message}")]
+    Airfoil {
+        /// The stations file.
+        file: String,
+        /// The station's line in it.
+        line: usize,
+        /// What is wrong.
+        message: String,
+    },
     /// A material reference.
     #[error(transparent)]
     Material(#[from] MaterialError),
@@ -158,23 +164,20 @@ impl Blade {
         for s in &project.stations {
             let outline = match &s.airfoil {
                 AirfoilSpec::Naca4 { code, closed_te } => {
-                    let naca = Naca4::parse(code, *closed_te).map_err(|e| {
-                        InputError::at(
-                            Location::line(&project.files.stations, s.line),
-                            e.to_string(),
-                        )
+                    let naca = Naca4::parse(code, *closed_te).map_err(|e| BladeError::Airfoil {
+                        file: project.files.stations.clone(),
+                        line: s.line,
+                        message: e.to_string(),
                     })?;
                     Outline::from_naca(&naca, 801)
                 }
-                AirfoilSpec::File(path) => {
-                    let (outline, file_notes) =
-                        crate::input::read_coordinates_noted(path, &path.display().to_string())?;
+                AirfoilSpec::File { outline, notes: file_notes, .. } => {
                     for note in file_notes {
-                        if !notes.contains(&note) {
-                            notes.push(note);
+                        if !notes.contains(note) {
+                            notes.push(note.clone());
                         }
                     }
-                    outline
+                    outline.clone()
                 }
                 AirfoilSpec::Shape(shape) => shape.outline(801),
             };

@@ -15,7 +15,8 @@ pub fn load_model(path: &Path, out: &Output) -> Result<BladeModel, Failure> {
     let project = read_project(path).map_err(layloft::Error::from)?;
     let total = project.sections.analysis_stations.max(project.stations.len()) as u64;
     let bar = out.progress(total, "sections");
-    let model = BladeModel::build_with_progress(project, &mut |_, _| bar.inc(1))?;
+    let model = BladeModel::build_with_progress(project.clone(), &mut |_, _| bar.inc(1))
+        .map_err(|e| layloft::Error::placed(e, &project))?;
     bar.finish();
     for w in model.warnings() {
         out.warn(&w.to_string());

@@ -263,7 +263,7 @@ fn write_report_with(
                 layloft::mesh::MeshError::StationShape { r, .. } => *r,
                 _ => model.blade.root_radius(),
             };
-            let place = layloft::analysis::place_at_station(p, r, e.into());
+            let place = layloft::Error::at_station(p, r, e.into());
             let text = format!("no tooling was made: {place}");
             out.warn(&text);
             ReportBlock { warnings: vec![text], ..ReportBlock::default() }

@@ -120,10 +120,12 @@ fn write_drawings(model: &BladeModel, dir: &Path) -> Result<usize, Failure> {
 
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let config = configure(&args)?;
+    let project = config.project.clone();
     let model = match &config.radii {
-        Some(radii) => BladeModel::build_at(config.project, radii)?,
-        None => BladeModel::build(config.project)?,
-    };
+        Some(radii) => BladeModel::build_at(config.project, radii),
+        None => BladeModel::build(config.project),
+    }
+    .map_err(|e| layloft::Error::placed(e, &project))?;
     let report = SectionsReport::new(&model);
     if let Some(path) = &args.csv {
         let folder = path.parent().filter(|p| !p.as_os_str().is_empty()).unwrap_or(Path::new("."));

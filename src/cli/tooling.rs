@@ -93,9 +93,7 @@ fn mesh_failure(project: &Project, e: MeshError) -> Failure {
     match e {
         MeshError::Settings(text) => Failure::Input(anyhow!("{file}: {text}")),
         // A shape given at one station: named by that station's line of the stations file.
-        MeshError::StationShape { r, .. } => {
-            input(layloft::analysis::place_at_station(project, r, Error::from(e)))
-        }
+        MeshError::StationShape { r, .. } => input(Error::at_station(project, r, Error::from(e))),
         MeshError::Parameter { .. } | MeshError::Unit(_) => {
             Failure::Input(anyhow!("{file}: {}", Error::from(e)))
         }
@@ -110,7 +108,7 @@ fn configure(args: &Args) -> Result<Config, Failure> {
     for r in blade.station_radii() {
         blade
             .section_layout(r, project.sections.contour_points)
-            .map_err(|e| input(layloft::analysis::place_at_station(&project, r, e.into())))?;
+            .map_err(|e| input(Error::at_station(&project, r, e.into())))?;
     }
     let spec = project.tooling.clone().unwrap_or_default();
     let mut params = ToolingParams::from_spec(&spec).map_err(|e| mesh_failure(&project, e))?;

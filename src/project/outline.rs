@@ -16,8 +16,16 @@ pub enum AirfoilSpec {
         /// Closed trailing edge.
         closed_te: bool,
     },
-    /// A coordinate file, relative to the project folder.
-    File(PathBuf),
+    /// A coordinate file, as the reader found it next to the project, with the outline read
+    /// from it and notes on what was changed to read it (points reversed, repeats removed).
+    File {
+        /// The file.
+        path: PathBuf,
+        /// The outline it gives, in chord fractions.
+        outline: crate::airfoil::Outline,
+        /// What was changed to read it, each note naming the file.
+        notes: Vec<String>,
+    },
     /// A built-in shape: `circle` or `ellipse:T`.
     Shape(crate::airfoil::Shape),
 }

@@ -56,7 +56,7 @@ use crate::project::*;
 use crate::text::excerpt;
 use crate::units::{Angle, MM, Temperature, fraction_of_pct, rpm_of, rpm_to_rad_s};
 use plies::{read_distributed, read_plies};
-use stations::read_stations;
+use stations::{read_outlines, read_stations};
 
 /// The greatest load-case speed accepted, as a multiple of `rpm_max`: proof and burst tests of
 /// rotors run up to about 1.2 to 1.5 times the greatest operating speed (common practice).
@@ -258,6 +258,8 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
         None => None,
     };
     doc.finish()?;
+    let mut stations = stations;
+    read_outlines(&mut stations)?;
     let shown = |f: &str| dir.join(f).display().to_string();
     let files = ProjectFiles {
         stations: shown(&stations_file),

@@ -197,5 +197,20 @@ fn parse_airfoil(rec: &CsvRecord<'_>, dir: &Path) -> Result<AirfoilSpec, InputEr
             ),
         ));
     }
-    Ok(AirfoilSpec::File(path))
+    // The outline is read by `read_outlines` once the whole project has been read.
+    let outline = crate::airfoil::Outline { upper: Vec::new(), lower: Vec::new() };
+    Ok(AirfoilSpec::File { path, outline, notes: Vec::new() })
+}
+
+/// Reads the coordinate file of every station given by one into its outline, with the notes of
+/// what was changed to read it. The files are read last, after every other check of the project,
+/// so that a project with several faults names the same one first as when the blade read them.
+pub(super) fn read_outlines(stations: &mut [Station]) -> Result<(), InputError> {
+    for s in stations {
+        if let AirfoilSpec::File { path, outline, notes } = &mut s.airfoil {
+            (*outline, *notes) =
+                crate::input::read_coordinates_noted(path, &path.display().to_string())?;
+        }
+    }
+    Ok(())
 }
