@@ -163,7 +163,7 @@ fn as_written(mesh: &Mesh, part: &str, unit: LengthUnit) -> Result<Mesh, MeshErr
     Ok(rounded)
 }
 
-/// Checks every part of `parts` and `copies` as [`write_part_set_with_progress`] does, then
+/// Checks every part of `parts` and `copies` as `output::write_part_set_with_progress` does, then
 /// encodes each as STL in memory: the parts with their files' contents (path `NAME.stl`,
 /// relative), for a caller that puts the whole set in place itself, each file written once.
 /// `progress(done, total, what)` is called after each part is checked and each is encoded.
