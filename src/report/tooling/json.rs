@@ -12,6 +12,19 @@ fn opt(v: Option<f64>) -> Value {
     v.map_or(Value::Null, num)
 }
 
+/// A part's machining frame and its file (the blade mould's parts and the casting moulds' alike).
+fn machining_frame(m: &crate::tooling::MachinedPart) -> Value {
+    json!({
+        "part": m.part,
+        "name": m.name,
+        "file": format!("{}.stl", m.name),
+        "x_axis": m.frame.axes[0].map(num),
+        "y_axis": m.frame.axes[1].map(num),
+        "z_axis": m.frame.axes[2].map(num),
+        "origin_m": m.frame.origin.map(num),
+    })
+}
+
 fn point(p: [f64; 3]) -> Value {
     json!({"x_m": num(p[0]), "y_m": num(p[1]), "z_m": num(p[2])})
 }
@@ -133,15 +146,7 @@ impl ToolingReport<'_> {
                 "cavity_area_m2": num(h.cavity_area),
                 "size_m": h.block_size.map(num),
             })).collect::<Vec<_>>(),
-            "machining_frames": t.machining.iter().map(|m| json!({
-                "part": m.part,
-                "name": m.name,
-                "file": format!("{}.stl", m.name),
-                "x_axis": m.frame.axes[0].map(num),
-                "y_axis": m.frame.axes[1].map(num),
-                "z_axis": m.frame.axes[2].map(num),
-                "origin_m": m.frame.origin.map(num),
-            })).collect::<Vec<_>>(),
+            "machining_frames": t.machining.iter().map(machining_frame).collect::<Vec<_>>(),
             "earlier_files": {
                 "removed": self.stale.remove,
                 "left_in_place": self.stale.kept.iter().map(|(f, why)| json!({
@@ -222,15 +227,7 @@ impl ToolingReport<'_> {
                     "below_least_draft_area_m2": num(h.draft.below_min_area),
                     "undercut_area_m2": num(h.draft.undercut_area),
                 })).collect::<Vec<_>>(),
-                "machining_frames": m.machining.iter().map(|c| json!({
-                    "part": c.part,
-                    "name": c.name,
-                    "file": format!("{}.stl", c.name),
-                    "x_axis": c.frame.axes[0].map(num),
-                    "y_axis": c.frame.axes[1].map(num),
-                    "z_axis": c.frame.axes[2].map(num),
-                    "origin_m": c.frame.origin.map(num),
-                })).collect::<Vec<_>>(),
+                "machining_frames": m.machining.iter().map(machining_frame).collect::<Vec<_>>(),
             })).collect::<Vec<_>>(),
             "casting_notes": t.casting_notes,
             "casting_caution": CASTING_CAUTION,
