@@ -86,7 +86,7 @@ fn book(project: &Project, blade: &Blade) -> PlyBook {
 /// & Taylor 1956, so the pieces may exceed the region by up to 1/cos(g_max) − 1).
 fn check_complete(project: &Project, blade: &Blade, book: &PlyBook) -> usize {
     assert!(book.failed.is_empty(), "left out: {:?}", book.failed);
-    let regions = ply_regions(blade, &project.files.plies, &PlyBookParams::default()).unwrap();
+    let regions = ply_regions(blade, &PlyBookParams::default()).unwrap();
     let mut split = 0;
     for region in &regions {
         let ply = blade.ply(region.ply).expect("ply");
