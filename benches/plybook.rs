@@ -7,12 +7,12 @@
 
 use criterion::{Criterion, criterion_group, criterion_main};
 use layloft::blade::Blade;
-use layloft::input::read_project;
+use layloft::input::read_project_sourced;
 use layloft::plybook::{PlyBookParams, build_ply_book, plybook_files};
 
 fn small_wind(c: &mut Criterion) {
     let root = concat!(env!("CARGO_MANIFEST_DIR"), "/layups/small-wind/blade.toml");
-    let Ok(project) = read_project(root.as_ref()) else { return };
+    let Ok((project, sources)) = read_project_sourced(root.as_ref()) else { return };
     let Ok(blade) = Blade::from_project(&project) else { return };
     let params = PlyBookParams::default();
     let mut group = c.benchmark_group("small_wind");
@@ -21,7 +21,10 @@ fn small_wind(c: &mut Criterion) {
         b.iter(|| build_ply_book(&blade, &project, &params).map(|book| book.patterns.len()))
     });
     if let Ok(book) = build_ply_book(&blade, &project, &params) {
-        group.bench_function("files", |b| b.iter(|| plybook_files(&book, None).map(|f| f.len())));
+        let lines = &sources.ply_lines;
+        group.bench_function("files", |b| {
+            b.iter(|| plybook_files(&book, None, lines).map(|f| f.len()))
+        });
     }
     group.finish();
 }

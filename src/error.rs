@@ -1,17 +1,17 @@
-//! The crate-level error: every module's error, wrapped so that `?` carries the reason up. An
-//! error of the analysis chain, which names a radius but no file, is placed here at the station
-//! nearest that radius, where the project's file positions are known.
+//! The crate-level error: every module's error, wrapped so that `?` carries the reason up. The
+//! errors below the reader name a station or ply by index and a place by radius, never a file;
+//! here, given the project's positions ([`Sources`]), they are placed in the file and at the
+//! line where the user wrote what caused them.
 
 use crate::analysis::{AnalysisError, StationError};
 use crate::blade::BladeError;
-use crate::input::{InputError, Location};
+use crate::input::{InputError, Location, Sources};
 use crate::laminate::LaminateError;
 use crate::loads::LoadsError;
 use crate::material::MaterialError;
 use crate::mesh::MeshError;
 use crate::modal::ModalError;
 use crate::plybook::PlyBookError;
-use crate::project::Project;
 use crate::section::SectionError;
 use crate::stress::StressError;
 
@@ -60,35 +60,58 @@ pub enum Error {
 }
 
 impl Error {
-    /// An analysis error placed in the project's files: an error at a station that names no line
-    /// of an input file is placed at the nearest station of the stations file (see
-    /// [`Error::at_station`]); an error of lofting the blade names its own place.
-    pub fn placed(e: AnalysisError, project: &Project) -> Error {
+    /// An analysis error placed in the project's files: an error at a station is placed at the
+    /// station nearest its radius (see [`Error::at_station`]); an error of lofting the blade
+    /// names its own place ([`Error::in_files`]).
+    pub fn placed(e: AnalysisError, sources: &Sources) -> Error {
         match e {
-            AnalysisError::Blade(e) => e.into(),
-            AnalysisError::Station { r, source } => Error::at_station(project, r, (*source).into()),
+            AnalysisError::Blade(e) => Error::in_files(e, sources),
+            AnalysisError::Station { r, source } => Error::at_station(sources, r, (*source).into()),
         }
     }
 
-    /// An error of the section at radius `r` that names no line of an input file (a section
-    /// error, or a blade error naming only the plies file, such as a web without plies) placed
-    /// at the nearest station of the stations file, so that the user knows where to look; input
-    /// errors, which carry their own place, are left as they are.
-    pub fn at_station(project: &Project, r: f64, e: Error) -> Error {
-        if let Error::Input(_) = e {
-            return e;
+    /// A blade error in the words of the project's files: a station's airfoil at its line of the
+    /// stations file, walls too thick with the plies file and the line of the nearest station, a
+    /// hole in the skin or a web without plies with the plies file; other errors as they are.
+    pub fn in_files(e: BladeError, sources: &Sources) -> Error {
+        let plies = Location::file(sources.files.plies.clone());
+        match e {
+            BladeError::Airfoil { station, message } => {
+                InputError::at(sources.station(station), message).into()
+            }
+            BladeError::TooThick { r, station, x, upper_mm, lower_mm, depth_mm } => {
+                let text = format!(
+                    "at r = {r:.4} m (station near line {}), x/c = {x:.3} {}",
+                    sources.station_line(station),
+                    BladeError::thicker_text(upper_mm, lower_mm, depth_mm)
+                );
+                InputError::at(plies, text).into()
+            }
+            e @ (BladeError::NoPlies { .. } | BladeError::WebWithoutPlies { .. }) => {
+                InputError::at(plies, e.to_string()).into()
+            }
+            other => other.into(),
         }
-        let text = e.to_string();
-        if text.contains(" line ") {
-            return e;
-        }
-        let nearest =
-            project.stations.iter().min_by(|a, b| (a.r - r).abs().total_cmp(&(b.r - r).abs()));
-        let location = match nearest {
-            Some(s) => Location::line(project.files.stations.clone(), s.line).with_field("r_m"),
-            None => Location::file(project.files.stations.clone()),
+    }
+
+    /// An error of the section at radius `r` placed at the nearest station of the stations file,
+    /// so that the user knows where to look. Errors that carry their own place are left at it:
+    /// input errors, and the blade errors that name a station (an airfoil, walls too thick),
+    /// which go to their line ([`Error::in_files`]).
+    pub fn at_station(sources: &Sources, r: f64, e: Error) -> Error {
+        let e = match e {
+            Error::Input(_) => return e,
+            Error::Blade(b @ (BladeError::Airfoil { .. } | BladeError::TooThick { .. })) => {
+                return Error::in_files(b, sources);
+            }
+            Error::Blade(b) => Error::in_files(b, sources),
+            other => other,
         };
-        InputError::at(location, format!("{text} (this is the station nearest to r = {r:.4} m)"))
+        let location = match sources.nearest_station(r) {
+            Some(i) => sources.station(i).with_field("r_m"),
+            None => Location::file(sources.files.stations.clone()),
+        };
+        InputError::at(location, format!("{e} (this is the station nearest to r = {r:.4} m)"))
             .into()
     }
 }

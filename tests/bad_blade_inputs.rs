@@ -1,12 +1,15 @@
 //! Every malformed blade project input gets its own clear message naming the file and the line
 //! or key, and none panics. Each case copies the fixture project, changes one file, and reads it
-//! back through the library (the same messages reach users through the commands).
+//! back through the library (the same messages reach users through the commands): the blade's
+//! errors, which name stations and plies by index, are placed in the files by the reader's
+//! positions (`Error::in_files`), as the command line does.
 
 use std::fs;
 use std::path::Path;
 
+use layloft::Error;
 use layloft::blade::Blade;
-use layloft::input::read_project;
+use layloft::input::read_project_sourced;
 
 const FIXTURE: &str = "tests/data/blade-basic";
 
@@ -33,10 +36,11 @@ fn message(file: &str, from: &str, to: &str) -> String {
 }
 
 fn run(path: &Path) -> Result<(), String> {
-    let project = read_project(path).map_err(|e| e.to_string())?;
-    let blade = Blade::from_project(&project).map_err(|e| e.to_string())?;
+    let (project, sources) = read_project_sourced(path).map_err(|e| e.to_string())?;
+    let placed = |e| Error::in_files(e, &sources).to_string();
+    let blade = Blade::from_project(&project).map_err(placed)?;
     for r in blade.analysis_radii(11) {
-        blade.section_layout(r, 120).map_err(|e| e.to_string())?;
+        blade.section_layout(r, 120).map_err(placed)?;
     }
     Ok(())
 }

@@ -32,5 +32,7 @@ mod cli_tooling_files;
 mod modal_report;
 #[path = "mutation_gate.rs"]
 mod mutation_gate;
+#[path = "placed_errors.rs"]
+mod placed_errors;
 #[path = "snapshot_commands.rs"]
 mod snapshot_commands;

@@ -45,7 +45,6 @@ fn entry() -> PatternEntry {
         name: "skin-1-upper".into(),
         ply: "skin-1".into(),
         order: 1,
-        line: 3,
         material: "glass-biax".into(),
         surface: "upper".into(),
         angle_deg: 30.0,
@@ -116,7 +115,7 @@ fn the_report_block_shows_each_nesting_drawing_inline() {
         failed: Vec::new(),
         splices: Vec::new(),
     };
-    let block = plybook_block(&book, None);
+    let block = plybook_block(&book, None, &layloft::input::Sources::default());
     assert_eq!(block.figures.len(), 1, "one nesting drawing per material");
     let (id, caption, svg) = &block.figures[0];
     assert!(caption.contains("glass-biax"), "{caption}");

@@ -63,7 +63,7 @@ fn dxf_files_read_back_to_the_same_outlines() {
 fn each_pattern_keeps_its_region_area_on_the_surface() {
     let (project, blade) = mine_fan();
     let book = book(&project, &blade);
-    let regions = ply_regions(&blade, &project.files.plies, &PlyBookParams::default()).unwrap();
+    let regions = ply_regions(&blade, &PlyBookParams::default()).unwrap();
     let mut checked = 0;
     for e in book.patterns.iter().filter(|e| e.pattern.cut_short.is_empty()) {
         let region = regions

@@ -84,9 +84,9 @@ fn book(project: &Project, blade: &Blade) -> PlyBook {
 /// span × chord ranges add up to the region's, and their flat areas to the region's area on
 /// the surface (the cloth is inextensible; a sheared cell covers cos(g) of its flat area, Mack
 /// & Taylor 1956, so the pieces may exceed the region by up to 1/cos(g_max) − 1).
-fn check_complete(project: &Project, blade: &Blade, book: &PlyBook) -> usize {
+fn check_complete(blade: &Blade, book: &PlyBook) -> usize {
     assert!(book.failed.is_empty(), "left out: {:?}", book.failed);
-    let regions = ply_regions(blade, &project.files.plies, &PlyBookParams::default()).unwrap();
+    let regions = ply_regions(blade, &PlyBookParams::default()).unwrap();
     let mut split = 0;
     for region in &regions {
         let ply = blade.ply(region.ply).expect("ply");
@@ -161,7 +161,7 @@ fn every_ply_of_the_demos_is_in_the_kit() {
         let project = demo(name);
         let blade = Blade::from_project(&project).expect("blade");
         let book = book(&project, &blade);
-        let split = check_complete(&project, &blade, &book);
+        let split = check_complete(&blade, &book);
         assert!(split >= 2, "{name}: {split} regions cut in pieces");
         assert!(!book.splices.is_empty(), "{name}: the splices are described");
     }
@@ -175,7 +175,7 @@ fn a_generated_blade_with_a_ramp_is_cut_into_pieces_that_drape() {
     let book = book(&project, &blade);
     // The ±45° and 30° fabrics over the whole wider, more twisted skin will not drape whole
     // (when written: `outer` both skins, `over-ramp`, `lower-30`, each in two pieces).
-    let split = check_complete(&project, &blade, &book);
+    let split = check_complete(&blade, &book);
     assert!(split >= 2, "only {split} regions cut in pieces");
     // Each pattern, piece or whole, is a pattern the net covers without folding.
     for e in &book.patterns {
@@ -317,7 +317,7 @@ fn the_splices_of_successive_plies_on_a_skin_are_staggered() {
     let params = PlyBookParams::default();
     assert_eq!(params.stagger, 0.025);
     let book = book(&project, &blade);
-    check_complete(&project, &blade, &book);
+    check_complete(&blade, &book);
     let lines = splice_lines(&blade, &book);
     for w in &book.warnings {
         assert!(!w.contains("could not be kept"), "{w}");

@@ -25,6 +25,7 @@ pub use error::{AnalysisError, StationError};
 use std::sync::OnceLock;
 
 use crate::blade::{Blade, BladeWarning};
+use crate::input::InputWarning;
 use crate::modal::{Attachments, FluidSection};
 use crate::project::{Buoyancy, BuoyantSection, Project};
 use crate::section::{
@@ -214,12 +215,18 @@ impl BladeModel {
         }
     }
 
-    /// Warnings of the input, the blade and its sections, alike ones grouped: each with the radii
-    /// where it occurs. The report turns them into words (`report::warnings`).
+    /// Warnings of the blade and its sections, alike ones grouped: each with the radii where it
+    /// occurs. The report turns them into words (`report::warnings`). The input's own warnings
+    /// are kept by the reader ([`crate::input::Sources`]): [`BladeModel::warnings_with`] puts
+    /// them first.
     pub fn warnings(&self) -> Vec<GroupedWarning> {
-        let mut groups: Vec<GroupedWarning> = self
-            .project
-            .input_warnings
+        self.warnings_with(&[])
+    }
+
+    /// The input's warnings, then the warnings of the blade and its sections
+    /// ([`BladeModel::warnings`]).
+    pub fn warnings_with(&self, input: &[InputWarning]) -> Vec<GroupedWarning> {
+        let mut groups: Vec<GroupedWarning> = input
             .iter()
             .cloned()
             .map(Warning::Input)
@@ -267,9 +274,8 @@ pub fn section_params(project: &Project) -> SectionParams {
 /// A warning of a blade model: a value with its places and numbers.
 #[derive(Debug, Clone, PartialEq)]
 pub enum Warning {
-    /// A value of the input that is legal but unusual, in the reader's words (they name the
-    /// file and the key or line).
-    Input(String),
+    /// A value of the input that is legal but unusual, with where it was given.
+    Input(InputWarning),
     /// About the blade as a whole.
     Blade(BladeWarning),
     /// A load case above the rotor's greatest speed: the frequency check does not cover it.

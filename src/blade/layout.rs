@@ -113,7 +113,7 @@ impl Blade {
             };
             let plies = self.chord_ply_indices(candidates, x);
             if plies.is_empty() {
-                return Err(BladeError::NoPlies { file: self.plies_file.clone(), surface, x, r });
+                return Err(BladeError::NoPlies { surface, x, r });
             }
             segment_laminate.push(intern(plies));
         }
@@ -122,11 +122,7 @@ impl Blade {
         for w in self.webs.iter().filter(|w| self.web_present(w, r)) {
             let plies = self.web_ply_indices(r, &w.name);
             if plies.is_empty() {
-                return Err(BladeError::WebWithoutPlies {
-                    file: self.plies_file.clone(),
-                    web: w.name.clone(),
-                    r,
-                });
+                return Err(BladeError::WebWithoutPlies { web: w.name.clone(), r });
             }
             webs.push(WebLayout {
                 name: w.name.clone(),
@@ -144,9 +140,8 @@ impl Blade {
             let lower = self.surface_thickness(r, Surface::Lower, x);
             if upper + lower >= depth {
                 return Err(BladeError::TooThick {
-                    file: self.plies_file.clone(),
                     r,
-                    line: self.nearest_station_line(r),
+                    station: self.nearest_station(r),
                     x,
                     upper_mm: upper * 1e3,
                     lower_mm: lower * 1e3,

@@ -49,16 +49,16 @@ use crate::material::{Lamina, MaterialError};
 use crate::project::{AirfoilSpec, PlySpec, Project, Rotor, WebSpec};
 use crate::units::Angle;
 
-/// What can go wrong when building the blade or one of its sections.
+/// What can go wrong when building the blade or one of its sections. The errors name a station
+/// or ply by its index in the project and a place by its radius; the command line names the
+/// file and line (`Error::at_station`).
 #[derive(Debug, thiserror::Error)]
 pub enum BladeError {
     /// A station's airfoil that gives no outline (a NACA code the reader did not check).
-    #[error("{file} line {line}: {message}")]
+    #[error("station {} (counted from the root): {message}", .station + 1)]
     Airfoil {
-        /// The stations file.
-        file: String,
-        /// The station's line in it.
-        line: usize,
+        /// Index of the station in the project.
+        station: usize,
         /// What is wrong.
         message: String,
     },
@@ -77,11 +77,9 @@ pub enum BladeError {
     },
     /// A point of the skin that no ply covers.
     #[error(
-        "{file}: no ply covers the {surface} surface at x/c = {x:.3}, r = {r:.4} m: the skin has a hole there"
+        "no ply covers the {surface} surface at x/c = {x:.3}, r = {r:.4} m: the skin has a hole there"
     )]
     NoPlies {
-        /// The plies file.
-        file: String,
         /// Which surface.
         surface: Surface,
         /// Chord fraction.
@@ -91,11 +89,9 @@ pub enum BladeError {
     },
     /// A web that exists at a radius but has no plies there.
     #[error(
-        "{file}: web '{web}' has no plies at r = {r:.4} m (give it web:{web} plies over its whole span)"
+        "web '{web}' has no plies at r = {r:.4} m (give it web:{web} plies over its whole span)"
     )]
     WebWithoutPlies {
-        /// The plies file.
-        file: String,
         /// The web.
         web: String,
         /// Radius, m.
@@ -103,15 +99,15 @@ pub enum BladeError {
     },
     /// Walls that fill the section depth where the section must be hollow.
     #[error(
-        "{file}: at r = {r:.4} m (station near line {line}), x/c = {x:.3} the laminates are thicker than the section: upper {upper_mm:.2} mm + lower {lower_mm:.2} mm against a depth of {depth_mm:.2} mm"
+        "at r = {r:.4} m (station {} from the root is the nearest), x/c = {x:.3} {}",
+        .station + 1,
+        BladeError::thicker_text(*upper_mm, *lower_mm, *depth_mm)
     )]
     TooThick {
-        /// The plies file.
-        file: String,
         /// Radius, m.
         r: f64,
-        /// Line of the nearest station in stations.csv.
-        line: usize,
+        /// Index in the project of the station nearest `r`.
+        station: usize,
         /// Chord fraction.
         x: f64,
         /// Upper wall laminate thickness, mm.
@@ -123,11 +119,20 @@ pub enum BladeError {
     },
 }
 
+impl BladeError {
+    /// The words of [`BladeError::TooThick`] after its place.
+    pub fn thicker_text(upper_mm: f64, lower_mm: f64, depth_mm: f64) -> String {
+        format!(
+            "the laminates are thicker than the section: upper {upper_mm:.2} mm + lower \
+             {lower_mm:.2} mm against a depth of {depth_mm:.2} mm"
+        )
+    }
+}
+
 /// One station with its outline resolved.
 #[derive(Debug, Clone)]
 pub(crate) struct ResolvedStation {
     pub(crate) r: f64,
-    pub(crate) line: usize,
     pub(crate) outline: Outline,
 }
 
@@ -147,7 +152,6 @@ pub struct Blade {
     loft: loft::SpanInterpolation,
     plies: Vec<ResolvedPly>,
     webs: Vec<WebSpec>,
-    plies_file: String,
     /// What was changed to read the coordinate files (points reversed, repeats removed).
     notes: Vec<String>,
     /// The stations' outlines resampled once per count of intervals.
@@ -161,12 +165,11 @@ impl Blade {
     pub fn from_project(project: &Project) -> Result<Blade, BladeError> {
         let mut stations = Vec::with_capacity(project.stations.len());
         let mut notes = Vec::new();
-        for s in &project.stations {
+        for (index, s) in project.stations.iter().enumerate() {
             let outline = match &s.airfoil {
                 AirfoilSpec::Naca4 { code, closed_te } => {
                     let naca = Naca4::parse(code, *closed_te).map_err(|e| BladeError::Airfoil {
-                        file: project.files.stations.clone(),
-                        line: s.line,
+                        station: index,
                         message: e.to_string(),
                     })?;
                     Outline::from_naca(&naca, 801)
@@ -181,7 +184,7 @@ impl Blade {
                 }
                 AirfoilSpec::Shape(shape) => shape.outline(801),
             };
-            stations.push(ResolvedStation { r: s.r, line: s.line, outline });
+            stations.push(ResolvedStation { r: s.r, outline });
         }
         let mut plies = Vec::with_capacity(project.plies.len());
         for p in &project.plies {
@@ -197,7 +200,6 @@ impl Blade {
             stations,
             plies,
             webs: project.webs.clone(),
-            plies_file: project.files.plies.clone(),
             notes,
             resampled: loft::ResampledOutlines::default(),
             span_content: OnceLock::new(),
@@ -311,12 +313,13 @@ impl Blade {
         Ok(())
     }
 
-    /// The line in stations.csv of the station nearest `r`.
-    fn nearest_station_line(&self, r: f64) -> usize {
+    /// Index of the station nearest `r`.
+    fn nearest_station(&self, r: f64) -> usize {
         self.stations
             .iter()
-            .min_by(|a, b| (a.r - r).abs().total_cmp(&(b.r - r).abs()))
-            .map(|s| s.line)
+            .enumerate()
+            .min_by(|(_, a), (_, b)| (a.r - r).abs().total_cmp(&(b.r - r).abs()))
+            .map(|(i, _)| i)
             .unwrap_or(0)
     }
 }

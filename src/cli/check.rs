@@ -37,7 +37,7 @@ pub struct Args {
 }
 
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
-    let model = load_model(&args.blade, out)?;
+    let (model, sources) = load_model(&args.blade, out)?;
     let criteria = &model.project.criteria;
     let needs_stress = criteria.min_reserve_factor.is_some()
         || criteria.min_buckling_factor.is_some()
@@ -48,18 +48,18 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         Vec::new()
     };
     let modal = match criteria.frequency_margin {
-        Some(_) => Some(run_modal(&model, out, None, None)?),
+        Some(_) => Some(run_modal(&model, &sources, out, None, None)?),
         None => None,
     };
     let check = evaluate(&model, &stress, modal.as_ref());
     let p = &model.project;
     if args.json {
-        let doc = check_json(&p.name, &check, &p.input_warnings);
+        let doc = check_json(&p.name, &check, &sources.warnings);
         let text = serde_json::to_string_pretty(&doc)
             .map_err(|e| Failure::Run(anyhow!("cannot format the JSON report: {e}")))?;
         out.data(&text);
     } else {
-        out.data(&check_text(&p.name, &check, &p.input_warnings));
+        out.data(&check_text(&p.name, &check, &sources.warnings));
     }
     Ok(if check.passed() { Outcome::Success } else { Outcome::CheckFailed })
 }

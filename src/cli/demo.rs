@@ -114,14 +114,14 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         blade.display().to_string()
     };
     out.note(&format!("demo '{}' (invented scenario) from {shown}", demo.name));
-    let mut model = load_model(&blade, out)?;
+    let (model, mut sources) = load_model(&blade, out)?;
     drop(scratch);
     if built_in {
-        model.project.file = shown;
+        sources.file = shown;
     }
-    let check = write_report(&model, &dest, out)?;
+    let check = write_report(&model, &sources, &dest, out)?;
     out.note(&format!("open {} in a browser", dest.out.join("report.html").display()));
-    out.data(&super::verdict(&check, &model.project));
+    out.data(&super::verdict(&check, &sources));
     let passed = check.passed();
     Ok(if passed { Outcome::Success } else { Outcome::CheckFailed })
 }

@@ -84,8 +84,8 @@ impl From<layloft::Error> for Failure {
 }
 
 /// The verdict line of a design check, last on stdout, with the project's input warnings.
-pub fn verdict(check: &layloft::check::DesignCheck, project: &layloft::project::Project) -> String {
-    layloft::report::check::verdict_text(check, &project.input_warnings)
+pub fn verdict(check: &layloft::check::DesignCheck, sources: &layloft::input::Sources) -> String {
+    layloft::report::check::verdict_text(check, &sources.warnings)
 }
 
 /// Parses the arguments, runs the command and maps the result to the exit status.

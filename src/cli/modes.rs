@@ -92,9 +92,9 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
             layloft::input::limits::MAX_MODES
         )));
     }
-    let model = load_model(&args.blade, out)?;
+    let (model, sources) = load_model(&args.blade, out)?;
     let p = &model.project;
-    let analysis = run_modal(&model, out, range, args.modes)?;
+    let analysis = run_modal(&model, &sources, out, range, args.modes)?;
     let title = format!("Campbell diagram — {}", p.name);
     let rpm_nominal = rpm_of(p.rotor.omega_nominal);
     if let Some(path) = &args.svg {

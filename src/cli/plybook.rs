@@ -10,8 +10,9 @@ use std::path::PathBuf;
 
 use anyhow::anyhow;
 
+use layloft::input::Sources;
 use layloft::plybook::{PlyBookError, PlyBookParams, build_ply_book, plybook_files, plybook_json};
-use layloft::report::FileSet;
+use layloft::report::{FileSet, plybook_error_text};
 
 use super::project::load_model;
 use super::{Failure, Outcome, Output};
@@ -47,23 +48,26 @@ pub struct Args {
 }
 
 /// Maps a ply-book error to its exit status: the user's input (2) or a computation (3).
-pub(crate) fn failure(e: PlyBookError) -> Failure {
+/// The error is named in the project's files (`sources`).
+pub(crate) fn failure(e: PlyBookError, sources: &Sources) -> Failure {
+    let text = plybook_error_text(&e, sources);
     match e {
         PlyBookError::Drape { .. } | PlyBookError::Output { .. } => {
-            Failure::Run(anyhow!(layloft::Error::from(e)).context("the ply book cannot be made"))
+            Failure::Run(anyhow!(text).context("the ply book cannot be made"))
         }
-        other => Failure::Input(layloft::Error::from(other).into()),
+        _ => Failure::Input(anyhow!(text)),
     }
 }
 
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
-    let model = load_model(&args.project, out)?;
+    let (model, sources) = load_model(&args.project, out)?;
     let bar = out.progress(1, "ply book");
-    let book =
-        build_ply_book(&model.blade, &model.project, &PlyBookParams::default()).map_err(failure)?;
+    let book = build_ply_book(&model.blade, &model.project, &PlyBookParams::default())
+        .map_err(|e| failure(e, &sources))?;
     bar.finish();
     let laminate_kg = model.mass().laminate_kg;
-    let files = plybook_files(&book, Some(laminate_kg)).map_err(failure)?;
+    let files = plybook_files(&book, Some(laminate_kg), &sources.ply_lines)
+        .map_err(|e| failure(e, &sources))?;
     let mut set = FileSet::new();
     for (path, bytes) in files {
         set.add(path, bytes);
@@ -74,11 +78,15 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         out.warn(w);
     }
     for e in &book.failed {
-        out.warn(&e.to_string());
+        out.warn(&plybook_error_text(e, &sources));
     }
     if args.json {
-        let json = serde_json::to_string_pretty(&plybook_json(&book, Some(laminate_kg)))
-            .map_err(|e| Failure::Run(anyhow!("cannot format the ply book as JSON: {e}")))?;
+        let json = serde_json::to_string_pretty(&plybook_json(
+            &book,
+            Some(laminate_kg),
+            &sources.ply_lines,
+        ))
+        .map_err(|e| Failure::Run(anyhow!("cannot format the ply book as JSON: {e}")))?;
         out.data(&json);
     } else {
         out.data(&kit_text(&book, laminate_kg));

@@ -3,31 +3,33 @@
 use std::path::Path;
 
 use layloft::analysis::BladeModel;
-use layloft::input::read_project;
+use layloft::input::{Sources, read_project_sourced};
 use layloft::modal::{ModalAnalysis, ModalInputs, SpeedRange};
 
 use super::{Failure, Output};
 
 /// Reads the project and solves its sections (the build fills the buoyancy of a `[fluid]`), with
 /// a progress bar on a terminal; prints the grouped warnings of the blade and its sections as
-/// notes on stderr.
-pub fn load_model(path: &Path, out: &Output) -> Result<BladeModel, Failure> {
-    let project = read_project(path).map_err(layloft::Error::from)?;
+/// notes on stderr (the input's first). With the model, where the project was written, for
+/// naming the files of later errors.
+pub fn load_model(path: &Path, out: &Output) -> Result<(BladeModel, Sources), Failure> {
+    let (project, sources) = read_project_sourced(path).map_err(layloft::Error::from)?;
     let total = project.sections.analysis_stations.max(project.stations.len()) as u64;
     let bar = out.progress(total, "sections");
-    let model = BladeModel::build_with_progress(project.clone(), &mut |_, _| bar.inc(1))
-        .map_err(|e| layloft::Error::placed(e, &project))?;
+    let model = BladeModel::build_with_progress(project, &mut |_, _| bar.inc(1))
+        .map_err(|e| layloft::Error::placed(e, &sources))?;
     bar.finish();
-    for w in model.warnings() {
+    for w in model.warnings_with(&sources.warnings) {
         out.warn(&w.to_string());
     }
-    Ok(model)
+    Ok((model, sources))
 }
 
 /// The modal stage of a model (speed range and mode count from the project unless given), with a
 /// progress bar over the speeds on a terminal.
 pub fn run_modal(
     model: &BladeModel,
+    sources: &Sources,
     out: &Output,
     range: Option<SpeedRange>,
     modes: Option<usize>,
@@ -48,7 +50,7 @@ pub fn run_modal(
         bar.set_length(total as u64);
         bar.inc(1)
     })
-    .map_err(|e| modal_failure(p, range.is_some(), modes.is_some(), e))?;
+    .map_err(|e| modal_failure(sources, range.is_some(), modes.is_some(), e))?;
     bar.finish();
     Ok(analysis)
 }
@@ -58,16 +60,16 @@ pub fn run_modal(
 /// blade that the spin makes statically unstable below `rpm_max` (exit 2 naming the key, not an
 /// internal failure).
 fn modal_failure(
-    p: &layloft::project::Project,
+    sources: &Sources,
     range_given: bool,
     modes_given: bool,
     e: layloft::modal::ModalError,
 ) -> Failure {
     use layloft::modal::{EigenError, ModalError};
     let speed_key =
-        if range_given { "--rpm".to_string() } else { format!("{}, rotor.rpm_max", p.file) };
+        if range_given { "--rpm".to_string() } else { format!("{}, rotor.rpm_max", sources.file) };
     let modes_key =
-        if modes_given { "--modes".to_string() } else { format!("{}, modal.modes", p.file) };
+        if modes_given { "--modes".to_string() } else { format!("{}, modal.modes", sources.file) };
     match &e {
         ModalError::Eigen { source: EigenError::NotPositiveDefinite { .. }, .. } => {
             Failure::Input(anyhow::anyhow!(

@@ -20,9 +20,10 @@ use layloft::report::{
 use super::project::{load_model, run_modal};
 use super::tooling::{build_and_write, tell};
 use super::{Failure, Outcome, Output};
+use layloft::input::Sources;
 use layloft::mesh::{StlFormat, StlOptions};
 use layloft::plybook::{PlyBook, PlyBookError, PlyBookParams, build_ply_book, plybook_files};
-use layloft::report::{ReportBlock, plybook_block, plybook_links};
+use layloft::report::{ReportBlock, plybook_block, plybook_error_text, plybook_links};
 use layloft::tooling::ToolingParams;
 use layloft::units::rpm_of;
 
@@ -90,6 +91,7 @@ fn json_text(v: &Value) -> Result<String, Failure> {
 /// files it wrote are added to `files`.
 fn tooling_block(
     model: &BladeModel,
+    sources: &Sources,
     dest: &Destination,
     out: &Output,
     files: &mut Vec<(String, String)>,
@@ -98,9 +100,9 @@ fn tooling_block(
     ensure_dir(&dest.meshes)?;
     let spec = p.tooling.clone().unwrap_or_default();
     let params = ToolingParams::from_spec(&spec)
-        .map_err(|e| Failure::Input(anyhow!("{}: {}", p.file, layloft::Error::from(e))))?;
+        .map_err(|e| Failure::Input(anyhow!("{}: {}", sources.file, layloft::Error::from(e))))?;
     let stl = StlOptions { unit: params.unit, format: StlFormat::Binary };
-    let tooling = build_and_write(p, &model.blade, &params, &stl, &dest.meshes, out)?;
+    let tooling = build_and_write(p, sources, &model.blade, &params, &stl, &dest.meshes, out)?;
     tell(&tooling, out);
     let tooling_report = tooling.report(&p.name);
     let mut block = tooling_report.to_block();
@@ -139,13 +141,14 @@ fn tooling_block(
 /// of the messages and the error reported first are those of one thread.
 pub fn write_report(
     model: &BladeModel,
+    sources: &Sources,
     dest: &Destination,
     out: &Output,
 ) -> Result<DesignCheck, Failure> {
     std::thread::scope(|s| {
         let book =
             s.spawn(|| build_ply_book(&model.blade, &model.project, &PlyBookParams::default()));
-        write_report_with(model, dest, out, move || {
+        write_report_with(model, sources, dest, out, move || {
             book.join().unwrap_or_else(|e| std::panic::resume_unwind(e))
         })
     })
@@ -153,6 +156,7 @@ pub fn write_report(
 
 fn write_report_with(
     model: &BladeModel,
+    sources: &Sources,
     dest: &Destination,
     out: &Output,
     ply_book: impl FnOnce() -> Result<PlyBook, PlyBookError>,
@@ -172,7 +176,7 @@ fn write_report_with(
         bar.finish();
         all
     };
-    let modal = run_modal(model, out, None, None)?;
+    let modal = run_modal(model, sources, out, None, None)?;
     let rpm_nominal = rpm_of(p.rotor.omega_nominal);
     let nominal = match modal.at_speed(rpm_nominal) {
         Some(set) => set.clone(),
@@ -257,13 +261,13 @@ fn write_report_with(
     // tooling cannot make yet (a trailing edge that changes kind along the span) gets the reason
     // in the tooling section and as a warning; the rest of the report stands.
     let block = match layloft::tooling::trailing_edge_kind(&model.blade) {
-        Ok(_) => tooling_block(model, dest, out, &mut files)?,
+        Ok(_) => tooling_block(model, sources, dest, out, &mut files)?,
         Err(e) => {
             let r = match &e {
                 layloft::mesh::MeshError::StationShape { r, .. } => *r,
                 _ => model.blade.root_radius(),
             };
-            let place = layloft::Error::at_station(p, r, e.into());
+            let place = layloft::Error::at_station(sources, r, e.into());
             let text = format!("no tooling was made: {place}");
             out.warn(&text);
             ReportBlock { warnings: vec![text], ..ReportBlock::default() }
@@ -271,21 +275,27 @@ fn write_report_with(
     };
 
     // The ply book: its files in a folder of the report's set.
-    let book = ply_book().map_err(super::plybook::failure)?;
+    let book = ply_book().map_err(|e| super::plybook::failure(e, sources))?;
     let laminate_kg = model.mass().laminate_kg;
-    for (path, bytes) in plybook_files(&book, Some(laminate_kg)).map_err(super::plybook::failure)? {
+    for (path, bytes) in plybook_files(&book, Some(laminate_kg), &sources.ply_lines)
+        .map_err(|e| super::plybook::failure(e, sources))?
+    {
         set.add(format!("plybook/{path}"), bytes);
     }
-    for w in
-        book.warnings.iter().map(String::clone).chain(book.failed.iter().map(|e| e.to_string()))
+    for w in book
+        .warnings
+        .iter()
+        .map(String::clone)
+        .chain(book.failed.iter().map(|e| plybook_error_text(e, sources)))
     {
         out.warn(&w);
     }
     files.extend(plybook_links(&book, "plybook"));
-    let plybook = Some(plybook_block(&book, Some(laminate_kg)));
+    let plybook = Some(plybook_block(&book, Some(laminate_kg), sources));
 
     let html = blade_report(&ReportInputs {
         model,
+        sources,
         stress: &stress,
         modal: Some(&modal),
         nominal_modes: Some(&nominal),
@@ -311,11 +321,12 @@ fn write_report_with(
 }
 
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
-    let model = load_model(&args.blade, out)?;
+    let (model, sources) = load_model(&args.blade, out)?;
     let meshes = args.meshes.clone().unwrap_or_else(|| args.out.join("meshes"));
-    let check = write_report(&model, &Destination { out: args.out.clone(), meshes }, out)?;
+    let check =
+        write_report(&model, &sources, &Destination { out: args.out.clone(), meshes }, out)?;
     // The verdict is the last line, on stdout, so that it is seen and a script can read it.
-    out.data(&super::verdict(&check, &model.project));
+    out.data(&super::verdict(&check, &sources));
     let passed = check.passed();
     Ok(if passed { Outcome::Success } else { Outcome::CheckFailed })
 }

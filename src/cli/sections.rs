@@ -10,7 +10,7 @@ use std::path::{Path, PathBuf};
 use anyhow::anyhow;
 
 use layloft::analysis::BladeModel;
-use layloft::input::read_project;
+use layloft::input::{Sources, read_project_sourced};
 use layloft::project::Project;
 use layloft::report::{
     SectionsReport, section_svg, section_svg_names, write_atomic, write_atomic_with,
@@ -62,6 +62,7 @@ pub struct Args {
 /// The checked request.
 struct Config {
     project: Project,
+    sources: Sources,
     radii: Option<Vec<f64>>,
 }
 
@@ -90,7 +91,7 @@ fn parse_radii(text: &str) -> Result<Vec<f64>, String> {
 fn configure(args: &Args) -> Result<Config, Failure> {
     let radii =
         args.at.as_deref().map(parse_radii).transpose().map_err(|e| Failure::Input(anyhow!(e)))?;
-    let project = read_project(&args.project).map_err(layloft::Error::from)?;
+    let (project, sources) = read_project_sourced(&args.project).map_err(layloft::Error::from)?;
     if let (Some(radii), Some(root), Some(tip)) =
         (&radii, project.stations.first(), project.stations.last())
     {
@@ -99,11 +100,11 @@ fn configure(args: &Args) -> Result<Config, Failure> {
             return Err(Failure::Input(anyhow!(
                 "--at: r = {r} m is outside the blade, which runs from r = {root} m to r = {tip} m \
                  (the first and last stations in {})",
-                project.files.stations
+                sources.files.stations
             )));
         }
     }
-    Ok(Config { project, radii })
+    Ok(Config { project, sources, radii })
 }
 
 /// Writes one drawing per station into `dir`, creating it; returns the number written.
@@ -120,13 +121,15 @@ fn write_drawings(model: &BladeModel, dir: &Path) -> Result<usize, Failure> {
 
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let config = configure(&args)?;
-    let project = config.project.clone();
+    let sources = config.sources;
     let model = match &config.radii {
         Some(radii) => BladeModel::build_at(config.project, radii),
         None => BladeModel::build(config.project),
     }
-    .map_err(|e| layloft::Error::placed(e, &project))?;
-    let report = SectionsReport::new(&model);
+    .map_err(|e| layloft::Error::placed(e, &sources))?;
+    let mut report = SectionsReport::new(&model);
+    // The input's warnings first, as the reader keeps them apart from the model.
+    report.warnings = model.warnings_with(&sources.warnings);
     if let Some(path) = &args.csv {
         let folder = path.parent().filter(|p| !p.as_os_str().is_empty()).unwrap_or(Path::new("."));
         if folder.exists() && !folder.is_dir() {

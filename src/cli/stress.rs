@@ -59,11 +59,11 @@ pub struct Args {
 }
 
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
-    let model = load_model(&args.blade, out)?;
+    let (model, sources) = load_model(&args.blade, out)?;
     if model.project.load_cases.is_empty() {
         return Err(Failure::Input(anyhow!(
             "{}: the project has no [[load_case]] tables: nothing to check",
-            model.project.file
+            sources.file
         )));
     }
     let cases = analyse_cases(&model, args.case.as_deref()).map_err(layloft::Error::from)?;

@@ -14,7 +14,7 @@ use anyhow::anyhow;
 
 use layloft::Error;
 use layloft::blade::Blade;
-use layloft::input::read_project;
+use layloft::input::{Sources, read_project_sourced};
 use layloft::mesh::{
     CheckParams, Mesh, MeshError, StlFormat, StlOptions, WrittenPart,
     encode_part_set_with_progress, sha256_hex,
@@ -77,6 +77,7 @@ pub struct Args {
 /// The checked request.
 struct Config {
     project: Project,
+    sources: Sources,
     blade: Blade,
     params: ToolingParams,
     stl: StlOptions,
@@ -88,12 +89,12 @@ fn input(e: impl Into<Error>) -> Failure {
 
 /// A mesh error is bad input when it is about the settings (named with the project file), else
 /// a failed computation.
-fn mesh_failure(project: &Project, e: MeshError) -> Failure {
-    let file = &project.file;
+fn mesh_failure(sources: &Sources, e: MeshError) -> Failure {
+    let file = &sources.file;
     match e {
         MeshError::Settings(text) => Failure::Input(anyhow!("{file}: {text}")),
         // A shape given at one station: named by that station's line of the stations file.
-        MeshError::StationShape { r, .. } => input(Error::at_station(project, r, Error::from(e))),
+        MeshError::StationShape { r, .. } => input(Error::at_station(sources, r, Error::from(e))),
         MeshError::Parameter { .. } | MeshError::Unit(_) => {
             Failure::Input(anyhow!("{file}: {}", Error::from(e)))
         }
@@ -102,16 +103,16 @@ fn mesh_failure(project: &Project, e: MeshError) -> Failure {
 }
 
 fn configure(args: &Args) -> Result<Config, Failure> {
-    let project = read_project(&args.project).map_err(input)?;
-    let blade = Blade::from_project(&project).map_err(input)?;
+    let (project, sources) = read_project_sourced(&args.project).map_err(input)?;
+    let blade = Blade::from_project(&project).map_err(|e| input(Error::in_files(e, &sources)))?;
     // Walls thicker than the section at a station are bad input, named by the plies file.
     for r in blade.station_radii() {
         blade
             .section_layout(r, project.sections.contour_points)
-            .map_err(|e| input(Error::at_station(&project, r, e.into())))?;
+            .map_err(|e| input(Error::at_station(&sources, r, e.into())))?;
     }
     let spec = project.tooling.clone().unwrap_or_default();
-    let mut params = ToolingParams::from_spec(&spec).map_err(|e| mesh_failure(&project, e))?;
+    let mut params = ToolingParams::from_spec(&spec).map_err(|e| mesh_failure(&sources, e))?;
     if let Some(text) = &args.tolerance_mm {
         match text.trim().parse::<f64>() {
             Ok(t) if t.is_finite() && t > 0.0 => {
@@ -138,7 +139,7 @@ fn configure(args: &Args) -> Result<Config, Failure> {
     }
     let format = if args.ascii { StlFormat::Ascii } else { StlFormat::Binary };
     let stl = StlOptions { unit: params.unit, format };
-    Ok(Config { project, blade, params, stl })
+    Ok(Config { project, sources, blade, params, stl })
 }
 
 /// The tooling of a blade, built, checked and written.
@@ -173,6 +174,7 @@ impl Written {
 /// into `dir`, with progress bars on a terminal.
 pub fn build_and_write(
     project: &Project,
+    sources: &Sources,
     blade: &Blade,
     params: &ToolingParams,
     stl: &StlOptions,
@@ -185,7 +187,7 @@ pub fn build_and_write(
         b.set_message(&format!("lofted {stage}"));
         b.inc(1);
     })
-    .map_err(|e| mesh_failure(project, e))?;
+    .map_err(|e| mesh_failure(sources, e))?;
     drop(bar);
     let mut parts: Vec<(&str, &Mesh)> =
         tooling.parts.iter().map(|p| (p.name.as_str(), &p.mesh)).collect();
@@ -324,6 +326,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let config = configure(&args)?;
     let result = build_and_write(
         &config.project,
+        &config.sources,
         &config.blade,
         &config.params,
         &config.stl,

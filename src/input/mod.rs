@@ -37,6 +37,7 @@ mod csv_table;
 mod location;
 mod materials;
 mod project_reader;
+mod sources;
 mod toml_table;
 
 pub use crate::text::{closest, excerpt};
@@ -46,5 +47,8 @@ pub use location::{
     InputError, Location, MAX_INPUT_BYTES, SourceText, project_path, read_bytes, read_text,
 };
 pub use materials::{read_materials, read_materials_str};
-pub use project_reader::{limits, read_project, tolerance_message, tolerance_range};
+pub use project_reader::{
+    limits, read_project, read_project_sourced, tolerance_message, tolerance_range,
+};
+pub use sources::{InputWarning, ProjectFiles, Sources};
 pub use toml_table::TableReader;

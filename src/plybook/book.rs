@@ -83,8 +83,6 @@ pub struct PatternEntry {
     pub ply: String,
     /// Lay-up order: the ply's position in the schedule, 1 = laid first (outer mould line).
     pub order: usize,
-    /// Line of the ply in the plies file.
-    pub line: usize,
     /// Material name.
     pub material: String,
     /// `upper`, `lower` or `web:NAME`.

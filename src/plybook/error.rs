@@ -1,16 +1,15 @@
-//! The ply book's own error: bad input named with the file, line, ply and key, a region the
-//! cloth cannot cover, a file that cannot be made.
+//! The ply book's own error: bad input named by the ply (its index in the schedule and its id)
+//! and key, a region the cloth cannot cover, a file that cannot be made. The command line names
+//! the plies file and the ply's line (`report::plybook_error_text`).
 
 /// What can go wrong when making the ply book.
 #[derive(Debug, Clone, thiserror::Error)]
 pub enum PlyBookError {
     /// A ply region with no area.
-    #[error("{file} line {line}, ply '{ply}': the region has no area ({key}: {found})")]
+    #[error("ply '{ply}' (row {} of the ply schedule): the region has no area ({key}: {found})", .ply_index + 1)]
     ZeroArea {
-        /// The plies file.
-        file: String,
-        /// Line of the ply.
-        line: usize,
+        /// Index of the ply in the schedule (outermost first).
+        ply_index: usize,
         /// The ply's id.
         ply: String,
         /// The keys at fault.
@@ -20,7 +19,7 @@ pub enum PlyBookError {
     },
     /// A pattern wider than its roll in every rotation allowed.
     #[error(
-        "ply '{ply}' ({pattern}): the pattern is {least_mm:.0} mm wide at its narrowest allowed turn, wider than the roll of '{material}' (roll_width_mm = {roll_mm:.0} in {file}); give a wider roll or split the ply"
+        "ply '{ply}' ({pattern}): the pattern is {least_mm:.0} mm wide at its narrowest allowed turn, wider than the roll of '{material}' (roll_width_mm = {roll_mm:.0}); give a wider roll or split the ply"
     )]
     RollTooNarrow {
         /// The ply's id.
@@ -29,8 +28,6 @@ pub enum PlyBookError {
         pattern: String,
         /// The material.
         material: String,
-        /// The materials file.
-        file: String,
         /// The pattern's least width, mm.
         least_mm: f64,
         /// The roll width, mm.
@@ -38,13 +35,12 @@ pub enum PlyBookError {
     },
     /// A region the net could not cover.
     #[error(
-        "{file} line {line}, ply '{ply}' ({pattern}): the cloth cannot be draped over the region: {what}"
+        "ply '{ply}' (row {} of the ply schedule) ({pattern}): the cloth cannot be draped over the region: {what}",
+        .ply_index + 1
     )]
     Drape {
-        /// The plies file.
-        file: String,
-        /// Line of the ply.
-        line: usize,
+        /// Index of the ply in the schedule (outermost first).
+        ply_index: usize,
         /// The ply's id.
         ply: String,
         /// The pattern.

@@ -26,14 +26,13 @@ pub fn build_ply_book(
     project: &Project,
     params: &PlyBookParams,
 ) -> Result<PlyBook, PlyBookError> {
-    let regions = ply_regions(blade, &project.files.plies, params)?;
+    let regions = ply_regions(blade, params)?;
     let mut patterns = Vec::with_capacity(regions.len());
     let mut warnings = Vec::new();
     let mut failed = Vec::new();
     let mut splices = Vec::new();
     let mut splice_lines: Vec<Splice> = Vec::new();
-    let file = &project.files.plies;
-    for (region, whole) in first_attempts(blade, regions, file) {
+    for (region, whole) in first_attempts(blade, regions) {
         let Some(p) = blade.ply(region.ply) else { continue };
         let Some(mat) = blade.ply_material(region.ply) else { continue };
         let cutting = project.materials.cutting(&p.material);
@@ -45,7 +44,7 @@ pub fn build_ply_book(
         let name = region_name(p, &region);
         let extent = (region.span, region.chord, region.surface_name.clone());
         let (pieces, missed) =
-            match drape_pieces(blade, region, whole, file, p, &name, params, &splice_lines, 0) {
+            match drape_pieces(blade, region, whole, p, &name, params, &splice_lines, 0) {
                 Ok(v) => v,
                 Err(e) => {
                     failed.push(e);
@@ -77,7 +76,6 @@ pub fn build_ply_book(
                 name,
                 ply: p.id.clone(),
                 order: region.ply + 1,
-                line: p.line,
                 material: p.material.clone(),
                 surface: region.surface_name.clone(),
                 angle_deg: p.angle.deg(),
@@ -184,7 +182,6 @@ fn nest_materials(
                 ply: p.ply.clone(),
                 pattern: p.name.clone(),
                 material: m.to_string(),
-                file: project.files.materials.clone(),
                 least_mm: e.least_width * 1e3,
                 roll_mm: cutting.roll_width * 1e3,
             }

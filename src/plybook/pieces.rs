@@ -45,15 +45,9 @@ const MAX_SPLITS: usize = 5;
 /// One attempt at draping and flattening a region: the flat pattern, or why it is not one to
 /// cut. A net that folds over itself, or a flat pattern whose area departs from the region's
 /// area on its surface, is not a pattern to cut.
-fn attempt(
-    region: &PlyRegion,
-    file: &str,
-    p: &PlySpec,
-    name: &str,
-) -> Result<FlatPattern, PlyBookError> {
+fn attempt(region: &PlyRegion, p: &PlySpec, name: &str) -> Result<FlatPattern, PlyBookError> {
     let err = |what: String| PlyBookError::Drape {
-        file: file.to_string(),
-        line: p.line,
+        ply_index: region.ply,
         ply: p.id.clone(),
         pattern: name.to_string(),
         what,
@@ -108,21 +102,19 @@ pub(super) fn drape_pieces<'a>(
     blade: &'a Blade,
     region: PlyRegion<'a>,
     whole: Option<Attempt>,
-    file: &str,
     p: &PlySpec,
     name: &str,
     params: &PlyBookParams,
     earlier: &[Splice],
     depth: usize,
 ) -> Result<(Pieces<'a>, Vec<usize>), PlyBookError> {
-    let whole = whole.unwrap_or_else(|| attempt(&region, file, p, name));
+    let whole = whole.unwrap_or_else(|| attempt(&region, p, name));
     if matches!(&whole, Ok(f) if f.cut_short.is_empty()) || depth >= MAX_SPLITS {
         return whole.map(|f| (vec![(region, f)], Vec::new()));
     }
     let mut pieces = Vec::new();
     let ([first, second], mut missed) = halves(blade, &region, params, earlier);
-    let drape_half =
-        |half| drape_pieces(blade, half, None, file, p, name, params, earlier, depth + 1);
+    let drape_half = |half| drape_pieces(blade, half, None, p, name, params, earlier, depth + 1);
     let results = std::thread::scope(|scope| {
         let other = scope.spawn(|| drape_half(first));
         let second = drape_half(second);
@@ -150,7 +142,6 @@ pub(super) fn drape_pieces<'a>(
 pub(super) fn first_attempts<'a>(
     blade: &'a Blade,
     regions: Vec<PlyRegion<'a>>,
-    file: &str,
 ) -> Vec<(PlyRegion<'a>, Option<Attempt>)> {
     let count = regions.len();
     let threads = crate::parallel::threads().clamp(1, THREADS);
@@ -164,7 +155,7 @@ pub(super) fn first_attempts<'a>(
             };
             let Some((k, region)) = next else { break };
             let tried = match (blade.ply(region.ply), blade.ply_material(region.ply)) {
-                (Some(p), Some(_)) => Some(attempt(&region, file, p, &region_name(p, &region))),
+                (Some(p), Some(_)) => Some(attempt(&region, p, &region_name(p, &region))),
                 _ => None,
             };
             done.push((k, region, tried));

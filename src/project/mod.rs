@@ -5,7 +5,10 @@
 //! [`PointMass`]), the load cases ([`LoadCaseSpec`]) and the settings of each stage
 //! ([`Criteria`], [`ModalSpec`], [`ToolingSpec`], ...). The records are filled and checked by
 //! the reader in [`crate::input`] (`read_project`), which is the only place that knows the file
-//! formats; the stages downstream read the records and never the files.
+//! formats; the stages downstream read the records and never the files. The records hold no
+//! file positions: where each station and ply was written, and the input's warnings, are kept
+//! by the reader apart ([`crate::input::Sources`]), for the command line to name the file and
+//! line of an error raised here by index or radius.
 //!
 //! Radii `r` are measured from the rotor axis along the pitch axis. The blade runs from the first
 //! station (the structural root, where the beam is clamped) to the last.
@@ -19,8 +22,6 @@ mod outline;
 mod rotor;
 mod schedule;
 mod settings;
-
-use std::path::PathBuf;
 
 use crate::material::MaterialLibrary;
 
@@ -38,12 +39,6 @@ pub use settings::{
 pub struct Project {
     /// Name of the project.
     pub name: String,
-    /// Folder of `blade.toml`; the files it names are relative to it.
-    pub dir: PathBuf,
-    /// Display name of `blade.toml` for messages.
-    pub file: String,
-    /// Display names of the files the project names, for messages.
-    pub files: ProjectFiles,
     /// Rotor data.
     pub rotor: Rotor,
     /// Stations, root to tip, strictly increasing in `r`.
@@ -74,18 +69,4 @@ pub struct Project {
     pub buckling: BucklingSpec,
     /// The materials file.
     pub materials: MaterialLibrary,
-    /// Values that are legal but unusual, each naming its file and key or line: printed with
-    /// the other warnings and repeated with the design check's verdict.
-    pub input_warnings: Vec<String>,
-}
-
-/// Display names (paths as joined to the project folder) of a project's files.
-#[derive(Debug, Clone, PartialEq, Default)]
-pub struct ProjectFiles {
-    /// The stations file.
-    pub stations: String,
-    /// The plies file.
-    pub plies: String,
-    /// The materials file.
-    pub materials: String,
 }

@@ -43,6 +43,4 @@ pub struct Station {
     pub pitch_axis_frac: f64,
     /// The airfoil.
     pub airfoil: AirfoilSpec,
-    /// Line in `stations.csv`, for messages.
-    pub line: usize,
 }

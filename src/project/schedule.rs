@@ -35,8 +35,6 @@ pub struct PlySpec {
     pub from: f64,
     /// Chord fraction from the leading edge where the ply ends (surface plies).
     pub to: f64,
-    /// Line in `plies.csv`, for messages.
-    pub line: usize,
 }
 
 /// A shear web (`[[web]]`), normal to the chord.

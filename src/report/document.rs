@@ -11,6 +11,7 @@ use super::{
 };
 use crate::analysis::BladeModel;
 use crate::check::DesignCheck;
+use crate::input::Sources;
 use crate::modal::{ModalAnalysis, ModeSet};
 use crate::stress::CaseStress;
 use crate::units::{pct_of, rpm_of};
@@ -44,6 +45,9 @@ pub struct ReportBlock {
 pub struct ReportInputs<'a> {
     /// The blade model.
     pub model: &'a BladeModel,
+    /// Where the project was written (the project file named in the report) and its input
+    /// warnings.
+    pub sources: &'a Sources,
     /// Stress results of every load case.
     pub stress: &'a [CaseStress],
     /// The modal analysis.
@@ -81,12 +85,12 @@ pub fn blade_report(inp: &ReportInputs<'_>) -> String {
     if let Some(d) = &inp.date {
         doc.date(d.clone());
     }
-    doc.meta("project file", p.file.clone());
+    doc.meta("project file", inp.sources.file.clone());
     doc.design_check(inp.check);
-    doc.verdict_warnings(p.input_warnings.iter().cloned());
+    doc.verdict_warnings(inp.sources.warnings.iter().map(ToString::to_string));
 
     blade_section(&mut doc, m);
-    sections_section(&mut doc, m, &inp.section_drawings);
+    sections_section(&mut doc, m, inp.sources, &inp.section_drawings);
     strength_section(&mut doc, m, inp.stress);
     if let Some(modal) = inp.modal {
         vibration_section(&mut doc, m, modal, inp.nominal_modes);
@@ -184,7 +188,12 @@ fn blade_section(doc: &mut HtmlReport, m: &BladeModel) {
     s.figure("twist", "Station twist along the span.", twist_svg(m));
 }
 
-fn sections_section(doc: &mut HtmlReport, m: &BladeModel, drawings: &[SectionDrawing]) {
+fn sections_section(
+    doc: &mut HtmlReport,
+    m: &BladeModel,
+    sources: &Sources,
+    drawings: &[SectionDrawing],
+) {
     let s = doc.section("Section properties");
     s.paragraph(if m.project.sections.wall_bending {
         "Thin-walled section theory on the wall midline, each wall laminate reduced for a beam wall \
@@ -239,7 +248,7 @@ fn sections_section(doc: &mut HtmlReport, m: &BladeModel, drawings: &[SectionDra
             d.svg.clone(),
         );
     }
-    for w in m.warnings() {
+    for w in m.warnings_with(&sources.warnings) {
         s.warning(w.to_string());
     }
 }

@@ -55,7 +55,7 @@ pub use modes::{
     campbell_csv, campbell_svg, kind_colour, modal_analysis_json, modal_json, modal_text,
     mode_shapes_csv, model_statement,
 };
-pub use plybook::{plybook_block, plybook_links};
+pub use plybook::{plybook_block, plybook_error_text, plybook_links};
 pub use sections::{SectionsReport, laminate_label};
 pub use sections::{section_svg, section_svg_names, section_svg_screen};
 pub use stress::{

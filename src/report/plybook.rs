@@ -5,10 +5,36 @@
 
 use super::document::ReportBlock;
 use super::table::{Align, Table, fixed, sig4};
-use crate::plybook::{PlyBook, nesting_svg};
+use crate::input::Sources;
+use crate::plybook::{PlyBook, PlyBookError, nesting_svg};
 
-/// The ply book as a report block; `laminate_kg` is the laminate mass from the sections.
-pub fn plybook_block(book: &PlyBook, laminate_kg: Option<f64>) -> ReportBlock {
+/// A ply book error in the words of the project's files: the plies file and the ply's line, or
+/// the materials file that gives a roll's width (`sources` from the reader).
+pub fn plybook_error_text(e: &PlyBookError, sources: &Sources) -> String {
+    let plies = &sources.files.plies;
+    match e {
+        PlyBookError::ZeroArea { ply_index, ply, key, found } => format!(
+            "{plies} line {}, ply '{ply}': the region has no area ({key}: {found})",
+            sources.ply_line(*ply_index)
+        ),
+        PlyBookError::Drape { ply_index, ply, pattern, what } => format!(
+            "{plies} line {}, ply '{ply}' ({pattern}): the cloth cannot be draped over the \
+             region: {what}",
+            sources.ply_line(*ply_index)
+        ),
+        PlyBookError::RollTooNarrow { ply, pattern, material, least_mm, roll_mm } => format!(
+            "ply '{ply}' ({pattern}): the pattern is {least_mm:.0} mm wide at its narrowest \
+             allowed turn, wider than the roll of '{material}' (roll_width_mm = {roll_mm:.0} in \
+             {}); give a wider roll or split the ply",
+            sources.files.materials
+        ),
+        other => other.to_string(),
+    }
+}
+
+/// The ply book as a report block; `laminate_kg` is the laminate mass from the sections;
+/// `sources` place the regions that could not be draped in the plies file.
+pub fn plybook_block(book: &PlyBook, laminate_kg: Option<f64>, sources: &Sources) -> ReportBlock {
     let mut block = ReportBlock::default();
     block.paragraphs.push(
         "Every ply region draped over its own level of the mould by a pin-jointed net \
@@ -113,7 +139,7 @@ pub fn plybook_block(book: &PlyBook, laminate_kg: Option<f64>) -> ReportBlock {
             .push(format!("Cost of the patterns: {} (unit of cost_per_kg).", fixed(c, 2)));
     }
     block.warnings.extend(book.warnings.iter().cloned());
-    block.warnings.extend(book.failed.iter().map(|e| e.to_string()));
+    block.warnings.extend(book.failed.iter().map(|e| plybook_error_text(e, sources)));
     block.notes.push(
         "A woven or stitched fabric shearing past its locking angle (locking_angle_deg, 40° by default) will wrinkle there: split the ply or add darts. A draped net is a model of the cloth, not the cloth: confirm by a trial lay-up."
             .into(),

@@ -6,6 +6,7 @@ use std::fmt;
 
 use crate::analysis::{GroupedWarning, Warning};
 use crate::blade::BladeWarning;
+use crate::input::InputWarning;
 use crate::section::SectionWarning;
 use crate::units::rpm_of;
 
@@ -58,10 +59,46 @@ impl fmt::Display for BladeWarning {
     }
 }
 
+impl fmt::Display for InputWarning {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            InputWarning::FarFromHub { place, r_root, hub_radius } => write!(
+                f,
+                "{place}: the first station (r = {r_root} m) lies {:.3} m outboard of \
+                 hub_radius_m = {hub_radius}, more than half the blade's length: a long root \
+                 spindle, or a hub radius in the wrong unit?",
+                r_root - hub_radius
+            ),
+            InputWarning::LowLoadFactor { place, case, factor } => write!(
+                f,
+                "{place}: load case '{case}' has a load factor of {factor} below 1: the case is \
+                 checked at less than its load"
+            ),
+            InputWarning::HighLoadFactor { place, case, factor } => write!(
+                f,
+                "{place}: load case '{case}' has a load factor of {factor}, above the 1.35 to 2 \
+                 of design codes"
+            ),
+            InputWarning::FallingTemperature { place, key, value_c, before_key, before_c } => {
+                write!(
+                    f,
+                    "{place}: {key} = {value_c} °C lies below {before_key} = {before_c} °C: \
+                     expected injection, gel and cure at rising temperatures"
+                )
+            }
+            InputWarning::ReserveBelowOne { file, min_reserve_factor } => write!(
+                f,
+                "{file}: criteria.min_reserve_factor = {min_reserve_factor} accepts a failure \
+                 index above 1 (a reserve factor below 1 means the factored load breaks a ply)"
+            ),
+        }
+    }
+}
+
 impl fmt::Display for Warning {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
-            Warning::Input(text) => write!(f, "{text}"),
+            Warning::Input(w) => write!(f, "{w}"),
             Warning::Blade(w) => write!(f, "{w}"),
             Warning::Overspeed { case, omega, omega_max } => write!(
                 f,

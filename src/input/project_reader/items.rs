@@ -124,9 +124,8 @@ pub(super) fn check_case(
     case: &LoadCaseSpec,
     rotor: &Rotor,
     range_given: bool,
-    warnings: &mut Vec<String>,
+    warnings: &mut Vec<InputWarning>,
 ) -> Result<(), InputError> {
-    let place = |key: &str| t.location_of(key).to_string();
     if let Some(p) = case.pitch {
         // Degrees back from radians, rounded to what was typed.
         let typed = |x: f64| (x * 1e9).round() / 1e9;
@@ -164,20 +163,17 @@ pub(super) fn check_case(
         ));
     }
     if case.load_factor < 1.0 {
-        warnings.push(format!(
-            "{}: load case '{}' has a load factor of {} below 1: the case is checked at less than \
-             its load",
-            place("load_factor"),
-            case.name,
-            case.load_factor
-        ));
+        warnings.push(InputWarning::LowLoadFactor {
+            place: t.location_of("load_factor"),
+            case: case.name.clone(),
+            factor: case.load_factor,
+        });
     } else if case.load_factor > 3.0 {
-        warnings.push(format!(
-            "{}: load case '{}' has a load factor of {}, above the 1.35 to 2 of design codes",
-            place("load_factor"),
-            case.name,
-            case.load_factor
-        ));
+        warnings.push(InputWarning::HighLoadFactor {
+            place: t.location_of("load_factor"),
+            case: case.name.clone(),
+            factor: case.load_factor,
+        });
     }
     if case.delta_t.abs() > MAX_DELTA_T_K {
         return Err(t.error(

@@ -50,6 +50,7 @@ mod tooling;
 use std::path::Path;
 
 use super::location::{InputError, Location, SourceText};
+use super::sources::{InputWarning, ProjectFiles, Sources};
 use super::toml_table::{Scalar, TableReader};
 use crate::material::Material;
 use crate::project::*;
@@ -70,7 +71,14 @@ use tooling::*;
 pub use tooling::{tolerance_message, tolerance_range};
 
 /// Reads a blade project from its `blade.toml`, given as the file or as the folder that holds it.
+/// The project's positions in its files are dropped: [`read_project_sourced`] keeps them.
 pub fn read_project(path: &Path) -> Result<Project, InputError> {
+    read_project_sourced(path).map(|(project, _)| project)
+}
+
+/// Reads a blade project as [`read_project`] does, with where each part of it was written and
+/// its input warnings ([`Sources`]), for naming the file and line of a later error.
+pub fn read_project_sourced(path: &Path) -> Result<(Project, Sources), InputError> {
     let joined;
     let path = if path.is_dir() {
         joined = path.join("blade.toml");
@@ -148,7 +156,8 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
     let materials_path = dir.join(&materials_file);
     let materials = super::materials::read_materials(&materials_path)
         .map_err(|e| named_by(&file_places[2], e))?;
-    let stations = read_stations(&dir, &stations_file).map_err(|e| named_by(&file_places[0], e))?;
+    let (stations, station_lines) =
+        read_stations(&dir, &stations_file).map_err(|e| named_by(&file_places[0], e))?;
     let (r_root, r_tip) = (stations[0].r, stations[stations.len() - 1].r);
     check_rotor_against_stations(&places, &rotor, r_root, r_tip, &mut warnings)?;
     // The tip speed at the greatest speed, once the tip radius is known to fit the stations: a
@@ -195,7 +204,7 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
     }
     webs.sort_by(|a, b| a.chord_frac.total_cmp(&b.chord_frac));
 
-    let plies = read_plies(&dir, &plies_file, &materials, &webs, r_root, r_tip)
+    let (plies, ply_lines) = read_plies(&dir, &plies_file, &materials, &webs, r_root, r_tip)
         .map_err(|e| named_by(&file_places[1], e))?;
     let chords = stations.iter().map(|s| s.chord);
     let (c_min, c_max) = chords.fold((f64::INFINITY, 0.0_f64), |(a, b), c| (a.min(c), b.max(c)));
@@ -267,18 +276,16 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
         materials: shown(&materials_file),
     };
     if let Some(min_rf) = criteria.min_reserve_factor.filter(|&v| v < 1.0) {
-        warnings.push(format!(
-            "{}: criteria.min_reserve_factor = {min_rf} accepts a failure index above 1 (a reserve \
-             factor below 1 means the factored load breaks a ply)",
-            display
-        ));
+        warnings.push(InputWarning::ReserveBelowOne {
+            file: display.clone(),
+            min_reserve_factor: min_rf,
+        });
     }
-    Ok(Project {
+    let station_radii = stations.iter().map(|s| s.r).collect();
+    let sources =
+        Sources { dir, file: display, files, station_lines, station_radii, ply_lines, warnings };
+    let project = Project {
         name,
-        input_warnings: warnings,
-        file: display,
-        files,
-        dir,
         rotor,
         stations,
         plies,
@@ -293,7 +300,8 @@ pub fn read_project(path: &Path) -> Result<Project, InputError> {
         sections,
         buckling,
         materials,
-    })
+    };
+    Ok((project, sources))
 }
 
 /// Where the rotor's radii and greatest speed are given: `hub_radius_m`, `tip_radius_m`,

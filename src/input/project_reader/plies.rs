@@ -16,7 +16,8 @@ const R_EPS: f64 = 1e-9;
 /// Most plies in a schedule: a large blade's schedule holds some thousands of plies.
 const MAX_PLIES: usize = 10_000;
 
-/// `plies.csv`: `ply, material, angle_deg, r_start_m, r_end_m, region, from, to`.
+/// `plies.csv`: `ply, material, angle_deg, r_start_m, r_end_m, region, from, to`; the plies with
+/// the line of each in the file.
 pub(super) fn read_plies(
     dir: &Path,
     file: &str,
@@ -24,7 +25,7 @@ pub(super) fn read_plies(
     webs: &[WebSpec],
     r_root: f64,
     r_tip: f64,
-) -> Result<Vec<PlySpec>, InputError> {
+) -> Result<(Vec<PlySpec>, Vec<usize>), InputError> {
     let path = dir.join(file);
     let display = path.display().to_string();
     let table = CsvTable::read(&path, &display)?;
@@ -49,16 +50,17 @@ pub(super) fn read_plies(
         ));
     }
     let mut plies: Vec<PlySpec> = Vec::with_capacity(table.len());
+    let mut lines: Vec<usize> = Vec::with_capacity(table.len());
     for rec in table.records() {
         let id = rec.required_text("ply")?.to_string();
-        if let Some(earlier) = plies.iter().find(|p| p.id == id) {
+        if let Some(earlier) = plies.iter().position(|p| p.id == id) {
             return Err(rec.error(
                 "ply",
                 format!(
                     "ply '{}' is listed twice (first on line {}): expected each ply once, with \
                      its own id (a row pasted twice doubles the ply)",
                     crate::text::excerpt(&id),
-                    earlier.line
+                    lines[earlier]
                 ),
             ));
         }
@@ -155,10 +157,10 @@ pub(super) fn read_plies(
             region,
             from,
             to,
-            line: rec.line,
         });
+        lines.push(rec.line);
     }
-    Ok(plies)
+    Ok((plies, lines))
 }
 
 /// A distributed load file: `r_m, f_flap_N_m, f_edge_N_m, m_pitch_Nm_m`.

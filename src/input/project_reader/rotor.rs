@@ -129,7 +129,7 @@ pub(super) fn check_rotor_against_stations(
     rotor: &Rotor,
     r_root: f64,
     r_tip: f64,
-    warnings: &mut Vec<String>,
+    warnings: &mut Vec<InputWarning>,
 ) -> Result<(), InputError> {
     let eps = 1e-9;
     let length = r_tip - r_root;
@@ -147,14 +147,11 @@ pub(super) fn check_rotor_against_stations(
         ));
     }
     if r_root - rotor.hub_radius > 0.5 * length {
-        warnings.push(format!(
-            "{}: the first station (r = {r_root} m) lies {:.3} m outboard of hub_radius_m = {}, \
-             more than half the blade's length: a long root spindle, or a hub radius in the wrong \
-             unit?",
-            places[0].clone(),
-            r_root - rotor.hub_radius,
-            rotor.hub_radius
-        ));
+        warnings.push(InputWarning::FarFromHub {
+            place: places[0].clone(),
+            r_root,
+            hub_radius: rotor.hub_radius,
+        });
     }
     if r_root < rotor.hub_radius - eps {
         return Err(InputError::at(

@@ -8,8 +8,12 @@ use crate::input::location::{InputError, Location};
 use crate::project::*;
 use crate::units::Angle;
 
-/// `stations.csv`: `r_m, chord_m, twist_deg, pitch_axis_frac, airfoil`.
-pub(super) fn read_stations(dir: &Path, file: &str) -> Result<Vec<Station>, InputError> {
+/// `stations.csv`: `r_m, chord_m, twist_deg, pitch_axis_frac, airfoil`; the stations with the
+/// line of each in the file.
+pub(super) fn read_stations(
+    dir: &Path,
+    file: &str,
+) -> Result<(Vec<Station>, Vec<usize>), InputError> {
     let path = dir.join(file);
     let display = path.display().to_string();
     let table = CsvTable::read(&path, &display)?;
@@ -31,15 +35,16 @@ pub(super) fn read_stations(dir: &Path, file: &str) -> Result<Vec<Station>, Inpu
         ));
     }
     let mut stations: Vec<Station> = Vec::with_capacity(table.len());
+    let mut lines: Vec<usize> = Vec::with_capacity(table.len());
     for rec in table.records() {
         let r = rec.number("r_m")?;
-        if let Some(prev) = stations.last() {
+        if let (Some(prev), Some(prev_line)) = (stations.last(), lines.last()) {
             if r <= prev.r {
                 return Err(rec.error(
                     "r_m",
                     format!(
                         "radii must increase from root to tip: found {r} after {} (line {})",
-                        prev.r, prev.line
+                        prev.r, prev_line
                     ),
                 ));
             }
@@ -81,14 +86,14 @@ pub(super) fn read_stations(dir: &Path, file: &str) -> Result<Vec<Station>, Inpu
             twist: Angle::from_deg(twist),
             pitch_axis_frac: pa,
             airfoil,
-            line: rec.line,
         });
+        lines.push(rec.line);
     }
     let tip = stations.last().map(|s| s.r).unwrap_or(0.0);
-    check_station_spacing(&stations, &display)?;
-    if let Some(s) = stations.iter().find(|s| s.chord > tip) {
+    check_station_spacing(&stations, &lines, &display)?;
+    if let Some((s, &line)) = stations.iter().zip(&lines).find(|(s, _)| s.chord > tip) {
         return Err(InputError::at(
-            Location::line(display.clone(), s.line).with_field("chord_m"),
+            Location::line(display.clone(), line).with_field("chord_m"),
             format!(
                 "a chord of {} m is longer than the blade (tip radius {tip} m): the chords look like millimetres while the radii are in metres; give both in metres ({} m?)",
                 s.chord,
@@ -96,7 +101,7 @@ pub(super) fn read_stations(dir: &Path, file: &str) -> Result<Vec<Station>, Inpu
             ),
         ));
     }
-    Ok(stations)
+    Ok((stations, lines))
 }
 
 /// Most stations: a blade is described by some tens of stations; the analysis stations are set
@@ -113,7 +118,11 @@ const MIN_STATION_GAP: f64 = 1e-4;
 const MAX_EDGE_SLOPE: f64 = 1.5;
 
 /// Adjacent stations: far enough apart for the change of shape between them.
-fn check_station_spacing(stations: &[Station], display: &str) -> Result<(), InputError> {
+fn check_station_spacing(
+    stations: &[Station],
+    lines: &[usize],
+    display: &str,
+) -> Result<(), InputError> {
     let (Some(first), Some(last)) = (stations.first(), stations.last()) else { return Ok(()) };
     let length = last.r - first.r;
     // Leading and trailing edges in the plane normal to the span, pitch axis at the origin.
@@ -123,17 +132,18 @@ fn check_station_spacing(stations: &[Station], display: &str) -> Result<(), Inpu
         let te = (1.0 - s.pitch_axis_frac) * s.chord;
         [[le * cos, le * sin], [te * cos, te * sin]]
     };
-    for pair in stations.windows(2) {
+    for (pair, pair_lines) in stations.windows(2).zip(lines.windows(2)) {
         let (a, b) = (&pair[0], &pair[1]);
+        let (a_line, b_line) = (pair_lines[0], pair_lines[1]);
         let dr = b.r - a.r;
         let at =
-            |msg: String| InputError::at(Location::line(display, b.line).with_field("r_m"), msg);
+            |msg: String| InputError::at(Location::line(display, b_line).with_field("r_m"), msg);
         if dr < MIN_STATION_GAP * length {
             return Err(at(format!(
                 "station at r = {} m lies {dr:.3e} m from the one before (line {}): expected \
                  stations at least {:.3e} m apart (1/{:.0} of the blade's length)",
                 b.r,
-                a.line,
+                a_line,
                 MIN_STATION_GAP * length,
                 1.0 / MIN_STATION_GAP
             )));
@@ -149,7 +159,7 @@ fn check_station_spacing(stations: &[Station], display: &str) -> Result<(), Inpu
                  axis): expected at most {MAX_EDGE_SLOPE} times the distance, stations at least \
                  {:.1} mm apart, or a smaller change",
                 a.r,
-                a.line,
+                a_line,
                 b.r,
                 dr * 1e3,
                 moved * 1e3,

@@ -150,7 +150,7 @@ pub(super) fn check_tooling(
     blade_length: f64,
     c_min: f64,
     c_max: f64,
-    warnings: &mut Vec<String>,
+    warnings: &mut Vec<InputWarning>,
 ) -> Result<(), InputError> {
     let (lo, hi) = tolerance_range(blade_length, c_min);
     if spec.tolerance < lo || spec.tolerance > hi {
@@ -207,15 +207,13 @@ pub(super) fn check_tooling(
     let given: Vec<(&str, f64)> = temps.iter().filter_map(|(k, v)| v.map(|v| (*k, v))).collect();
     for pair in given.windows(2) {
         if pair[1].1 < pair[0].1 {
-            warnings.push(format!(
-                "{}: {} = {} °C lies below {} = {} °C: expected injection, gel and cure at rising \
-                 temperatures",
-                t.location_of(pair[1].0),
-                pair[1].0,
-                pair[1].1,
-                pair[0].0,
-                pair[0].1
-            ));
+            warnings.push(InputWarning::FallingTemperature {
+                place: t.location_of(pair[1].0),
+                key: pair[1].0.to_string(),
+                value_c: pair[1].1,
+                before_key: pair[0].0.to_string(),
+                before_c: pair[0].1,
+            });
         }
     }
     Ok(())

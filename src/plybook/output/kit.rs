@@ -58,8 +58,13 @@ fn csv_cell(s: &str) -> String {
     }
 }
 
-/// The ply book as one JSON value (SI units in every key).
-pub fn plybook_json(book: &PlyBook, laminate_mass_kg: Option<f64>) -> serde_json::Value {
+/// The ply book as one JSON value (SI units in every key); `ply_lines` are the lines of the
+/// plies in the plies file by index (`line` of each pattern: 0 where not given).
+pub fn plybook_json(
+    book: &PlyBook,
+    laminate_mass_kg: Option<f64>,
+    ply_lines: &[usize],
+) -> serde_json::Value {
     let patterns: Vec<_> = book
         .patterns
         .iter()
@@ -68,7 +73,7 @@ pub fn plybook_json(book: &PlyBook, laminate_mass_kg: Option<f64>) -> serde_json
                 "name": e.name,
                 "ply": e.ply,
                 "order": e.order,
-                "line": e.line,
+                "line": ply_lines.get(e.order.wrapping_sub(1)).copied().unwrap_or(0),
                 "surface": e.surface,
                 "material": e.material,
                 "kind": e.kind.key(),

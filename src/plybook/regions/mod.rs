@@ -102,20 +102,13 @@ impl PlyRegion<'_> {
     }
 }
 
-fn zero_area(file: &str, p: &PlySpec, key: &str, found: String) -> PlyBookError {
-    PlyBookError::ZeroArea {
-        file: file.to_string(),
-        line: p.line,
-        ply: p.id.clone(),
-        key: key.to_string(),
-        found,
-    }
+fn zero_area(k: usize, p: &PlySpec, key: &str, found: String) -> PlyBookError {
+    PlyBookError::ZeroArea { ply_index: k, ply: p.id.clone(), key: key.to_string(), found }
 }
 
 /// The ply regions of the blade in lay-up order (see the module docs).
 pub fn ply_regions<'a>(
     blade: &'a Blade,
-    plies_file: &str,
     params: &PlyBookParams,
 ) -> Result<Vec<PlyRegion<'a>>, PlyBookError> {
     let (root, tip) = (blade.root_radius(), blade.tip_radius());
@@ -125,7 +118,7 @@ pub fn ply_regions<'a>(
         let span = [p.r_start.max(root), p.r_end.min(tip)];
         if !(span[1] - span[0] > 1e-6) {
             return Err(zero_area(
-                plies_file,
+                k,
                 p,
                 "r_start_m, r_end_m",
                 format!("{}..{} m within the blade's {root}..{tip} m", p.r_start, p.r_end),
@@ -143,7 +136,7 @@ pub fn ply_regions<'a>(
             let span = [span[0].max(ws[0]), span[1].min(ws[1])];
             if !(span[1] - span[0] > 1e-6) {
                 return Err(zero_area(
-                    plies_file,
+                    k,
                     p,
                     "r_start_m, r_end_m",
                     format!("{}..{} m outside web '{name}'", p.r_start, p.r_end),
@@ -153,7 +146,7 @@ pub fn ply_regions<'a>(
             continue;
         }
         if !(p.to - p.from > 1e-6) {
-            return Err(zero_area(plies_file, p, "from, to", format!("{}..{}", p.from, p.to)));
+            return Err(zero_area(k, p, "from, to", format!("{}..{}", p.from, p.to)));
         }
         for side in sides {
             out.push(skin_region(blade, k, side, span, [p.from, p.to], params));

@@ -10,7 +10,11 @@ use crate::check::{Bound, DesignCheck, Status};
 /// (`null` when not computed or infinite), unit, place and pass, the limit and value again
 /// under keys that carry their unit, what the analysis does not cover and the cautions; the
 /// project's input warnings when there are any.
-pub fn check_json(project: &str, check: &DesignCheck, input_warnings: &[String]) -> Value {
+pub fn check_json(
+    project: &str,
+    check: &DesignCheck,
+    input_warnings: &[impl std::fmt::Display],
+) -> Value {
     let rows: Vec<Value> = check
         .rows
         .iter()
@@ -41,7 +45,8 @@ pub fn check_json(project: &str, check: &DesignCheck, input_warnings: &[String])
     });
     // Only when there are any, so that the output of a project without them is unchanged.
     if !input_warnings.is_empty() {
-        doc["input_warnings"] = json!(input_warnings);
+        let words: Vec<String> = input_warnings.iter().map(ToString::to_string).collect();
+        doc["input_warnings"] = json!(words);
     }
     doc
 }

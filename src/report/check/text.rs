@@ -8,7 +8,11 @@ use crate::report::{Align, Table, cautions_text, not_covered_text};
 
 /// The table of `layloft check`: the cautions, one row per criterion (demand, value found,
 /// verdict, where), what the analysis does not cover, and the verdict as the last line.
-pub fn check_text(project: &str, check: &DesignCheck, input_warnings: &[String]) -> String {
+pub fn check_text(
+    project: &str,
+    check: &DesignCheck,
+    input_warnings: &[impl std::fmt::Display],
+) -> String {
     let mut out = String::new();
     let _ = writeln!(out, "layloft check — {project}");
     out.push_str(&cautions_text());

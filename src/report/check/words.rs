@@ -85,10 +85,12 @@ pub fn verdict_line(check: &DesignCheck) -> String {
 
 /// The verdict line of a design check, last on stdout: with the project's input warnings
 /// repeated after it, so that a value that is legal but unusual is seen with the verdict it
-/// led to.
-pub fn verdict_text(check: &DesignCheck, input_warnings: &[String]) -> String {
+/// led to. The warnings are the reader's typed ones (`input::InputWarning`, worded in
+/// `report::warnings`) or sentences.
+pub fn verdict_text(check: &DesignCheck, input_warnings: &[impl std::fmt::Display]) -> String {
     let line = format!("Design check: {}", verdict_line(check));
-    match input_warnings {
+    let warnings: Vec<String> = input_warnings.iter().map(ToString::to_string).collect();
+    match warnings.as_slice() {
         [] => line,
         warnings => format!(
             "{line}, with {} input warning{} (unusual values, check them):\n  ! {}",
