@@ -32,14 +32,17 @@ const SQUARE_BOUND: f64 = 2.000_001;
 const SQUARE_FLOOR: f64 = 0.999_999;
 
 /// A triangle with what the tests reuse: corners, vertex indices, area vector, the squared
-/// product of its two edge lengths from corner 0, and the distance of corner 0 from the origin
+/// product of its two edge lengths from corner 0 times the tolerance squared (alone and times
+/// each bound, as [`Facet::side`] multiplies them), and the distance of corner 0 from the origin
 /// (and its square).
 #[derive(Debug, Clone, Copy)]
 pub(crate) struct Facet {
     pub v: [u32; 3],
     pub p: [P3; 3],
     n: P3,
-    uv2: f64,
+    tol2: f64,
+    tol2_bound: f64,
+    tol2_floor: f64,
     reach: f64,
     reach2: f64,
 }
@@ -49,11 +52,15 @@ impl Facet {
         let p = mesh.corners(t);
         let (u, v) = (vec3::sub(p[1], p[0]), vec3::sub(p[2], p[0]));
         let reach2 = vec3::dot(p[0], p[0]);
+        let uv2 = vec3::dot(u, u) * vec3::dot(v, v);
+        let tol2 = COPLANAR * COPLANAR * uv2;
         Facet {
             v: mesh.triangles[t],
             p,
             n: vec3::cross(u, v),
-            uv2: vec3::dot(u, u) * vec3::dot(v, v),
+            tol2,
+            tol2_bound: tol2 * SQUARE_BOUND,
+            tol2_floor: tol2 * SQUARE_FLOOR,
             reach: reach2.sqrt(),
             reach2,
         }
@@ -76,15 +83,16 @@ impl Facet {
         let w = vec3::sub(q, self.p[0]);
         let det = vec3::dot(self.n, w);
         let ww = vec3::dot(w, w);
-        let tol2 = COPLANAR * COPLANAR * self.uv2;
-        if det * det > tol2 * SQUARE_BOUND * (ww + self.reach2) {
+        // The products in the order the band's inequality is written, so that each decides
+        // alike to the bit: `tol2 · bound · (ww + reach²)`.
+        if det * det > self.tol2_bound * (ww + self.reach2) {
             return det;
         }
-        if det * det <= tol2 * SQUARE_FLOOR * (ww + self.reach2) {
+        if det * det <= self.tol2_floor * (ww + self.reach2) {
             return 0.0;
         }
         let band = ww.sqrt() + self.reach;
-        if det * det <= COPLANAR * COPLANAR * self.uv2 * band * band { 0.0 } else { det }
+        if det * det <= self.tol2 * band * band { 0.0 } else { det }
     }
 
     /// The two axes to keep when projecting the facet's plane: the dominant normal component
@@ -290,11 +298,17 @@ mod tests {
         if det.abs() <= COPLANAR * scale { 0.0 } else { det }
     }
 
+    /// The squared product of the facet's two edge lengths from corner 0.
+    fn uv2(f: &Facet) -> f64 {
+        let (u, v) = (vec3::sub(f.p[1], f.p[0]), vec3::sub(f.p[2], f.p[0]));
+        vec3::dot(u, u) * vec3::dot(v, v)
+    }
+
     fn side_plain(f: &Facet, q: P3) -> f64 {
         let w = vec3::sub(q, f.p[0]);
         let det = vec3::dot(f.n, w);
         let band = vec3::norm(w) + f.reach;
-        if det * det <= COPLANAR * COPLANAR * f.uv2 * band * band { 0.0 } else { det }
+        if det * det <= COPLANAR * COPLANAR * uv2(f) * band * band { 0.0 } else { det }
     }
 
     #[test]
@@ -334,7 +348,7 @@ mod tests {
             let inplane = [0, 1, 2].map(|i| p0[i] + s * (p1[i] - p0[i]) + t * (p2[i] - p0[i]));
             let unit = vec3::scale(f.n, 1.0 / vec3::norm(f.n));
             let w = vec3::dist(inplane, p0);
-            let band = COPLANAR * f.uv2.sqrt() / vec3::norm(f.n) * (w + f.reach);
+            let band = COPLANAR * uv2(&f).sqrt() / vec3::norm(f.n) * (w + f.reach);
             let q = vec3::add(inplane, vec3::scale(unit, k * band * rnd().signum()));
             let (fast, plain) = (f.side(q), side_plain(&f, q));
             assert_eq!(fast.to_bits(), plain.to_bits(), "trial {trial}: {:?} {q:?}", f.p);

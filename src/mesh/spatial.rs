@@ -39,20 +39,42 @@ fn for_cells(r: &[Cell; 2], mut f: impl FnMut(Cell)) {
     }
 }
 
+/// Calls `f` with every cell of the index box `r`, in the reverse of [`for_cells`]' order.
+#[inline]
+fn for_cells_rev(r: &[Cell; 2], mut f: impl FnMut(Cell)) {
+    for z in (r[0][2]..=r[1][2]).rev() {
+        for y in (r[0][1]..=r[1][1]).rev() {
+            for x in (r[0][0]..=r[1][0]).rev() {
+                f([x, y, z]);
+            }
+        }
+    }
+}
+
 fn covers(r: &[Cell; 2]) -> usize {
     (0..3).map(|k| (r[1][k] - r[0][k]) as usize + 1).product()
 }
 
+/// What the sweep of a slot reads of a triangle, in one cache line: its box, its lowest cell
+/// and its index (gathered from one place, with no cell recomputed).
+#[derive(Debug, Clone, Copy)]
+#[repr(align(64))]
+struct Entry {
+    b: [P3; 2],
+    low: Cell,
+    t: u32,
+}
+
 /// The axis along which the boxes' least coordinates spread most against the boxes' own mean
 /// extent: sorted along it, the fewest boxes overlap.
-fn sweep_axis(local: &[([P3; 2], u32)]) -> usize {
+fn sweep_axis(local: &[Entry]) -> usize {
     let mut best = (0, f64::NEG_INFINITY);
     for k in 0..3 {
         let (mut lo, mut hi, mut extent) = (f64::INFINITY, f64::NEG_INFINITY, 0.0);
-        for (b, _) in local {
-            lo = lo.min(b[0][k]);
-            hi = hi.max(b[0][k]);
-            extent += b[1][k] - b[0][k];
+        for e in local {
+            lo = lo.min(e.b[0][k]);
+            hi = hi.max(e.b[0][k]);
+            extent += e.b[1][k] - e.b[0][k];
         }
         let ratio = (hi - lo) / (extent / local.len() as f64).max(f64::MIN_POSITIVE);
         if ratio > best.1 {
@@ -84,9 +106,11 @@ struct Grid {
 
 impl Grid {
     /// The triangles whose boxes cover at most `BIG` cells hashed into slots; the others listed
-    /// apart.
+    /// apart. A counting sort: the counts summed into each slot's end, then the triangles placed
+    /// from the last backwards, so that each slot lists its triangles in increasing order.
     fn new(boxes: &[[P3; 2]], origin: P3, cell: [f64; 3]) -> (Grid, Vec<usize>) {
-        let ranges: Vec<[Cell; 2]> = boxes.iter().map(|b| range_of(b, origin, cell)).collect();
+        let inverse = cell.map(|c| 1.0 / c);
+        let ranges: Vec<[Cell; 2]> = boxes.iter().map(|b| range_of(b, origin, inverse)).collect();
         let entries: usize = ranges.iter().map(covers).filter(|&c| c <= BIG).sum();
         let bits = (entries.max(16).next_power_of_two().trailing_zeros() + 1).min(40);
         let slots = 1usize << bits;
@@ -96,20 +120,21 @@ impl Grid {
             if covers(r) > BIG {
                 big.push(t);
             } else {
-                for_cells(r, |c| first[slot(c, bits) + 1] += 1);
+                for_cells(r, |c| first[slot(c, bits)] += 1);
             }
         }
-        for s in 0..slots {
-            first[s + 1] += first[s];
+        let mut end = 0;
+        for f in &mut first {
+            end += *f;
+            *f = end;
         }
-        let mut fill = first.clone();
-        let mut entry = vec![0u32; first[slots] as usize];
-        for (t, r) in ranges.iter().enumerate() {
+        let mut entry = vec![0u32; end as usize];
+        for (t, r) in ranges.iter().enumerate().rev() {
             if covers(r) <= BIG {
-                for_cells(r, |c| {
+                for_cells_rev(r, |c| {
                     let s = slot(c, bits);
-                    entry[fill[s] as usize] = t as u32;
-                    fill[s] += 1;
+                    first[s] -= 1;
+                    entry[first[s] as usize] = t as u32;
                 });
             }
         }
@@ -136,11 +161,12 @@ impl Grid {
     }
 }
 
-/// The cell that holds the point `p`.
+/// The cell that holds the point `p`, from the inverse cell sizes. A negative index (round-off
+/// below the origin) is cut to zero by the clamp and truncation alike, so no `floor` is taken.
 #[inline]
-fn cell_of(p: P3, origin: P3, cell: [f64; 3]) -> Cell {
+fn cell_of(p: P3, origin: P3, inverse: [f64; 3]) -> Cell {
     let index = |k: usize| {
-        let i = ((p[k] - origin[k]) / cell[k]).floor();
+        let i = (p[k] - origin[k]) * inverse[k];
         i.clamp(0.0, f64::from((1u32 << 21) - 1)) as u32
     };
     [index(0), index(1), index(2)]
@@ -148,8 +174,8 @@ fn cell_of(p: P3, origin: P3, cell: [f64; 3]) -> Cell {
 
 /// The index box of cells that a box covers.
 #[inline]
-fn range_of(b: &[P3; 2], origin: P3, cell: [f64; 3]) -> [Cell; 2] {
-    [cell_of(b[0], origin, cell), cell_of(b[1], origin, cell)]
+fn range_of(b: &[P3; 2], origin: P3, inverse: [f64; 3]) -> [Cell; 2] {
+    [cell_of(b[0], origin, inverse), cell_of(b[1], origin, inverse)]
 }
 
 /// The first pair of triangles that meet, if any. Each triangle's data are computed once.
@@ -185,8 +211,9 @@ pub(crate) fn find_self_intersection(mesh: &Mesh) -> Option<(usize, usize)> {
     drop(extent);
     loop {
         let (mut entries, mut large) = (0usize, 0usize);
+        let inverse = cell.map(|c| 1.0 / c);
         for b in &boxes {
-            match covers(&range_of(b, bbox.min, cell)) {
+            match covers(&range_of(b, bbox.min, inverse)) {
                 c if c > BIG => large += 1,
                 c => entries += c,
             }
@@ -201,42 +228,44 @@ pub(crate) fn find_self_intersection(mesh: &Mesh) -> Option<(usize, usize)> {
     let (grid, big) = Grid::new(&boxes, bbox.min, cell);
     let test =
         |a: usize, b: usize| facets_meet(&facets[a], &facets[b]).then_some((a.min(b), a.max(b)));
-    // Each slot's triangles gathered with their boxes and lowest cells (recomputed from the
-    // box, not read from the grid), so the pair loop reads contiguous memory, and sorted along
-    // the sweep axis.
-    let mut local: Vec<([P3; 2], u32)> = Vec::new();
-    let mut lowest: Vec<Cell> = Vec::new();
+    // Each slot's triangles gathered with their boxes and lowest cells from one line each, so
+    // the pair loop reads contiguous memory, and sorted along the sweep axis.
+    let table: Vec<Entry> = boxes
+        .iter()
+        .zip(&grid.ranges)
+        .enumerate()
+        .map(|(t, (b, r))| Entry { b: *b, low: r[0], t: t as u32 })
+        .collect();
+    let mut local: Vec<Entry> = Vec::new();
     for s in 0..grid.slots() {
         let list = grid.list(s);
         if list.len() < 2 {
             continue;
         }
         local.clear();
-        local.extend(list.iter().map(|&t| (boxes[t as usize], t)));
+        local.extend(list.iter().map(|&t| table[t as usize]));
         let axis = sweep_axis(&local);
-        local.sort_unstable_by(|a, b| a.0[0][axis].total_cmp(&b.0[0][axis]));
-        lowest.clear();
-        lowest.extend(local.iter().map(|(b, _)| cell_of(b[0], bbox.min, cell)));
+        local.sort_unstable_by(|a, b| a.b[0][axis].total_cmp(&b.b[0][axis]));
         for k in 0..local.len() {
-            let (ba, ta) = &local[k];
-            let end = ba[1][axis];
-            for j in k + 1..local.len() {
-                let (bb, tb) = &local[j];
-                if bb[0][axis] > end {
+            let ea = &local[k];
+            let end = ea.b[1][axis];
+            for eb in &local[k + 1..] {
+                if eb.b[0][axis] > end {
                     break;
                 }
                 // A triangle can fall in one slot by two cells.
-                if tb == ta || !overlap(ba, bb) {
+                if eb.t == ea.t || !overlap(&ea.b, &eb.b) {
                     continue;
                 }
-                if grid.home_of(lowest[k], lowest[j], s)
-                    && let Some(pair) = test(*ta as usize, *tb as usize)
+                if grid.home_of(ea.low, eb.low, s)
+                    && let Some(pair) = test(ea.t as usize, eb.t as usize)
                 {
                     return Some(pair);
                 }
             }
         }
     }
+    drop(table);
     if big.is_empty() {
         return None;
     }
