@@ -68,10 +68,12 @@ use crate::units::Angle;
 use block::{Frame, Layout, Locator, build_half};
 
 mod halves;
+mod keys;
 mod layout;
 mod modules;
 mod split;
 use halves::{Block, build_mould_set};
+use keys::{KEY_WINDOWS, WallKey, wall_key};
 use layout::layout;
 pub use modules::{ModularMould, build_modular_mould, loft_modules};
 use split::{parting_loop, split_faces, undercut_regions};
