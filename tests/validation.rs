@@ -37,6 +37,8 @@ mod validation_loads;
 mod validation_modal;
 #[path = "validation_modal_attached.rs"]
 mod validation_modal_attached;
+#[path = "validation_mould_keys.rs"]
+mod validation_mould_keys;
 #[path = "validation_mould_modules.rs"]
 mod validation_mould_modules;
 #[path = "validation_mould_split.rs"]

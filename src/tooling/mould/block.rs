@@ -15,8 +15,9 @@
 //! quarter of the margin apart) and the top (or bottom) face, a fan about its centre. Three corner patches carry the locating features
 //! (see [`Locator`]). Facets are wound afterwards by `crate::mesh::orient::orient_outward`.
 
-use crate::mesh::Mesh;
+use super::keys::WallKey;
 use crate::mesh::vec3::{self, P3};
+use crate::mesh::{Mesh, MeshError};
 
 /// The orthonormal mould frame in the rotor frame.
 #[derive(Debug, Clone, Copy)]
@@ -95,6 +96,8 @@ pub(crate) struct Layout {
     /// is then the half's share of the end ring, its rulings the bore wall along X.
     pub bored: [bool; 2],
     pub locators: Vec<Locator>,
+    /// The sockets of the end pieces' keys in a bored side (3 or 1), see `super::keys`.
+    pub keys: Vec<(usize, WallKey)>,
 }
 
 struct Half<'a> {
@@ -133,16 +136,32 @@ pub(crate) fn build_half(
     layout: &Layout,
     frame: &Frame,
     upper: bool,
-) -> Mesh {
+) -> Result<Mesh, MeshError> {
     let mut h =
         Half { mesh: Mesh { vertices: part.vertices.clone(), triangles: Vec::new() }, frame };
     h.mesh.triangles.extend(cavity.iter().map(|&t| part.triangles[t]));
     // The rulings of each side.
     let ends: Vec<Vec<u32>> =
         layout.ends.iter().map(|side| side.iter().map(|&q| h.add(q)).collect()).collect();
-    for (line, end) in layout.sides.iter().zip(&ends) {
+    // Sockets of the end pieces' keys: per side, the ruling they replace and the corners to
+    // splice into the end face after that ruling's first end.
+    let mut splices: Vec<(usize, usize, [u32; 4])> = Vec::new();
+    for (s, (line, end)) in layout.sides.iter().zip(&ends).enumerate() {
         for j in 0..line.len() - 1 {
-            h.quad([line[j], line[j + 1], end[j + 1], end[j]]);
+            let key =
+                layout.keys.iter().find(|(ks, k)| *ks == s && k.edge == [line[j], line[j + 1]]);
+            match key {
+                Some((_, k)) => {
+                    let ids = k.add(
+                        &mut h.mesh,
+                        frame,
+                        [line[j], line[j + 1], end[j + 1], end[j]],
+                        true,
+                    )?;
+                    splices.push((s, j, ids));
+                }
+                None => h.quad([line[j], line[j + 1], end[j + 1], end[j]]),
+            }
         }
     }
     let corners: Vec<u32> = layout.corners.iter().map(|&q| h.add(q)).collect();
@@ -194,6 +213,14 @@ pub(crate) fn build_half(
             // Only the far corners on the far edge: points in a line would leave the ear
             // clipping a sliver.
             let mut ring: Vec<u32> = chain.clone();
+            // A socket's mouth after its ruling's first end (chain index j + 1), last first so
+            // the earlier indices hold.
+            let mut mouths: Vec<&(usize, usize, [u32; 4])> =
+                splices.iter().filter(|m| m.0 == s).collect();
+            mouths.sort_by_key(|m| std::cmp::Reverse(m.1));
+            for &(_, j, ids) in mouths {
+                ring.splice(j + 2..j + 2, ids);
+            }
             ring.extend([far_corners[k1], far_corners[k0]]);
             let pts: Vec<[f64; 2]> = ring
                 .iter()
@@ -232,7 +259,7 @@ pub(crate) fn build_half(
     for i in 0..n {
         h.mesh.triangles.push([rim_far[i], rim_far[(i + 1) % n], centre]);
     }
-    h.mesh
+    Ok(h.mesh)
 }
 
 /// A corner patch with a hole where the feature stands, and the pin (lower half) or the socket

@@ -44,6 +44,8 @@ pub(super) fn build_mould_set(
     let layout = layout(part, sides, &frame, chord_angle, params, block, bored, ez)?;
     let mut meshes = [Mesh::new(), Mesh::new()];
     let mut halves = Vec::with_capacity(2);
+    // The keys of each end piece (root, tip), one on each half's share of its ring.
+    let mut end_keys: [Vec<WallKey>; 2] = [Vec::new(), Vec::new()];
     for (k, upper) in [true, false].into_iter().enumerate() {
         let cavity: Vec<usize> = faces[k]
             .iter()
@@ -67,9 +69,23 @@ pub(super) fn build_mould_set(
                     [x_end, q[1], q[2]]
                 })
                 .collect();
+            if flush[e].is_none() {
+                let key = wall_key(
+                    &part.mesh,
+                    ring,
+                    &arc,
+                    KEY_WINDOWS[k],
+                    x_end,
+                    &frame,
+                    params.margin,
+                    LOCATOR_CLEARANCE,
+                )?;
+                lay.keys.push((s, key.clone()));
+                end_keys[e].push(key);
+            }
             lay.sides[s] = arc;
         }
-        let mut mesh = build_half(&part.mesh, &cavity, &lay, &frame, upper);
+        let mut mesh = build_half(&part.mesh, &cavity, &lay, &frame, upper)?;
         if flush.iter().any(Option::is_some) {
             // A flush end's rulings have no length and its corner patches no area: their
             // vertices are merged into the ring's and the collapsed facets dropped.
@@ -101,7 +117,7 @@ pub(super) fn build_mould_set(
         let ring = if e == 0 { &part.root_ring } else { &part.tip_ring };
         let x_end = layout.ends[s][0][0];
         let cap: Vec<usize> = caps[e].clone().collect();
-        let mesh = end_piece(&part.mesh, &cap, ring, x_end, &frame)?;
+        let mesh = end_piece(&part.mesh, &cap, ring, x_end, &frame, &end_keys[e])?;
         let pull = if e == 0 { vec3::scale(frame.ex, -1.0) } else { frame.ex };
         let draft = evaluate_draft(&part.mesh, Some(&cap), pull, params.min_draft, params.unit)?;
         let undercuts = undercut_regions(part, &draft, pull, params.unit);
@@ -116,7 +132,7 @@ pub(super) fn build_mould_set(
                 cavity_area,
                 undercuts,
                 block_size: [b[0], b[1], b[2]],
-                locators: Vec::new(),
+                locators: end_keys[e].iter().map(|k| k.place(&frame)).collect(),
             },
         ));
     }
@@ -169,13 +185,14 @@ pub(super) fn ring_arc(
 }
 
 /// An end piece: the cap's facets, the end ring carried along X to the block's end face `x_end`
-/// (mould frame), and that face, closed and outward.
+/// (mould frame) with the `keys` on its wall, and that face, closed and outward.
 pub(super) fn end_piece(
     part: &Mesh,
     cap: &[usize],
     ring: &[u32],
     x_end: f64,
     frame: &Frame,
+    keys: &[WallKey],
 ) -> Result<Mesh, MeshError> {
     let mut mesh = Mesh { vertices: part.vertices.clone(), triangles: Vec::new() };
     mesh.triangles.extend(cap.iter().map(|&t| part.triangles[t]));
@@ -188,16 +205,29 @@ pub(super) fn end_piece(
         .collect();
     let n = ring.len();
     let p = |m: &Mesh, v: u32| m.vertices[v as usize];
+    // The end face's outline: the far ring with each key's base spliced in after its edge.
+    let mut outline: Vec<u32> = Vec::with_capacity(n + 4 * keys.len());
     for i in 0..n {
         let j = (i + 1) % n;
         let [a, b, c, d] = [ring[i], ring[j], far[j], far[i]];
+        outline.push(d);
+        if let Some(k) = keys.iter().find(|k| k.edge == [a, b]) {
+            outline.extend(k.add(&mut mesh, frame, [a, b, c, d], false)?);
+            continue;
+        }
+        if let Some(k) = keys.iter().find(|k| k.edge == [b, a]) {
+            let mut ids = k.add(&mut mesh, frame, [b, a, d, c], false)?;
+            ids.reverse();
+            outline.extend(ids);
+            continue;
+        }
         if vec3::dist(p(&mesh, a), p(&mesh, c)) <= vec3::dist(p(&mesh, b), p(&mesh, d)) {
             mesh.triangles.extend([[a, b, c], [a, c, d]]);
         } else {
             mesh.triangles.extend([[a, b, d], [b, c, d]]);
         }
     }
-    let pts: Vec<[f64; 2]> = far
+    let pts: Vec<[f64; 2]> = outline
         .iter()
         .map(|&v| {
             let q = frame.to_mould(mesh.vertices[v as usize]);
@@ -205,7 +235,7 @@ pub(super) fn end_piece(
         })
         .collect();
     let tris = crate::mesh::triangulate_polygon(&pts)?;
-    mesh.triangles.extend(tris.iter().map(|t| t.map(|i| far[i])));
+    mesh.triangles.extend(tris.iter().map(|t| t.map(|i| outline[i])));
     orient_outward(&mut mesh);
     compact(&mut mesh);
     Ok(mesh)

@@ -150,5 +150,15 @@ pub(super) fn layout(
             shear,
         });
     }
-    Ok(Layout { sides, ends, corners, z_top, z_bottom, margin: m, locators, bored: [false; 2] })
+    Ok(Layout {
+        sides,
+        ends,
+        corners,
+        z_top,
+        z_bottom,
+        margin: m,
+        locators,
+        bored: [false; 2],
+        keys: Vec::new(),
+    })
 }

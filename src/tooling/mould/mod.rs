@@ -19,7 +19,8 @@
 //! and leading edge, root and trailing edge, tip and trailing edge), each half the margin from the
 //! part's corner along X and Y, so the halves register only one way round; the upper half has
 //! matching sockets, the pin grown by 0.1 mm radially and on top. With the margin `m`: base
-//! radius `m/6` where the axis meets the patch, height `m/3`.
+//! radius `m/6` where the axis meets the patch, height `m/3`. An end piece carries a wedge key
+//! into each half on its bore wall, seated in a socket of the half (see [`keys`]).
 //!
 //! **Draft.** Per half, [`evaluate_draft`] over its cavity facets along its pull (the upper half
 //! along +Z, the lower along −Z); undercut facets are grouped into connected regions, each
@@ -47,7 +48,9 @@
 //! two halves with its own pull and its own silhouette parting, all in one block (the frame of
 //! the mean pull, one extent across the span); neighbouring modules meet flush on a plane
 //! `x = const`, which every pull normal to the pitch axis slides along. Only the outer modules
-//! have end pieces and corner patches for pins; the pins lean along their module's pull.
+//! have end pieces and corner patches for pins; the pins lean along their module's pull. The
+//! flush faces carry no key (a key across a face that both parts slide along would have to run
+//! out through the edge along the slide).
 //!
 //! [`PartingLines`]: super::PartingLines
 
@@ -68,10 +71,12 @@ use crate::units::Angle;
 use block::{Frame, Layout, Locator, build_half};
 
 mod halves;
+mod keys;
 mod layout;
 mod modules;
 mod split;
 use halves::{Block, build_mould_set};
+use keys::{KEY_WINDOWS, WallKey, wall_key};
 use layout::layout;
 pub use modules::{ModularMould, build_modular_mould, loft_modules};
 use split::{parting_loop, split_faces, undercut_regions};
@@ -133,7 +138,8 @@ pub struct MouldHalf {
     /// and Z (pull), m.
     pub block_size: [f64; 3],
     /// Where the axes of the locating pins (lower half) or sockets (upper half) meet the parting
-    /// surface, rotor frame, m.
+    /// surface; for an end piece, the middle of each key's base edge on the block's end face
+    /// (upper half's key first). Rotor frame, m.
     pub locators: Vec<[f64; 3]>,
 }
 
