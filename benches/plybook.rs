@@ -21,7 +21,9 @@ fn small_wind(c: &mut Criterion) {
         b.iter(|| build_ply_book(&blade, &project, &params).map(|book| book.patterns.len()))
     });
     if let Ok(book) = build_ply_book(&blade, &project, &params) {
-        group.bench_function("files", |b| b.iter(|| plybook_files(&book, None).map(|f| f.len())));
+        group.bench_function("files", |b| {
+            b.iter(|| plybook_files(&book, None, &[]).map(|f| f.len()))
+        });
     }
     group.finish();
 }

@@ -63,21 +63,22 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         build_ply_book(&model.blade, &model.project, &PlyBookParams::default()).map_err(failure)?;
     bar.finish();
     let laminate_kg = model.mass().laminate_kg;
-    let files = plybook_files(&book, Some(laminate_kg)).map_err(failure)?;
+    let words = layloft::report::plybook_warnings(&book);
+    let files = plybook_files(&book, Some(laminate_kg), &words).map_err(failure)?;
     let mut set = FileSet::new();
     for (path, bytes) in files {
         set.add(path, bytes);
     }
     layloft::report::ensure_folder(&args.out).map_err(|e| Failure::Run(e.into()))?;
     set.commit(&args.out).map_err(|e| Failure::Run(e.into()))?;
-    for w in &book.warnings {
+    for w in &words {
         out.warn(w);
     }
     for e in &book.failed {
         out.warn(&e.to_string());
     }
     if args.json {
-        let json = serde_json::to_string_pretty(&plybook_json(&book, Some(laminate_kg)))
+        let json = serde_json::to_string_pretty(&plybook_json(&book, Some(laminate_kg), &words))
             .map_err(|e| Failure::Run(anyhow!("cannot format the ply book as JSON: {e}")))?;
         out.data(&json);
     } else {

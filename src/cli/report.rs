@@ -273,12 +273,13 @@ fn write_report_with(
     // The ply book: its files in a folder of the report's set.
     let book = ply_book().map_err(super::plybook::failure)?;
     let laminate_kg = model.mass().laminate_kg;
-    for (path, bytes) in plybook_files(&book, Some(laminate_kg)).map_err(super::plybook::failure)? {
+    let words = layloft::report::plybook_warnings(&book);
+    for (path, bytes) in
+        plybook_files(&book, Some(laminate_kg), &words).map_err(super::plybook::failure)?
+    {
         set.add(format!("plybook/{path}"), bytes);
     }
-    for w in
-        book.warnings.iter().map(String::clone).chain(book.failed.iter().map(|e| e.to_string()))
-    {
+    for w in words.iter().cloned().chain(book.failed.iter().map(|e| e.to_string())) {
         out.warn(&w);
     }
     files.extend(plybook_links(&book, "plybook"));

@@ -59,7 +59,11 @@ fn csv_cell(s: &str) -> String {
 }
 
 /// The ply book as one JSON value (SI units in every key).
-pub fn plybook_json(book: &PlyBook, laminate_mass_kg: Option<f64>) -> serde_json::Value {
+pub fn plybook_json(
+    book: &PlyBook,
+    laminate_mass_kg: Option<f64>,
+    warnings: &[String],
+) -> serde_json::Value {
     let patterns: Vec<_> = book
         .patterns
         .iter()
@@ -129,7 +133,7 @@ pub fn plybook_json(book: &PlyBook, laminate_mass_kg: Option<f64>) -> serde_json
         "pattern_cost": book.pattern_cost(),
         "patterns": patterns,
         "materials": materials,
-        "warnings": book.warnings,
+        "warnings": warnings,
         "splices": book.splices,
     })
 }

@@ -46,10 +46,13 @@ pub(super) fn label(e: &PatternEntry) -> String {
     )
 }
 
-/// Every file of the ply book with its path relative to the output folder.
+/// Every file of the ply book with its path relative to the output folder. `warnings` are the
+/// book's warnings in words, one per entry of [`PlyBook::warnings`]: the ply book keeps them as
+/// values and the caller (the command line, the report) words them.
 pub fn plybook_files(
     book: &PlyBook,
     laminate_mass_kg: Option<f64>,
+    warnings: &[String],
 ) -> Result<Vec<(String, Vec<u8>)>, PlyBookError> {
     let mut files = Vec::new();
     for e in &book.patterns {
@@ -63,8 +66,8 @@ pub fn plybook_files(
         files.push((format!("nesting-{}.svg", m.material), nesting_svg(book, m).into_bytes()));
     }
     files.push(("kit.csv".to_string(), plybook_csv(book).into_bytes()));
-    let json =
-        serde_json::to_string_pretty(&plybook_json(book, laminate_mass_kg)).unwrap_or_default();
+    let json = serde_json::to_string_pretty(&plybook_json(book, laminate_mass_kg, warnings))
+        .unwrap_or_default();
     files.push(("plybook.json".to_string(), json.into_bytes()));
     Ok(files)
 }
