@@ -163,30 +163,39 @@ pub struct ToolingSummary {
     pub core_alloy: Option<f64>,
     /// The melting check.
     pub melt: MeltCheck,
-    /// How to stand the mould so the alloy drains, one sentence per end that has prints.
-    pub drain_orientation: Vec<String>,
+    /// How to stand the mould so the alloy drains, one stand per end that has prints.
+    pub drain_orientation: Vec<DrainStand>,
     /// Per print (and per core without one) whether its alloy drains, in core order.
     pub drain_findings: Vec<MeltFinding>,
     /// Alloy to melt for each core's casting, in the order of [`BladeTooling::casting`].
     pub casting_alloy: Vec<PartMass>,
 }
 
+/// One way to stand the mould while the cores' alloy drains: on one end, the pitch axis
+/// vertical, so that the prints at that end point down. The report words it.
+#[derive(Debug, Clone, PartialEq)]
+pub struct DrainStand {
+    /// The end the mould stands on (down).
+    pub end: End,
+    /// The end up.
+    pub other: End,
+    /// The cores whose prints are at `end`, in core order.
+    pub cores: Vec<String>,
+    /// Whether the mould is turned over to this stand after an earlier one.
+    pub turned: bool,
+}
+
 /// Which way to stand the mould so the cores drain, and whether each one does (see the module
 /// docs); `tolerance` is the chordal tolerance, m.
-pub fn drain_plan(tooling: &BladeTooling, tolerance: f64) -> (Vec<String>, Vec<MeltFinding>) {
-    let mut orientation = Vec::new();
+pub fn drain_plan(tooling: &BladeTooling, tolerance: f64) -> (Vec<DrainStand>, Vec<MeltFinding>) {
+    let mut orientation: Vec<DrainStand> = Vec::new();
     for (end, other) in [(End::Root, End::Tip), (End::Tip, End::Root)] {
-        let cores: Vec<&str> =
-            tooling.prints.iter().filter(|p| p.end == end).map(|p| p.core.as_str()).collect();
+        let cores: Vec<String> =
+            tooling.prints.iter().filter(|p| p.end == end).map(|p| p.core.clone()).collect();
         if cores.is_empty() {
             continue;
         }
-        let first = if orientation.is_empty() { "Stand" } else { "Then turn it over and stand" };
-        orientation.push(format!(
-            "{first} the mould on its {end} end, the pitch axis vertical ({end} down, {other} \
-             up): the prints of {} point down and the alloy runs out through their ports.",
-            cores.join(", ")
-        ));
+        orientation.push(DrainStand { end, other, cores, turned: !orientation.is_empty() });
     }
     let mut findings: Vec<MeltFinding> = tooling
         .prints

@@ -178,7 +178,7 @@ impl ToolingReport<'_> {
             "core_print_fraction": num(t.params.print_fraction),
             "core_print_length_m": num(t.params.print_length),
             "drain": {
-                "orientation": self.summary.drain_orientation,
+                "orientation": self.summary.drain_orientation.iter().map(ToString::to_string).collect::<Vec<_>>(),
                 "checks": self.summary.drain_findings.iter().map(|f| json!({
                     "passed": f.passed,
                     "text": f.text,
@@ -229,7 +229,7 @@ impl ToolingReport<'_> {
                 })).collect::<Vec<_>>(),
                 "machining_frames": m.machining.iter().map(machining_frame).collect::<Vec<_>>(),
             })).collect::<Vec<_>>(),
-            "casting_notes": t.casting_notes,
+            "casting_notes": t.casting_notes.iter().map(ToString::to_string).collect::<Vec<_>>(),
             "casting_caution": CASTING_CAUTION,
         });
         if let (Some(o), Value::Object(c)) = (out.as_object_mut(), casting) {

@@ -61,8 +61,8 @@ impl ToolingReport<'_> {
             self.unit().symbol()
         );
         s.push_str(&self.prints_table().render(2));
-        for line in &self.summary.drain_orientation {
-            s.push_str(&wrap(line, "  ", "    "));
+        for stand in &self.summary.drain_orientation {
+            s.push_str(&wrap(&stand.to_string(), "  ", "    "));
         }
         for f in &self.summary.drain_findings {
             let mark = if f.passed == Some(false) { "FAIL" } else { "ok  " };
@@ -88,7 +88,7 @@ impl ToolingReport<'_> {
         ));
         s.push_str(&self.casting_table().render(2));
         for n in &t.casting_notes {
-            s.push_str(&wrap(n, "  ", "    "));
+            s.push_str(&wrap(&n.to_string(), "  ", "    "));
         }
         s.push_str(&wrap(CASTING_CAUTION, "  ! ", "    "));
     }
