@@ -73,8 +73,8 @@ pub struct MeltFinding {
 pub struct MeltCheck {
     /// The alloy's name, when the project names one.
     pub alloy: Option<String>,
-    /// Its solidus and liquidus, °C.
-    pub melting_range_c: Option<[f64; 2]>,
+    /// Its solidus and liquidus.
+    pub melting_range: Option<[Temperature; 2]>,
     /// The comparisons, in process order.
     pub findings: Vec<MeltFinding>,
     /// The alloy's handling note from the materials file.
@@ -93,7 +93,7 @@ impl MeltCheck {
 pub fn melt_check(alloy: Option<&Isotropic>, temps: [Option<Temperature>; 3]) -> MeltCheck {
     // The alloy's melting range is given in °C; the findings word both in °C.
     let [injection, gel, cure] = temps.map(|t| t.map(Temperature::celsius));
-    let range = alloy.and_then(|a| a.melting_range_c);
+    let range = alloy.and_then(|a| a.melting_range);
     let mut findings = Vec::new();
     let missing = |what: &str| MeltFinding { passed: None, text: format!("not checked: {what}") };
     match (alloy, range) {
@@ -101,6 +101,7 @@ pub fn melt_check(alloy: Option<&Isotropic>, temps: [Option<Temperature>; 3]) ->
         (Some(a), None) => findings
             .push(missing(&format!("'{}' has no melting range (solidus_C, liquidus_C)", a.name))),
         (Some(_), Some([solidus, liquidus])) => {
+            let (solidus, liquidus) = (solidus.celsius(), liquidus.celsius());
             for (stage, t) in [("injection", injection), ("gelation", gel)] {
                 findings.push(match t {
                     Some(t) => MeltFinding {
@@ -135,7 +136,7 @@ pub fn melt_check(alloy: Option<&Isotropic>, temps: [Option<Temperature>; 3]) ->
     }
     MeltCheck {
         alloy: alloy.map(|a| a.name.clone()),
-        melting_range_c: range,
+        melting_range: range,
         findings,
         safety_note: alloy.and_then(|a| a.safety_note.clone()),
     }

@@ -116,8 +116,8 @@ impl ToolingReport<'_> {
             },
             "core_alloy": {
                 "name": melt.alloy,
-                "solidus_C": opt(melt.melting_range_c.map(|r| r[0])),
-                "liquidus_C": opt(melt.melting_range_c.map(|r| r[1])),
+                "solidus_C": opt(melt.melting_range.map(|r| r[0].celsius())),
+                "liquidus_C": opt(melt.melting_range.map(|r| r[1].celsius())),
                 "checks": melt.findings.iter().map(|f| json!({
                     "passed": f.passed,
                     "text": f.text,

@@ -168,8 +168,10 @@ impl ToolingReport<'_> {
 
     pub(super) fn melt_text(&self, s: &mut String) {
         let m = &self.summary.melt;
-        let range =
-            m.melting_range_c.map(|[a, b]| format!(", melts {a}..{b} °C")).unwrap_or_default();
+        let range = m
+            .melting_range
+            .map(|[a, b]| format!(", melts {}..{} °C", a.celsius(), b.celsius()))
+            .unwrap_or_default();
         let name = m.alloy.clone().unwrap_or_else(|| "none named".into());
         let _ = writeln!(s, "\nCore alloy: {name}{range}");
         for f in &m.findings {
