@@ -158,7 +158,7 @@ fn one_web_demo_prints_seat_in_the_ports_at_the_root_and_drain_at_their_ends() {
     // One drain finding per print, and one warning per print that its seat in the mould is
     // still to be cut by hand (the mould parts are not pocketed for prints).
     let (seats, drains): (Vec<_>, Vec<_>) =
-        findings.iter().partition(|f| f.text.contains("NO SEAT IN THE MOULD"));
+        findings.iter().partition(|f| f.note.to_string().contains("NO SEAT IN THE MOULD"));
     assert_eq!(drains.len(), 2);
     assert_eq!(seats.len(), 2);
     assert!(seats.iter().all(|f| f.passed == Some(false)));
@@ -200,7 +200,9 @@ fn cores_sealed_between_bulkheads_get_no_print_and_are_flagged() {
     let (_, findings) = drain_plan(&t, t.params.tolerance);
     for core in &t.unprinted {
         assert!(
-            findings.iter().any(|f| f.passed == Some(false) && f.text.contains(core.as_str())),
+            findings
+                .iter()
+                .any(|f| f.passed == Some(false) && f.note.to_string().contains(core.as_str())),
             "{core}"
         );
     }

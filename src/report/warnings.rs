@@ -167,3 +167,46 @@ fn along_name(web: bool) -> &'static str {
 pub fn plybook_warnings(book: &PlyBook) -> Vec<String> {
     book.warnings.iter().map(ToString::to_string).collect()
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn warning(web: bool, issue: PlyBookIssue) -> PlyBookWarning {
+        PlyBookWarning { row: 2, ply: "p3".into(), pattern: "p3-upper".into(), web, issue }
+    }
+
+    #[test]
+    fn ply_book_warnings_show_degrees_millimetres_and_the_place() {
+        // Radians shown in degrees (π rad = 180°, the definition of the degree), the stagger in
+        // millimetres, a skin place by chord fraction and a web place by height fraction.
+        let at = PatternPlace { r: 0.5, along: 0.25 };
+        let shear = std::f64::consts::PI / 4.0;
+        let w = warning(
+            false,
+            PlyBookIssue::FabricLocks { shear, locking_angle: 40f64.to_radians(), at },
+        );
+        assert_eq!(
+            w.to_string(),
+            "ply 'p3' (p3-upper): the fabric shears 45.0° at r = 0.500 m, x/c = 0.250, past its \
+             locking angle of 40.0°: it will wrinkle there; split the ply or add darts"
+        );
+        let w = warning(
+            true,
+            PlyBookIssue::FibreDeviation { deviation: 0.1, limit: 5f64.to_radians(), at },
+        );
+        assert!(w.to_string().contains(
+            "deviate 5.7° from the intended direction at r = 0.500 m, height 0.25 (more than 5°"
+        ));
+        let w = warning(
+            true,
+            PlyBookIssue::SpliceNotStaggered {
+                stagger: 0.025,
+                others: vec!["a".into(), "b".into()],
+            },
+        );
+        assert!(
+            w.to_string().contains("kept 25 mm from the splices of ply 'a', 'b' on the same web")
+        );
+    }
+}

@@ -56,6 +56,7 @@ mod grid;
 mod loft;
 mod machining;
 mod manifest;
+mod melt_note;
 mod mould;
 mod parting;
 mod prints;
@@ -84,8 +85,8 @@ pub use parting::{SilhouetteSurface, SpanModule, span_modules};
 pub use prints::CorePrint;
 pub use prism::loft_polygons;
 pub use summary::{
-    DrainStand, MeltCheck, MeltFinding, PartMass, ScheduleContent, ToolingSummary, drain_plan,
-    melt_check, schedule_content, summarise,
+    DrainStand, MeltCheck, MeltFinding, MeltNote, PartMass, ProcessStage, ScheduleContent,
+    ToolingSummary, drain_plan, melt_check, schedule_content, summarise,
 };
 pub use surface::{ChainEnds, EndKind, FnSurface, SpanSurface, contour_polygon};
 pub use trim::{EndTrim, Trims};

@@ -151,7 +151,7 @@ mod tests {
             2.0,
             Bound::AtMost,
             Some(1.9),
-            "kg",
+            Quantity::Mass,
             Place::Unstated,
         );
         assert_eq!(demand_text(&r), "<= 2.000 kg");
@@ -162,7 +162,7 @@ mod tests {
             0.02,
             Bound::AtMost,
             None,
-            "m",
+            Quantity::Length,
             Place::Case { name: "gust".to_string() },
         );
         assert_eq!(demand_text(&r), "<= 20.00 mm");
@@ -179,5 +179,26 @@ mod tests {
             verdict_line(&DesignCheck::default()),
             "NOT CHECKED (the project sets no [criteria])"
         );
+    }
+
+    #[test]
+    fn a_fraction_is_held_as_a_fraction_and_shown_in_percent() {
+        // A margin of 0.0775 against a demand of 0.08 (8 %): the row compares fractions and the
+        // words show percent (1 % = 0.01, the definition of the per cent).
+        let r = CheckRow::new(
+            "frequency_margin_pct",
+            "least frequency margin",
+            0.08,
+            Bound::AtLeast,
+            Some(0.0775),
+            Quantity::Fraction,
+            Place::Unstated,
+        );
+        assert_eq!(r.status, Status::Fail);
+        assert_eq!((unit_symbol(&r), unit_key(&r)), ("%", "pct"));
+        assert_eq!(shown_limit(&r), 8.0);
+        assert!((shown_found(&r).unwrap() - 7.75).abs() < 1e-12);
+        assert_eq!(demand_text(&r), ">= 8.000 %");
+        assert_eq!(found_text(&r), "7.750 %");
     }
 }

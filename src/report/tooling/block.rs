@@ -89,9 +89,9 @@ impl ToolingReport<'_> {
             block.paragraphs.extend(self.summary.drain_orientation.iter().map(ToString::to_string));
             for f in &self.summary.drain_findings {
                 if f.passed == Some(false) {
-                    block.warnings.push(format!("draining: {}", f.text));
+                    block.warnings.push(format!("draining: {}", f.note));
                 } else {
-                    block.notes.push(format!("passed: {}", f.text));
+                    block.notes.push(format!("passed: {}", f.note));
                 }
             }
             block.notes.push(DRAIN_CAUTION.to_string());

@@ -120,7 +120,7 @@ impl ToolingReport<'_> {
                 "liquidus_C": opt(melt.melting_range.map(|r| r[1].celsius())),
                 "checks": melt.findings.iter().map(|f| json!({
                     "passed": f.passed,
-                    "text": f.text,
+                    "text": f.note.to_string(),
                 })).collect::<Vec<_>>(),
                 "failed": melt.failed(),
                 "safety_note": melt.safety_note,
@@ -181,7 +181,7 @@ impl ToolingReport<'_> {
                 "orientation": self.summary.drain_orientation.iter().map(ToString::to_string).collect::<Vec<_>>(),
                 "checks": self.summary.drain_findings.iter().map(|f| json!({
                     "passed": f.passed,
-                    "text": f.text,
+                    "text": f.note.to_string(),
                 })).collect::<Vec<_>>(),
                 "caution": DRAIN_CAUTION,
             },

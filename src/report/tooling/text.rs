@@ -66,7 +66,7 @@ impl ToolingReport<'_> {
         }
         for f in &self.summary.drain_findings {
             let mark = if f.passed == Some(false) { "FAIL" } else { "ok  " };
-            s.push_str(&wrap(&format!("{mark} {}", f.text), "  ", "    "));
+            s.push_str(&wrap(&format!("{mark} {}", f.note), "  ", "    "));
         }
         s.push_str(&wrap(DRAIN_CAUTION, "  ! ", "    "));
     }
@@ -180,7 +180,7 @@ impl ToolingReport<'_> {
                 Some(false) => "FAIL",
                 None => "-   ",
             };
-            let _ = writeln!(s, "  {mark} {}", f.text);
+            let _ = writeln!(s, "  {mark} {}", f.note);
         }
         if let Some(note) = &m.safety_note {
             s.push_str(&wrap(&format!("handling: {note}"), "  ", "    "));
