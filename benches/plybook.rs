@@ -22,8 +22,9 @@ fn small_wind(c: &mut Criterion) {
     });
     if let Ok(book) = build_ply_book(&blade, &project, &params) {
         let lines = &sources.ply_lines;
+        let words = layloft::report::plybook_warnings(&book);
         group.bench_function("files", |b| {
-            b.iter(|| plybook_files(&book, None, lines).map(|f| f.len()))
+            b.iter(|| plybook_files(&book, None, lines, &words).map(|f| f.len()))
         });
     }
     group.finish();

@@ -224,7 +224,7 @@ fn casting_moulds_of_one_and_two_webs_hold_their_checks() {
         let dir = tempfile::tempdir().unwrap();
         let t = build(&mine_fan_with_rear_web(dir.path(), rear));
         assert!(
-            t.casting_notes.iter().all(|n| !n.contains("no casting mould")),
+            t.casting_notes.iter().all(|n| !n.to_string().contains("no casting mould")),
             "{what}: {:?}",
             t.casting_notes
         );

@@ -153,11 +153,12 @@ fn one_web_demo_prints_seat_in_the_ports_at_the_root_and_drain_at_their_ends() {
     }
     let (orientation, findings) = drain_plan(&t, t.params.tolerance);
     assert_eq!(orientation.len(), 1, "{orientation:?}");
-    assert!(orientation[0].contains("root end") && orientation[0].contains("core-1, core-2"));
+    let words = orientation[0].to_string();
+    assert!(words.contains("root end") && words.contains("core-1, core-2"));
     // One drain finding per print, and one warning per print that its seat in the mould is
     // still to be cut by hand (the mould parts are not pocketed for prints).
     let (seats, drains): (Vec<_>, Vec<_>) =
-        findings.iter().partition(|f| f.text.contains("NO SEAT IN THE MOULD"));
+        findings.iter().partition(|f| f.note.to_string().contains("NO SEAT IN THE MOULD"));
     assert_eq!(drains.len(), 2);
     assert_eq!(seats.len(), 2);
     assert!(seats.iter().all(|f| f.passed == Some(false)));
@@ -184,7 +185,8 @@ fn a_core_that_starts_at_a_bulkhead_takes_its_print_through_the_tip() {
     assert_eq!(t.prints[3].down, [1.0, 0.0, 0.0]);
     let (orientation, _) = drain_plan(&t, t.params.tolerance);
     assert_eq!(orientation.len(), 2, "{orientation:?}");
-    assert!(orientation[1].contains("tip end") && orientation[1].contains("core-4"));
+    let words = orientation[1].to_string();
+    assert!(words.contains("tip end") && words.contains("core-4"));
 }
 
 #[test]
@@ -198,7 +200,9 @@ fn cores_sealed_between_bulkheads_get_no_print_and_are_flagged() {
     let (_, findings) = drain_plan(&t, t.params.tolerance);
     for core in &t.unprinted {
         assert!(
-            findings.iter().any(|f| f.passed == Some(false) && f.text.contains(core.as_str())),
+            findings
+                .iter()
+                .any(|f| f.passed == Some(false) && f.note.to_string().contains(core.as_str())),
             "{core}"
         );
     }

@@ -161,8 +161,8 @@ fn bimetal_strip_curvature_matches_timoshenko_1925() {
         compressive_strength: None,
         shear_strength: None,
         cte: Some(cte),
-        melting_range_c: None,
-        shrinkage_pct: None,
+        melting_range: None,
+        shrinkage: None,
         safety_note: None,
         core: None,
     };

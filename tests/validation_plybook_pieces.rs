@@ -320,6 +320,7 @@ fn the_splices_of_successive_plies_on_a_skin_are_staggered() {
     check_complete(&blade, &book);
     let lines = splice_lines(&blade, &book);
     for w in &book.warnings {
+        let w = w.to_string();
         assert!(!w.contains("could not be kept"), "{w}");
     }
     let mut pairs = 0;

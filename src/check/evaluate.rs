@@ -1,7 +1,6 @@
 //! The design check of a blade model from its stress and modal results.
 
-use super::{Bound, CheckRow, DesignCheck, Place};
-use crate::units::pct_of;
+use super::{Bound, CheckRow, DesignCheck, Place, Quantity};
 
 /// The design check of a model against its project's `[criteria]`, from the stress results of
 /// every load case and the modal analysis (either may be absent when its criterion is not set).
@@ -38,7 +37,7 @@ pub fn evaluate(
             limit,
             Bound::AtLeast,
             found,
-            "",
+            Quantity::Ratio,
             location,
         ));
     }
@@ -73,13 +72,11 @@ pub fn evaluate(
             limit,
             Bound::AtLeast,
             found,
-            "",
+            Quantity::Ratio,
             location,
         ));
     }
     if let Some(limit) = c.frequency_margin {
-        // The check rows are in the unit they are shown in: percent.
-        let limit = pct_of(limit);
         let least = modal.and_then(|m| {
             m.margins
                 .iter()
@@ -91,7 +88,7 @@ pub fn evaluate(
                 let track =
                     m.campbell.tracks.iter().find(|t| t.id == mm.track).map(|t| t.label.clone());
                 (
-                    Some(mm.margin * 100.0),
+                    Some(mm.margin),
                     Place::Mode {
                         track,
                         frequency_hz: mm.frequency_hz,
@@ -111,7 +108,7 @@ pub fn evaluate(
             limit,
             Bound::AtLeast,
             found,
-            "%",
+            Quantity::Fraction,
             location,
         ));
     }
@@ -123,7 +120,7 @@ pub fn evaluate(
             limit,
             Bound::AtMost,
             Some(m.total_kg),
-            "kg",
+            Quantity::Mass,
             Place::Mass { laminate_kg: m.laminate_kg, point_masses_kg: m.point_masses_kg },
         ));
     }
@@ -140,7 +137,7 @@ pub fn evaluate(
             limit,
             Bound::AtMost,
             found,
-            "m",
+            Quantity::Length,
             location,
         ));
     }

@@ -43,6 +43,20 @@ pub enum Bound {
     AtMost,
 }
 
+/// What a criterion's limit and value measure, in SI: the report shows each in the unit a
+/// reader expects.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Quantity {
+    /// A dimensionless ratio (a reserve factor).
+    Ratio,
+    /// A fraction (a frequency margin: 0.1 for 10 %).
+    Fraction,
+    /// A mass, kg.
+    Mass,
+    /// A length, m.
+    Length,
+}
+
 /// One row of the design check.
 #[derive(Debug, Clone, PartialEq)]
 pub struct CheckRow {
@@ -51,14 +65,14 @@ pub struct CheckRow {
     pub key: &'static str,
     /// Human name.
     pub label: &'static str,
-    /// The limit the project demands, in `unit`.
+    /// The limit the project demands, SI (see `quantity`).
     pub limit: f64,
     /// How the limit bounds the value.
     pub bound: Bound,
-    /// The value found, in `unit`; `None` when it could not be computed.
+    /// The value found, SI (see `quantity`); `None` when it could not be computed.
     pub found: Option<f64>,
-    /// Unit of `limit` and `found` (empty for ratios).
-    pub unit: &'static str,
+    /// What `limit` and `found` measure.
+    pub quantity: Quantity,
     /// Where the governing value occurs.
     pub location: Place,
     /// The outcome.
@@ -73,7 +87,7 @@ impl CheckRow {
         limit: f64,
         bound: Bound,
         found: Option<f64>,
-        unit: &'static str,
+        quantity: Quantity,
         location: Place,
     ) -> Self {
         let status = match (found, bound) {
@@ -81,17 +95,7 @@ impl CheckRow {
             (Some(v), Bound::AtMost) if v <= limit => Status::Pass,
             _ => Status::Fail,
         };
-        CheckRow { key, label, limit, bound, found, unit, location, status }
-    }
-
-    /// The unit as a key suffix for data files: `pct` for percent, `ratio` for a dimensionless
-    /// ratio, otherwise the SI unit itself (`kg`, `m`).
-    pub fn unit_key(&self) -> &'static str {
-        match self.unit {
-            "" => "ratio",
-            "%" => "pct",
-            unit => unit,
-        }
+        CheckRow { key, label, limit, bound, found, quantity, location, status }
     }
 }
 
@@ -121,7 +125,7 @@ mod tests {
             2.0,
             Bound::AtMost,
             Some(1.9),
-            "kg",
+            Quantity::Mass,
             Place::Unstated,
         );
         assert_eq!(r.status, Status::Pass);
@@ -131,7 +135,7 @@ mod tests {
             1.5,
             Bound::AtLeast,
             Some(1.49),
-            "",
+            Quantity::Ratio,
             Place::Unstated,
         );
         assert_eq!(r.status, Status::Fail);
@@ -141,7 +145,7 @@ mod tests {
             0.1,
             Bound::AtMost,
             None,
-            "m",
+            Quantity::Length,
             Place::Unstated,
         );
         assert_eq!(r.status, Status::Fail);

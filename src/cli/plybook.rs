@@ -66,7 +66,8 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         .map_err(|e| failure(e, &sources))?;
     bar.finish();
     let laminate_kg = model.mass().laminate_kg;
-    let files = plybook_files(&book, Some(laminate_kg), &sources.ply_lines)
+    let words = layloft::report::plybook_warnings(&book);
+    let files = plybook_files(&book, Some(laminate_kg), &sources.ply_lines, &words)
         .map_err(|e| failure(e, &sources))?;
     let mut set = FileSet::new();
     for (path, bytes) in files {
@@ -74,7 +75,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     }
     layloft::report::ensure_folder(&args.out).map_err(|e| Failure::Run(e.into()))?;
     set.commit(&args.out).map_err(|e| Failure::Run(e.into()))?;
-    for w in &book.warnings {
+    for w in &words {
         out.warn(w);
     }
     for e in &book.failed {
@@ -85,6 +86,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
             &book,
             Some(laminate_kg),
             &sources.ply_lines,
+            &words,
         ))
         .map_err(|e| Failure::Run(anyhow!("cannot format the ply book as JSON: {e}")))?;
         out.data(&json);

@@ -277,16 +277,13 @@ fn write_report_with(
     // The ply book: its files in a folder of the report's set.
     let book = ply_book().map_err(|e| super::plybook::failure(e, sources))?;
     let laminate_kg = model.mass().laminate_kg;
-    for (path, bytes) in plybook_files(&book, Some(laminate_kg), &sources.ply_lines)
+    let words = layloft::report::plybook_warnings(&book);
+    for (path, bytes) in plybook_files(&book, Some(laminate_kg), &sources.ply_lines, &words)
         .map_err(|e| super::plybook::failure(e, sources))?
     {
         set.add(format!("plybook/{path}"), bytes);
     }
-    for w in book
-        .warnings
-        .iter()
-        .map(String::clone)
-        .chain(book.failed.iter().map(|e| plybook_error_text(e, sources)))
+    for w in words.iter().cloned().chain(book.failed.iter().map(|e| plybook_error_text(e, sources)))
     {
         out.warn(&w);
     }

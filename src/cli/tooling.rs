@@ -317,7 +317,7 @@ pub fn tell(result: &Written, out: &Output) -> bool {
     }
     let melt = &result.summary.melt;
     for f in melt.findings.iter().filter(|f| f.passed == Some(false)) {
-        out.warn(&format!("core alloy: {}", f.text));
+        out.warn(&format!("core alloy: {}", f.note));
     }
     melt.failed()
 }

@@ -25,7 +25,7 @@ use crate::material::{
     CoreProperties, CuttingData, Isotropic, Lamina, LaminaKind, Material, MaterialError,
     MaterialLibrary, StrainLimits, Strengths,
 };
-use crate::units::{GPA, MICROSTRAIN, MM, MPA};
+use crate::units::{GPA, MICROSTRAIN, MM, MPA, Temperature, fraction_of_pct};
 
 /// Reads and validates a materials file.
 pub fn read_materials(path: &Path) -> Result<MaterialLibrary, InputError> {
@@ -235,6 +235,7 @@ fn read_isotropic(name: &str, t: &mut TableReader<'_>) -> Result<Isotropic, Inpu
         }
     }
     let shrinkage_pct = t.optional_f64("shrinkage_pct")?;
+    let shrinkage = shrinkage_pct.map(fraction_of_pct);
     if let Some(v) = shrinkage_pct {
         if !(SHRINKAGE_PCT.0..=SHRINKAGE_PCT.1).contains(&v) {
             return Err(t.error(
@@ -260,8 +261,8 @@ fn read_isotropic(name: &str, t: &mut TableReader<'_>) -> Result<Isotropic, Inpu
         compressive_strength,
         shear_strength,
         cte,
-        melting_range_c,
-        shrinkage_pct,
+        melting_range: melting_range_c.map(|r| r.map(Temperature::from_celsius)),
+        shrinkage,
         safety_note,
         core,
     })
@@ -473,7 +474,7 @@ liquidus_C = 138
         let [a1, a2] = l.cte.unwrap();
         assert!((a1 - 0.02e-6).abs() < 1e-15 && (a2 - 22.5e-6).abs() < 1e-15);
         let core = lib.isotropic("bi58sn42").unwrap();
-        assert_eq!(core.melting_range_c, Some([138.0, 138.0]));
+        assert_eq!(core.melting_range.map(|r| r.map(|t| t.celsius())), Some([138.0, 138.0]));
     }
 
     #[test]

@@ -6,7 +6,7 @@
 //! Yc, S12 (all magnitudes). An [`Isotropic`] record is a foam, a metal or a fusible core alloy;
 //! it can be used as a ply (a foam sheet, a metal doubler) through [`Isotropic::as_lamina`].
 //!
-//! Every value is SI: Pa, kg/m³, m, 1/K. [`Lamina::validate`] checks what physics demands:
+//! Every value is SI: Pa, kg/m³, m, 1/K, fractions; temperatures are [`Temperature`]s. [`Lamina::validate`] checks what physics demands:
 //! positive moduli and strengths, and Poisson's ratio within the thermodynamic bound
 //! |nu12| < sqrt(E1/E2) (Jones, *Mechanics of Composite Materials*, 2nd ed., 1999, §2.4.2).
 
@@ -17,6 +17,8 @@ pub use library::{
     CuttingData, DEFAULT_LOCKING_ANGLE_DEG, DEFAULT_ROLL_WIDTH_MM, Material, MaterialLibrary,
 };
 pub use validate::{MaterialError, MaterialField};
+
+use crate::units::Temperature;
 
 /// The five basic strengths of a lamina in its material axes, all positive magnitudes in Pa.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -246,11 +248,11 @@ pub struct Isotropic {
     pub shear_strength: Option<f64>,
     /// Coefficient of thermal expansion, 1/K.
     pub cte: Option<f64>,
-    /// Melting range (solidus, liquidus) in °C, for fusible core alloys.
-    pub melting_range_c: Option<[f64; 2]>,
-    /// Linear casting shrinkage from the solidus to room temperature, %, for fusible core
-    /// alloys (`shrinkage_pct`).
-    pub shrinkage_pct: Option<f64>,
+    /// Melting range (solidus, liquidus), for fusible core alloys.
+    pub melting_range: Option<[Temperature; 2]>,
+    /// Linear casting shrinkage from the solidus to room temperature, a fraction (0.005 for
+    /// 0.5 %), for fusible core alloys (read from `shrinkage_pct`).
+    pub shrinkage: Option<f64>,
     /// Free-text handling note printed beside the material in reports (e.g. "contains lead").
     pub safety_note: Option<String>,
     /// Sandwich-core properties when the record is marked as a core (foam, balsa, honeycomb).
@@ -360,8 +362,8 @@ mod tests {
             compressive_strength: None,
             shear_strength: None,
             cte: Some(23e-6),
-            melting_range_c: None,
-            shrinkage_pct: None,
+            melting_range: None,
+            shrinkage: None,
             safety_note: None,
             core: None,
         };

@@ -1,6 +1,7 @@
 //! The physical checks on material records and the error they give.
 
 use super::{Isotropic, Lamina};
+use crate::units::Temperature;
 
 /// A material value that can be wrong, named as in `materials.toml` so that the input reader can
 /// point at the offending line.
@@ -235,7 +236,7 @@ pub(super) fn check_isotropic(m: &Isotropic) -> Result<(), MaterialError> {
         let what = "core compression modulus (MPa)";
         positive(n, CoreCompressionModulus, what, c.compression_modulus, 1e6, true)?;
     }
-    if let Some([solidus, liquidus]) = m.melting_range_c {
+    if let Some([solidus, liquidus]) = m.melting_range.map(|r| r.map(Temperature::celsius)) {
         if !(solidus.is_finite() && liquidus.is_finite() && solidus <= liquidus) {
             let what = "melting range solidus_C..liquidus_C";
             return Err(invalid(

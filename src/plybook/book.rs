@@ -3,6 +3,7 @@
 use super::PlyBookError;
 use super::nest::Nesting;
 use super::pattern::FlatPattern;
+use super::warning::PlyBookWarning;
 
 /// Settings of the ply book.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -147,7 +148,7 @@ pub struct PlyBook {
     /// One nesting per material, in order of first use.
     pub nestings: Vec<MaterialNesting>,
     /// Draping warnings (locked fabric, large fibre deviation) with their place.
-    pub warnings: Vec<String>,
+    pub warnings: Vec<PlyBookWarning>,
     /// Regions that could not be draped, with the reason: left out of the book.
     pub failed: Vec<PlyBookError>,
     /// Ply regions cut in pieces because one piece would not drape: the pieces and their joins.

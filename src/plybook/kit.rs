@@ -3,13 +3,12 @@
 //! roll.
 
 use super::PlyBookError;
-use super::book::{
-    FabricKind, MaterialNesting, PatternEntry, PatternPlace, PlyBook, PlyBookParams,
-};
+use super::book::{FabricKind, MaterialNesting, PatternEntry, PlyBook, PlyBookParams};
 use super::nest::{NestItem, nest};
 use super::pieces::{drape_pieces, first_attempts};
 use super::regions::{Level, PlyRegion, ply_regions};
 use super::splice::{Splice, piece_name, splice_note, splices_of};
+use super::warning::{PlyBookIssue, PlyBookWarning};
 use crate::blade::Blade;
 use crate::material::{CuttingData, LaminaKind};
 use crate::project::{PlySpec, Project};
@@ -28,12 +27,13 @@ pub fn build_ply_book(
 ) -> Result<PlyBook, PlyBookError> {
     let regions = ply_regions(blade, params)?;
     let mut patterns = Vec::with_capacity(regions.len());
-    let mut warnings = Vec::new();
+    let mut warnings: Vec<PlyBookWarning> = Vec::new();
     let mut failed = Vec::new();
     let mut splices = Vec::new();
     let mut splice_lines: Vec<Splice> = Vec::new();
     for (region, whole) in first_attempts(blade, regions) {
-        let Some(p) = blade.ply(region.ply) else { continue };
+        let row = region.ply;
+        let Some(p) = blade.ply(row) else { continue };
         let Some(mat) = blade.ply_material(region.ply) else { continue };
         let cutting = project.materials.cutting(&p.material);
         let kind = match mat.kind {
@@ -57,17 +57,19 @@ pub fn build_ply_book(
             splice_lines.extend(splices_of(extent.0, extent.1, &pieces));
         }
         if !missed.is_empty() {
-            let ids: Vec<String> = missed
-                .iter()
-                .filter_map(|&k| blade.ply(k).map(|q| format!("'{}'", q.id)))
-                .collect();
-            warnings.push(format!(
-                "ply '{}' ({name}): a splice could not be kept {:.0} mm from the splices of ply {} on the same {} (the region is too small to move it): stagger them by hand or cut the ply elsewhere",
-                p.id,
-                params.stagger * 1e3,
-                ids.join(", "),
-                if extent.2.starts_with("web") { "web" } else { "skin" }
-            ));
+            warnings.push(PlyBookWarning {
+                row,
+                ply: p.id.clone(),
+                pattern: name.clone(),
+                web: extent.2.starts_with("web"),
+                issue: PlyBookIssue::SpliceNotStaggered {
+                    stagger: params.stagger,
+                    others: missed
+                        .iter()
+                        .filter_map(|&k| blade.ply(k).map(|q| q.id.clone()))
+                        .collect(),
+                },
+            });
         }
         for (n, (region, flat)) in pieces.into_iter().enumerate() {
             let name = if count > 1 { piece_name(&name, n) } else { name.clone() };
@@ -91,31 +93,33 @@ pub fn build_ply_book(
                 max_deviation_place: region.place(flat.max_deviation_at),
                 pattern: flat,
             };
-            warnings.extend(drape_warning(&entry));
-            let along = if region.surface_name.starts_with("web") { "height" } else { "x/c" };
+            warnings.extend(drape_warning(&entry, row));
+            let web = region.surface_name.starts_with("web");
             if let Some(&q) = entry.pattern.cut_short.first() {
-                let at = region.place(q);
-                warnings.push(format!(
-                    "ply '{}' ({}): the draped net cannot be carried to r = {:.3} m, {along} = {:.3} (a cell of the cloth would fold), not even in pieces: the pattern ends short of the ply's region there ({} of {} outline points moved in, pattern area {:.4} m²); add a dart, and check by a trial lay-up",
-                    entry.ply,
-                    entry.name,
-                    at.r,
-                    at.along,
-                    entry.pattern.cut_short.len(),
-                    entry.pattern.outline.len(),
-                    entry.area_m2
-                ));
+                warnings.push(PlyBookWarning {
+                    row,
+                    ply: entry.ply.clone(),
+                    pattern: entry.name.clone(),
+                    web,
+                    issue: PlyBookIssue::CutShort {
+                        at: region.place(q),
+                        moved: entry.pattern.cut_short.len(),
+                        points: entry.pattern.outline.len(),
+                        area: entry.area_m2,
+                    },
+                });
             }
             if let Some(&q) = entry.pattern.extrapolated.first() {
-                let at = region.place(q);
-                warnings.push(format!(
-                    "ply '{}' ({}): the draped net stops short of the region near r = {:.3} m, {along} = {:.3} ({} outline points extrapolated): the cloth will not follow the surface there without a dart or a split; check by a trial lay-up",
-                    entry.ply,
-                    entry.name,
-                    at.r,
-                    at.along,
-                    entry.pattern.extrapolated.len()
-                ));
+                warnings.push(PlyBookWarning {
+                    row,
+                    ply: entry.ply.clone(),
+                    pattern: entry.name.clone(),
+                    web,
+                    issue: PlyBookIssue::Extrapolated {
+                        at: region.place(q),
+                        extrapolated: entry.pattern.extrapolated.len(),
+                    },
+                });
             }
             patterns.push(entry);
         }
@@ -124,34 +128,31 @@ pub fn build_ply_book(
     Ok(PlyBook { project: project.name.clone(), patterns, nestings, warnings, failed, splices })
 }
 
-fn drape_warning(e: &PatternEntry) -> Option<String> {
-    let place = |p: PatternPlace| {
-        if e.surface.starts_with("web") {
-            format!("r = {:.3} m, height {:.2}", p.r, p.along)
-        } else {
-            format!("r = {:.3} m, x/c = {:.3}", p.r, p.along)
-        }
-    };
-    match e.kind {
-        FabricKind::Fabric if e.locks() => Some(format!(
-            "ply '{}' ({}): the fabric shears {:.1}° at {}, past its locking angle of {:.1}°: it will wrinkle there; split the ply or add darts",
-            e.ply,
-            e.name,
-            e.pattern.max_shear.to_degrees().abs(),
-            place(e.max_shear_place),
-            e.locking_angle.to_degrees()
-        )),
+/// The draping check of one pattern: a fabric past its locking angle, or a unidirectional ply
+/// whose fibres deviate more than 5° (common practice) from the intended direction.
+fn drape_warning(e: &PatternEntry, row: usize) -> Option<PlyBookWarning> {
+    let issue = match e.kind {
+        FabricKind::Fabric if e.locks() => PlyBookIssue::FabricLocks {
+            shear: e.pattern.max_shear.abs(),
+            locking_angle: e.locking_angle,
+            at: e.max_shear_place,
+        },
         FabricKind::Unidirectional if e.pattern.max_deviation.to_degrees().abs() > 5.0 => {
-            Some(format!(
-                "ply '{}' ({}): the fibres deviate {:.1}° from the intended direction at {} (more than 5°, common practice)",
-                e.ply,
-                e.name,
-                e.pattern.max_deviation.to_degrees().abs(),
-                place(e.max_deviation_place)
-            ))
+            PlyBookIssue::FibreDeviation {
+                deviation: e.pattern.max_deviation.abs(),
+                limit: 5f64.to_radians(),
+                at: e.max_deviation_place,
+            }
         }
-        _ => None,
-    }
+        _ => return None,
+    };
+    Some(PlyBookWarning {
+        row,
+        ply: e.ply.clone(),
+        pattern: e.name.clone(),
+        web: e.surface.starts_with("web"),
+        issue,
+    })
 }
 
 fn nest_materials(

@@ -46,7 +46,7 @@
 //! flattened), `pieces` and `splice` (a region that will not drape whole, cut in pieces), `kit`
 //! (the book built, checked and nested), `nest` (the patterns on the roll), `output` (the files
 //! as bytes: the ply book writes nothing itself). `book` holds the book's types, `error` its
-//! error.
+//! error, `warning` its warnings as values (worded by the report).
 
 // Negated comparisons are meant: they refuse NaN. DXF records are built field by field.
 #![allow(
@@ -67,6 +67,7 @@ mod pieces;
 mod regions;
 mod splice;
 mod vec3;
+mod warning;
 
 pub use book::{FabricKind, MaterialNesting, PatternEntry, PatternPlace, PlyBook, PlyBookParams};
 pub use drape::{DrapeSpec, DrapeSurface, DrapedNet, NetNode, Prune, drape};
@@ -77,3 +78,4 @@ pub use output::{nesting_svg, pattern_dxf, pattern_svg, plybook_csv, plybook_fil
 pub use pattern::{DrapeFailure, FlatPattern, RegionSpec, drape_region};
 pub use regions::{PlyRegion, ply_regions};
 pub use vec3::{point_in_polygon, polygon_area};
+pub use warning::{PlyBookIssue, PlyBookWarning};

@@ -28,8 +28,8 @@ pub fn materials_text(file: &str, library: &MaterialLibrary) -> String {
                 i.e / 1e9,
                 i.nu,
                 i.density,
-                i.melting_range_c
-                    .map(|[s, l]| format!("  melts {s:.0}..{l:.0} C"))
+                i.melting_range
+                    .map(|[s, l]| format!("  melts {:.0}..{:.0} C", s.celsius(), l.celsius()))
                     .unwrap_or_default()
             ),
         };

@@ -64,3 +64,4 @@ pub use stress::{
 };
 pub use table::{Align, Table, cautions_text, fixed, sig4};
 pub use tooling::ToolingReport;
+pub use warnings::plybook_warnings;

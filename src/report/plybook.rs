@@ -138,7 +138,7 @@ pub fn plybook_block(book: &PlyBook, laminate_kg: Option<f64>, sources: &Sources
             .paragraphs
             .push(format!("Cost of the patterns: {} (unit of cost_per_kg).", fixed(c, 2)));
     }
-    block.warnings.extend(book.warnings.iter().cloned());
+    block.warnings.extend(super::warnings::plybook_warnings(book));
     block.warnings.extend(book.failed.iter().map(|e| plybook_error_text(e, sources)));
     block.notes.push(
         "A woven or stitched fabric shearing past its locking angle (locking_angle_deg, 40° by default) will wrinkle there: split the ply or add darts. A draped net is a model of the cloth, not the cloth: confirm by a trial lay-up."

@@ -1,12 +1,14 @@
 //! Warnings in words: the typed warnings of the blade model (input, blade, sections, load
-//! cases) rendered as the sentences the commands print and the report shows. The stages keep
-//! values with their places and numbers; only this file turns them into English.
+//! cases) and of the ply book, rendered as the sentences the commands print and the report
+//! shows. The stages keep values with their places and numbers; only this file turns them into
+//! English.
 
 use std::fmt;
 
 use crate::analysis::{GroupedWarning, Warning};
 use crate::blade::BladeWarning;
 use crate::input::InputWarning;
+use crate::plybook::{PatternPlace, PlyBook, PlyBookIssue, PlyBookWarning};
 use crate::section::SectionWarning;
 use crate::units::rpm_of;
 
@@ -124,5 +126,124 @@ impl fmt::Display for GroupedWarning {
                 self.radii.len() - 1
             ),
         }
+    }
+}
+
+/// A place on a pattern as the ply-book warnings give it: radius and chord fraction on a skin,
+/// radius and height fraction on a web.
+fn pattern_place(at: &PatternPlace, web: bool) -> String {
+    if web {
+        format!("r = {:.3} m, height {:.2}", at.r, at.along)
+    } else {
+        format!("r = {:.3} m, x/c = {:.3}", at.r, at.along)
+    }
+}
+
+impl fmt::Display for PlyBookWarning {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        let (ply, pattern, web) = (&self.ply, &self.pattern, self.web);
+        match &self.issue {
+            PlyBookIssue::SpliceNotStaggered { stagger, others } => {
+                let ids: Vec<String> = others.iter().map(|q| format!("'{q}'")).collect();
+                write!(
+                    f,
+                    "ply '{ply}' ({pattern}): a splice could not be kept {:.0} mm from the splices \
+                     of ply {} on the same {} (the region is too small to move it): stagger them \
+                     by hand or cut the ply elsewhere",
+                    stagger * 1e3,
+                    ids.join(", "),
+                    if web { "web" } else { "skin" }
+                )
+            }
+            PlyBookIssue::FabricLocks { shear, locking_angle, at } => write!(
+                f,
+                "ply '{ply}' ({pattern}): the fabric shears {:.1}° at {}, past its locking angle \
+                 of {:.1}°: it will wrinkle there; split the ply or add darts",
+                shear.to_degrees(),
+                pattern_place(at, web),
+                locking_angle.to_degrees()
+            ),
+            PlyBookIssue::FibreDeviation { deviation, limit, at } => write!(
+                f,
+                "ply '{ply}' ({pattern}): the fibres deviate {:.1}° from the intended direction \
+                 at {} (more than {:.0}°, common practice)",
+                deviation.to_degrees(),
+                pattern_place(at, web),
+                limit.to_degrees()
+            ),
+            PlyBookIssue::CutShort { at, moved, points, area } => write!(
+                f,
+                "ply '{ply}' ({pattern}): the draped net cannot be carried to r = {:.3} m, {} = \
+                 {:.3} (a cell of the cloth would fold), not even in pieces: the pattern ends \
+                 short of the ply's region there ({moved} of {points} outline points moved in, \
+                 pattern area {area:.4} m²); add a dart, and check by a trial lay-up",
+                at.r,
+                along_name(web),
+                at.along
+            ),
+            PlyBookIssue::Extrapolated { at, extrapolated } => write!(
+                f,
+                "ply '{ply}' ({pattern}): the draped net stops short of the region near r = \
+                 {:.3} m, {} = {:.3} ({extrapolated} outline points extrapolated): the cloth \
+                 will not follow the surface there without a dart or a split; check by a trial \
+                 lay-up",
+                at.r,
+                along_name(web),
+                at.along
+            ),
+        }
+    }
+}
+
+fn along_name(web: bool) -> &'static str {
+    if web { "height" } else { "x/c" }
+}
+
+/// The ply book's draping warnings in words, in the book's order (the regions left out are
+/// errors of their own, `PlyBook::failed`).
+pub fn plybook_warnings(book: &PlyBook) -> Vec<String> {
+    book.warnings.iter().map(ToString::to_string).collect()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn warning(web: bool, issue: PlyBookIssue) -> PlyBookWarning {
+        PlyBookWarning { row: 2, ply: "p3".into(), pattern: "p3-upper".into(), web, issue }
+    }
+
+    #[test]
+    fn ply_book_warnings_show_degrees_millimetres_and_the_place() {
+        // Radians shown in degrees (π rad = 180°, the definition of the degree), the stagger in
+        // millimetres, a skin place by chord fraction and a web place by height fraction.
+        let at = PatternPlace { r: 0.5, along: 0.25 };
+        let shear = std::f64::consts::PI / 4.0;
+        let w = warning(
+            false,
+            PlyBookIssue::FabricLocks { shear, locking_angle: 40f64.to_radians(), at },
+        );
+        assert_eq!(
+            w.to_string(),
+            "ply 'p3' (p3-upper): the fabric shears 45.0° at r = 0.500 m, x/c = 0.250, past its \
+             locking angle of 40.0°: it will wrinkle there; split the ply or add darts"
+        );
+        let w = warning(
+            true,
+            PlyBookIssue::FibreDeviation { deviation: 0.1, limit: 5f64.to_radians(), at },
+        );
+        assert!(w.to_string().contains(
+            "deviate 5.7° from the intended direction at r = 0.500 m, height 0.25 (more than 5°"
+        ));
+        let w = warning(
+            true,
+            PlyBookIssue::SpliceNotStaggered {
+                stagger: 0.025,
+                others: vec!["a".into(), "b".into()],
+            },
+        );
+        assert!(
+            w.to_string().contains("kept 25 mm from the splices of ply 'a', 'b' on the same web")
+        );
     }
 }

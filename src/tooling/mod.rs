@@ -56,6 +56,7 @@ mod grid;
 mod loft;
 mod machining;
 mod manifest;
+mod melt_note;
 mod mould;
 mod parting;
 mod prints;
@@ -65,8 +66,8 @@ mod surface;
 mod trim;
 
 pub use blade_parts::{
-    BladeTooling, EndShape, EndSpheres, MachinedPart, MouldModules, Part, PartKind, ToolingParams,
-    build_tooling, trailing_edge_kind,
+    BladeTooling, CastingNote, EndShape, EndSpheres, MachinedPart, MouldModules, Part, PartKind,
+    ToolingParams, build_tooling, trailing_edge_kind,
 };
 pub use blade_surface::CoreEnd;
 pub use casting::{CastPart, CastingMould, CastingParams, Channel};
@@ -84,8 +85,8 @@ pub use parting::{SilhouetteSurface, SpanModule, span_modules};
 pub use prints::CorePrint;
 pub use prism::loft_polygons;
 pub use summary::{
-    MeltCheck, MeltFinding, PartMass, ScheduleContent, ToolingSummary, drain_plan, melt_check,
-    schedule_content, summarise,
+    DrainStand, MeltCheck, MeltFinding, MeltNote, PartMass, ProcessStage, ScheduleContent,
+    ToolingSummary, drain_plan, melt_check, schedule_content, summarise,
 };
 pub use surface::{ChainEnds, EndKind, FnSurface, SpanSurface, contour_polygon};
 pub use trim::{EndTrim, Trims};

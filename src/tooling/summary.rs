@@ -33,6 +33,8 @@ use crate::mesh::End;
 use crate::project::Project;
 use crate::units::Temperature;
 
+pub use super::melt_note::{MeltNote, ProcessStage};
+
 /// Volume, mass and resin mass of the ply schedule over the blade's stations.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct ScheduleContent {
@@ -64,8 +66,8 @@ pub fn schedule_content(blade: &Blade) -> ScheduleContent {
 pub struct MeltFinding {
     /// Whether it passed; `None` when a value it needs is missing.
     pub passed: Option<bool>,
-    /// What was compared, in words with the numbers.
-    pub text: String,
+    /// What was compared, with the numbers (the report words it).
+    pub note: MeltNote,
 }
 
 /// The core alloy against the resin's process temperatures.
@@ -73,8 +75,8 @@ pub struct MeltFinding {
 pub struct MeltCheck {
     /// The alloy's name, when the project names one.
     pub alloy: Option<String>,
-    /// Its solidus and liquidus, °C.
-    pub melting_range_c: Option<[f64; 2]>,
+    /// Its solidus and liquidus.
+    pub melting_range: Option<[Temperature; 2]>,
     /// The comparisons, in process order.
     pub findings: Vec<MeltFinding>,
     /// The alloy's handling note from the materials file.
@@ -91,51 +93,45 @@ impl MeltCheck {
 /// The melting check of `alloy` against the `[injection, gel, cure]` temperatures (see the
 /// module docs).
 pub fn melt_check(alloy: Option<&Isotropic>, temps: [Option<Temperature>; 3]) -> MeltCheck {
-    // The alloy's melting range is given in °C; the findings word both in °C.
-    let [injection, gel, cure] = temps.map(|t| t.map(Temperature::celsius));
-    let range = alloy.and_then(|a| a.melting_range_c);
+    let [injection, gel, cure] = temps;
+    let range = alloy.and_then(|a| a.melting_range);
     let mut findings = Vec::new();
-    let missing = |what: &str| MeltFinding { passed: None, text: format!("not checked: {what}") };
+    let missing = |note: MeltNote| MeltFinding { passed: None, note };
     match (alloy, range) {
-        (None, _) => findings.push(missing("no core_alloy in [tooling]")),
-        (Some(a), None) => findings
-            .push(missing(&format!("'{}' has no melting range (solidus_C, liquidus_C)", a.name))),
+        (None, _) => findings.push(missing(MeltNote::NoAlloy)),
+        (Some(a), None) => {
+            findings.push(missing(MeltNote::NoMeltingRange { alloy: a.name.clone() }))
+        }
         (Some(_), Some([solidus, liquidus])) => {
-            for (stage, t) in [("injection", injection), ("gelation", gel)] {
+            for (stage, t) in [(ProcessStage::Injection, injection), (ProcessStage::Gelation, gel)]
+            {
                 findings.push(match t {
-                    Some(t) => MeltFinding {
-                        passed: Some(solidus > t),
-                        text: if solidus > t {
-                            format!("solid through {stage}: solidus {solidus} °C above {t} °C")
-                        } else {
-                            format!(
-                                "MELTS BEFORE THE RESIN GELS: solidus {solidus} °C is not above \
-                                 the {stage} temperature {t} °C"
-                            )
-                        },
+                    Some(at) if solidus > at => MeltFinding {
+                        passed: Some(true),
+                        note: MeltNote::SolidThrough { stage, solidus, at },
                     },
-                    None => missing(&format!("no {stage} temperature given")),
+                    Some(at) => MeltFinding {
+                        passed: Some(false),
+                        note: MeltNote::MeltsBeforeGel { stage, solidus, at },
+                    },
+                    None => missing(MeltNote::NoTemperature { stage }),
                 });
             }
             findings.push(match cure {
-                Some(t) => MeltFinding {
-                    passed: Some(liquidus < t),
-                    text: if liquidus < t {
-                        format!("melts out in the cure: liquidus {liquidus} °C below {t} °C")
-                    } else {
-                        format!(
-                            "NEVER MELTS OUT: liquidus {liquidus} °C is not below the cure \
-                             temperature {t} °C"
-                        )
-                    },
+                Some(cure) if liquidus < cure => {
+                    MeltFinding { passed: Some(true), note: MeltNote::MeltsOut { liquidus, cure } }
+                }
+                Some(cure) => MeltFinding {
+                    passed: Some(false),
+                    note: MeltNote::NeverMeltsOut { liquidus, cure },
                 },
-                None => missing("no cure temperature given"),
+                None => missing(MeltNote::NoTemperature { stage: ProcessStage::Cure }),
             });
         }
     }
     MeltCheck {
         alloy: alloy.map(|a| a.name.clone()),
-        melting_range_c: range,
+        melting_range: range,
         findings,
         safety_note: alloy.and_then(|a| a.safety_note.clone()),
     }
@@ -163,57 +159,50 @@ pub struct ToolingSummary {
     pub core_alloy: Option<f64>,
     /// The melting check.
     pub melt: MeltCheck,
-    /// How to stand the mould so the alloy drains, one sentence per end that has prints.
-    pub drain_orientation: Vec<String>,
+    /// How to stand the mould so the alloy drains, one stand per end that has prints.
+    pub drain_orientation: Vec<DrainStand>,
     /// Per print (and per core without one) whether its alloy drains, in core order.
     pub drain_findings: Vec<MeltFinding>,
     /// Alloy to melt for each core's casting, in the order of [`BladeTooling::casting`].
     pub casting_alloy: Vec<PartMass>,
 }
 
+/// One way to stand the mould while the cores' alloy drains: on one end, the pitch axis
+/// vertical, so that the prints at that end point down. The report words it.
+#[derive(Debug, Clone, PartialEq)]
+pub struct DrainStand {
+    /// The end the mould stands on (down).
+    pub end: End,
+    /// The end up.
+    pub other: End,
+    /// The cores whose prints are at `end`, in core order.
+    pub cores: Vec<String>,
+    /// Whether the mould is turned over to this stand after an earlier one.
+    pub turned: bool,
+}
+
 /// Which way to stand the mould so the cores drain, and whether each one does (see the module
 /// docs); `tolerance` is the chordal tolerance, m.
-pub fn drain_plan(tooling: &BladeTooling, tolerance: f64) -> (Vec<String>, Vec<MeltFinding>) {
-    let mut orientation = Vec::new();
+pub fn drain_plan(tooling: &BladeTooling, tolerance: f64) -> (Vec<DrainStand>, Vec<MeltFinding>) {
+    let mut orientation: Vec<DrainStand> = Vec::new();
     for (end, other) in [(End::Root, End::Tip), (End::Tip, End::Root)] {
-        let cores: Vec<&str> =
-            tooling.prints.iter().filter(|p| p.end == end).map(|p| p.core.as_str()).collect();
+        let cores: Vec<String> =
+            tooling.prints.iter().filter(|p| p.end == end).map(|p| p.core.clone()).collect();
         if cores.is_empty() {
             continue;
         }
-        let first = if orientation.is_empty() { "Stand" } else { "Then turn it over and stand" };
-        orientation.push(format!(
-            "{first} the mould on its {end} end, the pitch axis vertical ({end} down, {other} \
-             up): the prints of {} point down and the alloy runs out through their ports.",
-            cores.join(", ")
-        ));
+        orientation.push(DrainStand { end, other, cores, turned: !orientation.is_empty() });
     }
     let mut findings: Vec<MeltFinding> = tooling
         .prints
         .iter()
         .map(|p| {
-            let mm = p.pool_depth * 1e3;
+            let (core, end, depth) = (p.core.clone(), p.end, p.pool_depth);
             // A film of a millimetre at the edge is left in any case (common practice).
             if p.pool_depth <= tolerance.max(1e-3) {
-                MeltFinding {
-                    passed: Some(true),
-                    text: format!(
-                        "{}: drains through its {} print: its end surface lies at most {mm:.2} mm \
-                         below the print's entrance (a film, within 1 mm)",
-                        p.core, p.end
-                    ),
-                }
+                MeltFinding { passed: Some(true), note: MeltNote::Drains { core, end, depth } }
             } else {
-                MeltFinding {
-                    passed: Some(false),
-                    text: format!(
-                        "{}: ALLOY POOLS UP TO {mm:.1} mm DEEP: with the mould upright its {} end \
-                         surface lies up to {mm:.1} mm below the print's entrance; tilt the \
-                         mould towards the lowest corner of that end while it drains, and check \
-                         the shell's mass after the melt-out",
-                        p.core, p.end
-                    ),
-                }
+                MeltFinding { passed: Some(false), note: MeltNote::Pools { core, end, depth } }
             }
         })
         .collect();
@@ -224,27 +213,19 @@ pub fn drain_plan(tooling: &BladeTooling, tolerance: f64) -> (Vec<String>, Vec<M
         let c = p.section.iter().fold([0.0, 0.0], |a, q| [a[0] + q[0] / n, a[1] + q[1] / n]);
         findings.push(MeltFinding {
             passed: Some(false),
-            text: format!(
-                "{}: NO SEAT IN THE MOULD YET: the mould parts are not pocketed for this print; \
-                 before closing the mould, pocket the {} end of the mould by the print's section \
-                 ({:.1} cm²) on the pitch-axis line through y = {:.1} mm, z = {:.1} mm (rotor \
-                 frame) to x = {:.1} mm, with a drain channel from it out of the mould",
-                p.core,
-                p.end,
-                p.section_area * 1e4,
-                c[0] * 1e3,
-                c[1] * 1e3,
-                p.x_end * 1e3
-            ),
+            note: MeltNote::NoSeat {
+                core: p.core.clone(),
+                end: p.end,
+                section_area: p.section_area,
+                centre: c,
+                x_end: p.x_end,
+            },
         });
     }
     for core in &tooling.unprinted {
         findings.push(MeltFinding {
             passed: Some(false),
-            text: format!(
-                "{core}: NO PRINT: bulkheads close both of its ends, so its alloy cannot leave the \
-                 shell; run one of its webs to an end of the blade"
-            ),
+            note: MeltNote::NoPrint { core: core.clone() },
         });
     }
     (orientation, findings)

@@ -16,11 +16,10 @@ pub(super) fn read_tooling(
                 // The record's own shrinkage, else its thermal contraction from the solidus
                 // to 20 °C (the casting shrinks as a solid; the change of volume on freezing is
                 // left out: bismuth alloys barely shrink or grow then).
-                core_alloy_shrinkage = match (i.shrinkage_pct, i.cte, i.melting_range_c) {
-                    (Some(pct), _, _) => pct / 100.0,
-                    (None, Some(cte), Some([solidus, _])) if solidus > 20.0 => {
-                        cte * (solidus - 20.0)
-                    }
+                let solidus = i.melting_range.map(|[s, _]| s.celsius());
+                core_alloy_shrinkage = match (i.shrinkage, i.cte, solidus) {
+                    (Some(fraction), _, _) => fraction,
+                    (None, Some(cte), Some(solidus)) if solidus > 20.0 => cte * (solidus - 20.0),
                     _ => d.core_alloy_shrinkage,
                 };
             }

@@ -59,11 +59,13 @@ fn csv_cell(s: &str) -> String {
 }
 
 /// The ply book as one JSON value (SI units in every key); `ply_lines` are the lines of the
-/// plies in the plies file by index (`line` of each pattern: 0 where not given).
+/// plies in the plies file by index (`line` of each pattern: 0 where not given), `warnings` the
+/// book's warnings in words, one per entry of [`PlyBook::warnings`].
 pub fn plybook_json(
     book: &PlyBook,
     laminate_mass_kg: Option<f64>,
     ply_lines: &[usize],
+    warnings: &[String],
 ) -> serde_json::Value {
     let patterns: Vec<_> = book
         .patterns
@@ -134,7 +136,7 @@ pub fn plybook_json(
         "pattern_cost": book.pattern_cost(),
         "patterns": patterns,
         "materials": materials,
-        "warnings": book.warnings,
+        "warnings": warnings,
         "splices": book.splices,
     })
 }

@@ -47,11 +47,14 @@ pub(super) fn label(e: &PatternEntry) -> String {
 }
 
 /// Every file of the ply book with its path relative to the output folder; `ply_lines` as for
-/// [`plybook_json`].
+/// [`plybook_json`]. `warnings` are the book's warnings in words, one per entry of
+/// [`PlyBook::warnings`]: the ply book keeps them as values and the caller (the command line,
+/// the report) words them.
 pub fn plybook_files(
     book: &PlyBook,
     laminate_mass_kg: Option<f64>,
     ply_lines: &[usize],
+    warnings: &[String],
 ) -> Result<Vec<(String, Vec<u8>)>, PlyBookError> {
     let mut files = Vec::new();
     for e in &book.patterns {
@@ -65,8 +68,9 @@ pub fn plybook_files(
         files.push((format!("nesting-{}.svg", m.material), nesting_svg(book, m).into_bytes()));
     }
     files.push(("kit.csv".to_string(), plybook_csv(book).into_bytes()));
-    let json = serde_json::to_string_pretty(&plybook_json(book, laminate_mass_kg, ply_lines))
-        .unwrap_or_default();
+    let json =
+        serde_json::to_string_pretty(&plybook_json(book, laminate_mass_kg, ply_lines, warnings))
+            .unwrap_or_default();
     files.push(("plybook.json".to_string(), json.into_bytes()));
     Ok(files)
 }

@@ -3,7 +3,7 @@
 
 use serde_json::{Value, json};
 
-use super::words::place_text;
+use super::words::{place_text, shown_found, shown_limit, unit_key, unit_symbol};
 use crate::check::{Bound, DesignCheck, Status};
 
 /// The object of `layloft check --json`: every criterion with its limit, bound, value found
@@ -19,20 +19,21 @@ pub fn check_json(
         .rows
         .iter()
         .map(|r| {
-            let found = r.found.filter(|v| v.is_finite());
+            let found = shown_found(r).filter(|v| v.is_finite());
+            let limit = shown_limit(r);
             let mut row = json!({
                 "criterion": r.key,
                 "label": r.label,
-                "limit": r.limit,
+                "limit": limit,
                 "bound": match r.bound { Bound::AtLeast => "at_least", Bound::AtMost => "at_most" },
                 "found": found,
-                "unit": r.unit,
+                "unit": unit_symbol(r),
                 "where": place_text(&r.location),
                 "pass": r.status == Status::Pass,
             });
             // The same limit and value under keys that carry their unit.
-            row[format!("limit_{}", r.unit_key())] = json!(r.limit);
-            row[format!("found_{}", r.unit_key())] = json!(found);
+            row[format!("limit_{}", unit_key(r))] = json!(limit);
+            row[format!("found_{}", unit_key(r))] = json!(found);
             row
         })
         .collect();
@@ -59,8 +60,9 @@ pub fn check_file_json(project: &str, check: &DesignCheck) -> Value {
         .iter()
         .map(|r| {
             json!({
-                "criterion": r.key, "limit": r.limit, "found": r.found.filter(|v| v.is_finite()),
-                "unit": r.unit, "where": place_text(&r.location), "pass": r.status == Status::Pass,
+                "criterion": r.key, "limit": shown_limit(r),
+                "found": shown_found(r).filter(|v| v.is_finite()), "unit": unit_symbol(r),
+                "where": place_text(&r.location), "pass": r.status == Status::Pass,
             })
         })
         .collect();

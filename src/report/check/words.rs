@@ -1,11 +1,51 @@
 //! The rows of the design check put into words.
 
-use crate::check::{Bound, CheckRow, DesignCheck, Place, Status};
+use crate::check::{Bound, CheckRow, DesignCheck, Place, Quantity, Status};
 use crate::report::{panel_place, sig4};
+use crate::units::pct_of;
 
-/// A value in the unit a reader expects (lengths below a metre in millimetres).
+/// The unit a row's limit and value are shown and written in: empty for a ratio, `%` for a
+/// fraction, the SI unit otherwise.
+pub fn unit_symbol(row: &CheckRow) -> &'static str {
+    match row.quantity {
+        Quantity::Ratio => "",
+        Quantity::Fraction => "%",
+        Quantity::Mass => "kg",
+        Quantity::Length => "m",
+    }
+}
+
+/// The unit as a key suffix for data files: `pct` for percent, `ratio` for a dimensionless
+/// ratio, otherwise the SI unit itself (`kg`, `m`).
+pub fn unit_key(row: &CheckRow) -> &'static str {
+    match row.quantity {
+        Quantity::Ratio => "ratio",
+        Quantity::Fraction => "pct",
+        _ => unit_symbol(row),
+    }
+}
+
+/// The limit in the unit of [`unit_symbol`]: a fraction as a percentage, echoed as the input
+/// gave it (12 significant digits, see [`pct_of`]).
+pub fn shown_limit(row: &CheckRow) -> f64 {
+    match row.quantity {
+        Quantity::Fraction => pct_of(row.limit),
+        _ => row.limit,
+    }
+}
+
+/// The value found in the unit of [`unit_symbol`] (a computed value, not rounded).
+pub fn shown_found(row: &CheckRow) -> Option<f64> {
+    match row.quantity {
+        Quantity::Fraction => row.found.map(|v| v * 100.0),
+        _ => row.found,
+    }
+}
+
+/// A value already in the unit of [`unit_symbol`], for a reader (lengths below a metre in
+/// millimetres).
 fn show(row: &CheckRow, v: f64) -> String {
-    match row.unit {
+    match unit_symbol(row) {
         "" => sig4(v),
         "m" if v.abs() < 1.0 => format!("{} mm", sig4(v * 1e3)),
         unit => format!("{} {unit}", sig4(v)),
@@ -18,13 +58,13 @@ pub fn demand_text(row: &CheckRow) -> String {
         Bound::AtLeast => ">=",
         Bound::AtMost => "<=",
     };
-    format!("{op} {}", show(row, row.limit))
+    format!("{op} {}", show(row, shown_limit(row)))
 }
 
 /// The value found in words with its unit: "none" when infinite (nothing can fail), "not
 /// computed" when absent.
 pub fn found_text(row: &CheckRow) -> String {
-    match row.found {
+    match shown_found(row) {
         Some(v) if v.is_finite() => show(row, v),
         Some(_) => "none".to_string(),
         None => "not computed".to_string(),
@@ -113,7 +153,7 @@ mod tests {
             2.0,
             Bound::AtMost,
             Some(1.9),
-            "kg",
+            Quantity::Mass,
             Place::Unstated,
         );
         assert_eq!(demand_text(&r), "<= 2.000 kg");
@@ -124,7 +164,7 @@ mod tests {
             0.02,
             Bound::AtMost,
             None,
-            "m",
+            Quantity::Length,
             Place::Case { name: "gust".to_string() },
         );
         assert_eq!(demand_text(&r), "<= 20.00 mm");
@@ -141,5 +181,26 @@ mod tests {
             verdict_line(&DesignCheck::default()),
             "NOT CHECKED (the project sets no [criteria])"
         );
+    }
+
+    #[test]
+    fn a_fraction_is_held_as_a_fraction_and_shown_in_percent() {
+        // A margin of 0.0775 against a demand of 0.08 (8 %): the row compares fractions and the
+        // words show percent (1 % = 0.01, the definition of the per cent).
+        let r = CheckRow::new(
+            "frequency_margin_pct",
+            "least frequency margin",
+            0.08,
+            Bound::AtLeast,
+            Some(0.0775),
+            Quantity::Fraction,
+            Place::Unstated,
+        );
+        assert_eq!(r.status, Status::Fail);
+        assert_eq!((unit_symbol(&r), unit_key(&r)), ("%", "pct"));
+        assert_eq!(shown_limit(&r), 8.0);
+        assert!((shown_found(&r).unwrap() - 7.75).abs() < 1e-12);
+        assert_eq!(demand_text(&r), ">= 8.000 %");
+        assert_eq!(found_text(&r), "7.750 %");
     }
 }

@@ -1,5 +1,5 @@
 use super::*;
-use crate::check::{Bound, CheckRow, Place};
+use crate::check::{Bound, CheckRow, Place, Quantity};
 use crate::report::Align;
 
 const SVG: &str = "<svg xmlns=\"http://www.w3.org/2000/svg\" viewBox=\"0 0 4 4\"></svg>";
@@ -96,7 +96,7 @@ fn row(status_ok: bool) -> CheckRow {
         1.5,
         Bound::AtLeast,
         found,
-        "",
+        Quantity::Ratio,
         Place::Named("r = 0.52 m, upper spar cap".into()),
     )
 }

@@ -86,12 +86,12 @@ impl ToolingReport<'_> {
                     .into(),
                 self.prints_table(),
             ));
-            block.paragraphs.extend(self.summary.drain_orientation.iter().cloned());
+            block.paragraphs.extend(self.summary.drain_orientation.iter().map(ToString::to_string));
             for f in &self.summary.drain_findings {
                 if f.passed == Some(false) {
-                    block.warnings.push(format!("draining: {}", f.text));
+                    block.warnings.push(format!("draining: {}", f.note));
                 } else {
-                    block.notes.push(format!("passed: {}", f.text));
+                    block.notes.push(format!("passed: {}", f.note));
                 }
             }
             block.notes.push(DRAIN_CAUTION.to_string());
@@ -107,7 +107,7 @@ impl ToolingReport<'_> {
             ));
             block.notes.push(CASTING_CAUTION.to_string());
         }
-        block.notes.extend(self.tooling.casting_notes.iter().cloned());
+        block.notes.extend(self.tooling.casting_notes.iter().map(ToString::to_string));
         block.notes.extend(self.stale_lines());
         for l in lines(&melt) {
             if l.starts_with("FAIL") {

@@ -116,11 +116,11 @@ impl ToolingReport<'_> {
             },
             "core_alloy": {
                 "name": melt.alloy,
-                "solidus_C": opt(melt.melting_range_c.map(|r| r[0])),
-                "liquidus_C": opt(melt.melting_range_c.map(|r| r[1])),
+                "solidus_C": opt(melt.melting_range.map(|r| r[0].celsius())),
+                "liquidus_C": opt(melt.melting_range.map(|r| r[1].celsius())),
                 "checks": melt.findings.iter().map(|f| json!({
                     "passed": f.passed,
-                    "text": f.text,
+                    "text": f.note.to_string(),
                 })).collect::<Vec<_>>(),
                 "failed": melt.failed(),
                 "safety_note": melt.safety_note,
@@ -178,10 +178,10 @@ impl ToolingReport<'_> {
             "core_print_fraction": num(t.params.print_fraction),
             "core_print_length_m": num(t.params.print_length),
             "drain": {
-                "orientation": self.summary.drain_orientation,
+                "orientation": self.summary.drain_orientation.iter().map(ToString::to_string).collect::<Vec<_>>(),
                 "checks": self.summary.drain_findings.iter().map(|f| json!({
                     "passed": f.passed,
-                    "text": f.text,
+                    "text": f.note.to_string(),
                 })).collect::<Vec<_>>(),
                 "caution": DRAIN_CAUTION,
             },
@@ -229,7 +229,7 @@ impl ToolingReport<'_> {
                 })).collect::<Vec<_>>(),
                 "machining_frames": m.machining.iter().map(machining_frame).collect::<Vec<_>>(),
             })).collect::<Vec<_>>(),
-            "casting_notes": t.casting_notes,
+            "casting_notes": t.casting_notes.iter().map(ToString::to_string).collect::<Vec<_>>(),
             "casting_caution": CASTING_CAUTION,
         });
         if let (Some(o), Value::Object(c)) = (out.as_object_mut(), casting) {

@@ -16,6 +16,7 @@ mod json;
 mod moulds_text;
 mod tables;
 mod text;
+mod words;
 
 use crate::mesh::{LengthUnit, WrittenPart};
 use crate::report::table::{fixed, sig4};

@@ -61,12 +61,12 @@ impl ToolingReport<'_> {
             self.unit().symbol()
         );
         s.push_str(&self.prints_table().render(2));
-        for line in &self.summary.drain_orientation {
-            s.push_str(&wrap(line, "  ", "    "));
+        for stand in &self.summary.drain_orientation {
+            s.push_str(&wrap(&stand.to_string(), "  ", "    "));
         }
         for f in &self.summary.drain_findings {
             let mark = if f.passed == Some(false) { "FAIL" } else { "ok  " };
-            s.push_str(&wrap(&format!("{mark} {}", f.text), "  ", "    "));
+            s.push_str(&wrap(&format!("{mark} {}", f.note), "  ", "    "));
         }
         s.push_str(&wrap(DRAIN_CAUTION, "  ! ", "    "));
     }
@@ -88,7 +88,7 @@ impl ToolingReport<'_> {
         ));
         s.push_str(&self.casting_table().render(2));
         for n in &t.casting_notes {
-            s.push_str(&wrap(n, "  ", "    "));
+            s.push_str(&wrap(&n.to_string(), "  ", "    "));
         }
         s.push_str(&wrap(CASTING_CAUTION, "  ! ", "    "));
     }
@@ -168,8 +168,10 @@ impl ToolingReport<'_> {
 
     pub(super) fn melt_text(&self, s: &mut String) {
         let m = &self.summary.melt;
-        let range =
-            m.melting_range_c.map(|[a, b]| format!(", melts {a}..{b} °C")).unwrap_or_default();
+        let range = m
+            .melting_range
+            .map(|[a, b]| format!(", melts {}..{} °C", a.celsius(), b.celsius()))
+            .unwrap_or_default();
         let name = m.alloy.clone().unwrap_or_else(|| "none named".into());
         let _ = writeln!(s, "\nCore alloy: {name}{range}");
         for f in &m.findings {
@@ -178,7 +180,7 @@ impl ToolingReport<'_> {
                 Some(false) => "FAIL",
                 None => "-   ",
             };
-            let _ = writeln!(s, "  {mark} {}", f.text);
+            let _ = writeln!(s, "  {mark} {}", f.note);
         }
         if let Some(note) = &m.safety_note {
             s.push_str(&wrap(&format!("handling: {note}"), "  ", "    "));

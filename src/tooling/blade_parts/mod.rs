@@ -245,6 +245,21 @@ pub struct EndSpheres {
     pub tip_laminate: f64,
 }
 
+/// A note on the cores' casting moulds (the report words it).
+#[derive(Debug, Clone, PartialEq)]
+pub enum CastingNote {
+    /// A core whose casting mould could not be made, with the reason; the rest of the tooling
+    /// stands.
+    NoMould {
+        /// The core's part name (`core-N`).
+        core: String,
+        /// Why its mould could not be made.
+        reason: MeshError,
+    },
+    /// The casting moulds cast the cores without their prints.
+    PrintsNotCast,
+}
+
 /// The whole tooling of a blade.
 #[derive(Debug, Clone)]
 pub struct BladeTooling {
@@ -281,8 +296,9 @@ pub struct BladeTooling {
     pub unprinted: Vec<String>,
     /// Each core's casting mould, in core order (see [`super::CastingMould`]).
     pub casting: Vec<CastingMould>,
-    /// Cores without a casting mould, each with the reason.
-    pub casting_notes: Vec<String>,
+    /// Cores without a casting mould, each with the reason, and what the casting moulds leave
+    /// out (worded by the report).
+    pub casting_notes: Vec<CastingNote>,
     /// The mould split along the span, when no single pull draws every section (see
     /// [`build_tooling`]); `None` for a mould of two halves.
     pub modular: Option<MouldModules>,

@@ -187,7 +187,7 @@ pub(super) fn casting_moulds(
     casting: &CastingParams,
     first: Angle,
     printing: bool,
-) -> (Vec<CastingMould>, Vec<String>) {
+) -> (Vec<CastingMould>, Vec<CastingNote>) {
     let (mut moulds, mut notes) = (Vec::new(), Vec::new());
     for (i, (cell, trims)) in cells.iter().enumerate() {
         let name = format!("core-{}", i + 1);
@@ -204,15 +204,11 @@ pub(super) fn casting_moulds(
         };
         match casting_mould(&input, casting) {
             Ok(m) => moulds.push(m),
-            Err(e) => notes.push(format!("{name}: no casting mould ({e})")),
+            Err(reason) => notes.push(CastingNote::NoMould { core: name, reason }),
         }
     }
     if printing && !moulds.is_empty() {
-        notes.push(
-            "the casting moulds cast the cores without their prints: the prints are not in them \
-             yet"
-            .into(),
-        );
+        notes.push(CastingNote::PrintsNotCast);
     }
     (moulds, notes)
 }
