@@ -70,6 +70,15 @@ impl CubicSpline {
             + ((a * a * a - a) * self.m[i - 1] + (b * b * b - b) * self.m[i]) * h * h / 6.0
     }
 
+    /// The second derivative on segment `i` (see [`CubicSpline::eval_on`]): linear between the
+    /// knots' second derivatives (de Boor, ch. IV), held at the segment's ends beyond them.
+    pub(crate) fn second_on(&self, i: usize, t: f64) -> f64 {
+        let (x0, x1) = (self.x[i - 1], self.x[i]);
+        let h = x1 - x0;
+        let b = ((t - x0) / h).clamp(0.0, 1.0);
+        (1.0 - b) * self.m[i - 1] + b * self.m[i]
+    }
+
     /// [`CubicSpline::derivative`] on segment `i` (see [`CubicSpline::eval_on`]).
     pub(crate) fn derivative_on(&self, i: usize, t: f64) -> f64 {
         let (x0, x1) = (self.x[i - 1], self.x[i]);
@@ -148,6 +157,25 @@ impl Pchip {
         let h11 = s * s * (s - 1.0);
         h00 * self.y[i - 1] + h10 * h * self.d[i - 1] + h01 * self.y[i] + h11 * h * self.d[i]
     }
+
+    /// The first derivative at `t`: zero beyond the ends (where [`Pchip::eval`] holds the end
+    /// value); at a knot, that of the segment to its right.
+    pub(crate) fn derivative(&self, t: f64) -> f64 {
+        let n = self.x.len();
+        if n == 1 || t < self.x[0] || t >= self.x[n - 1] {
+            return 0.0;
+        }
+        let i = self.x.partition_point(|&v| v <= t).clamp(1, n - 1);
+        let (x0, x1) = (self.x[i - 1], self.x[i]);
+        let h = x1 - x0;
+        let s = (t - x0) / h;
+        // The Hermite basis differentiated in `s`, over `h`.
+        let d00 = 6.0 * s * (s - 1.0);
+        let d10 = (1.0 - s) * (1.0 - 3.0 * s);
+        let d01 = -d00;
+        let d11 = s * (3.0 * s - 2.0);
+        (d00 * self.y[i - 1] + d01 * self.y[i]) / h + d10 * self.d[i - 1] + d11 * self.d[i]
+    }
 }
 
 #[cfg(test)]
@@ -189,5 +217,40 @@ mod tests {
             last = v;
         }
         assert_eq!(p.eval(2.0), 1.0);
+    }
+
+    #[test]
+    fn the_derivatives_are_those_of_the_interpolants() {
+        // Fritsch & Carlson 1980: data on a straight line get the line's slope at every knot,
+        // so the interpolant is the line and its derivative the slope (zero beyond the ends,
+        // where it is held).
+        let x = [0.0, 0.7, 2.0, 3.1];
+        let y: Vec<f64> = x.iter().map(|v| 2.5 * v + 1.0).collect();
+        let p = Pchip::new(&x, &y);
+        for t in [0.1, 0.7, 1.3, 3.0] {
+            assert!((p.derivative(t) - 2.5).abs() < 1e-12, "{t}");
+        }
+        assert_eq!(p.derivative(-0.5), 0.0);
+        assert_eq!(p.derivative(3.5), 0.0);
+        // On curved data, against the interpolant's own central difference quotient (error
+        // O(h²), Burden & Faires, Numerical Analysis, §4.1, from memory).
+        let y = [0.0, 0.3, 1.4, 1.5];
+        let p = Pchip::new(&x, &y);
+        let h = 1e-6;
+        for t in [0.2, 1.0, 2.6] {
+            let fd = (p.eval(t + h) - p.eval(t - h)) / (2.0 * h);
+            assert!((p.derivative(t) - fd).abs() < 1e-7, "{t}");
+        }
+        // A natural spline's second derivative, against the difference quotient of its first
+        // derivative; sin'' = -sin at fourth-order-accurate samples (de Boor 1978, ch. IV).
+        let xs: Vec<f64> = (0..=40).map(|i| i as f64 * 0.1).collect();
+        let ys: Vec<f64> = xs.iter().map(|v| v.sin()).collect();
+        let s = CubicSpline::natural(&xs, &ys);
+        for t in [1.234, 2.05, 3.3] {
+            let i = s.segment(t);
+            let fd = (s.derivative(t + h) - s.derivative(t - h)) / (2.0 * h);
+            assert!((s.second_on(i, t) - fd).abs() < 1e-6, "{t}");
+            assert!((s.second_on(i, t) + t.sin()).abs() < 2e-3, "{t}");
+        }
     }
 }

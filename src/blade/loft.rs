@@ -41,6 +41,12 @@ impl SpanInterpolation {
         self.pitch_axis.eval(r)
     }
 
+    /// The rates of chord (m/m), twist (rad/m) and pitch axis (chord fraction per m) along the
+    /// span at `r` (zero beyond the stations; at a station, those of the span beyond it).
+    pub(super) fn rates(&self, r: f64) -> [f64; 3] {
+        [self.chord.derivative(r), self.twist_rad.derivative(r), self.pitch_axis.derivative(r)]
+    }
+
     /// The neighbouring stations of `r` and the blending weight of the outer one.
     fn bracket(&self, r: f64) -> (usize, usize, f64) {
         let n = self.radii.len();

@@ -36,7 +36,7 @@ mod loft;
 mod mass;
 mod surface;
 mod warning;
-pub(crate) use surface::{AtRadius, smooth_step};
+pub(crate) use surface::{AtRadius, OuterJet, RadiusRates, smooth_step};
 
 pub use coverage::Surface;
 pub use surface::{BladeSurfaces, CORE_EDGE_TAPER, PLY_DROP_TAPER};

@@ -89,6 +89,18 @@ impl StationCurve {
             [self.x.derivative_on(i, s) * ds, self.y.derivative_on(i, s) * ds],
         )
     }
+
+    /// [`StationCurve::point`] with the second derivative in `u`.
+    fn point2(&self, surface: Surface, u: f64) -> ([f64; 2], [f64; 2], [f64; 2]) {
+        let (s, ds) = self.arc(surface, u);
+        let i = self.x.segment(s);
+        let dd = ds * ds;
+        (
+            [self.x.eval_on(i, s), self.y.eval_on(i, s)],
+            [self.x.derivative_on(i, s) * ds, self.y.derivative_on(i, s) * ds],
+            [self.x.second_on(i, s) * dd, self.y.second_on(i, s) * dd],
+        )
+    }
 }
 
 /// A smooth step from 0 (at `xi ≤ -1`) to 1 (at `xi ≥ 1`): `3s² − 2s³` with `s = (xi + 1) / 2`.
@@ -194,6 +206,35 @@ pub(crate) struct AtRadius {
     pitch_axis: f64,
 }
 
+/// The rates along the span of the quantities of [`AtRadius`] (see
+/// [`BladeSurfaces::radius_rates`]).
+#[derive(Debug, Clone, Copy)]
+pub(crate) struct RadiusRates {
+    /// Chord, m/m.
+    pub(crate) chord: f64,
+    /// Twist, rad/m.
+    pub(crate) twist: f64,
+    pitch_axis: f64,
+    /// Rate of the stations' blending weight, 1/m.
+    blend: f64,
+}
+
+/// The outer mould line's point in the section plane with its first derivatives (see
+/// [`BladeSurfaces::outer_jet`]): `p`, `n` and `x` as [`BladeSurfaces::outer_with_normal_at`]
+/// gives them, and their rates along the chordwise parameter `u` (`_u`) and the radius (`_r`).
+#[derive(Debug, Clone, Copy)]
+pub(crate) struct OuterJet {
+    pub(crate) p: [f64; 2],
+    pub(crate) n: [f64; 2],
+    pub(crate) x: f64,
+    pub(crate) p_u: [f64; 2],
+    pub(crate) p_r: [f64; 2],
+    pub(crate) n_u: [f64; 2],
+    pub(crate) n_r: [f64; 2],
+    pub(crate) x_u: f64,
+    pub(crate) x_r: f64,
+}
+
 /// The blade's outer mould line and inner laminate surface, continuous in radius and chordwise
 /// parameter (see the module docs).
 #[derive(Debug, Clone)]
@@ -250,6 +291,75 @@ impl BladeSurfaces<'_> {
             bracket: self.bracket(r),
             chord: self.blade.chord(r),
             pitch_axis: self.blade.pitch_axis_frac(r),
+        }
+    }
+
+    /// The span rates at the radius of `at`. Radii within `guard` of a station are `None`: the
+    /// stations are blended linearly, so the surface's slope along the span jumps there.
+    pub(crate) fn radius_rates(&self, at: &AtRadius, guard: f64) -> Option<RadiusRates> {
+        let st = &self.blade.stations;
+        let k = st.partition_point(|s| s.r < at.r);
+        let near = |i: usize| st.get(i).is_some_and(|s| (s.r - at.r).abs() <= guard);
+        if near(k) || (k > 0 && near(k - 1)) {
+            return None;
+        }
+        let (i, j, w) = at.bracket;
+        let blend = if i != j && w > 0.0 && w < 1.0 { 1.0 / (st[j].r - st[i].r) } else { 0.0 };
+        let [chord, twist, pitch_axis] = self.blade.loft.rates(at.r);
+        Some(RadiusRates { chord, twist, pitch_axis, blend })
+    }
+
+    /// [`BladeSurfaces::outer_with_normal_at`] (the same numbers, bit for bit) with the first
+    /// derivatives of the point, the normal and the chord fraction along `u` and the radius
+    /// (the curves' splines differentiated; the normal's rate is the tangent's rate less its
+    /// part along the tangent, turned a quarter turn, over the tangent's length).
+    pub(crate) fn outer_jet(
+        &self,
+        at: &AtRadius,
+        rates: &RadiusRates,
+        surface: Surface,
+        u: f64,
+    ) -> OuterJet {
+        let (i, j, w) = at.bracket;
+        let (pa, da, sa) = self.curves[i].point2(surface, u);
+        let (pb, db, sb) = self.curves[j].point2(surface, u);
+        let mix = |a: [f64; 2], b: [f64; 2]| [a[0] + w * (b[0] - a[0]), a[1] + w * (b[1] - a[1])];
+        let rate =
+            |a: [f64; 2], b: [f64; 2]| [rates.blend * (b[0] - a[0]), rates.blend * (b[1] - a[1])];
+        let (p, d, dd) =
+            if w == 0.0 { (pa, da, sa) } else { (mix(pa, pb), mix(da, db), mix(sa, sb)) };
+        let (p_r, d_r) = (rate(pa, pb), rate(da, db));
+        let len = d[0].hypot(d[1]);
+        let turn = |v: [f64; 2]| match surface {
+            Surface::Upper => [-v[1], v[0]],
+            Surface::Lower => [v[1], -v[0]],
+        };
+        let (n, n_u, n_r) = if len > 0.0 {
+            let n = match surface {
+                Surface::Upper => [-d[1] / len, d[0] / len],
+                Surface::Lower => [d[1] / len, -d[0] / len],
+            };
+            let rate_of = |v: [f64; 2]| {
+                let t = turn(v);
+                let along = (d[0] * v[0] + d[1] * v[1]) / (len * len);
+                [t[0] / len - along * n[0], t[1] / len - along * n[1]]
+            };
+            (n, rate_of(dd), rate_of(d_r))
+        } else {
+            ([-1.0, 0.0], [0.0; 2], [0.0; 2])
+        };
+        let c = at.chord;
+        let (c_r, pa_r) = (rates.chord, rates.pitch_axis);
+        OuterJet {
+            p: [(p[0] - at.pitch_axis) * c, p[1] * c],
+            n,
+            x: p[0],
+            p_u: [d[0] * c, d[1] * c],
+            p_r: [(p_r[0] - pa_r) * c + (p[0] - at.pitch_axis) * c_r, p_r[1] * c + p[1] * c_r],
+            n_u,
+            n_r,
+            x_u: d[0],
+            x_r: p_r[0],
         }
     }
 
