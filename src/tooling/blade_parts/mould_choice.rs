@@ -186,7 +186,7 @@ pub(super) fn casting_moulds(
     params: &ToolingParams,
     casting: &CastingParams,
     first: Angle,
-    printing: bool,
+    prints: &[&CorePrint],
 ) -> (Vec<CastingMould>, Vec<String>) {
     let (mut moulds, mut notes) = (Vec::new(), Vec::new());
     for (i, (cell, trims)) in cells.iter().enumerate() {
@@ -197,6 +197,7 @@ pub(super) fn casting_moulds(
             trims,
             loft,
             first,
+            print: prints.iter().copied().find(|p| p.core == name),
             margin: params.mould_margin,
             tolerance: params.tolerance,
             min_draft: params.min_draft,
@@ -206,13 +207,6 @@ pub(super) fn casting_moulds(
             Ok(m) => moulds.push(m),
             Err(e) => notes.push(format!("{name}: no casting mould ({e})")),
         }
-    }
-    if printing && !moulds.is_empty() {
-        notes.push(
-            "the casting moulds cast the cores without their prints: the prints are not in them \
-             yet"
-            .into(),
-        );
     }
     (moulds, notes)
 }

@@ -197,15 +197,10 @@ pub(super) fn end_piece(
             mesh.triangles.extend([[a, b, d], [b, c, d]]);
         }
     }
-    let pts: Vec<[f64; 2]> = far
-        .iter()
-        .map(|&v| {
-            let q = frame.to_mould(mesh.vertices[v as usize]);
-            [q[1], q[2]]
-        })
-        .collect();
-    let tris = crate::mesh::triangulate_polygon(&pts)?;
-    mesh.triangles.extend(tris.iter().map(|t| t.map(|i| far[i])));
+    // The end face: a constrained Delaunay triangulation (straight runs of the ring, a web's
+    // face, give no sliver as ear clipping can).
+    let face = EndTrim::Plane { x: frame.to_rotor([x_end, 0.0, 0.0])[0] };
+    crate::tooling::prints::cap_with_holes(&mut mesh, &far, &[], face, f64::INFINITY)?;
     orient_outward(&mut mesh);
     compact(&mut mesh);
     Ok(mesh)

@@ -41,6 +41,10 @@
 //! at its silhouette along the pull (see [`super::SilhouetteSurface`]) leaves none where its
 //! sections are graphs across the pull, which is how [`super::build_tooling`] lofts a blade.
 //!
+//! **Seats** (`seats`). Where core prints leave an end, the end piece there (made even where the
+//! end would not need one) is pocketed for each print: the part's end cap is replaced by the cap
+//! holed by the seats, each hole carried to its floor, and the end piece is built round that.
+//!
 //! **Span-wise modules** ([`build_modular_mould`]). Where no single pull draws every section
 //! (a strongly cambered section turned through more twist than its window of drawing pulls,
 //! see [`super::span_modules`]), the mould is made of modules along the span, each a mould of
@@ -53,8 +57,8 @@
 
 use super::draft::{DraftReport, evaluate_draft};
 use super::grid::LoftParams;
-use super::loft::LoftedSolid;
 use super::loft::loft_solid;
+use super::loft::{FacetRanges, LoftedSolid};
 mod block;
 use super::parting::{SilhouetteSurface, SpanModule};
 use super::surface::SpanSurface;
@@ -70,10 +74,14 @@ use block::{Frame, Layout, Locator, build_half};
 mod halves;
 mod layout;
 mod modules;
+mod seats;
 mod split;
 use halves::{Block, build_mould_set};
 use layout::layout;
 pub use modules::{ModularMould, build_modular_mould, loft_modules};
+pub(crate) use seats::{
+    Seat, SeatedEnd, build_seated_mould_parts, reseat, seat_mould_parts, seated_solid,
+};
 use split::{parting_loop, split_faces, undercut_regions};
 
 /// `n · d` below this is an undercut (as the draft evaluator counts it).
