@@ -162,8 +162,8 @@ impl Walls {
         };
         // Where each line meets the outer trim (the trim's slope is small: a few steps).
         let mut port = Vec::with_capacity(section.len());
-        for i in 0..section.len() {
-            let mut p = lift_x(set.outer_trim, section[i])?;
+        for (i, &q) in section.iter().enumerate() {
+            let mut p = lift_x(set.outer_trim, q)?;
             for _ in 0..8 {
                 p = lift_x(set.outer_trim, at(i, p[0]))?;
             }
