@@ -281,12 +281,10 @@ pub(crate) fn print_core(
 }
 
 /// The columns of `section` (the upper chain's points, then the lower chain's back, corner
-/// for corner at the same chordwise place) where the section is deep enough for the taper: at
-/// least three times the inward lean over the print's longest wall (twice for the two sides
-/// moving in, and half again for the corners' miters). A section thin at a chordwise end (a
-/// core closing at an edge) loses that end; the section is kept whole when no run of columns
-/// is deep enough (the print is then made straight); the columns next to the ends are thinned
-/// so that no side next to a corner is shorter than that depth.
+/// for corner at the same chordwise place) with those next to the two end columns thinned, so
+/// that no side next to a corner is shorter than three times the inward lean over the print's
+/// longest wall (the sides moving in shorten a side next to a corner by the lean times the
+/// corner's cotangent of half its angle).
 fn thick_enough(
     section: Vec<[f64; 2]>,
     set: &PrintSetting,
@@ -302,29 +300,9 @@ fn thick_enough(
     let walls = Walls::new(&section, &from, set, sign, lean)?;
     let longest = from.iter().map(|p| (walls.x_end - p[0]).abs()).fold(0.0, f64::max);
     let need = 3.0 * lean * longest;
-    let cols = len / 2;
-    let deep = |k: usize| {
-        let (a, b) = (section[k], section[len - 1 - k]);
-        (a[0] - b[0]).hypot(a[1] - b[1]) >= need
-    };
-    // The longest run of deep columns.
-    let (mut best, mut start) = ((0, 0), None);
-    for k in 0..=cols {
-        match (k < cols && deep(k), start) {
-            (true, None) => start = Some(k),
-            (false, Some(k0)) => {
-                if k - k0 > best.1 - best.0 {
-                    best = (k0, k);
-                }
-                start = None;
-            }
-            _ => {}
-        }
-    }
-    let (k0, k1) = best;
-    if k1 - k0 < 4 {
-        return Ok(section);
-    }
+    // Every column is kept (a thin chordwise end is where a domed end drains: dropping it
+    // would leave alloy standing); a section that folds all the same gets a straight print.
+    let (k0, k1) = (0, len / 2);
     // At the four corners the sides moving in shorten the sides next to them by up to the
     // lean times the corner's cotangent of half its angle: the columns nearer an end column
     // than `need` are dropped, so no side next to a corner can turn over.
