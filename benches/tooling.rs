@@ -2,7 +2,8 @@
 //! the whole tooling of the invented mine-fan demo (`layups/mine-fan/`): cores, shell and mould
 //! halves built, then checked and written as `layloft tooling` does (`whole_run`: with the
 //! machining copies, the cores' casting moulds, the digests and the masses;
-//! `whole_run_without_casting`: the same without the casting moulds).
+//! `whole_run_without_casting`: the same without the casting moulds; `whole_run_without_prints`:
+//! the same without the core prints and their seats).
 //!
 //! Run with `cargo bench --bench tooling`. The input is fixed (no randomness): an invented
 //! straight NACA 0012 blade, 0.10 m chord, 30° of twist per metre, trimmed by spheres of
@@ -102,7 +103,13 @@ fn bench_demo(c: &mut Criterion) {
     // With the cores' casting moulds (as `layloft tooling` now runs), and without them (the
     // run before they were added), for the ratio in one run.
     let without = ToolingParams { casting: None, ..params.clone() };
-    for (label, params) in [("whole_run", &params), ("whole_run_without_casting", &without)] {
+    // And without the core prints (off by default before the mould seated them).
+    let unprinted = ToolingParams { print_fraction: 0.0, ..params.clone() };
+    for (label, params) in [
+        ("whole_run", &params),
+        ("whole_run_without_casting", &without),
+        ("whole_run_without_prints", &unprinted),
+    ] {
         g.bench_function(label, |b| {
             b.iter(|| {
                 let t =

@@ -51,6 +51,8 @@ mod validation_plybook;
 mod validation_plybook_book;
 #[path = "validation_plybook_pieces.rs"]
 mod validation_plybook_pieces;
+#[path = "validation_print_seats.rs"]
+mod validation_print_seats;
 #[path = "validation_section.rs"]
 mod validation_section;
 #[path = "validation_stress.rs"]

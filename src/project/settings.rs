@@ -63,7 +63,8 @@ pub struct ToolingSpec {
     pub min_draft: Angle,
     /// Least core thickness normal to the chord, where a core ends at a thin trailing edge, m.
     pub min_core_thickness: f64,
-    /// A core print's section as a fraction of the core's end section (0: no prints).
+    /// A core print's section as a fraction of the core's end section (0, the default: no
+    /// prints; 0.5 is a usual choice, common practice).
     pub core_print_fraction: f64,
     /// How far a core print stands out beyond the shell's end, m.
     pub core_print_length: f64,

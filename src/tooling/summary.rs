@@ -206,9 +206,9 @@ pub fn drain_plan(tooling: &BladeTooling, tolerance: f64) -> (Vec<DrainStand>, V
             }
         })
         .collect();
-    // The mould parts are not yet pocketed for the prints: each print stands into the end
-    // piece (or the halves, with planar ends) and the shop must cut its seat by hand.
-    for p in &tooling.prints {
+    // A print the mould has no seat for (at an end of a mould split along the span whose outer
+    // module has no end piece): the shop must cut its seat by hand.
+    for p in tooling.prints.iter().filter(|p| p.seat_clearance.is_none()) {
         let n = p.section.len().max(1) as f64;
         let c = p.section.iter().fold([0.0, 0.0], |a, q| [a[0] + q[0] / n, a[1] + q[1] / n]);
         findings.push(MeltFinding {

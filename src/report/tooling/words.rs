@@ -24,11 +24,6 @@ impl fmt::Display for CastingNote {
             CastingNote::NoMould { core, reason } => {
                 write!(f, "{core}: no casting mould ({reason})")
             }
-            CastingNote::PrintsNotCast => write!(
-                f,
-                "the casting moulds cast the cores without their prints: the prints are not in \
-                 them yet"
-            ),
         }
     }
 }

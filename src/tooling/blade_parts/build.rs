@@ -252,6 +252,7 @@ pub fn build_tooling(
                     outer_trim: outer_trims.at(end),
                     max_side: side(trims.at(end)),
                     inset: 0.25 * params.min_core_thickness,
+                    taper: print_taper(params.min_draft),
                 };
                 let p = print_core(&name, &solid, end, cell, &set)
                     .map_err(|e| MeshError::Geometry(format!("{name}: {e}")))?;
@@ -298,6 +299,16 @@ pub fn build_tooling(
         nominal_volume: shell_volume,
     });
     step("shell", progress);
+    let max_side = side(outer_trims.root).min(side(outer_trims.tip));
+    let mould = seat_prints(
+        mould,
+        &outer_solid,
+        mould_pull_angle,
+        params,
+        &mut printed,
+        &outer_trims,
+        max_side,
+    )?;
     let (moulds, end_pieces, modular) = match mould {
         Mould::Whole(set) => {
             let (moulds, end_pieces) = push_mould_parts(*set, &mut parts);
@@ -324,7 +335,10 @@ pub fn build_tooling(
         machining.push(MachinedPart { part: p.name.clone(), name, mesh, frame });
     }
     let (casting, casting_notes) = match &params.casting {
-        Some(c) => casting_moulds(&cells, &loft, params, c, mould_pull_angle, printing),
+        Some(c) => {
+            let prints: Vec<&CorePrint> = printed.iter().map(|p| &p.print).collect();
+            casting_moulds(&cells, &loft, params, c, mould_pull_angle, &prints)
+        }
         None => (Vec::new(), Vec::new()),
     };
     Ok(BladeTooling {

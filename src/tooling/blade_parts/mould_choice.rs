@@ -186,7 +186,7 @@ pub(super) fn casting_moulds(
     params: &ToolingParams,
     casting: &CastingParams,
     first: Angle,
-    printing: bool,
+    prints: &[&CorePrint],
 ) -> (Vec<CastingMould>, Vec<CastingNote>) {
     let (mut moulds, mut notes) = (Vec::new(), Vec::new());
     for (i, (cell, trims)) in cells.iter().enumerate() {
@@ -197,6 +197,7 @@ pub(super) fn casting_moulds(
             trims,
             loft,
             first,
+            print: prints.iter().copied().find(|p| p.core == name),
             margin: params.mould_margin,
             tolerance: params.tolerance,
             min_draft: params.min_draft,
@@ -206,9 +207,6 @@ pub(super) fn casting_moulds(
             Ok(m) => moulds.push(m),
             Err(reason) => notes.push(CastingNote::NoMould { core: name, reason }),
         }
-    }
-    if printing && !moulds.is_empty() {
-        notes.push(CastingNote::PrintsNotCast);
     }
     (moulds, notes)
 }

@@ -22,6 +22,20 @@ pub(crate) fn casting_mould(
         .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), v| (a.min(v), b.max(v)));
     let turn = input.min_draft.deg() + 0.5;
     let candidates = [input.first, Angle::from_deg(hi + turn), Angle::from_deg(lo - turn)];
+    // The print is cast with the core: its seat in the end piece at its end (scaled as the
+    // cavity is), an end piece made there if the end would not need one.
+    let seat_end = match input.print {
+        Some(p) => {
+            let trim = scaled_trim(input.trims.at(p.end), 1.0 + s);
+            Some(SeatedEnd {
+                end: p.end,
+                trim,
+                seats: vec![casting_seat(p, input.trims.at(p.end), 1.0 + s)?],
+                max_side: trim.chord_for_sag(0.5 * input.tolerance).min(input.loft.max_edge),
+            })
+        }
+        None => None,
+    };
     let mut best: Option<(LoftedSolid, f64, Angle, MouldParts, [f64; 2])> = None;
     for angle in candidates {
         let solid =
@@ -37,7 +51,15 @@ pub(crate) fn casting_mould(
             min_draft: input.min_draft,
             unit: input.unit,
         };
-        let set = build_mould_parts(&cavity, &|_x: f64| angle, &mould)?;
+        let set = match &seat_end {
+            Some(at) => build_seated_mould_parts(
+                &cavity,
+                &|_x: f64| angle,
+                &mould,
+                std::slice::from_ref(at),
+            )?,
+            None => build_mould_parts(&cavity, &|_x: f64| angle, &mould)?,
+        };
         let drafts =
             set.halves.iter().map(|h| &h.draft).chain(set.end_pieces.iter().map(|e| &e.1.draft));
         let score =
@@ -51,9 +73,14 @@ pub(crate) fn casting_mould(
     }
     let (cavity, core_volume, pull_angle, set, _) =
         best.ok_or_else(|| MeshError::Geometry("no pull to try".into()))?;
+    // The metal's cavity is the core's with the print's seat.
+    let (cavity, core_volume) = match (&seat_end, input.print) {
+        (Some(at), Some(p)) => (seated_solid(&cavity, at)?, core_volume + p.volume),
+        _ => (cavity, core_volume),
+    };
     let up = set.halves[0].pull;
     let cavity_volume = cavity.mesh.signed_volume();
-    let MouldParts { half_meshes: [upper, lower], halves, end_pieces } = set;
+    let MouldParts { half_meshes: [upper, lower], halves, end_pieces, .. } = set;
 
     // The pouring position's frame: (a, b) across the pull, h along it.
     let e1 = {

@@ -4,7 +4,10 @@
 //! - **Cavity.** The core lofted again, parted at its silhouette along the casting mould's pull
 //!   ([`super::SilhouetteSurface`]), and scaled by `1 + s` about the rotor centre, `s` the
 //!   alloy's linear shrinkage (the casting shrinks back to the core's size as it cools), so the
-//!   cavity's volume is the core's times `(1 + s)³`.
+//!   cavity's volume is the core's times `(1 + s)³`. A printed core is cast with its print:
+//!   the print (scaled alike) is a seat in the end piece at its end (made there if the end
+//!   would not need one), and the metal is the cavity with that seat, so the cavity's volume
+//!   is the core's and the print's times `(1 + s)³`.
 //! - **Parting and pull.** The block and its parts are those of the blade's own mould
 //!   ([`super::build_mould_parts`]: two halves parted on a ruled surface from the silhouette,
 //!   end pieces pulled along the span where a spherical end undercuts the halves, locating pins
@@ -38,8 +41,12 @@ use spade::{ConstrainedDelaunayTriangulation, Point2, Triangulation};
 use super::grid::LoftParams;
 use super::loft::{LoftedSolid, loft_solid};
 use super::machining::to_machining_frame;
-use super::mould::{MouldHalf, MouldParams, MouldParts, build_mould_parts};
+use super::mould::{
+    MouldHalf, MouldParams, MouldParts, SeatedEnd, build_mould_parts, build_seated_mould_parts,
+    seated_solid,
+};
 use super::parting::SilhouetteSurface;
+use super::prints::{CorePrint, casting_seat, scaled_trim};
 use super::surface::SpanSurface;
 use super::trim::Trims;
 use super::{MachinedPart, MachiningFrame};
@@ -162,6 +169,8 @@ pub(crate) struct CastingInput<'a> {
     pub loft: &'a LoftParams,
     /// The blade mould's pull angle, tried first.
     pub first: Angle,
+    /// The core's print, cast with it (none: the core is cast alone).
+    pub print: Option<&'a CorePrint>,
     pub margin: f64,
     pub tolerance: f64,
     pub min_draft: Angle,

@@ -112,12 +112,14 @@ pub(super) fn build_mould_set(
     let [upper, lower]: [MouldHalf; 2] =
         halves.try_into().map_err(|_| MeshError::Geometry("two mould halves expected".into()))?;
     let mut end_pieces = Vec::new();
+    let mut piece_keys = Vec::new();
     for e in (0..2).filter(|&e| bored[e] && flush[e].is_none()) {
         let s = if e == 0 { 3 } else { 1 };
         let ring = if e == 0 { &part.root_ring } else { &part.tip_ring };
         let x_end = layout.ends[s][0][0];
         let cap: Vec<usize> = caps[e].clone().collect();
         let mesh = end_piece(&part.mesh, &cap, ring, x_end, &frame, &end_keys[e])?;
+        piece_keys.push(end_keys[e].clone());
         let pull = if e == 0 { vec3::scale(frame.ex, -1.0) } else { frame.ex };
         let draft = evaluate_draft(&part.mesh, Some(&cap), pull, params.min_draft, params.unit)?;
         let undercuts = undercut_regions(part, &draft, pull, params.unit);
@@ -136,7 +138,7 @@ pub(super) fn build_mould_set(
             },
         ));
     }
-    Ok(MouldParts { half_meshes: meshes, halves: [upper, lower], end_pieces })
+    Ok(MouldParts { half_meshes: meshes, halves: [upper, lower], end_pieces, end_keys: piece_keys })
 }
 
 /// The vertices of the closed `ring` from `from` to `to` along the arc whose first edge borders
@@ -227,15 +229,10 @@ pub(super) fn end_piece(
             mesh.triangles.extend([[a, b, d], [b, c, d]]);
         }
     }
-    let pts: Vec<[f64; 2]> = outline
-        .iter()
-        .map(|&v| {
-            let q = frame.to_mould(mesh.vertices[v as usize]);
-            [q[1], q[2]]
-        })
-        .collect();
-    let tris = crate::mesh::triangulate_polygon(&pts)?;
-    mesh.triangles.extend(tris.iter().map(|t| t.map(|i| outline[i])));
+    // The end face: a constrained Delaunay triangulation of the outline with the keys' bases
+    // (straight runs of the ring, a web's face, give no sliver as ear clipping can).
+    let face = EndTrim::Plane { x: frame.to_rotor([x_end, 0.0, 0.0])[0] };
+    crate::tooling::prints::cap_with_holes(&mut mesh, &outline, &[], face, f64::INFINITY)?;
     orient_outward(&mut mesh);
     compact(&mut mesh);
     Ok(mesh)

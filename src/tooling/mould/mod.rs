@@ -42,6 +42,10 @@
 //! at its silhouette along the pull (see [`super::SilhouetteSurface`]) leaves none where its
 //! sections are graphs across the pull, which is how [`super::build_tooling`] lofts a blade.
 //!
+//! **Seats** (`seats`). Where core prints leave an end, the end piece there (made even where the
+//! end would not need one) is pocketed for each print: the part's end cap is replaced by the cap
+//! holed by the seats, each hole carried to its floor, and the end piece is built round that.
+//!
 //! **Span-wise modules** ([`build_modular_mould`]). Where no single pull draws every section
 //! (a strongly cambered section turned through more twist than its window of drawing pulls,
 //! see [`super::span_modules`]), the mould is made of modules along the span, each a mould of
@@ -56,8 +60,8 @@
 
 use super::draft::{DraftReport, evaluate_draft};
 use super::grid::LoftParams;
-use super::loft::LoftedSolid;
 use super::loft::loft_solid;
+use super::loft::{FacetRanges, LoftedSolid};
 mod block;
 use super::parting::{SilhouetteSurface, SpanModule};
 use super::surface::SpanSurface;
@@ -74,11 +78,15 @@ mod halves;
 mod keys;
 mod layout;
 mod modules;
+mod seats;
 mod split;
 use halves::{Block, build_mould_set};
 use keys::{KEY_WINDOWS, WallKey, wall_key};
 use layout::layout;
 pub use modules::{ModularMould, build_modular_mould, loft_modules};
+pub(crate) use seats::{
+    Seat, SeatedEnd, build_seated_mould_parts, reseat, seat_mould_parts, seated_solid,
+};
 use split::{parting_loop, split_faces, undercut_regions};
 
 /// `n · d` below this is an undercut (as the draft evaluator counts it).
@@ -164,6 +172,9 @@ pub struct MouldParts {
     pub halves: [MouldHalf; 2],
     /// The end pieces (root first), each with what it is (`side` "root end" or "tip end").
     pub end_pieces: Vec<(Mesh, MouldHalf)>,
+    /// The keys of each end piece into the halves, in the order of `end_pieces` (an end piece
+    /// rebuilt round a seated end keeps them, so the halves' sockets stay filled).
+    pub(crate) end_keys: Vec<Vec<keys::WallKey>>,
 }
 
 /// Builds the halves round `part` and, at a cap that undercuts either half's pull, an end piece

@@ -24,9 +24,14 @@
 //!   surface. The boundary edges are kept as they are, so the caps share their edges with the
 //!   lofted sides and with the print's and the port's walls.
 //! - **Print and port.** The print's wall runs along the pitch axis from the core's end surface
-//!   to the plane of its outer end, `print length` beyond the nearest point of the port on the
-//!   shell's outer end surface; its end face is the section, ear-clipped. The port's wall is the
-//!   same prism between the shell's outer end surface and the core's.
+//!   to the plane of its outer end, `print length` beyond the outermost point of the port on the
+//!   shell's outer end surface, leaning inward by the taper (the mould's least draft and 1°):
+//!   each corner of the section moves in by its miter times `tan θ` per unit length along the
+//!   axis, so each side moves in parallel to itself and the seat in the mould's end piece draws
+//!   (see the mould's seats). Columns of the section too shallow for the taper (a thin
+//!   chordwise end) are dropped; a section that would fold all the same gets a straight print.
+//!   The end face is a constrained Delaunay triangulation of its outline. The port's wall is
+//!   the same wall between the shell's outer end surface and the core's.
 //! - **Draining.** The mould stands with the pitch axis vertical, the print's end down; the
 //!   print's end face is then the lowest of the core and its middle the drain point. The core's
 //!   end surface (the floor over which the alloy runs to the print) is checked against the
@@ -46,16 +51,20 @@ use super::trim::EndTrim;
 use crate::mesh::Mesh;
 use crate::mesh::orient::{compact, orient_outward};
 use crate::mesh::polygon_area;
-use crate::mesh::triangulate_polygon;
 use crate::mesh::vec3::{self, P3};
 use crate::mesh::{End, MeshError};
+use crate::units::Angle;
 
 mod caps;
+mod seat;
 mod section;
+use caps::open_end;
 pub(crate) use caps::unslither;
-use caps::{band, cap_with_holes, open_end};
+pub(crate) use caps::{band, cap_with_holes};
+pub(crate) use seat::{SEAT_CLEARANCE, casting_seat, mould_seat, scaled_trim};
 pub(crate) use section::inside;
-use section::{lift_x, print_section};
+pub(crate) use section::lift_x;
+use section::{inward_miters, keeps_shape, print_section};
 
 /// A core's print and the shell's port it passes through.
 #[derive(Debug, Clone, PartialEq)]
@@ -83,6 +92,17 @@ pub struct CorePrint {
     /// How far the lowest point of the core's end surface lies below the lowest point of the
     /// print's entrance in that orientation (alloy that cannot run into the print), m.
     pub pool_depth: f64,
+    /// How far the print's walls lean inward from the pitch axis towards its outer end (its
+    /// taper; zero where the section is too thin to keep it).
+    pub taper: Angle,
+    /// The port: where the print's walls meet the shell's outer end surface, rotor frame, m.
+    pub port: Vec<P3>,
+    /// The print's outer end face in the section plane `(y, z)`, m (the section moved in by the
+    /// taper).
+    pub outlet: Vec<[f64; 2]>,
+    /// The clearance a side of the print's seat in the mould, m (`None`: the mould has no seat
+    /// for it).
+    pub seat_clearance: Option<f64>,
 }
 
 /// What [`print_core`] gives: the core with its print, its print, and the core's body open at
@@ -109,6 +129,59 @@ pub(crate) struct PrintSetting {
     pub max_side: f64,
     /// Least gap between the print's section and the end contour, m.
     pub inset: f64,
+    /// How far the print's walls lean inward from the pitch axis towards its outer end.
+    pub taper: Angle,
+}
+
+/// A print's walls: each corner of the entrance runs on a straight line outward along the
+/// pitch axis, moved inward by its miter times `lean` per unit length along the axis, so that
+/// every side of the section moves in parallel to itself by `lean` per unit length.
+struct Walls {
+    /// `tan` of the taper.
+    lean: f64,
+    /// The port loop on the outer trim, rotor frame.
+    port: Vec<P3>,
+    /// The end face's section.
+    outlet: Vec<[f64; 2]>,
+    /// The end face's plane.
+    x_end: f64,
+}
+
+impl Walls {
+    fn new(
+        section: &[[f64; 2]],
+        from: &[P3],
+        set: &PrintSetting,
+        sign: f64,
+        lean: f64,
+    ) -> Result<Walls, MeshError> {
+        let miters = inward_miters(section)?;
+        let at = |i: usize, x: f64| {
+            let d = lean * (x - from[i][0]).abs();
+            [section[i][0] + miters[i][0] * d, section[i][1] + miters[i][1] * d]
+        };
+        // Where each line meets the outer trim (the trim's slope is small: a few steps).
+        let mut port = Vec::with_capacity(section.len());
+        for (i, &q) in section.iter().enumerate() {
+            let mut p = lift_x(set.outer_trim, q)?;
+            for _ in 0..8 {
+                p = lift_x(set.outer_trim, at(i, p[0]))?;
+            }
+            port.push(p);
+        }
+        // The outermost point of the port along the print's direction, the length beyond it.
+        let reach = port.iter().map(|p| sign * p[0]).fold(f64::NEG_INFINITY, f64::max);
+        let x_end = sign * (reach + set.length);
+        let outlet = (0..section.len()).map(|i| at(i, x_end)).collect();
+        Ok(Walls { lean, port, outlet, x_end })
+    }
+}
+
+/// The taper of a print's walls for a mould of least draft `min_draft`: that draft and 1°
+/// more, as the casting moulds' sprues narrow (so the seat's walls draw with the least draft
+/// to spare after the loop's slope on a spherical end takes a little of it).
+pub(crate) fn print_taper(min_draft: Angle) -> Angle {
+    Angle::from_deg(min_draft.deg() + 1.0)
 }
 
 /// Intervals along each side of a print's section.
@@ -151,6 +224,7 @@ pub(crate) fn print_core(
             .into_iter()
             .map(|q| [q[0] * c - q[1] * s, q[0] * s + q[1] * c])
             .collect();
+    let section = thick_enough(section, set, sign)?;
     let mut piece = open_end(solid, end);
     let mut entrance = Vec::with_capacity(section.len());
     for &q in &section {
@@ -163,23 +237,24 @@ pub(crate) fn print_core(
         set.core_trim,
         set.max_side,
     )?;
-    // The port's points on the outer end surface, for the length.
-    let outer: Vec<P3> =
-        section.iter().map(|&q| lift_x(set.outer_trim, q)).collect::<Result<_, _>>()?;
-    // The outermost point of the port along the print's direction, then the length beyond it.
-    let reach = outer.iter().map(|p| sign * p[0]).fold(f64::NEG_INFINITY, f64::max);
-    let x_end = sign * (reach + set.length);
-    let mut mesh = piece.clone();
-    let outlet: Vec<u32> = section.iter().map(|q| mesh.push_vertex([x_end, q[0], q[1]])).collect();
-    band(&mut mesh, &entrance, &outlet);
-    for t in triangulate_polygon(&section)? {
-        mesh.triangles.push(t.map(|i| outlet[i]));
+    let from: Vec<P3> = entrance.iter().map(|&v| piece.vertices[v as usize]).collect();
+    // The tapered walls; a taper that would fold the end face (a thin section) is dropped and
+    // the print made straight.
+    let mut walls = Walls::new(&section, &from, set, sign, set.taper.rad().tan())?;
+    if !keeps_shape(&section, &walls.outlet) {
+        walls = Walls::new(&section, &from, set, sign, 0.0)?;
     }
+    let x_end = walls.x_end;
+    let mut mesh = piece.clone();
+    let outlet: Vec<u32> =
+        walls.outlet.iter().map(|q| mesh.push_vertex([x_end, q[0], q[1]])).collect();
+    band(&mut mesh, &entrance, &outlet);
+    cap_with_holes(&mut mesh, &outlet, &[], EndTrim::Plane { x: x_end }, f64::INFINITY)?;
     orient_outward(&mut mesh);
     compact(&mut mesh);
     let area = polygon_area(&section).abs();
-    let n = section.len() as f64;
-    let centre = section.iter().fold([0.0, 0.0], |a, q| [a[0] + q[0] / n, a[1] + q[1] / n]);
+    let n = walls.outlet.len() as f64;
+    let centre = walls.outlet.iter().fold([0.0, 0.0], |a, q| [a[0] + q[0] / n, a[1] + q[1] / n]);
     let height = |p: P3| -vec3::dot(down, p);
     let entrance_low =
         entrance.iter().map(|&v| height(piece.vertices[v as usize])).fold(f64::INFINITY, f64::min);
@@ -197,8 +272,54 @@ pub(crate) fn print_core(
         down,
         pool_depth: (entrance_low - floor_low).max(0.0),
         section,
+        taper: Angle::from_rad(walls.lean.atan()),
+        port: walls.port,
+        outlet: walls.outlet,
+        seat_clearance: None,
     };
     Ok(PrintedCore { mesh, print, piece, entrance })
+}
+
+/// The columns of `section` (the upper chain's points, then the lower chain's back, corner
+/// for corner at the same chordwise place) with those next to the two end columns thinned, so
+/// that no side next to a corner is shorter than three times the inward lean over the print's
+/// longest wall (the sides moving in shorten a side next to a corner by the lean times the
+/// corner's cotangent of half its angle).
+fn thick_enough(
+    section: Vec<[f64; 2]>,
+    set: &PrintSetting,
+    sign: f64,
+) -> Result<Vec<[f64; 2]>, MeshError> {
+    let lean = set.taper.rad().tan();
+    let len = section.len();
+    if lean <= 0.0 || len < 8 || len % 2 != 0 {
+        return Ok(section);
+    }
+    let from: Vec<P3> =
+        section.iter().map(|&q| lift_x(set.core_trim, q)).collect::<Result<_, _>>()?;
+    let walls = Walls::new(&section, &from, set, sign, lean)?;
+    let longest = from.iter().map(|p| (walls.x_end - p[0]).abs()).fold(0.0, f64::max);
+    let need = 3.0 * lean * longest;
+    // Every column is kept (a thin chordwise end is where a domed end drains: dropping it
+    // would leave alloy standing); a section that folds all the same gets a straight print.
+    let (k0, k1) = (0, len / 2);
+    // At the four corners the sides moving in shorten the sides next to them by up to the
+    // lean times the corner's cotangent of half its angle: the columns nearer an end column
+    // than `need` are dropped, so no side next to a corner can turn over.
+    let dist = |a: [f64; 2], b: [f64; 2]| (a[0] - b[0]).hypot(a[1] - b[1]);
+    let far_from = |k: usize, e: usize| {
+        dist(section[k], section[e]) >= need
+            && dist(section[len - 1 - k], section[len - 1 - e]) >= need
+    };
+    let kept: Vec<usize> = (k0..k1)
+        .filter(|&k| k == k0 || k == k1 - 1 || (far_from(k, k0) && far_from(k, k1 - 1)))
+        .collect();
+    if kept.len() < 3 {
+        return Ok(section);
+    }
+    let mut out: Vec<[f64; 2]> = kept.iter().map(|&k| section[k]).collect();
+    out.extend(kept.iter().rev().map(|&k| section[len - 1 - k]));
+    Ok(out)
 }
 
 /// The shell: the outer solid `outer` with every core as a cavity, the printed cores' cavities
@@ -234,10 +355,7 @@ pub(crate) fn shell_with_ports(
         };
         let mut ports = Vec::with_capacity(here.len());
         for p in &here {
-            let mut port = Vec::with_capacity(p.print.section.len());
-            for &q in &p.print.section {
-                port.push(shell.push_vertex(lift_x(trim, q)?));
-            }
+            let port: Vec<u32> = p.print.port.iter().map(|&q| shell.push_vertex(q)).collect();
             ports.push(port);
         }
         cap_with_holes(&mut shell, ring, &ports, trim, max_side)?;
@@ -283,6 +401,32 @@ mod tests {
         assert!((0.02 - right - (1.0 - f) * inset).abs() < 1e-12, "{right}");
         let delta = inset / 0.01;
         assert!((bottom + 0.005 - 0.01 * delta * (1.0 - f)).abs() < 1e-12, "{bottom}");
+    }
+
+    #[test]
+    fn miters_move_every_side_of_a_rectangle_in_parallel() {
+        // A 40 × 10 mm rectangle with its sides cut into points: every corner moved in by d
+        // times its miter gives the rectangle (40 − 2d) × (10 − 2d) (geometry), its shape kept;
+        // moved in by more than half its depth it folds, and the check says so.
+        let mut outline = Vec::new();
+        for i in 0..8 {
+            outline.push([-0.02 + 0.005 * i as f64, -0.005]);
+        }
+        for i in 0..8 {
+            outline.push([0.02 - 0.005 * i as f64, 0.005]);
+        }
+        outline.insert(8, [0.02, -0.005]);
+        outline.push([-0.02, 0.005]);
+        let m = inward_miters(&outline).unwrap();
+        let moved = |d: f64| -> Vec<[f64; 2]> {
+            outline.iter().zip(&m).map(|(q, m)| [q[0] + d * m[0], q[1] + d * m[1]]).collect()
+        };
+        let d = 1e-3;
+        let inner = moved(d);
+        let area = polygon_area(&inner).abs();
+        assert!((area - (0.04 - 2.0 * d) * (0.01 - 2.0 * d)).abs() < 1e-15, "{area}");
+        assert!(keeps_shape(&outline, &inner));
+        assert!(!keeps_shape(&outline, &moved(6e-3)));
     }
 
     #[test]

@@ -5,7 +5,7 @@
 use super::*;
 
 /// The point of `trim` over `q = (y, z)`, along the pitch axis.
-pub(super) fn lift_x(trim: EndTrim, q: [f64; 2]) -> Result<P3, MeshError> {
+pub(crate) fn lift_x(trim: EndTrim, q: [f64; 2]) -> Result<P3, MeshError> {
     match trim {
         EndTrim::Plane { x } => Ok([x, q[0], q[1]]),
         EndTrim::Sphere { radius } => {
@@ -103,4 +103,70 @@ pub(crate) fn inside(poly: &[[f64; 2]], p: [f64; 2]) -> bool {
         }
     }
     c
+}
+
+/// The inward miter vector at each corner of the closed polygon `poly`: the vector whose dot
+/// product with the inward unit normal of either edge at the corner is 1, so that moving every
+/// corner by `d` times its miter moves every edge inward parallel to itself by `d`.
+pub(crate) fn inward_miters(poly: &[[f64; 2]]) -> Result<Vec<[f64; 2]>, MeshError> {
+    let n = poly.len();
+    let turn = if polygon_area(poly) > 0.0 { 1.0 } else { -1.0 };
+    let normal = |i: usize| -> Option<[f64; 2]> {
+        let (a, b) = (poly[i], poly[(i + 1) % n]);
+        let (dx, dy) = (b[0] - a[0], b[1] - a[1]);
+        let len = dx.hypot(dy);
+        // Counter-clockwise: the inside lies to the left, (−dy, dx).
+        (len > 0.0).then(|| [-turn * dy / len, turn * dx / len])
+    };
+    let mut out = Vec::with_capacity(n);
+    for i in 0..n {
+        let bad = || MeshError::Geometry("a print's section has a repeated corner".into());
+        let (a, b) = (normal((i + n - 1) % n).ok_or_else(bad)?, normal(i).ok_or_else(bad)?);
+        let c = 1.0 + a[0] * b[0] + a[1] * b[1];
+        if c < 0.1 {
+            return Err(MeshError::Geometry(
+                "a print's section turns back on itself at a corner".into(),
+            ));
+        }
+        out.push([(a[0] + b[0]) / c, (a[1] + b[1]) / c]);
+    }
+    Ok(out)
+}
+
+/// Whether `moved` keeps the shape of `poly`: every edge still points the way it did and the
+/// winding is kept (a taper or a clearance that does not fold the outline).
+pub(crate) fn keeps_shape(poly: &[[f64; 2]], moved: &[[f64; 2]]) -> bool {
+    let n = poly.len();
+    let same_edges = (0..n).all(|i| {
+        let j = (i + 1) % n;
+        let e = [poly[j][0] - poly[i][0], poly[j][1] - poly[i][1]];
+        let f = [moved[j][0] - moved[i][0], moved[j][1] - moved[i][1]];
+        e[0] * f[0] + e[1] * f[1] > 0.0
+    });
+    let (a, b) = (polygon_area(poly), polygon_area(moved));
+    same_edges && a * b > 0.0 && b.abs() > 0.05 * a.abs() && simple(moved)
+}
+
+/// Whether no two edges of the closed polygon `poly` cross, other than neighbours at their
+/// shared corner.
+pub(crate) fn simple(poly: &[[f64; 2]]) -> bool {
+    let n = poly.len();
+    let orient = |a: [f64; 2], b: [f64; 2], c: [f64; 2]| {
+        (b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0])
+    };
+    for i in 0..n {
+        let (a, b) = (poly[i], poly[(i + 1) % n]);
+        for j in i + 2..n {
+            if (j + 1) % n == i {
+                continue;
+            }
+            let (c, d) = (poly[j], poly[(j + 1) % n]);
+            let (o1, o2) = (orient(a, b, c), orient(a, b, d));
+            let (o3, o4) = (orient(c, d, a), orient(c, d, b));
+            if o1 * o2 < 0.0 && o3 * o4 < 0.0 {
+                return false;
+            }
+        }
+    }
+    true
 }
