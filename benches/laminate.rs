@@ -7,7 +7,9 @@
 use std::hint::black_box;
 use std::sync::Arc;
 
-use criterion::{Criterion, Throughput, criterion_group, criterion_main};
+#[path = "kit/mod.rs"]
+mod kit;
+use kit::{Runner, Throughput};
 use layloft::failure::LaminateStrength;
 use layloft::laminate::{Laminate, LaminateLoad, Ply, Resultants};
 use layloft::material::Lamina;
@@ -71,7 +73,7 @@ fn loads(n: usize) -> Vec<LaminateLoad> {
         .collect()
 }
 
-fn bench(c: &mut Criterion) {
+fn bench(c: &mut Runner) {
     let lam = laminate_24();
     assert_eq!(lam.plies().len(), 24);
     let faces = 2 * lam.plies().len() as u64;
@@ -99,5 +101,4 @@ fn bench(c: &mut Criterion) {
     group.finish();
 }
 
-criterion_group!(benches, bench);
-criterion_main!(benches);
+bench_main!(bench);

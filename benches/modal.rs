@@ -14,7 +14,9 @@ mod modal_support;
 
 use std::hint::black_box;
 
-use criterion::{Criterion, criterion_group, criterion_main};
+#[path = "kit/mod.rs"]
+mod kit;
+use kit::Runner;
 use layloft::analysis::BladeModel;
 use layloft::input::read_project;
 use layloft::modal::{
@@ -30,7 +32,7 @@ fn model() -> BeamModel {
         .expect("the benchmark blade is valid")
 }
 
-fn sweep(c: &mut Criterion) {
+fn sweep(c: &mut Runner) {
     let model = model();
     let r = model.rotor().clone();
     let speeds = SpeedRange::new(0.0, rpm_of(r.omega_max), rpm_of(r.omega_max) / 60.0)
@@ -58,7 +60,7 @@ fn sweep(c: &mut Criterion) {
     group.finish();
 }
 
-fn demo_sweep(c: &mut Criterion) {
+fn demo_sweep(c: &mut Runner) {
     let path = concat!(env!("CARGO_MANIFEST_DIR"), "/layups/mine-fan/blade.toml");
     let project = read_project(path.as_ref()).expect("the demo reads");
     let model = BladeModel::build(project).expect("the demo builds");
@@ -102,5 +104,4 @@ fn demo_sweep(c: &mut Criterion) {
     group.finish();
 }
 
-criterion_group!(benches, sweep, demo_sweep);
-criterion_main!(benches);
+bench_main!(sweep, demo_sweep);

@@ -11,11 +11,13 @@
 
 use std::path::Path;
 
-use criterion::{BatchSize, Criterion, criterion_group, criterion_main};
+#[path = "kit/mod.rs"]
+mod kit;
+use kit::{BatchSize, Runner};
 use layloft::analysis::BladeModel;
 use layloft::input::read_project;
 
-fn bench_pipeline(c: &mut Criterion) {
+fn bench_pipeline(c: &mut Runner) {
     let root = Path::new(env!("CARGO_MANIFEST_DIR"));
     for (name, file) in
         [("mine-fan", "layups/mine-fan/blade.toml"), ("small-wind", "layups/small-wind/blade.toml")]
@@ -24,7 +26,7 @@ fn bench_pipeline(c: &mut Criterion) {
             Ok(p) => p,
             Err(e) => panic!("demo project {file} does not read: {e}"),
         };
-        c.bench_function(&format!("BladeModel::build {name}"), |b| {
+        c.bench_function(format!("BladeModel::build {name}"), |b| {
             b.iter_batched(
                 || project.clone(),
                 |p| BladeModel::build(std::hint::black_box(p)).map(|m| m.stations.len()),
@@ -35,11 +37,10 @@ fn bench_pipeline(c: &mut Criterion) {
             Ok(m) => m,
             Err(e) => panic!("demo project {file} does not build: {e}"),
         };
-        c.bench_function(&format!("blade mass {name}"), |b| {
+        c.bench_function(format!("blade mass {name}"), |b| {
             b.iter_batched(|| model.clone(), |m| m.mass().total_kg, BatchSize::SmallInput)
         });
     }
 }
 
-criterion_group!(benches, bench_pipeline);
-criterion_main!(benches);
+bench_main!(bench_pipeline);

@@ -5,12 +5,14 @@
 //!
 //! Run with `cargo bench --bench plybook`. The input is the demo as committed (no randomness).
 
-use criterion::{Criterion, criterion_group, criterion_main};
+#[path = "kit/mod.rs"]
+mod kit;
+use kit::Runner;
 use layloft::blade::Blade;
 use layloft::input::read_project_sourced;
 use layloft::plybook::{PlyBookParams, build_ply_book, plybook_files};
 
-fn small_wind(c: &mut Criterion) {
+fn small_wind(c: &mut Runner) {
     let root = concat!(env!("CARGO_MANIFEST_DIR"), "/layups/small-wind/blade.toml");
     let Ok((project, sources)) = read_project_sourced(root.as_ref()) else { return };
     let Ok(blade) = Blade::from_project(&project) else { return };
@@ -30,5 +32,4 @@ fn small_wind(c: &mut Criterion) {
     group.finish();
 }
 
-criterion_group!(benches, small_wind);
-criterion_main!(benches);
+bench_main!(small_wind);

@@ -19,7 +19,9 @@
 use std::path::Path;
 use std::process::Command;
 
-use criterion::{Criterion, criterion_group, criterion_main};
+#[path = "kit/mod.rs"]
+mod kit;
+use kit::Runner;
 
 fn run(args: &[&str], out: &Path) {
     let exe = env!("CARGO_BIN_EXE_layloft");
@@ -32,7 +34,7 @@ fn run(args: &[&str], out: &Path) {
     );
 }
 
-fn bench(c: &mut Criterion) {
+fn bench(c: &mut Runner) {
     let out = tempfile::tempdir().expect("temporary folder");
     let mut g = c.benchmark_group("report");
     g.sample_size(10);
@@ -84,5 +86,4 @@ fn bench(c: &mut Criterion) {
     g.finish();
 }
 
-criterion_group!(benches, bench);
-criterion_main!(benches);
+bench_main!(bench);

@@ -5,7 +5,9 @@
 #[path = "../tests/common/mod.rs"]
 mod common;
 
-use criterion::{Criterion, criterion_group, criterion_main};
+#[path = "kit/mod.rs"]
+mod kit;
+use kit::Runner;
 use layloft::section::{SectionLayout, SectionParams, solve_section};
 
 fn stations() -> Vec<SectionLayout> {
@@ -31,7 +33,7 @@ fn stations() -> Vec<SectionLayout> {
         .collect()
 }
 
-fn bench_sections(c: &mut Criterion) {
+fn bench_sections(c: &mut Runner) {
     let layouts = stations();
     let params = SectionParams::default();
     c.bench_function("50 sections x 400 points", |b| {
@@ -46,5 +48,4 @@ fn bench_sections(c: &mut Criterion) {
     });
 }
 
-criterion_group!(benches, bench_sections);
-criterion_main!(benches);
+bench_main!(bench_sections);

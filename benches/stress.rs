@@ -8,19 +8,21 @@
 //! `panels` times what buckling adds: the wall panels and their critical loads (once per model)
 //! and their checks under the three cases. Its share is panels over all cases.
 
-use criterion::{Criterion, criterion_group, criterion_main};
+#[path = "kit/mod.rs"]
+mod kit;
+use kit::Runner;
 use layloft::analysis::BladeModel;
 use layloft::input::read_project;
 use layloft::loads::{LoadDistribution, span_loads};
 use layloft::stress::{analyse_cases, model_panels, recover_at};
 
-fn bench(c: &mut Criterion) {
+fn bench(c: &mut Runner) {
     for wall_bending in [true, false] {
         bench_mode(c, wall_bending);
     }
 }
 
-fn bench_mode(c: &mut Criterion, wall_bending: bool) {
+fn bench_mode(c: &mut Runner, wall_bending: bool) {
     let mut project = read_project("layups/mine-fan/blade.toml".as_ref()).expect("demo");
     project.sections.wall_bending = wall_bending;
     let model = BladeModel::build(project).expect("demo model");
@@ -97,5 +99,4 @@ fn bench_mode(c: &mut Criterion, wall_bending: bool) {
     g.finish();
 }
 
-criterion_group!(benches, bench);
-criterion_main!(benches);
+bench_main!(bench);

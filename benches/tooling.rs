@@ -11,7 +11,9 @@
 //! stations double as the tolerance tightens, so two million exactly is not on offer). The file
 //! write includes the fsync of `report::write_atomic`, which on a shared disk dominates.
 
-use criterion::{Criterion, criterion_group, criterion_main};
+#[path = "kit/mod.rs"]
+mod kit;
+use kit::Runner;
 use layloft::blade::Blade;
 use layloft::input::read_project;
 use layloft::mesh::{CheckParams, Mesh, StlOptions, check_solid, encode_stl};
@@ -47,7 +49,7 @@ fn params() -> LoftParams {
     LoftParams { tolerance: 1.1e-7, ..LoftParams::default() }
 }
 
-fn bench(c: &mut Criterion) {
+fn bench(c: &mut Runner) {
     let surface = blade();
     let solid = loft_solid(&surface, &TRIMS, &params()).expect("the benchmark blade lofts");
     eprintln!(
@@ -84,7 +86,7 @@ fn bench(c: &mut Criterion) {
     g.finish();
 }
 
-fn bench_demo(c: &mut Criterion) {
+fn bench_demo(c: &mut Runner) {
     let project = read_project("layups/mine-fan/blade.toml".as_ref()).expect("the demo reads");
     let blade = Blade::from_project(&project).expect("the demo lofts");
     let params = ToolingParams::from_spec(project.tooling.as_ref().expect("[tooling]"))
@@ -147,5 +149,4 @@ fn bench_demo(c: &mut Criterion) {
     g.finish();
 }
 
-criterion_group!(benches, bench, bench_demo);
-criterion_main!(benches);
+bench_main!(bench, bench_demo);
