@@ -23,7 +23,7 @@ pub trait DrapeSurface {
 
     /// Surface point, unit normal and the tangent vectors (the derivatives along the two
     /// parameters) at `p`. By default from central differences of [`DrapeSurface::point`]
-    /// (see [`central_frame`]); a surface that knows its derivatives gives them here, so that
+    /// (`central_frame`); a surface that knows its derivatives gives them here, so that
     /// a Newton step of the drape costs one evaluation instead of five.
     fn frame(&self, p: [f64; 2]) -> ([f64; 3], [f64; 3], [[f64; 3]; 2]) {
         central_frame(self, p)
