@@ -291,14 +291,13 @@ pub(super) fn mould_parts(
     if params.mould_expansion_factor != 1.0 {
         part.mesh.scale(params.mould_expansion_factor);
     }
-    let (s, c) = angle.rad().sin_cos();
-    let mould = MouldParams {
-        pull: [0.0, -s, c],
-        margin: params.mould_margin,
-        tolerance: params.tolerance,
-        min_draft: params.min_draft,
-        unit: params.unit,
-    };
+    let mould = MouldParams::pulled_at(
+        angle,
+        params.mould_margin,
+        params.tolerance,
+        params.min_draft,
+        params.unit,
+    );
     // The parting lines are the outer surface's silhouette along the pull: the parting surface
     // runs on from them across the pull.
     build_mould_parts(&part, &|_x: f64| angle, &mould)

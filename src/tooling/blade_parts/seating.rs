@@ -34,14 +34,13 @@ pub(super) fn seat_prints(
             Ok(SeatedEnd { end, trim: scaled_trim(outer_trims.at(end), f), seats, max_side })
         })
         .collect::<Result<Vec<_>, MeshError>>()?;
-    let (s, c) = angle.rad().sin_cos();
-    let mould_params = MouldParams {
-        pull: [0.0, -s, c],
-        margin: params.mould_margin,
-        tolerance: params.tolerance,
-        min_draft: params.min_draft,
-        unit: params.unit,
-    };
+    let mould_params = MouldParams::pulled_at(
+        angle,
+        params.mould_margin,
+        params.tolerance,
+        params.min_draft,
+        params.unit,
+    );
     let mut seated = [false; 2];
     let mould = match mould {
         Mould::Whole(set) => {

@@ -43,14 +43,13 @@ pub(crate) fn casting_mould(
         let nominal = solid.mesh.signed_volume();
         let mut cavity = solid;
         cavity.mesh.scale(1.0 + s);
-        let (sn, cs) = angle.rad().sin_cos();
-        let mould = MouldParams {
-            pull: [0.0, -sn, cs],
-            margin: input.margin,
-            tolerance: input.tolerance,
-            min_draft: input.min_draft,
-            unit: input.unit,
-        };
+        let mould = MouldParams::pulled_at(
+            angle,
+            input.margin,
+            input.tolerance,
+            input.min_draft,
+            input.unit,
+        );
         let set = match &seat_end {
             Some(at) => build_seated_mould_parts(
                 &cavity,

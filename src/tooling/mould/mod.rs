@@ -114,6 +114,21 @@ pub struct MouldParams {
     pub unit: LengthUnit,
 }
 
+impl MouldParams {
+    /// A mould whose upper half is pulled at `angle` from +Z towards −Y about the pitch axis
+    /// (`pull = (0, −sin a, cos a)`), normal to the pitch axis as every half's pull is.
+    pub fn pulled_at(
+        angle: Angle,
+        margin: f64,
+        tolerance: f64,
+        min_draft: Angle,
+        unit: LengthUnit,
+    ) -> MouldParams {
+        let (s, c) = angle.rad().sin_cos();
+        MouldParams { pull: [0.0, -s, c], margin, tolerance, min_draft, unit }
+    }
+}
+
 /// A connected region of undercut cavity facets.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Undercut {
