@@ -115,30 +115,52 @@ pub(super) fn build_mould_set(
     let mut piece_keys = Vec::new();
     for e in (0..2).filter(|&e| bored[e] && flush[e].is_none()) {
         let s = if e == 0 { 3 } else { 1 };
-        let ring = if e == 0 { &part.root_ring } else { &part.tip_ring };
         let x_end = layout.ends[s][0][0];
-        let cap: Vec<usize> = caps[e].clone().collect();
-        let mesh = end_piece(&part.mesh, &cap, ring, x_end, &frame, &end_keys[e])?;
+        end_pieces.push(end_piece_part(part, e == 0, x_end, &frame, &end_keys[e], params)?);
         piece_keys.push(end_keys[e].clone());
-        let pull = if e == 0 { vec3::scale(frame.ex, -1.0) } else { frame.ex };
-        let draft = evaluate_draft(&part.mesh, Some(&cap), pull, params.min_draft, params.unit)?;
-        let undercuts = undercut_regions(part, &draft, pull, params.unit);
-        let cavity_area = cap.iter().map(|&t| part.mesh.triangle_area(t)).sum();
-        let b = mesh.bounding_box().map(|b| b.extent()).unwrap_or_default();
-        end_pieces.push((
-            mesh,
-            MouldHalf {
-                side: if e == 0 { "root end" } else { "tip end" },
-                pull,
-                draft,
-                cavity_area,
-                undercuts,
-                block_size: [b[0], b[1], b[2]],
-                locators: end_keys[e].iter().map(|k| k.place(&frame)).collect(),
-            },
-        ));
     }
-    Ok(MouldParts { half_meshes: meshes, halves: [upper, lower], end_pieces, end_keys: piece_keys })
+    Ok(MouldParts {
+        half_meshes: meshes,
+        halves: [upper, lower],
+        end_pieces,
+        end_keys: piece_keys,
+        frame,
+    })
+}
+
+/// The end piece round the root cap of `part` (`root`) or its tip cap, pulled along the span
+/// away from the blade, its block face at `x_end` (mould frame), with `keys` into the halves;
+/// and what it is (draft and undercuts of its cavity, the cap).
+pub(super) fn end_piece_part(
+    part: &LoftedSolid,
+    root: bool,
+    x_end: f64,
+    frame: &Frame,
+    keys: &[WallKey],
+    params: &MouldParams,
+) -> Result<(Mesh, MouldHalf), MeshError> {
+    let (cap, ring) = if root {
+        (part.facets.root_cap.clone(), &part.root_ring)
+    } else {
+        (part.facets.tip_cap.clone(), &part.tip_ring)
+    };
+    let cap: Vec<usize> = cap.collect();
+    let mesh = end_piece(&part.mesh, &cap, ring, x_end, frame, keys)?;
+    let pull = if root { vec3::scale(frame.ex, -1.0) } else { frame.ex };
+    let draft = evaluate_draft(&part.mesh, Some(&cap), pull, params.min_draft, params.unit)?;
+    let undercuts = undercut_regions(part, &draft, pull, params.unit);
+    let cavity_area = cap.iter().map(|&t| part.mesh.triangle_area(t)).sum();
+    let b = mesh.bounding_box().map(|b| b.extent()).unwrap_or_default();
+    let half = MouldHalf {
+        side: if root { "root end" } else { "tip end" },
+        pull,
+        draft,
+        cavity_area,
+        undercuts,
+        block_size: [b[0], b[1], b[2]],
+        locators: keys.iter().map(|k| k.place(frame)).collect(),
+    };
+    Ok((mesh, half))
 }
 
 /// The vertices of the closed `ring` from `from` to `to` along the arc whose first edge borders

@@ -190,6 +190,9 @@ pub struct MouldParts {
     /// The keys of each end piece into the halves, in the order of `end_pieces` (an end piece
     /// rebuilt round a seated end keeps them, so the halves' sockets stay filled).
     pub(crate) end_keys: Vec<Vec<keys::WallKey>>,
+    /// The mould frame the parts were built in (a module's block may set it); the keys' points
+    /// are in it.
+    pub(crate) frame: Frame,
 }
 
 /// Builds the halves round `part` and, at a cap that undercuts either half's pull, an end piece

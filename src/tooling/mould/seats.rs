@@ -16,7 +16,7 @@
 //! one closed solid ([`seated_solid`]), whose new end surface becomes the end piece's cavity and
 //! is drafted by the draft evaluator along the end piece's pull.
 
-use super::halves::{build_mould_set, end_piece};
+use super::halves::{build_mould_set, end_piece_part};
 use super::*;
 use crate::mesh::End;
 use crate::tooling::prints::{band, cap_with_holes};
@@ -171,29 +171,9 @@ pub(crate) fn reseat(
         }
     }
     let seated = seated_solid(part, at)?;
-    let cap: Vec<usize> = match at.end {
-        End::Root => seated.facets.root_cap.clone().collect(),
-        End::Tip => seated.facets.tip_cap.clone().collect(),
-    };
-    let ring = match at.end {
-        End::Root => &seated.root_ring,
-        End::Tip => &seated.tip_ring,
-    };
-    let frame = frame_of(unit_pull(params)?);
+    // The keys and the frame of the set the halves' sockets were cut in.
     let keys = set.end_keys.get(k).cloned().unwrap_or_default();
-    let mesh = end_piece(&seated.mesh, &cap, ring, x_block, &frame, &keys)?;
-    let pull = old.1.pull;
-    let draft = evaluate_draft(&seated.mesh, Some(&cap), pull, params.min_draft, params.unit)?;
-    let undercuts = undercut_regions(&seated, &draft, pull, params.unit);
-    let cavity_area = cap.iter().map(|&t| seated.mesh.triangle_area(t)).sum();
-    let b = mesh.bounding_box().map(|b| b.extent()).unwrap_or_default();
-    let piece = MouldHalf {
-        draft,
-        cavity_area,
-        undercuts,
-        block_size: [b[0], b[1], b[2]],
-        ..old.1.clone()
-    };
-    set.end_pieces[k] = (mesh, piece);
+    let root = at.end == End::Root;
+    set.end_pieces[k] = end_piece_part(&seated, root, x_block, &set.frame, &keys, params)?;
     Ok(())
 }
