@@ -24,7 +24,7 @@ use layloft::modal::{
     solve_dense, solve_lowest,
 };
 use layloft::project::{ExcitationSpec, PointMass};
-use layloft::units::rpm_of;
+use layloft::units::RotorSpeed;
 use modal_support::{rotor, spec, twisted_blade};
 
 fn model() -> BeamModel {
@@ -35,16 +35,16 @@ fn model() -> BeamModel {
 fn sweep(c: &mut Runner) {
     let model = model();
     let r = model.rotor().clone();
-    let speeds = SpeedRange::new(0.0, rpm_of(r.omega_max), rpm_of(r.omega_max) / 60.0)
-        .expect("valid range")
-        .speeds(&[]);
+    let max = RotorSpeed::from_rad_s(r.omega_max);
+    let speeds =
+        SpeedRange::new(RotorSpeed::ZERO, max, max / 60.0).expect("valid range").speeds(&[]);
     assert_eq!(speeds.len(), 61);
     let mut group = c.benchmark_group("modal");
     group.sample_size(10);
     group.bench_function("campbell_61_speeds_100_elements_10_modes", |b| {
         b.iter(|| black_box(model.campbell(&speeds, 10, &mut |_, _| {}).expect("converges")))
     });
-    let sys = model.system_matrices(rpm_of(r.omega_nominal)).expect("valid speed");
+    let sys = model.system_matrices(RotorSpeed::from_rad_s(r.omega_nominal)).expect("valid speed");
     group.bench_function("lanczos_one_speed_10_modes", |b| {
         b.iter(|| {
             black_box(

@@ -6,7 +6,7 @@
 use layloft::analysis::BladeModel;
 use layloft::input::read_project;
 use layloft::modal::BeamModel;
-use layloft::units::rpm_of;
+use layloft::units::{RotorSpeed, rpm_of};
 
 #[test]
 fn doubling_the_elements_moves_the_demo_frequencies_by_less_than_a_fifth_of_a_percent() {
@@ -22,8 +22,8 @@ fn doubling_the_elements_moves_the_demo_frequencies_by_less_than_a_fifth_of_a_pe
         let b = BeamModel::new(&sections, &p.rotor, &fine).unwrap();
         let mut worst: f64 = 0.0;
         for rpm in [rpm_of(p.rotor.omega_nominal), rpm_of(p.rotor.omega_max)] {
-            let fa = a.modes(rpm, 6).unwrap();
-            let fb = b.modes(rpm, 6).unwrap();
+            let fa = a.modes(RotorSpeed::from_rpm(rpm), 6).unwrap();
+            let fb = b.modes(RotorSpeed::from_rpm(rpm), 6).unwrap();
             for (ma, mb) in fa.modes.iter().zip(&fb.modes) {
                 let change = (ma.frequency_hz - mb.frequency_hz).abs() / mb.frequency_hz;
                 worst = worst.max(change);

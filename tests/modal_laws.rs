@@ -9,7 +9,7 @@ use layloft::modal::{
 };
 use layloft::output::export_matrix_market;
 use layloft::section::MassInertia;
-use layloft::units::rpm_of;
+use layloft::units::{RotorSpeed, rpm_of};
 
 fn blade_model(elements: usize, springs: bool) -> BeamModel {
     let spec = if springs {
@@ -29,7 +29,7 @@ fn lanczos_agrees_with_the_dense_solution() {
     // agreement 1e-6 relative; both are accurate to near round-off for the lowest modes.
     for springs in [false, true] {
         let model = blade_model(20, springs);
-        let sys = model.system_matrices(3600.0).unwrap();
+        let sys = model.system_matrices(RotorSpeed::from_rpm(3600.0)).unwrap();
         let sparse =
             solve_lowest(&sys.stiffness, &sys.mass, 10, &LanczosParams::default()).unwrap();
         let dense = solve_dense(&sys.stiffness.to_dense(), &sys.mass.to_dense()).unwrap();
@@ -46,7 +46,7 @@ fn lanczos_agrees_with_the_dense_solution() {
 #[test]
 fn modes_solve_the_eigenproblem_and_are_mass_orthonormal() {
     let model = blade_model(30, false);
-    let sys = model.system_matrices(3000.0).unwrap();
+    let sys = model.system_matrices(RotorSpeed::from_rpm(3000.0)).unwrap();
     let sol = solve_lowest(&sys.stiffness, &sys.mass, 10, &LanczosParams::default()).unwrap();
     let k = sys.stiffness.to_dense();
     let m = sys.mass.to_dense();
@@ -70,8 +70,9 @@ fn frequencies_converge_with_element_doubling() {
     // Requirement: less than 0.2 % change when the element count doubles. The element converges
     // as h⁴, so from 20 to 40 elements the change is far smaller.
     for rpm in [0.0, 3600.0] {
-        let coarse = blade_model(20, false).modes(rpm, 10).unwrap();
-        let fine = blade_model(40, false).modes(rpm, 10).unwrap();
+        let speed = RotorSpeed::from_rpm(rpm);
+        let coarse = blade_model(20, false).modes(speed, 10).unwrap();
+        let fine = blade_model(40, false).modes(speed, 10).unwrap();
         for (a, b) in coarse.modes.iter().zip(&fine.modes) {
             let change = (a.frequency_hz / b.frequency_hz - 1.0).abs();
             assert!(change < 2e-3, "{rpm} rpm: {} vs {} Hz", a.frequency_hz, b.frequency_hz);
@@ -88,7 +89,7 @@ fn both_modes_of_a_symmetric_pair_are_found() {
     let beam = BeamSection::uniform(0.0, 1e8, 1e6, 1.0, 1.0, 1.0);
     let model =
         BeamModel::new(&uniform(&beam, 0.0, 1.0), &rotor(2, 10.0, 20.0, 0.0), &spec(30)).unwrap();
-    let set = model.modes(0.0, 6).unwrap();
+    let set = model.modes(RotorSpeed::ZERO, 6).unwrap();
     let expected = [1.875_104_069_f64, 4.694_091_133, 7.854_757_438];
     for (i, mode) in set.modes.iter().enumerate() {
         let omega = 2.0 * std::f64::consts::PI * mode.frequency_hz;
@@ -107,7 +108,7 @@ fn tracks_follow_modes_through_the_sweep_and_crossings_are_found() {
     let r = rotor(2, 20.0 / RAD_S_PER_RPM, 24.0 / RAD_S_PER_RPM, 0.0);
     let model = BeamModel::new(&uniform(&beam, 0.0, 1.0), &r, &spec(30)).unwrap();
     let range = SpeedRange::for_rotor(&r, None).unwrap();
-    let speeds = range.speeds(&[rpm_of(r.omega_nominal)]);
+    let speeds = range.speeds(&[RotorSpeed::from_rad_s(r.omega_nominal)]);
     let mut calls = 0;
     let campbell = model
         .campbell(&speeds, 4, &mut |done, total| {
@@ -126,38 +127,40 @@ fn tracks_follow_modes_through_the_sweep_and_crossings_are_found() {
     let crossings = campbell.crossings(&orders);
     let c = crossings.iter().find(|c| c.track == 0 && c.order == 2).expect("flap 1 meets 2P");
     // Bisection on g(rpm) = f1(rpm) - 2 rpm / 60 with directly solved modes.
-    let g = |rpm: f64| model.modes(rpm, 1).unwrap().modes[0].frequency_hz - 2.0 * rpm / 60.0;
+    let g = |rpm: f64| {
+        model.modes(RotorSpeed::from_rpm(rpm), 1).unwrap().modes[0].frequency_hz - 2.0 * rpm / 60.0
+    };
     let (mut lo, mut hi) = (0.0, rpm_of(r.omega_max));
     for _ in 0..50 {
         let mid = 0.5 * (lo + hi);
         if g(mid) > 0.0 { lo = mid } else { hi = mid }
     }
     // Linear interpolation over a step of rpm_max / 60: error of order step² f'' / 8, < 0.1 %.
-    assert!((c.rpm / lo - 1.0).abs() < 1e-3, "{} vs {lo} rpm", c.rpm);
-    assert!((c.frequency_hz - 2.0 * c.rpm / 60.0).abs() < 1e-9);
+    let rpm = c.speed.rpm();
+    assert!((rpm / lo - 1.0).abs() < 1e-3, "{rpm} vs {lo} rpm");
+    assert!((c.frequency_hz - 2.0 * rpm / 60.0).abs() < 1e-9);
 }
 
 #[test]
 fn margins_are_the_separation_from_the_nearest_excitation() {
     let model = blade_model(20, false);
     let r = model.rotor().clone();
-    let speeds = SpeedRange::for_rotor(&r, Some(600.0))
+    let (nominal, max) =
+        (RotorSpeed::from_rad_s(r.omega_nominal), RotorSpeed::from_rad_s(r.omega_max));
+    let speeds = SpeedRange::for_rotor(&r, Some(RotorSpeed::from_rpm(600.0)))
         .unwrap()
-        .speeds(&[rpm_of(r.omega_nominal), rpm_of(r.omega_max)]);
+        .speeds(&[nominal, max]);
     let campbell = model.campbell(&speeds, 6, &mut |_, _| {}).unwrap();
     let orders = excitation_orders(12, r.blades, 2);
     let checks = campbell.rotor_margins(&r, &orders, Some(0.05)).unwrap();
-    assert_eq!(checks[0].rpm, rpm_of(r.omega_nominal));
-    let direct = model.modes(rpm_of(r.omega_nominal), 6).unwrap();
+    assert_eq!(checks[0].speed.rpm(), rpm_of(r.omega_nominal));
+    let direct = model.modes(nominal, 6).unwrap();
     for (m, d) in checks[0].modes.iter().zip(&direct.modes) {
         assert!((m.frequency_hz / d.frequency_hz - 1.0).abs() < 1e-9);
         // The least separation over all orders, by hand.
         let least = orders
             .iter()
-            .map(|e| {
-                (d.frequency_hz - e.frequency_hz(rpm_of(r.omega_nominal))).abs()
-                    / e.frequency_hz(rpm_of(r.omega_nominal))
-            })
+            .map(|e| (d.frequency_hz - e.frequency_hz(nominal)).abs() / e.frequency_hz(nominal))
             .fold(f64::INFINITY, f64::min)
             * 100.0;
         assert!((m.margin * 100.0 - least).abs() < 1e-9, "{} vs {least}", m.margin * 100.0);
@@ -167,10 +170,10 @@ fn margins_are_the_separation_from_the_nearest_excitation() {
     let unchecked = campbell.rotor_margins(&r, &orders, None).unwrap();
     assert!(unchecked.iter().all(|c| c.pass.is_none()));
     // Between sweep speeds the frequencies are interpolated along the tracks.
-    let between = campbell.margins(&orders, "between", 900.0, None).unwrap();
+    let between = campbell.margins(&orders, "between", RotorSpeed::from_rpm(900.0), None).unwrap();
     assert_eq!(between.modes.len(), 6);
     assert!(matches!(
-        campbell.margins(&orders, "beyond", 5000.0, None),
+        campbell.margins(&orders, "beyond", RotorSpeed::from_rpm(5000.0), None),
         Err(ModalError::MarginSpeed { .. })
     ));
 }
@@ -178,7 +181,7 @@ fn margins_are_the_separation_from_the_nearest_excitation() {
 #[test]
 fn matrix_market_files_hold_the_constrained_matrices() {
     let model = blade_model(8, true);
-    let sys = model.system_matrices(3000.0).unwrap();
+    let sys = model.system_matrices(RotorSpeed::from_rpm(3000.0)).unwrap();
     let dir = tempfile::tempdir().unwrap();
     let out = dir.path().join("matrices");
     let written = export_matrix_market(&out, &sys).unwrap();
@@ -215,19 +218,26 @@ fn bad_input_gets_a_clear_message() {
     let beam = BeamSection::uniform(0.0, 1e8, 1e6, 1.0, 1e4, 1.0);
     let r = rotor(2, 100.0, 200.0, 0.0);
     // Empty, reversed and negative speed ranges.
-    let m = message(SpeedRange::new(0.0, 0.0, 10.0).unwrap_err());
+    let range = |from: f64, to: f64, step: f64| {
+        SpeedRange::new(
+            RotorSpeed::from_rpm(from),
+            RotorSpeed::from_rpm(to),
+            RotorSpeed::from_rpm(step),
+        )
+    };
+    let m = message(range(0.0, 0.0, 10.0).unwrap_err());
     assert!(m.contains("speed range 0:0:10 rpm") && m.contains("empty"), "{m}");
-    let m = message(SpeedRange::new(-100.0, 1000.0, 10.0).unwrap_err());
+    let m = message(range(-100.0, 1000.0, 10.0).unwrap_err());
     assert!(m.contains("negative"), "{m}");
-    let m = message(SpeedRange::new(0.0, 1000.0, 0.0).unwrap_err());
+    let m = message(range(0.0, 1000.0, 0.0).unwrap_err());
     assert!(m.contains("step must be positive"), "{m}");
-    let m = message(SpeedRange::new(0.0, f64::NAN, 1.0).unwrap_err());
+    let m = message(range(0.0, f64::NAN, 1.0).unwrap_err());
     assert!(m.contains("finite"), "{m}");
     // More modes than degrees of freedom (2 elements: 16 free dofs).
     let model = BeamModel::new(&uniform(&beam, 0.0, 1.0), &r, &spec(2)).unwrap();
-    let m = message(model.modes(0.0, 40).unwrap_err());
+    let m = message(model.modes(RotorSpeed::ZERO, 40).unwrap_err());
     assert!(m.contains("40 modes asked for: expected 1 to 16"), "{m}");
-    let m = message(model.modes(-5.0, 2).unwrap_err());
+    let m = message(model.modes(RotorSpeed::from_rpm(-5.0), 2).unwrap_err());
     assert!(m.contains("-5 rpm"), "{m}");
     // A section with zero stiffness names its radius and the term.
     let mut weak = beam.at(0.6);
@@ -276,7 +286,7 @@ fn a_statically_unstable_blade_is_a_computation_error() {
     let beam = BeamSection::uniform(0.0, 10.0, 1e6, 1.0, 1.0, 1.0);
     let model =
         BeamModel::new(&uniform(&beam, 0.0, 1.0), &rotor(2, 10.0, 20.0, 0.0), &spec(8)).unwrap();
-    let e = model.modes(60.0 / RAD_S_PER_RPM, 2).unwrap_err();
+    let e = model.modes(RotorSpeed::from_rad_s(60.0), 2).unwrap_err();
     assert!(!e.is_input());
     assert!(e.to_string().contains("not positive definite"), "{e}");
 }
@@ -290,9 +300,9 @@ fn massless_degrees_of_freedom_give_no_modes() {
     let model =
         BeamModel::new(&uniform(&beam, 0.0, 1.0), &rotor(2, 10.0, 20.0, 0.0), &spec(4)).unwrap();
     assert_eq!(model.dof_count(), 32);
-    let set = model.modes(0.0, 24).unwrap();
+    let set = model.modes(RotorSpeed::ZERO, 24).unwrap();
     assert!(set.modes.iter().all(|m| m.frequency_hz.is_finite() && m.shares.torsion < 1e-9));
-    let e = model.modes(0.0, 25).unwrap_err();
+    let e = model.modes(RotorSpeed::ZERO, 25).unwrap_err();
     assert!(
         e.to_string().contains("25 modes asked for, but the model has only 24 with mass"),
         "{e}"

@@ -5,7 +5,7 @@ use crate::modal_support::*;
 use layloft::modal::{BeamModel, ModalAnalysis, SpeedRange, excitation_orders};
 use layloft::project::Criteria;
 use layloft::report::{campbell_csv, campbell_svg, modal_json, mode_shapes_csv};
-use layloft::units::{fraction_of_pct, rpm_of};
+use layloft::units::{RotorSpeed, fraction_of_pct, rpm_of};
 
 /// Checks that every tag is closed in order (a small XML well-formedness check: elements,
 /// self-closing tags, comments and declarations).
@@ -42,7 +42,8 @@ fn the_campbell_diagram_is_well_formed_and_labelled() {
     let model =
         BeamModel::new(&twisted_blade(6), &rotor(5, 3000.0, 3600.0, 8.0), &spec(20)).unwrap();
     let r = model.rotor().clone();
-    let speeds = SpeedRange::for_rotor(&r, None).unwrap().speeds(&[rpm_of(r.omega_nominal)]);
+    let speeds =
+        SpeedRange::for_rotor(&r, None).unwrap().speeds(&[RotorSpeed::from_rad_s(r.omega_nominal)]);
     let campbell = model.campbell(&speeds, 6, &mut |_, _| {}).unwrap();
     let orders = excitation_orders(12, r.blades, 2);
     let crossings = campbell.crossings(&orders);
@@ -138,7 +139,12 @@ fn the_whole_stage_runs_in_one_call_and_gives_a_verdict() {
     )
     .unwrap();
     assert_eq!(none.pass(), None);
-    let low = SpeedRange::new(0.0, 2000.0, 500.0).unwrap();
+    let low = SpeedRange::new(
+        RotorSpeed::ZERO,
+        RotorSpeed::from_rpm(2000.0),
+        RotorSpeed::from_rpm(500.0),
+    )
+    .unwrap();
     let part = ModalAnalysis::run(
         &sections,
         &r,

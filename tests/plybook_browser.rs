@@ -10,6 +10,7 @@ use layloft::plybook::{
 };
 use layloft::report::html::HtmlReport;
 use layloft::report::plybook_block;
+use layloft::units::Angle;
 
 use crate::support_browser::{browser_or_skip, screenshot_dir, static_problems};
 
@@ -47,7 +48,7 @@ fn entry() -> PatternEntry {
         order: 1,
         material: "glass-biax".into(),
         surface: "upper".into(),
-        angle_deg: 30.0,
+        angle: Angle::from_deg(30.0),
         kind: FabricKind::Fabric,
         r_range: [0.05, 0.55],
         chord_range: Some([0.0, 1.0]),

@@ -9,6 +9,7 @@ use std::f64::consts::PI;
 use crate::modal_support::*;
 use layloft::modal::{BeamModel, BeamSection, ModeKind, excitation_orders};
 use layloft::section::MassInertia;
+use layloft::units::RotorSpeed;
 
 /// Clamped–free beta_n L (Thomson, *Theory of Vibration with Applications*, App. D; the same in
 /// Blevins, *Formulas for Natural Frequency and Mode Shape*, 1979, table 8-1).
@@ -31,13 +32,13 @@ fn unit_flap_beam() -> BeamSection {
     BeamSection::uniform(0.0, 1e8, 1e6, 1.0, 1e4, 1.0)
 }
 
-/// Rotor speed in rpm for a nondimensional speed lambda of the unit beam.
-fn rpm_of(lambda: f64) -> f64 {
-    lambda / RAD_S_PER_RPM
+/// Rotor speed for a nondimensional speed lambda of the unit beam (lambda rad/s).
+fn speed_of(lambda: f64) -> RotorSpeed {
+    RotorSpeed::from_rad_s(lambda)
 }
 
-fn omegas(model: &BeamModel, rpm: f64, count: usize, kind: ModeKind) -> Vec<f64> {
-    let set = model.modes(rpm, count).unwrap();
+fn omegas(model: &BeamModel, speed: RotorSpeed, count: usize, kind: ModeKind) -> Vec<f64> {
+    let set = model.modes(speed, count).unwrap();
     set.modes.iter().filter(|m| m.kind == kind).map(|m| 2.0 * PI * m.frequency_hz).collect()
 }
 
@@ -49,7 +50,7 @@ fn non_rotating_cantilever_matches_the_clamped_free_roots() {
     let beam = BeamSection::uniform(0.3, 1e9, 1e5, ei, 40.0 * ei, m);
     let model =
         BeamModel::new(&uniform(&beam, 0.3, l), &rotor(3, 1000.0, 1200.0, 0.0), &spec(40)).unwrap();
-    let flap = omegas(&model, 0.0, 5, ModeKind::Flap);
+    let flap = omegas(&model, RotorSpeed::ZERO, 5, ModeKind::Flap);
     for (n, bl) in BETA_L.iter().enumerate() {
         let exact = bl * bl * (ei / (m * l.powi(4))).sqrt();
         // The roots are printed to 10 digits; the FE error of mode 4 with 40 elements is about
@@ -67,7 +68,7 @@ fn rotating_flap_frequencies_match_the_published_table() {
     let model =
         BeamModel::new(&uniform(&beam, 0.0, 1.0), &rotor(2, 100.0, 200.0, 0.0), &spec(40)).unwrap();
     for (j, &lambda) in LAMBDA.iter().enumerate() {
-        let flap = omegas(&model, rpm_of(lambda), 3, ModeKind::Flap);
+        let flap = omegas(&model, speed_of(lambda), 3, ModeKind::Flap);
         assert_eq!(flap.len(), 3, "three flap modes at lambda {lambda}");
         for n in 0..3 {
             let table = ROTATING_FLAP[n][j];
@@ -91,7 +92,7 @@ fn in_plane_modes_soften_by_the_square_of_the_rotor_speed() {
     let model =
         BeamModel::new(&uniform(&beam, 0.0, 1.0), &rotor(2, 100.0, 200.0, 0.0), &spec(40)).unwrap();
     for (j, &lambda) in LAMBDA.iter().enumerate().skip(1) {
-        let edge = omegas(&model, rpm_of(lambda), 6, ModeKind::Edge);
+        let edge = omegas(&model, speed_of(lambda), 6, ModeKind::Edge);
         for n in 0..3 {
             let expected = (ROTATING_FLAP[n][j].powi(2) - lambda * lambda).sqrt();
             let rel = (edge[n] / expected - 1.0).abs();
@@ -112,7 +113,7 @@ fn a_non_zero_hub_radius_agrees_with_an_independent_shooting_solution() {
     let reference = shooting_frequencies(1.0, 1.0, 1.0, 0.5, lambda, None, 3);
     let model =
         BeamModel::new(&uniform(&beam, 0.5, 1.0), &rotor(2, 100.0, 200.0, 0.0), &spec(40)).unwrap();
-    let flap = omegas(&model, rpm_of(lambda), 3, ModeKind::Flap);
+    let flap = omegas(&model, speed_of(lambda), 3, ModeKind::Flap);
     for n in 0..3 {
         // RK4 with 4000 steps and 60 bisections: better than 1e-8; 1e-6 allows for both.
         let rel = (flap[n] / reference[n] - 1.0).abs();
@@ -134,7 +135,7 @@ fn a_root_spring_agrees_with_an_independent_shooting_solution() {
     .unwrap();
     for lambda in [0.0, 4.0] {
         let reference = shooting_frequencies(1.0, 1.0, 1.0, 0.0, lambda, Some(5.0), 3);
-        let flap = omegas(&model, rpm_of(lambda), 3, ModeKind::Flap);
+        let flap = omegas(&model, speed_of(lambda), 3, ModeKind::Flap);
         for n in 0..3 {
             let rel = (flap[n] / reference[n] - 1.0).abs();
             assert!(rel < 1e-6, "lambda {lambda} mode {}: {} vs {}", n + 1, flap[n], reference[n]);
@@ -148,7 +149,7 @@ fn a_root_spring_agrees_with_an_independent_shooting_solution() {
         &spec_with_springs(40, stiff),
     )
     .unwrap();
-    let flap = omegas(&model, rpm_of(4.0), 1, ModeKind::Flap);
+    let flap = omegas(&model, speed_of(4.0), 1, ModeKind::Flap);
     assert!((flap[0] / ROTATING_FLAP[0][3] - 1.0).abs() < 1e-5, "{flap:?}");
 }
 
@@ -162,7 +163,7 @@ fn torsion_and_axial_frequencies_of_a_uniform_cantilever() {
     beam.inertia = MassInertia { flap: ip / 3.0, edge: 2.0 * ip / 3.0, polar: ip, product: 0.0 };
     let model =
         BeamModel::new(&uniform(&beam, 0.1, l), &rotor(2, 100.0, 200.0, 0.0), &spec(40)).unwrap();
-    let set = model.modes(0.0, 10).unwrap();
+    let set = model.modes(RotorSpeed::ZERO, 10).unwrap();
     let of = |kind| -> Vec<f64> {
         set.modes.iter().filter(|m| m.kind == kind).map(|m| 2.0 * PI * m.frequency_hz).collect()
     };
@@ -193,7 +194,7 @@ fn the_propeller_moment_shifts_torsion_by_the_inertia_difference() {
         let model =
             BeamModel::new(&uniform(&beam, 0.0, l), &rotor(2, 100.0, 1000.0, pitch_deg), &spec(30))
                 .unwrap();
-        let set = model.modes(omega_rot / RAD_S_PER_RPM, 12).unwrap();
+        let set = model.modes(RotorSpeed::from_rad_s(omega_rot), 12).unwrap();
         let torsion: Vec<f64> = set
             .modes
             .iter()
@@ -229,7 +230,7 @@ fn coupled_bending_torsion_matches_banerjee() {
         MassInertia { flap: 0.0, edge: i_alpha - m * x_alpha * x_alpha, polar: 0.0, product: 0.0 };
     let model =
         BeamModel::new(&uniform(&beam, 0.0, 6.0), &rotor(2, 100.0, 200.0, 0.0), &spec(60)).unwrap();
-    let set = model.modes(0.0, 6).unwrap();
+    let set = model.modes(RotorSpeed::ZERO, 6).unwrap();
     let expected = [49.615, 97.098, 248.970, 355.688, 451.703, 610.646];
     for (mode, e) in set.modes.iter().zip(expected) {
         let w = 2.0 * PI * mode.frequency_hz;
@@ -249,10 +250,10 @@ fn fifteen_blades_at_1500_rpm_give_25_hz_and_375_hz() {
     let orders = excitation_orders(12, 15, 2);
     let one = orders.iter().find(|e| e.order == 1).unwrap();
     assert!(!one.blade_passing);
-    assert!((one.frequency_hz(1500.0) - 25.0).abs() < 1e-12);
+    assert!((one.frequency_hz(RotorSpeed::from_rpm(1500.0)) - 25.0).abs() < 1e-12);
     let bpf = orders.iter().find(|e| e.blade_passing).unwrap();
     assert_eq!(bpf.order, 15);
-    assert!((bpf.frequency_hz(1500.0) - 375.0).abs() < 1e-12);
+    assert!((bpf.frequency_hz(RotorSpeed::from_rpm(1500.0)) - 375.0).abs() < 1e-12);
     assert!(orders.iter().any(|e| e.order == 30 && e.blade_passing));
     assert_eq!(orders.len(), 14);
 }
@@ -267,14 +268,14 @@ fn a_blade_pitched_to_90_degrees_bends_its_weak_axis_in_the_plane_of_rotation() 
     let model = BeamModel::new(&uniform(&beam, 0.0, 1.0), &rotor(2, 100.0, 200.0, 90.0), &spec(40))
         .unwrap();
     let lambda = 4.0;
-    let edge = omegas(&model, rpm_of(lambda), 3, ModeKind::Edge);
+    let edge = omegas(&model, speed_of(lambda), 3, ModeKind::Edge);
     assert_eq!(edge.len(), 3);
     for (n, &found) in edge.iter().enumerate() {
         let expected = (ROTATING_FLAP[n][3].powi(2) - lambda * lambda).sqrt();
         assert!((found / expected - 1.0).abs() < 2e-5, "mode {}: {found} vs {expected}", n + 1);
     }
     // At rest the pitch changes nothing (a rigid turn of the whole beam).
-    let still = omegas(&model, 0.0, 3, ModeKind::Edge);
+    let still = omegas(&model, RotorSpeed::ZERO, 3, ModeKind::Edge);
     for (n, &found) in still.iter().enumerate() {
         assert!((found / ROTATING_FLAP[n][0] - 1.0).abs() < 2e-5, "mode {}: {found}", n + 1);
     }
@@ -292,7 +293,7 @@ fn torsion_under_centrifugal_tension_agrees_with_an_independent_shooting_solutio
     let k2 = (1.0 + 10.0) / 1000.0;
     let model =
         BeamModel::new(&uniform(&beam, 0.0, l), &rotor(2, 10.0, 200.0, 0.0), &spec(40)).unwrap();
-    let set = model.modes(omega_rot / RAD_S_PER_RPM, 12).unwrap();
+    let set = model.modes(RotorSpeed::from_rad_s(omega_rot), 12).unwrap();
     let torsion: Vec<f64> = set
         .modes
         .iter()

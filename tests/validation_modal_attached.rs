@@ -11,6 +11,7 @@ use layloft::modal::{
 };
 use layloft::project::{ExcitationSpec, FixedExcitation};
 use layloft::section::SectionProperties;
+use layloft::units::RotorSpeed;
 use nalgebra::{DMatrix, SymmetricEigen};
 
 /// A unit flap beam (EI = m = L = 1) with stiff edge, torsion and axial directions.
@@ -26,8 +27,8 @@ fn with_bodies(bodies: Vec<PointBody>) -> Attachments {
     Attachments { bodies, fluid: None }
 }
 
-fn flap_omegas(model: &BeamModel, rpm: f64, count: usize) -> Vec<f64> {
-    let set = model.modes(rpm, count).unwrap();
+fn flap_omegas(model: &BeamModel, speed: RotorSpeed, count: usize) -> Vec<f64> {
+    let set = model.modes(speed, count).unwrap();
     set.modes
         .iter()
         .filter(|m| m.kind == ModeKind::Flap)
@@ -70,7 +71,7 @@ fn a_tip_mass_lowers_flap_as_the_frequency_equation_says() {
             &with_bodies(vec![body(1.0, mu)]),
         )
         .unwrap();
-        let w = flap_omegas(&model, 0.0, 3)[0];
+        let w = flap_omegas(&model, RotorSpeed::ZERO, 3)[0];
         let exact = tip_mass_root(mu).powi(2);
         // The frequency equation solved to 1e-15; the FE error with 40 elements is about 1e-8.
         assert!((w / exact - 1.0).abs() < 1e-6, "mu {mu}: {w} vs {exact}");
@@ -187,7 +188,7 @@ fn a_rotating_beam_with_a_tip_body_agrees_with_an_independent_ritz_model() {
     let bare = ritz_flap(1.0, 1.0, 1.0, 0.0, 0.0, 0.0, 0.0, 0.0);
     assert!((bare[0] / 1.875_104_068_711_961_f64.powi(2) - 1.0).abs() < 1e-9, "{}", bare[0]);
     for lambda in [0.0, 3.0, 8.0] {
-        let fe = flap_omegas(&model, lambda / RAD_S_PER_RPM, 4);
+        let fe = flap_omegas(&model, RotorSpeed::from_rad_s(lambda), 4);
         let ritz = ritz_flap(1.0, 1.0, 1.0, hub, lambda, 0.4, 0.02, 0.018 - 0.004);
         for n in 0..2 {
             // Ritz with ten polynomials converges to about 1e-9 on the first mode and 1e-6 on
@@ -212,7 +213,7 @@ fn moving_a_point_mass_outward_lowers_the_first_flap_frequency_monotonically() {
     let sections = twisted_blade(6);
     let r = rotor(5, 3000.0, 3600.0, 8.0);
     let bare = BeamModel::new(&sections, &r, &spec(24)).unwrap();
-    let f_bare = bare.modes(0.0, 1).unwrap().modes[0].frequency_hz;
+    let f_bare = bare.modes(RotorSpeed::ZERO, 1).unwrap().modes[0].frequency_hz;
     let mut last = f_bare;
     for k in 0..=10 {
         let radius = 0.2 + 0.05 * k as f64;
@@ -224,7 +225,7 @@ fn moving_a_point_mass_outward_lowers_the_first_flap_frequency_monotonically() {
         };
         let model =
             BeamModel::with_attachments(&sections, &r, &spec(24), &with_bodies(vec![b])).unwrap();
-        let f = model.modes(0.0, 1).unwrap().modes[0].frequency_hz;
+        let f = model.modes(RotorSpeed::ZERO, 1).unwrap().modes[0].frequency_hz;
         assert!(f <= last * (1.0 + 1e-12), "r = {radius}: {f} Hz after {last} Hz");
         last = f;
     }
@@ -234,8 +235,8 @@ fn moving_a_point_mass_outward_lowers_the_first_flap_frequency_monotonically() {
     );
 }
 
-fn rayleigh_quotient(model: &BeamModel, rpm: f64, x: &[f64]) -> f64 {
-    let m = model.system_matrices(rpm).unwrap();
+fn rayleigh_quotient(model: &BeamModel, speed: RotorSpeed, x: &[f64]) -> f64 {
+    let m = model.system_matrices(speed).unwrap();
     let mut kx = vec![0.0; x.len()];
     let mut mx = vec![0.0; x.len()];
     m.stiffness.mul_vec(x, &mut kx);
@@ -255,13 +256,13 @@ fn the_rayleigh_quotient_of_each_mode_is_its_eigenvalue_and_the_mass_is_where_it
         with_bodies(vec![PointBody { r: node_r, mass, offset: [0.0, 0.0], inertia: [0.0; 3] }]);
     let with = BeamModel::with_attachments(&sections, &r, &spec, &att).unwrap();
     let without = BeamModel::new(&sections, &r, &spec).unwrap();
-    let rpm = 3000.0;
-    let set = with.modes(rpm, 4).unwrap();
-    let (mw, mo) = (with.system_matrices(rpm).unwrap(), without.system_matrices(rpm).unwrap());
+    let speed = RotorSpeed::from_rpm(3000.0);
+    let set = with.modes(speed, 4).unwrap();
+    let (mw, mo) = (with.system_matrices(speed).unwrap(), without.system_matrices(speed).unwrap());
     for mode in &set.modes {
         let x = mode.vector.as_slice();
         let lambda = (2.0 * PI * mode.frequency_hz).powi(2);
-        let rq = rayleigh_quotient(&with, rpm, x);
+        let rq = rayleigh_quotient(&with, speed, x);
         assert!((rq / lambda - 1.0).abs() < 1e-9, "{rq} vs {lambda}");
         // x'(M_with - M_without)x is the point mass's m |(u, v, w)|² at its node.
         let (mut a, mut b) = (vec![0.0; x.len()], vec![0.0; x.len()]);
@@ -311,8 +312,8 @@ fn an_offset_point_mass_couples_flap_and_twist_as_a_rigid_body() {
     shifted.offset = [0.1, 0.0];
     let off =
         BeamModel::with_attachments(&sections, &r, &spec(30), &with_bodies(vec![shifted])).unwrap();
-    let f0 = at_axis.modes(0.0, 1).unwrap().modes[0].frequency_hz;
-    let m1 = &off.modes(0.0, 1).unwrap().modes[0];
+    let f0 = at_axis.modes(RotorSpeed::ZERO, 1).unwrap().modes[0].frequency_hz;
+    let m1 = &off.modes(RotorSpeed::ZERO, 1).unwrap().modes[0];
     assert!(m1.frequency_hz < f0, "{} vs {f0}", m1.frequency_hz);
     assert!(m1.shares.torsion > 1e-6 && m1.shares.flap > 0.5, "{:?}", m1.shares);
 }
@@ -387,7 +388,14 @@ fn a_submerged_uniform_plate_keeps_the_strip_theory_frequency_ratio() {
     let wet = BeamModel::with_attachments(&sections, &r, &spec(30), &wet_att).unwrap();
     let [ma_flap, ma_edge, ia] = ellipse_added_mass(rho, c / 2.0, t / 2.0);
     let first = |model: &BeamModel, kind: ModeKind| {
-        model.modes(0.0, 8).unwrap().modes.iter().find(|m| m.kind == kind).unwrap().frequency_hz
+        model
+            .modes(RotorSpeed::ZERO, 8)
+            .unwrap()
+            .modes
+            .iter()
+            .find(|m| m.kind == kind)
+            .unwrap()
+            .frequency_hz
     };
     // Flap and torsion: exact up to the FE error (1e-7). Edge: the section's rotary inertia in
     // edge bending (about m c²/12 per length, 0.3 % of the kinetic energy of edge 1) is not
@@ -436,7 +444,8 @@ fn nine_blades_behind_eleven_vanes_cross_where_the_orders_say() {
     assert_eq!(eleven.vanes, [11]);
     assert_eq!(eleven.label(), "11P (11 vanes)");
     assert_eq!(orders.iter().find(|e| e.order == 9).unwrap().label(), "9P (blade passing)");
-    let speeds: Vec<f64> = (0..=120).map(|k| 50.0 * k as f64).collect();
+    let speeds: Vec<RotorSpeed> =
+        (0..=120).map(|k| RotorSpeed::from_rpm(50.0 * k as f64)).collect();
     let campbell = model.campbell(&speeds, 6, &mut |_, _| {}).unwrap();
     let torsion = campbell.tracks.iter().find(|t| t.kind == ModeKind::Torsion).unwrap();
     let crossings = campbell.crossings(&orders);
@@ -447,11 +456,12 @@ fn nine_blades_behind_eleven_vanes_cross_where_the_orders_say() {
             .unwrap_or_else(|| panic!("no crossing of torsion with {order}P"));
         let expected = 60.0 * f_t / order as f64;
         // The frequency is constant to 1e-10; the linear interpolation is then exact: 1e-6.
-        assert!((c.rpm / expected - 1.0).abs() < 1e-6, "{order}P at {} vs {expected} rpm", c.rpm);
+        let rpm = c.speed.rpm();
+        assert!((rpm / expected - 1.0).abs() < 1e-6, "{order}P at {rpm} vs {expected} rpm");
     }
     // The fixed line never meets a constant frequency; the margin to it is |f_t - f_g| / f_g.
     assert!(!crossings.iter().any(|c| c.track == torsion.id && c.order == 0));
-    let check = campbell.margins(&orders, "test", 1000.0, None).unwrap();
+    let check = campbell.margins(&orders, "test", RotorSpeed::from_rpm(1000.0), None).unwrap();
     let m = check.modes.iter().find(|m| m.track == torsion.id).unwrap();
     // At 1000 rpm the orders lie at most at 22 × 16.7 = 367 Hz; f_t = 28.7 Hz is nearest to 2P
     // (33.3 Hz, 16.2 %) and to the gear mesh 0.9 f_t (11.1 %): the mesh wins.
@@ -483,11 +493,11 @@ fn a_stiff_blade_on_a_flap_root_spring_flaps_as_a_rigid_hinged_blade() {
     let inertia = m * l.powi(3) / 3.0;
     for rpm in [0.0, 300.0] {
         let w_rot = rpm * RAD_S_PER_RPM;
-        let f = model.modes(rpm, 1).unwrap().modes[0].frequency_hz;
+        let f = model.modes(RotorSpeed::from_rpm(rpm), 1).unwrap().modes[0].frequency_hz;
         let expected = (k / inertia + w_rot * w_rot * (1.0 + 1.5 * e / l)).sqrt() / (2.0 * PI);
         // Blade flexibility k L / EI = 6e-6 lowers the frequency by about that: 1e-4.
         assert!((f / expected - 1.0).abs() < 1e-4, "{rpm} rpm: {f} Hz vs {expected} Hz");
     }
     // Standstill 10.49 Hz; at 300 rpm 12.01 Hz (the numbers quoted in the README).
-    assert!((model.modes(0.0, 1).unwrap().modes[0].frequency_hz - 10.49).abs() < 0.01);
+    assert!((model.modes(RotorSpeed::ZERO, 1).unwrap().modes[0].frequency_hz - 10.49).abs() < 0.01);
 }

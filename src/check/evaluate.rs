@@ -96,7 +96,7 @@ pub fn evaluate(
                         excitation: mm.excitation.clone(),
                         excitation_hz: mm.excitation_hz,
                         speed: check.name.clone(),
-                        rpm: check.rpm,
+                        rotor_speed: check.speed,
                     },
                 )
             }

@@ -2,6 +2,7 @@
 
 use crate::modal::Excitation;
 use crate::stress::{PanelResult, WallLocation};
+use crate::units::RotorSpeed;
 
 /// Where the governing value of a criterion occurs.
 #[derive(Debug, Clone, PartialEq)]
@@ -45,8 +46,8 @@ pub enum Place {
         excitation_hz: f64,
         /// The name of the speed checked (nominal, maximum).
         speed: String,
-        /// That speed, rpm.
-        rpm: f64,
+        /// That speed.
+        rotor_speed: RotorSpeed,
     },
     /// The blade's mass, split.
     Mass {

@@ -10,7 +10,7 @@ use layloft::output::export_matrix_market;
 use layloft::report::{
     campbell_csv, campbell_svg, modal_analysis_json, modal_text, mode_shapes_csv, write_atomic,
 };
-use layloft::units::rpm_of;
+use layloft::units::{RotorSpeed, rpm_of};
 
 use super::project::{load_model, run_modal};
 use super::{Failure, Outcome, Output};
@@ -79,7 +79,8 @@ fn parse_range(text: &str) -> Result<SpeedRange, Failure> {
         .map(|p| p.trim().parse::<f64>().ok().filter(|x| x.is_finite()))
         .collect::<Option<_>>()
         .ok_or_else(bad)?;
-    SpeedRange::new(v[0], v[1], v[2]).map_err(|e| Failure::Input(anyhow!("--rpm '{text}': {e}")))
+    let [from, to, step] = [v[0], v[1], v[2]].map(RotorSpeed::from_rpm);
+    SpeedRange::new(from, to, step).map_err(|e| Failure::Input(anyhow!("--rpm '{text}': {e}")))
 }
 
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
@@ -111,18 +112,22 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         write_atomic(path, campbell_csv(&analysis.campbell).as_bytes())?;
     }
     if let Some(path) = &args.shapes {
-        let set = match analysis.at_speed(rpm_nominal) {
+        let nominal = RotorSpeed::from_rad_s(p.rotor.omega_nominal);
+        let set = match analysis.at_speed(nominal) {
             Some(set) => set.clone(),
             None => analysis
                 .model
-                .modes(rpm_nominal, args.modes.unwrap_or(p.modal.modes))
+                .modes(nominal, args.modes.unwrap_or(p.modal.modes))
                 .map_err(layloft::Error::from)?,
         };
         write_atomic(path, mode_shapes_csv(&set).as_bytes())?;
     }
     if let Some(dir) = &args.export_matrices {
         let rpm = args.matrices_rpm.unwrap_or(rpm_nominal);
-        let m = analysis.model.system_matrices(rpm).map_err(layloft::Error::from)?;
+        let m = analysis
+            .model
+            .system_matrices(RotorSpeed::from_rpm(rpm))
+            .map_err(layloft::Error::from)?;
         let files = export_matrix_market(dir, &m)?;
         out.note(&format!(
             "wrote {} files to {} (matrices at {rpm} rpm)",

@@ -118,7 +118,7 @@ fn kit_text(book: &layloft::plybook::PlyBook, laminate_kg: f64) -> String {
             e.order,
             e.name,
             e.material,
-            e.angle_deg,
+            e.angle.deg(),
             e.r_range[0],
             e.r_range[1],
             e.area_m2,

@@ -25,7 +25,7 @@ use layloft::mesh::{StlFormat, StlOptions};
 use layloft::plybook::{PlyBook, PlyBookError, PlyBookParams, build_ply_book, plybook_files};
 use layloft::report::{ReportBlock, plybook_block, plybook_error_text, plybook_links};
 use layloft::tooling::ToolingParams;
-use layloft::units::rpm_of;
+use layloft::units::{RotorSpeed, rpm_of};
 
 const EXAMPLES: &str = "\
 Examples:
@@ -178,9 +178,10 @@ fn write_report_with(
     };
     let modal = run_modal(model, sources, out, None, None)?;
     let rpm_nominal = rpm_of(p.rotor.omega_nominal);
-    let nominal = match modal.at_speed(rpm_nominal) {
+    let nominal_speed = RotorSpeed::from_rad_s(p.rotor.omega_nominal);
+    let nominal = match modal.at_speed(nominal_speed) {
         Some(set) => set.clone(),
-        None => modal.model.modes(rpm_nominal, p.modal.modes).map_err(layloft::Error::from)?,
+        None => modal.model.modes(nominal_speed, p.modal.modes).map_err(layloft::Error::from)?,
     };
     let check = evaluate(model, &stress, Some(&modal));
 

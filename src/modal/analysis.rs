@@ -11,7 +11,7 @@ use super::modes::ModeSet;
 use super::track::mac_table;
 use crate::project::{Criteria, ExcitationSpec, ModalSpec, Rotor};
 use crate::section::SectionProperties;
-use crate::units::rpm_of;
+use crate::units::RotorSpeed;
 
 /// Everything the modal stage reads, for [`ModalAnalysis::run_inputs`].
 #[derive(Debug, Clone, Copy)]
@@ -33,8 +33,8 @@ pub struct ModalInputs<'a> {
 /// The dry frequencies of the modes at one speed, beside the wet ones, for a blade in a fluid.
 #[derive(Debug, Clone, PartialEq)]
 pub struct DryComparison {
-    /// Speed, rpm.
-    pub rpm: f64,
+    /// The speed.
+    pub speed: RotorSpeed,
     /// Per wet mode at that speed: `(track, wet frequency Hz, dry frequency Hz, MAC)`, the dry
     /// mode being the one of the blade without the fluid whose shape matches best by the
     /// mass-weighted MAC (the fluid changes shapes, so a low MAC says the pair is loose).
@@ -100,12 +100,12 @@ impl ModalAnalysis {
         let model = BeamModel::with_attachments(sections, rotor, spec, attachments)?;
         let range = match range {
             Some(r) => r,
-            None => SpeedRange::for_rotor(rotor, spec.omega_step.map(rpm_of))?,
+            None => SpeedRange::for_rotor(rotor, spec.omega_step.map(RotorSpeed::from_rad_s))?,
         };
-        // The sweep is a grid in rpm, the speeds the report tabulates; the rotor's speeds join
-        // it through `rpm_of`, which gives back the numbers the input gave.
-        let (rpm_nominal, rpm_max) = (rpm_of(rotor.omega_nominal), rpm_of(rotor.omega_max));
-        let speeds = range.speeds(&[rpm_nominal, rpm_max]);
+        // The rotor's speeds join the grid as the numbers the input gave (see `RotorSpeed`).
+        let nominal = RotorSpeed::from_rad_s(rotor.omega_nominal);
+        let max = RotorSpeed::from_rad_s(rotor.omega_max);
+        let speeds = range.speeds(&[nominal, max]);
         let count = modes.unwrap_or(spec.modes);
         let campbell = model.campbell(&speeds, count, progress)?;
         let excitations = machine_excitations(
@@ -116,12 +116,12 @@ impl ModalAnalysis {
         );
         let crossings = campbell.crossings(&excitations);
         let mut margins = Vec::new();
-        for (name, rpm) in [("nominal", rpm_nominal), ("maximum", rpm_max)] {
-            if rpm >= range.from_rpm && rpm <= range.to_rpm {
+        for (name, speed) in [("nominal", nominal), ("maximum", max)] {
+            if speed >= range.from && speed <= range.to {
                 margins.push(campbell.margins(
                     &excitations,
                     name,
-                    rpm,
+                    speed,
                     criteria.frequency_margin,
                 )?);
             }
@@ -129,18 +129,17 @@ impl ModalAnalysis {
         let mut dry = Vec::new();
         if attachments.fluid.is_some() {
             let dry_model = BeamModel::with_attachments(sections, rotor, spec, &attachments.dry())?;
-            let mut rpms: Vec<f64> = campbell.speeds.first().map(|s| s.rpm).into_iter().collect();
-            rpms.extend(margins.iter().map(|m| m.rpm));
-            rpms.dedup_by(|a, b| (*a - *b).abs() <= 1e-9 * a.abs().max(1.0));
-            for rpm in rpms {
-                let Some(wet) = campbell
-                    .speeds
-                    .iter()
-                    .find(|s| (s.rpm - rpm).abs() <= 1e-9 * rpm.abs().max(1.0))
+            let mut checked: Vec<RotorSpeed> =
+                campbell.speeds.first().map(|s| s.speed).into_iter().collect();
+            checked.extend(margins.iter().map(|m| m.speed));
+            checked.dedup_by(|a, b| a.within(*b, a.tolerance(1e-9)));
+            for speed in checked {
+                let Some(wet) =
+                    campbell.speeds.iter().find(|s| s.speed.within(speed, speed.tolerance(1e-9)))
                 else {
                     continue;
                 };
-                let set = dry_model.modes(rpm, (count + 2).min(dry_model.dof_count()))?;
+                let set = dry_model.modes(speed, (count + 2).min(dry_model.dof_count()))?;
                 let wet_vectors: Vec<_> = wet.modes.iter().map(|w| &w.vector).collect();
                 let dry_vectors: Vec<_> = set.modes.iter().map(|d| &d.vector).collect();
                 let table = mac_table(dry_model.mass(), &wet_vectors, &dry_vectors);
@@ -157,16 +156,16 @@ impl ModalAnalysis {
                         Some((w.track?, w.frequency_hz, best.frequency_hz, value))
                     })
                     .collect();
-                dry.push(DryComparison { rpm, modes });
+                dry.push(DryComparison { speed, modes });
             }
         }
         Ok(ModalAnalysis { model, range, campbell, excitations, crossings, margins, dry })
     }
 
-    /// The modes of the sweep at `rpm`, when the sweep holds that speed (the nominal and
+    /// The modes of the sweep at `speed`, when the sweep holds that speed (the nominal and
     /// maximum speeds always are).
-    pub fn at_speed(&self, rpm: f64) -> Option<&ModeSet> {
-        self.campbell.speeds.iter().find(|s| (s.rpm - rpm).abs() <= 1e-9 * rpm.abs().max(1.0))
+    pub fn at_speed(&self, speed: RotorSpeed) -> Option<&ModeSet> {
+        self.campbell.speeds.iter().find(|s| s.speed.within(speed, speed.tolerance(1e-9)))
     }
 
     /// Whether every margin check passes; `None` when no margin is required or none was checked.

@@ -14,7 +14,7 @@ use super::element::{NE, element_matrices};
 use super::span::Span;
 use crate::project::{ModalSpec, RootSprings, Rotor};
 use crate::section::SectionProperties;
-use crate::units::rpm_to_rad_s;
+use crate::units::RotorSpeed;
 
 /// Most elements a model may have.
 pub const MAX_ELEMENTS: usize = 10_000;
@@ -74,8 +74,8 @@ pub struct Dof {
 /// The constrained stiffness and mass matrices at one speed.
 #[derive(Debug, Clone)]
 pub struct SystemMatrices {
-    /// Rotor speed, rpm.
-    pub rpm: f64,
+    /// Rotor speed.
+    pub speed: RotorSpeed,
     /// Stiffness `K = K_elastic + Omega² K_spin`, N/m, N, N·m per unit of the degrees of freedom.
     pub stiffness: BandMatrix,
     /// Mass, kg, kg·m, kg·m².
@@ -255,20 +255,20 @@ impl BeamModel {
         (self.span.root(), self.span.tip())
     }
 
-    /// The constrained stiffness (at `rpm`) and mass matrices.
-    pub fn system_matrices(&self, rpm: f64) -> Result<SystemMatrices, ModalError> {
-        check_rpm(rpm)?;
+    /// The constrained stiffness (at `speed`) and mass matrices.
+    pub fn system_matrices(&self, speed: RotorSpeed) -> Result<SystemMatrices, ModalError> {
+        check_speed(speed)?;
         Ok(SystemMatrices {
-            rpm,
-            stiffness: self.stiffness_at(rpm),
+            speed,
+            stiffness: self.stiffness_at(speed),
             mass: self.mass.clone(),
             dofs: self.dofs.clone(),
         })
     }
 
-    /// `K(Omega) = K_elastic + Omega² K_spin` at `rpm`.
-    pub(crate) fn stiffness_at(&self, rpm: f64) -> BandMatrix {
-        let omega = rpm_to_rad_s(rpm);
+    /// `K(Omega) = K_elastic + Omega² K_spin` at `speed`.
+    pub(crate) fn stiffness_at(&self, speed: RotorSpeed) -> BandMatrix {
+        let omega = speed.rad_s();
         self.elastic.plus_scaled(omega * omega, &self.spin)
     }
 
@@ -284,8 +284,12 @@ impl BeamModel {
 }
 
 /// A rotor speed must be finite and not negative.
-pub(crate) fn check_rpm(rpm: f64) -> Result<(), ModalError> {
-    if rpm.is_finite() && rpm >= 0.0 { Ok(()) } else { Err(ModalError::Speed { rpm }) }
+pub(crate) fn check_speed(speed: RotorSpeed) -> Result<(), ModalError> {
+    if speed.is_finite() && speed >= RotorSpeed::ZERO {
+        Ok(())
+    } else {
+        Err(ModalError::Speed { speed })
+    }
 }
 
 fn check_springs(k: &RootSprings) -> Result<(), ModalError> {

@@ -1,6 +1,6 @@
 //! The speed sweep (Campbell data), the excitation orders, crossings and frequency margins.
 //!
-//! Excitations are the rotor orders `nP` (`n · rpm / 60` Hz) for `n = 1 ..= harmonics`, the
+//! Excitations are the rotor orders `nP` (`n · Ω / 2π` Hz) for `n = 1 ..= harmonics`, the
 //! blade-passing orders `k · B` for `k = 1 ..= blade_passing_multiples` (every multiple of `B`
 //! is marked as blade passing), the vane-passing orders `k · V` of each count `V` of stationary
 //! vanes or struts the blades pass (a blade meets `V` wakes per turn), further listed orders, and
@@ -19,7 +19,7 @@ use super::assemble::BeamModel;
 use super::modes::{EnergyShares, ModeKind, ModeSet};
 use super::track::{continue_tracks, start_tracks};
 use crate::project::{ExcitationSpec, Rotor};
-use crate::units::rpm_of;
+use crate::units::RotorSpeed;
 
 /// Progress of a sweep: called with (speeds done, speeds in all) after each speed, so that a
 /// caller can show a progress bar.
@@ -28,66 +28,65 @@ pub type SweepProgress<'a> = &'a mut dyn FnMut(usize, usize);
 /// Most speeds a sweep may hold.
 pub const MAX_SPEEDS: usize = 100_000;
 
-/// Speeds from `from_rpm` to `to_rpm` in steps of `step_rpm`.
+/// Speeds from `from` to `to` in steps of `step`.
+///
+/// The grid's arithmetic is that of [`RotorSpeed`], on the scale a speed was given in, so the
+/// speeds of a grid given in rpm (`--rpm FROM:TO:STEP`, `rpm_step`) read back in rpm as the
+/// round numbers they are.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
 pub struct SpeedRange {
-    /// First speed, rpm.
-    pub from_rpm: f64,
-    /// Last speed, rpm.
-    pub to_rpm: f64,
-    /// Step, rpm.
-    pub step_rpm: f64,
+    /// First speed.
+    pub from: RotorSpeed,
+    /// Last speed.
+    pub to: RotorSpeed,
+    /// Step.
+    pub step: RotorSpeed,
 }
 
 impl SpeedRange {
     /// A checked range: `0 <= from < to`, `0 < step <= to - from`, all finite.
-    pub fn new(from_rpm: f64, to_rpm: f64, step_rpm: f64) -> Result<Self, ModalError> {
-        let bad = |reason: &'static str| ModalError::SpeedRange {
-            from: from_rpm,
-            to: to_rpm,
-            step: step_rpm,
-            reason,
-        };
-        if !(from_rpm.is_finite() && to_rpm.is_finite() && step_rpm.is_finite()) {
+    pub fn new(from: RotorSpeed, to: RotorSpeed, step: RotorSpeed) -> Result<Self, ModalError> {
+        let bad = |reason: &'static str| ModalError::SpeedRange { from, to, step, reason };
+        if !(from.is_finite() && to.is_finite() && step.is_finite()) {
             return Err(bad("every value must be a finite number"));
         }
-        if from_rpm < 0.0 || to_rpm < 0.0 {
+        if from < RotorSpeed::ZERO || to < RotorSpeed::ZERO {
             return Err(bad("speeds must not be negative"));
         }
-        if to_rpm <= from_rpm {
+        if to <= from {
             return Err(bad("the range is empty: the last speed must exceed the first"));
         }
-        if step_rpm <= 0.0 {
+        if step <= RotorSpeed::ZERO {
             return Err(bad("the step must be positive"));
         }
-        if step_rpm > to_rpm - from_rpm {
+        if step > to - from {
             return Err(bad("the step is larger than the range"));
         }
-        if (to_rpm - from_rpm) / step_rpm > MAX_SPEEDS as f64 {
+        if (to - from) / step > MAX_SPEEDS as f64 {
             return Err(bad("the step is so small that the sweep would exceed 100000 speeds"));
         }
-        Ok(SpeedRange { from_rpm, to_rpm, step_rpm })
+        Ok(SpeedRange { from, to, step })
     }
 
-    /// The rotor's sweep: 0 to its greatest speed in `step_rpm`, or in 60 steps when not given.
-    pub fn for_rotor(rotor: &Rotor, step_rpm: Option<f64>) -> Result<Self, ModalError> {
-        let rpm_max = rpm_of(rotor.omega_max);
-        SpeedRange::new(0.0, rpm_max, step_rpm.unwrap_or(rpm_max / 60.0))
+    /// The rotor's sweep: 0 to its greatest speed in `step`, or in 60 steps when not given.
+    pub fn for_rotor(rotor: &Rotor, step: Option<RotorSpeed>) -> Result<Self, ModalError> {
+        let max = RotorSpeed::from_rad_s(rotor.omega_max);
+        SpeedRange::new(RotorSpeed::ZERO, max, step.unwrap_or(max / 60.0))
     }
 
-    /// The speeds, ascending: the steps from `from_rpm`, `to_rpm` itself, and every speed of
-    /// `include` inside the range (the nominal and maximum speeds, so that margins are evaluated
-    /// at solved speeds).
-    pub fn speeds(&self, include: &[f64]) -> Vec<f64> {
-        let span = self.to_rpm - self.from_rpm;
-        let steps = (span / self.step_rpm * (1.0 + 1e-12)).floor() as usize;
-        let mut v: Vec<f64> =
-            (0..=steps).map(|i| self.from_rpm + i as f64 * self.step_rpm).collect();
-        v.push(self.to_rpm);
-        v.extend(include.iter().copied().filter(|r| (self.from_rpm..=self.to_rpm).contains(r)));
-        v.sort_by(f64::total_cmp);
-        let tol = 1e-9 * self.to_rpm.max(1.0);
-        v.dedup_by(|a, b| (*a - *b).abs() <= tol);
+    /// The speeds, ascending: the steps from `from`, `to` itself, and every speed of `include`
+    /// inside the range (the nominal and maximum speeds, so that margins are evaluated at solved
+    /// speeds).
+    pub fn speeds(&self, include: &[RotorSpeed]) -> Vec<RotorSpeed> {
+        let span = self.to - self.from;
+        let steps = (span / self.step * (1.0 + 1e-12)).floor() as usize;
+        let mut v: Vec<RotorSpeed> =
+            (0..=steps).map(|i| self.from + self.step * i as f64).collect();
+        v.push(self.to);
+        v.extend(include.iter().copied().filter(|r| (self.from..=self.to).contains(r)));
+        v.sort_by(RotorSpeed::total_cmp);
+        let tol = self.to.tolerance(1e-9);
+        v.dedup_by(|a, b| a.within(*b, tol));
         v
     }
 }
@@ -154,28 +153,28 @@ impl Excitation {
         Excitation { order, blade_passing, vanes: Vec::new(), fixed: None }
     }
 
-    /// Excitation frequency at `rpm`, Hz (the lower edge of a fixed band).
-    pub fn frequency_hz(&self, rpm: f64) -> f64 {
+    /// Excitation frequency at `speed`, Hz (the lower edge of a fixed band).
+    pub fn frequency_hz(&self, speed: RotorSpeed) -> f64 {
         match &self.fixed {
             Some(f) => f.from_hz,
-            None => self.order as f64 * rpm / 60.0,
+            None => speed.order_hz(self.order as f64),
         }
     }
 
-    /// The lowest and highest frequency at `rpm`, Hz (the same for a rotor order).
-    pub fn range_hz(&self, rpm: f64) -> (f64, f64) {
+    /// The lowest and highest frequency at `speed`, Hz (the same for a rotor order).
+    pub fn range_hz(&self, speed: RotorSpeed) -> (f64, f64) {
         match &self.fixed {
             Some(f) => (f.from_hz, f.to_hz),
             None => {
-                let f = self.frequency_hz(rpm);
+                let f = self.frequency_hz(speed);
                 (f, f)
             }
         }
     }
 
-    /// The frequencies whose lines a track can cross at `rpm`: one, or both edges of a band.
-    pub fn lines_hz(&self, rpm: f64) -> Vec<f64> {
-        let (lo, hi) = self.range_hz(rpm);
+    /// The frequencies whose lines a track can cross at `speed`: one, or both edges of a band.
+    pub fn lines_hz(&self, speed: RotorSpeed) -> Vec<f64> {
+        let (lo, hi) = self.range_hz(speed);
         if hi > lo { vec![lo, hi] } else { vec![lo] }
     }
 
@@ -278,8 +277,8 @@ pub struct Crossing {
     pub order: u32,
     /// Whether the order is blade passing.
     pub blade_passing: bool,
-    /// Speed of the crossing, rpm.
-    pub rpm: f64,
+    /// Speed of the crossing.
+    pub speed: RotorSpeed,
     /// Frequency of the crossing, Hz.
     pub frequency_hz: f64,
 }
@@ -306,8 +305,8 @@ pub struct ModeMargin {
 pub struct MarginCheck {
     /// What the speed is (`nominal`, `maximum`).
     pub name: String,
-    /// Speed, rpm.
-    pub rpm: f64,
+    /// The speed.
+    pub speed: RotorSpeed,
     /// Required margin, a fraction, when one is required.
     pub required: Option<f64>,
     /// One per mode, by increasing frequency.
@@ -317,28 +316,28 @@ pub struct MarginCheck {
 }
 
 impl BeamModel {
-    /// The `count` lowest modes at every speed of `rpms` (ascending, not negative), tracked by
+    /// The `count` lowest modes at every speed of `grid` (ascending, not negative), tracked by
     /// MAC. `progress(done, total)` is called after each speed.
     pub fn campbell(
         &self,
-        rpms: &[f64],
+        grid: &[RotorSpeed],
         count: usize,
         progress: SweepProgress,
     ) -> Result<Campbell, ModalError> {
-        if rpms.is_empty() {
+        if grid.is_empty() {
             return Err(ModalError::NoSpeeds);
         }
         if let Some(w) =
-            rpms.windows(2).find(|w| w[1].partial_cmp(&w[0]) != Some(std::cmp::Ordering::Greater))
+            grid.windows(2).find(|w| w[1].partial_cmp(&w[0]) != Some(std::cmp::Ordering::Greater))
         {
-            return Err(ModalError::SpeedOrder { rpm: w[1], previous: w[0] });
+            return Err(ModalError::SpeedOrder { speed: w[1], previous: w[0] });
         }
         // A few modes above those asked for keep tracks continuous where modes cross the top.
         let solved = (count + 2).min(self.dof_count()).max(count);
-        let mut speeds: Vec<ModeSet> = Vec::with_capacity(rpms.len());
+        let mut speeds: Vec<ModeSet> = Vec::with_capacity(grid.len());
         let mut next_track = 0;
-        for (i, &rpm) in rpms.iter().enumerate() {
-            let mut set = self.modes(rpm, solved)?;
+        for (i, &speed) in grid.iter().enumerate() {
+            let mut set = self.modes(speed, solved)?;
             match speeds.last() {
                 Some(prev) => {
                     continue_tracks(self.mass(), &prev.modes, &mut set.modes, &mut next_track)
@@ -346,7 +345,7 @@ impl BeamModel {
                 None => start_tracks(&mut set.modes, &mut next_track),
             }
             speeds.push(set);
-            progress(i + 1, rpms.len());
+            progress(i + 1, grid.len());
         }
         for set in &mut speeds {
             set.modes.truncate(count);
@@ -433,15 +432,16 @@ fn most_frequent(kinds: &[ModeKind]) -> ModeKind {
 }
 
 impl Campbell {
-    /// The points `(rpm, frequency_hz)` of track `id` at the speeds where it is among the modes.
-    pub fn track_points(&self, id: usize) -> Vec<(f64, f64)> {
+    /// The points `(speed, frequency_hz)` of track `id` at the speeds where it is among the
+    /// modes.
+    pub fn track_points(&self, id: usize) -> Vec<(RotorSpeed, f64)> {
         self.track_runs(id).into_iter().flatten().collect()
     }
 
     /// The points of track `id` in runs of consecutive speeds (a track can leave the lowest modes
     /// and come back).
-    pub fn track_runs(&self, id: usize) -> Vec<Vec<(f64, f64)>> {
-        let mut runs: Vec<Vec<(f64, f64)>> = Vec::new();
+    pub fn track_runs(&self, id: usize) -> Vec<Vec<(RotorSpeed, f64)>> {
+        let mut runs: Vec<Vec<(RotorSpeed, f64)>> = Vec::new();
         let mut open = false;
         for set in &self.speeds {
             match set.modes.iter().find(|m| m.track == Some(id)) {
@@ -451,7 +451,7 @@ impl Campbell {
                         open = true;
                     }
                     if let Some(run) = runs.last_mut() {
-                        run.push((set.rpm, m.frequency_hz));
+                        run.push((set.speed, m.frequency_hz));
                     }
                 }
                 None => open = false,
@@ -478,7 +478,7 @@ impl Campbell {
                                     excitation: k,
                                     order: e.order,
                                     blade_passing: e.blade_passing,
-                                    rpm: ra + t * (rb - ra),
+                                    speed: ra.lerp(rb, t),
                                     frequency_hz: ea + t * (eb - ea),
                                 });
                             }
@@ -490,34 +490,35 @@ impl Campbell {
         out
     }
 
-    /// The margin of every mode at `rpm` to its nearest excitation, and pass or fail against
-    /// `required` (a fraction). Frequencies between sweep speeds are interpolated linearly along tracks.
+    /// The margin of every mode at `speed` to its nearest excitation, and pass or fail against
+    /// `required` (a fraction). Frequencies between sweep speeds are interpolated linearly along
+    /// tracks.
     pub fn margins(
         &self,
         excitations: &[Excitation],
         name: &str,
-        rpm: f64,
+        speed: RotorSpeed,
         required: Option<f64>,
     ) -> Result<MarginCheck, ModalError> {
         let (first, last) = match (self.speeds.first(), self.speeds.last()) {
-            (Some(a), Some(b)) => (a.rpm, b.rpm),
+            (Some(a), Some(b)) => (a.speed, b.speed),
             _ => return Err(ModalError::NoSpeeds),
         };
-        let tol = 1e-9 * last.max(1.0);
-        if !(rpm >= first - tol && rpm <= last + tol) {
-            return Err(ModalError::MarginSpeed { rpm, from: first, to: last });
+        let tol = last.tolerance(1e-9);
+        if !(speed >= first - tol && speed <= last + tol) {
+            return Err(ModalError::MarginSpeed { speed, from: first, to: last });
         }
         let mut modes: Vec<ModeMargin> = self
-            .frequencies_at(rpm, tol)
+            .frequencies_at(speed, tol)
             .into_iter()
-            .filter_map(|(track, f)| nearest(excitations, rpm, f, track))
+            .filter_map(|(track, f)| nearest(excitations, speed, f, track))
             .collect();
         modes.sort_by(|a, b| a.frequency_hz.total_cmp(&b.frequency_hz));
         for m in &mut modes {
             m.pass = required.map(|req| m.margin >= req);
         }
         let pass = required.map(|_| modes.iter().all(|m| m.pass == Some(true)));
-        Ok(MarginCheck { name: name.to_string(), rpm, required, modes, pass })
+        Ok(MarginCheck { name: name.to_string(), speed, required, modes, pass })
     }
 
     /// The margins at the rotor's nominal and maximum speeds.
@@ -528,23 +529,33 @@ impl Campbell {
         required: Option<f64>,
     ) -> Result<Vec<MarginCheck>, ModalError> {
         Ok(vec![
-            self.margins(excitations, "nominal", rpm_of(rotor.omega_nominal), required)?,
-            self.margins(excitations, "maximum", rpm_of(rotor.omega_max), required)?,
+            self.margins(
+                excitations,
+                "nominal",
+                RotorSpeed::from_rad_s(rotor.omega_nominal),
+                required,
+            )?,
+            self.margins(
+                excitations,
+                "maximum",
+                RotorSpeed::from_rad_s(rotor.omega_max),
+                required,
+            )?,
         ])
     }
 
-    /// `(track, frequency_hz)` at `rpm`: the solved modes when `rpm` is a sweep speed, else the
-    /// tracks present at both neighbouring speeds, interpolated.
-    fn frequencies_at(&self, rpm: f64, tol: f64) -> Vec<(usize, f64)> {
-        if let Some(set) = self.speeds.iter().find(|s| (s.rpm - rpm).abs() <= tol) {
+    /// `(track, frequency_hz)` at `speed`: the solved modes when `speed` is a sweep speed, else
+    /// the tracks present at both neighbouring speeds, interpolated.
+    fn frequencies_at(&self, speed: RotorSpeed, tol: RotorSpeed) -> Vec<(usize, f64)> {
+        if let Some(set) = self.speeds.iter().find(|s| s.speed.within(speed, tol)) {
             return set.modes.iter().filter_map(|m| Some((m.track?, m.frequency_hz))).collect();
         }
         if self.speeds.len() < 2 {
             return Vec::new();
         }
-        let i = self.speeds.partition_point(|s| s.rpm < rpm).clamp(1, self.speeds.len() - 1);
+        let i = self.speeds.partition_point(|s| s.speed < speed).clamp(1, self.speeds.len() - 1);
         let (a, b) = (&self.speeds[i - 1], &self.speeds[i]);
-        let t = (rpm - a.rpm) / (b.rpm - a.rpm);
+        let t = (speed - a.speed) / (b.speed - a.speed);
         a.modes
             .iter()
             .filter_map(|ma| {
@@ -555,13 +566,18 @@ impl Campbell {
     }
 }
 
-/// The excitation nearest to `f` at `rpm` by relative separation.
-fn nearest(excitations: &[Excitation], rpm: f64, f: f64, track: usize) -> Option<ModeMargin> {
+/// The excitation nearest to `f` at `speed` by relative separation.
+fn nearest(
+    excitations: &[Excitation],
+    speed: RotorSpeed,
+    f: f64,
+    track: usize,
+) -> Option<ModeMargin> {
     excitations
         .iter()
-        .filter(|e| e.frequency_hz(rpm) > 0.0)
+        .filter(|e| e.frequency_hz(speed) > 0.0)
         .map(|e| {
-            let (lo, hi) = e.range_hz(rpm);
+            let (lo, hi) = e.range_hz(speed);
             // The nearest frequency of the band (the frequency itself inside it).
             let fh = f.clamp(lo, hi);
             ModeMargin {

@@ -16,7 +16,7 @@ use super::band::BandMatrix;
 pub fn matrix_market_files(matrices: &SystemMatrices) -> Vec<(&'static str, Vec<u8>)> {
     let k_note = format!(
         "layloft constrained stiffness K = K_elastic + Omega^2 K_spin at {} rpm; rows as in dofs.csv",
-        matrices.rpm
+        matrices.speed.rpm()
     );
     let m_note = "layloft constrained consistent mass matrix; rows as in dofs.csv";
     let mut k = Vec::new();

@@ -60,7 +60,7 @@
 //! ```
 //! use layloft::project::{ModalSpec, Rotor};
 //! use layloft::modal::{BeamModel, BeamSection};
-//! use layloft::units::{Angle, rpm_to_rad_s};
+//! use layloft::units::{Angle, RotorSpeed, rpm_to_rad_s};
 //!
 //! # fn main() -> Result<(), layloft::Error> {
 //! // A uniform steel strip, 1 m long, clamped on the rotor axis (invented example).
@@ -78,13 +78,14 @@
 //!     tip_clearance: 0.0,
 //! };
 //! let model = BeamModel::new(&sections, &rotor, &ModalSpec::default())?;
-//! let still = model.modes(0.0, 3)?;
+//! let still = model.modes(RotorSpeed::ZERO, 3)?;
 //! // Clamped–free beam: omega_1 = 1.8751² sqrt(EI / (m L⁴)) (Blevins, Formulas for Natural
 //! // Frequency and Mode Shape, 1979, table 8-1).
 //! let f1 = 1.875104_f64.powi(2) * (17.5_f64 / 7.85).sqrt() / (2.0 * std::f64::consts::PI);
 //! assert!((still.modes[0].frequency_hz / f1 - 1.0).abs() < 1e-5);
 //! // Spinning stiffens the flap mode.
-//! assert!(model.modes(300.0, 1)?.modes[0].frequency_hz > still.modes[0].frequency_hz);
+//! let spinning = model.modes(RotorSpeed::from_rpm(300.0), 1)?;
+//! assert!(spinning.modes[0].frequency_hz > still.modes[0].frequency_hz);
 //! # Ok(())
 //! # }
 //! ```
@@ -116,6 +117,8 @@ pub use export::{matrix_market_files, write_matrix_market};
 pub use modes::{DOMINANT_SHARE, EnergyShares, Mode, ModeKind, ModeSet, ModeShape};
 pub use solve::{EigenError, EigenSolution, LanczosParams, solve_dense, solve_lowest};
 pub use track::{MIN_TRACK_MAC, mac};
+
+use crate::units::RotorSpeed;
 
 /// What can go wrong in the modal analysis. Input errors name the station radius, the field or
 /// the value; [`ModalError::is_input`] tells them from computation failures.
@@ -236,20 +239,20 @@ pub enum ModalError {
         value: f64,
     },
     /// A rotor speed that is negative or not finite.
-    #[error("rotor speed {rpm} rpm: expected a finite speed of 0 rpm or more")]
+    #[error("rotor speed {} rpm: expected a finite speed of 0 rpm or more", .speed.rpm())]
     Speed {
-        /// The speed, rpm.
-        rpm: f64,
+        /// The speed.
+        speed: RotorSpeed,
     },
     /// A speed range that is empty, negative or badly stepped.
-    #[error("speed range {from}:{to}:{step} rpm: {reason}")]
+    #[error("speed range {}:{}:{} rpm: {reason}", .from.rpm(), .to.rpm(), .step.rpm())]
     SpeedRange {
-        /// First speed, rpm.
-        from: f64,
-        /// Last speed, rpm.
-        to: f64,
-        /// Step, rpm.
-        step: f64,
+        /// First speed.
+        from: RotorSpeed,
+        /// Last speed.
+        to: RotorSpeed,
+        /// Step.
+        step: RotorSpeed,
         /// What is wrong.
         reason: &'static str,
     },
@@ -257,12 +260,16 @@ pub enum ModalError {
     #[error("the speed sweep holds no speeds")]
     NoSpeeds,
     /// Sweep speeds not increasing.
-    #[error("sweep speed {rpm} rpm follows {previous} rpm: speeds must increase")]
+    #[error(
+        "sweep speed {} rpm follows {} rpm: speeds must increase",
+        .speed.rpm(),
+        .previous.rpm()
+    )]
     SpeedOrder {
-        /// The speed, rpm.
-        rpm: f64,
-        /// The one before, rpm.
-        previous: f64,
+        /// The speed.
+        speed: RotorSpeed,
+        /// The one before.
+        previous: RotorSpeed,
     },
     /// More modes than degrees of freedom, or none.
     #[error("{asked} modes asked for: expected 1 to {dofs} (the model's degrees of freedom)")]
@@ -273,20 +280,25 @@ pub enum ModalError {
         dofs: usize,
     },
     /// A margin asked at a speed outside the sweep.
-    #[error("margin at {rpm} rpm asked for, outside the sweep from {from} to {to} rpm")]
+    #[error(
+        "margin at {} rpm asked for, outside the sweep from {} to {} rpm",
+        .speed.rpm(),
+        .from.rpm(),
+        .to.rpm()
+    )]
     MarginSpeed {
-        /// The speed, rpm.
-        rpm: f64,
-        /// First sweep speed, rpm.
-        from: f64,
-        /// Last sweep speed, rpm.
-        to: f64,
+        /// The speed.
+        speed: RotorSpeed,
+        /// First sweep speed.
+        from: RotorSpeed,
+        /// Last sweep speed.
+        to: RotorSpeed,
     },
     /// The eigen solution failed at a speed.
-    #[error("modes at {rpm} rpm: {source}")]
+    #[error("modes at {} rpm: {source}", .speed.rpm())]
     Eigen {
-        /// The speed, rpm.
-        rpm: f64,
+        /// The speed.
+        speed: RotorSpeed,
         /// Why.
         #[source]
         source: EigenError,

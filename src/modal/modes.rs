@@ -11,8 +11,9 @@ use nalgebra::DVector;
 use serde::Serialize;
 
 use super::ModalError;
-use super::assemble::{BeamModel, DofKind, check_rpm};
+use super::assemble::{BeamModel, DofKind, check_speed};
 use super::solve::{LanczosParams, solve_lowest};
+use crate::units::RotorSpeed;
 
 /// The least kinetic energy share for a mode to be named after one family (common practice for
 /// automatic mode labels; 0.6 keeps strongly coupled modes "mixed").
@@ -112,22 +113,22 @@ pub struct Mode {
 /// The lowest modes at one speed, lowest first.
 #[derive(Debug, Clone)]
 pub struct ModeSet {
-    /// Rotor speed, rpm.
-    pub rpm: f64,
+    /// Rotor speed.
+    pub speed: RotorSpeed,
     /// Modes, by increasing frequency.
     pub modes: Vec<Mode>,
 }
 
 impl BeamModel {
-    /// The `count` lowest modes at `rpm`.
-    pub fn modes(&self, rpm: f64, count: usize) -> Result<ModeSet, ModalError> {
-        check_rpm(rpm)?;
+    /// The `count` lowest modes at `speed`.
+    pub fn modes(&self, speed: RotorSpeed, count: usize) -> Result<ModeSet, ModalError> {
+        check_speed(speed)?;
         if count == 0 || count > self.dof_count() {
             return Err(ModalError::TooManyModes { asked: count, dofs: self.dof_count() });
         }
-        let k = self.stiffness_at(rpm);
+        let k = self.stiffness_at(speed);
         let solution = solve_lowest(&k, self.mass(), count, &LanczosParams::default())
-            .map_err(|source| ModalError::Eigen { rpm, source })?;
+            .map_err(|source| ModalError::Eigen { speed, source })?;
         let modes = solution
             .eigenvalues
             .iter()
@@ -145,7 +146,7 @@ impl BeamModel {
                 }
             })
             .collect();
-        Ok(ModeSet { rpm, modes })
+        Ok(ModeSet { speed, modes })
     }
 }
 

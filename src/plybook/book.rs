@@ -4,6 +4,7 @@ use super::PlyBookError;
 use super::nest::Nesting;
 use super::pattern::FlatPattern;
 use super::warning::PlyBookWarning;
+use crate::units::Angle;
 
 /// Settings of the ply book.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -88,8 +89,8 @@ pub struct PatternEntry {
     pub material: String,
     /// `upper`, `lower` or `web:NAME`.
     pub surface: String,
-    /// Fibre angle, degrees.
-    pub angle_deg: f64,
+    /// Fibre angle.
+    pub angle: Angle,
     /// How the material drapes.
     pub kind: FabricKind,
     /// Span range, m.

@@ -80,7 +80,7 @@ pub fn build_ply_book(
                 order: region.ply + 1,
                 material: p.material.clone(),
                 surface: region.surface_name.clone(),
-                angle_deg: p.angle.deg(),
+                angle: p.angle,
                 kind,
                 r_range: region.span,
                 chord_range: matches!(region.level, Level::Skin(_)).then_some(region.chord),

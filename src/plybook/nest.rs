@@ -13,6 +13,7 @@
 //! outlines keep at least half the gap.
 
 use super::vec3::polygon_area;
+use crate::units::Angle;
 
 /// One pattern to nest.
 #[derive(Debug, Clone)]
@@ -28,8 +29,8 @@ pub struct NestItem {
 pub struct Placement {
     /// Index of the item.
     pub item: usize,
-    /// Rotation applied about the outline's origin, degrees (0, 90, 180 or 270).
-    pub rotation_deg: f64,
+    /// Rotation applied about the outline's origin (0°, 90°, 180° or 270°).
+    pub rotation: Angle,
     /// Translation applied after the rotation, m.
     pub offset: [f64; 2],
     /// The placed outline on the roll, m.
@@ -297,8 +298,12 @@ pub fn nest(items: &[NestItem], width: f64, gap: f64) -> Result<Nesting, TooWide
             hi: [shape.hi[0] + x, shape.hi[1] + y],
             outline: outline.clone(),
         };
-        let placement =
-            Placement { item: k, rotation_deg: rot, offset: [shift[0] + x, shift[1] + y], outline };
+        let placement = Placement {
+            item: k,
+            rotation: Angle::from_deg(rot),
+            offset: [shift[0] + x, shift[1] + y],
+            outline,
+        };
         placed.push((moved, placement));
     }
     let length = placed.iter().map(|(s, _)| s.hi[0]).fold(0.0, f64::max);

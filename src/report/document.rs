@@ -358,8 +358,8 @@ fn vibration_section(
          criterion. Excitations: rotor orders 1P to {}P, the blade-passing orders{}.",
         a.campbell.speeds.first().map_or(0, |s| s.modes.len()),
         a.campbell.speeds.len(),
-        a.range.from_rpm,
-        a.range.to_rpm,
+        a.range.from.rpm(),
+        a.range.to.rpm(),
         p.criteria.harmonics,
         if a.excitations.iter().any(|e| !e.vanes.is_empty() || e.fixed.is_some()) {
             " and the machine's own excitations of [excitation]"
@@ -415,7 +415,7 @@ fn vibration_section(
             format!(
                 "Margins at the {} speed, {:.0} rpm{}.",
                 check.name,
-                check.rpm,
+                check.speed.rpm(),
                 check.required.map(|v| format!(" (required {} %)", pct_of(v))).unwrap_or_default()
             ),
             &t,
@@ -428,8 +428,8 @@ fn vibration_section(
     if let Some(set) = nominal {
         s.figure(
             "mode-shapes",
-            format!("The first mode shapes at the nominal speed, {:.0} rpm.", set.rpm),
-            mode_shapes_svg(set, 4, &format!("Mode shapes at {:.0} rpm", set.rpm)),
+            format!("The first mode shapes at the nominal speed, {:.0} rpm.", set.speed.rpm()),
+            mode_shapes_svg(set, 4, &format!("Mode shapes at {:.0} rpm", set.speed.rpm())),
         );
     }
 }

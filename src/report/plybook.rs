@@ -65,7 +65,7 @@ pub fn plybook_block(book: &PlyBook, laminate_kg: Option<f64>, sources: &Sources
             e.order.to_string(),
             e.name.clone(),
             e.material.clone(),
-            fixed(e.angle_deg, 1),
+            fixed(e.angle.deg(), 1),
             fixed(e.r_range[0], 3),
             fixed(e.r_range[1], 3),
             sig4(e.area_m2),

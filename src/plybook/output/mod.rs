@@ -42,7 +42,12 @@ pub(super) fn notch(e: &PatternEntry) -> [[f64; 2]; 3] {
 pub(super) fn label(e: &PatternEntry) -> String {
     format!(
         "{} {} | {} {:+.0}° | lay-up {} | {:.4} m²",
-        e.ply, e.surface, e.material, e.angle_deg, e.order, e.area_m2
+        e.ply,
+        e.surface,
+        e.material,
+        e.angle.deg(),
+        e.order,
+        e.area_m2
     )
 }
 

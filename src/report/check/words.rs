@@ -84,13 +84,14 @@ pub fn place_text(place: &Place) -> String {
             panel_place(panel),
             panel.check.mode.label()
         ),
-        Place::Mode { track, frequency_hz, wet, excitation, excitation_hz, speed, rpm } => {
+        Place::Mode { track, frequency_hz, wet, excitation, excitation_hz, speed, rotor_speed } => {
             format!(
                 "{} at {frequency_hz:.1} Hz{} against {} ({excitation_hz:.1} Hz), {speed} speed \
-                 {rpm:.0} rpm",
+                 {:.0} rpm",
                 track.as_deref().unwrap_or("a mode"),
                 if *wet { " (wet)" } else { "" },
                 excitation.label(),
+                rotor_speed.rpm(),
             )
         }
         Place::Mass { laminate_kg, point_masses_kg } => {

@@ -7,6 +7,7 @@
 
 use crate::modal::{Campbell, Crossing, Excitation, ModeKind};
 use crate::report::plot::{Anchor, Figure, LineStyle, Marker, palette};
+use crate::units::RotorSpeed;
 
 /// Colour of a mode kind.
 pub fn kind_colour(kind: ModeKind) -> &'static str {
@@ -29,8 +30,10 @@ pub fn campbell_svg(
     title: &str,
 ) -> String {
     let mut fig = Figure::new(title, "rotor speed (rpm)", "frequency (Hz)");
-    let rpm_max = campbell.speeds.last().map_or(1.0, |s| s.rpm).max(1e-9);
-    let rpm_min = campbell.speeds.first().map_or(0.0, |s| s.rpm).min(rpm_max - 1e-9);
+    // The plot's speed axis is in rpm.
+    let rpm_max = campbell.speeds.last().map_or(1.0, |s| s.speed.rpm()).max(1e-9);
+    let rpm_min = campbell.speeds.first().map_or(0.0, |s| s.speed.rpm()).min(rpm_max - 1e-9);
+    let (at_max, at_min) = (RotorSpeed::from_rpm(rpm_max), RotorSpeed::from_rpm(rpm_min));
     let f_max = campbell
         .speeds
         .iter()
@@ -40,7 +43,7 @@ pub fn campbell_svg(
     // Modes far above every excitation line cannot be excited in the range: the plot stops a
     // little above the highest line (or the lowest mode, whichever is higher) and says how many
     // modes lie above it.
-    let f_exc = excitations.iter().map(|e| e.range_hz(rpm_max).1).fold(0.0, f64::max);
+    let f_exc = excitations.iter().map(|e| e.range_hz(at_max).1).fold(0.0, f64::max);
     let f_low = campbell
         .speeds
         .iter()
@@ -67,7 +70,7 @@ pub fn campbell_svg(
             if f.to_hz > f.from_hz {
                 fig.rect(rpm_min, f.from_hz, rpm_max, f.to_hz.min(y_top), palette::SERIES[6], 0.15);
             }
-            for y in e.lines_hz(rpm_max) {
+            for y in e.lines_hz(at_max) {
                 fig.line(&[(rpm_min, y), (rpm_max, y)], &fixed_style);
             }
             if f.from_hz <= y_top {
@@ -82,8 +85,8 @@ pub fn campbell_svg(
         } else {
             (&order_style, palette::MUTED)
         };
-        let f_end = e.frequency_hz(rpm_max);
-        fig.line(&[(rpm_min, e.frequency_hz(rpm_min)), (rpm_max, f_end)], style);
+        let f_end = e.frequency_hz(at_max);
+        fig.line(&[(rpm_min, e.frequency_hz(at_min)), (rpm_max, f_end)], style);
         // Label where the line leaves the plot: at the right edge or at the top. An order with
         // vane passing names every source (one line for coinciding orders).
         let (x, y) =
@@ -98,25 +101,19 @@ pub fn campbell_svg(
         let style = LineStyle::solid(kind_colour(track.kind), 2.0);
         let runs = campbell.track_runs(track.id);
         for run in &runs {
-            fig.line(run, &style);
+            let points: Vec<(f64, f64)> = run.iter().map(|&(s, f)| (s.rpm(), f)).collect();
+            fig.line(&points, &style);
         }
         // Track labels sit just above the start of each track, clear of the order labels at
         // the right and top edges.
         if let Some(&(x, y)) = runs.first().and_then(|r| r.first()) {
-            let x = x + 0.01 * (rpm_max - rpm_min);
+            let x = x.rpm() + 0.01 * (rpm_max - rpm_min);
             fig.label(x, y + 0.015 * y_top, &track.label, kind_colour(track.kind), Anchor::Start);
         }
     }
-    let inside: Vec<(f64, f64)> = crossings
-        .iter()
-        .filter(|c| c.rpm >= lo && c.rpm <= hi)
-        .map(|c| (c.rpm, c.frequency_hz))
-        .collect();
-    let outside: Vec<(f64, f64)> = crossings
-        .iter()
-        .filter(|c| !(c.rpm >= lo && c.rpm <= hi))
-        .map(|c| (c.rpm, c.frequency_hz))
-        .collect();
+    let points = crossings.iter().map(|c| (c.speed.rpm(), c.frequency_hz));
+    let inside: Vec<(f64, f64)> = points.clone().filter(|c| c.0 >= lo && c.0 <= hi).collect();
+    let outside: Vec<(f64, f64)> = points.filter(|c| !(c.0 >= lo && c.0 <= hi)).collect();
     fig.markers(&outside, Marker::Ring, 9.0, palette::INK);
     fig.markers(&inside, Marker::Dot, 9.0, palette::SERIES[1]);
     let mut kinds: Vec<ModeKind> =

@@ -16,7 +16,13 @@ pub fn campbell_csv(campbell: &Campbell) -> String {
                 Some(t) => (t.id.to_string(), t.label.as_str()),
                 None => (String::new(), ""),
             };
-            let _ = writeln!(s, "{},{id},{label},{},{}", set.rpm, m.kind.name(), m.frequency_hz);
+            let _ = writeln!(
+                s,
+                "{},{id},{label},{},{}",
+                set.speed.rpm(),
+                m.kind.name(),
+                m.frequency_hz
+            );
         }
     }
     s

@@ -45,7 +45,7 @@ pub fn modal_json(
                     })
                 })
                 .collect();
-            json!({ "rpm": set.rpm, "modes": modes })
+            json!({ "rpm": set.speed.rpm(), "modes": modes })
         })
         .collect();
     let tracks: Vec<Value> = campbell
@@ -87,7 +87,7 @@ pub fn modal_json(
                 "harmonic": (c.order > 0).then_some(c.order),
                 "excitation": excitations.get(c.excitation).map(|e| e.label()),
                 "blade_passing": c.blade_passing,
-                "rpm": c.rpm,
+                "rpm": c.speed.rpm(),
                 "frequency_hz": c.frequency_hz,
             })
         })
@@ -113,7 +113,7 @@ pub fn modal_json(
                 .collect();
             json!({
                 "speed": check.name,
-                "rpm": check.rpm,
+                "rpm": check.speed.rpm(),
                 "required_margin_pct": check.required.map(pct_of),
                 "pass": check.pass,
                 "modes": modes,
@@ -172,7 +172,7 @@ pub fn modal_analysis_json(a: &ModalAnalysis) -> Value {
                     })
                 })
                 .collect();
-            json!({ "rpm": d.rpm, "modes": modes })
+            json!({ "rpm": d.speed.rpm(), "modes": modes })
         })
         .collect();
     if let Some(obj) = v.as_object_mut() {

@@ -17,10 +17,11 @@ pub fn modal_text(project: &str, a: &ModalAnalysis) -> String {
     let mut headers: Vec<(String, Align)> =
         vec![("track".into(), Align::Right), ("mode".into(), Align::Left)];
     if let Some(s) = first {
-        headers.push((format!("f at {} rpm (Hz)", fixed(s.rpm, 0)), Align::Right));
+        headers.push((format!("f at {} rpm (Hz)", fixed(s.speed.rpm(), 0)), Align::Right));
     }
     for m in &a.margins {
-        headers.push((format!("f at {} {} rpm (Hz)", m.name, fixed(m.rpm, 0)), Align::Right));
+        headers
+            .push((format!("f at {} {} rpm (Hz)", m.name, fixed(m.speed.rpm(), 0)), Align::Right));
         headers.push(("nearest".into(), Align::Left));
         headers.push(("margin (%)".into(), Align::Right));
     }
@@ -84,22 +85,22 @@ pub fn modal_text(project: &str, a: &ModalAnalysis) -> String {
             }
             _ => "no margin required ([criteria] frequency_margin_pct)".to_string(),
         };
-        let _ = writeln!(out, "  at {} speed ({} rpm): {verdict}", m.name, fixed(m.rpm, 0));
+        let _ = writeln!(out, "  at {} speed ({} rpm): {verdict}", m.name, fixed(m.speed.rpm(), 0));
     }
     let _ = writeln!(out);
     if a.crossings.is_empty() {
         let _ = writeln!(
             out,
             "No mode crosses an excitation line between {} and {} rpm.",
-            fixed(a.range.from_rpm, 0),
-            fixed(a.range.to_rpm, 0)
+            fixed(a.range.from.rpm(), 0),
+            fixed(a.range.to.rpm(), 0)
         );
     } else {
         let _ = writeln!(
             out,
             "Crossings of modes with excitation lines between {} and {} rpm:",
-            fixed(a.range.from_rpm, 0),
-            fixed(a.range.to_rpm, 0)
+            fixed(a.range.from.rpm(), 0),
+            fixed(a.range.to.rpm(), 0)
         );
         let t = crossings_table(a);
         out.push_str(&t.render(2));
@@ -124,7 +125,13 @@ pub fn crossings_table(a: &ModalAnalysis) -> Table {
             .find(|t| t.id == c.track)
             .map_or(String::new(), |t| t.label.clone());
         let exc = a.excitations.get(c.excitation).map_or(String::new(), |e| e.label());
-        t.row(vec![(c.track + 1).to_string(), label, exc, fixed(c.rpm, 0), sig4(c.frequency_hz)]);
+        t.row(vec![
+            (c.track + 1).to_string(),
+            label,
+            exc,
+            fixed(c.speed.rpm(), 0),
+            sig4(c.frequency_hz),
+        ]);
     }
     t
 }
@@ -180,8 +187,8 @@ pub fn dry_table(a: &ModalAnalysis) -> Table {
     let mut headers: Vec<(String, Align)> =
         vec![("track".into(), Align::Right), ("mode".into(), Align::Left)];
     for d in &a.dry {
-        headers.push((format!("dry at {} rpm", fixed(d.rpm, 0)), Align::Right));
-        headers.push((format!("wet at {} rpm", fixed(d.rpm, 0)), Align::Right));
+        headers.push((format!("dry at {} rpm", fixed(d.speed.rpm(), 0)), Align::Right));
+        headers.push((format!("wet at {} rpm", fixed(d.speed.rpm(), 0)), Align::Right));
     }
     let refs: Vec<(&str, Align)> = headers.iter().map(|(h, a)| (h.as_str(), *a)).collect();
     let mut t = Table::new(&refs);

@@ -1,10 +1,16 @@
-//! Unit conversions at the edges of the program, and an angle type that cannot be mixed up.
+//! Unit conversions at the edges of the program, and types for the quantities whose units are
+//! easily mixed up: [`Angle`], [`Temperature`] and [`RotorSpeed`].
 //!
-//! Everything inside layloft is SI: m, kg, s, N, Pa, K (temperature differences), rad. Inputs
-//! carry their unit in their name (`E1_GPa`, `chord_m`, `twist_deg`) and are converted once, with
-//! the constants below, where they are read; outputs are converted once where they are written.
+//! Everything inside layloft is SI: m, kg, s, N, Pa, K (temperature differences), rad, rad/s.
+//! Inputs carry their unit in their name (`E1_GPa`, `chord_m`, `twist_deg`, `rpm_max`) and are
+//! converted once, with the constants and types below, where they are read; outputs are converted
+//! once where they are written.
 
 use serde::{Deserialize, Serialize};
+
+mod speed;
+
+pub use speed::RotorSpeed;
 
 /// Pascals in one gigapascal.
 pub const GPA: f64 = 1e9;
