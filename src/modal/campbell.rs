@@ -8,9 +8,9 @@
 //! sources are one excitation naming them all. A crossing is where a track's frequency equals
 //! an excitation's frequency, found by linear interpolation of their difference between
 //! neighbouring sweep speeds (a band has a line at each edge). The margin of a mode at a speed
-//! is `|f - f_h| / f_h` in percent, `f_h` being the nearest excitation frequency in that sense,
-//! the separation as a share of the excitation, the way `frequency_margin_pct` is defined in
-//! `[criteria]` (0 for a mode inside a fixed band).
+//! is `|f - f_h| / f_h` (a fraction; percent at the edges), `f_h` being the nearest excitation
+//! frequency in that sense, the separation as a share of the excitation, the way
+//! `frequency_margin_pct` is defined in `[criteria]` (0 for a mode inside a fixed band).
 
 use serde::Serialize;
 

@@ -88,7 +88,7 @@ pub fn rad_s_to_rpm(omega: f64) -> f64 {
 /// with at most 12 significant digits. A speed read in rpm, stored in rad/s by
 /// [`rpm_to_rad_s`] and shown again through this function gives back the very number the user
 /// wrote (when it had at most 12 significant digits), so echoed speeds print as they were given;
-/// the rounding is far below any meaningful speed difference (1e-12 relative).
+/// the rounding is far below any meaningful speed difference (at most 5e-12 relative).
 pub fn rpm_of(omega: f64) -> f64 {
     significant(rad_s_to_rpm(omega), 12)
 }
