@@ -5,6 +5,7 @@
 //! out.
 
 mod support_browser;
+mod support_run;
 
 #[path = "plybook_browser.rs"]
 mod plybook_browser;

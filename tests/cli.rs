@@ -6,6 +6,7 @@
 
 mod modal_support;
 mod support_cli;
+mod support_run;
 mod support_stl;
 
 #[path = "bad_blade_inputs.rs"]

@@ -3,8 +3,8 @@
 
 use std::fs;
 
-use assert_cmd::Command;
-use predicates::prelude::*;
+use crate::support_run::Command;
+use crate::support_run::predicate;
 
 const FAN: &str = "layups/mine-fan/blade.toml";
 

@@ -4,7 +4,7 @@
 use std::fs;
 use std::path::Path;
 
-use assert_cmd::Command;
+use crate::support_run::Command;
 
 const FAN: &str = "layups/mine-fan/blade.toml";
 

@@ -77,7 +77,12 @@ fn help_lists_the_commands_in_the_order_of_the_work_and_usage_comes_first() {
 
 #[test]
 fn report_says_the_verdict_last_and_check_json_keys_carry_units() {
-    let project = fan_copy(|t| t.replace("min_reserve_factor = 1.5", "min_reserve_factor = 500"));
+    // The tooling at a 0.5 mm tolerance (the demo's is 0.1 mm) keeps the run short: the verdict
+    // line does not depend on it.
+    let project = fan_copy(|t| {
+        t.replace("min_reserve_factor = 1.5", "min_reserve_factor = 500")
+            .replace("tolerance_mm = 0.1", "tolerance_mm = 0.5")
+    });
     let out = tempfile::tempdir().unwrap();
     let dest = out.path().join("rep");
     let blade = project.path().join("blade.toml");
@@ -180,9 +185,13 @@ fn report_set(dir: &Path) -> Vec<(String, Vec<u8>)> {
 
 #[test]
 fn a_killed_report_leaves_the_old_set_or_the_new_one_whole() {
-    let old_project = fan_copy(|t| t);
-    let new_project =
-        fan_copy(|t| t.replace("min_reserve_factor = 1.5", "min_reserve_factor = 1.6"));
+    // The tooling at a 0.5 mm tolerance (the demo's is 0.1 mm): what is checked is how the set
+    // is written, not the meshes, and the coarser tooling makes each of the eight runs cheaper.
+    let coarse = |t: String| t.replace("tolerance_mm = 0.1", "tolerance_mm = 0.5");
+    let old_project = fan_copy(coarse);
+    let new_project = fan_copy(|t| {
+        coarse(t).replace("min_reserve_factor = 1.5", "min_reserve_factor = 1.6")
+    });
     let tmp = tempfile::tempdir().unwrap();
     let (out, reference) = (tmp.path().join("out"), tmp.path().join("reference"));
     let run = |project: &Path, dest: &Path| {
@@ -200,7 +209,7 @@ fn a_killed_report_leaves_the_old_set_or_the_new_one_whole() {
     fs::write(out.join("my-notes.txt"), "kept").unwrap();
 
     for fraction in [0.15, 0.35, 0.55, 0.75, 0.9, 0.97] {
-        let mut child = std::process::Command::new(assert_cmd::cargo::cargo_bin("layloft"))
+        let mut child = std::process::Command::new(env!("CARGO_BIN_EXE_layloft"))
             .args(["report", new_project.path().to_str().unwrap(), "--out"])
             .arg(&out)
             .current_dir(env!("CARGO_MANIFEST_DIR"))

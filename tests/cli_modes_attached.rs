@@ -5,7 +5,7 @@
 use std::fs;
 use std::path::Path;
 
-use assert_cmd::Command;
+use crate::support_run::Command;
 
 fn layloft() -> Command {
     Command::cargo_bin("layloft").unwrap()

@@ -12,7 +12,7 @@ use std::fs;
 use std::path::{Path, PathBuf};
 use std::time::{Duration, Instant};
 
-use assert_cmd::Command;
+use crate::support_run::Command;
 
 /// The seed of the trials (any value; fixed so that a run is repeatable).
 const SEED: u64 = 0x6c61_796c_6f66_7431;

@@ -8,7 +8,7 @@
 use std::fs;
 
 use crate::support_browser::{browser_or_skip, screenshot_dir, static_problems};
-use assert_cmd::Command;
+use crate::support_run::Command;
 
 /// The figures the report must show (issue 7): planform and twist, spanwise stiffness and mass,
 /// section drawings, the reserve-factor map, the pitching moment over the pitch range, the

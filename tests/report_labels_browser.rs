@@ -11,7 +11,7 @@ use std::fs;
 use std::path::Path;
 
 use crate::support_browser::browser_or_skip;
-use assert_cmd::Command;
+use crate::support_run::Command;
 
 /// Collects, for every figure, the texts that leave the drawing and the pairs that overlap by
 /// more than a pixel each way (glyph boxes of neighbouring lines may touch), and writes them

@@ -7,6 +7,7 @@
 mod common;
 mod modal_support;
 mod support;
+mod support_run;
 mod support_stl;
 
 #[path = "convergence_modes.rs"]

@@ -5,7 +5,7 @@ use crate::common;
 
 use std::f64::consts::PI;
 
-use assert_cmd::Command;
+use crate::support_run::Command;
 use layloft::analysis::BladeModel;
 use layloft::failure::Criterion;
 use layloft::input::read_project;

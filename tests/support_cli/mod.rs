@@ -1,7 +1,7 @@
 //! Running the `layloft` binary as a user would, for the command-line tests.
 #![allow(dead_code)]
 
-use assert_cmd::Command;
+use crate::support_run::Command;
 
 /// Runs `layloft ARGS` from the package root without colour: exit status, stdout, stderr.
 pub fn layloft(args: &[&str]) -> (Option<i32>, String, String) {
