@@ -30,6 +30,8 @@ mod error;
 pub(crate) mod intersect;
 pub(crate) mod orient;
 mod polygon;
+mod queue;
+mod sha_ni;
 mod spatial;
 mod stl;
 mod triangles;
