@@ -50,4 +50,5 @@ pub use unit::LengthUnit;
 
 pub(crate) use digest::DigestWriter;
 pub(crate) use polygon::quad_centre_ok;
+pub(crate) use queue::each_part;
 pub(crate) use stl::{check_part_name, check_part_set};

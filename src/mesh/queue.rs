@@ -1,8 +1,9 @@
-//! The parts of a set checked and encoded on all cores: each worker takes the next part as it
-//! frees (a set's parts differ a hundredfold in size, so fixed blocks would leave a core idle),
-//! and the results come back in the parts' order. What each part gets does not depend on the
-//! number of threads; with an error, the one returned is that of the first failing part in
-//! order, as one thread working through the list would find it.
+//! Independent pieces of work on all cores: the parts of a set checked and encoded, the cores'
+//! casting moulds built. Each worker takes the next piece as it frees (a set's parts differ a
+//! hundredfold in size, so fixed blocks would leave a core idle), and the results come back in
+//! order. What each piece gets does not depend on the number of threads; with an error, the one
+//! returned is that of the first failing piece in order, as one thread working through the list
+//! would find it.
 
 use std::sync::atomic::{AtomicUsize, Ordering};
 use std::sync::mpsc;
