@@ -58,6 +58,33 @@ impl CubicSpline {
         self.x.partition_point(|&v| v <= t).clamp(1, n - 1)
     }
 
+    /// [`CubicSpline::segment`] looked for first near `hint` (the segment of a neighbouring
+    /// point, walking up to eight knots towards `t`), then by bisection: the same index.
+    pub(crate) fn segment_near(&self, t: f64, hint: usize) -> usize {
+        const WALK: usize = 8;
+        let n = self.x.len();
+        let x = &self.x;
+        // Segment `i` is the answer when `x[i-1] <= t < x[i]`, the first and last segments
+        // reaching beyond the ends.
+        let fits = |i: usize| (i == 1 || x[i - 1] <= t) && (i == n - 1 || x[i] > t);
+        if (1..n).contains(&hint) {
+            let mut i = hint;
+            for _ in 0..WALK {
+                if fits(i) {
+                    return i;
+                }
+                if x[i] <= t && i + 1 < n {
+                    i += 1;
+                } else if x[i - 1] > t && i > 1 {
+                    i -= 1;
+                } else {
+                    break;
+                }
+            }
+        }
+        self.segment(t)
+    }
+
     /// [`CubicSpline::eval`] on segment `i` (from [`CubicSpline::segment`] of a spline with the
     /// same knots).
     pub(crate) fn eval_on(&self, i: usize, t: f64) -> f64 {
@@ -253,6 +280,20 @@ mod tests {
             ts.extend([f64::NAN, f64::INFINITY, -f64::INFINITY]);
             for t in ts {
                 assert_eq!(locate(&x, t), x.partition_point(|&v| v <= t), "{t}");
+            }
+        }
+    }
+
+    #[test]
+    fn a_segment_found_from_a_hint_is_the_bisection_s() {
+        let xs: Vec<f64> = (0..=80).map(|i| 1.0 - (i as f64 * 0.019).cos()).collect();
+        let s = CubicSpline::natural(&xs, &xs);
+        let mut ts: Vec<f64> = (0..=900).map(|i| -0.1 + 1.4 * i as f64 / 900.0).collect();
+        ts.extend(xs.iter().copied());
+        ts.push(f64::NAN);
+        for t in ts {
+            for hint in [0, 1, 2, 17, 40, 79, 80, 81, 500] {
+                assert_eq!(s.segment_near(t, hint), s.segment(t), "{t} from {hint}");
             }
         }
     }

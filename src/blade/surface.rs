@@ -32,7 +32,7 @@ use super::coverage::Surface;
 use super::{Blade, ResolvedPly};
 use crate::interp::CubicSpline;
 use crate::project::Region;
-use std::cell::RefCell;
+use std::cell::{Cell, RefCell};
 use std::sync::atomic::{AtomicU64, Ordering};
 
 /// Ply drops are ramped over this many ply thicknesses (a 1:20 taper, common practice for
@@ -82,10 +82,18 @@ impl StationCurve {
     }
 
     /// Point (chord fractions) and its derivative in `u`. The two coordinates share their knots,
-    /// so the segment is found once for all four values.
-    fn point(&self, surface: Surface, u: f64) -> ([f64; 2], [f64; 2]) {
+    /// so the segment is found once for all four values, looked for first near the segment of
+    /// the last point asked for in hint slot `slot` on this thread (the points of a ring come in
+    /// order along a chain; any hint gives the same segment).
+    fn point(&self, surface: Surface, u: f64, slot: usize) -> ([f64; 2], [f64; 2]) {
         let (s, ds) = self.arc(surface, u);
-        let i = self.x.segment(s);
+        let i = SEGMENT_HINTS.with(|h| {
+            let mut hints = h.get();
+            let i = self.x.segment_near(s, hints[slot]);
+            hints[slot] = i;
+            h.set(hints);
+            i
+        });
         (
             [self.x.eval_on(i, s), self.y.eval_on(i, s)],
             [self.x.derivative_on(i, s) * ds, self.y.derivative_on(i, s) * ds],
@@ -280,6 +288,9 @@ struct RadiusMemo {
 }
 
 thread_local! {
+    /// The segments of the last points found on the station curves, for the next search: the
+    /// inner and outer stations of a blend, on the upper and the lower surface.
+    static SEGMENT_HINTS: Cell<[usize; 4]> = const { Cell::new([1; 4]) };
     static MEMO: RefCell<RadiusMemo> = const {
         RefCell::new(RadiusMemo {
             key: (0, 0),
@@ -419,11 +430,12 @@ impl BladeSurfaces<'_> {
         surface: Surface,
         u: f64,
     ) -> ([f64; 2], [f64; 2]) {
-        let (pa, da) = self.curves[i].point(surface, u);
+        let side = usize::from(surface == Surface::Lower);
+        let (pa, da) = self.curves[i].point(surface, u, side);
         if w == 0.0 {
             return (pa, da);
         }
-        let (pb, db) = self.curves[j].point(surface, u);
+        let (pb, db) = self.curves[j].point(surface, u, 2 + side);
         let mix = |a: [f64; 2], b: [f64; 2]| [a[0] + w * (b[0] - a[0]), a[1] + w * (b[1] - a[1])];
         (mix(pa, pb), mix(da, db))
     }
