@@ -58,6 +58,33 @@ impl CubicSpline {
         self.x.partition_point(|&v| v <= t).clamp(1, n - 1)
     }
 
+    /// [`CubicSpline::segment`] looked for first near `hint` (the segment of a neighbouring
+    /// point, walking up to eight knots towards `t`), then by bisection: the same index.
+    pub(crate) fn segment_near(&self, t: f64, hint: usize) -> usize {
+        const WALK: usize = 8;
+        let n = self.x.len();
+        let x = &self.x;
+        // Segment `i` is the answer when `x[i-1] <= t < x[i]`, the first and last segments
+        // reaching beyond the ends.
+        let fits = |i: usize| (i == 1 || x[i - 1] <= t) && (i == n - 1 || x[i] > t);
+        if (1..n).contains(&hint) {
+            let mut i = hint;
+            for _ in 0..WALK {
+                if fits(i) {
+                    return i;
+                }
+                if x[i] <= t && i + 1 < n {
+                    i += 1;
+                } else if x[i - 1] > t && i > 1 {
+                    i -= 1;
+                } else {
+                    break;
+                }
+            }
+        }
+        self.segment(t)
+    }
+
     /// [`CubicSpline::eval`] on segment `i` (from [`CubicSpline::segment`] of a spline with the
     /// same knots).
     pub(crate) fn eval_on(&self, i: usize, t: f64) -> f64 {
@@ -87,6 +114,41 @@ impl CubicSpline {
         let b = ((t - x0) / h).clamp(0.0, 1.0);
         (self.y[i] - self.y[i - 1]) / h
             + ((3.0 * b * b - 1.0) * self.m[i] - (3.0 * a * a - 1.0) * self.m[i - 1]) * h / 6.0
+    }
+}
+
+/// `x.partition_point(|&v| v <= t)` for ascending `x`: the first index whose knot lies above
+/// `t`. Knots spread evenly (the span samples of the tooling, a thousand or so) are found from
+/// where `t` falls between the ends, a step or two from the guess; a guess more than four knots
+/// off finishes by bisection of the rest. The index is the same as the bisection's.
+fn locate(x: &[f64], t: f64) -> usize {
+    const WALK: usize = 4;
+    let n = x.len();
+    let (a, b) = (x[0], x[n - 1]);
+    // Ends, a NaN, or a single knot: the bisection's own answer.
+    if !(t > a && t < b) {
+        return x.partition_point(|&v| v <= t);
+    }
+    // a < t < b, so the index lies in 1..n-1 and both walks stop inside the knots.
+    let g = ((((t - a) / (b - a)) * (n - 1) as f64) as usize).min(n - 1);
+    if x[g] <= t {
+        let mut k = g + 1;
+        for _ in 0..WALK {
+            if x[k] > t {
+                return k;
+            }
+            k += 1;
+        }
+        k + x[k..].partition_point(|&v| v <= t)
+    } else {
+        let mut k = g;
+        for _ in 0..WALK {
+            if x[k - 1] <= t {
+                return k;
+            }
+            k -= 1;
+        }
+        x[..k].partition_point(|&v| v <= t)
     }
 }
 
@@ -147,7 +209,7 @@ impl Pchip {
         if t >= self.x[n - 1] {
             return self.y[n - 1];
         }
-        let i = self.x.partition_point(|&v| v <= t).clamp(1, n - 1);
+        let i = locate(&self.x, t).clamp(1, n - 1);
         let (x0, x1) = (self.x[i - 1], self.x[i]);
         let h = x1 - x0;
         let s = (t - x0) / h;
@@ -202,6 +264,38 @@ mod tests {
         let h = 1e-6;
         let fd = (s.eval(1.234 + h) - s.eval(1.234 - h)) / (2.0 * h);
         assert!((s.derivative(1.234) - fd).abs() < 1e-8);
+    }
+
+    #[test]
+    fn the_knot_search_is_the_bisection() {
+        // Even, uneven (clustered at one end, as a cosine spacing) and two-knot grids, with
+        // points at, between, beyond and on the knots.
+        let even: Vec<f64> = (0..=1200).map(|i| 0.4 + 0.5 * i as f64 / 1200.0).collect();
+        let uneven: Vec<f64> = (0..=60).map(|i| 1.0 - (i as f64 * 0.026).cos()).collect();
+        for x in [even, uneven, vec![0.0, 1.0]] {
+            let (a, b) = (x[0], x[x.len() - 1]);
+            let mut ts: Vec<f64> =
+                (0..=5000).map(|i| a - 0.1 + (b - a + 0.2) * i as f64 / 5000.0).collect();
+            ts.extend(x.iter().copied());
+            ts.extend([f64::NAN, f64::INFINITY, -f64::INFINITY]);
+            for t in ts {
+                assert_eq!(locate(&x, t), x.partition_point(|&v| v <= t), "{t}");
+            }
+        }
+    }
+
+    #[test]
+    fn a_segment_found_from_a_hint_is_the_bisection_s() {
+        let xs: Vec<f64> = (0..=80).map(|i| 1.0 - (i as f64 * 0.019).cos()).collect();
+        let s = CubicSpline::natural(&xs, &xs);
+        let mut ts: Vec<f64> = (0..=900).map(|i| -0.1 + 1.4 * i as f64 / 900.0).collect();
+        ts.extend(xs.iter().copied());
+        ts.push(f64::NAN);
+        for t in ts {
+            for hint in [0, 1, 2, 17, 40, 79, 80, 81, 500] {
+                assert_eq!(s.segment_near(t, hint), s.segment(t), "{t} from {hint}");
+            }
+        }
     }
 
     #[test]

@@ -32,6 +32,8 @@ use super::coverage::Surface;
 use super::{Blade, ResolvedPly};
 use crate::interp::CubicSpline;
 use crate::project::Region;
+use std::cell::{Cell, RefCell};
+use std::sync::atomic::{AtomicU64, Ordering};
 
 /// Ply drops are ramped over this many ply thicknesses (a 1:20 taper, common practice for
 /// dropped plies in moulded laminates).
@@ -80,10 +82,18 @@ impl StationCurve {
     }
 
     /// Point (chord fractions) and its derivative in `u`. The two coordinates share their knots,
-    /// so the segment is found once for all four values.
-    fn point(&self, surface: Surface, u: f64) -> ([f64; 2], [f64; 2]) {
+    /// so the segment is found once for all four values, looked for first near the segment of
+    /// the last point asked for in hint slot `slot` on this thread (the points of a ring come in
+    /// order along a chain; any hint gives the same segment).
+    fn point(&self, surface: Surface, u: f64, slot: usize) -> ([f64; 2], [f64; 2]) {
         let (s, ds) = self.arc(surface, u);
-        let i = self.x.segment(s);
+        let i = SEGMENT_HINTS.with(|h| {
+            let mut hints = h.get();
+            let i = self.x.segment_near(s, hints[slot]);
+            hints[slot] = i;
+            h.set(hints);
+            i
+        });
         (
             [self.x.eval_on(i, s), self.y.eval_on(i, s)],
             [self.x.derivative_on(i, s) * ds, self.y.derivative_on(i, s) * ds],
@@ -179,13 +189,21 @@ impl SmoothPly {
         lo * hi
     }
 
-    /// Fraction of the ply present at wrapped coordinate `w` on a section of chord `chord`.
-    fn chord_factor(&self, w: f64, chord: f64) -> f64 {
+    /// The half ramps of the chordwise intervals on a section of chord `chord`, in order.
+    fn chord_half_ramps(&self, chord: f64) -> impl Iterator<Item = f64> + '_ {
+        self.wrap.iter().map(move |[a, b]| {
+            let extent = b.unwrap_or(1.0) - a.unwrap_or(-1.0);
+            self.half_ramp(chord, extent)
+        })
+    }
+
+    /// Fraction of the ply present at wrapped coordinate `w`, the intervals' half ramps `h`
+    /// being those of [`SmoothPly::chord_half_ramps`] at the section's chord.
+    fn chord_factor(&self, w: f64, h: &[f64]) -> f64 {
         self.wrap
             .iter()
-            .map(|[a, b]| {
-                let extent = b.unwrap_or(1.0) - a.unwrap_or(-1.0);
-                let h = self.half_ramp(chord, extent);
+            .zip(h)
+            .map(|([a, b], &h)| {
                 let lo = a.map_or(1.0, |a| smooth_step((w - a) / h));
                 let hi = b.map_or(1.0, |b| smooth_step((b - w) / h));
                 lo * hi
@@ -243,6 +261,46 @@ pub struct BladeSurfaces<'a> {
     curves: Vec<StationCurve>,
     surface_plies: Vec<SmoothPly>,
     web_plies: Vec<SmoothPly>,
+    /// Names these surfaces in the memo of the last radius (see [`RadiusMemo`]); a clone
+    /// shares it, having the same numbers.
+    id: u64,
+}
+
+/// Numbers the surfaces for [`RadiusMemo`].
+static NEXT_ID: AtomicU64 = AtomicU64::new(1);
+
+/// What every point of the surfaces at one radius shares, kept for the last radius asked on
+/// each thread: the loft and the core cells ask for whole rings of points at one radius, each
+/// point of which would otherwise interpolate chord, pitch axis and every ply's span ramps along
+/// the span again. The numbers are those worked out per point, bit for bit (the same
+/// expressions, only done once).
+struct RadiusMemo {
+    /// The surfaces' `id` (0: empty) and the radius's bits.
+    key: (u64, u64),
+    at: AtRadius,
+    /// The radius clamped to the stations and the chord there (the laminate's radius).
+    clamped: f64,
+    chord_clamped: f64,
+    /// Each surface ply's thickness times its span factor at the clamped radius.
+    present: Vec<f64>,
+    /// Each surface ply's chordwise half ramps at the chord there, one per interval, in order.
+    half_ramps: Vec<f64>,
+}
+
+thread_local! {
+    /// The segments of the last points found on the station curves, for the next search: the
+    /// inner and outer stations of a blend, on the upper and the lower surface.
+    static SEGMENT_HINTS: Cell<[usize; 4]> = const { Cell::new([1; 4]) };
+    static MEMO: RefCell<RadiusMemo> = const {
+        RefCell::new(RadiusMemo {
+            key: (0, 0),
+            at: AtRadius { r: 0.0, bracket: (0, 0, 0.0), chord: 0.0, pitch_axis: 0.0 },
+            clamped: 0.0,
+            chord_clamped: 0.0,
+            present: Vec::new(),
+            half_ramps: Vec::new(),
+        })
+    };
 }
 
 impl Blade {
@@ -256,6 +314,7 @@ impl Blade {
             curves: self.stations.iter().map(|s| StationCurve::new(&s.outline)).collect(),
             surface_plies,
             web_plies,
+            id: NEXT_ID.fetch_add(1, Ordering::Relaxed),
         }
     }
 }
@@ -363,23 +422,20 @@ impl BladeSurfaces<'_> {
         }
     }
 
-    /// The outer point in chord fractions and its derivative in `u`.
-    fn outer_fractions(&self, r: f64, surface: Surface, u: f64) -> ([f64; 2], [f64; 2]) {
-        self.outer_fractions_in(self.bracket(r), surface, u)
-    }
-
-    /// [`BladeSurfaces::outer_fractions`] between the stations `(i, j)` blended by `w`.
+    /// The outer point in chord fractions and its derivative in `u`, between the stations
+    /// `(i, j)` blended by `w`.
     fn outer_fractions_in(
         &self,
         (i, j, w): (usize, usize, f64),
         surface: Surface,
         u: f64,
     ) -> ([f64; 2], [f64; 2]) {
-        let (pa, da) = self.curves[i].point(surface, u);
+        let side = usize::from(surface == Surface::Lower);
+        let (pa, da) = self.curves[i].point(surface, u, side);
         if w == 0.0 {
             return (pa, da);
         }
-        let (pb, db) = self.curves[j].point(surface, u);
+        let (pb, db) = self.curves[j].point(surface, u, 2 + side);
         let mix = |a: [f64; 2], b: [f64; 2]| [a[0] + w * (b[0] - a[0]), a[1] + w * (b[1] - a[1])];
         (mix(pa, pb), mix(da, db))
     }
@@ -387,13 +443,37 @@ impl BladeSurfaces<'_> {
     /// A point of the outer mould line at radius `r` on `surface` at parameter `u` (normalised
     /// arc length from the leading edge), chord frame, m.
     pub fn outer(&self, r: f64, surface: Surface, u: f64) -> [f64; 2] {
-        let (p, _) = self.outer_fractions(r, surface, u);
-        self.to_chord_frame(r, p)
+        let at = self.with_radius(r, |m| m.at);
+        let (p, _) = self.outer_fractions_in(at.bracket, surface, u);
+        [(p[0] - at.pitch_axis) * at.chord, p[1] * at.chord]
+    }
+
+    /// `f` of the memo of radius `r` on this thread, filled first when it holds another radius
+    /// or other surfaces.
+    fn with_radius<R>(&self, r: f64, f: impl FnOnce(&RadiusMemo) -> R) -> R {
+        MEMO.with(|memo| {
+            let mut m = memo.borrow_mut();
+            if m.key != (self.id, r.to_bits()) {
+                m.key = (self.id, r.to_bits());
+                m.at = self.at_radius(r);
+                m.clamped = self.clamp_r(r);
+                m.chord_clamped = self.blade.chord(m.clamped);
+                let (rc, chord) = (m.clamped, m.chord_clamped);
+                let RadiusMemo { present, half_ramps, .. } = &mut *m;
+                present.clear();
+                half_ramps.clear();
+                for p in &self.surface_plies {
+                    present.push(p.thickness * p.span_factor(rc, p.covered));
+                    half_ramps.extend(p.chord_half_ramps(chord));
+                }
+            }
+            f(&m)
+        })
     }
 
     /// The outer point, its outward unit normal in the section plane and its chord fraction.
     pub fn outer_with_normal(&self, r: f64, surface: Surface, u: f64) -> ([f64; 2], [f64; 2], f64) {
-        self.outer_with_normal_at(&self.at_radius(r), surface, u)
+        self.outer_with_normal_at(&self.with_radius(r, |m| m.at), surface, u)
     }
 
     /// [`BladeSurfaces::outer_with_normal`] at the radius of `at` (the same numbers, without
@@ -429,11 +509,6 @@ impl BladeSurfaces<'_> {
         [p[0] - t * n[0], p[1] - t * n[1]]
     }
 
-    fn to_chord_frame(&self, r: f64, p: [f64; 2]) -> [f64; 2] {
-        let c = self.blade.chord(r);
-        [(p[0] - self.blade.pitch_axis_frac(r)) * c, p[1] * c]
-    }
-
     fn clamp_r(&self, r: f64) -> f64 {
         r.clamp(self.blade.root_radius(), self.blade.tip_radius())
     }
@@ -442,17 +517,24 @@ impl BladeSurfaces<'_> {
     /// ramped (see the module docs), m. Away from the ramps it is
     /// [`Blade::surface_thickness`].
     pub fn thickness(&self, r: f64, surface: Surface, x: f64) -> f64 {
-        let r = self.clamp_r(r);
         let x = x.clamp(0.0, 1.0);
         let w = match surface {
             Surface::Upper => x,
             Surface::Lower => -x,
         };
-        let chord = self.blade.chord(r);
-        self.surface_plies
-            .iter()
-            .map(|p| p.thickness * p.span_factor(r, p.covered) * p.chord_factor(w, chord))
-            .sum()
+        // Each ply: thickness × span factor × chord factor, the first two from the memo.
+        self.with_radius(r, |m| {
+            let mut h = m.half_ramps.as_slice();
+            self.surface_plies
+                .iter()
+                .zip(&m.present)
+                .map(|(p, &present)| {
+                    let (own, rest) = h.split_at(p.wrap.len());
+                    h = rest;
+                    present * p.chord_factor(w, own)
+                })
+                .sum()
+        })
     }
 
     /// The least skin thickness round the section at radius `r` (sampled at 400 chord fractions

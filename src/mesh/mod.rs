@@ -30,6 +30,8 @@ mod error;
 pub(crate) mod intersect;
 pub(crate) mod orient;
 mod polygon;
+mod queue;
+mod sha_ni;
 mod spatial;
 mod stl;
 mod triangles;
@@ -48,4 +50,5 @@ pub use unit::LengthUnit;
 
 pub(crate) use digest::DigestWriter;
 pub(crate) use polygon::quad_centre_ok;
+pub(crate) use queue::each_part;
 pub(crate) use stl::{check_part_name, check_part_set};

@@ -12,6 +12,7 @@ use std::path::PathBuf;
 
 use super::check::{CheckParams, MeshSummary, check_solid};
 use super::error::{MeshError, Place};
+use super::queue::{each_part, in_order};
 use super::triangles::Mesh;
 use super::unit::LengthUnit;
 
@@ -180,17 +181,30 @@ pub fn encode_part_set_with_progress(
     })?;
     let all: Vec<(&str, &Mesh)> = parts.iter().chain(copies).copied().collect();
     let n = all.len();
-    let mut out = Vec::with_capacity(n);
-    for (i, (mut part, &(name, mesh))) in done.into_iter().zip(&all).enumerate() {
+    // Encoded and digested on all cores too, each file's bytes and digest its own.
+    let encode = |i: usize| -> Result<(String, Vec<u8>), MeshError> {
+        let (name, mesh) = all[i];
         let mut bytes = Vec::new();
         encode_stl(&mut bytes, name, mesh, options)
             .map_err(|e| MeshError::Geometry(format!("{name}: {e}")))?;
-        part.size_bytes = bytes.len() as u64;
-        part.sha256 = super::digest::sha256_hex(&bytes);
-        out.push((part, bytes));
-        progress(n + i + 1, total, &format!("encoded {name}.stl"));
-    }
-    Ok(out)
+        Ok((super::digest::sha256_hex(&bytes), bytes))
+    };
+    let mut finished = 0;
+    let encoded = in_order(each_part(n, encode, &mut |i, r| {
+        if r.is_ok() {
+            finished += 1;
+            progress(n + finished, total, &format!("encoded {}.stl", all[i].0));
+        }
+    }))?;
+    Ok(done
+        .into_iter()
+        .zip(encoded)
+        .map(|(mut part, (sha256, bytes))| {
+            part.size_bytes = bytes.len() as u64;
+            part.sha256 = sha256;
+            (part, bytes)
+        })
+        .collect())
 }
 
 /// The checks of a part set (see [`write_part_set_with_progress`]); each part's path is
@@ -205,8 +219,10 @@ pub(crate) fn check_part_set(
     let full = parts.len();
     let parts: Vec<(&str, &Mesh)> = parts.iter().chain(copies).copied().collect();
     let check = CheckParams { unit: options.unit, ..check.clone() };
-    let mut done = Vec::with_capacity(parts.len());
-    for (i, &(name, mesh)) in parts.iter().enumerate() {
+    // The parts are checked on all cores (see `queue`); the first failure in the parts' order
+    // is reported, as a check of one part after the other would find it.
+    let one = |i: usize| -> Result<WrittenPart, MeshError> {
+        let (name, mesh) = parts[i];
         check_part_name(name)?;
         if parts[..i].iter().any(|&(other, _)| other == name) {
             return Err(MeshError::DuplicatePart(name.into()));
@@ -216,14 +232,20 @@ pub(crate) fn check_part_set(
         let summary = check_solid(mesh, name, &own)?;
         let rounded = as_written(mesh, name, options.unit)?;
         check_solid(&rounded, name, &CheckParams { self_intersection: false, ..check.clone() })?;
-        done.push(WrittenPart {
+        Ok(WrittenPart {
             name: name.into(),
             path: PathBuf::from(format!("{name}.stl")),
             summary,
             size_bytes: 0,
             sha256: String::new(),
-        });
-        progress(i + 1, &format!("checked {name}"));
-    }
-    Ok(done)
+        })
+    };
+    let mut finished = 0;
+    let results = each_part(parts.len(), one, &mut |i, r| {
+        if r.is_ok() {
+            finished += 1;
+            progress(finished, &format!("checked {}", parts[i].0));
+        }
+    });
+    in_order(results)
 }

@@ -189,7 +189,9 @@ pub(super) fn casting_moulds(
     prints: &[&CorePrint],
 ) -> (Vec<CastingMould>, Vec<CastingNote>) {
     let (mut moulds, mut notes) = (Vec::new(), Vec::new());
-    for (i, (cell, trims)) in cells.iter().enumerate() {
+    // Each core's mould is its own work: built on all cores, kept in the cores' order.
+    let one = |i: usize| {
+        let (cell, trims) = &cells[i];
         let name = format!("core-{}", i + 1);
         let input = CastingInput {
             name: &name,
@@ -203,9 +205,13 @@ pub(super) fn casting_moulds(
             min_draft: params.min_draft,
             unit: params.unit,
         };
-        match casting_mould(&input, casting) {
-            Ok(m) => moulds.push(m),
-            Err(reason) => notes.push(CastingNote::NoMould { core: name, reason }),
+        Ok::<_, std::convert::Infallible>(casting_mould(&input, casting).map_err(|r| (name, r)))
+    };
+    for built in crate::mesh::each_part(cells.len(), one, &mut |_, _| {}).into_iter().flatten() {
+        match built {
+            Ok(Ok(m)) => moulds.push(m),
+            Ok(Err((core, reason))) => notes.push(CastingNote::NoMould { core, reason }),
+            Err(never) => match never {},
         }
     }
     (moulds, notes)
