@@ -230,30 +230,31 @@ fn the_report_banner_repeats_the_input_warnings() {
 }
 
 #[test]
-fn tooling_of_mixed_trailing_edges_names_the_station_line() {
-    // Issue 14: the round-root demo (sharp round root, blunt flat-backed sections outboard)
-    // was refused by tooling naming only blade.toml; the message now names the first station
-    // whose trailing edge differs from the root's, by its line in the stations file.
-    Copy::of("round-root").refused(
-        "tooling",
-        &["--out", "out"],
-        &["stations.csv line 6, r_m", "one kind of trailing edge", "the root is sharp"],
-    );
+fn tooling_of_mixed_trailing_edges_makes_every_part() {
+    // The round-root demo (sharp round root, blunt flat-backed sections outboard) was refused by
+    // tooling until the loft learnt a base that shrinks to nothing (issue 16): it now gets its
+    // cores, shell and mould.
+    let c = Copy::of("round-root");
+    let (code, stdout, stderr) = c.run("tooling", &["--out", "out"]);
+    assert_eq!(code, Some(0), "{stderr}");
+    assert!(stdout.contains("no undercuts"), "{stdout}");
+    for file in ["core-1.stl", "shell.stl", "mould-upper.stl", "mould-lower.stl"] {
+        assert!(c.path(&format!("out/{file}")).exists(), "{file}");
+    }
+    assert!(c.path("out/tooling-manifest.json").exists());
 }
 
 #[test]
-fn the_report_of_a_blade_the_tooling_cannot_make_stands_without_tooling() {
-    // The round-root demo's trailing edge changes kind along the span, which the tooling cannot
-    // loft yet: the report is still written, its tooling section giving the reason and the
-    // station's line, instead of no report at all.
+fn the_report_of_a_blade_whose_trailing_edge_changes_kind_has_its_tooling() {
+    // The round-root demo's trailing edge changes kind along the span: its report carries the
+    // tooling section and the tooling files like any other blade's.
     let c = Copy::of("round-root");
     let (code, _, stderr) = c.run("report", &["--out", "rep"]);
     assert_eq!(code, Some(0), "{stderr}");
-    assert!(stderr.contains("no tooling was made"), "{stderr}");
+    assert!(!stderr.contains("no tooling was made"), "{stderr}");
     let html = fs::read_to_string(c.path("rep/report.html")).unwrap();
-    assert!(html.contains("no tooling was made"), "the reason is in the report");
-    assert!(html.contains("stations.csv line 6"), "with the station's line");
-    assert!(!c.path("rep/meshes").exists(), "no tooling files");
+    assert!(!html.contains("no tooling was made"), "no refusal in the report");
+    assert!(c.path("rep/meshes/shell.stl").exists(), "the tooling files");
 }
 
 #[test]

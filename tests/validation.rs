@@ -58,5 +58,7 @@ mod validation_print_seats;
 mod validation_section;
 #[path = "validation_stress.rs"]
 mod validation_stress;
+#[path = "validation_te_change.rs"]
+mod validation_te_change;
 #[path = "validation_tooling.rs"]
 mod validation_tooling;

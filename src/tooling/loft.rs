@@ -4,9 +4,11 @@
 //!
 //! Every line of constant parameter runs from its root trim to its tip trim; the rings are at
 //! common fractions `t` of each line's trimmed length, so the first and last rings lie exactly on
-//! the trim surfaces.
+//! the trim surfaces. Edges of no length, left where a closing segment shrinks to nothing along
+//! the span, are contracted (see `collapse`).
 
 use super::cap::{annular_cap, column_cap};
+use super::collapse::{COLLAPSE_FRACTION, collapse_short_edges};
 use super::grid::{Grid, LoftParams, TrimmedLines, build_grid, build_stations, trim_lines};
 use super::surface::{EndKind, SpanSurface, contour_polygon};
 use super::trim::Trims;
@@ -117,15 +119,62 @@ pub fn loft_solid(
     if winds_counter_clockwise(surface, &grid, &tube)? {
         mesh.flip();
     }
-    Ok(LoftedSolid {
-        mesh,
-        root_ring,
-        tip_ring,
-        u: grid.u,
-        stations: stations.t,
+    Ok(collapsed(
+        LoftedSolid {
+            mesh,
+            root_ring,
+            tip_ring,
+            u: grid.u,
+            stations: stations.t,
+            parting,
+            facets: FacetRanges { side, root_cap, tip_cap },
+        },
+        params,
+    ))
+}
+
+/// `solid` with the edges of a closing segment of no length contracted (see
+/// [`super::collapse`]): the same solid when there is none.
+fn collapsed(mut solid: LoftedSolid, params: &LoftParams) -> LoftedSolid {
+    let Some(c) = collapse_short_edges(&mut solid.mesh, COLLAPSE_FRACTION * params.tolerance)
+    else {
+        return solid;
+    };
+    let p = &solid.parting;
+    let line = |v: &[u32]| {
+        let mut out = c.map(v);
+        out.dedup();
+        out
+    };
+    let parting = PartingLines {
+        front: line(&p.front),
+        back: line(&p.back),
+        root: line(&p.root),
+        tip: line(&p.tip),
+        upper: line(&p.upper),
+    };
+    let f = &solid.facets;
+    LoftedSolid {
+        root_ring: ring(c.map(&solid.root_ring)),
+        tip_ring: ring(c.map(&solid.tip_ring)),
         parting,
-        facets: FacetRanges { side, root_cap, tip_cap },
-    })
+        facets: FacetRanges {
+            side: c.range(&f.side),
+            root_cap: c.range(&f.root_cap),
+            tip_cap: c.range(&f.tip_cap),
+        },
+        ..solid
+    }
+}
+
+/// A closed loop of vertices with the repeats a collapse leaves taken out (neighbours joined
+/// into one vertex, also across the loop's start).
+fn ring(mut v: Vec<u32>) -> Vec<u32> {
+    v.dedup();
+    while v.len() > 1 && v.first() == v.last() {
+        v.pop();
+    }
+    v
 }
 
 /// The front, back and middle upper lines of a tube (see [`PartingLines`]).
@@ -194,15 +243,18 @@ pub fn loft_annulus(
     let (root_ring, tip_ring) = (outer_rings[0].clone(), outer_rings[last].clone());
     let parting = side_lines(&grid, &outer_rings);
     let side = 0..outer_rings.len().saturating_sub(1) * 2 * outer_rings[0].len();
-    Ok(LoftedSolid {
-        mesh,
-        root_ring,
-        tip_ring,
-        u: grid.u,
-        stations: stations.t,
-        parting,
-        facets: FacetRanges { side, root_cap: 0..0, tip_cap: 0..0 },
-    })
+    Ok(collapsed(
+        LoftedSolid {
+            mesh,
+            root_ring,
+            tip_ring,
+            u: grid.u,
+            stations: stations.t,
+            parting,
+            facets: FacetRanges { side, root_cap: 0..0, tip_cap: 0..0 },
+        },
+        params,
+    ))
 }
 
 /// A hollow solid: `outer` between `outer_trims`, less the cavity `inner` between `inner_trims`

@@ -51,6 +51,7 @@ mod blade_surface;
 mod cap;
 mod casting;
 mod cells;
+mod collapse;
 mod draft;
 mod grid;
 mod loft;

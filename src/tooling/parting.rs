@@ -19,10 +19,13 @@
 //! golden-section search between the neighbours of the best; along the span they are
 //! interpolated by the monotone cubic of Fritsch and Carlson (1980). A blunt trailing edge's base
 //! is part of the contour (a short straight piece), so the back extreme moves along it where the
-//! base turns through the pull.
+//! base turns through the pull. Where the base closes up along the span (a trailing edge that
+//! changes kind), its share of the contour parameter shrinks with it (see
+//! `SilhouetteSurface::period_at`), so no stretch of a chain stands still at a sharp station.
 
 use super::surface::{ChainEnds, EndKind, SpanSurface};
 use crate::interp::Pchip;
+use crate::mesh::vec3;
 use crate::units::Angle;
 
 /// Parameter length of a blunt base on the closed contour (each chain has length 1).
@@ -34,8 +37,11 @@ pub struct SilhouetteSurface<'a> {
     /// Contour parameter of the front and back extremes along the span.
     front: Pchip,
     back: Pchip,
-    /// Period of the closed contour parameter.
+    /// Period of the closed contour parameter (where the base keeps its parameter length).
     period: f64,
+    /// Whether the base closes up somewhere along the span: its parameter length then follows
+    /// its length (see [`SilhouetteSurface::period_at`]).
+    closing: bool,
 }
 
 impl<'a> SilhouetteSurface<'a> {
@@ -50,30 +56,47 @@ impl<'a> SilhouetteSurface<'a> {
     /// of a mould split along the span: beyond it the sections may not draw along this pull and
     /// their extremes may jump).
     pub fn over(base: &'a dyn SpanSurface, pull_angle: Angle, span: [f64; 2]) -> Self {
-        let period = 2.0 + if base.ends().back == EndKind::Segment { BASE_LENGTH } else { 0.0 };
+        let blunt = base.ends().back == EndKind::Segment;
+        let period = 2.0 + if blunt { BASE_LENGTH } else { 0.0 };
         let n = ((span[1] - span[0]) / 4e-3).ceil().clamp(48.0, 600.0) as usize;
         let radii: Vec<f64> =
             (0..=n).map(|i| span[0] + (span[1] - span[0]) * i as f64 / n as f64).collect();
+        let closing = blunt && radii.iter().any(|&x| base_share(base, x) < 1.0);
         let mut front = Vec::with_capacity(radii.len());
         let mut back = Vec::with_capacity(radii.len());
         for &x in &radii {
             let turn = (pull_angle - base.chord_angle(x)).rad();
             let e = [turn.cos(), turn.sin()];
+            let p = if closing { 2.0 + BASE_LENGTH * base_share(base, x) } else { period };
             let along = |t: f64| {
-                let p = contour(base, period, x, t);
-                p[0] * e[0] + p[1] * e[1]
+                let q = contour(base, p, x, t);
+                q[0] * e[0] + q[1] * e[1]
             };
             // The front extreme within half a period of the leading edge, the back one within
             // half a period of the trailing edge; each continuous along the span.
-            front.push(extreme(&along, -0.5 * period, false));
-            back.push(extreme(&along, 1.0 + 0.5 * BASE_LENGTH - 0.5 * period, true));
+            front.push(extreme(&along, -0.5 * p, false));
+            let from = if closing {
+                1.0 + 0.5 * (p - 2.0) - 0.5 * p
+            } else {
+                1.0 + 0.5 * BASE_LENGTH - 0.5 * p
+            };
+            back.push(extreme(&along, from, true));
         }
         SilhouetteSurface {
             base,
             front: Pchip::new(&radii, &front),
             back: Pchip::new(&radii, &back),
             period,
+            closing,
         }
+    }
+
+    /// Period of the contour parameter at radius `x`: 2 and the base's parameter length, which
+    /// is [`BASE_LENGTH`] unless the base closes up along the span; then it shrinks with the
+    /// base below a thousandth of the chord and is nothing where the base has no length, so no
+    /// stretch of either chain stands still at a sharp station (its points would coincide).
+    fn period_at(&self, x: f64) -> f64 {
+        if self.closing { 2.0 + BASE_LENGTH * base_share(self.base, x) } else { self.period }
     }
 
     /// Contour parameters of the front and back ends of the upper chain at radius `x` (0 the
@@ -81,6 +104,14 @@ impl<'a> SilhouetteSurface<'a> {
     pub fn extremes(&self, x: f64) -> [f64; 2] {
         [self.front.eval(x), self.back.eval(x)]
     }
+}
+
+/// The share of [`BASE_LENGTH`] the base takes at radius `x`: its length over a thousandth of
+/// the chord, at most 1.
+fn base_share(s: &dyn SpanSurface, x: f64) -> f64 {
+    let (a, b) = (s.upper(x, 1.0), s.lower(x, 1.0));
+    let chord = vec3::dist_2d(s.upper(x, 0.0), a).max(f64::MIN_POSITIVE);
+    (vec3::dist_2d(a, b) / (1e-3 * chord)).min(1.0)
 }
 
 /// A point of the closed contour at parameter `t` (period `period`): `[0, 1]` the upper chain
@@ -127,11 +158,12 @@ impl SpanSurface for SilhouetteSurface<'_> {
     }
     fn upper(&self, x: f64, u: f64) -> [f64; 2] {
         let [f, b] = self.extremes(x);
-        contour(self.base, self.period, x, f + u * (b - f))
+        contour(self.base, self.period_at(x), x, f + u * (b - f))
     }
     fn lower(&self, x: f64, u: f64) -> [f64; 2] {
         let [f, b] = self.extremes(x);
-        contour(self.base, self.period, x, f - u * (self.period - (b - f)))
+        let period = self.period_at(x);
+        contour(self.base, period, x, f - u * (period - (b - f)))
     }
     fn chord_angle(&self, x: f64) -> Angle {
         self.base.chord_angle(x)

@@ -20,37 +20,17 @@ pub(super) struct Bulkhead {
     pub(super) thickness: f64,
 }
 
-/// The one kind of trailing edge the blade has at every station: a closing segment (blunt) or
-/// a point (sharp). A blade whose trailing edge changes kind along the span (a closed round root
-/// blending into blunt sections) cannot be lofted yet: [`MeshError::StationShape`] at the first
-/// station whose kind differs from the root's. A caller may ask this before building, to go on
-/// without tooling.
+/// How the tooling joins the chains of the blade's outline at the trailing edge: a point when
+/// every station is sharp, else a closing segment (a blunt base) at every station, of no length
+/// where a station is sharp or round. A blade whose trailing edge changes kind along the span (a
+/// round root blending into flat-backed sections, a blunt root turning sharp outboard) keeps one
+/// loft grid so: the base's length goes to zero towards the sharp stations and the loft contracts
+/// the edges it leaves there (see `collapse`), so no facet of the parts lacks area.
+///
+/// Kept fallible for its callers; every blade has a kind today.
 pub fn trailing_edge_kind(blade: &Blade) -> Result<EndKind, MeshError> {
     let blunt = blade.surfaces().blunt_trailing_edges();
-    if blunt.iter().all(|&b| b) {
-        Ok(EndKind::Segment)
-    } else if blunt.iter().all(|&b| !b) {
-        Ok(EndKind::Point)
-    } else {
-        let kind = |b: bool| if b { "blunt" } else { "sharp" };
-        let radii = blade.station_radii();
-        let list: Vec<String> =
-            radii.iter().zip(&blunt).map(|(r, &b)| format!("r = {r} m {}", kind(b))).collect();
-        // The first station whose kind differs from the root's is where the shape changes.
-        let at = blunt.iter().position(|&b| b != blunt[0]).unwrap_or(0);
-        Err(MeshError::StationShape {
-            r: radii.get(at).copied().unwrap_or(0.0),
-            text: format!(
-                "the tooling needs one kind of trailing edge at every station, blunt (open) or \
-                 sharp (closed), and cannot yet blend one into the other along the span; the \
-                 root is {} but this station is {}: give every station the same kind of \
-                 trailing edge to make tooling (a NACA code takes `-closed` for a sharp one); found {}",
-                kind(blunt[0]),
-                kind(!blunt[0]),
-                list.join(", ")
-            ),
-        })
-    }
+    Ok(if blunt.iter().any(|&b| b) { EndKind::Segment } else { EndKind::Point })
 }
 
 /// Builds the tooling of `blade` (see the module docs). `progress(done, total, stage)` is called
