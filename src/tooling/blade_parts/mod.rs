@@ -114,7 +114,7 @@ impl Default for ToolingParams {
             ends: EndShape::Spheres,
             // Half the end section's width and depth, standing 15 mm out of the shell into its
             // seat in the end piece (common practice; see docs/decisions.md).
-            print_fraction: 0.0,
+            print_fraction: 0.5,
             print_length: 0.015,
             casting: Some(CastingParams::default()),
         }
