@@ -227,15 +227,15 @@ fn square_ends_get_an_end_piece_where_a_print_leaves() {
 
 #[test]
 fn a_thin_trailing_edge_cell_gets_a_tapered_print_that_sits_in_its_seat() {
-    // An invented rear web at 85 % of the chord over the whole span: the cell behind it runs
-    // from about 13 mm deep at the web to the 2 mm where the core closes (NACA 44xx thickness
-    // at x/c = 0.85 and the shell's laminate, from memory), too thin at its back for a print
+    // An invented rear web at 75 % of the chord over the whole span: the cell behind it runs
+    // from about 20 mm deep at the web to the 2 mm where the core closes (NACA 44xx thickness
+    // at x/c = 0.75 less the shell's laminate, from memory), too thin at its back for a print
     // scaled from it to taper. The print stops where the cell grows too thin for the taper.
     let dir = tempfile::tempdir().unwrap();
     let project = mine_fan_with_rear_web(dir.path(), None);
     let toml = std::fs::read_to_string(&project)
         .unwrap()
-        .replace("[[point_mass]]", "[[web]]\nname = \"rear\"\nchord_frac = 0.85\n\n[[point_mass]]");
+        .replace("[[point_mass]]", "[[web]]\nname = \"rear\"\nchord_frac = 0.75\n\n[[point_mass]]");
     std::fs::write(&project, toml).unwrap();
     let plies = dir.path().join("plies.csv");
     let mut text = std::fs::read_to_string(&plies).unwrap();

@@ -50,7 +50,8 @@ pub(super) fn interval_at(poly: &[[f64; 2]], t: f64) -> Option<(f64, f64)> {
 /// vertical line meets in one interval): the contour scaled by `fraction` about the `anchor`,
 /// chordwise and, at each chordwise place, in relative depth (see the module docs); the anchor
 /// is first moved `inset` inside the contour. A column shallower than `min_depth` is deepened
-/// to it about its middle where the contour leaves `inset` either side, and the section keeps
+/// to it about its middle where the contour leaves `wide_inset` either side (the inset and how
+/// far the cell's contour moves across the end's span), and the section keeps
 /// the longest chordwise run of columns at least `min_depth` deep (a thin trailing end cannot
 /// take the print's taper). `n` intervals a side.
 pub(crate) fn print_section(
@@ -58,6 +59,7 @@ pub(crate) fn print_section(
     anchor: [f64; 2],
     fraction: f64,
     inset: f64,
+    wide_inset: f64,
     min_depth: f64,
     n: usize,
 ) -> Result<Vec<[f64; 2]>, MeshError> {
@@ -82,11 +84,11 @@ pub(crate) fn print_section(
         let (lo, hi) = interval_at(contour, y).ok_or_else(small)?;
         let (mut a, mut b) =
             (lo + (hi - lo) * ta * (1.0 - fraction), lo + (hi - lo) * (ta + fraction * (1.0 - ta)));
-        let room = hi - lo - 2.0 * inset;
+        let room = hi - lo - 2.0 * wide_inset;
         if b - a < min_depth && room > b - a {
             let grow = 0.5 * (min_depth.min(room) - (b - a));
             (a, b) = (a - grow, b + grow);
-            let shift = (lo + inset - a).max(0.0) - (b - (hi - inset)).max(0.0);
+            let shift = (lo + wide_inset - a).max(0.0) - (b - (hi - wide_inset)).max(0.0);
             (a, b) = (a + shift, b + shift);
         }
         Ok((a, b))
@@ -123,7 +125,7 @@ pub(crate) fn print_section(
                     "a core's end is nowhere {:.3} mm deep inside {:.3} mm of its sides, too \
                      thin for a tapered print",
                     min_depth * 1e3,
-                    inset * 1e3
+                    wide_inset * 1e3
                 )));
             }
         }
@@ -256,7 +258,7 @@ mod tests {
         // back; deepened to 4 mm where the contour leaves 0.5 mm either side (depth h − 1 mm ≥
         // 4 mm for y ≤ 45 mm, geometry of the wedge), and cut there.
         let (f, inset, need) = (0.5, 0.5e-3, 4e-3);
-        let s = print_section(&wedge(), [0.06, -0.001], f, inset, need, 8).unwrap();
+        let s = print_section(&wedge(), [0.06, -0.001], f, inset, inset, need, 8).unwrap();
         let n = s.len() / 2;
         for k in 0..n {
             let (top, bottom) = (s[k], s[s.len() - 1 - k]);
@@ -282,7 +284,7 @@ mod tests {
             .collect();
         assert!(keeps_shape(&s, &moved));
         // Without a least depth the thin end is kept, and the same move folds it.
-        let thin = print_section(&wedge(), [0.06, -0.001], f, inset, 0.0, 8).unwrap();
+        let thin = print_section(&wedge(), [0.06, -0.001], f, inset, inset, 0.0, 8).unwrap();
         let m = inward_miters(&thin).unwrap();
         let moved: Vec<[f64; 2]> = thin
             .iter()
@@ -296,8 +298,8 @@ mod tests {
     fn a_cell_nowhere_deep_enough_gets_a_clear_error() {
         // A 40 × 4 mm end with 0.5 mm kept either side leaves 3 mm, less than 4 mm.
         let outline = [[-0.02, 0.002], [0.02, 0.002], [0.02, -0.002], [-0.02, -0.002]];
-        let e = print_section(&outline, [0.0, 0.0], 0.5, 0.5e-3, 4e-3, 16).unwrap_err();
+        let e = print_section(&outline, [0.0, 0.0], 0.5, 0.5e-3, 0.5e-3, 4e-3, 16).unwrap_err();
         assert!(e.to_string().contains("too thin for a tapered print"), "{e}");
-        assert!(print_section(&outline, [0.0, 0.0], 0.5, 0.5e-3, 2.9e-3, 16).is_ok());
+        assert!(print_section(&outline, [0.0, 0.0], 0.5, 0.5e-3, 0.5e-3, 2.9e-3, 16).is_ok());
     }
 }
