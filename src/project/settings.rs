@@ -63,8 +63,8 @@ pub struct ToolingSpec {
     pub min_draft: Angle,
     /// Least core thickness normal to the chord, where a core ends at a thin trailing edge, m.
     pub min_core_thickness: f64,
-    /// A core print's section as a fraction of the core's end section (0, the default: no
-    /// prints; 0.5 is a usual choice, common practice).
+    /// A core print's section as a fraction of the core's end section, linear (0.5, the
+    /// default, common practice; 0: no prints).
     pub core_print_fraction: f64,
     /// How far a core print stands out beyond the shell's end, m.
     pub core_print_length: f64,
@@ -89,7 +89,7 @@ impl Default for ToolingSpec {
             core_shrink_factor: 1.0,
             min_draft: Angle::from_deg(1.0),
             min_core_thickness: 2.0e-3,
-            core_print_fraction: 0.0,
+            core_print_fraction: 0.5,
             core_print_length: 0.015,
             core_alloy_shrinkage: 0.002,
         }

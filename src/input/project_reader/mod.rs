@@ -23,8 +23,8 @@
 //!   `cure_temperature_C`, `mould_margin_m` (0.03), `stl_unit` ("mm" or "m"), `tolerance_mm`
 //!   (0.1), `mould_expansion_factor` (1), `core_shrink_factor` (1), `min_draft_deg` (1, from 0 to 30),
 //!   `mould_material` (an `[isotropic.NAME]` record; its density gives the mould masses),
-//!   `min_core_thickness_mm` (2), `core_print_fraction` (0, no prints, to 0.9;
-//!   0.5 is a usual choice),
+//!   `min_core_thickness_mm` (2), `core_print_fraction` (0.5, common practice; 0, no prints,
+//!   to 0.9),
 //!   `core_print_length_mm` (15, at most the mould margin);
 //! - `[modal]`: `elements` (40), `modes` (8), `rpm_step`, `[modal.root_springs]` with
 //!   `axial_N_m`, `flap_Nm_rad`, `edge_Nm_rad`, `torsion_Nm_rad`;

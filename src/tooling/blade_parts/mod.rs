@@ -79,7 +79,7 @@ pub struct ToolingParams {
     /// How the blade's ends are trimmed.
     pub ends: EndShape,
     /// A core print's section as a fraction of the core's end section, chordwise and in depth
-    /// (0: no prints; see [`super::CorePrint`]).
+    /// (0.5 by default; 0: no prints; see [`super::CorePrint`]).
     pub print_fraction: f64,
     /// How far a core print stands out beyond the shell's outer end surface, m (at most the
     /// mould margin).
@@ -114,7 +114,7 @@ impl Default for ToolingParams {
             ends: EndShape::Spheres,
             // Half the end section's width and depth, standing 15 mm out of the shell into its
             // seat in the end piece (common practice; see docs/decisions.md).
-            print_fraction: 0.0,
+            print_fraction: 0.5,
             print_length: 0.015,
             casting: Some(CastingParams::default()),
         }

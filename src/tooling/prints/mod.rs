@@ -219,11 +219,35 @@ pub(crate) fn print_core(
         .ok_or_else(|| MeshError::Geometry("a core's end has no contour".into()))?;
     let (s, c) = cell.chord_angle(x_c).rad().sin_cos();
     let anchor = [lowest[1] * c + lowest[2] * s, -lowest[1] * s + lowest[2] * c];
-    let section: Vec<[f64; 2]> =
-        print_section(&contour, anchor, set.fraction, set.inset, PRINT_INTERVALS)?
-            .into_iter()
+    let to_rotor = |q: [f64; 2]| [q[0] * c - q[1] * s, q[0] * s + q[1] * c];
+    let min_depth = least_depth(&contour, &to_rotor, set, sign)?;
+    // How far the cell's contour moves across the end's span (a twisted or tapered cell under
+    // a spherical end): a deepened column keeps that much more from the contour.
+    let (x_lo, x_hi) =
+        pts.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), p| (a.min(p[0]), b.max(p[0])));
+    let outline_at = |x: f64| -> Vec<[f64; 2]> {
+        let (s, c) = cell.chord_angle(x).rad().sin_cos();
+        (0..=m)
+            .map(|i| cell.upper(x, i as f64 / m as f64))
+            .chain((0..=m).rev().map(|i| cell.lower(x, i as f64 / m as f64)))
             .map(|q| [q[0] * c - q[1] * s, q[0] * s + q[1] * c])
-            .collect();
+            .collect()
+    };
+    let (near, far) = (outline_at(x_lo), outline_at(x_hi));
+    let drift = hausdorff(&near, &far).max(hausdorff(&far, &near));
+    let wide_inset = set.inset + drift;
+    let section: Vec<[f64; 2]> = print_section(
+        &contour,
+        anchor,
+        set.fraction,
+        set.inset,
+        wide_inset,
+        min_depth,
+        PRINT_INTERVALS,
+    )?
+    .into_iter()
+    .map(to_rotor)
+    .collect();
     let section = thick_enough(section, set, sign)?;
     let mut piece = open_end(solid, end);
     let mut entrance = Vec::with_capacity(section.len());
@@ -278,6 +302,51 @@ pub(crate) fn print_core(
         seat_clearance: None,
     };
     Ok(PrintedCore { mesh, print, piece, entrance })
+}
+
+/// The greatest distance from a point of `a` to the closed polygon `b`.
+fn hausdorff(a: &[[f64; 2]], b: &[[f64; 2]]) -> f64 {
+    let n = b.len();
+    a.iter()
+        .map(|p| {
+            (0..n)
+                .map(|i| {
+                    let (u, v) = (b[i], b[(i + 1) % n]);
+                    let d = [v[0] - u[0], v[1] - u[1]];
+                    let l2 = d[0] * d[0] + d[1] * d[1];
+                    let t = if l2 > 0.0 {
+                        (((p[0] - u[0]) * d[0] + (p[1] - u[1]) * d[1]) / l2).clamp(0.0, 1.0)
+                    } else {
+                        0.0
+                    };
+                    (p[0] - u[0] - t * d[0]).hypot(p[1] - u[1] - t * d[1])
+                })
+                .fold(f64::INFINITY, f64::min)
+        })
+        .fold(0.0, f64::max)
+}
+
+/// The least depth of a print's section that keeps its taper: four times the inward lean over
+/// the longest wall the print can have at this end (from the core's end surface under the end
+/// `contour`, chord frame, to the print's outer end), so that a side of the section can move in
+/// by the taper from both sides and keep half its depth.
+fn least_depth(
+    contour: &[[f64; 2]],
+    to_rotor: &dyn Fn([f64; 2]) -> [f64; 2],
+    set: &PrintSetting,
+    sign: f64,
+) -> Result<f64, MeshError> {
+    let lean = set.taper.rad().tan();
+    if lean <= 0.0 {
+        return Ok(0.0);
+    }
+    let (mut reach, mut inner) = (f64::NEG_INFINITY, f64::INFINITY);
+    for &q in contour {
+        let r = to_rotor(q);
+        reach = reach.max(sign * lift_x(set.outer_trim, r)?[0]);
+        inner = inner.min(sign * lift_x(set.core_trim, r)?[0]);
+    }
+    Ok(4.0 * lean * (reach + set.length - inner).max(0.0))
 }
 
 /// The columns of `section` (the upper chain's points, then the lower chain's back, corner
@@ -386,14 +455,14 @@ mod tests {
         // f about its middle in both directions, area f² w h (geometry).
         let outline = [[-0.02, 0.005], [0.02, 0.005], [0.02, -0.005], [-0.02, -0.005]];
         for f in [0.3, 0.5, 0.8] {
-            let section = print_section(&outline, [0.0, 0.0], f, 0.5e-3, 8).unwrap();
+            let section = print_section(&outline, [0.0, 0.0], f, 0.5e-3, 0.5e-3, 0.0, 8).unwrap();
             let area = polygon_area(&section).abs();
             assert!((area / (f * f * 0.04 * 0.01) - 1.0).abs() < 1e-9, "{f}: {area}");
         }
         // Anchored at a corner, the section keeps the fraction's area and stays the inset
         // scaled by 1 − f from that corner's sides.
         let (f, inset) = (0.5, 0.5e-3);
-        let section = print_section(&outline, [0.02, -0.005], f, inset, 8).unwrap();
+        let section = print_section(&outline, [0.02, -0.005], f, inset, inset, 0.0, 8).unwrap();
         let area = polygon_area(&section).abs();
         assert!((area / (f * f * 0.04 * 0.01) - 1.0).abs() < 1e-9, "{area}");
         let right = section.iter().map(|q| q[0]).fold(f64::NEG_INFINITY, f64::max);
@@ -444,7 +513,8 @@ mod tests {
             })
             .collect();
         for f in [0.4, 0.6] {
-            let section = print_section(&outline, [0.0, 0.0], f, 0.5e-3, 2000).unwrap();
+            let section =
+                print_section(&outline, [0.0, 0.0], f, 0.5e-3, 0.5e-3, 0.0, 2000).unwrap();
             let area = polygon_area(&section).abs();
             let exact = 2.0 * f * a * b * (f * (1.0 - f * f).sqrt() + f.asin());
             assert!((area / exact - 1.0).abs() < 1e-4, "{f}: {area} vs {exact}");
