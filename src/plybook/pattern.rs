@@ -240,26 +240,17 @@ pub fn drape_region(
         Some(poly) => fine(Prune::Net(poly, margin)),
         // The coarse net does not reach the whole region (its cells will not close round a
         // small nose, say): the region's net coordinates extrapolated from its nearest cells
-        // (within `FAR_OUT` of them), with a wider margin. That net stands only when it was grown
+        // (within `FAR_OUT` of them) or fitted to the nearest points placed, with a wider margin. That net stands only when it was grown
         // over every node the pattern takes (see `covered`), which are then the nodes of the
         // net grown over the region mapped linearly with a wide margin; else that net is grown.
         None => {
             let metric = [norm(t0[0]), norm(t0[1])];
-            let grow = |locator: &NetLocator, step: f64| {
-                let poly = outline_in_links(locator, step, &spec.boundary, metric)?;
-                fine(Prune::Net(poly, margin + EXTRAPOLATED_MARGIN))
-            };
-            // Grown once over the outline placed by the coarse net, and once more over the
-            // outline placed by that net, when the first was not grown wide enough.
-            match grow(&coarse_locator, coarse_step) {
-                Some(net) if covered(&net, &spec.boundary) => Some(net),
-                Some(net) => grow(&NetLocator::new(&net), 1.0),
-                None => None,
-            }
-            .filter(|net| covered(net, &spec.boundary))
-            .or_else(|| {
-                fine(Prune::Param(spec.boundary.clone(), 3.0 * spec.spacing + 0.25 * extent))
-            })
+            outline_in_links(&coarse_locator, coarse_step, &spec.boundary, metric)
+                .and_then(|poly| fine(Prune::Net(poly, margin + EXTRAPOLATED_MARGIN)))
+                .filter(|net| covered(net, &spec.boundary))
+                .or_else(|| {
+                    fine(Prune::Param(spec.boundary.clone(), 3.0 * spec.spacing + 0.25 * extent))
+                })
         }
     }
     .ok_or(DrapeFailure::Seed)?;
