@@ -145,10 +145,13 @@ const AFFINE_FIT_POINTS: usize = 12;
 /// (coordinates about their mean); `None` when the points lie on a line.
 fn affine_at(pairs: &[&([f64; 2], [f64; 2])], q: [f64; 2]) -> Option<[f64; 2]> {
     let n = pairs.len() as f64;
-    let mean =
-        |f: &dyn Fn(&([f64; 2], [f64; 2])) -> f64| pairs.iter().map(|p| f(p)).sum::<f64>() / n;
-    let (pa, pb) = (mean(&|p| p.0[0]), mean(&|p| p.0[1]));
-    let (xa, xb) = (mean(&|p| p.1[0]), mean(&|p| p.1[1]));
+    let mut m = [0.0; 4];
+    for (p, x) in pairs.iter().map(|p| (p.0, p.1)) {
+        for (k, v) in [p[0], p[1], x[0], x[1]].into_iter().enumerate() {
+            m[k] += v / n;
+        }
+    }
+    let [pa, pb, xa, xb] = m;
     let (mut saa, mut sab, mut sbb) = (0.0, 0.0, 0.0);
     let mut rhs = [[0.0; 2]; 2];
     for (p, x) in pairs.iter().map(|p| (p.0, p.1)) {
