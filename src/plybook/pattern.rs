@@ -1,7 +1,7 @@
 //! One region draped and flattened into a flat pattern.
 
-use super::drape::{DrapeSpec, DrapeSurface, Prune, drape, frame};
-use super::flatten::NetLocator;
+use super::drape::{DrapeSpec, DrapeSurface, DrapedNet, Prune, drape, frame};
+use super::flatten::{FAR_OUT, NetLocator};
 use super::vec3::{cross, dot, norm, point_in_polygon, polygon_area, scale, sub, unit};
 
 /// A region of a surface to drape, in the surface's parameters.
@@ -76,6 +76,108 @@ fn intended(axis: [f64; 3], normal: [f64; 3], angle: f64) -> [f64; 3] {
     [c * a[0] + s * b[0], c * a[1] + s * b[1], c * a[2] + s * b[2]]
 }
 
+/// Links added to the margin of a net grown over a region placed in net coordinates by
+/// extrapolation from the coarse net.
+const EXTRAPOLATED_MARGIN: f64 = 8.0;
+
+/// Links about the region's outline in net coordinates over which a net must have been grown to
+/// flatten the region as a net grown over a larger region does: the flat locator's Newton steps
+/// move at most a cell and a half from the cell found and read the 4×4 nodes about the cell they
+/// end in, and the shear at a node reads two nodes on either side.
+const FLATTEN_REACH: f64 = 5.0;
+
+/// Whether `net` was grown over every node the region's pattern takes: its boundary points all
+/// lie in complete cells, or within [`FAR_OUT`] cells of them, and the net was grown within
+/// [`FLATTEN_REACH`] links (and [`FAR_OUT`] more) of the polygon of their net coordinates (see
+/// [`DrapedNet::covers`]).
+fn covered(net: &DrapedNet, boundary: &[[f64; 2]]) -> bool {
+    let locator = NetLocator::new(net);
+    let mut far = false;
+    let poly: Option<Vec<[f64; 2]>> = boundary
+        .iter()
+        .map(|&q| {
+            let (x, out) = locator.indices_with_distance(q, true)?;
+            far |= out > 0.0;
+            Some(x)
+        })
+        .collect();
+    let reach = if far { FLATTEN_REACH + FAR_OUT } else { FLATTEN_REACH };
+    poly.is_some_and(|poly| net.covers(&poly, reach))
+}
+
+/// The boundary points `boundary` in the links of a net `step` times finer than the one
+/// `locator` finds them in: those it places (extrapolated up to [`FAR_OUT`] cells), and each of
+/// the others by the affine map fitted (least squares) to the placed points nearest it in
+/// parameters, lengths along the parameters weighed by `metric`; `None` when fewer than three
+/// are placed.
+fn outline_in_links(
+    locator: &NetLocator,
+    step: f64,
+    boundary: &[[f64; 2]],
+    metric: [f64; 2],
+) -> Option<Vec<[f64; 2]>> {
+    let placed: Vec<([f64; 2], [f64; 2])> = boundary
+        .iter()
+        .filter_map(|&q| locator.indices(q, true).map(|x| (q, [step * x[0], step * x[1]])))
+        .collect();
+    if placed.len() < 3 {
+        return None;
+    }
+    boundary
+        .iter()
+        .map(|&q| {
+            if let Some(x) = locator.indices(q, true) {
+                return Some([step * x[0], step * x[1]]);
+            }
+            let dist = |p: [f64; 2]| (metric[0] * (p[0] - q[0])).hypot(metric[1] * (p[1] - q[1]));
+            let mut near: Vec<&([f64; 2], [f64; 2])> = placed.iter().collect();
+            near.sort_by(|a, b| dist(a.0).total_cmp(&dist(b.0)));
+            near.truncate(AFFINE_FIT_POINTS);
+            affine_at(&near, q)
+        })
+        .collect()
+}
+
+/// Placed boundary points an unplaced one is extrapolated from.
+const AFFINE_FIT_POINTS: usize = 12;
+
+/// The value at `q` of the affine map fitted by least squares to the pairs `(parameters, value)`
+/// (coordinates about their mean); `None` when the points lie on a line.
+fn affine_at(pairs: &[&([f64; 2], [f64; 2])], q: [f64; 2]) -> Option<[f64; 2]> {
+    let n = pairs.len() as f64;
+    let mut m = [0.0; 4];
+    for (p, x) in pairs.iter().map(|p| (p.0, p.1)) {
+        for (k, v) in [p[0], p[1], x[0], x[1]].into_iter().enumerate() {
+            m[k] += v / n;
+        }
+    }
+    let [pa, pb, xa, xb] = m;
+    let (mut saa, mut sab, mut sbb) = (0.0, 0.0, 0.0);
+    let mut rhs = [[0.0; 2]; 2];
+    for (p, x) in pairs.iter().map(|p| (p.0, p.1)) {
+        let (da, db) = (p[0] - pa, p[1] - pb);
+        saa += da * da;
+        sab += da * db;
+        sbb += db * db;
+        for k in 0..2 {
+            let dx = x[k] - [xa, xb][k];
+            rhs[k][0] += da * dx;
+            rhs[k][1] += db * dx;
+        }
+    }
+    let det = saa * sbb - sab * sab;
+    if !(det.abs() > 1e-12 * (saa * sbb).max(1e-300)) {
+        return None;
+    }
+    let (qa, qb) = (q[0] - pa, q[1] - pb);
+    let at = |k: usize| {
+        let ga = (rhs[k][0] * sbb - rhs[k][1] * sab) / det;
+        let gb = (saa * rhs[k][1] - sab * rhs[k][0]) / det;
+        [xa, xb][k] + ga * qa + gb * qb
+    };
+    Some([at(0), at(1)])
+}
+
 /// Drapes the region from its seed and flattens it (see the module docs of `plybook`).
 pub fn drape_region(
     surface: &dyn DrapeSurface,
@@ -124,14 +226,36 @@ pub fn drape_region(
             coarse_locator.indices(q, false).map(|x| [coarse_step * x[0], coarse_step * x[1]])
         })
         .collect();
-    let prune = match in_links {
-        Some(poly) => Prune::Net(poly, 3.0 + 2.0 * coarse_step + 0.02 * extent / spec.spacing),
-        None => Prune::Param(spec.boundary.clone(), 3.0 * spec.spacing + 0.25 * extent),
+    let fine = |prune: Prune| {
+        drape(
+            surface,
+            &DrapeSpec {
+                seed: spec.seed,
+                warp,
+                spacing: spec.spacing,
+                bounds,
+                region: Some(prune),
+            },
+        )
     };
-    let net = drape(
-        surface,
-        &DrapeSpec { seed: spec.seed, warp, spacing: spec.spacing, bounds, region: Some(prune) },
-    )
+    let margin = 3.0 + 2.0 * coarse_step + 0.02 * extent / spec.spacing;
+    let net = match in_links {
+        Some(poly) => fine(Prune::Net(poly, margin)),
+        // The coarse net does not reach the whole region (its cells will not close round a
+        // small nose, say): the region's net coordinates extrapolated from its nearest cells
+        // (within `FAR_OUT` of them) or fitted to the nearest points placed, with a wider margin. That net stands only when it was grown
+        // over every node the pattern takes (see `covered`), which are then the nodes of the
+        // net grown over the region mapped linearly with a wide margin; else that net is grown.
+        None => {
+            let metric = [norm(t0[0]), norm(t0[1])];
+            outline_in_links(&coarse_locator, coarse_step, &spec.boundary, metric)
+                .and_then(|poly| fine(Prune::Net(poly, margin + EXTRAPOLATED_MARGIN)))
+                .filter(|net| covered(net, &spec.boundary))
+                .or_else(|| {
+                    fine(Prune::Param(spec.boundary.clone(), 3.0 * spec.spacing + 0.25 * extent))
+                })
+        }
+    }
     .ok_or(DrapeFailure::Seed)?;
     let locator = NetLocator::new(&net);
     let mut outline = Vec::with_capacity(spec.boundary.len());

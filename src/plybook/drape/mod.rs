@@ -246,8 +246,14 @@ pub fn drape(surface: &dyn DrapeSurface, spec: &DrapeSpec) -> Option<DrapedNet> 
         Some(w) => (w.lo, w.dims),
         None => ([-half, -half], [2 * half + 1, 2 * half + 1]),
     };
-    let mut net =
-        DrapedNet { spacing: d, half, lo, dims, nodes: vec![None; (dims[0] * dims[1]) as usize] };
+    let mut net = DrapedNet {
+        spacing: d,
+        half,
+        lo,
+        dims,
+        nodes: vec![None; (dims[0] * dims[1]) as usize],
+        wanted: None,
+    };
     net.set(0, 0, Some(seed));
     let want = |i: i32, j: i32| wanted.as_ref().is_none_or(|w| w.get(i, j));
     // Parameter step of a link along a tangent direction, for the first guesses.
@@ -329,6 +335,7 @@ pub fn drape(surface: &dyn DrapeSurface, spec: &DrapeSpec) -> Option<DrapedNet> 
             }
         }
     }
+    net.wanted = wanted;
     Some(net)
 }
 

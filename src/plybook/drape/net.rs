@@ -2,6 +2,7 @@
 //! a node.
 
 use super::super::vec3::{add, dot, norm, scale, sub, unit};
+use super::wanted::Wanted;
 
 /// One node of the draped net.
 #[derive(Debug, Clone, Copy)]
@@ -27,6 +28,8 @@ pub struct DrapedNet {
     /// Nodes of the box along the warp and the weft.
     pub(super) dims: [i32; 2],
     pub(super) nodes: Vec<Option<NetNode>>,
+    /// The nodes the net was grown for (every node of the box when `None`).
+    pub(super) wanted: Option<Wanted>,
 }
 
 impl DrapedNet {
@@ -45,6 +48,23 @@ impl DrapedNet {
         if let Some(k) = self.index(i, j) {
             self.nodes[k] = node;
         }
+    }
+
+    /// Whether the net was grown for node `(i, j)`: every node it depends on was tried, so a
+    /// node that is missing there is one the cloth cannot reach however far the net is grown.
+    pub fn grown(&self, i: i32, j: i32) -> bool {
+        match &self.wanted {
+            Some(w) => w.get(i, j),
+            None => self.index(i, j).is_some(),
+        }
+    }
+
+    /// Whether the net was grown for every node within `margin` links of the polygon `poly`
+    /// (net coordinates: links along the warp and the weft), and for every node between those and
+    /// the seed: then each such node is the one a net grown over a larger region places, to the
+    /// bit, since a node depends only on the nodes between it and the seed.
+    pub fn covers(&self, poly: &[[f64; 2]], margin: f64) -> bool {
+        Wanted::new(poly, margin, self.half).marked().all(|(i, j)| self.grown(i, j))
     }
 
     /// Every node with its indices.

@@ -3,6 +3,7 @@
 
 /// Which nodes the net needs (see [`DrapeSpec::region`]), over the box of indices they fill
 /// (the seed included).
+#[derive(Debug, Clone)]
 pub(super) struct Wanted {
     pub(super) lo: [i32; 2],
     pub(super) dims: [i32; 2],
@@ -96,5 +97,15 @@ impl Wanted {
 
     pub(super) fn get(&self, i: i32, j: i32) -> bool {
         self.index(i, j).is_some_and(|k| self.need[k])
+    }
+
+    /// The nodes wanted, by their indices.
+    pub(super) fn marked(&self) -> impl Iterator<Item = (i32, i32)> + '_ {
+        let n = self.dims[1];
+        self.need
+            .iter()
+            .enumerate()
+            .filter(|(_, v)| **v)
+            .map(move |(k, _)| (k as i32 / n + self.lo[0], k as i32 % n + self.lo[1]))
     }
 }

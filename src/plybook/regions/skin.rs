@@ -275,11 +275,19 @@ impl<'a> SkinLevel<'a> {
     /// derivatives, or `None` near a kink (see [`KINK_GUARD`]). The point is
     /// [`SkinLevel::inside_point`]'s, bit for bit.
     fn frame_from_rates(&self, p: [f64; 2]) -> Option<Frame> {
-        let (r, u) = (p[0], self.sign() * p[1]);
+        let u = self.sign() * p[1];
         let g = KINK_GUARD;
-        let inside =
-            r > self.span[0] + g && r < self.span[1] - g && u.abs() > g && u.abs() < 1.0 - g;
-        if !inside {
+        if !(u.abs() > g && u.abs() < 1.0 - g) {
+            return None;
+        }
+        self.jet_frame(p[0], u)
+    }
+
+    /// [`SkinLevel::frame_from_rates`] at radius `r` and `u ∈ [-1, 1]` (the level's edges
+    /// included, as one-sided rates), or `None` near a station or the blade's ends.
+    fn jet_frame(&self, r: f64, u: f64) -> Option<Frame> {
+        let g = KINK_GUARD;
+        if !(r > self.span[0] + g && r < self.span[1] - g) {
             return None;
         }
         let (side, ua, turn) = if u < 0.0 {
@@ -387,9 +395,45 @@ impl<'a> SkinLevel<'a> {
     }
 }
 
+impl SkinLevel<'_> {
+    /// The frame beyond the trailing edges (`|u| > 1`, within the blade's ends) from the
+    /// derivatives of the continuation: there the level is continued along its chordwise slope
+    /// at the edge, a one-sided difference of three points at one radius (see
+    /// [`DrapeSurface::point`]), so its rate along the span is the same difference of the three
+    /// points' rates along the span, and its rate along `u` is that slope. The point is the
+    /// continuation's, bit for bit. `None` elsewhere, or near a station.
+    fn continued_frame(&self, p: [f64; 2]) -> Option<Frame> {
+        let (r, u) = (p[0], self.sign() * p[1]);
+        let uc = u.clamp(-1.0, 1.0);
+        if uc == u {
+            return None;
+        }
+        let h = EDGE_STEP;
+        let s = if uc > -1.0 + 2.0 * h { -h } else { h };
+        let (x, _, [x_r, _]) = self.jet_frame(r, uc)?;
+        let (y1, _, [y1_r, _]) = self.jet_frame(r, uc + s)?;
+        let (y2, _, [y2_r, _]) = self.jet_frame(r, uc + 2.0 * s)?;
+        let slope = [0, 1, 2].map(|k| (-3.0 * x[k] + 4.0 * y1[k] - y2[k]) / (2.0 * s));
+        let slope_r = [0, 1, 2].map(|k| (-3.0 * x_r[k] + 4.0 * y1_r[k] - y2_r[k]) / (2.0 * s));
+        let mut out = x;
+        for k in 0..3 {
+            out[k] += slope[k] * (u - uc);
+        }
+        let along_r = [0, 1, 2].map(|k| x_r[k] + slope_r[k] * (u - uc));
+        let along_b = slope.map(|v| self.sign() * v);
+        Some((out, unit(cross(along_r, along_b)), [along_r, along_b]))
+    }
+}
+
+/// The chordwise step of the one-sided slope the level is continued along beyond its trailing
+/// edges (a millimetre-scale step: see [`DrapeSurface::point`]).
+const EDGE_STEP: f64 = 1e-3;
+
 impl DrapeSurface for SkinLevel<'_> {
     fn frame(&self, p: [f64; 2]) -> ([f64; 3], [f64; 3], [[f64; 3]; 2]) {
-        self.frame_from_rates(p).unwrap_or_else(|| central_frame(self, p))
+        self.frame_from_rates(p)
+            .or_else(|| self.continued_frame(p))
+            .unwrap_or_else(|| central_frame(self, p))
     }
 
     fn point(&self, p: [f64; 2]) -> [f64; 3] {
@@ -420,7 +464,7 @@ impl DrapeSurface for SkinLevel<'_> {
             e.along_r = Some([0, 1, 2].map(|k| (-3.0 * x[k] + 4.0 * y1[k] - y2[k]) / (2.0 * s)));
         }
         if uc != u && e.along_u.is_none() {
-            let h = 1e-3;
+            let h = EDGE_STEP;
             let s = if uc > -1.0 + 2.0 * h { -h } else { h };
             let (y1, _) = self.inside_point(rc, uc + s);
             let (y2, _) = self.inside_point(rc, uc + 2.0 * s);
@@ -492,6 +536,51 @@ mod tests {
                             assert_eq!(x[m].to_bits(), xc[m].to_bits());
                         }
                         checked += 1;
+                    }
+                }
+            }
+        }
+        assert!(checked > 500, "{checked}");
+    }
+
+    /// The continuation's frame beyond the trailing edges from derivatives against the central
+    /// differences of the continued points (as above), on every ply level of both skins of the
+    /// three demo blades, beyond both trailing edges; and the point is the continuation's own,
+    /// bit for bit.
+    #[test]
+    fn the_continued_frame_is_the_central_difference_frame() {
+        let root = env!("CARGO_MANIFEST_DIR");
+        let mut checked = 0;
+        for demo in ["small-wind", "mine-fan", "round-root"] {
+            let project = read_project(format!("{root}/layups/{demo}/blade.toml").as_ref())
+                .unwrap_or_else(|e| panic!("{demo}: {e}"));
+            let blade = Blade::from_project(&project).unwrap_or_else(|e| panic!("{demo}: {e}"));
+            let (r0, r1) = (blade.root_radius(), blade.tip_radius());
+            for index in 0..blade.ply_count() {
+                for side in [Surface::Upper, Surface::Lower] {
+                    let level = SkinLevel::new(&blade, side, index);
+                    for k in 0..23 {
+                        let r = r0 + (r1 - r0) * (0.011 + 0.977 * ((k * 7 % 23) as f64 / 22.0));
+                        // Beyond the draped skin's trailing edge, and beyond the other's.
+                        let beyond = 1.0 + 0.003 + 0.2 * (k as f64 / 22.0);
+                        for b in [beyond, -beyond] {
+                            let p = [r, b];
+                            let Some((x, n, t)) = level.continued_frame(p) else { continue };
+                            let (_, nc, tc) = central_frame(&level, p);
+                            let q = level.point(p);
+                            assert_eq!(x.map(f64::to_bits), q.map(f64::to_bits), "{demo} {index}");
+                            for (a, c) in t.iter().zip(&tc) {
+                                let scale = c.iter().map(|v| v.abs()).fold(0.0, f64::max);
+                                for m in 0..3 {
+                                    let err = (a[m] - c[m]).abs() / scale;
+                                    assert!(err < 1e-6, "{demo} {index} {side:?} {p:?}: {err}");
+                                }
+                            }
+                            for m in 0..3 {
+                                assert!((n[m] - nc[m]).abs() < 1e-6, "{demo} {index} at {p:?}");
+                            }
+                            checked += 1;
+                        }
                     }
                 }
             }

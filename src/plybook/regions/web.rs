@@ -4,6 +4,7 @@ use super::super::drape::DrapeSurface;
 use super::SkinLevel;
 use crate::blade::{Blade, Surface};
 use crate::interp::CubicSpline;
+use std::cell::Cell;
 
 /// A web's mid-plane between the inner skins as a surface. Parameters `(r, η)`: radius (m) and
 /// `η` from 0 at the lower inner skin to 1 at the upper; continued linearly beyond.
@@ -13,6 +14,19 @@ pub(crate) struct WebPlane<'a> {
     lower: CubicSpline,
     upper: CubicSpline,
     span: [f64; 2],
+    /// The last radius asked for (the drape asks for several heights at one radius in a row).
+    last: Cell<Option<AtRadius>>,
+}
+
+/// What the points of the plane at one radius share: the radius's bits, the heights of the
+/// lower and upper inner skins, the chordwise place and the sine and cosine of the twist.
+#[derive(Debug, Clone, Copy)]
+struct AtRadius {
+    r: u64,
+    lower: f64,
+    upper: f64,
+    y: f64,
+    sin_cos: (f64, f64),
 }
 
 impl<'a> WebPlane<'a> {
@@ -22,19 +36,21 @@ impl<'a> WebPlane<'a> {
         let (a, b) = (w.r_start.max(blade.root_radius()), w.r_end.min(blade.tip_radius()));
         let n = 120;
         let radii: Vec<f64> = (0..=n).map(|i| a + (b - a) * i as f64 / n as f64).collect();
-        let z_at = |side: Surface, r: f64| {
+        let z_at = |side: Surface| {
             let level = SkinLevel::outer_mould_line(blade, side, [a, b]);
-            let u = level.sign() * level.b_at(r, w.chord_frac);
-            s.inner(r, side, u)[1]
+            radii
+                .iter()
+                .map(|&r| s.inner(r, side, level.sign() * level.b_at(r, w.chord_frac))[1])
+                .collect::<Vec<f64>>()
         };
-        let lower: Vec<f64> = radii.iter().map(|&r| z_at(Surface::Lower, r)).collect();
-        let upper: Vec<f64> = radii.iter().map(|&r| z_at(Surface::Upper, r)).collect();
+        let (lower, upper) = (z_at(Surface::Lower), z_at(Surface::Upper));
         WebPlane {
             blade,
             chord_frac: w.chord_frac,
             lower: CubicSpline::natural(&radii, &lower),
             upper: CubicSpline::natural(&radii, &upper),
             span: [a, b],
+            last: Cell::new(None),
         }
     }
 
@@ -47,13 +63,24 @@ impl<'a> WebPlane<'a> {
 impl DrapeSurface for WebPlane<'_> {
     fn point(&self, p: [f64; 2]) -> [f64; 3] {
         let r = p[0];
-        let rc = r.clamp(self.span[0], self.span[1]);
-        let (zl, zu) = (
-            self.lower.eval(rc) + self.lower.derivative(rc) * (r - rc),
-            self.upper.eval(rc) + self.upper.derivative(rc) * (r - rc),
-        );
-        let y = (self.chord_frac - self.blade.pitch_axis_frac(rc)) * self.blade.chord(rc);
-        let z = zl + p[1] * (zu - zl);
-        self.blade.to_rotor_frame(r, [y, z], self.blade.rotor().pitch)
+        let at = match self.last.get() {
+            Some(at) if at.r == r.to_bits() => at,
+            _ => {
+                let rc = r.clamp(self.span[0], self.span[1]);
+                let at = AtRadius {
+                    r: r.to_bits(),
+                    lower: self.lower.eval(rc) + self.lower.derivative(rc) * (r - rc),
+                    upper: self.upper.eval(rc) + self.upper.derivative(rc) * (r - rc),
+                    y: (self.chord_frac - self.blade.pitch_axis_frac(rc)) * self.blade.chord(rc),
+                    // As `Blade::to_rotor_frame`.
+                    sin_cos: (self.blade.twist(r) + self.blade.rotor().pitch).rad().sin_cos(),
+                };
+                self.last.set(Some(at));
+                at
+            }
+        };
+        let z = at.lower + p[1] * (at.upper - at.lower);
+        let (s, c) = at.sin_cos;
+        [r, at.y * c - z * s, at.y * s + z * c]
     }
 }
