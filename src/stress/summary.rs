@@ -7,6 +7,7 @@ use super::recover::Locator;
 use super::{PlyPoint, WallLocation};
 use crate::analysis::BladeModel;
 use crate::failure::{Criterion, FailureMode};
+use crate::units::Angle;
 
 /// The lowest reserve factor of a load case and where it occurs.
 #[derive(Debug, Clone, PartialEq)]
@@ -27,8 +28,8 @@ pub struct Critical {
     pub ply_id: String,
     /// Its material.
     pub material: String,
-    /// Its angle, degrees.
-    pub angle_deg: f64,
+    /// Its fibre angle in the ply's frame.
+    pub angle: Angle,
     /// The governing criterion.
     pub criterion: Criterion,
     /// Its failure mode.
@@ -215,7 +216,7 @@ impl Summary {
                 ply: b.ply,
                 ply_id: spec.map(|s| s.id.clone()).unwrap_or_default(),
                 material: spec.map(|s| s.material.clone()).unwrap_or_default(),
-                angle_deg: spec.map(|s| s.angle.deg()).unwrap_or(0.0),
+                angle: spec.map_or(Angle::ZERO, |s| s.angle),
                 criterion: b.criterion,
                 mode: b.mode,
                 stress_12: b.stress_12,

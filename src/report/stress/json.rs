@@ -29,7 +29,7 @@ fn critical_json(c: &Critical) -> Value {
         "ply": c.ply + 1,
         "ply_id": c.ply_id,
         "material": c.material,
-        "angle_deg": c.angle_deg,
+        "angle_deg": c.angle.deg(),
         "criterion": c.criterion.key(),
         "mode": c.mode.key(),
         "sigma1_Pa": c.stress_12.x,

@@ -29,7 +29,7 @@ pub fn critical_table(cases: &[CaseStress]) -> Table {
                 fixed(k.reserve_factor, 2),
                 fixed(k.r, 3),
                 k.location.to_string(),
-                format!("{} ({}, {}°)", k.ply_id, k.material, fixed(k.angle_deg, 0)),
+                format!("{} ({}, {}°)", k.ply_id, k.material, fixed(k.angle.deg(), 0)),
                 format!("{}, {}", k.criterion.label(), k.mode.label()),
             ]),
             None => {
