@@ -52,6 +52,8 @@ mod validation_plybook;
 mod validation_plybook_book;
 #[path = "validation_plybook_pieces.rs"]
 mod validation_plybook_pieces;
+#[path = "validation_print_fall.rs"]
+mod validation_print_fall;
 #[path = "validation_print_seats.rs"]
 mod validation_print_seats;
 #[path = "validation_section.rs"]

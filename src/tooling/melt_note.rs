@@ -96,6 +96,15 @@ pub enum MeltNote {
         /// How far the pocket runs, x in m, rotor frame.
         x_end: f64,
     },
+    /// A core whose print could not be made: it is sealed in the shell as with prints off.
+    PrintDropped {
+        /// The core's part name.
+        core: String,
+        /// The end its print would have left through.
+        end: End,
+        /// Why the print could not be made.
+        reason: crate::mesh::MeshError,
+    },
     /// A core without a print: bulkheads close both of its ends.
     NoPrint {
         /// The core's part name.

@@ -67,8 +67,8 @@ mod surface;
 mod trim;
 
 pub use blade_parts::{
-    BladeTooling, CastingNote, EndShape, EndSpheres, MachinedPart, MouldModules, Part, PartKind,
-    ToolingParams, build_tooling, trailing_edge_kind,
+    BladeTooling, CastingNote, DroppedPrint, EndShape, EndSpheres, MachinedPart, MouldModules,
+    Part, PartKind, ToolingParams, build_tooling, trailing_edge_kind,
 };
 pub use blade_surface::CoreEnd;
 pub use casting::{CastPart, CastingMould, CastingParams, Channel};

@@ -222,6 +222,16 @@ pub fn drain_plan(tooling: &BladeTooling, tolerance: f64) -> (Vec<DrainStand>, V
             },
         });
     }
+    for d in &tooling.print_dropped {
+        findings.push(MeltFinding {
+            passed: Some(false),
+            note: MeltNote::PrintDropped {
+                core: d.core.clone(),
+                end: d.end,
+                reason: d.reason.clone(),
+            },
+        });
+    }
     for core in &tooling.unprinted {
         findings.push(MeltFinding {
             passed: Some(false),

@@ -78,7 +78,10 @@ impl ToolingReport<'_> {
                 .into(),
             self.machining_table(),
         ));
-        if !self.tooling.prints.is_empty() || !self.tooling.unprinted.is_empty() {
+        if !self.tooling.prints.is_empty()
+            || !self.tooling.unprinted.is_empty()
+            || !self.tooling.print_dropped.is_empty()
+        {
             block.tables.push((
                 "Core prints and drain ports: the section, the length beyond the shell, the \
                  print's volume beyond the core's end, the drain point (rotor frame) and the \

@@ -64,6 +64,18 @@ impl ToolingReport<'_> {
                 self.small(p.pool_depth),
             ]);
         }
+        for d in &self.tooling.print_dropped {
+            let none = "-".to_string();
+            table.row(vec![
+                d.core.clone(),
+                "none".into(),
+                none.clone(),
+                none.clone(),
+                none.clone(),
+                "print dropped (see the checks)".into(),
+                none,
+            ]);
+        }
         for core in &self.tooling.unprinted {
             let none = "-".to_string();
             table.row(vec![

@@ -49,7 +49,7 @@ impl ToolingReport<'_> {
 
     pub(super) fn drain_text(&self, s: &mut String) {
         let t = self.tooling;
-        if t.prints.is_empty() && t.unprinted.is_empty() {
+        if t.prints.is_empty() && t.unprinted.is_empty() && t.print_dropped.is_empty() {
             return;
         }
         let _ = writeln!(

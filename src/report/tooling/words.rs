@@ -101,6 +101,13 @@ impl fmt::Display for MeltNote {
                 centre[1] * 1e3,
                 x_end * 1e3
             ),
+            MeltNote::PrintDropped { core, end, reason } => write!(
+                f,
+                "{core}: NO PRINT at the {end} end ({reason}): the core is made as with prints \
+                 off, sealed in the shell; the caster must hold and drain it another way (a \
+                 drain hole drilled to it, a locating pin), or widen its cell or lower \
+                 core_print_fraction"
+            ),
             MeltNote::NoPrint { core } => write!(
                 f,
                 "{core}: NO PRINT: bulkheads close both of its ends, so its alloy cannot leave the \

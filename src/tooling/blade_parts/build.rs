@@ -208,6 +208,7 @@ pub fn build_tooling(
     let printing = params.print_fraction > 0.0;
     let side = |trim: EndTrim| trim.chord_for_sag(0.5 * params.tolerance).min(loft.max_edge);
     let (mut printed, mut sealed, mut unprinted) = (Vec::new(), Vec::new(), Vec::new());
+    let mut print_dropped = Vec::new();
     for (i, ((cell, trims), span)) in cells.iter().zip(&spans).enumerate() {
         let name = format!("core-{}", i + 1);
         let solid = loft_solid(cell, trims, &loft)
@@ -234,11 +235,19 @@ pub fn build_tooling(
                     inset: 0.25 * params.min_core_thickness,
                     taper: print_taper(params.min_draft),
                 };
-                let p = print_core(&name, &solid, end, cell, &set)
-                    .map_err(|e| MeshError::Geometry(format!("{name}: {e}")))?;
-                let mesh = p.mesh.clone();
-                printed.push(p);
-                mesh
+                // A print that cannot be made leaves the core as with prints off (reported).
+                match print_or_fall(&name, &solid, end, cell, &set) {
+                    Ok(p) => {
+                        let mesh = p.mesh.clone();
+                        printed.push(p);
+                        mesh
+                    }
+                    Err(reason) => {
+                        print_dropped.push(DroppedPrint { core: name.clone(), end, reason });
+                        sealed.push(solid.mesh.clone());
+                        solid.mesh
+                    }
+                }
             }
             None => {
                 sealed.push(solid.mesh.clone());
@@ -335,6 +344,7 @@ pub fn build_tooling(
         mould_pull_angle,
         prints: printed.into_iter().map(|p| p.print).collect(),
         unprinted,
+        print_dropped,
         casting,
         casting_notes,
         modular,

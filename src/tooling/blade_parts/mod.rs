@@ -36,7 +36,7 @@ use super::mould::{
     loft_modules,
 };
 use super::parting::{SilhouetteSurface, SpanModule, span_modules};
-use super::prints::{CorePrint, PrintSetting, print_core, print_taper, shell_with_ports};
+use super::prints::{CorePrint, PrintSetting, print_or_fall, print_taper, shell_with_ports};
 use super::surface::{EndKind, SpanSurface};
 use super::trim::{EndTrim, Trims};
 use crate::blade::{Blade, BladeSurfaces, Surface};
@@ -261,6 +261,17 @@ pub enum CastingNote {
     },
 }
 
+/// A core made without its print, and why (the report words it).
+#[derive(Debug, Clone, PartialEq)]
+pub struct DroppedPrint {
+    /// The core's part name (`core-N`).
+    pub core: String,
+    /// The end its print would have left through.
+    pub end: End,
+    /// Why the print could not be made.
+    pub reason: MeshError,
+}
+
 /// The whole tooling of a blade.
 #[derive(Debug, Clone)]
 pub struct BladeTooling {
@@ -295,6 +306,10 @@ pub struct BladeTooling {
     /// Cores without a print: closed by bulkheads at both ends, their cells reach no end of
     /// the blade (none when prints are off).
     pub unprinted: Vec<String>,
+    /// Cores whose print could not be made (a cell too thin for it, or a printed core that
+    /// failed its solid check): each is made as with prints off, sealed in the shell, and the
+    /// summary says so.
+    pub print_dropped: Vec<DroppedPrint>,
     /// Each core's casting mould, in core order (see [`super::CastingMould`]).
     pub casting: Vec<CastingMould>,
     /// Cores without a casting mould, each with the reason, and what the casting moulds leave

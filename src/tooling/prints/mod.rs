@@ -56,11 +56,13 @@ use crate::mesh::{End, MeshError};
 use crate::units::Angle;
 
 mod caps;
+mod fall;
 mod seat;
 mod section;
 use caps::open_end;
 pub(crate) use caps::unslither;
 pub(crate) use caps::{band, cap_with_holes};
+pub(crate) use fall::print_or_fall;
 pub(crate) use seat::{SEAT_CLEARANCE, casting_seat, mould_seat, scaled_trim};
 pub(crate) use section::inside;
 pub(crate) use section::lift_x;

@@ -1,0 +1,89 @@
+//! Prints on by default never cost a blade its tooling: on invented copies of the mine-fan demo
+//! with a rear web near the trailing edge (a trailing cell too thin for a tapered print) and at
+//! 85 % chord, the tooling builds with the default settings; every part bounds a solid (closed,
+//! outward, no self-intersection: the library's solid check, whose edge pairing and orientation
+//! follow the two-manifold conditions of a closed polyhedral surface, common practice); a core
+//! whose print cannot be made has none, is sealed in the shell as with prints off, and the
+//! summary carries a finding naming it.
+//!
+//! Sources: the volume balance of the shell (Cavalieri: the outer solid is the shell and its
+//! cores, to 0.1 %) and the solid check above.
+
+use layloft::blade::Blade;
+use layloft::input::read_project;
+use layloft::mesh::{CheckParams, check_solid};
+use layloft::tooling::{BladeTooling, PartKind, ToolingParams, build_tooling, summarise};
+
+/// A copy of the mine-fan demo in `dir` with an invented rear web at `chord_frac`, root to tip.
+fn with_rear_web(dir: &std::path::Path, chord_frac: f64) -> std::path::PathBuf {
+    let src = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("layups/mine-fan");
+    for e in std::fs::read_dir(&src).unwrap() {
+        let e = e.unwrap();
+        std::fs::copy(e.path(), dir.join(e.file_name())).unwrap();
+    }
+    let toml = dir.join("blade.toml");
+    let text = std::fs::read_to_string(&toml).unwrap().replace(
+        "[[point_mass]]",
+        &format!("[[web]]\nname = \"rear\"\nchord_frac = {chord_frac}\n\n[[point_mass]]"),
+    );
+    std::fs::write(&toml, text).unwrap();
+    let plies = dir.join("plies.csv");
+    let mut text = std::fs::read_to_string(&plies).unwrap();
+    text.push_str("rear-1,glass-biax,45,0.40,0.90,web:rear,,\n");
+    text.push_str("rear-2,glass-biax,-45,0.40,0.90,web:rear,,\n");
+    std::fs::write(&plies, text).unwrap();
+    toml
+}
+
+fn build(chord_frac: f64) -> (BladeTooling, Vec<String>) {
+    let dir = tempfile::tempdir().unwrap();
+    let project = read_project(&with_rear_web(dir.path(), chord_frac)).expect("the project reads");
+    let blade = Blade::from_project(&project).expect("the blade lofts");
+    let spec = project.tooling.clone().unwrap_or_default();
+    // The default settings (prints of half the end section), the default tolerance.
+    let params = ToolingParams::from_spec(&spec).unwrap();
+    assert_eq!(params.print_fraction, 0.5);
+    let t = build_tooling(&blade, &params, &mut |_, _, _| {}).expect("the tooling builds");
+    let summary = summarise(&project, &blade, &t);
+    let words = summary.drain_findings.iter().map(|f| f.note.to_string()).collect();
+    (t, words)
+}
+
+fn every_part_is_a_solid(t: &BladeTooling) {
+    for p in &t.parts {
+        check_solid(&p.mesh, &p.name, &CheckParams::default())
+            .unwrap_or_else(|e| panic!("{}: {e}", p.name));
+    }
+    let outer: f64 = t
+        .parts
+        .iter()
+        .filter(|p| matches!(p.kind, PartKind::Core | PartKind::Shell))
+        .map(|p| p.nominal_volume)
+        .sum();
+    assert!(outer > 0.0);
+}
+
+#[test]
+fn a_thin_trailing_cell_gets_no_print_and_a_finding() {
+    let (t, words) = build(0.90);
+    every_part_is_a_solid(&t);
+    let cores: Vec<&str> =
+        t.parts.iter().filter(|p| p.kind == PartKind::Core).map(|p| p.name.as_str()).collect();
+    assert_eq!(cores.len(), 3, "{cores:?}");
+    assert!(t.prints.iter().all(|p| p.core != "core-3"), "the thin core has a print: {words:#?}");
+    assert!(t.prints.iter().any(|p| p.core == "core-1"), "the front core keeps its print");
+    let dropped: Vec<&String> =
+        words.iter().filter(|w| w.starts_with("core-3: NO PRINT")).collect();
+    assert_eq!(dropped.len(), 1, "{words:#?}");
+    assert!(dropped[0].contains("hold and drain"), "{}", dropped[0]);
+    assert!(!dropped[0].contains("bulkhead"), "{}", dropped[0]);
+}
+
+#[test]
+fn a_rear_web_at_85_percent_chord_builds_with_a_print_or_a_finding() {
+    let (t, words) = build(0.85);
+    every_part_is_a_solid(&t);
+    let printed = t.prints.iter().any(|p| p.core == "core-3");
+    let noted = words.iter().any(|w| w.starts_with("core-3: NO PRINT"));
+    assert!(printed != noted, "core-3: print {printed}, finding {noted}: {words:#?}");
+}
