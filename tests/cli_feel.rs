@@ -189,9 +189,8 @@ fn a_killed_report_leaves_the_old_set_or_the_new_one_whole() {
     // is written, not the meshes, and the coarser tooling makes each of the eight runs cheaper.
     let coarse = |t: String| t.replace("tolerance_mm = 0.1", "tolerance_mm = 0.5");
     let old_project = fan_copy(coarse);
-    let new_project = fan_copy(|t| {
-        coarse(t).replace("min_reserve_factor = 1.5", "min_reserve_factor = 1.6")
-    });
+    let new_project =
+        fan_copy(|t| coarse(t).replace("min_reserve_factor = 1.5", "min_reserve_factor = 1.6"));
     let tmp = tempfile::tempdir().unwrap();
     let (out, reference) = (tmp.path().join("out"), tmp.path().join("reference"));
     let run = |project: &Path, dest: &Path| {

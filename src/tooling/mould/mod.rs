@@ -63,6 +63,7 @@ use super::grid::LoftParams;
 use super::loft::loft_solid;
 use super::loft::{FacetRanges, LoftedSolid};
 mod block;
+mod flush;
 use super::parting::{SilhouetteSurface, SpanModule};
 use super::surface::SpanSurface;
 use super::trim::{EndTrim, Trims};
@@ -80,6 +81,8 @@ mod layout;
 mod modules;
 mod seats;
 mod split;
+pub use flush::ModuleKey;
+use flush::flush_key;
 use halves::{Block, build_mould_set};
 use keys::{KEY_WINDOWS, WallKey, wall_key};
 use layout::layout;
@@ -193,6 +196,9 @@ pub struct MouldParts {
     /// The mould frame the parts were built in (a module's block may set it); the keys' points
     /// are in it.
     pub(crate) frame: Frame,
+    /// The keys and sockets across the flush faces of a span-wise module (none for a mould of
+    /// one block), see `flush`.
+    pub module_keys: Vec<ModuleKey>,
 }
 
 /// Builds the halves round `part` and, at a cap that undercuts either half's pull, an end piece
