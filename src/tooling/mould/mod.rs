@@ -52,9 +52,10 @@
 //! two halves with its own pull and its own silhouette parting, all in one block (the frame of
 //! the mean pull, one extent across the span); neighbouring modules meet flush on a plane
 //! `x = const`, which every pull normal to the pitch axis slides along. Only the outer modules
-//! have end pieces and corner patches for pins; the pins lean along their module's pull. The
-//! flush faces carry no key (a key across a face that both parts slide along would have to run
-//! out through the edge along the slide).
+//! have end pieces and corner patches for pins; the pins lean along their module's pull. Across
+//! each flush face the root-side module's halves carry a wedge key running out through the
+//! block's top (bottom) edge and the tip-side module's halves its socket, placed off the middle
+//! so the module fits one way only (see [`flush`]).
 //!
 //! [`PartingLines`]: super::PartingLines
 
