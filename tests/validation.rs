@@ -38,6 +38,8 @@ mod validation_loads;
 mod validation_modal;
 #[path = "validation_modal_attached.rs"]
 mod validation_modal_attached;
+#[path = "validation_module_keys.rs"]
+mod validation_module_keys;
 #[path = "validation_mould_keys.rs"]
 mod validation_mould_keys;
 #[path = "validation_mould_modules.rs"]

@@ -79,7 +79,7 @@ pub use loft::{FacetRanges, LoftedSolid, PartingLines, loft_annulus, loft_hollow
 pub use machining::{MachiningFrame, to_machining_frame};
 pub use manifest::{MANIFEST_FILE, Manifest, ManifestEntry, StaleFiles};
 pub use mould::{
-    ModularMould, MouldHalf, MouldParams, MouldParts, Undercut, build_modular_mould,
+    ModularMould, ModuleKey, MouldHalf, MouldParams, MouldParts, Undercut, build_modular_mould,
     build_mould_parts, build_moulds, loft_modules,
 };
 pub use parting::{SilhouetteSurface, SpanModule, span_modules};

@@ -15,6 +15,7 @@
 //! quarter of the margin apart) and the top (or bottom) face, a fan about its centre. Three corner patches carry the locating features
 //! (see [`Locator`]). Facets are wound afterwards by `crate::mesh::orient::orient_outward`.
 
+use super::flush::FlushKey;
 use super::keys::WallKey;
 use crate::mesh::vec3::{self, P3};
 use crate::mesh::{Mesh, MeshError};
@@ -98,6 +99,8 @@ pub(crate) struct Layout {
     pub locators: Vec<Locator>,
     /// The sockets of the end pieces' keys in a bored side (3 or 1), see `super::keys`.
     pub keys: Vec<(usize, WallKey)>,
+    /// The keys or sockets across a flush side (3 or 1), see `super::flush`.
+    pub flush_keys: Vec<(usize, FlushKey)>,
 }
 
 struct Half<'a> {
@@ -221,7 +224,24 @@ pub(crate) fn build_half(
             for &(_, j, ids) in mouths {
                 ring.splice(j + 2..j + 2, ids);
             }
-            ring.extend([far_corners[k1], far_corners[k0]]);
+            ring.push(far_corners[k1]);
+            rim_far.push(far_corners[k0]);
+            if let Some((_, fk)) = layout.flush_keys.iter().find(|(fs, _)| *fs == s) {
+                let ids = fk.shape.map(|q| h.add(q));
+                let [pa, qa, qb, pb, f] = ids;
+                h.mesh.triangles.extend([[pa, qa, f], [qa, qb, f], [qb, pb, f]]);
+                // The footprint `P F P` cut out of the flush face's outer edge, and the base
+                // spliced into the top (bottom) face's rim, each in the edge's own order.
+                let a_first = h.mould(far_corners[k0])[1] < h.mould(far_corners[k1])[1];
+                if a_first {
+                    ring.extend([pb, f, pa]);
+                    rim_far.extend([pa, qa, qb, pb]);
+                } else {
+                    ring.extend([pa, f, pb]);
+                    rim_far.extend([pb, qb, qa, pa]);
+                }
+            }
+            ring.push(far_corners[k0]);
             let pts: Vec<[f64; 2]> = ring
                 .iter()
                 .map(|&v| {
@@ -232,7 +252,6 @@ pub(crate) fn build_half(
             if let Ok(tris) = crate::mesh::triangulate_polygon(&pts) {
                 h.mesh.triangles.extend(tris.iter().map(|t| t.map(|i| ring[i])));
             }
-            rim_far.push(far_corners[k0]);
             continue;
         }
         // The top nearest each edge vertex (in the order along the side).
@@ -255,6 +274,19 @@ pub(crate) fn build_half(
         }
         h.add([x, y, zf])
     };
+    if !layout.flush_keys.is_empty() {
+        // A key's base or a socket's mouth on the rim: the face as a polygon in (X, Y).
+        let pts: Vec<[f64; 2]> = rim_far
+            .iter()
+            .map(|&v| {
+                let q = h.mould(v);
+                [q[0], q[1]]
+            })
+            .collect();
+        let tris = crate::mesh::triangulate_polygon(&pts)?;
+        h.mesh.triangles.extend(tris.iter().map(|t| t.map(|i| rim_far[i])));
+        return Ok(h.mesh);
+    }
     let n = rim_far.len();
     for i in 0..n {
         h.mesh.triangles.push([rim_far[i], rim_far[(i + 1) % n], centre]);

@@ -46,6 +46,7 @@ pub(super) fn build_mould_set(
     let mut halves = Vec::with_capacity(2);
     // The keys of each end piece (root, tip), one on each half's share of its ring.
     let mut end_keys: [Vec<WallKey>; 2] = [Vec::new(), Vec::new()];
+    let mut module_keys = Vec::new();
     for (k, upper) in [true, false].into_iter().enumerate() {
         let cavity: Vec<usize> = faces[k]
             .iter()
@@ -84,6 +85,25 @@ pub(super) fn build_mould_set(
                 end_keys[e].push(key);
             }
             lay.sides[s] = arc;
+            if flush[e].is_some() {
+                // A key across the face to the next module (tip end) or its socket (root end).
+                let (k0, k1) = ((s + 3) % 4, s);
+                let (c0, c1) = (lay.corners[k0], lay.corners[k1]);
+                let zf = if upper { lay.z_top } else { lay.z_bottom };
+                let y = [c0[1].min(c1[1]), c0[1].max(c1[1])];
+                let fk = flush_key(c0[0], y, zf, upper, params.margin, LOCATOR_CLEARANCE, e == 0)
+                    .ok_or_else(|| {
+                    MeshError::Geometry(
+                        "no room for a locating key across a module's flush face".into(),
+                    )
+                })?;
+                module_keys.push(ModuleKey {
+                    upper,
+                    socket: fk.socket,
+                    corners: fk.shape.map(|q| frame.to_rotor(q)),
+                });
+                lay.flush_keys.push((s, fk));
+            }
         }
         let mut mesh = build_half(&part.mesh, &cavity, &lay, &frame, upper)?;
         if flush.iter().any(Option::is_some) {
@@ -125,6 +145,7 @@ pub(super) fn build_mould_set(
         end_pieces,
         end_keys: piece_keys,
         frame,
+        module_keys,
     })
 }
 

@@ -120,6 +120,18 @@ pub(crate) fn wall_key(
         at(0.5 * w, 0.0, 0.0),
         at(0.0, 0.0, reach),
     ];
+    let scale = grown(&key, centre, clearance).ok_or_else(no_room)?;
+    if !(scale * w <= 0.95 * l && scale * reach <= 0.9 * room) {
+        return Err(no_room());
+    }
+    let socket = key.map(|p| vec3::add(centre, vec3::scale(vec3::sub(p, centre), scale)));
+    Ok(WallKey { edge: [arc[j], arc[j + 1]], key, socket, centre, along, inward })
+}
+
+/// The scale about `centre` (the middle of the base edge on the wall) that moves the nearest
+/// of a wedge `key`'s outer face and flanks out by `clearance`: `1 + c / d_min`; `None` when
+/// it is not finite.
+pub(crate) fn grown(key: &[P3; 5], centre: P3, clearance: f64) -> Option<f64> {
     let plane_distance = |p: P3, r: P3, s: P3| {
         let n = vec3::cross(vec3::sub(r, p), vec3::sub(s, p));
         vec3::dot(vec3::sub(centre, p), n).abs() / vec3::norm(n)
@@ -128,11 +140,7 @@ pub(crate) fn wall_key(
         .min(plane_distance(key[0], key[1], key[4]))
         .min(plane_distance(key[3], key[2], key[4]));
     let scale = 1.0 + clearance / nearest;
-    if !(scale.is_finite() && scale * w <= 0.95 * l && scale * reach <= 0.9 * room) {
-        return Err(no_room());
-    }
-    let socket = key.map(|p| vec3::add(centre, vec3::scale(vec3::sub(p, centre), scale)));
-    Ok(WallKey { edge: [arc[j], arc[j + 1]], key, socket, centre, along, inward })
+    scale.is_finite().then_some(scale)
 }
 
 impl WallKey {

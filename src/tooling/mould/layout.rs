@@ -160,5 +160,6 @@ pub(super) fn layout(
         locators,
         bored: [false; 2],
         keys: Vec::new(),
+        flush_keys: Vec::new(),
     })
 }

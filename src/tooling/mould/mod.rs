@@ -52,9 +52,10 @@
 //! two halves with its own pull and its own silhouette parting, all in one block (the frame of
 //! the mean pull, one extent across the span); neighbouring modules meet flush on a plane
 //! `x = const`, which every pull normal to the pitch axis slides along. Only the outer modules
-//! have end pieces and corner patches for pins; the pins lean along their module's pull. The
-//! flush faces carry no key (a key across a face that both parts slide along would have to run
-//! out through the edge along the slide).
+//! have end pieces and corner patches for pins; the pins lean along their module's pull. Across
+//! each flush face the root-side module's halves carry a wedge key running out through the
+//! block's top (bottom) edge and the tip-side module's halves its socket, placed off the middle
+//! so the module fits one way only (see [`flush`]).
 //!
 //! [`PartingLines`]: super::PartingLines
 
@@ -63,6 +64,7 @@ use super::grid::LoftParams;
 use super::loft::loft_solid;
 use super::loft::{FacetRanges, LoftedSolid};
 mod block;
+mod flush;
 use super::parting::{SilhouetteSurface, SpanModule};
 use super::surface::SpanSurface;
 use super::trim::{EndTrim, Trims};
@@ -80,6 +82,8 @@ mod layout;
 mod modules;
 mod seats;
 mod split;
+pub use flush::ModuleKey;
+use flush::flush_key;
 use halves::{Block, build_mould_set};
 use keys::{KEY_WINDOWS, WallKey, wall_key};
 use layout::layout;
@@ -193,6 +197,9 @@ pub struct MouldParts {
     /// The mould frame the parts were built in (a module's block may set it); the keys' points
     /// are in it.
     pub(crate) frame: Frame,
+    /// The keys and sockets across the flush faces of a span-wise module (none for a mould of
+    /// one block), see `flush`.
+    pub module_keys: Vec<ModuleKey>,
 }
 
 /// Builds the halves round `part` and, at a cap that undercuts either half's pull, an end piece

@@ -62,7 +62,7 @@ pub(super) fn module_pull(psi: Angle) -> P3 {
 /// at the plane where it meets its neighbour (that face is normal to the pitch axis, parallel to
 /// every pull, so the modules slide apart along it). `params.pull` is not used. The locating pins
 /// of a module lean along its pull; a module between two others has no corner patch for them
-/// and so no pins (keys across the flush faces between modules are not made yet).
+/// and so no pins; it is located by the wedge keys across its flush faces (see `flush`).
 pub fn build_modular_mould(
     solids: &[LoftedSolid],
     modules: &[SpanModule],
