@@ -498,15 +498,10 @@ mod tests {
     use super::*;
     use crate::input::read_project;
 
-    /// The frame from the surfaces' derivatives against the central differences of the level's
-    /// own points (the drape's default frame; central differences err by O(h²) plus round-off
-    /// of order eps/h, Burden & Faires, *Numerical Analysis*, §4.1, from memory), on every ply
-    /// level of both skins of three demo blades (a blunt trailing edge, drop-offs, a round
-    /// root), at points off the kinks; and the point is the level's own, bit for bit.
-    #[test]
-    fn the_frame_from_rates_is_the_central_difference_frame() {
+    /// Calls `check` on every ply level of both skins of three demo blades (a blunt trailing
+    /// edge, drop-offs, a round root), with the blade's root and tip radii.
+    fn each_demo_level(mut check: impl FnMut(&str, usize, Surface, &SkinLevel, f64, f64)) {
         let root = env!("CARGO_MANIFEST_DIR");
-        let mut checked = 0;
         for demo in ["small-wind", "mine-fan", "round-root"] {
             let project = read_project(format!("{root}/layups/{demo}/blade.toml").as_ref())
                 .unwrap_or_else(|e| panic!("{demo}: {e}"));
@@ -514,32 +509,52 @@ mod tests {
             let (r0, r1) = (blade.root_radius(), blade.tip_radius());
             for index in 0..blade.ply_count() {
                 for side in [Surface::Upper, Surface::Lower] {
-                    let level = SkinLevel::new(&blade, side, index);
-                    for k in 0..37 {
-                        // Spread over the span and round both skins (b < 0 wraps the nose).
-                        let r = r0 + (r1 - r0) * (0.013 + 0.974 * ((k * 17 % 37) as f64 / 36.0));
-                        let b = -0.4 + 1.33 * (k as f64 / 36.0);
-                        let p = [r, b.min(0.987)];
-                        let Some((x, n, t)) = level.frame_from_rates(p) else { continue };
-                        let (xc, nc, tc) = central_frame(&level, p);
-                        let q = level.point(p);
-                        assert_eq!(x.map(f64::to_bits), q.map(f64::to_bits), "{demo} {index}");
-                        for (a, c) in t.iter().zip(&tc) {
-                            let scale = c.iter().map(|v| v.abs()).fold(0.0, f64::max);
-                            for m in 0..3 {
-                                let err = (a[m] - c[m]).abs() / scale;
-                                assert!(err < 1e-6, "{demo} ply {index} {side:?} at {p:?}: {err}");
-                            }
-                        }
-                        for m in 0..3 {
-                            assert!((n[m] - nc[m]).abs() < 1e-6, "{demo} {index} at {p:?}");
-                            assert_eq!(x[m].to_bits(), xc[m].to_bits());
-                        }
-                        checked += 1;
-                    }
+                    check(demo, index, side, &SkinLevel::new(&blade, side, index), r0, r1);
                 }
             }
         }
+    }
+
+    /// The frame `(x, n, t)` at `p` against the central differences of the level's points there:
+    /// the point the level's own, bit for bit; tangents within 1e-6 of their scale and the normal
+    /// within 1e-6.
+    fn agrees_with_central(level: &SkinLevel, p: [f64; 2], frame: Frame, what: &str) {
+        let (x, n, t) = frame;
+        let (_, nc, tc) = central_frame(level, p);
+        assert_eq!(x.map(f64::to_bits), level.point(p).map(f64::to_bits), "{what} at {p:?}");
+        for (a, c) in t.iter().zip(&tc) {
+            let scale = c.iter().map(|v| v.abs()).fold(0.0, f64::max);
+            for m in 0..3 {
+                let err = (a[m] - c[m]).abs() / scale;
+                assert!(err < 1e-6, "{what} at {p:?}: {err}");
+            }
+        }
+        for m in 0..3 {
+            assert!((n[m] - nc[m]).abs() < 1e-6, "{what} at {p:?}");
+        }
+    }
+
+    /// The frame from the surfaces' derivatives against the central differences of the level's
+    /// own points (the drape's default frame; central differences err by O(h²) plus round-off
+    /// of order eps/h, Burden & Faires, *Numerical Analysis*, §4.1, from memory), on every ply
+    /// level of both skins of three demo blades, at points off the kinks; and the point is the
+    /// level's own, bit for bit.
+    #[test]
+    fn the_frame_from_rates_is_the_central_difference_frame() {
+        let mut checked = 0;
+        each_demo_level(|demo, index, side, level, r0, r1| {
+            for k in 0..37 {
+                // Spread over the span and round both skins (b < 0 wraps the nose).
+                let r = r0 + (r1 - r0) * (0.013 + 0.974 * ((k * 17 % 37) as f64 / 36.0));
+                let b = -0.4 + 1.33 * (k as f64 / 36.0);
+                let p = [r, b.min(0.987)];
+                let Some(frame) = level.frame_from_rates(p) else { continue };
+                let xc = central_frame(level, p).0;
+                assert_eq!(frame.0.map(f64::to_bits), xc.map(f64::to_bits));
+                agrees_with_central(level, p, frame, &format!("{demo} ply {index} {side:?}"));
+                checked += 1;
+            }
+        });
         assert!(checked > 500, "{checked}");
     }
 
@@ -549,42 +564,20 @@ mod tests {
     /// bit for bit.
     #[test]
     fn the_continued_frame_is_the_central_difference_frame() {
-        let root = env!("CARGO_MANIFEST_DIR");
         let mut checked = 0;
-        for demo in ["small-wind", "mine-fan", "round-root"] {
-            let project = read_project(format!("{root}/layups/{demo}/blade.toml").as_ref())
-                .unwrap_or_else(|e| panic!("{demo}: {e}"));
-            let blade = Blade::from_project(&project).unwrap_or_else(|e| panic!("{demo}: {e}"));
-            let (r0, r1) = (blade.root_radius(), blade.tip_radius());
-            for index in 0..blade.ply_count() {
-                for side in [Surface::Upper, Surface::Lower] {
-                    let level = SkinLevel::new(&blade, side, index);
-                    for k in 0..23 {
-                        let r = r0 + (r1 - r0) * (0.011 + 0.977 * ((k * 7 % 23) as f64 / 22.0));
-                        // Beyond the draped skin's trailing edge, and beyond the other's.
-                        let beyond = 1.0 + 0.003 + 0.2 * (k as f64 / 22.0);
-                        for b in [beyond, -beyond] {
-                            let p = [r, b];
-                            let Some((x, n, t)) = level.continued_frame(p) else { continue };
-                            let (_, nc, tc) = central_frame(&level, p);
-                            let q = level.point(p);
-                            assert_eq!(x.map(f64::to_bits), q.map(f64::to_bits), "{demo} {index}");
-                            for (a, c) in t.iter().zip(&tc) {
-                                let scale = c.iter().map(|v| v.abs()).fold(0.0, f64::max);
-                                for m in 0..3 {
-                                    let err = (a[m] - c[m]).abs() / scale;
-                                    assert!(err < 1e-6, "{demo} {index} {side:?} {p:?}: {err}");
-                                }
-                            }
-                            for m in 0..3 {
-                                assert!((n[m] - nc[m]).abs() < 1e-6, "{demo} {index} at {p:?}");
-                            }
-                            checked += 1;
-                        }
-                    }
+        each_demo_level(|demo, index, side, level, r0, r1| {
+            for k in 0..23 {
+                let r = r0 + (r1 - r0) * (0.011 + 0.977 * ((k * 7 % 23) as f64 / 22.0));
+                // Beyond the draped skin's trailing edge, and beyond the other's.
+                let beyond = 1.0 + 0.003 + 0.2 * (k as f64 / 22.0);
+                for b in [beyond, -beyond] {
+                    let p = [r, b];
+                    let Some(frame) = level.continued_frame(p) else { continue };
+                    agrees_with_central(level, p, frame, &format!("{demo} ply {index} {side:?}"));
+                    checked += 1;
                 }
             }
-        }
+        });
         assert!(checked > 500, "{checked}");
     }
 }
