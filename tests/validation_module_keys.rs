@@ -13,12 +13,13 @@
 
 use layloft::mesh::{CheckParams, LengthUnit, Mesh, check_solid};
 use layloft::tooling::{
-    ChainEnds, EndKind, FnSurface, LoftParams, ModularMould, MouldParams, SpanSurface, Trims,
-    build_modular_mould, loft_modules, span_modules,
+    LoftParams, ModularMould, MouldParams, SpanSurface, Trims, build_modular_mould, loft_modules,
+    span_modules,
 };
 use layloft::units::Angle;
 
 use crate::common::inside_mesh as inside;
+use crate::validation_mould_keys::crescent;
 
 const MARGIN: f64 = 0.02;
 /// The clearance of every socket round its key, m.
@@ -41,27 +42,6 @@ fn unit(a: P3) -> P3 {
 }
 fn lerp(a: P3, b: P3, t: f64) -> P3 {
     [a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1]), a[2] + t * (b[2] - a[2])]
-}
-
-/// A circular arc through (−c/2, 0) and (c/2, 0) of sagitta h, 100 mm chord, pitch axis at a
-/// quarter chord (invented).
-fn arc(h: f64, u: f64) -> [f64; 2] {
-    let c = 0.1;
-    let r = (c * c / 4.0 + h * h) / (2.0 * h);
-    let beta = (c / (2.0 * r)).asin();
-    let t = -beta + 2.0 * beta * u;
-    [r * t.sin() + 0.25 * c, h - r + r * t.cos()]
-}
-
-/// INVENTED TEST BLADE: a crescent twisted through 60° over the span.
-fn crescent() -> impl SpanSurface {
-    FnSurface {
-        span: [0.2, 0.8],
-        upper: |_x: f64, u: f64| arc(0.045, u),
-        lower: |_x: f64, u: f64| arc(0.034, u),
-        chord_angle: |x: f64| Angle::from_deg(-30.0 + 60.0 * (x - 0.2) / 0.6),
-        ends: ChainEnds { front: EndKind::Point, back: EndKind::Point },
-    }
 }
 
 fn mould() -> ModularMould {

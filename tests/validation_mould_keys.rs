@@ -56,7 +56,8 @@ fn arc(h: f64, u: f64) -> [f64; 2] {
     [r * t.sin() + 0.25 * c, h - r + r * t.cos()]
 }
 
-fn crescent() -> impl SpanSurface {
+/// INVENTED TEST BLADE: a crescent twisted through 60° over the span (also the module keys' test).
+pub(crate) fn crescent() -> impl SpanSurface {
     FnSurface {
         span: [0.2, 0.8],
         upper: |_x: f64, u: f64| arc(0.045, u),
