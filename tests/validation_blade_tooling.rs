@@ -127,7 +127,7 @@ fn demo_parts_end_on_their_spheres_at_every_pitch_in_the_range() {
 
 /// ∫ A(r) dr over the stations by Simpson's rule on each station interval (`n` even intervals
 /// each), A from the blade's own outline on 2000 intervals a surface.
-fn outer_volume_by_slices(blade: &Blade, n: usize) -> f64 {
+pub(crate) fn outer_volume_by_slices(blade: &Blade, n: usize) -> f64 {
     let area = |r: f64| blade.outline(r, 2000).expect("inside").area() * blade.chord(r).powi(2);
     let radii = blade.station_radii();
     radii

@@ -35,6 +35,8 @@ use layloft::tooling::{
 use layloft::units::Angle;
 use std::f64::consts::PI;
 
+use crate::validation_blade_tooling::outer_volume_by_slices;
+
 /// An elliptic root (closed, so its trailing edge is a point), a flat-backed section (blunt) and
 /// sharp NACA sections outboard.
 const ROUND_BLUNT_SHARP: &str = "\
@@ -85,23 +87,6 @@ fn build(blade: &Blade, tol: f64, ends: EndShape, print_fraction: f64) -> BladeT
         ..ToolingParams::default()
     };
     build_tooling(blade, &params, &mut |_, _, _| {}).unwrap_or_else(|e| panic!("{e}"))
-}
-
-/// ∫ A(r) dr over the stations by Simpson's rule on each station interval (`n` even intervals
-/// each), A from the blade's own outline on 2000 intervals a surface.
-fn outer_volume_by_slices(blade: &Blade, n: usize) -> f64 {
-    let area = |r: f64| blade.outline(r, 2000).expect("inside").area() * blade.chord(r).powi(2);
-    let radii = blade.station_radii();
-    radii
-        .windows(2)
-        .map(|w| {
-            let h = (w[1] - w[0]) / n as f64;
-            let inner: f64 = (1..n)
-                .map(|i| area(w[0] + h * i as f64) * if i % 2 == 1 { 4.0 } else { 2.0 })
-                .sum();
-            (area(w[0]) + area(w[1]) + inner) * h / 3.0
-        })
-        .sum()
 }
 
 /// Every part closed, outward, without degenerate facets or self-intersection.
