@@ -32,6 +32,7 @@ use layloft::tooling::{
 use layloft::units::Angle;
 
 use crate::common::inside_mesh as inside;
+use crate::common::shared::shared_tooling;
 
 fn mine_fan() -> (Project, Blade) {
     let project = read_project("layups/mine-fan/blade.toml".as_ref()).expect("the demo reads");
@@ -336,8 +337,8 @@ fn cores_close_at_the_trailing_edge_where_the_skins_leave_the_least_core_thickne
 fn mould_parts_in_their_machining_frames_sit_on_the_table_and_map_back_exactly() {
     // Rigid motion (geometry): q = Rᵀ(p − o) and back p = o + R q with R orthonormal; the back
     // face, normal to the pull, is the lowest face; its area is the block's X by Y (a rectangle).
-    let (project, blade) = mine_fan();
-    let t = build(&blade, &ToolingParams { tolerance: 0.5e-3, ..params(&project) });
+    let (project, _) = mine_fan();
+    let t = shared_tooling(&project, &ToolingParams { tolerance: 0.5e-3, ..params(&project) });
     assert_eq!(t.machining.len(), 4, "two halves and two end pieces");
     for (m, half) in t.machining.iter().zip(t.moulds.iter().chain(&t.end_pieces)) {
         let rotor = &part(&t, &m.part).mesh;
@@ -379,8 +380,8 @@ fn mould_parts_in_their_machining_frames_sit_on_the_table_and_map_back_exactly()
 
 #[test]
 fn the_demo_mould_parts_draft_and_fill_the_block_point_by_point() {
-    let (project, blade) = mine_fan();
-    let t = build(&blade, &ToolingParams { tolerance: 0.5e-3, ..params(&project) });
+    let (project, _) = mine_fan();
+    let t = shared_tooling(&project, &ToolingParams { tolerance: 0.5e-3, ..params(&project) });
     // The spherical ends go to end pieces, which draw along the span by at least the least draft
     // (the root cap at asin(x/|p|), geometry); no end undercut is left in the halves.
     let sides: Vec<&str> = t.end_pieces.iter().map(|e| e.side).collect();

@@ -17,6 +17,7 @@
 use std::path::Path;
 
 use crate::common::mine_fan_with_rear_web;
+use crate::common::shared::shared_tooling;
 use layloft::blade::Blade;
 use layloft::input::read_project;
 use layloft::mesh::{CheckParams, End, check_solid};
@@ -64,9 +65,10 @@ fn inside(mesh: &layloft::mesh::Mesh, p: P3) -> bool {
     crossings % 2 == 1
 }
 
-fn build(project: &Path, tol: f64) -> BladeTooling {
+/// The tooling of `project` (shared with the other tests that build the same, see
+/// tests/common/shared.rs).
+fn build(project: &Path, tol: f64) -> &'static BladeTooling {
     let project = read_project(project).expect("the project reads");
-    let blade = Blade::from_project(&project).expect("the blade lofts");
     let spec = project.tooling.as_ref().expect("[tooling]");
     // Prints asked for explicitly (on by default, at this fraction).
     let params = ToolingParams {
@@ -74,7 +76,7 @@ fn build(project: &Path, tol: f64) -> BladeTooling {
         print_fraction: 0.5,
         ..ToolingParams::from_spec(spec).unwrap()
     };
-    build_tooling(&blade, &params, &mut |_, _, _| {}).expect("the tooling builds")
+    shared_tooling(&project, &params)
 }
 
 /// The checks every print must pass (see the module docs); returns how many prints.
@@ -218,7 +220,6 @@ fn planar_ends_take_prints_and_ports_as_closed_outward_parts() {
     // shell pass the mesh check, and each drain point is its core's lowest point.
     let root = Path::new(env!("CARGO_MANIFEST_DIR"));
     let project = read_project(&root.join("layups/mine-fan/blade.toml")).unwrap();
-    let blade = Blade::from_project(&project).unwrap();
     let spec = project.tooling.as_ref().unwrap();
     let params = ToolingParams {
         tolerance: 0.5e-3,
@@ -226,7 +227,7 @@ fn planar_ends_take_prints_and_ports_as_closed_outward_parts() {
         print_fraction: 0.5,
         ..ToolingParams::from_spec(spec).unwrap()
     };
-    let t = build_tooling(&blade, &params, &mut |_, _, _| {}).expect("the tooling builds");
+    let t = shared_tooling(&project, &params);
     assert_eq!(t.prints.len(), 2);
     for part in t.parts.iter().filter(|p| matches!(p.kind, PartKind::Core | PartKind::Shell)) {
         check_solid(&part.mesh, &part.name, &CheckParams::default()).expect("closed, outward");
@@ -257,7 +258,7 @@ fn ports_take_the_end_laminate_out_of_the_shell_and_prints_add_to_the_cores() {
     };
     let off = ToolingParams { print_fraction: 0.0, ..on.clone() };
     let a = build_tooling(&blade, &off, &mut |_, _, _| {}).unwrap();
-    let b = build_tooling(&blade, &on, &mut |_, _, _| {}).unwrap();
+    let b = shared_tooling(&project, &on);
     let v = |t: &BladeTooling, name: &str| {
         t.parts.iter().find(|p| p.name == name).unwrap().mesh.signed_volume()
     };

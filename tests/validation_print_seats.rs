@@ -23,15 +23,16 @@
 
 use std::path::Path;
 
+use crate::common::shared::shared_tooling;
 use crate::common::{inside_mesh, mine_fan_with_rear_web};
-use layloft::blade::Blade;
 use layloft::input::read_project;
 use layloft::mesh::{CheckParams, End, check_solid};
-use layloft::tooling::{BladeTooling, EndShape, PartKind, ToolingParams, build_tooling};
+use layloft::tooling::{BladeTooling, EndShape, PartKind, ToolingParams};
 
-fn build(project: &Path, ends: EndShape) -> BladeTooling {
+/// The tooling of `project` (shared with the other tests that build the same, see
+/// tests/common/shared.rs).
+fn build(project: &Path, ends: EndShape) -> &'static BladeTooling {
     let project = read_project(project).expect("the project reads");
-    let blade = Blade::from_project(&project).expect("the blade lofts");
     let spec = project.tooling.as_ref().expect("[tooling]");
     // Prints of half the core's end section (0.5, 15 mm long), the default, asked for explicitly.
     let params = ToolingParams {
@@ -40,7 +41,7 @@ fn build(project: &Path, ends: EndShape) -> BladeTooling {
         print_fraction: 0.5,
         ..ToolingParams::from_spec(spec).unwrap()
     };
-    build_tooling(&blade, &params, &mut |_, _, _| {}).expect("the tooling builds")
+    shared_tooling(&project, &params)
 }
 
 fn demo() -> std::path::PathBuf {
