@@ -300,7 +300,10 @@ fn mould_parts_part_and_socket_clearances_fill_the_block() {
 fn cores_close_at_the_trailing_edge_where_the_skins_leave_the_least_core_thickness() {
     let (project, blade) = mine_fan();
     let p = params(&project);
-    let t = build(&blade, &p);
+    // Where the cores close is solved from the blade's surfaces every 4 mm or so along the span,
+    // not from the meshes, so it does not depend on the chordal tolerance: the build at 0.5 mm
+    // the other tests of the demo share (the demo's own is 0.1 mm) gives the same core ends.
+    let t = shared_tooling(&project, &ToolingParams { tolerance: 0.5e-3, ..p.clone() });
     // Away from spanwise ply drops, whose ramps (see layloft::blade::BladeSurfaces) the
     // schedule's step thickness does not have.
     let near_drop = |r: f64| {
