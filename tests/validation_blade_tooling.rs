@@ -91,7 +91,7 @@ fn demo_parts_end_on_their_spheres_at_every_pitch_in_the_range() {
             owned = build(&blade, &params);
             &owned
         };
-        let shell = part(&t, "shell");
+        let shell = part(t, "shell");
         // Least clearance to the duct sphere of radius R_tip, and to the hub sphere.
         let (near, far) = reach(&shell.mesh);
         let duct_gap = rotor.tip_radius - far;
@@ -353,7 +353,7 @@ fn mould_parts_in_their_machining_frames_sit_on_the_table_and_map_back_exactly()
     let t = shared_tooling(&project, &ToolingParams { tolerance: 0.5e-3, ..params(&project) });
     assert_eq!(t.machining.len(), 4, "two halves and two end pieces");
     for (m, half) in t.machining.iter().zip(t.moulds.iter().chain(&t.end_pieces)) {
-        let rotor = &part(&t, &m.part).mesh;
+        let rotor = &part(t, &m.part).mesh;
         let f = m.frame;
         for a in 0..3 {
             for b in 0..3 {
@@ -415,11 +415,11 @@ fn the_demo_mould_parts_draft_and_fill_the_block_point_by_point() {
     // socket clearance, 87 mm³ in 28.6 litres, is hit by 1000 points with odds of about 3e-3.
     let ez = t.moulds[0].pull;
     let ey = [0.0, ez[2], -ez[1]];
-    let upper = &part(&t, "mould-upper").mesh;
+    let upper = &part(t, "mould-upper").mesh;
     let (lo, hi) = upper
         .vertices
         .iter()
-        .chain(&part(&t, "mould-lower").mesh.vertices)
+        .chain(&part(t, "mould-lower").mesh.vertices)
         .map(|&p| [p[0], p[0] * 0.0 + p[1] * ey[1] + p[2] * ey[2], p[1] * ez[1] + p[2] * ez[2]])
         .fold(([f64::INFINITY; 3], [f64::NEG_INFINITY; 3]), |(lo, hi), q| {
             ([0, 1, 2].map(|k| lo[k].min(q[k])), [0, 1, 2].map(|k| hi[k].max(q[k])))

@@ -146,14 +146,14 @@ fn check_prints(t: &BladeTooling) -> usize {
 fn one_web_demo_prints_seat_in_the_ports_at_the_root_and_drain_at_their_ends() {
     let root = Path::new(env!("CARGO_MANIFEST_DIR"));
     let t = build(&root.join("layups/mine-fan/blade.toml"), 0.5e-3);
-    assert_eq!(check_prints(&t), 2);
+    assert_eq!(check_prints(t), 2);
     assert!(t.prints.iter().all(|p| p.end == End::Root && p.down == [-1.0, 0.0, 0.0]));
     assert!(t.unprinted.is_empty());
     // The print's volume is its section times its length beyond the core's end at least.
     for p in &t.prints {
         assert!(p.volume > p.section_area * p.length, "{}", p.core);
     }
-    let (orientation, findings) = drain_plan(&t, t.params.tolerance);
+    let (orientation, findings) = drain_plan(t, t.params.tolerance);
     assert_eq!(orientation.len(), 1, "{orientation:?}");
     let words = orientation[0].to_string();
     assert!(words.contains("root end") && words.contains("core-1, core-2"));
@@ -177,14 +177,14 @@ fn a_core_that_starts_at_a_bulkhead_takes_its_print_through_the_tip() {
     // starts there and reaches only the tip.
     let dir = tempfile::tempdir().unwrap();
     let t = build(&mine_fan_with_rear_web(dir.path(), Some((0.0, 0.70))), 0.5e-3);
-    assert_eq!(check_prints(&t), 4);
+    assert_eq!(check_prints(t), 4);
     let ends: Vec<(&str, End)> = t.prints.iter().map(|p| (p.core.as_str(), p.end)).collect();
     assert_eq!(
         ends,
         [("core-1", End::Root), ("core-2", End::Root), ("core-3", End::Root), ("core-4", End::Tip)]
     );
     assert_eq!(t.prints[3].down, [1.0, 0.0, 0.0]);
-    let (orientation, _) = drain_plan(&t, t.params.tolerance);
+    let (orientation, _) = drain_plan(t, t.params.tolerance);
     assert_eq!(orientation.len(), 2, "{orientation:?}");
     let words = orientation[1].to_string();
     assert!(words.contains("tip end") && words.contains("core-4"));
@@ -196,9 +196,9 @@ fn cores_sealed_between_bulkheads_get_no_print_and_are_flagged() {
     // bulkheads reach neither end of the blade.
     let dir = tempfile::tempdir().unwrap();
     let t = build(&mine_fan_with_rear_web(dir.path(), Some((0.55, 0.75))), 0.5e-3);
-    check_prints(&t);
+    check_prints(t);
     assert_eq!(t.unprinted.len(), 2, "{:?}", t.unprinted);
-    let (_, findings) = drain_plan(&t, t.params.tolerance);
+    let (_, findings) = drain_plan(t, t.params.tolerance);
     for core in &t.unprinted {
         assert!(
             findings
@@ -264,10 +264,10 @@ fn ports_take_the_end_laminate_out_of_the_shell_and_prints_add_to_the_cores() {
     };
     let mut ports = 0.0;
     for p in &b.prints {
-        let gain = v(&b, &p.core) - v(&a, &p.core);
+        let gain = v(b, &p.core) - v(&a, &p.core);
         assert!((gain / p.volume - 1.0).abs() < 1e-9, "{}: {gain} vs {}", p.core, p.volume);
         ports += p.section_area * b.ends.root_laminate;
     }
-    let lost = v(&a, "shell") - v(&b, "shell");
+    let lost = v(&a, "shell") - v(b, "shell");
     assert!((lost - ports).abs() < 0.1 * ports, "shell lost {lost} m³, ports {ports} m³");
 }

@@ -197,11 +197,11 @@ fn check_casting(t: &BladeTooling) {
 fn demo_prints_sit_in_seats_in_the_root_end_piece_and_are_cast_with_their_cores() {
     let t = build(&demo(), EndShape::Spheres);
     assert_eq!(t.prints.len(), 2);
-    assert!(check_seats(&t) >= 40);
-    check_mould(&t);
-    check_casting(&t);
+    assert!(check_seats(t) >= 40);
+    check_mould(t);
+    check_casting(t);
     // No print is left to be pocketed by hand.
-    let (_, findings) = layloft::tooling::drain_plan(&t, t.params.tolerance);
+    let (_, findings) = layloft::tooling::drain_plan(t, t.params.tolerance);
     assert!(!findings.iter().any(|f| f.note.to_string().contains("NO SEAT")));
 }
 
@@ -210,9 +210,9 @@ fn a_print_through_the_tip_sits_in_the_tip_end_piece() {
     let dir = tempfile::tempdir().unwrap();
     let t = build(&mine_fan_with_rear_web(dir.path(), Some((0.0, 0.70))), EndShape::Spheres);
     assert!(t.prints.iter().any(|p| p.end == End::Tip));
-    assert!(check_seats(&t) >= 80);
-    check_mould(&t);
-    check_casting(&t);
+    assert!(check_seats(t) >= 80);
+    check_mould(t);
+    check_casting(t);
 }
 
 #[test]
@@ -222,8 +222,8 @@ fn square_ends_get_an_end_piece_where_a_print_leaves() {
     let t = build(&demo(), EndShape::Planes);
     let sides: Vec<&str> = t.end_pieces.iter().map(|h| h.side).collect();
     assert_eq!(sides, ["root end"]);
-    check_seats(&t);
-    check_mould(&t);
+    check_seats(t);
+    check_mould(t);
 }
 
 #[test]
@@ -247,7 +247,7 @@ fn a_thin_trailing_edge_cell_gets_a_tapered_print_that_sits_in_its_seat() {
     let t = build(&project, EndShape::Spheres);
     assert_eq!(t.prints.len(), 3);
     assert!(t.unprinted.is_empty());
-    assert!(check_seats(&t) >= 120);
-    check_mould(&t);
-    check_casting(&t);
+    assert!(check_seats(t) >= 120);
+    check_mould(t);
+    check_casting(t);
 }

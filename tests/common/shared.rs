@@ -16,12 +16,13 @@ type Builds<T> = Mutex<HashMap<String, &'static OnceLock<T>>>;
 
 /// The cell of `key` in `builds`, made empty on the first ask.
 fn cell<T>(builds: &'static OnceLock<Builds<T>>, key: String) -> &'static OnceLock<T> {
-    *builds
-        .get_or_init(Default::default)
-        .lock()
-        .unwrap_or_else(|e| e.into_inner())
-        .entry(key)
-        .or_insert_with(|| Box::leak(Box::new(OnceLock::new())))
+    let mut map = builds.get_or_init(Default::default).lock().unwrap_or_else(|e| e.into_inner());
+    if let Some(&cell) = map.get(&key) {
+        return cell;
+    }
+    let cell: &'static OnceLock<T> = Box::leak(Box::new(OnceLock::new()));
+    map.insert(key, cell);
+    cell
 }
 
 /// The tooling of `project` with `params`, built once per test binary.
