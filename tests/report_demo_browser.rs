@@ -7,8 +7,7 @@
 
 use std::fs;
 
-use crate::support_browser::{browser_or_skip, screenshot_dir, static_problems};
-use crate::support_run::Command;
+use crate::support_browser::{browser_or_skip, demo_report, screenshot_dir, static_problems};
 
 /// The figures the report must show (issue 7): planform and twist, spanwise stiffness and mass,
 /// section drawings, the reserve-factor map, the pitching moment over the pitch range, the
@@ -26,14 +25,15 @@ const EXPECTED: [&str; 8] = [
 
 #[test]
 fn the_demo_report_loads_cleanly_with_every_figure() {
-    let dir = tempfile::tempdir().unwrap();
-    Command::cargo_bin("layloft")
-        .unwrap()
-        .args(["report", "layups/mine-fan/blade.toml", "--out"])
-        .arg(dir.path())
-        .assert()
-        .success();
-    let page = dir.path().join("report.html");
+    // The report run shared with the other tests of the binary that read it.
+    let (dir, output) = demo_report();
+    assert!(
+        output.status.success(),
+        "layloft report of the demo: {}\n{}",
+        output.status,
+        String::from_utf8_lossy(&output.stderr)
+    );
+    let page = dir.join("report.html");
     let html = fs::read_to_string(&page).unwrap();
     let ids: Vec<String> = html
         .match_indices("data-figure=\"")
@@ -49,7 +49,7 @@ fn the_demo_report_loads_cleanly_with_every_figure() {
     for (i, m) in html.match_indices("href=\"") {
         let target = html[i + m.len()..].split('"').next().unwrap_or_default();
         if !target.starts_with('#') {
-            assert!(dir.path().join(target).is_file(), "linked file {target} missing");
+            assert!(dir.join(target).is_file(), "linked file {target} missing");
         }
     }
 

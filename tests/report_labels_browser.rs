@@ -10,8 +10,11 @@
 use std::fs;
 use std::path::Path;
 
-use crate::support_browser::browser_or_skip;
+use crate::support_browser::{browser_or_skip, demo_report};
 use crate::support_run::Command;
+
+/// The mine-fan demo, whose report is the one the binary's tests share.
+const DEMO: &str = "layups/mine-fan";
 
 /// Collects, for every figure, the texts that leave the drawing and the pairs that overlap by
 /// more than a pixel each way (glyph boxes of neighbouring lines may touch), and writes them
@@ -52,17 +55,24 @@ const PROBE: &str = r#"<script>
 })();
 </script>"#;
 
-/// Writes the report of `project` into `out` and returns the probe page beside it.
+/// Writes the report of `project` into `out` (the mine-fan demo's is the one the binary's
+/// tests share, already written) and returns the probe page beside it.
 fn report_with_probe(project: &Path, out: &Path) -> std::path::PathBuf {
-    let status = Command::cargo_bin("layloft")
-        .unwrap()
-        .current_dir(env!("CARGO_MANIFEST_DIR"))
-        .arg("report")
-        .arg(project)
-        .arg("--out")
-        .arg(out)
-        .output()
-        .unwrap();
+    let (out, status) = if project == Path::new(DEMO) {
+        let (dir, output) = demo_report();
+        (dir.as_path(), output.clone())
+    } else {
+        let output = Command::cargo_bin("layloft")
+            .unwrap()
+            .current_dir(env!("CARGO_MANIFEST_DIR"))
+            .arg("report")
+            .arg(project)
+            .arg("--out")
+            .arg(out)
+            .output()
+            .unwrap();
+        (out, output)
+    };
     assert!(
         status.status.code().is_some_and(|c| c == 0 || c == 1),
         "report of {}: {}",
@@ -103,19 +113,36 @@ fn no_label_overlaps_another_or_leaves_its_figure() {
     let crowded = tmp.path().join("crowded");
     fs::create_dir(&crowded).unwrap();
     let projects = [
-        Path::new("layups/mine-fan").to_path_buf(),
+        Path::new(DEMO).to_path_buf(),
         Path::new("layups/small-wind").to_path_buf(),
         crowded_blade(&crowded),
     ];
-    let mut pages = Vec::new();
-    for (i, project) in projects.iter().enumerate() {
-        let out = tmp.path().join(format!("report-{i}"));
-        pages.push((project.clone(), report_with_probe(project, &out)));
-    }
+    // The reports are written side by side, and the pages loaded side by side: each is a
+    // process of its own (a browser run has its own profile folder).
+    let pages: Vec<_> = std::thread::scope(|s| {
+        let runs: Vec<_> = projects
+            .iter()
+            .enumerate()
+            .map(|(i, project)| {
+                let out = tmp.path().join(format!("report-{i}"));
+                s.spawn(move || (project.clone(), report_with_probe(project, &out)))
+            })
+            .collect();
+        runs.into_iter().map(|r| r.join().expect("the report run")).collect()
+    });
     let Some(browser) = browser_or_skip("figure labels") else { return };
+    let doms: Vec<String> = std::thread::scope(|s| {
+        let loads: Vec<_> = pages
+            .iter()
+            .map(|(_, page)| {
+                let browser = &browser;
+                s.spawn(move || browser.load(page).unwrap().0)
+            })
+            .collect();
+        loads.into_iter().map(|l| l.join().expect("the browser run")).collect()
+    });
     let mut problems = Vec::new();
-    for (project, page) in &pages {
-        let (dom, _) = browser.load(page).unwrap();
+    for ((project, _), dom) in pages.iter().zip(&doms) {
         let marker = "<pre id=\"label-probe\">";
         let start = dom.find(marker).expect("the probe script ran") + marker.len();
         let end = start + dom[start..].find("</pre>").expect("the probe's output is closed");

@@ -17,6 +17,7 @@
 use std::path::Path;
 
 use crate::common::mine_fan_with_rear_web;
+use crate::common::shared::shared_tooling;
 use layloft::blade::Blade;
 use layloft::input::read_project;
 use layloft::mesh::{CheckParams, End, check_solid};
@@ -64,9 +65,10 @@ fn inside(mesh: &layloft::mesh::Mesh, p: P3) -> bool {
     crossings % 2 == 1
 }
 
-fn build(project: &Path, tol: f64) -> BladeTooling {
+/// The tooling of `project` (shared with the other tests that build the same, see
+/// tests/common/shared.rs).
+fn build(project: &Path, tol: f64) -> &'static BladeTooling {
     let project = read_project(project).expect("the project reads");
-    let blade = Blade::from_project(&project).expect("the blade lofts");
     let spec = project.tooling.as_ref().expect("[tooling]");
     // Prints asked for explicitly (on by default, at this fraction).
     let params = ToolingParams {
@@ -74,7 +76,7 @@ fn build(project: &Path, tol: f64) -> BladeTooling {
         print_fraction: 0.5,
         ..ToolingParams::from_spec(spec).unwrap()
     };
-    build_tooling(&blade, &params, &mut |_, _, _| {}).expect("the tooling builds")
+    shared_tooling(&project, &params)
 }
 
 /// The checks every print must pass (see the module docs); returns how many prints.
@@ -144,14 +146,14 @@ fn check_prints(t: &BladeTooling) -> usize {
 fn one_web_demo_prints_seat_in_the_ports_at_the_root_and_drain_at_their_ends() {
     let root = Path::new(env!("CARGO_MANIFEST_DIR"));
     let t = build(&root.join("layups/mine-fan/blade.toml"), 0.5e-3);
-    assert_eq!(check_prints(&t), 2);
+    assert_eq!(check_prints(t), 2);
     assert!(t.prints.iter().all(|p| p.end == End::Root && p.down == [-1.0, 0.0, 0.0]));
     assert!(t.unprinted.is_empty());
     // The print's volume is its section times its length beyond the core's end at least.
     for p in &t.prints {
         assert!(p.volume > p.section_area * p.length, "{}", p.core);
     }
-    let (orientation, findings) = drain_plan(&t, t.params.tolerance);
+    let (orientation, findings) = drain_plan(t, t.params.tolerance);
     assert_eq!(orientation.len(), 1, "{orientation:?}");
     let words = orientation[0].to_string();
     assert!(words.contains("root end") && words.contains("core-1, core-2"));
@@ -175,14 +177,14 @@ fn a_core_that_starts_at_a_bulkhead_takes_its_print_through_the_tip() {
     // starts there and reaches only the tip.
     let dir = tempfile::tempdir().unwrap();
     let t = build(&mine_fan_with_rear_web(dir.path(), Some((0.0, 0.70))), 0.5e-3);
-    assert_eq!(check_prints(&t), 4);
+    assert_eq!(check_prints(t), 4);
     let ends: Vec<(&str, End)> = t.prints.iter().map(|p| (p.core.as_str(), p.end)).collect();
     assert_eq!(
         ends,
         [("core-1", End::Root), ("core-2", End::Root), ("core-3", End::Root), ("core-4", End::Tip)]
     );
     assert_eq!(t.prints[3].down, [1.0, 0.0, 0.0]);
-    let (orientation, _) = drain_plan(&t, t.params.tolerance);
+    let (orientation, _) = drain_plan(t, t.params.tolerance);
     assert_eq!(orientation.len(), 2, "{orientation:?}");
     let words = orientation[1].to_string();
     assert!(words.contains("tip end") && words.contains("core-4"));
@@ -194,9 +196,9 @@ fn cores_sealed_between_bulkheads_get_no_print_and_are_flagged() {
     // bulkheads reach neither end of the blade.
     let dir = tempfile::tempdir().unwrap();
     let t = build(&mine_fan_with_rear_web(dir.path(), Some((0.55, 0.75))), 0.5e-3);
-    check_prints(&t);
+    check_prints(t);
     assert_eq!(t.unprinted.len(), 2, "{:?}", t.unprinted);
-    let (_, findings) = drain_plan(&t, t.params.tolerance);
+    let (_, findings) = drain_plan(t, t.params.tolerance);
     for core in &t.unprinted {
         assert!(
             findings
@@ -218,7 +220,6 @@ fn planar_ends_take_prints_and_ports_as_closed_outward_parts() {
     // shell pass the mesh check, and each drain point is its core's lowest point.
     let root = Path::new(env!("CARGO_MANIFEST_DIR"));
     let project = read_project(&root.join("layups/mine-fan/blade.toml")).unwrap();
-    let blade = Blade::from_project(&project).unwrap();
     let spec = project.tooling.as_ref().unwrap();
     let params = ToolingParams {
         tolerance: 0.5e-3,
@@ -226,7 +227,7 @@ fn planar_ends_take_prints_and_ports_as_closed_outward_parts() {
         print_fraction: 0.5,
         ..ToolingParams::from_spec(spec).unwrap()
     };
-    let t = build_tooling(&blade, &params, &mut |_, _, _| {}).expect("the tooling builds");
+    let t = shared_tooling(&project, &params);
     assert_eq!(t.prints.len(), 2);
     for part in t.parts.iter().filter(|p| matches!(p.kind, PartKind::Core | PartKind::Shell)) {
         check_solid(&part.mesh, &part.name, &CheckParams::default()).expect("closed, outward");
@@ -257,16 +258,16 @@ fn ports_take_the_end_laminate_out_of_the_shell_and_prints_add_to_the_cores() {
     };
     let off = ToolingParams { print_fraction: 0.0, ..on.clone() };
     let a = build_tooling(&blade, &off, &mut |_, _, _| {}).unwrap();
-    let b = build_tooling(&blade, &on, &mut |_, _, _| {}).unwrap();
+    let b = shared_tooling(&project, &on);
     let v = |t: &BladeTooling, name: &str| {
         t.parts.iter().find(|p| p.name == name).unwrap().mesh.signed_volume()
     };
     let mut ports = 0.0;
     for p in &b.prints {
-        let gain = v(&b, &p.core) - v(&a, &p.core);
+        let gain = v(b, &p.core) - v(&a, &p.core);
         assert!((gain / p.volume - 1.0).abs() < 1e-9, "{}: {gain} vs {}", p.core, p.volume);
         ports += p.section_area * b.ends.root_laminate;
     }
-    let lost = v(&a, "shell") - v(&b, "shell");
+    let lost = v(&a, "shell") - v(b, "shell");
     assert!((lost - ports).abs() < 0.1 * ports, "shell lost {lost} m³, ports {ports} m³");
 }

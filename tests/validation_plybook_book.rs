@@ -6,9 +6,10 @@
 use std::io::Cursor;
 
 use crate::common::mesh_area;
+use crate::common::shared::shared_ply_book;
 use layloft::blade::Blade;
 use layloft::input::read_project;
-use layloft::plybook::{PlyBook, PlyBookParams, build_ply_book, pattern_dxf, ply_regions};
+use layloft::plybook::{PlyBook, PlyBookParams, pattern_dxf, ply_regions};
 
 fn mine_fan() -> (layloft::project::Project, Blade) {
     let project = read_project("layups/mine-fan/blade.toml".as_ref()).expect("demo project");
@@ -16,8 +17,10 @@ fn mine_fan() -> (layloft::project::Project, Blade) {
     (project, blade)
 }
 
-fn book(project: &layloft::project::Project, blade: &Blade) -> PlyBook {
-    build_ply_book(blade, project, &PlyBookParams::default()).expect("ply book")
+/// The demo's ply book with the default settings (built once for the binary's tests, see
+/// tests/common/shared.rs).
+fn book(project: &layloft::project::Project, _blade: &Blade) -> &'static PlyBook {
+    shared_ply_book(project, &PlyBookParams::default())
 }
 
 #[test]

@@ -13,6 +13,7 @@ use std::path::Path;
 use std::sync::OnceLock;
 
 use crate::common::mesh_area;
+use crate::common::shared::shared_ply_book;
 use layloft::analysis::BladeModel;
 use layloft::blade::Blade;
 use layloft::input::read_project;
@@ -82,22 +83,20 @@ fn book(project: &Project, blade: &Blade) -> PlyBook {
 }
 
 /// A demo's model (sections at no extra radii) and its ply book with the default settings, built
-/// once for every test of this file that reads them: the book of a demo is the slowest thing
+/// once for every test of the binary that reads them: the book of a demo is the slowest thing
 /// these tests compute, and a test that comes second waits for the first instead of repeating it.
 fn demo_book(name: &str) -> (&'static BladeModel, &'static PlyBook) {
-    static SMALL_WIND: OnceLock<(BladeModel, PlyBook)> = OnceLock::new();
-    static MINE_FAN: OnceLock<(BladeModel, PlyBook)> = OnceLock::new();
+    static SMALL_WIND: OnceLock<BladeModel> = OnceLock::new();
+    static MINE_FAN: OnceLock<BladeModel> = OnceLock::new();
     let cell = match name {
         "small-wind" => &SMALL_WIND,
         "mine-fan" => &MINE_FAN,
         other => panic!("no demo called {other}"),
     };
-    let (model, book) = cell.get_or_init(|| {
-        let model = BladeModel::build_at(demo(name), &[]).expect("model");
-        let book = book(&model.project, &model.blade);
-        (model, book)
-    });
-    (model, book)
+    let model = cell.get_or_init(|| BladeModel::build_at(demo(name), &[]).expect("model"));
+    // The book of the model's own project (its blade is lofted from it), shared with the other
+    // files of the binary that read the same book.
+    (model, shared_ply_book(&model.project, &PlyBookParams::default()))
 }
 
 /// Every region of the schedule is in the kit, whole or in pieces that tile it: the pieces'

@@ -23,15 +23,16 @@
 
 use std::path::Path;
 
+use crate::common::shared::shared_tooling;
 use crate::common::{inside_mesh, mine_fan_with_rear_web};
-use layloft::blade::Blade;
 use layloft::input::read_project;
 use layloft::mesh::{CheckParams, End, check_solid};
-use layloft::tooling::{BladeTooling, EndShape, PartKind, ToolingParams, build_tooling};
+use layloft::tooling::{BladeTooling, EndShape, PartKind, ToolingParams};
 
-fn build(project: &Path, ends: EndShape) -> BladeTooling {
+/// The tooling of `project` (shared with the other tests that build the same, see
+/// tests/common/shared.rs).
+fn build(project: &Path, ends: EndShape) -> &'static BladeTooling {
     let project = read_project(project).expect("the project reads");
-    let blade = Blade::from_project(&project).expect("the blade lofts");
     let spec = project.tooling.as_ref().expect("[tooling]");
     // Prints of half the core's end section (0.5, 15 mm long), the default, asked for explicitly.
     let params = ToolingParams {
@@ -40,7 +41,7 @@ fn build(project: &Path, ends: EndShape) -> BladeTooling {
         print_fraction: 0.5,
         ..ToolingParams::from_spec(spec).unwrap()
     };
-    build_tooling(&blade, &params, &mut |_, _, _| {}).expect("the tooling builds")
+    shared_tooling(&project, &params)
 }
 
 fn demo() -> std::path::PathBuf {
@@ -196,11 +197,11 @@ fn check_casting(t: &BladeTooling) {
 fn demo_prints_sit_in_seats_in_the_root_end_piece_and_are_cast_with_their_cores() {
     let t = build(&demo(), EndShape::Spheres);
     assert_eq!(t.prints.len(), 2);
-    assert!(check_seats(&t) >= 40);
-    check_mould(&t);
-    check_casting(&t);
+    assert!(check_seats(t) >= 40);
+    check_mould(t);
+    check_casting(t);
     // No print is left to be pocketed by hand.
-    let (_, findings) = layloft::tooling::drain_plan(&t, t.params.tolerance);
+    let (_, findings) = layloft::tooling::drain_plan(t, t.params.tolerance);
     assert!(!findings.iter().any(|f| f.note.to_string().contains("NO SEAT")));
 }
 
@@ -209,9 +210,9 @@ fn a_print_through_the_tip_sits_in_the_tip_end_piece() {
     let dir = tempfile::tempdir().unwrap();
     let t = build(&mine_fan_with_rear_web(dir.path(), Some((0.0, 0.70))), EndShape::Spheres);
     assert!(t.prints.iter().any(|p| p.end == End::Tip));
-    assert!(check_seats(&t) >= 80);
-    check_mould(&t);
-    check_casting(&t);
+    assert!(check_seats(t) >= 80);
+    check_mould(t);
+    check_casting(t);
 }
 
 #[test]
@@ -221,8 +222,8 @@ fn square_ends_get_an_end_piece_where_a_print_leaves() {
     let t = build(&demo(), EndShape::Planes);
     let sides: Vec<&str> = t.end_pieces.iter().map(|h| h.side).collect();
     assert_eq!(sides, ["root end"]);
-    check_seats(&t);
-    check_mould(&t);
+    check_seats(t);
+    check_mould(t);
 }
 
 #[test]
@@ -246,7 +247,7 @@ fn a_thin_trailing_edge_cell_gets_a_tapered_print_that_sits_in_its_seat() {
     let t = build(&project, EndShape::Spheres);
     assert_eq!(t.prints.len(), 3);
     assert!(t.unprinted.is_empty());
-    assert!(check_seats(&t) >= 120);
-    check_mould(&t);
-    check_casting(&t);
+    assert!(check_seats(t) >= 120);
+    check_mould(t);
+    check_casting(t);
 }

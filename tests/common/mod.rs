@@ -10,6 +10,8 @@ use layloft::material::Lamina;
 use layloft::section::{SectionLayout, WebLayout};
 use layloft::units::Angle;
 
+pub mod shared;
+
 /// An isotropic layer as a lamina: E, nu, sheet thickness (m), density (kg/m³).
 pub fn isotropic(name: &str, e: f64, nu: f64, t: f64, rho: f64) -> Lamina {
     Lamina::builder(name)

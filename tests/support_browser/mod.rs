@@ -60,3 +60,29 @@ pub fn screenshot_dir() -> PathBuf {
         .unwrap_or_else(|e| panic!("cannot create {}: {e}", dir.display()));
     dir
 }
+
+/// The mine-fan demo's report (`layloft report layups/mine-fan/blade.toml --out DIR`), run once
+/// for every test of the binary that reads it: its folder (`report-mine-fan` beside
+/// [`screenshot_dir`], written afresh by each run of the binary) and the command's output, whose
+/// exit status each test checks as it needs. A test may add files of its own to the folder but
+/// never changes the report's.
+pub fn demo_report() -> &'static (PathBuf, std::process::Output) {
+    static REPORT: std::sync::OnceLock<(PathBuf, std::process::Output)> =
+        std::sync::OnceLock::new();
+    REPORT.get_or_init(|| {
+        let tmp = PathBuf::from(env!("CARGO_TARGET_TMPDIR"));
+        let dir = tmp.parent().map(|p| p.join("report-mine-fan")).unwrap_or(tmp);
+        if dir.exists() {
+            std::fs::remove_dir_all(&dir)
+                .unwrap_or_else(|e| panic!("cannot clear {}: {e}", dir.display()));
+        }
+        let output = crate::support_run::Command::cargo_bin("layloft")
+            .expect("the binary")
+            .current_dir(env!("CARGO_MANIFEST_DIR"))
+            .args(["report", "layups/mine-fan/blade.toml", "--out"])
+            .arg(&dir)
+            .output()
+            .expect("layloft runs");
+        (dir, output)
+    })
+}
