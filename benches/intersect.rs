@@ -7,8 +7,9 @@
 //! a grid sized to the bounding box. Each mesh is checked whole (`check_solid`) with and without
 //! the self-intersection test; the difference is the test's time. Medians of several runs.
 //!
-//! Printed: triangles, the test's time and its time per triangle at each size, and the exponent
-//! `b` of `time ∝ n^b` fitted by least squares on the logarithms (1 is linear growth).
+//! Printed: triangles, the test's time and its time per triangle at each size, wall clock and
+//! CPU time of the thread (the scheduler's count, Linux), and the exponents `b` of `time ∝ n^b`
+//! fitted by least squares on the logarithms (1 is linear growth).
 //! Floor, by arithmetic: per triangle the test must at least read its corners and place it in
 //! the cells (about 20 ns), and test its neighbours sharing a vertex or an edge (about 6 pairs,
 //! each a few dot products: about 40 ns), so about 0.06–0.1 µs per triangle.
@@ -22,6 +23,14 @@ use layloft::units::Angle;
 fn yt(x: f64) -> f64 {
     0.6 * (0.2969 * x.sqrt() - 0.1260 * x - 0.3516 * x * x + 0.2843 * x.powi(3)
         - 0.1015 * x.powi(4))
+}
+
+/// CPU time of this thread so far, s, from the scheduler's count (Linux); `None` elsewhere. On
+/// a shared machine the wall clock includes the time spent waiting for a core; this does not.
+fn thread_cpu() -> Option<f64> {
+    let text = std::fs::read_to_string("/proc/thread-self/schedstat").ok()?;
+    let ns: f64 = text.split_whitespace().next()?.parse().ok()?;
+    Some(ns * 1e-9)
 }
 
 fn median(mut v: Vec<f64>) -> f64 {
@@ -47,7 +56,11 @@ fn main() {
     let with = CheckParams::default();
     let without = CheckParams { self_intersection: false, ..CheckParams::default() };
     let mut points = Vec::new();
-    println!("{:>10} {:>12} {:>12} {:>10}", "triangles", "check_ms", "intersect_ms", "us/tri");
+    println!(
+        "{:>10} {:>12} {:>12} {:>10} {:>14} {:>10}",
+        "triangles", "check_ms", "intersect_ms", "us/tri", "cpu_intersect", "cpu_us/tri"
+    );
+    let mut cpu_points = Vec::new();
     for tolerance in [40e-6, 10e-6, 2.5e-6, 0.8e-6, 0.2e-6] {
         let params = LoftParams { tolerance, ..LoftParams::default() };
         let solid = match loft_solid(&surface, &trims, &params) {
@@ -56,32 +69,43 @@ fn main() {
         };
         let n = solid.mesh.len();
         let runs = if n < 100_000 { 15 } else { 5 };
+        // Median wall and CPU time of `runs` checks.
         let time = |p: &CheckParams| {
-            median(
-                (0..runs)
-                    .map(|_| {
-                        let t = Instant::now();
-                        let s = check_solid(&solid.mesh, "blade", p);
-                        assert!(s.is_ok(), "the benchmark blade checks: {s:?}");
-                        t.elapsed().as_secs_f64()
-                    })
-                    .collect(),
-            )
+            let (wall, cpu): (Vec<f64>, Vec<f64>) = (0..runs)
+                .map(|_| {
+                    let (t, c) = (Instant::now(), thread_cpu());
+                    let s = check_solid(&solid.mesh, "blade", p);
+                    assert!(s.is_ok(), "the benchmark blade checks: {s:?}");
+                    let wall = t.elapsed().as_secs_f64();
+                    (wall, thread_cpu().zip(c).map_or(wall, |(b, a)| b - a))
+                })
+                .unzip();
+            (median(wall), median(cpu))
         };
-        let (full, rest) = (time(&with), time(&without));
+        let ((full, full_cpu), (rest, rest_cpu)) = (time(&with), time(&without));
         let test = (full - rest).max(1e-9);
+        let test_cpu = (full_cpu - rest_cpu).max(1e-9);
         println!(
-            "{n:>10} {:>12.2} {:>12.2} {:>10.3}",
+            "{n:>10} {:>12.2} {:>12.2} {:>10.3} {:>14.2} {:>10.3}",
             full * 1e3,
             test * 1e3,
-            test * 1e6 / n as f64
+            test * 1e6 / n as f64,
+            test_cpu * 1e3,
+            test_cpu * 1e6 / n as f64
         );
         points.push(((n as f64).ln(), test.ln()));
+        cpu_points.push(((n as f64).ln(), test_cpu.ln()));
     }
+    println!("self-intersection time grows as n^{:.3}", slope(&points));
+    println!("self-intersection CPU time grows as n^{:.3}", slope(&cpu_points));
+}
+
+/// The slope of a least-squares line through `points`.
+fn slope(points: &[(f64, f64)]) -> f64 {
     let m = points.len() as f64;
     let (sx, sy) = points.iter().fold((0.0, 0.0), |(a, b), p| (a + p.0, b + p.1));
     let (mx, my) = (sx / m, sy / m);
     let sxy: f64 = points.iter().map(|p| (p.0 - mx) * (p.1 - my)).sum();
     let sxx: f64 = points.iter().map(|p| (p.0 - mx) * (p.0 - mx)).sum();
-    println!("self-intersection time grows as n^{:.3}", sxy / sxx);
+    sxy / sxx
 }

@@ -31,19 +31,18 @@ const SQUARE_BOUND: f64 = 2.000_001;
 /// root.
 const SQUARE_FLOOR: f64 = 0.999_999;
 
-/// A triangle with what the tests reuse: corners, vertex indices, area vector, the squared
-/// product of its two edge lengths from corner 0 times the tolerance squared (alone and times
-/// each bound, as [`Facet::side`] multiplies them), and the distance of corner 0 from the origin
-/// (and its square).
+/// A triangle with what the tests reuse: vertex indices, corners, area vector, the squared
+/// product of its two edge lengths from corner 0 times the tolerance squared, and the squared
+/// distance of corner 0 from the origin. Two cache lines: the pair loop reads facets in the
+/// order the grid pairs them, so their size is what it pays for (the bound and floor products
+/// and the distance itself are formed where [`Facet::side`] needs them, to the same bits).
 #[derive(Debug, Clone, Copy)]
+#[repr(C, align(64))]
 pub(crate) struct Facet {
     pub v: [u32; 3],
     pub p: [P3; 3],
     n: P3,
     tol2: f64,
-    tol2_bound: f64,
-    tol2_floor: f64,
-    reach: f64,
     reach2: f64,
 }
 
@@ -54,16 +53,13 @@ impl Facet {
         let reach2 = vec3::dot(p[0], p[0]);
         let uv2 = vec3::dot(u, u) * vec3::dot(v, v);
         let tol2 = COPLANAR * COPLANAR * uv2;
-        Facet {
-            v: mesh.triangles[t],
-            p,
-            n: vec3::cross(u, v),
-            tol2,
-            tol2_bound: tol2 * SQUARE_BOUND,
-            tol2_floor: tol2 * SQUARE_FLOOR,
-            reach: reach2.sqrt(),
-            reach2,
-        }
+        Facet { v: mesh.triangles[t], p, n: vec3::cross(u, v), tol2, reach2 }
+    }
+
+    /// The distance of corner 0 from the origin.
+    #[inline]
+    fn reach(&self) -> f64 {
+        self.reach2.sqrt()
     }
 
     /// The facet's axis-aligned box, `[least, greatest]`.
@@ -85,13 +81,13 @@ impl Facet {
         let ww = vec3::dot(w, w);
         // The products in the order the band's inequality is written, so that each decides
         // alike to the bit: `tol2 · bound · (ww + reach²)`.
-        if det * det > self.tol2_bound * (ww + self.reach2) {
+        if det * det > self.tol2 * SQUARE_BOUND * (ww + self.reach2) {
             return det;
         }
-        if det * det <= self.tol2_floor * (ww + self.reach2) {
+        if det * det <= self.tol2 * SQUARE_FLOOR * (ww + self.reach2) {
             return 0.0;
         }
-        let band = ww.sqrt() + self.reach;
+        let band = ww.sqrt() + self.reach();
         if det * det <= self.tol2 * band * band { 0.0 } else { det }
     }
 
@@ -307,7 +303,7 @@ mod tests {
     fn side_plain(f: &Facet, q: P3) -> f64 {
         let w = vec3::sub(q, f.p[0]);
         let det = vec3::dot(f.n, w);
-        let band = vec3::norm(w) + f.reach;
+        let band = vec3::norm(w) + f.reach();
         if det * det <= COPLANAR * COPLANAR * uv2(f) * band * band { 0.0 } else { det }
     }
 
@@ -348,7 +344,7 @@ mod tests {
             let inplane = [0, 1, 2].map(|i| p0[i] + s * (p1[i] - p0[i]) + t * (p2[i] - p0[i]));
             let unit = vec3::scale(f.n, 1.0 / vec3::norm(f.n));
             let w = vec3::dist(inplane, p0);
-            let band = COPLANAR * uv2(&f).sqrt() / vec3::norm(f.n) * (w + f.reach);
+            let band = COPLANAR * uv2(&f).sqrt() / vec3::norm(f.n) * (w + f.reach());
             let q = vec3::add(inplane, vec3::scale(unit, k * band * rnd().signum()));
             let (fast, plain) = (f.side(q), side_plain(&f, q));
             assert_eq!(fast.to_bits(), plain.to_bits(), "trial {trial}: {:?} {q:?}", f.p);

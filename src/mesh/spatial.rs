@@ -178,6 +178,45 @@ fn range_of(b: &[P3; 2], origin: P3, inverse: [f64; 3]) -> [Cell; 2] {
     [cell_of(b[0], origin, inverse), cell_of(b[1], origin, inverse)]
 }
 
+/// The first pair of triangles of slot `s` that meet (by `test`), if any: the slot's triangles
+/// gathered from `table` into `local`, sorted along the axis they spread most along and swept,
+/// each pair whose boxes overlap tested in its home slot only.
+fn sweep_slot(
+    grid: &Grid,
+    s: usize,
+    table: &[Entry],
+    local: &mut Vec<Entry>,
+    test: &impl Fn(usize, usize) -> Option<(usize, usize)>,
+) -> Option<(usize, usize)> {
+    let list = grid.list(s);
+    if list.len() < 2 {
+        return None;
+    }
+    local.clear();
+    local.extend(list.iter().map(|&t| table[t as usize]));
+    let axis = sweep_axis(local);
+    local.sort_unstable_by(|a, b| a.b[0][axis].total_cmp(&b.b[0][axis]));
+    for k in 0..local.len() {
+        let ea = &local[k];
+        let end = ea.b[1][axis];
+        for eb in &local[k + 1..] {
+            if eb.b[0][axis] > end {
+                break;
+            }
+            // A triangle can fall in one slot by two cells.
+            if eb.t == ea.t || !overlap(&ea.b, &eb.b) {
+                continue;
+            }
+            if grid.home_of(ea.low, eb.low, s)
+                && let Some(pair) = test(ea.t as usize, eb.t as usize)
+            {
+                return Some(pair);
+            }
+        }
+    }
+    None
+}
+
 /// The first pair of triangles that meet, if any. Each triangle's data are computed once.
 ///
 /// Candidate pairs come from a grid whose cell, per axis, is four times the median extent of the
@@ -237,31 +276,40 @@ pub(crate) fn find_self_intersection(mesh: &Mesh) -> Option<(usize, usize)> {
         .map(|(t, (b, r))| Entry { b: *b, low: r[0], t: t as u32 })
         .collect();
     let mut local: Vec<Entry> = Vec::new();
-    for s in 0..grid.slots() {
-        let list = grid.list(s);
-        if list.len() < 2 {
+    // Slots are swept in the order of their lowest triangle, so that the triangles (and facets)
+    // of the slots swept one after the other are near in the mesh's own order, which for a loft
+    // or a part built from one is near in space: they are read from cache, where sweeping the
+    // slots in the hash's order would fetch every one from memory. Which pair is reported when
+    // surfaces meet is that of the sweep in the hash's order, run again then.
+    let mut mine: Vec<usize> = Vec::new();
+    let mut found = false;
+    'triangles: for (t, r) in grid.ranges.iter().enumerate() {
+        if covers(r) > BIG {
             continue;
         }
-        local.clear();
-        local.extend(list.iter().map(|&t| table[t as usize]));
-        let axis = sweep_axis(&local);
-        local.sort_unstable_by(|a, b| a.b[0][axis].total_cmp(&b.b[0][axis]));
-        for k in 0..local.len() {
-            let ea = &local[k];
-            let end = ea.b[1][axis];
-            for eb in &local[k + 1..] {
-                if eb.b[0][axis] > end {
-                    break;
-                }
-                // A triangle can fall in one slot by two cells.
-                if eb.t == ea.t || !overlap(&ea.b, &eb.b) {
-                    continue;
-                }
-                if grid.home_of(ea.low, eb.low, s)
-                    && let Some(pair) = test(ea.t as usize, eb.t as usize)
-                {
-                    return Some(pair);
-                }
+        mine.clear();
+        for_cells(r, |c| {
+            let s = slot(c, grid.bits);
+            let list = grid.list(s);
+            if list.len() >= 2 && list[0] as usize == t {
+                mine.push(s);
+            }
+        });
+        if mine.len() > 1 {
+            mine.sort_unstable();
+            mine.dedup();
+        }
+        for &s in &mine {
+            if sweep_slot(&grid, s, &table, &mut local, &test).is_some() {
+                found = true;
+                break 'triangles;
+            }
+        }
+    }
+    if found {
+        for s in 0..grid.slots() {
+            if let Some(pair) = sweep_slot(&grid, s, &table, &mut local, &test) {
+                return Some(pair);
             }
         }
     }

@@ -132,18 +132,32 @@ fn contour(s: &dyn SpanSurface, period: f64, x: f64, t: f64) -> [f64; 2] {
 
 /// The parameter in `[from, from + 2]` (one chain's length either way of the middle) where
 /// `f` is least (or greatest when `greatest`): the best of 96 samples refined by golden-section
-/// search between its neighbours.
+/// search between its neighbours. Each sample is evaluated once, and a golden-section point
+/// that falls on the bits of one evaluated before takes its value (the search's points are
+/// worked out afresh each step, as they always were, so the result is the same to the bit).
 fn extreme(f: &dyn Fn(f64) -> f64, from: f64, greatest: bool) -> f64 {
     const N: usize = 96;
     let width = 2.0;
     let g = |t: f64| if greatest { -f(t) } else { f(t) };
     let at = |i: usize| from + width * i as f64 / N as f64;
-    let i = (0..=N).min_by(|&a, &b| g(at(a)).total_cmp(&g(at(b)))).unwrap_or(N / 2);
+    let samples: Vec<f64> = (0..=N).map(|i| g(at(i))).collect();
+    let i = (0..=N).min_by(|&a, &b| samples[a].total_cmp(&samples[b])).unwrap_or(N / 2);
     let (mut a, mut b) = (at(i.saturating_sub(1)), at((i + 1).min(N)));
     let phi = 0.5 * (5f64.sqrt() - 1.0);
+    // The last two points evaluated, with their values.
+    let mut seen = [(f64::NAN, 0.0); 2];
+    let mut value = |t: f64| {
+        if let Some(&(_, v)) = seen.iter().find(|(s, _)| s.to_bits() == t.to_bits()) {
+            return v;
+        }
+        let v = g(t);
+        seen = [seen[1], (t, v)];
+        v
+    };
     for _ in 0..48 {
         let (c, d) = (b - phi * (b - a), a + phi * (b - a));
-        if g(c) <= g(d) {
+        let (gc, gd) = (value(c), value(d));
+        if gc <= gd {
             b = d;
         } else {
             a = c;
