@@ -21,39 +21,67 @@ use crate::material::Lamina;
 
 /// The material-axis state of one ply face for each unit component of the midplane deformation
 /// `(eps_x, eps_s, gamma_xs, kappa_x, kappa_s, kappa_xs)`, and its residual state from the
-/// temperature change: one contiguous record, so that a face under any wall deformation costs
-/// six multiply-adds per component read from one place.
+/// temperature change: one contiguous record, each component's stress and strain side by side,
+/// so that a face under any wall deformation costs six multiply-adds per component, done two at
+/// a time.
 #[derive(Debug, Clone)]
 pub(super) struct FaceUnit {
-    /// Stress per unit of each deformation component, Pa.
-    pub(super) stress: [Vector3<f64>; 6],
-    /// Mechanical strain per unit of each deformation component.
-    pub(super) strain: [Vector3<f64>; 6],
+    /// Per deformation component: stress (sigma1, sigma2, tau12; Pa) then mechanical strain
+    /// (eps1, eps2, gamma12) per unit of it.
+    unit: [[f64; 6]; 6],
     /// The residual state (restraint plus free-expansion part).
     pub(super) fixed: MaterialState,
 }
 
 impl FaceUnit {
-    /// Whether two faces hold the same numbers, bit for bit.
-    fn same_bits(&self, other: &FaceUnit) -> bool {
-        let same = |a: &Vector3<f64>, b: &Vector3<f64>| {
-            a.iter().zip(b.iter()).all(|(x, y)| x.to_bits() == y.to_bits())
-        };
-        self.stress.iter().zip(&other.stress).all(|(a, b)| same(a, b))
-            && self.strain.iter().zip(&other.strain).all(|(a, b)| same(a, b))
-            && same(&self.fixed.stress, &other.fixed.stress)
-            && same(&self.fixed.strain, &other.fixed.strain)
+    pub(super) fn new(
+        stress: [Vector3<f64>; 6],
+        strain: [Vector3<f64>; 6],
+        fixed: MaterialState,
+    ) -> Self {
+        let unit = [0, 1, 2, 3, 4, 5].map(|i| {
+            let (s, e) = (stress[i], strain[i]);
+            [s.x, s.y, s.z, e.x, e.y, e.z]
+        });
+        FaceUnit { unit, fixed }
     }
 
-    /// The face's load part under the deformation components `v`.
+    /// Stress per unit of deformation component `i`, Pa.
+    #[cfg(test)]
+    pub(super) fn stress(&self, i: usize) -> Vector3<f64> {
+        let u = &self.unit[i];
+        Vector3::new(u[0], u[1], u[2])
+    }
+
+    /// Mechanical strain per unit of deformation component `i`.
+    #[cfg(test)]
+    pub(super) fn strain(&self, i: usize) -> Vector3<f64> {
+        let u = &self.unit[i];
+        Vector3::new(u[3], u[4], u[5])
+    }
+
+    /// Whether two faces hold the same numbers, bit for bit.
+    fn same_bits(&self, other: &FaceUnit) -> bool {
+        let same = |a: &[f64], b: &[f64]| a.iter().zip(b).all(|(x, y)| x.to_bits() == y.to_bits());
+        self.unit.iter().zip(&other.unit).all(|(a, b)| same(a, b))
+            && same(self.fixed.stress.as_slice(), other.fixed.stress.as_slice())
+            && same(self.fixed.strain.as_slice(), other.fixed.strain.as_slice())
+    }
+
+    /// The face's load part under the deformation components `v`: each of the six sums taken
+    /// in component order from zero, as `Vector3` sums of `unit * v_i` would.
     #[inline(always)]
     fn load(&self, v: &[f64; 6]) -> MaterialState {
-        let mut load = MaterialState { stress: Vector3::zeros(), strain: Vector3::zeros() };
-        for ((s, e), x) in self.stress.iter().zip(&self.strain).zip(v) {
-            load.stress += s * *x;
-            load.strain += e * *x;
+        let mut acc = [0.0; 6];
+        for (u, x) in self.unit.iter().zip(v) {
+            for (a, c) in acc.iter_mut().zip(u) {
+                *a += c * x;
+            }
         }
-        load
+        MaterialState {
+            stress: Vector3::new(acc[0], acc[1], acc[2]),
+            strain: Vector3::new(acc[3], acc[4], acc[5]),
+        }
     }
 }
 
@@ -66,6 +94,10 @@ struct PlyMatrices {
     ts: Matrix3<f64>,
     te: Matrix3<f64>,
     alpha: Vector3<f64>,
+    /// The material-axis state per unit membrane strain `eps_x`, `eps_s`, `gamma_xs`: the same
+    /// at every height in the ply (the unit membrane deformations carry zero curvatures, whose
+    /// product with any finite height is a signed zero that leaves the strains as they are).
+    membrane: [MaterialState; 3],
 }
 
 /// The strength constants and ply matrices met so far, by material (the `Arc` a ply holds) and
@@ -99,11 +131,21 @@ impl MaterialCache {
         if let Some((_, _, m)) = self.plies.iter().find(|(k, a, _)| (*k, *a) == key) {
             return *m;
         }
+        let (qb, ts, te) = (
+            transformed_stiffness(&ply.material, ply.angle),
+            stress_to_material(ply.angle),
+            strain_to_material(ply.angle),
+        );
+        let membrane = [0, 1, 2].map(|i| {
+            let d = unit_deformation(i);
+            unit_point(&qb, &ts, &te, &d, 0.0, Vector3::zeros())
+        });
         let m = PlyMatrices {
-            qb: transformed_stiffness(&ply.material, ply.angle),
-            ts: stress_to_material(ply.angle),
-            te: strain_to_material(ply.angle),
+            qb,
+            ts,
+            te,
             alpha: thermal_expansion(&ply.material, ply.angle),
+            membrane,
         };
         if self.plies.len() >= MAX_PLY_ENTRIES {
             self.plies.clear();
@@ -111,6 +153,35 @@ impl MaterialCache {
         self.plies.push((key.0, key.1, m));
         m
     }
+}
+
+/// Unit deformation component `i` of `(eps_x, eps_s, gamma_xs, kappa_x, kappa_s, kappa_xs)`.
+fn unit_deformation(i: usize) -> Deformation {
+    let mut d = Deformation::default();
+    if i < 3 {
+        d.strain[i] = 1.0;
+    } else {
+        d.curvature[i - 3] = 1.0;
+    }
+    d
+}
+
+/// The material-axis state at height `z` of a ply (stiffness `qb`, transformations `ts` and
+/// `te`) under the midplane deformation `d` less the free strain `free`, as
+/// `Laminate::response` works it out.
+#[inline]
+fn unit_point(
+    qb: &Matrix3<f64>,
+    ts: &Matrix3<f64>,
+    te: &Matrix3<f64>,
+    d: &Deformation,
+    z: f64,
+    free: Vector3<f64>,
+) -> MaterialState {
+    let strain_xy = d.strain + d.curvature * z;
+    let mech = strain_xy - free;
+    let stress_xy = qb * mech;
+    MaterialState { stress: ts * stress_xy, strain: te * mech }
 }
 
 /// The per-ply-face responses of a laminate as a beam wall, flat: faces `2 k` (top) and
@@ -182,38 +253,28 @@ impl UnitResponse {
         let (thermal, held) = (split(thermal), split(held));
         // The unit deformations, as `Laminate::responses` at no temperature change takes them
         // (less a free thermal deformation of signed zeros, which leaves them as they are).
-        let basis = [0, 1, 2, 3, 4, 5].map(|i| {
-            let mut d = Deformation::default();
-            if i < 3 {
-                d.strain[i] = 1.0;
-            } else {
-                d.curvature[i - 3] = 1.0;
-            }
-            d
-        });
+        let bending = [3, 4, 5].map(unit_deformation);
         let mut faces = Vec::with_capacity(2 * plies.len());
         let mut strength = Vec::with_capacity(plies.len());
         for ((p, m), &(zt, zb)) in plies.iter().zip(&matrices).zip(&bounds) {
-            let PlyMatrices { qb, ts, te, alpha } = *m;
-            let alpha = alpha * delta_t;
+            let alpha = m.alpha * delta_t;
             let point = |d: &Deformation, z: f64, free: Vector3<f64>| {
-                let strain_xy = d.strain + d.curvature * z;
-                let mech = strain_xy - free;
-                let stress_xy = qb * mech;
-                MaterialState { stress: ts * stress_xy, strain: te * mech }
+                unit_point(&m.qb, &m.ts, &m.te, d, z, free)
             };
             for z in [zt, zb] {
-                let unit = basis.map(|d| point(&d, z, Vector3::zeros()));
+                let [k0, k1, k2] = bending.map(|d| point(&d, z, Vector3::zeros()));
+                let [e0, e1, e2] = m.membrane;
+                let unit = [e0, e1, e2, k0, k1, k2];
                 let load = point(&held, z, Vector3::zeros());
                 let free = point(&thermal, z, alpha);
-                faces.push(FaceUnit {
-                    stress: unit.map(|u| u.stress),
-                    strain: unit.map(|u| u.strain),
-                    fixed: MaterialState {
+                faces.push(FaceUnit::new(
+                    unit.map(|u| u.stress),
+                    unit.map(|u| u.strain),
+                    MaterialState {
                         stress: load.stress + free.stress,
                         strain: load.strain + free.strain,
                     },
-                });
+                ));
             }
             strength.push(cache.strength(&p.material));
         }
@@ -347,15 +408,15 @@ mod tests {
         let mut out = Vec::new();
         for (k, p) in th.plies.iter().enumerate() {
             for top in [true, false] {
-                out.push(FaceUnit {
-                    stress: [0, 1, 2, 3, 4, 5].map(|i| face(&unit[i].plies[k], top).stress_12),
-                    strain: [0, 1, 2, 3, 4, 5].map(|i| face(&unit[i].plies[k], top).strain_12),
-                    fixed: if top {
+                out.push(FaceUnit::new(
+                    [0, 1, 2, 3, 4, 5].map(|i| face(&unit[i].plies[k], top).stress_12),
+                    [0, 1, 2, 3, 4, 5].map(|i| face(&unit[i].plies[k], top).strain_12),
+                    if top {
                         sum(&p.top, &p.top_thermal)
                     } else {
                         sum(&p.bottom, &p.bottom_thermal)
                     },
-                });
+                ));
             }
         }
         out
@@ -452,9 +513,9 @@ mod tests {
         for (k, ply) in laminate.plies().iter().enumerate() {
             let face = |f: &FaceUnit| {
                 let mut load = MaterialState { stress: Vector3::zeros(), strain: Vector3::zeros() };
-                for ((s, e), x) in f.stress.iter().zip(&f.strain).zip(v) {
-                    load.stress += s * x;
-                    load.strain += e * x;
+                for (i, x) in v.iter().enumerate() {
+                    load.stress += f.stress(i) * *x;
+                    load.strain += f.strain(i) * *x;
                 }
                 evaluate_all(&ply.material, &load, &f.fixed)
             };
