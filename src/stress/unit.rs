@@ -311,8 +311,7 @@ impl UnitResponse {
         // The ratios and stresses of the bottom face of the ply before, for a top face that
         // repeats it.
         let mut before: Option<FaceRatios> = None;
-        for k in 0..n {
-            let strength = &self.strength[k];
+        for (k, (ply, strength)) in plies.iter().zip(&self.strength).take(n).enumerate() {
             let top = match before {
                 Some(b) if self.repeats[2 * k] => b,
                 _ => self.face(2 * k, strength, &v),
@@ -326,7 +325,7 @@ impl UnitResponse {
             let ratios = top.ratios.worst(&bottom.ratios);
             out.push(PlyPoint {
                 ply_in_laminate: k,
-                schedule_ply: plies[k].schedule_ply,
+                schedule_ply: ply.schedule_ply,
                 governing: governing(&ratios),
                 ratios,
                 stress_12: if lower { bottom.stress } else { top.stress },
@@ -334,8 +333,7 @@ impl UnitResponse {
         }
     }
 
-    /// The ratios of face `f` under the deformation components `v`, inlined into the ply loop
-    /// so that its result stays in registers rather than passing through memory.
+    /// The ratios of face `f` under the deformation components `v` (inlined into the ply loop).
     #[inline(always)]
     fn face(&self, f: usize, strength: &StrengthConstants, v: &[f64; 6]) -> FaceRatios {
         let unit = &self.faces[f];
