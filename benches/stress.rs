@@ -7,19 +7,95 @@
 //! once, so a time per ply-face evaluation follows from the figures.
 //! `panels` times what buckling adds: the wall panels and their critical loads (once per model)
 //! and their checks under the three cases. Its share is panels over all cases.
+//! `generated blade` times what `check` runs after the model is built (every case's recovery
+//! with the summaries only, and the panel checks) on a generated, invented blade of 40
+//! stations, 2,000 plies and 2,000 contour points (a tenth of the large blade of
+//! `stress_scaling`); its rate is in ply-face-criterion evaluations (ply points times two faces
+//! times four criteria), so that the time per evaluation is the inverse of the rate.
 
 #[path = "kit/mod.rs"]
 mod kit;
-use kit::Runner;
+#[path = "large_blade/mod.rs"]
+mod large_blade;
+use kit::{Runner, Throughput};
 use layloft::analysis::BladeModel;
 use layloft::input::read_project;
 use layloft::loads::{LoadDistribution, span_loads};
 use layloft::stress::{analyse_cases, model_panels, recover_at};
 
 fn bench(c: &mut Runner) {
+    bench_generated(c);
     for wall_bending in [true, false] {
         bench_mode(c, wall_bending);
     }
+}
+
+fn bench_generated(c: &mut Runner) {
+    let dir = tempfile::tempdir().expect("temporary folder");
+    let size = large_blade::Size { stations: 40, plies: 2000, points: 2000 };
+    let file = large_blade::write(dir.path(), size).expect("write the generated blade");
+    let model = BladeModel::build(read_project(&file).expect("generated project reads"))
+        .expect("generated model builds");
+    let props = model.properties();
+    let mut evaluations = 0u64;
+    for case in &model.project.load_cases {
+        let pitch = case.pitch.unwrap_or(model.project.rotor.pitch);
+        let loads = span_loads(
+            &LoadDistribution::new(&props, &model.project.point_masses, case, pitch)
+                .expect("loads"),
+        );
+        for st in &model.stations {
+            let res = loads.chord_at(st.layout.r);
+            let points = recover_at(&st.layout, &st.section, &res, case.delta_t).expect("recovery");
+            evaluations += points.iter().map(|p| 8 * p.plies.len() as u64).sum::<u64>();
+        }
+    }
+    eprintln!("generated blade: {evaluations} ply-face-criterion evaluations per call");
+    let mut g = c.benchmark_group("stress");
+    g.sample_size(10);
+    g.throughput(Throughput::Elements(evaluations));
+    g.bench_function("generated blade, summaries only, with panel checks", |b| {
+        b.iter(|| {
+            layloft::stress::analyse_cases_detail(&model, None, layloft::stress::Detail::Summary)
+                .expect("stress")
+        })
+    });
+    g.finish();
+    // CPU time of the whole process (both stress threads) over a few calls: on a shared machine
+    // the wall clock counts the waits for a core, the CPU time does not.
+    if let Some(t0) = process_cpu_seconds() {
+        let calls = 5;
+        for _ in 0..calls {
+            kit::black_box(
+                layloft::stress::analyse_cases_detail(
+                    &model,
+                    None,
+                    layloft::stress::Detail::Summary,
+                )
+                .expect("stress"),
+            );
+        }
+        if let Some(t1) = process_cpu_seconds() {
+            let per_call = (t1 - t0) / calls as f64;
+            println!(
+                "stress/generated blade: {:.3} s CPU per call, {:.1} ns CPU per evaluation",
+                per_call,
+                per_call * 1e9 / evaluations as f64
+            );
+        }
+    }
+}
+
+/// User plus system CPU time of this process so far, s (Linux `/proc/self/stat`, in ticks of
+/// 1/100 s); `None` elsewhere.
+fn process_cpu_seconds() -> Option<f64> {
+    let stat = std::fs::read_to_string("/proc/self/stat").ok()?;
+    // Fields after the command name (which is in parentheses and may hold spaces).
+    let rest = stat.rsplit_once(')')?.1;
+    let fields: Vec<&str> = rest.split_whitespace().collect();
+    let utime: f64 = fields.get(11)?.parse().ok()?;
+    let stime: f64 = fields.get(12)?.parse().ok()?;
+    Some((utime + stime) / 100.0)
 }
 
 fn bench_mode(c: &mut Runner, wall_bending: bool) {

@@ -32,6 +32,7 @@
 
 mod recover;
 mod summary;
+mod unit;
 
 pub use summary::{Critical, PlyWorst};
 
@@ -47,7 +48,8 @@ use crate::loads::{
     LoadDistribution, LoadsError, PitchReaction, Resultant, TipDeflection, span_loads,
 };
 use crate::project::LoadCaseSpec;
-use recover::{Locator, UnitResponse, recover_section, section_states};
+use recover::{Locator, recover_section, section_states};
+use unit::{MaterialCache, UnitResponse};
 
 /// What can go wrong in stress recovery.
 #[derive(Debug, thiserror::Error)]
@@ -352,13 +354,14 @@ pub fn analyse_case_detail(
             let mut summary = summary::Summary::new(model);
             let mut scratch: Vec<PlyPoint> = Vec::new();
             let mut by_element: Vec<Option<(f64, f64)>> = Vec::new();
+            let mut strength = MaterialCache::default();
             for si in range {
                 let st = &model.stations[si];
                 let units = st
                     .layout
                     .laminates
                     .iter()
-                    .map(|l| UnitResponse::new(l, case.delta_t))
+                    .map(|l| UnitResponse::with_cache(l, case.delta_t, &mut strength))
                     .collect::<Result<Vec<_>, _>>()?;
                 let elements = st.section.elements();
                 let locator = Locator::new(&st.layout);
