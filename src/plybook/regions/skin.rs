@@ -125,6 +125,8 @@ struct RadiusCache {
     beneath: Vec<(Option<f64>, f64)>,
     /// The span rates there, when first asked for (`None` inside: near a station).
     rates: Option<Option<Rates>>,
+    /// The plies' rates of an earlier radius, a buffer to reuse.
+    spare: Vec<[f64; 2]>,
 }
 
 /// The span rates of a radius: the surfaces', and each ply beneath's span factor and half ramp.
@@ -225,12 +227,21 @@ impl<'a> SkinLevel<'a> {
             old => {
                 let at = self.surfaces.at_radius(r);
                 let phi = (self.blade.twist(r) + self.blade.rotor().pitch).rad();
-                let mut beneath = old.map(|c| c.beneath).unwrap_or_default();
+                let (mut beneath, spare) = match old {
+                    Some(c) => {
+                        let spare = match c.rates {
+                            Some(Some(rates)) => rates.beneath,
+                            _ => c.spare,
+                        };
+                        (c.beneath, spare)
+                    }
+                    None => Default::default(),
+                };
                 beneath.clear();
                 beneath.extend(
                     self.beneath.iter().map(|p| (p.span_factor(r), p.chord_ramp(at.chord))),
                 );
-                RadiusCache { at, sin_cos: phi.sin_cos(), beneath, rates: None }
+                RadiusCache { at, sin_cos: phi.sin_cos(), beneath, rates: None, spare }
             }
         };
         let out = f(&mut c);
@@ -302,16 +313,15 @@ impl<'a> SkinLevel<'a> {
         self.with_radius(r, |c| {
             if c.rates.is_none() {
                 let surface = self.surfaces.radius_rates(&c.at, g);
-                c.rates = Some(surface.map(|surface| {
-                    Rates {
-                        beneath: self
-                            .beneath
-                            .iter()
-                            .map(|p| [p.span_rate(r), p.chord_ramp_rate(c.at.chord, surface.chord)])
-                            .collect(),
-                        surface,
-                    }
-                }));
+                let mut beneath = std::mem::take(&mut c.spare);
+                c.rates =
+                    Some(surface.map(|surface| {
+                        beneath.clear();
+                        beneath.extend(self.beneath.iter().map(|p| {
+                            [p.span_rate(r), p.chord_ramp_rate(c.at.chord, surface.chord)]
+                        }));
+                        Rates { beneath, surface }
+                    }));
             }
             let rates = c.rates.as_ref()?.as_ref()?;
             let jet = self.surfaces.outer_jet(&c.at, &rates.surface, side, ua);
