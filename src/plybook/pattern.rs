@@ -318,8 +318,14 @@ pub fn drape_region(
         extrapolated,
         cut_short,
     };
+    // A node outside the boundary's box (by more than round-off of the crossing test) is
+    // outside the boundary: no edge straddles its height, or every edge that does lies on one
+    // side of it (an even count).
+    let slack = 1e-9 * (lo[0].abs() + hi[0].abs() + 1.0);
+    let off_box =
+        |q: [f64; 2]| q[1] < lo[1] || q[1] > hi[1] || q[0] > hi[0] + slack || q[0] < lo[0] - slack;
     for (i, j, node) in net.nodes() {
-        if !point_in_polygon(&spec.boundary, node.param) {
+        if off_box(node.param) || !point_in_polygon(&spec.boundary, node.param) {
             continue;
         }
         pattern.nodes += 1;
