@@ -224,7 +224,8 @@ pub(super) type Draped<'a> = Option<Result<(Pieces<'a>, Vec<usize>), PlyBookErro
 /// pieces (see [`drape_pieces`]) side by side on their own threads. A region's cuts keep clear
 /// only of the `earlier` splices on its own surface, so regions on different surfaces do not
 /// depend on each other and the results, taken in order, are those of draping them one after
-/// the other (regions that share a surface are draped one after the other).
+/// the other (regions that share a surface, or all regions on one thread, are draped one after
+/// the other).
 pub(super) fn drape_ply<'a>(
     blade: &'a Blade,
     group: Vec<(PlyRegion<'a>, Option<Attempt>)>,
@@ -250,7 +251,7 @@ pub(super) fn drape_ply<'a>(
     };
     let surfaces: Vec<&str> = group.iter().map(|(r, _)| r.surface_name.as_str()).collect();
     let apart = surfaces.iter().enumerate().all(|(k, s)| !surfaces[..k].contains(s));
-    if group.len() < 2 || !apart {
+    if group.len() < 2 || !apart || crate::parallel::threads() < 2 {
         return group.into_iter().map(one).collect();
     }
     std::thread::scope(|scope| {
