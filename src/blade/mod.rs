@@ -255,6 +255,13 @@ impl Blade {
         self.loft.pitch_axis_frac(r)
     }
 
+    /// The rates along the span of chord (m/m), twist (rad/m) and pitch axis (chord fraction per
+    /// m) at `r`: the derivatives of the interpolants of [`Blade::chord`], [`Blade::twist`] and
+    /// [`Blade::pitch_axis_frac`].
+    pub(crate) fn span_rates(&self, r: f64) -> [f64; 3] {
+        self.loft.rates(r)
+    }
+
     /// The ply of the schedule with that index (as in `plies.csv`, outermost first).
     pub fn ply(&self, index: usize) -> Option<&PlySpec> {
         self.plies.get(index).map(|p| &p.spec)

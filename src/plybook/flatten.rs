@@ -17,6 +17,17 @@ pub(crate) struct NetLocator<'a> {
     size: [f64; 2],
     dims: [usize; 2],
     buckets: Vec<Vec<(i32, i32)>>,
+    /// Every complete cell in the net's order, with its corners and the lengths [`beyond_reach`]
+    /// bounds it by, for the extrapolation's scan.
+    cells: Vec<Reach>,
+}
+
+/// A complete cell's indices, corners and the lengths `|e1| + |e3|` and `|e2|` of [`beyond_reach`].
+struct Reach {
+    at: (i32, i32),
+    corners: [[f64; 2]; 4],
+    sides: f64,
+    twist: f64,
 }
 
 impl<'a> NetLocator<'a> {
@@ -56,7 +67,14 @@ impl<'a> NetLocator<'a> {
                 }
             }
         }
-        NetLocator { net, origin: lo, size, dims, buckets }
+        let cells = cells
+            .into_iter()
+            .map(|(i, j, c)| {
+                let (sides, twist) = reach_lengths(&c);
+                Reach { at: (i, j), corners: c, sides, twist }
+            })
+            .collect();
+        NetLocator { net, origin: lo, size, dims, buckets, cells }
     }
 
     /// Net indices `(ξ, η)` of the parameter point `q`, or `None` outside the net (or more
@@ -104,12 +122,13 @@ impl<'a> NetLocator<'a> {
         // nearest within `FAR_OUT`): the others are passed over without inverting their map.
         let limit = best.map_or(FAR_OUT, |(_, o)| o.min(FAR_OUT));
         let mut near: Option<([f64; 2], f64)> = None;
-        for (i, j, _) in self.net.nodes() {
-            let Some(c) = cell_params(self.net, i, j) else { continue };
-            if beyond(&c, q, limit) {
+        for cell in &self.cells {
+            let c = &cell.corners;
+            if beyond_reach(c, cell.sides, cell.twist, q, limit) {
                 continue;
             }
-            let Some(st) = inverse_bilinear(&c, q) else { continue };
+            let (i, j) = cell.at;
+            let Some(st) = inverse_bilinear(c, q) else { continue };
             let out = (-st[0]).max(st[0] - 1.0).max(-st[1]).max(st[1] - 1.0).max(0.0);
             if near.is_none_or(|(_, o)| out < o) {
                 near = Some(([i as f64 + st[0], j as f64 + st[1]], out));
@@ -161,18 +180,34 @@ fn cell_params(net: &DrapedNet, i: i32, j: i32) -> Option<[[f64; 2]; 4]> {
     ])
 }
 
-/// Whether `q` lies more than `limit` cells outside the bilinear cell `c`: the map
-/// `c0 + s e1 + t e3 + s t e2` over `s, t ∈ [-limit, 1 + limit]` stays within
-/// `m (|e1| + |e3|) + m² |e2|` of the corner `c0`, with `m = 1 + limit`; a point farther than
-/// that (with a margin for round-off) has no local coordinates within `limit` of the cell.
-fn beyond(c: &[[f64; 2]; 4], q: [f64; 2], limit: f64) -> bool {
+/// The lengths `|e1| + |e3|` and `|e2|` of cell `c` (see [`beyond_reach`]).
+fn reach_lengths(c: &[[f64; 2]; 4]) -> (f64, f64) {
     let len = |v: [f64; 2]| (v[0] * v[0] + v[1] * v[1]).sqrt();
     let e1 = [c[1][0] - c[0][0], c[1][1] - c[0][1]];
     let e3 = [c[3][0] - c[0][0], c[3][1] - c[0][1]];
     let e2 = [c[2][0] - c[1][0] - c[3][0] + c[0][0], c[2][1] - c[1][1] - c[3][1] + c[0][1]];
+    (len(e1) + len(e3), len(e2))
+}
+
+/// Whether `q` lies more than `limit` cells outside the bilinear cell `c`: the map
+/// `c0 + s e1 + t e3 + s t e2` over `s, t ∈ [-limit, 1 + limit]` stays within
+/// `m (|e1| + |e3|) + m² |e2|` of the corner `c0`, with `m = 1 + limit`; a point farther than
+/// that (with a margin for round-off) has no local coordinates within `limit` of the cell. The
+/// cell's lengths `sides` and `twist` from [`reach_lengths`]; the squared distance decides
+/// but within round-off of the bound, where the distance itself decides.
+fn beyond_reach(c: &[[f64; 2]; 4], sides: f64, twist: f64, q: [f64; 2], limit: f64) -> bool {
     let m = 1.0 + limit;
-    let reach = m * (len(e1) + len(e3)) + m * m * len(e2);
-    len([q[0] - c[0][0], q[1] - c[0][1]]) > 1.01 * reach + 1e-12
+    let bound = 1.01 * (m * sides + m * m * twist) + 1e-12;
+    let v = [q[0] - c[0][0], q[1] - c[0][1]];
+    let d2 = v[0] * v[0] + v[1] * v[1];
+    let b2 = bound * bound;
+    if d2 > b2 * (1.0 + 1e-9) {
+        true
+    } else if d2 < b2 * (1.0 - 1e-9) {
+        false
+    } else {
+        d2.sqrt() > bound
+    }
 }
 
 /// Local coordinates `(s, t)` of `q` in the bilinear cell `c` (corners 00, 10, 11, 01).

@@ -5,7 +5,7 @@
 use super::PlyBookError;
 use super::book::{FabricKind, MaterialNesting, PatternEntry, PlyBook, PlyBookParams};
 use super::nest::{NestItem, nest};
-use super::pieces::{drape_pieces, first_attempts};
+use super::pieces::{drape_ply, first_attempts};
 use super::regions::{Level, PlyRegion, ply_regions};
 use super::splice::{Splice, piece_name, splice_note, splices_of};
 use super::warning::{PlyBookIssue, PlyBookWarning};
@@ -31,97 +31,105 @@ pub fn build_ply_book(
     let mut failed = Vec::new();
     let mut splices = Vec::new();
     let mut splice_lines: Vec<Splice> = Vec::new();
-    for (region, whole) in first_attempts(blade, regions) {
-        let row = region.ply;
-        let Some(p) = blade.ply(row) else { continue };
-        let Some(mat) = blade.ply_material(region.ply) else { continue };
-        let cutting = project.materials.cutting(&p.material);
-        let kind = match mat.kind {
-            LaminaKind::Isotropic => FabricKind::Sheet,
-            LaminaKind::Orthotropic if mat.e2 >= 0.8 * mat.e1 => FabricKind::Fabric,
-            LaminaKind::Orthotropic => FabricKind::Unidirectional,
-        };
-        let name = region_name(p, &region);
-        let extent = (region.span, region.chord, region.surface_name.clone());
-        let (pieces, missed) =
-            match drape_pieces(blade, region, whole, p, &name, params, &splice_lines, 0) {
+    let mut attempts = first_attempts(blade, regions).into_iter().peekable();
+    while let Some(first) = attempts.next() {
+        // The regions of one ply (a `both` ply's two skins) are cut in pieces side by side.
+        let ply = first.0.ply;
+        let mut group = vec![first];
+        while let Some(next) = attempts.next_if(|(r, _)| r.ply == ply) {
+            group.push(next);
+        }
+        for (extent, draped) in drape_ply(blade, group, params, &splice_lines) {
+            let row = ply;
+            let Some(draped) = draped else { continue };
+            let (Some(p), Some(mat)) = (blade.ply(row), blade.ply_material(row)) else { continue };
+            let cutting = project.materials.cutting(&p.material);
+            let kind = match mat.kind {
+                LaminaKind::Isotropic => FabricKind::Sheet,
+                LaminaKind::Orthotropic if mat.e2 >= 0.8 * mat.e1 => FabricKind::Fabric,
+                LaminaKind::Orthotropic => FabricKind::Unidirectional,
+            };
+            let name = extent.name;
+            let extent = (extent.span, extent.chord, extent.surface);
+            let (pieces, missed) = match draped {
                 Ok(v) => v,
                 Err(e) => {
                     failed.push(e);
                     continue;
                 }
             };
-        let count = pieces.len();
-        if count > 1 {
-            splices.push(splice_note(p, &name, &pieces, params.stagger));
-            splice_lines.extend(splices_of(extent.0, extent.1, &pieces));
-        }
-        if !missed.is_empty() {
-            warnings.push(PlyBookWarning {
-                row,
-                ply: p.id.clone(),
-                pattern: name.clone(),
-                web: extent.2.starts_with("web"),
-                issue: PlyBookIssue::SpliceNotStaggered {
-                    stagger: params.stagger,
-                    others: missed
-                        .iter()
-                        .filter_map(|&k| blade.ply(k).map(|q| q.id.clone()))
-                        .collect(),
-                },
-            });
-        }
-        for (n, (region, flat)) in pieces.into_iter().enumerate() {
-            let name = if count > 1 { piece_name(&name, n) } else { name.clone() };
-            let mass = flat.area * mat.ply_thickness * mat.density;
-            let entry = PatternEntry {
-                name,
-                ply: p.id.clone(),
-                order: region.ply + 1,
-                material: p.material.clone(),
-                surface: region.surface_name.clone(),
-                angle: p.angle,
-                kind,
-                r_range: region.span,
-                chord_range: matches!(region.level, Level::Skin(_)).then_some(region.chord),
-                area_m2: flat.area,
-                thickness_m: mat.ply_thickness,
-                mass_kg: mass,
-                cost: cutting.cost_per_kg.map(|c| c * mass),
-                locking_angle: cutting.locking_angle,
-                max_shear_place: region.place(flat.max_shear_at),
-                max_deviation_place: region.place(flat.max_deviation_at),
-                pattern: flat,
-            };
-            warnings.extend(drape_warning(&entry, row));
-            let web = region.surface_name.starts_with("web");
-            if let Some(&q) = entry.pattern.cut_short.first() {
+            let count = pieces.len();
+            if count > 1 {
+                splices.push(splice_note(p, &name, &pieces, params.stagger));
+                splice_lines.extend(splices_of(extent.0, extent.1, &pieces));
+            }
+            if !missed.is_empty() {
                 warnings.push(PlyBookWarning {
                     row,
-                    ply: entry.ply.clone(),
-                    pattern: entry.name.clone(),
-                    web,
-                    issue: PlyBookIssue::CutShort {
-                        at: region.place(q),
-                        moved: entry.pattern.cut_short.len(),
-                        points: entry.pattern.outline.len(),
-                        area: entry.area_m2,
+                    ply: p.id.clone(),
+                    pattern: name.clone(),
+                    web: extent.2.starts_with("web"),
+                    issue: PlyBookIssue::SpliceNotStaggered {
+                        stagger: params.stagger,
+                        others: missed
+                            .iter()
+                            .filter_map(|&k| blade.ply(k).map(|q| q.id.clone()))
+                            .collect(),
                     },
                 });
             }
-            if let Some(&q) = entry.pattern.extrapolated.first() {
-                warnings.push(PlyBookWarning {
-                    row,
-                    ply: entry.ply.clone(),
-                    pattern: entry.name.clone(),
-                    web,
-                    issue: PlyBookIssue::Extrapolated {
-                        at: region.place(q),
-                        extrapolated: entry.pattern.extrapolated.len(),
-                    },
-                });
+            for (n, (region, flat)) in pieces.into_iter().enumerate() {
+                let name = if count > 1 { piece_name(&name, n) } else { name.clone() };
+                let mass = flat.area * mat.ply_thickness * mat.density;
+                let entry = PatternEntry {
+                    name,
+                    ply: p.id.clone(),
+                    order: region.ply + 1,
+                    material: p.material.clone(),
+                    surface: region.surface_name.clone(),
+                    angle: p.angle,
+                    kind,
+                    r_range: region.span,
+                    chord_range: matches!(region.level, Level::Skin(_)).then_some(region.chord),
+                    area_m2: flat.area,
+                    thickness_m: mat.ply_thickness,
+                    mass_kg: mass,
+                    cost: cutting.cost_per_kg.map(|c| c * mass),
+                    locking_angle: cutting.locking_angle,
+                    max_shear_place: region.place(flat.max_shear_at),
+                    max_deviation_place: region.place(flat.max_deviation_at),
+                    pattern: flat,
+                };
+                warnings.extend(drape_warning(&entry, row));
+                let web = region.surface_name.starts_with("web");
+                if let Some(&q) = entry.pattern.cut_short.first() {
+                    warnings.push(PlyBookWarning {
+                        row,
+                        ply: entry.ply.clone(),
+                        pattern: entry.name.clone(),
+                        web,
+                        issue: PlyBookIssue::CutShort {
+                            at: region.place(q),
+                            moved: entry.pattern.cut_short.len(),
+                            points: entry.pattern.outline.len(),
+                            area: entry.area_m2,
+                        },
+                    });
+                }
+                if let Some(&q) = entry.pattern.extrapolated.first() {
+                    warnings.push(PlyBookWarning {
+                        row,
+                        ply: entry.ply.clone(),
+                        pattern: entry.name.clone(),
+                        web,
+                        issue: PlyBookIssue::Extrapolated {
+                            at: region.place(q),
+                            extrapolated: entry.pattern.extrapolated.len(),
+                        },
+                    });
+                }
+                patterns.push(entry);
             }
-            patterns.push(entry);
         }
     }
     let nestings = nest_materials(&patterns, project, params)?;

@@ -1,6 +1,6 @@
 //! One region draped and flattened into a flat pattern.
 
-use super::drape::{DrapeSpec, DrapeSurface, DrapedNet, Prune, drape, frame};
+use super::drape::{DrapeSpec, DrapeSurface, DrapedNet, Prune, drape, drape_over, frame};
 use super::flatten::{FAR_OUT, NetLocator};
 use super::vec3::{cross, dot, norm, point_in_polygon, polygon_area, scale, sub, unit};
 
@@ -226,8 +226,8 @@ pub fn drape_region(
             coarse_locator.indices(q, false).map(|x| [coarse_step * x[0], coarse_step * x[1]])
         })
         .collect();
-    let fine = |prune: Prune| {
-        drape(
+    let fine = |prune: Prune, prior: Option<&DrapedNet>| {
+        drape_over(
             surface,
             &DrapeSpec {
                 seed: spec.seed,
@@ -236,11 +236,12 @@ pub fn drape_region(
                 bounds,
                 region: Some(prune),
             },
+            prior,
         )
     };
     let margin = 3.0 + 2.0 * coarse_step + 0.02 * extent / spec.spacing;
     let net = match in_links {
-        Some(poly) => fine(Prune::Net(poly, margin)),
+        Some(poly) => fine(Prune::Net(poly, margin), None),
         // The coarse net does not reach the whole region (its cells will not close round a
         // small nose, say): the region's net coordinates extrapolated from its nearest cells
         // (within `FAR_OUT` of them) or fitted to the nearest points placed, with a wider margin. That net stands only when it was grown
@@ -248,12 +249,17 @@ pub fn drape_region(
         // net grown over the region mapped linearly with a wide margin; else that net is grown.
         None => {
             let metric = [norm(t0[0]), norm(t0[1])];
-            outline_in_links(&coarse_locator, coarse_step, &spec.boundary, metric)
-                .and_then(|poly| fine(Prune::Net(poly, margin + EXTRAPOLATED_MARGIN)))
-                .filter(|net| covered(net, &spec.boundary))
-                .or_else(|| {
-                    fine(Prune::Param(spec.boundary.clone(), 3.0 * spec.spacing + 0.25 * extent))
-                })
+            let pruned = outline_in_links(&coarse_locator, coarse_step, &spec.boundary, metric)
+                .and_then(|poly| fine(Prune::Net(poly, margin + EXTRAPOLATED_MARGIN), None));
+            match pruned {
+                Some(net) if covered(&net, &spec.boundary) => Some(net),
+                // The wide net takes the nodes the pruned one was grown for from it.
+                pruned => {
+                    let wide =
+                        Prune::Param(spec.boundary.clone(), 3.0 * spec.spacing + 0.25 * extent);
+                    fine(wide, pruned.as_ref())
+                }
+            }
         }
     }
     .ok_or(DrapeFailure::Seed)?;
@@ -312,8 +318,14 @@ pub fn drape_region(
         extrapolated,
         cut_short,
     };
+    // A node outside the boundary's box (by more than round-off of the crossing test) is
+    // outside the boundary: no edge straddles its height, or every edge that does lies on one
+    // side of it (an even count).
+    let slack = 1e-9 * (lo[0].abs() + hi[0].abs() + 1.0);
+    let off_box =
+        |q: [f64; 2]| q[1] < lo[1] || q[1] > hi[1] || q[0] > hi[0] + slack || q[0] < lo[0] - slack;
     for (i, j, node) in net.nodes() {
-        if !point_in_polygon(&spec.boundary, node.param) {
+        if off_box(node.param) || !point_in_polygon(&spec.boundary, node.param) {
             continue;
         }
         pattern.nodes += 1;

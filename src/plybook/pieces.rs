@@ -4,10 +4,12 @@
 
 use super::PlyBookError;
 use super::book::PlyBookParams;
+use super::drape::frame;
 use super::kit::region_name;
 use super::pattern::{DrapeFailure, FlatPattern, drape_region};
 use super::regions::PlyRegion;
 use super::splice::{Splice, halves};
+use super::vec3::{add, cross, dot, scale, unit};
 use crate::blade::Blade;
 use crate::project::PlySpec;
 
@@ -145,7 +147,13 @@ pub(super) fn first_attempts<'a>(
 ) -> Vec<(PlyRegion<'a>, Option<Attempt>)> {
     let count = regions.len();
     let threads = crate::parallel::threads().clamp(1, THREADS);
-    let queue = std::sync::Mutex::new(regions.into_iter().enumerate());
+    // The longest first, so that no long region starts last while the other threads idle.
+    let mut order: Vec<(usize, PlyRegion<'a>)> = regions.into_iter().enumerate().collect();
+    if threads > 1 {
+        let work: Vec<f64> = order.iter().map(|(_, r)| net_size(r)).collect();
+        order.sort_by(|a, b| work[b.0].total_cmp(&work[a.0]));
+    }
+    let queue = std::sync::Mutex::new(order.into_iter());
     let work = || {
         let mut done = Vec::new();
         loop {
@@ -175,5 +183,85 @@ pub(super) fn first_attempts<'a>(
     all.into_iter().map(|(_, region, tried)| (region, tried)).collect()
 }
 
+/// An estimate of the nodes a region's net grows, to share the work out: the box of the
+/// region's boundary about the seed in the tangent plane there, taken along the fibres and
+/// across them (the quadrant closure of the net fills it), over the cell's area.
+fn net_size(region: &PlyRegion) -> f64 {
+    let spec = &region.spec;
+    let (_, n, t) = frame(region.surface(), spec.seed);
+    let a = unit(t[0]);
+    let b = cross(n, a);
+    let (s, c) = spec.angle.sin_cos();
+    let (mut lo, mut hi) = ([0.0_f64; 2], [0.0_f64; 2]);
+    for q in &spec.boundary {
+        let v = add(scale(t[0], q[0] - spec.seed[0]), scale(t[1], q[1] - spec.seed[1]));
+        let (x, y) = (dot(v, a), dot(v, b));
+        let along = [c * x + s * y, c * y - s * x];
+        for k in 0..2 {
+            lo[k] = lo[k].min(along[k]);
+            hi[k] = hi[k].max(along[k]);
+        }
+    }
+    let size = (hi[0] - lo[0]) * (hi[1] - lo[1]) / (spec.spacing * spec.spacing);
+    if size.is_finite() { size } else { 0.0 }
+}
+
 /// Most threads the first attempts are shared over.
 const THREADS: usize = 8;
+
+/// Where a region lay before it was cut in pieces, and its pattern name.
+pub(super) struct Extent {
+    pub(super) span: [f64; 2],
+    pub(super) chord: [f64; 2],
+    pub(super) surface: String,
+    pub(super) name: String,
+}
+
+/// A region cut in pieces (see [`drape_pieces`]), or `None` for a ply without a material.
+pub(super) type Draped<'a> = Option<Result<(Pieces<'a>, Vec<usize>), PlyBookError>>;
+
+/// The regions of one ply (a `both` ply's two skins), each with its first attempt, draped in
+/// pieces (see [`drape_pieces`]) side by side on their own threads. A region's cuts keep clear
+/// only of the `earlier` splices on its own surface, so regions on different surfaces do not
+/// depend on each other and the results, taken in order, are those of draping them one after
+/// the other (regions that share a surface, or all regions on one thread, are draped one after
+/// the other).
+pub(super) fn drape_ply<'a>(
+    blade: &'a Blade,
+    group: Vec<(PlyRegion<'a>, Option<Attempt>)>,
+    params: &PlyBookParams,
+    earlier: &[Splice],
+) -> Vec<(Extent, Draped<'a>)> {
+    let one = |(region, whole): (PlyRegion<'a>, Option<Attempt>)| -> (Extent, Draped<'a>) {
+        let p = blade.ply(region.ply);
+        let extent = Extent {
+            span: region.span,
+            chord: region.chord,
+            surface: region.surface_name.clone(),
+            name: p.map(|p| region_name(p, &region)).unwrap_or_default(),
+        };
+        let draped = match (p, blade.ply_material(region.ply)) {
+            (Some(p), Some(_)) => {
+                let name = extent.name.clone();
+                Some(drape_pieces(blade, region, whole, p, &name, params, earlier, 0))
+            }
+            _ => None,
+        };
+        (extent, draped)
+    };
+    let surfaces: Vec<&str> = group.iter().map(|(r, _)| r.surface_name.as_str()).collect();
+    let apart = surfaces.iter().enumerate().all(|(k, s)| !surfaces[..k].contains(s));
+    if group.len() < 2 || !apart || crate::parallel::threads() < 2 {
+        return group.into_iter().map(one).collect();
+    }
+    std::thread::scope(|scope| {
+        let mut group = group.into_iter();
+        let first = group.next();
+        let others: Vec<_> = group.map(|g| scope.spawn(move || one(g))).collect();
+        let mut out: Vec<(Extent, Draped<'a>)> = first.into_iter().map(one).collect();
+        for h in others {
+            out.push(h.join().unwrap_or_else(|e| std::panic::resume_unwind(e)));
+        }
+        out
+    })
+}

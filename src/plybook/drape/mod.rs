@@ -213,6 +213,19 @@ fn close_cell(
 /// `spec.bounds`, or that cannot be placed (the cloth would have to fold), are left out, and so
 /// is every node that depends on them.
 pub fn drape(surface: &dyn DrapeSurface, spec: &DrapeSpec) -> Option<DrapedNet> {
+    drape_over(surface, spec, None)
+}
+
+/// [`drape`], taking the nodes a `prior` net was grown for from it instead of closing their
+/// cells again. `prior` must have been draped on the same surface with the same seed, warp,
+/// spacing and bounds (only its region differs): a node depends only on the nodes between it
+/// and the seed, which a net grown for that node grows too (see [`DrapedNet::grown`]), so the
+/// net is the one [`drape`] grows, bit for bit.
+pub(crate) fn drape_over(
+    surface: &dyn DrapeSurface,
+    spec: &DrapeSpec,
+    prior: Option<&DrapedNet>,
+) -> Option<DrapedNet> {
     let d = spec.spacing;
     let (x0, n0, t0) = frame(surface, spec.seed);
     let seed = NetNode { param: spec.seed, point: x0, normal: n0 };
@@ -322,6 +335,10 @@ pub fn drape(surface: &dyn DrapeSurface, spec: &DrapeSpec) -> Option<DrapedNet> 
                 if !want(ii, jj) {
                     continue;
                 }
+                if let Some(prior) = prior.filter(|p| p.grown(ii, jj)) {
+                    net.set(ii, jj, prior.node(ii, jj).copied());
+                    continue;
+                }
                 let a = net.node(ii - si, jj).copied();
                 let b = net.node(ii, jj - sj).copied();
                 let c = net.node(ii - si, jj - sj).copied();
@@ -345,3 +362,6 @@ const GENERATOR_STEPS: usize = 4;
 fn sub2(a: [f64; 2], b: [f64; 2]) -> [f64; 2] {
     [a[0] - b[0], a[1] - b[1]]
 }
+
+#[cfg(test)]
+mod tests;

@@ -55,13 +55,29 @@ impl Wanted {
             let j1 = ((p[1].max(q[1]) + margin).ceil() as i32).min(hi[1]);
             for i in i0..=i1 {
                 for j in j0..=j1 {
+                    // Marking is idempotent: a node already wanted needs no distance.
+                    if w.get(i, j) {
+                        continue;
+                    }
                     let (x, y) = (i as f64, j as f64);
                     let t = if l2 > 0.0 {
                         (((x - p[0]) * dx + (y - p[1]) * dy) / l2).clamp(0.0, 1.0)
                     } else {
                         0.0
                     };
-                    if (x - p[0] - t * dx).hypot(y - p[1] - t * dy) <= margin {
+                    let (ex, ey) = (x - p[0] - t * dx, y - p[1] - t * dy);
+                    // The square against the margin's square decides but within round-off of
+                    // the margin, where `hypot` decides as before.
+                    let e2 = ex * ex + ey * ey;
+                    let m2 = margin * margin;
+                    let near = if e2 < m2 * (1.0 - 1e-9) {
+                        true
+                    } else if e2 > m2 * (1.0 + 1e-9) {
+                        false
+                    } else {
+                        ex.hypot(ey) <= margin
+                    };
+                    if near {
                         w.mark(i, j);
                     }
                 }

@@ -59,8 +59,10 @@ impl Beneath {
         if ramp < 0.25 * (self.chord[1] - self.chord[0]) { -ramp / chord * chord_r } else { 0.0 }
     }
 
-    /// The rates of [`Beneath::chord_factor`] along `x` and along the half ramp `hx`.
-    fn chord_factor_rates(&self, f: f64, x: f64, hx: f64) -> [f64; 2] {
+    /// [`Beneath::chord_factor`] with span part `f` and with span part 1, and the former's
+    /// rates along `x` and along the half ramp `hx`, from one evaluation of each ramp (the
+    /// factors are those of [`Beneath::chord_factor`], bit for bit).
+    fn chord_factor_rates(&self, f: f64, x: f64, hx: f64) -> [f64; 4] {
         let (lo, hi) = ((x - self.chord[0]) / hx, (self.chord[1] - x) / hx);
         let (g_lo, g_hi) = (
             if self.chord_edge[0] { smooth_step(lo) } else { 1.0 },
@@ -70,10 +72,20 @@ impl Beneath {
             if self.chord_edge[0] { smooth_step_rate(lo) } else { 0.0 },
             if self.chord_edge[1] { smooth_step_rate(hi) } else { 0.0 },
         );
+        // As `chord_factor`: the ramps multiplied in one after the other.
+        let (mut factor, mut g) = (f, 1.0);
+        if self.chord_edge[0] {
+            factor *= g_lo;
+            g *= g_lo;
+        }
+        if self.chord_edge[1] {
+            factor *= g_hi;
+            g *= g_hi;
+        }
         // d/dx of g(±(x - e)/hx) is ±g'/hx; d/dhx of g(ξ) is -g' ξ/hx.
         let along_x = f * (s_lo * g_hi - g_lo * s_hi) / hx;
         let along_h = -f * (s_lo * lo * g_hi + g_lo * s_hi * hi) / hx;
-        [along_x, along_h]
+        [factor, g, along_x, along_h]
     }
 
     /// Half the chordwise ramp on a section of chord `chord`, chord fractions.
@@ -125,6 +137,8 @@ struct RadiusCache {
     beneath: Vec<(Option<f64>, f64)>,
     /// The span rates there, when first asked for (`None` inside: near a station).
     rates: Option<Option<Rates>>,
+    /// The plies' rates of an earlier radius, a buffer to reuse.
+    spare: Vec<[f64; 2]>,
 }
 
 /// The span rates of a radius: the surfaces', and each ply beneath's span factor and half ramp.
@@ -225,12 +239,21 @@ impl<'a> SkinLevel<'a> {
             old => {
                 let at = self.surfaces.at_radius(r);
                 let phi = (self.blade.twist(r) + self.blade.rotor().pitch).rad();
-                let mut beneath = old.map(|c| c.beneath).unwrap_or_default();
+                let (mut beneath, spare) = match old {
+                    Some(c) => {
+                        let spare = match c.rates {
+                            Some(Some(rates)) => rates.beneath,
+                            _ => c.spare,
+                        };
+                        (c.beneath, spare)
+                    }
+                    None => Default::default(),
+                };
                 beneath.clear();
                 beneath.extend(
                     self.beneath.iter().map(|p| (p.span_factor(r), p.chord_ramp(at.chord))),
                 );
-                RadiusCache { at, sin_cos: phi.sin_cos(), beneath, rates: None }
+                RadiusCache { at, sin_cos: phi.sin_cos(), beneath, rates: None, spare }
             }
         };
         let out = f(&mut c);
@@ -302,16 +325,15 @@ impl<'a> SkinLevel<'a> {
         self.with_radius(r, |c| {
             if c.rates.is_none() {
                 let surface = self.surfaces.radius_rates(&c.at, g);
-                c.rates = Some(surface.map(|surface| {
-                    Rates {
-                        beneath: self
-                            .beneath
-                            .iter()
-                            .map(|p| [p.span_rate(r), p.chord_ramp_rate(c.at.chord, surface.chord)])
-                            .collect(),
-                        surface,
-                    }
-                }));
+                let mut beneath = std::mem::take(&mut c.spare);
+                c.rates =
+                    Some(surface.map(|surface| {
+                        beneath.clear();
+                        beneath.extend(self.beneath.iter().map(|p| {
+                            [p.span_rate(r), p.chord_ramp_rate(c.at.chord, surface.chord)]
+                        }));
+                        Rates { beneath, surface }
+                    }));
             }
             let rates = c.rates.as_ref()?.as_ref()?;
             let jet = self.surfaces.outer_jet(&c.at, &rates.surface, side, ua);
@@ -321,16 +343,21 @@ impl<'a> SkinLevel<'a> {
     }
 
     /// The offset of [`SkinLevel::offset`] and its rates along `x` and `r`.
+    /// The offset is [`SkinLevel::offset`]'s, bit for bit: the same terms added in the same
+    /// order from the same start.
     fn offset_rates(&self, c: &RadiusCache, rates: &Rates, x: f64) -> (f64, f64, f64) {
-        let t = self.offset(c, x);
+        let mut t: f64 = std::iter::empty::<f64>().sum();
         let (mut t_x, mut t_r) = (0.0, 0.0);
         for ((p, &(f, hx)), &[f_r, hx_r]) in self.beneath.iter().zip(&c.beneath).zip(&rates.beneath)
         {
-            let Some(f) = f else { continue };
-            let [along_x, along_h] = p.chord_factor_rates(f, x, hx);
+            let Some(f) = f else {
+                t += p.thickness * 0.0;
+                continue;
+            };
+            let [factor, g, along_x, along_h] = p.chord_factor_rates(f, x, hx);
+            t += p.thickness * factor;
             t_x += p.thickness * along_x;
             // The span factor enters the chord factor as a factor.
-            let g = p.chord_factor(1.0, x, hx);
             t_r += p.thickness * (f_r * g + along_h * hx_r);
         }
         (t, t_x, t_r)
