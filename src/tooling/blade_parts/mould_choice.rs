@@ -254,29 +254,57 @@ pub(super) fn choose_pull(
         candidates.push(pull_angle(blade, pitch));
     }
     candidates.extend([Angle::from_deg(hi + 0.5), Angle::from_deg(lo - 0.5)]);
+    // A pull that does not draw every section may part the surface where it folds: the loft or
+    // the mould can fail there, and the next candidate (or the split along the span, see
+    // `choose_mould`) is tried.
+    let attempt = |angle: Angle| -> Result<(MouldParts, LoftedSolid), MeshError> {
+        let solid = loft_solid(&SilhouetteSurface::new(outer, angle), trims, loft)
+            .map_err(|e| MeshError::Geometry(format!("the outer mould line: {e}")))?;
+        Ok((mould_parts(&solid, params, angle)?, solid))
+    };
     let mut best: Option<(LoftedSolid, Angle, MouldParts, f64)> = None;
     let mut failed = None;
-    for angle in candidates {
-        // A pull that does not draw every section may part the surface where it folds: the
-        // loft or the mould can fail there, and the next candidate (or the split along the
-        // span, see `choose_mould`) is tried.
-        let tried = loft_solid(&SilhouetteSurface::new(outer, angle), trims, loft)
-            .map_err(|e| MeshError::Geometry(format!("the outer mould line: {e}")))
-            .and_then(|solid| Ok((mould_parts(&solid, params, angle)?, solid)));
-        let (set, solid) = match tried {
-            Ok(t) => t,
-            Err(e) => {
-                failed.get_or_insert(e);
-                continue;
-            }
+    // The first candidate alone (it draws most blades); when it leaves undercuts, the rest
+    // side by side on two cores, taken in the same order as one after the other: the first
+    // that draws every section wins, else the least undercut, the earlier on a tie.
+    let mut k = 0;
+    while k < candidates.len() {
+        let batch = if k == 0 || crate::parallel::threads() < 2 { 1 } else { candidates.len() - k };
+        let tried: Vec<_> = if batch == 1 {
+            vec![attempt(candidates[k])]
+        } else {
+            std::thread::scope(|s| {
+                let attempt = &attempt;
+                let handles: Vec<_> =
+                    candidates[k..].iter().map(|&angle| s.spawn(move || attempt(angle))).collect();
+                handles
+                    .into_iter()
+                    .map(|h| h.join().unwrap_or_else(|e| std::panic::resume_unwind(e)))
+                    .collect()
+            })
         };
-        let undercut: f64 = set.halves.iter().map(|h| h.draft.undercut_area).sum();
-        if best.as_ref().is_none_or(|b| undercut < b.3) {
-            best = Some((solid, angle, set, undercut));
+        let mut done = false;
+        for (tried, &angle) in tried.into_iter().zip(&candidates[k..k + batch]) {
+            let (set, solid) = match tried {
+                Ok(t) => t,
+                Err(e) => {
+                    failed.get_or_insert(e);
+                    continue;
+                }
+            };
+            let undercut: f64 = set.halves.iter().map(|h| h.draft.undercut_area).sum();
+            if best.as_ref().is_none_or(|b| undercut < b.3) {
+                best = Some((solid, angle, set, undercut));
+            }
+            if undercut == 0.0 {
+                done = true;
+                break;
+            }
         }
-        if undercut == 0.0 {
+        if done {
             break;
         }
+        k += batch;
     }
     let (solid, angle, set, _) = match (best, failed) {
         (Some(b), _) => b,
