@@ -235,7 +235,9 @@ pub(super) fn casting_moulds(
 /// With the pull beyond the range of chord angles, one corner of the base is the extreme
 /// across the pull at every radius (for turns below 90° less the surface's slope at the
 /// corner) and the base goes whole to one half. When no candidate removes every undercut, the
-/// one with the least undercut area is kept and its undercuts are reported.
+/// one with the least undercut area is kept and its undercuts are reported. Once the first
+/// leaves undercuts, the others are built side by side and read in this order, so the choice
+/// is the one made one after the other.
 pub(super) fn choose_pull(
     blade: &Blade,
     outer: &BladeSurface<'_>,
