@@ -36,20 +36,10 @@ fn bench_generated(c: &mut Runner) {
     let file = large_blade::write(dir.path(), size).expect("write the generated blade");
     let model = BladeModel::build(read_project(&file).expect("generated project reads"))
         .expect("generated model builds");
-    let props = model.properties();
     let mut evaluations = 0u64;
-    for case in &model.project.load_cases {
-        let pitch = case.pitch.unwrap_or(model.project.rotor.pitch);
-        let loads = span_loads(
-            &LoadDistribution::new(&props, &model.project.point_masses, case, pitch)
-                .expect("loads"),
-        );
-        for st in &model.stations {
-            let res = loads.chord_at(st.layout.r);
-            let points = recover_at(&st.layout, &st.section, &res, case.delta_t).expect("recovery");
-            evaluations += points.iter().map(|p| 8 * p.plies.len() as u64).sum::<u64>();
-        }
-    }
+    recover_all(&model, &mut |points| {
+        evaluations += points.iter().map(|p| 8 * p.plies.len() as u64).sum::<u64>();
+    });
     eprintln!("generated blade: {evaluations} ply-face-criterion evaluations per call");
     let mut g = c.benchmark_group("stress");
     g.sample_size(10);
@@ -86,6 +76,24 @@ fn bench_generated(c: &mut Runner) {
     }
 }
 
+/// The ply stresses and strength ratios of every load case at every station of `model` (loads
+/// along the span, then the recovery alone: no pitch sweep, no deflection), each station's
+/// points handed to `each`.
+fn recover_all(model: &BladeModel, each: &mut dyn FnMut(Vec<layloft::stress::PointStress>)) {
+    let props = model.properties();
+    for case in &model.project.load_cases {
+        let pitch = case.pitch.unwrap_or(model.project.rotor.pitch);
+        let loads = span_loads(
+            &LoadDistribution::new(&props, &model.project.point_masses, case, pitch)
+                .expect("loads"),
+        );
+        for st in &model.stations {
+            let res = loads.chord_at(st.layout.r);
+            each(recover_at(&st.layout, &st.section, &res, case.delta_t).expect("recovery"));
+        }
+    }
+}
+
 /// User plus system CPU time of this process so far, s (Linux `/proc/self/stat`, in ticks of
 /// 1/100 s); `None` elsewhere.
 fn process_cpu_seconds() -> Option<f64> {
@@ -103,20 +111,10 @@ fn bench_mode(c: &mut Runner, wall_bending: bool) {
     project.sections.wall_bending = wall_bending;
     let model = BladeModel::build(project).expect("demo model");
     let mode = if wall_bending { "wall bending" } else { "walls held" };
-    let props = model.properties();
     let mut faces = 0;
-    for case in &model.project.load_cases {
-        let pitch = case.pitch.unwrap_or(model.project.rotor.pitch);
-        let loads = span_loads(
-            &LoadDistribution::new(&props, &model.project.point_masses, case, pitch)
-                .expect("loads"),
-        );
-        for st in &model.stations {
-            let res = loads.chord_at(st.layout.r);
-            let points = recover_at(&st.layout, &st.section, &res, case.delta_t).expect("recovery");
-            faces += points.iter().map(|p| 2 * p.plies.len()).sum::<usize>();
-        }
-    }
+    recover_all(&model, &mut |points| {
+        faces += points.iter().map(|p| 2 * p.plies.len()).sum::<usize>()
+    });
     eprintln!("mine-fan, {mode}: {faces} ply faces per recovery-only iteration");
     let mut g = c.benchmark_group("stress");
     g.sample_size(20);
@@ -124,19 +122,7 @@ fn bench_mode(c: &mut Runner, wall_bending: bool) {
         b.iter(|| analyse_cases(&model, None).expect("stress"))
     });
     g.bench_function(format!("mine-fan, recovery only, {mode}"), |b| {
-        b.iter(|| {
-            for case in &model.project.load_cases {
-                let pitch = case.pitch.unwrap_or(model.project.rotor.pitch);
-                let loads = span_loads(
-                    &LoadDistribution::new(&props, &model.project.point_masses, case, pitch)
-                        .expect("loads"),
-                );
-                for st in &model.stations {
-                    let res = loads.chord_at(st.layout.r);
-                    recover_at(&st.layout, &st.section, &res, case.delta_t).expect("recovery");
-                }
-            }
-        })
+        b.iter(|| recover_all(&model, &mut |points| drop(kit::black_box(points))))
     });
     g.bench_function(format!("mine-fan, all cases, summaries only, {mode}"), |b| {
         b.iter(|| {
