@@ -186,7 +186,6 @@ mod tests {
 
     use super::*;
     use crate::laminate::Ply;
-    use crate::material::Lamina;
     use crate::units::Angle;
 
     /// The shared work of [`Laminate::responses`] changes no number: each response is, bit for
@@ -194,24 +193,9 @@ mod tests {
     /// materials under resultants and deformations with a temperature change.
     #[test]
     fn responses_together_equal_responses_alone_to_the_bit() {
-        // T300/5208 (Kaw, Mechanics of Composite Materials, 2nd ed., 2006, Table 2.1) and an
-        // E-glass/epoxy of the same table.
-        let carbon = Arc::new(
-            Lamina::builder("t300")
-                .elastic(181e9, 10.3e9, 7.17e9, 0.28)
-                .ply_thickness(0.125e-3)
-                .cte(0.02e-6, 22.5e-6)
-                .build()
-                .expect("lamina"),
-        );
-        let glass = Arc::new(
-            Lamina::builder("glass")
-                .elastic(38.6e9, 8.27e9, 4.14e9, 0.26)
-                .ply_thickness(0.2e-3)
-                .cte(8.6e-6, 22.1e-6)
-                .build()
-                .expect("lamina"),
-        );
+        // T300/5208 and an E-glass/epoxy (`material::kaw`, a published table).
+        let carbon = Arc::new(crate::material::kaw::t300().build().expect("lamina"));
+        let glass = Arc::new(crate::material::kaw::e_glass().build().expect("lamina"));
         let lam = Laminate::new(vec![
             Ply::new(carbon.clone(), Angle::from_deg(0.0)),
             Ply::new(glass.clone(), Angle::from_deg(30.0)),

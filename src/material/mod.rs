@@ -10,6 +10,8 @@
 //! positive moduli and strengths, and Poisson's ratio within the thermodynamic bound
 //! |nu12| < sqrt(E1/E2) (Jones, *Mechanics of Composite Materials*, 2nd ed., 1999, §2.4.2).
 
+#[cfg(test)]
+pub(crate) mod kaw;
 mod library;
 mod validate;
 

@@ -423,27 +423,10 @@ mod tests {
     #[test]
     fn direct_unit_responses_are_those_of_the_laminate_to_the_bit() {
         use crate::units::Angle;
-        // T300/5208 and an E-glass/epoxy (Kaw, Mechanics of Composite Materials, 2nd ed.,
-        // 2006, Table 2.1; CTEs from the same table, from memory), and a foam-like isotropic
-        // layer without CTEs (invented values).
-        let carbon = Arc::new(
-            Lamina::builder("t300")
-                .elastic(181e9, 10.3e9, 7.17e9, 0.28)
-                .ply_thickness(0.125e-3)
-                .strengths(1500e6, 1500e6, 40e6, 246e6, 68e6)
-                .cte(0.02e-6, 22.5e-6)
-                .build()
-                .unwrap(),
-        );
-        let glass = Arc::new(
-            Lamina::builder("glass")
-                .elastic(38.6e9, 8.27e9, 4.14e9, 0.26)
-                .ply_thickness(0.2e-3)
-                .strengths(1062e6, 610e6, 31e6, 118e6, 72e6)
-                .cte(8.6e-6, 22.1e-6)
-                .build()
-                .unwrap(),
-        );
+        // T300/5208 and an E-glass/epoxy (`material::kaw`, a published table), and a foam-like
+        // isotropic layer without CTEs (invented values).
+        let carbon = Arc::new(crate::material::kaw::t300().build().unwrap());
+        let glass = Arc::new(crate::material::kaw::e_glass().build().unwrap());
         let foam = Arc::new(
             Lamina::builder("foam")
                 .elastic(0.1e9, 0.1e9, 0.04e9, 0.25)
