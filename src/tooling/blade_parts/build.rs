@@ -2,6 +2,7 @@
 //! prints, the shell, and the mould and casting moulds chosen in `mould_choice`.
 
 use super::*;
+use crate::mesh::{CheckParams, check_solid};
 
 /// A core cell through consecutive span segments: bounded in front by the leading-edge cut
 /// (`None`) or web `k`'s back face, behind by web `k`'s front face or the trailing-edge cut.
@@ -209,6 +210,9 @@ pub fn build_tooling(
     let side = |trim: EndTrim| trim.chord_for_sag(0.5 * params.tolerance).min(loft.max_edge);
     let (mut printed, mut sealed, mut unprinted) = (Vec::new(), Vec::new(), Vec::new());
     let mut print_dropped = Vec::new();
+    // Each printed core's part index, end and plain solid, in case the shell cannot take its
+    // port (below).
+    let mut plain = Vec::new();
     for (i, ((cell, trims), span)) in cells.iter().zip(&spans).enumerate() {
         let name = format!("core-{}", i + 1);
         let solid = loft_solid(cell, trims, &loft)
@@ -240,6 +244,7 @@ pub fn build_tooling(
                     Ok(p) => {
                         let mesh = p.mesh.clone();
                         printed.push(p);
+                        plain.push((parts.len(), end, solid.mesh));
                         mesh
                     }
                     Err(reason) => {
@@ -262,23 +267,72 @@ pub fn build_tooling(
         parts.push(Part { name, kind: PartKind::Core, mesh, nominal_volume });
         step(&format!("core {}", i + 1), progress);
     }
-    let shell = if printed.is_empty() {
+    let plain_shell = |cavities: &[Mesh]| {
         let mut shell = outer_solid.mesh.clone();
-        for core in &sealed {
+        for core in cavities {
             let mut cavity = core.clone();
             cavity.flip();
             shell.merge(&cavity);
         }
         shell
+    };
+    let ported = if printed.is_empty() {
+        None
     } else {
-        shell_with_ports(
-            &outer_solid,
-            &printed.iter().collect::<Vec<_>>(),
-            &sealed.iter().collect::<Vec<_>>(),
-            [outer_trims.root, outer_trims.tip],
-            side(outer_trims.root).min(side(outer_trims.tip)),
+        // The shell is checked here for what its ports add (closed, oriented, no degenerate
+        // facet); the check of every part before writing repeats it with the self-intersection
+        // test.
+        let topology =
+            CheckParams { unit: params.unit, self_intersection: false, ..CheckParams::default() };
+        Some(
+            shell_with_ports(
+                &outer_solid,
+                &printed.iter().collect::<Vec<_>>(),
+                &sealed.iter().collect::<Vec<_>>(),
+                [outer_trims.root, outer_trims.tip],
+                side(outer_trims.root).min(side(outer_trims.tip)),
+            )
+            .map_err(|e| MeshError::Geometry(format!("the shell's ports: {e}")))
+            .and_then(|shell| {
+                check_solid(&shell, "the shell with its ports", &topology).map(|_| shell)
+            }),
         )
-        .map_err(|e| MeshError::Geometry(format!("shell: {e}")))?
+    };
+    let shell = match ported {
+        None => plain_shell(&sealed),
+        Some(Ok(shell)) => shell,
+        // A shell that cannot take the ports costs the cores their prints, not the blade its
+        // tooling: every printed core is made as with prints off and reported, and the shell
+        // is the one of prints off (cavities in core order).
+        Some(Err(reason)) => {
+            let mut cavities = Vec::with_capacity(sealed.len() + plain.len());
+            let mut sealed_left = sealed.drain(..);
+            let mut plain_left = plain.drain(..).peekable();
+            let cores: Vec<usize> =
+                (0..parts.len()).filter(|&k| parts[k].kind == PartKind::Core).collect();
+            for k in cores {
+                match plain_left.next_if(|(at, _, _)| *at == k) {
+                    Some((_, end, mesh)) => {
+                        let part = &mut parts[k];
+                        part.nominal_volume = mesh.signed_volume();
+                        part.mesh = mesh.clone();
+                        if params.core_shrink_factor != 1.0 {
+                            part.mesh.scale(params.core_shrink_factor);
+                        }
+                        print_dropped.push(DroppedPrint {
+                            core: part.name.clone(),
+                            end,
+                            reason: reason.clone(),
+                        });
+                        cavities.push(mesh);
+                    }
+                    None => cavities.extend(sealed_left.next()),
+                }
+            }
+            drop(sealed_left);
+            printed.clear();
+            plain_shell(&cavities)
+        }
     };
     let shell_volume = shell.signed_volume();
     parts.push(Part {
