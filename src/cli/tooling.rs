@@ -23,7 +23,8 @@ use layloft::output::{FileSet, stale_files};
 use layloft::project::Project;
 use layloft::report::ToolingReport;
 use layloft::tooling::{
-    MANIFEST_FILE, Manifest, ManifestEntry, StaleFiles, ToolingParams, build_tooling, summarise,
+    CastingNote, MANIFEST_FILE, Manifest, ManifestEntry, StaleFiles, ToolingParams, build_tooling,
+    summarise,
 };
 use layloft::units::MM;
 
@@ -182,43 +183,63 @@ pub fn build_and_write(
     out: &Output,
 ) -> Result<Written, Failure> {
     let mut bar = None;
-    let tooling = build_tooling(blade, params, &mut |_, total, stage| {
+    let mut tooling = build_tooling(blade, params, &mut |_, total, stage| {
         let b = bar.get_or_insert_with(|| out.progress(total as u64, "lofting"));
         b.set_message(&format!("lofted {stage}"));
         b.inc(1);
     })
     .map_err(|e| mesh_failure(sources, e))?;
     drop(bar);
-    let mut parts: Vec<(&str, &Mesh)> =
-        tooling.parts.iter().map(|p| (p.name.as_str(), &p.mesh)).collect();
-    let mut copies: Vec<(&str, &Mesh)> =
-        tooling.machining.iter().map(|m| (m.name.as_str(), &m.mesh)).collect();
-    // The cores' casting moulds, after the blade's parts and their machining frames.
-    for m in &tooling.casting {
-        parts.extend(m.parts.iter().map(|p| (p.name.as_str(), &p.mesh)));
-        copies.extend(m.machining.iter().map(|c| (c.name.as_str(), &c.mesh)));
-    }
-    // The new set, and what an earlier run left in the folder that it does not hold.
-    let mut set: Vec<String> =
-        parts.iter().chain(&copies).map(|(n, _)| format!("{n}.stl")).collect();
-    set.push(SUMMARY_FILE.into());
-    set.push(EXPLODED_FILE.into());
-    let stale = stale_files(dir, &set);
     // The whole set is checked and encoded in memory, then put in place as one (`FileSet`),
     // so that a failure or a killed run leaves the earlier set whole; each file is written once.
-    let bar = out.progress(2 * (parts.len() + copies.len()) as u64, "checking");
-    let encoded = encode_part_set_with_progress(
-        &parts,
-        &copies,
-        stl,
-        &CheckParams::default(),
-        &mut |_, _, what| {
-            bar.set_message(what);
-            bar.inc(1);
-        },
-    )
-    .map_err(|m| Failure::Run(anyhow!("a part failed its check, nothing was written: {m}")))?;
-    bar.finish();
+    // A casting mould whose part fails its check costs its core the casting mould (a note, as
+    // for one that cannot be built), not the blade its tooling: the set is checked again
+    // without it.
+    let (encoded, stale) = loop {
+        let mut parts: Vec<(&str, &Mesh)> =
+            tooling.parts.iter().map(|p| (p.name.as_str(), &p.mesh)).collect();
+        let mut copies: Vec<(&str, &Mesh)> =
+            tooling.machining.iter().map(|m| (m.name.as_str(), &m.mesh)).collect();
+        // The cores' casting moulds, after the blade's parts and their machining frames.
+        for m in &tooling.casting {
+            parts.extend(m.parts.iter().map(|p| (p.name.as_str(), &p.mesh)));
+            copies.extend(m.machining.iter().map(|c| (c.name.as_str(), &c.mesh)));
+        }
+        // The new set, and what an earlier run left in the folder that it does not hold.
+        let mut set: Vec<String> =
+            parts.iter().chain(&copies).map(|(n, _)| format!("{n}.stl")).collect();
+        set.push(SUMMARY_FILE.into());
+        set.push(EXPLODED_FILE.into());
+        let stale = stale_files(dir, &set);
+        let bar = out.progress(2 * (parts.len() + copies.len()) as u64, "checking");
+        let checked = encode_part_set_with_progress(
+            &parts,
+            &copies,
+            stl,
+            &CheckParams::default(),
+            &mut |_, _, what| {
+                bar.set_message(what);
+                bar.inc(1);
+            },
+        );
+        bar.finish();
+        let failed = match checked {
+            Ok(encoded) => break (encoded, stale),
+            Err(m) => m,
+        };
+        let cast = failed.part().and_then(|name| {
+            tooling.casting.iter().position(|c| {
+                c.parts.iter().any(|p| p.name == name) || c.machining.iter().any(|p| p.name == name)
+            })
+        });
+        let Some(k) = cast else {
+            return Err(Failure::Run(anyhow!(
+                "a part failed its check, nothing was written: {failed}"
+            )));
+        };
+        let mould = tooling.casting.remove(k);
+        tooling.casting_notes.push(CastingNote::NoMould { core: mould.core, reason: failed });
+    };
     let summary = summarise(project, blade, &tooling);
     let format = format!(
         "{} STL in {}",

@@ -241,3 +241,31 @@ pub enum MeshError {
         at: Place,
     },
 }
+
+impl MeshError {
+    /// The part a failed check names, if it names one.
+    pub fn part(&self) -> Option<&str> {
+        use MeshError::*;
+        match self {
+            Empty { part }
+            | Index { part, .. }
+            | NonFinite { part, .. }
+            | Degenerate { part, .. }
+            | OpenEdge { part, .. }
+            | NonManifoldEdge { part, .. }
+            | Orientation { part, .. }
+            | NonManifoldVertex { part, .. }
+            | Facing { part, .. }
+            | Coincident { part, .. }
+            | SelfIntersection { part, .. } => Some(part),
+            DuplicatePart(part) => Some(part),
+            Parameter { .. }
+            | Trim { .. }
+            | Geometry(_)
+            | Settings(_)
+            | StationShape { .. }
+            | Refinement { .. }
+            | Unit(_) => None,
+        }
+    }
+}
