@@ -201,12 +201,7 @@ fn without_a_tooling_table_defaults_apply_and_the_alloy_mass_is_not_computed() {
 
 /// A copy of the mine-fan demo with `[tooling]` lines replaced.
 fn demo_copy(dir: &Path, replace: &[(&str, &str)]) -> PathBuf {
-    let src = Path::new(env!("CARGO_MANIFEST_DIR")).join("layups/mine-fan");
-    for e in std::fs::read_dir(&src).unwrap() {
-        let e = e.unwrap();
-        std::fs::copy(e.path(), dir.join(e.file_name())).unwrap();
-    }
-    let toml = dir.join("blade.toml");
+    let toml = crate::support_run::copy_demo("mine-fan", dir);
     let mut text = std::fs::read_to_string(&toml).unwrap();
     for (from, to) in replace {
         assert!(text.contains(from), "{from}");
@@ -285,11 +280,7 @@ r_m,chord_m,twist_deg,pitch_axis_frac,airfoil
 #[test]
 fn a_casting_mould_that_fails_its_check_costs_its_core_the_mould_not_the_set() {
     let dir = tempfile::tempdir().unwrap();
-    let src = Path::new(env!("CARGO_MANIFEST_DIR")).join("layups/small-wind");
-    for e in std::fs::read_dir(&src).unwrap() {
-        let e = e.unwrap();
-        std::fs::copy(e.path(), dir.path().join(e.file_name())).unwrap();
-    }
+    crate::support_run::copy_demo("small-wind", dir.path());
     std::fs::write(dir.path().join("stations.csv"), HALF_TWIST).unwrap();
     let out = dir.path().join("meshes");
     let (code, _, stderr) = layloft(&[

@@ -27,11 +27,7 @@ fn files_in(dir: &Path) -> Vec<String> {
 
 /// A copy of the mine-fan demo, with a rear web from the root to r = 0.70 m when `rear`.
 fn demo(dir: &Path, rear: bool) -> PathBuf {
-    let src = Path::new(env!("CARGO_MANIFEST_DIR")).join("layups/mine-fan");
-    for e in std::fs::read_dir(&src).unwrap() {
-        let e = e.unwrap();
-        std::fs::copy(e.path(), dir.join(e.file_name())).unwrap();
-    }
+    crate::support_run::copy_demo("mine-fan", dir);
     if rear {
         let toml = dir.join("blade.toml");
         let text = std::fs::read_to_string(&toml).unwrap().replace(

@@ -76,11 +76,7 @@ fn arc_section() -> String {
 
 /// A copy of the mine-fan demo in `dir` with the stations `stations` (and the invented section).
 fn copy_demo(dir: &Path, stations: &str) -> PathBuf {
-    let src = Path::new(env!("CARGO_MANIFEST_DIR")).join("layups/mine-fan");
-    for e in std::fs::read_dir(&src).unwrap() {
-        let e = e.unwrap();
-        std::fs::copy(e.path(), dir.join(e.file_name())).unwrap();
-    }
+    crate::support_run::copy_demo("mine-fan", dir);
     std::fs::write(dir.join("stations.csv"), stations).unwrap();
     std::fs::write(dir.join("arc.dat"), arc_section()).unwrap();
     dir.join("blade.toml")

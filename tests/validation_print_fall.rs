@@ -21,11 +21,7 @@ use layloft::tooling::{BladeTooling, PartKind, ToolingParams, build_tooling, sum
 
 /// A copy of the mine-fan demo in `dir` with an invented rear web at `chord_frac`, root to tip.
 fn with_rear_web(dir: &std::path::Path, chord_frac: f64) -> std::path::PathBuf {
-    let src = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("layups/mine-fan");
-    for e in std::fs::read_dir(&src).unwrap() {
-        let e = e.unwrap();
-        std::fs::copy(e.path(), dir.join(e.file_name())).unwrap();
-    }
+    crate::support_run::copy_demo("mine-fan", dir);
     let toml = dir.join("blade.toml");
     let text = std::fs::read_to_string(&toml).unwrap().replace(
         "[[point_mass]]",
@@ -111,13 +107,9 @@ r_m,chord_m,twist_deg,pitch_axis_frac,airfoil
 #[test]
 fn a_shell_that_cannot_take_the_ports_drops_the_prints_not_the_tooling() {
     let dir = tempfile::tempdir().unwrap();
-    let src = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("layups/mine-fan");
-    for e in std::fs::read_dir(&src).unwrap() {
-        let e = e.unwrap();
-        std::fs::copy(e.path(), dir.path().join(e.file_name())).unwrap();
-    }
+    let toml = crate::support_run::copy_demo("mine-fan", dir.path());
     std::fs::write(dir.path().join("stations.csv"), STEEP_ROOT).unwrap();
-    let project = read_project(&dir.path().join("blade.toml")).expect("the project reads");
+    let project = read_project(&toml).expect("the project reads");
     let blade = Blade::from_project(&project).expect("the blade lofts");
     let spec = project.tooling.clone().unwrap_or_default();
     // The casting moulds are not what is tested here.

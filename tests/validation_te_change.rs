@@ -63,11 +63,7 @@ r_m,chord_m,twist_deg,pitch_axis_frac,airfoil
 
 /// A copy of the round-root demo in `dir` with the stations `stations`.
 fn copy_demo(dir: &Path, stations: &str) -> PathBuf {
-    let src = Path::new(env!("CARGO_MANIFEST_DIR")).join("layups/round-root");
-    for e in std::fs::read_dir(&src).unwrap() {
-        let e = e.unwrap();
-        std::fs::copy(e.path(), dir.join(e.file_name())).unwrap();
-    }
+    crate::support_run::copy_demo("round-root", dir);
     std::fs::write(dir.join("stations.csv"), stations).unwrap();
     dir.join("blade.toml")
 }

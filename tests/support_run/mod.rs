@@ -193,3 +193,16 @@ fn a_run_past_its_time_limit_is_killed_and_a_failing_run_says_so() {
         .stderr(predicate::str::contains("no-such-command"));
     assert!(Command::cargo_bin("layloft-else").is_err());
 }
+
+/// Copies the files of the demo project `layups/<demo>/` into `dir` (an invented test blade
+/// starts as a copy of a demo and changes a file or two); the path of the copy's `blade.toml`.
+pub fn copy_demo(demo: &str, dir: &Path) -> std::path::PathBuf {
+    let src = Path::new(env!("CARGO_MANIFEST_DIR")).join("layups").join(demo);
+    for entry in std::fs::read_dir(&src).unwrap() {
+        let entry = entry.unwrap();
+        if entry.path().is_file() {
+            std::fs::copy(entry.path(), dir.join(entry.file_name())).unwrap();
+        }
+    }
+    dir.join("blade.toml")
+}
