@@ -6,10 +6,10 @@
 //! whose print cannot be made has none, is sealed in the shell as with prints off, and the
 //! summary carries a finding naming it.
 //!
-//! A shell that cannot take the prints' ports (an invented thin, cambered blade with 66° of
-//! root twist, where the root cap round the ports does not close into a two-manifold surface)
-//! costs the cores their prints, not the blade its tooling: the cores and the shell are those of
-//! prints off, to the vertex.
+//! An invented thin, cambered blade with 66° of root twist, whose root cap round the ports once
+//! failed its check and cost the blade its whole tooling, builds with every part a solid and
+//! each core with its print or a finding; should its shell not take the ports, the cores and the
+//! shell are those of prints off, to the vertex.
 //!
 //! Sources: the volume balance of the shell (Cavalieri: the outer solid is the shell and its
 //! cores, to 0.1 %) and the solid check above.
@@ -64,20 +64,27 @@ fn every_part_is_a_solid(t: &BladeTooling) {
     assert!(outer > 0.0);
 }
 
+/// Until 2026-12-04 the thin trailing cell behind a rear web at 90 % chord lost its print here:
+/// the cap round its print kept a sliver outside the contour (an edge of three triangles), and
+/// the printed core failed its check. With the cap's faces told by its constraint edges the print
+/// is made; whichever way it goes, the core has a print or a finding, never both, and a finding
+/// tells the caster what to do.
 #[test]
-fn a_thin_trailing_cell_gets_no_print_and_a_finding() {
+fn a_thin_trailing_cell_gets_a_print_or_a_finding() {
     let (t, words) = build(0.90);
     every_part_is_a_solid(&t);
     let cores: Vec<&str> =
         t.parts.iter().filter(|p| p.kind == PartKind::Core).map(|p| p.name.as_str()).collect();
     assert_eq!(cores.len(), 3, "{cores:?}");
-    assert!(t.prints.iter().all(|p| p.core != "core-3"), "the thin core has a print: {words:#?}");
     assert!(t.prints.iter().any(|p| p.core == "core-1"), "the front core keeps its print");
+    let printed = t.prints.iter().any(|p| p.core == "core-3");
     let dropped: Vec<&String> =
         words.iter().filter(|w| w.starts_with("core-3: NO PRINT")).collect();
-    assert_eq!(dropped.len(), 1, "{words:#?}");
-    assert!(dropped[0].contains("hold and drain"), "{}", dropped[0]);
-    assert!(!dropped[0].contains("bulkhead"), "{}", dropped[0]);
+    assert!(printed != (dropped.len() == 1), "core-3: print {printed}: {words:#?}");
+    for d in dropped {
+        assert!(d.contains("hold and drain"), "{d}");
+        assert!(!d.contains("bulkhead"), "{d}");
+    }
 }
 
 #[test]
@@ -91,7 +98,8 @@ fn a_rear_web_at_85_percent_chord_builds_with_a_print_or_a_finding() {
 
 /// Stations of an invented blade (the mine-fan demo's radii and chords, a NACA 6409 section and
 /// one and a half times its twist), on which the root cap round the ports of the default prints
-/// fails its check at a 0.2 mm tolerance.
+/// failed its check at a 0.2 mm tolerance before the cap's faces were told by its constraint
+/// edges.
 const STEEP_ROOT: &str = "\
 # INVENTED TEST DATA: thin, cambered and steeply twisted at the root.
 r_m,chord_m,twist_deg,pitch_axis_frac,airfoil

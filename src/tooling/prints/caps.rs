@@ -19,11 +19,9 @@ pub(crate) fn cap_with_holes(
     let mut ids: HashMap<usize, u32> = HashMap::new();
     let loops: Vec<&[u32]> =
         std::iter::once(ring).chain(holes.iter().map(|l| l.as_slice())).collect();
-    let mut polys: Vec<Vec<[f64; 2]>> = Vec::with_capacity(loops.len());
     let mut handles = Vec::with_capacity(loops.len());
     for lp in &loops {
         let mut hs = Vec::with_capacity(lp.len());
-        let mut poly = Vec::with_capacity(lp.len());
         for &v in lp.iter() {
             let p = mesh.vertices[v as usize];
             let hnd = cdt
@@ -33,10 +31,8 @@ pub(crate) fn cap_with_holes(
                 return Err(fail("two points of its outlines coincide in the section plane"));
             }
             hs.push(hnd);
-            poly.push([p[1], p[2]]);
         }
         handles.push(hs);
-        polys.push(poly);
     }
     for hs in &handles {
         for i in 0..hs.len() {
@@ -55,19 +51,21 @@ pub(crate) fn cap_with_holes(
     if h.is_finite() {
         params = params.with_max_allowed_area(0.433 * h * h);
     }
-    cdt.refine(params);
+    // The faces outside the ring and inside the holes are told by the constraint edges (an
+    // even number of them crossed from the outside), not by a test of a face's centroid, which
+    // a sliver along a nearly straight stretch of the ring can fail either way.
+    let outside: std::collections::HashSet<_> =
+        cdt.refine(params).excluded_faces.into_iter().collect();
     let mut tris: Vec<[u32; 3]> = Vec::new();
     for face in cdt.inner_faces() {
+        if outside.contains(&face.fix()) {
+            continue;
+        }
         let vs = face.vertices();
         let pts = vs.map(|v| {
             let p = v.position();
             [p.x, p.y]
         });
-        let mid =
-            [(pts[0][0] + pts[1][0] + pts[2][0]) / 3.0, (pts[0][1] + pts[1][1] + pts[2][1]) / 3.0];
-        if !inside(&polys[0], mid) || polys[1..].iter().any(|p| inside(p, mid)) {
-            continue;
-        }
         let mut tri = [0u32; 3];
         for (k, v) in vs.iter().enumerate() {
             let key = v.fix().index();
