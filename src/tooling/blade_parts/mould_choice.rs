@@ -264,49 +264,46 @@ pub(super) fn choose_pull(
             .map_err(|e| MeshError::Geometry(format!("the outer mould line: {e}")))?;
         Ok((mould_parts(&solid, params, angle)?, solid))
     };
-    let mut best: Option<(LoftedSolid, Angle, MouldParts, f64)> = None;
-    let mut failed = None;
-    // The first candidate alone (it draws most blades); when it leaves undercuts, the rest
-    // side by side on two cores, taken in the same order as one after the other: the first
-    // that draws every section wins, else the least undercut, the earlier on a tie.
-    let mut k = 0;
-    while k < candidates.len() {
-        let batch = if k == 0 || crate::parallel::threads() < 2 { 1 } else { candidates.len() - k };
-        let tried: Vec<_> = if batch == 1 {
-            vec![attempt(candidates[k])]
+    let undercut =
+        |set: &MouldParts| -> f64 { set.halves.iter().map(|h| h.draft.undercut_area).sum() };
+    // The first candidate alone (it draws most blades); when it leaves undercuts, the rest side
+    // by side on two cores. Either way they are read in order below, so the choice is the one
+    // made trying them one after the other (lazily, on one thread).
+    let first = candidates.first().map(|&angle| attempt(angle));
+    let first_draws = matches!(&first, Some(Ok((set, _))) if undercut(set) == 0.0);
+    type Tried = Result<(MouldParts, LoftedSolid), MeshError>;
+    let rest: Box<dyn Iterator<Item = Tried>> =
+        if first_draws || crate::parallel::threads() < 2 || candidates.len() < 3 {
+            Box::new(candidates.iter().skip(1).map(|&angle| attempt(angle)))
         } else {
-            std::thread::scope(|s| {
+            let together: Vec<Tried> = std::thread::scope(|s| {
                 let attempt = &attempt;
                 let handles: Vec<_> =
-                    candidates[k..].iter().map(|&angle| s.spawn(move || attempt(angle))).collect();
+                    candidates[1..].iter().map(|&angle| s.spawn(move || attempt(angle))).collect();
                 handles
                     .into_iter()
                     .map(|h| h.join().unwrap_or_else(|e| std::panic::resume_unwind(e)))
                     .collect()
-            })
+            });
+            Box::new(together.into_iter())
         };
-        let mut done = false;
-        for (tried, &angle) in tried.into_iter().zip(&candidates[k..k + batch]) {
-            let (set, solid) = match tried {
-                Ok(t) => t,
-                Err(e) => {
-                    failed.get_or_insert(e);
-                    continue;
-                }
-            };
-            let undercut: f64 = set.halves.iter().map(|h| h.draft.undercut_area).sum();
-            if best.as_ref().is_none_or(|b| undercut < b.3) {
-                best = Some((solid, angle, set, undercut));
+    let mut best: Option<(LoftedSolid, Angle, MouldParts, f64)> = None;
+    let mut failed = None;
+    for (tried, &angle) in first.into_iter().chain(rest).zip(&candidates) {
+        let (set, solid) = match tried {
+            Ok(t) => t,
+            Err(e) => {
+                failed.get_or_insert(e);
+                continue;
             }
-            if undercut == 0.0 {
-                done = true;
-                break;
-            }
+        };
+        let undercut = undercut(&set);
+        if best.as_ref().is_none_or(|b| undercut < b.3) {
+            best = Some((solid, angle, set, undercut));
         }
-        if done {
+        if undercut == 0.0 {
             break;
         }
-        k += batch;
     }
     let (solid, angle, set, _) = match (best, failed) {
         (Some(b), _) => b,
