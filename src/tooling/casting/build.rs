@@ -103,6 +103,7 @@ pub(crate) fn casting_mould(
         .map(|t| side.contains(&t) && vec3::dot(mesh.triangle_normal(t), up) >= FACING_UP)
         .collect();
     let adj = neighbours(mesh);
+    let index = PlanIndex::new(mesh, &eligible, &frame);
     let mut tops: Vec<u32> =
         (0..mesh.len()).filter(|&t| eligible[t]).flat_map(|t| mesh.triangles[t]).collect();
     tops.sort_unstable();
@@ -121,7 +122,7 @@ pub(crate) fn casting_mould(
                 let p = mesh.vertices[v as usize];
                 let c = frame.plan(p);
                 let foot = r + (z_top - frame.height(p)) * taper;
-                let Some(mut hole) = patch(mesh, &eligible, &adj, &frame, c, foot) else {
+                let Some(mut hole) = patch(mesh, &eligible, &index, &adj, &frame, c, foot) else {
                     continue;
                 };
                 if hole.facets.iter().any(|t| avoid.contains(t)) {

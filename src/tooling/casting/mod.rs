@@ -62,7 +62,7 @@ mod faces;
 mod patch;
 pub(crate) use build::casting_mould;
 use faces::{channel_volume, holed_face, kept_faces, key, matching_facets, position_ids, settle};
-use patch::{Patch, Plan, circle, cross2, fill_patch, patch, taken, tri2};
+use patch::{Patch, Plan, PlanIndex, circle, cross2, fill_patch, patch, taken, tri2};
 
 /// Sides of the polygon of a sprue's or a vent's circle.
 const CIRCLE_SIDES: usize = 24;

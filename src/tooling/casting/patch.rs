@@ -91,19 +91,124 @@ pub(super) fn dist_to_triangle(t: [[f64; 2]; 3], p: [f64; 2]) -> f64 {
     (0..3).map(|k| vec3::dist_to_segment_2d(p, t[k], t[(k + 1) % 3])).fold(f64::INFINITY, f64::min)
 }
 
+/// The facets that may be holed, listed by the cells of a uniform grid in plan that their plan
+/// boxes cover (each box widened by a millionth of its size and a nanometre, more than the
+/// round-off that [`barycentric`] forgives): the facets under a plan point are among those of
+/// its cell, in increasing order, so the search for the facet under a hole's axis reads a
+/// handful of facets instead of the whole cavity.
+pub(super) struct PlanIndex {
+    origin: [f64; 2],
+    inverse: [f64; 2],
+    dims: [usize; 2],
+    /// Start of each cell's facets in `entry`, and the end.
+    first: Vec<u32>,
+    entry: Vec<u32>,
+}
+
+impl PlanIndex {
+    pub(super) fn new(mesh: &Mesh, eligible: &[bool], frame: &Plan) -> Self {
+        let boxes: Vec<(usize, [[f64; 2]; 2])> = (0..mesh.len())
+            .filter(|&t| eligible[t])
+            .map(|t| {
+                let p = tri2(mesh, frame, t);
+                let lo = [0, 1].map(|k| p[0][k].min(p[1][k]).min(p[2][k]));
+                let hi = [0, 1].map(|k| p[0][k].max(p[1][k]).max(p[2][k]));
+                let pad = 1e-6 * ((hi[0] - lo[0]) + (hi[1] - lo[1])) + 1e-9;
+                (t, [lo.map(|x| x - pad), hi.map(|x| x + pad)])
+            })
+            .collect();
+        let mut lo = [f64::INFINITY; 2];
+        let mut hi = [f64::NEG_INFINITY; 2];
+        let mut mean = [0.0; 2];
+        for (_, b) in &boxes {
+            for k in 0..2 {
+                lo[k] = lo[k].min(b[0][k]);
+                hi[k] = hi[k].max(b[1][k]);
+                mean[k] += (b[1][k] - b[0][k]) / boxes.len() as f64;
+            }
+        }
+        // Cells of twice the mean box, at most 2048 along a side.
+        let dims = [0, 1].map(|k| {
+            if boxes.is_empty() {
+                return 1;
+            }
+            (((hi[k] - lo[k]) / (2.0 * mean[k]).max(f64::MIN_POSITIVE)).ceil() as usize)
+                .clamp(1, 2048)
+        });
+        let inverse = [0, 1].map(|k| dims[k] as f64 / (hi[k] - lo[k]).max(f64::MIN_POSITIVE));
+        let mut index =
+            PlanIndex { origin: lo, inverse, dims, first: Vec::new(), entry: Vec::new() };
+        let ranges: Vec<[[usize; 2]; 2]> =
+            boxes.iter().map(|(_, b)| [index.cell(b[0]), index.cell(b[1])]).collect();
+        let mut first = vec![0u32; dims[0] * dims[1] + 1];
+        for r in &ranges {
+            for y in r[0][1]..=r[1][1] {
+                for x in r[0][0]..=r[1][0] {
+                    first[y * dims[0] + x + 1] += 1;
+                }
+            }
+        }
+        for i in 1..first.len() {
+            first[i] += first[i - 1];
+        }
+        let mut fill = first.clone();
+        let mut entry = vec![0u32; first[first.len() - 1] as usize];
+        for ((t, _), r) in boxes.iter().zip(&ranges) {
+            for y in r[0][1]..=r[1][1] {
+                for x in r[0][0]..=r[1][0] {
+                    let c = y * dims[0] + x;
+                    entry[fill[c] as usize] = *t as u32;
+                    fill[c] += 1;
+                }
+            }
+        }
+        index.first = first;
+        index.entry = entry;
+        index
+    }
+
+    /// The cell of a plan point, clamped to the grid.
+    fn cell(&self, q: [f64; 2]) -> [usize; 2] {
+        [0, 1].map(|k| {
+            let i =
+                ((q[k] - self.origin[k]) * self.inverse[k]).clamp(0.0, (self.dims[k] - 1) as f64);
+            i as usize
+        })
+    }
+
+    /// The facets whose widened plan boxes cover the cell of `q`, in increasing order (none
+    /// when `q` lies off the grid).
+    fn under(&self, q: [f64; 2]) -> &[u32] {
+        let inside = (0..2).all(|k| {
+            let i = (q[k] - self.origin[k]) * self.inverse[k];
+            (0.0..=self.dims[k] as f64).contains(&i)
+        });
+        if !inside || self.entry.is_empty() {
+            return &[];
+        }
+        let [x, y] = self.cell(q);
+        let c = y * self.dims[0] + x;
+        &self.entry[self.first[c] as usize..self.first[c + 1] as usize]
+    }
+}
+
 /// The patch of cavity facets round a hole of radius `r` about the plan point `c`, or `None`
 /// where it would reach a facet that may not be holed.
 pub(super) fn patch(
     mesh: &Mesh,
     eligible: &[bool],
+    index: &PlanIndex,
     adj: &[[(u32, bool); 3]],
     frame: &Plan,
     c: [f64; 2],
     r: f64,
 ) -> Option<Patch> {
-    // The facet under the axis (the highest one there).
-    let seed = (0..mesh.len())
-        .filter(|&t| eligible[t] && barycentric(tri2(mesh, frame, t), c).is_some())
+    // The facet under the axis (the highest one there; of equals, the last in the mesh).
+    let seed = index
+        .under(c)
+        .iter()
+        .map(|&t| t as usize)
+        .filter(|&t| barycentric(tri2(mesh, frame, t), c).is_some())
         .max_by(|&a, &b| {
             frame
                 .height(mesh.triangle_centroid(a))
@@ -217,4 +322,72 @@ pub(super) fn fill_patch(
         .ok_or_else(|| fail("a point was added"))?;
     settle(mesh, &mut tris, frame);
     Ok((ring, tris))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn the_plan_index_finds_every_facet_a_pass_over_the_mesh_finds() {
+        // Random facets of all sizes and slants (some steep, some needles) and random points,
+        // some on the facets' corners and edges: the facets under each point by the index are
+        // those of a pass over every eligible facet, in the same order.
+        let mut seed = 0x2545_f491_4f6c_dd1du64;
+        let mut rnd = || {
+            seed ^= seed << 13;
+            seed ^= seed >> 7;
+            seed ^= seed << 17;
+            (seed >> 11) as f64 / (1u64 << 53) as f64
+        };
+        let mut mesh = Mesh::new();
+        let mut eligible = Vec::new();
+        for t in 0..3000 {
+            let c = [rnd() * 0.4 - 0.2, rnd() * 0.3 + 0.5, rnd() * 0.1];
+            let size = 10f64.powf(-4.0 + 3.0 * rnd());
+            let needle = if t % 7 == 0 { 1e-6 } else { 1.0 };
+            let p = [
+                c,
+                [c[0] + size, c[1] + size * rnd(), c[2] + size * rnd()],
+                [c[0] + size * needle * rnd(), c[1] + size * needle, c[2] - size * rnd()],
+            ];
+            let v = p.map(|q| mesh.push_vertex(q));
+            mesh.triangles.push(v);
+            eligible.push(t % 5 != 0);
+        }
+        let up = [0.3f64, -0.2, 0.9];
+        let up = vec3::scale(up, 1.0 / vec3::norm(up));
+        let e1 = vec3::sub([1.0, 0.0, 0.0], vec3::scale(up, up[0]));
+        let e1 = vec3::scale(e1, 1.0 / vec3::norm(e1));
+        let frame = Plan { e1, e2: vec3::cross(up, e1), up };
+        let index = PlanIndex::new(&mesh, &eligible, &frame);
+        let mut found = 0;
+        for k in 0..4000 {
+            let q = match k % 3 {
+                0 => frame.plan(mesh.vertices[(k * 7) % mesh.vertices.len()]),
+                1 => {
+                    let t = mesh.triangles[k % mesh.len()];
+                    let (a, b) = (mesh.vertices[t[0] as usize], mesh.vertices[t[1] as usize]);
+                    frame.plan(vec3::lerp(a, b, rnd()))
+                }
+                _ => {
+                    let lo = frame.plan([-0.25, 0.45, 0.0]);
+                    [lo[0] + 0.5 * rnd(), lo[1] + 0.5 * rnd()]
+                }
+            };
+            let brute: Vec<usize> = (0..mesh.len())
+                .filter(|&t| eligible[t] && barycentric(tri2(&mesh, &frame, t), q).is_some())
+                .collect();
+            let fast: Vec<usize> = index
+                .under(q)
+                .iter()
+                .map(|&t| t as usize)
+                .filter(|&t| barycentric(tri2(&mesh, &frame, t), q).is_some())
+                .collect();
+            assert_eq!(fast, brute, "point {k}: {q:?}");
+            found += brute.len();
+        }
+        // Most points lie on some facet, or the comparison proves little.
+        assert!(found > 3000, "{found} facets found under the points");
+    }
 }
