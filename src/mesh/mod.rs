@@ -37,6 +37,7 @@ mod stl;
 mod triangles;
 mod unit;
 pub(crate) mod vec3;
+mod word_hash;
 
 pub use check::{CheckParams, MeshSummary, check_solid};
 pub use digest::{Sha256, sha256_hex};
@@ -52,3 +53,4 @@ pub(crate) use digest::DigestWriter;
 pub(crate) use polygon::quad_centre_ok;
 pub(crate) use queue::each_part;
 pub(crate) use stl::{check_part_name, check_part_set};
+pub(crate) use word_hash::{WordMap, WordSet};

@@ -6,7 +6,7 @@
 //! default) is the scale applied here. Facet normals are the unit normals of the triangles as
 //! they wind (outward for a checked solid).
 
-use std::collections::HashMap;
+use super::word_hash::WordMap;
 use std::io::Write;
 use std::path::PathBuf;
 
@@ -137,7 +137,8 @@ pub struct WrittenPart {
 /// Fails when two used vertices round to the same point (a reader would join them).
 fn as_written(mesh: &Mesh, part: &str, unit: LengthUnit) -> Result<Mesh, MeshError> {
     let s = unit.per_metre();
-    let mut seen: HashMap<[u32; 3], usize> = HashMap::with_capacity(mesh.vertices.len());
+    let mut seen: WordMap<[u32; 3], usize> =
+        WordMap::with_capacity_and_hasher(mesh.vertices.len(), Default::default());
     let mut used = vec![false; mesh.vertices.len()];
     mesh.triangles.iter().flatten().for_each(|&i| used[i as usize] = true);
     let mut rounded = Mesh {

@@ -5,7 +5,7 @@
 //! of the tetrahedra joining each facet to a reference point `o` (the centre of the bounding box,
 //! which keeps the terms small and the sum accurate).
 
-use std::collections::HashMap;
+use super::word_hash::WordMap;
 
 use super::error::MeshError;
 use super::vec3::{self, P3};
@@ -202,7 +202,7 @@ impl Mesh {
         }
         let cell = if tolerance > 0.0 { tolerance } else { f64::MIN_POSITIVE };
         let key = |p: P3| p.map(|c| (c / cell).floor() as i64);
-        let mut buckets: HashMap<[i64; 3], Vec<u32>> = HashMap::new();
+        let mut buckets: WordMap<[i64; 3], Vec<u32>> = WordMap::default();
         let mut kept: Vec<[f64; 3]> = Vec::new();
         let mut map = vec![0u32; self.vertices.len()];
         for (i, &p) in self.vertices.iter().enumerate() {

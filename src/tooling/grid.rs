@@ -9,10 +9,10 @@
 use super::surface::{ChainEnds, EndKind, SpanSurface, to_rotor};
 use super::trim::{Trims, solve_end};
 use crate::mesh::LengthUnit;
+use crate::mesh::WordMap;
 use crate::mesh::quad_centre_ok;
 use crate::mesh::vec3;
 use crate::mesh::{End, MeshError, Place};
-use std::collections::HashMap;
 
 /// How finely a surface is meshed.
 #[derive(Debug, Clone, PartialEq)]
@@ -316,13 +316,13 @@ pub(crate) fn build_stations(
     let ring = |tube: &TrimmedLines<'_>, t: f64| -> Vec<[f64; 3]> {
         (0..n).map(|i| grid.lines[i].rotor_point(tube.surface, tube.x(i, t))).collect()
     };
-    let mut cache: HashMap<u64, Vec<Vec<[f64; 3]>>> = HashMap::new();
-    let fetch = |cache: &mut HashMap<u64, Vec<Vec<[f64; 3]>>>, t: f64| {
+    let mut cache: WordMap<u64, Vec<Vec<[f64; 3]>>> = WordMap::default();
+    let fetch = |cache: &mut WordMap<u64, Vec<Vec<[f64; 3]>>>, t: f64| {
         cache
             .entry(t.to_bits())
             .or_insert_with(|| tubes.iter().map(|tube| ring(tube, t)).collect());
     };
-    let ok = |cache: &HashMap<u64, Vec<Vec<[f64; 3]>>>, a: f64, b: f64| {
+    let ok = |cache: &WordMap<u64, Vec<Vec<[f64; 3]>>>, a: f64, b: f64| {
         let at = |t: f64, k: usize| &cache[&t.to_bits()][k];
         let q = |f: f64| a + (b - a) * f;
         (0..tubes.len()).all(|k| {

@@ -9,7 +9,7 @@ use super::*;
 /// triangulation added a point of its own.
 pub(super) fn kept_faces(
     cdt: &ConstrainedDelaunayTriangulation<Point2<f64>>,
-    ids: &HashMap<usize, u32>,
+    ids: &WordMap<usize, u32>,
     polys: &[[[f64; 2]; 3]],
     holes: &[Vec<[f64; 2]>],
 ) -> Option<Vec<[u32; 3]>> {
@@ -58,7 +58,7 @@ pub(super) fn holed_face(
     face: &[usize],
     holes: &[Vec<P3>],
     frame: &Plan,
-    ids_by_pos: &mut HashMap<[u64; 3], u32>,
+    ids_by_pos: &mut WordMap<[u64; 3], u32>,
 ) -> Result<Vec<[u32; 3]>, MeshError> {
     let fail =
         |what: &str| MeshError::Geometry(format!("the top face round a sprue or vent: {what}"));
@@ -66,8 +66,8 @@ pub(super) fn holed_face(
         return Err(fail("the upper half has no top face"));
     }
     let mut cdt = ConstrainedDelaunayTriangulation::<Point2<f64>>::new();
-    let mut ids: HashMap<usize, u32> = HashMap::new();
-    let mut edges: HashMap<(u32, u32), usize> = HashMap::new();
+    let mut ids: WordMap<usize, u32> = WordMap::default();
+    let mut edges: WordMap<(u32, u32), usize> = WordMap::default();
     for &t in face {
         let tri = mesh.triangles[t];
         for k in 0..3 {
@@ -78,7 +78,7 @@ pub(super) fn holed_face(
     let mut corners: Vec<u32> = face.iter().flat_map(|&t| mesh.triangles[t]).collect();
     corners.sort_unstable();
     corners.dedup();
-    let mut handle = HashMap::new();
+    let mut handle = WordMap::default();
     for &v in &corners {
         let q = frame.plan(mesh.vertices[v as usize]);
         let h = cdt.insert(Point2::new(q[0], q[1])).map_err(|e| fail(&format!("{e:?}")))?;
@@ -128,8 +128,8 @@ pub(super) fn key(p: P3) -> [u64; 3] {
     p.map(f64::to_bits)
 }
 
-pub(super) fn position_ids(mesh: &Mesh) -> HashMap<[u64; 3], u32> {
-    let mut m = HashMap::with_capacity(mesh.vertices.len());
+pub(super) fn position_ids(mesh: &Mesh) -> WordMap<[u64; 3], u32> {
+    let mut m = WordMap::with_capacity_and_hasher(mesh.vertices.len(), Default::default());
     for (i, &p) in mesh.vertices.iter().enumerate() {
         m.entry(key(p)).or_insert(i as u32);
     }
@@ -143,7 +143,8 @@ pub(super) fn matching_facets(
     of: &[usize],
 ) -> Result<Vec<usize>, MeshError> {
     let ids = position_ids(half);
-    let mut by_corners: HashMap<[u32; 3], usize> = HashMap::with_capacity(half.len());
+    let mut by_corners: WordMap<[u32; 3], usize> =
+        WordMap::with_capacity_and_hasher(half.len(), Default::default());
     for (t, tri) in half.triangles.iter().enumerate() {
         let mut s = *tri;
         s.sort_unstable();

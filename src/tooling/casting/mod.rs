@@ -34,7 +34,7 @@
 //!   circles at the top. The cavity (the metal: core, sprue and vent) and the upper half share
 //!   these facets, turned, so the parts and the metal fill the block exactly.
 
-use std::collections::HashMap;
+use crate::mesh::{WordMap, WordSet};
 
 use spade::{ConstrainedDelaunayTriangulation, Point2, Triangulation};
 

@@ -267,7 +267,7 @@ pub(super) fn fill_patch(
 ) -> Result<(Vec<u32>, Vec<[u32; 3]>), MeshError> {
     let fail = |what: &str| MeshError::Geometry(format!("a sprue or vent hole: {what}"));
     let mut cdt = ConstrainedDelaunayTriangulation::<Point2<f64>>::new();
-    let mut ids: HashMap<usize, u32> = HashMap::new();
+    let mut ids: WordMap<usize, u32> = WordMap::default();
     let mut add = |cdt: &mut ConstrainedDelaunayTriangulation<Point2<f64>>, q: [f64; 2], v: u32| {
         let h = cdt.insert(Point2::new(q[0], q[1])).map_err(|e| fail(&format!("{e:?}")))?;
         if ids.insert(h.index(), v).is_some_and(|old| old != v) {
@@ -279,7 +279,7 @@ pub(super) fn fill_patch(
     corners.sort_unstable();
     corners.dedup();
     // The outline: edges of the patch whose other facet is not in it.
-    let mut edges: HashMap<(u32, u32), usize> = HashMap::new();
+    let mut edges: WordMap<(u32, u32), usize> = WordMap::default();
     for &t in &hole.facets {
         let tri = mesh.triangles[t];
         for k in 0..3 {
@@ -288,9 +288,8 @@ pub(super) fn fill_patch(
         }
     }
     let outline: Vec<(u32, u32)> = edges.iter().filter(|e| *e.1 == 1).map(|e| *e.0).collect();
-    let on_outline: std::collections::HashSet<u32> =
-        outline.iter().flat_map(|&(a, b)| [a, b]).collect();
-    let mut handle = HashMap::new();
+    let on_outline: WordSet<u32> = outline.iter().flat_map(|&(a, b)| [a, b]).collect();
+    let mut handle = WordMap::default();
     for &v in &corners {
         let q = frame.plan(mesh.vertices[v as usize]);
         let d = vec3::dist_2d(q, hole.centre);

@@ -32,7 +32,7 @@ pub(super) fn split_faces(
     seed: u32,
 ) -> Result<[Vec<usize>; 2], MeshError> {
     let n = loop0.len();
-    let mut barrier = std::collections::HashSet::with_capacity(n);
+    let mut barrier = crate::mesh::WordSet::with_capacity_and_hasher(n, Default::default());
     for i in 0..n {
         let (a, b) = (loop0[i], loop0[(i + 1) % n]);
         barrier.insert((a.min(b), a.max(b)));
