@@ -8,7 +8,8 @@
 //! the self-intersection test; the difference is the test's time. Medians of several runs.
 //!
 //! Printed: triangles, the test's time and its time per triangle at each size, wall clock and
-//! CPU time of the thread (the scheduler's count, Linux), and the exponents `b` of `time ∝ n^b`
+//! CPU time of the process, all threads (the kernel's count, Linux; the check runs on all
+//! cores for a large mesh), and the exponents `b` of `time ∝ n^b`
 //! fitted by least squares on the logarithms (1 is linear growth).
 //! Floor, by arithmetic: per triangle the test must at least read its corners and place it in
 //! the cells (about 20 ns), and test its neighbours sharing a vertex or an edge (about 6 pairs,
@@ -25,12 +26,19 @@ fn yt(x: f64) -> f64 {
         - 0.1015 * x.powi(4))
 }
 
-/// CPU time of this thread so far, s, from the scheduler's count (Linux); `None` elsewhere. On
-/// a shared machine the wall clock includes the time spent waiting for a core; this does not.
-fn thread_cpu() -> Option<f64> {
-    let text = std::fs::read_to_string("/proc/thread-self/schedstat").ok()?;
-    let ns: f64 = text.split_whitespace().next()?.parse().ok()?;
-    Some(ns * 1e-9)
+/// CPU time of this process so far, s, all its threads (those that have ended included): user
+/// and system time from `/proc/self/stat`, in clock ticks of USER_HZ, which Linux fixes at 100
+/// a second for this interface (from memory), so 10 ms is the resolution; `None` elsewhere. On a
+/// shared machine the wall clock includes the time spent waiting for a core; this does not,
+/// and it counts the work of every core the check runs on.
+fn process_cpu() -> Option<f64> {
+    let text = std::fs::read_to_string("/proc/self/stat").ok()?;
+    // The fields after the command name, which is in parentheses and may hold spaces.
+    let rest = &text[text.rfind(')')? + 1..];
+    let fields: Vec<&str> = rest.split_whitespace().collect();
+    // utime and stime are the 14th and 15th fields; `rest` starts at the 3rd.
+    let ticks = |k: usize| fields.get(k - 3)?.parse::<f64>().ok();
+    Some((ticks(14)? + ticks(15)?) / 100.0)
 }
 
 fn median(mut v: Vec<f64>) -> f64 {
@@ -69,18 +77,21 @@ fn main() {
         };
         let n = solid.mesh.len();
         let runs = if n < 100_000 { 15 } else { 5 };
-        // Median wall and CPU time of `runs` checks.
+        // Median wall time of `runs` checks, and their mean CPU time (the process's count is
+        // too coarse for one check of a small mesh).
         let time = |p: &CheckParams| {
-            let (wall, cpu): (Vec<f64>, Vec<f64>) = (0..runs)
+            let start = process_cpu();
+            let wall: Vec<f64> = (0..runs)
                 .map(|_| {
-                    let (t, c) = (Instant::now(), thread_cpu());
+                    let t = Instant::now();
                     let s = check_solid(&solid.mesh, "blade", p);
                     assert!(s.is_ok(), "the benchmark blade checks: {s:?}");
-                    let wall = t.elapsed().as_secs_f64();
-                    (wall, thread_cpu().zip(c).map_or(wall, |(b, a)| b - a))
+                    t.elapsed().as_secs_f64()
                 })
-                .unzip();
-            (median(wall), median(cpu))
+                .collect();
+            let cpu = process_cpu().zip(start).map(|(b, a)| (b - a) / runs as f64);
+            let wall_median = median(wall);
+            (wall_median, cpu.unwrap_or(wall_median))
         };
         let ((full, full_cpu), (rest, rest_cpu)) = (time(&with), time(&without));
         let test = (full - rest).max(1e-9);

@@ -92,9 +92,52 @@ pub(crate) fn in_blocks<R: Send>(
     })
 }
 
+/// `[f(0), f(1), ..., f(n - 1)]`, the elements made on up to `threads` scoped threads, each
+/// writing a contiguous block in place: a large table's memory is first touched (and its
+/// pages mapped) by the threads that fill it, not by one. The same vector for any number of
+/// threads.
+pub(crate) fn filled<T: Send>(n: usize, threads: usize, f: impl Fn(usize) -> T + Sync) -> Vec<T> {
+    let mut v: Vec<T> = Vec::with_capacity(n);
+    let ranges = blocks(n, threads);
+    if ranges.len() <= 1 {
+        v.extend((0..n).map(&f));
+        return v;
+    }
+    let mut spare = &mut v.spare_capacity_mut()[..n];
+    std::thread::scope(|scope| {
+        for r in ranges {
+            let (block, rest) = std::mem::take(&mut spare).split_at_mut(r.len());
+            spare = rest;
+            let f = &f;
+            scope.spawn(move || {
+                for (slot, i) in block.iter_mut().zip(r) {
+                    slot.write(f(i));
+                }
+            });
+        }
+    });
+    // SAFETY: the blocks cover `0..n` (see `blocks`) and each thread wrote every slot of its
+    // block; `scope` returns only when all have finished, and a panic in one is resumed here
+    // before this line, so no slot is left unwritten.
+    unsafe { v.set_len(n) };
+    v
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn a_vector_filled_on_many_threads_is_the_one_filled_on_one() {
+        for n in [0, 1, 2, 3, 7, 1000, 4097] {
+            let one: Vec<(usize, String)> = filled(n, 1, |i| (i * i, format!("{i}")));
+            for threads in [2, 3, 8, 5000] {
+                let many = filled(n, threads, |i| (i * i, format!("{i}")));
+                assert_eq!(many, one, "{n} elements on {threads} threads");
+            }
+            assert_eq!(one.len(), n);
+        }
+    }
 
     #[test]
     fn blocks_cover_the_range_in_order_without_gaps() {

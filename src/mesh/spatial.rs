@@ -7,9 +7,16 @@
 //! grow faster than the triangles. Hashed, the cells stay the size of the triangles whatever the
 //! shape, and the work grows with the count of triangles.
 
+use std::sync::atomic::{AtomicBool, Ordering};
+
 use super::intersect::{Facet, facets_meet};
 use super::triangles::Mesh;
 use super::vec3::P3;
+use crate::parallel::filled;
+
+/// Meshes of at least this many triangles are swept on all cores (below it, a thread costs more
+/// than it saves).
+const PARALLEL_FROM: usize = 50_000;
 
 /// Triangles that would cover more cells than this are tested against all others by box overlap.
 const BIG: usize = 512;
@@ -108,9 +115,10 @@ impl Grid {
     /// The triangles whose boxes cover at most `BIG` cells hashed into slots; the others listed
     /// apart. A counting sort: the counts summed into each slot's end, then the triangles placed
     /// from the last backwards, so that each slot lists its triangles in increasing order.
-    fn new(boxes: &[[P3; 2]], origin: P3, cell: [f64; 3]) -> (Grid, Vec<usize>) {
+    fn new(boxes: &[[P3; 2]], origin: P3, cell: [f64; 3], threads: usize) -> (Grid, Vec<usize>) {
         let inverse = cell.map(|c| 1.0 / c);
-        let ranges: Vec<[Cell; 2]> = boxes.iter().map(|b| range_of(b, origin, inverse)).collect();
+        let ranges: Vec<[Cell; 2]> =
+            filled(boxes.len(), threads, |t| range_of(&boxes[t], origin, inverse));
         let entries: usize = ranges.iter().map(covers).filter(|&c| c <= BIG).sum();
         let bits = (entries.max(16).next_power_of_two().trailing_zeros() + 1).min(40);
         let slots = 1usize << bits;
@@ -143,6 +151,35 @@ impl Grid {
 
     fn slots(&self) -> usize {
         1 << self.bits
+    }
+
+    /// The slots that hold two triangles or more, in the order of their lowest triangle, and
+    /// of the slot's index among slots with the same lowest triangle: a counting sort from one
+    /// pass over the table in its own order, where finding each triangle's slots from its cells
+    /// would hash every cell again and read the table at random.
+    fn slots_by_lowest_triangle(&self) -> Vec<u32> {
+        let n = self.ranges.len();
+        let mut start = vec![0u32; n + 1];
+        let lowest = |s: usize| -> Option<usize> {
+            let (a, b) = (self.first[s] as usize, self.first[s + 1] as usize);
+            (b - a >= 2).then(|| self.entry[a] as usize)
+        };
+        for s in 0..self.slots() {
+            if let Some(t) = lowest(s) {
+                start[t + 1] += 1;
+            }
+        }
+        for t in 0..n {
+            start[t + 1] += start[t];
+        }
+        let mut order = vec![0u32; start[n] as usize];
+        for s in 0..self.slots() {
+            if let Some(t) = lowest(s) {
+                order[start[t] as usize] = s as u32;
+                start[t] += 1;
+            }
+        }
+        order
     }
 
     fn list(&self, s: usize) -> &[u32] {
@@ -230,10 +267,17 @@ fn sweep_slot(
 /// large, with every triangle; those too large for it are tested against all others by box
 /// overlap.
 pub(crate) fn find_self_intersection(mesh: &Mesh) -> Option<(usize, usize)> {
+    let threads = if mesh.len() >= PARALLEL_FROM { crate::parallel::threads() } else { 1 };
+    find_self_intersection_on(mesh, threads)
+}
+
+/// [`find_self_intersection`] on `threads` threads (the same pair for any number).
+fn find_self_intersection_on(mesh: &Mesh, threads: usize) -> Option<(usize, usize)> {
     let n = mesh.len();
     let bbox = mesh.bounding_box()?;
-    let facets: Vec<Facet> = (0..n).map(|t| Facet::new(mesh, t)).collect();
-    let boxes: Vec<[P3; 2]> = facets.iter().map(Facet::bounds).collect();
+    // A large mesh's per-triangle tables are filled, and its slots swept, on all cores.
+    let facets: Vec<Facet> = filled(n, threads, |t| Facet::new(mesh, t));
+    let boxes: Vec<[P3; 2]> = filled(n, threads, |t| facets[t].bounds());
     let ext = bbox.extent();
     let mut cell = [0.0; 3];
     let mut extent: Vec<f64> = vec![0.0; n];
@@ -264,49 +308,47 @@ pub(crate) fn find_self_intersection(mesh: &Mesh) -> Option<(usize, usize)> {
         let grow = if crowded > 1.0 { crowded.cbrt() * 1.01 } else { 2.0 };
         cell = cell.map(|c| c * grow);
     }
-    let (grid, big) = Grid::new(&boxes, bbox.min, cell);
+    let (grid, big) = Grid::new(&boxes, bbox.min, cell, threads);
     let test =
         |a: usize, b: usize| facets_meet(&facets[a], &facets[b]).then_some((a.min(b), a.max(b)));
     // Each slot's triangles gathered with their boxes and lowest cells from one line each, so
     // the pair loop reads contiguous memory, and sorted along the sweep axis.
-    let table: Vec<Entry> = boxes
-        .iter()
-        .zip(&grid.ranges)
-        .enumerate()
-        .map(|(t, (b, r))| Entry { b: *b, low: r[0], t: t as u32 })
-        .collect();
+    let table: Vec<Entry> =
+        filled(n, threads, |t| Entry { b: boxes[t], low: grid.ranges[t][0], t: t as u32 });
     let mut local: Vec<Entry> = Vec::new();
     // Slots are swept in the order of their lowest triangle, so that the triangles (and facets)
     // of the slots swept one after the other are near in the mesh's own order, which for a loft
     // or a part built from one is near in space: they are read from cache, where sweeping the
     // slots in the hash's order would fetch every one from memory. Which pair is reported when
     // surfaces meet is that of the sweep in the hash's order, run again then.
-    let mut mine: Vec<usize> = Vec::new();
-    let mut found = false;
-    'triangles: for (t, r) in grid.ranges.iter().enumerate() {
-        if covers(r) > BIG {
-            continue;
+    // On all cores, each a contiguous share of that order (the first to find a meeting pair
+    // stops the others); which pair is reported does not depend on it.
+    let order = grid.slots_by_lowest_triangle();
+    let found = AtomicBool::new(false);
+    let sweep = |share: &[u32]| {
+        let mut local: Vec<Entry> = Vec::new();
+        for (k, &s) in share.iter().enumerate() {
+            if k % 256 == 0 && found.load(Ordering::Relaxed) {
+                return;
+            }
+            if sweep_slot(&grid, s as usize, &table, &mut local, &test).is_some() {
+                found.store(true, Ordering::Relaxed);
+                return;
+            }
         }
-        mine.clear();
-        for_cells(r, |c| {
-            let s = slot(c, grid.bits);
-            let list = grid.list(s);
-            if list.len() >= 2 && list[0] as usize == t {
-                mine.push(s);
+    };
+    if threads > 1 {
+        let ranges = crate::parallel::blocks(order.len(), threads);
+        std::thread::scope(|scope| {
+            for r in ranges {
+                let (sweep, share) = (&sweep, &order[r]);
+                scope.spawn(move || sweep(share));
             }
         });
-        if mine.len() > 1 {
-            mine.sort_unstable();
-            mine.dedup();
-        }
-        for &s in &mine {
-            if sweep_slot(&grid, s, &table, &mut local, &test).is_some() {
-                found = true;
-                break 'triangles;
-            }
-        }
+    } else {
+        sweep(&order);
     }
-    if found {
+    if found.into_inner() {
         for s in 0..grid.slots() {
             if let Some(pair) = sweep_slot(&grid, s, &table, &mut local, &test) {
                 return Some(pair);
@@ -318,7 +360,7 @@ pub(crate) fn find_self_intersection(mesh: &Mesh) -> Option<(usize, usize)> {
         return None;
     }
     // The large triangles against every triangle, in a coarser grid.
-    let (coarse, huge) = Grid::new(&boxes, bbox.min, cell.map(|c| 8.0 * c));
+    let (coarse, huge) = Grid::new(&boxes, bbox.min, cell.map(|c| 8.0 * c), threads);
     let mut is_big = vec![false; n];
     big.iter().for_each(|&t| is_big[t] = true);
     for s in 0..coarse.slots() {
@@ -451,5 +493,26 @@ mod tests {
         assert!(brute(&cut));
         let found = find_self_intersection(&cut);
         assert!(found.is_some_and(|(a, b)| pair_meets(&cut, a, b)), "{found:?}");
+    }
+
+    #[test]
+    fn a_large_shell_gives_the_same_answer_on_any_number_of_threads() {
+        // 120,000 facets, above the size swept on all cores: two parallel sheets 1 mm apart
+        // cannot meet; with a vertex pushed through the other sheet near the start, the middle
+        // or the end of the mesh's order, each count of threads reports the same meeting pair.
+        let plain = slab(600, 50);
+        assert!(plain.len() >= PARALLEL_FROM);
+        for threads in [1, 2, 3] {
+            assert_eq!(find_self_intersection_on(&plain, threads), None, "{threads} threads");
+        }
+        for v in [3 + 2 * 601, 300 + 25 * 601, 597 + 48 * 601] {
+            let mut dented = plain.clone();
+            dented.vertices[v][2] = -0.002;
+            let one = find_self_intersection_on(&dented, 1);
+            assert!(one.is_some_and(|(a, b)| pair_meets(&dented, a, b)), "{one:?}");
+            for threads in [2, 3] {
+                assert_eq!(find_self_intersection_on(&dented, threads), one, "vertex {v}");
+            }
+        }
     }
 }
