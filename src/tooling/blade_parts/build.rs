@@ -3,6 +3,7 @@
 
 use super::*;
 use crate::mesh::{CheckParams, check_solid};
+use crate::tooling::prints::PrintedCore;
 
 /// A core cell through consecutive span segments: bounded in front by the leading-edge cut
 /// (`None`) or web `k`'s back face, behind by web `k`'s front face or the trailing-edge cut.
@@ -199,37 +200,31 @@ pub fn build_tooling(
         done += 1;
         progress(done, total, label);
     };
-    // The outer mould line is parted at its silhouette along the mould's pull, which is chosen
-    // here (see `choose_pull`).
-    let chosen = choose_pull(blade, &outer, &outer_trims, &loft, params, pitch, span);
-    let (outer_solid, mould_pull_angle, mould) =
-        choose_mould(chosen, &outer, &outer_trims, &loft, params, span)?;
-    step("outer mould line", progress);
-    let mut parts = Vec::with_capacity(total);
     let printing = params.print_fraction > 0.0;
     let side = |trim: EndTrim| trim.chord_for_sag(0.5 * params.tolerance).min(loft.max_edge);
-    let (mut printed, mut sealed, mut unprinted) = (Vec::new(), Vec::new(), Vec::new());
-    let mut print_dropped = Vec::new();
-    // Each printed core's part index, end and plain solid, in case the shell cannot take its
-    // port (below).
-    let mut plain = Vec::new();
-    for (i, ((cell, trims), span)) in cells.iter().zip(&spans).enumerate() {
+    // The end each core's print leaves through: the root when the cell reaches it, else the
+    // tip; `Err(())` for a core that reaches neither (it gets no print).
+    let print_end = |span: &CellSpan| -> Option<Result<End, ()>> {
+        if !printing {
+            None
+        } else if segments[span.first].0.is_none() {
+            Some(Ok(End::Root))
+        } else if segments[span.last].1.is_none() {
+            Some(Ok(End::Tip))
+        } else {
+            Some(Err(()))
+        }
+    };
+    // Each core lofted, and printed where it has a print (a print that cannot be made leaves
+    // the core as with prints off, reported below).
+    type Lofted = Result<(LoftedSolid, Option<Result<PrintedCore, MeshError>>), MeshError>;
+    let core = |i: usize| -> Lofted {
+        let ((cell, trims), span) = (&cells[i], &spans[i]);
         let name = format!("core-{}", i + 1);
         let solid = loft_solid(cell, trims, &loft)
             .map_err(|e| MeshError::Geometry(format!("{name}: {e}")))?;
-        // The print leaves through the root when the cell reaches it, else through the tip.
-        let end = if !printing {
-            None
-        } else if segments[span.first].0.is_none() {
-            Some(End::Root)
-        } else if segments[span.last].1.is_none() {
-            Some(End::Tip)
-        } else {
-            unprinted.push(name.clone());
-            None
-        };
-        let mesh = match end {
-            Some(end) => {
+        let printed = match print_end(span) {
+            Some(Ok(end)) => {
                 let set = PrintSetting {
                     fraction: params.print_fraction,
                     length: params.print_length,
@@ -239,22 +234,63 @@ pub fn build_tooling(
                     inset: 0.25 * params.min_core_thickness,
                     taper: print_taper(params.min_draft),
                 };
-                // A print that cannot be made leaves the core as with prints off (reported).
-                match print_or_fall(&name, &solid, end, cell, &set) {
-                    Ok(p) => {
-                        let mesh = p.mesh.clone();
-                        printed.push(p);
-                        plain.push((parts.len(), end, solid.mesh));
-                        mesh
-                    }
-                    Err(reason) => {
-                        print_dropped.push(DroppedPrint { core: name.clone(), end, reason });
-                        sealed.push(solid.mesh.clone());
-                        solid.mesh
-                    }
-                }
+                Some(print_or_fall(&name, &solid, end, cell, &set))
             }
-            None => {
+            _ => None,
+        };
+        Ok((solid, printed))
+    };
+    // The outer mould line is parted at its silhouette along the mould's pull, which is chosen
+    // here (see `choose_pull`); the cores, which do not depend on it, are lofted beside it on a
+    // second core. Failures are reported in the order of the work done one after the other: the
+    // mould's first, then the cores' in their order.
+    let mould_work = || {
+        let chosen = choose_pull(blade, &outer, &outer_trims, &loft, params, pitch, span);
+        choose_mould(chosen, &outer, &outer_trims, &loft, params, span)
+    };
+    let (chosen, lofted): (_, Vec<Lofted>) = if crate::parallel::threads() >= 2 {
+        std::thread::scope(|scope| {
+            let cores = scope.spawn(|| (0..cells.len()).map(core).collect());
+            let chosen = mould_work();
+            (chosen, cores.join().unwrap_or_else(|e| std::panic::resume_unwind(e)))
+        })
+    } else {
+        let chosen = mould_work();
+        let lofted = match &chosen {
+            Ok(_) => (0..cells.len()).map(core).collect(),
+            Err(_) => Vec::new(),
+        };
+        (chosen, lofted)
+    };
+    let (outer_solid, mould_pull_angle, mould) = chosen?;
+    step("outer mould line", progress);
+    let mut parts = Vec::with_capacity(total);
+    let (mut printed, mut sealed, mut unprinted) = (Vec::new(), Vec::new(), Vec::new());
+    let mut print_dropped = Vec::new();
+    // Each printed core's part index, end and plain solid, in case the shell cannot take its
+    // port (below).
+    let mut plain = Vec::new();
+    for (i, (lofted, span)) in lofted.into_iter().zip(&spans).enumerate() {
+        let name = format!("core-{}", i + 1);
+        let (solid, printed_core) = lofted?;
+        if let Some(Err(())) = print_end(span) {
+            unprinted.push(name.clone());
+        }
+        let mesh = match (print_end(span), printed_core) {
+            (Some(Ok(end)), Some(result)) => match result {
+                Ok(p) => {
+                    let mesh = p.mesh.clone();
+                    printed.push(p);
+                    plain.push((parts.len(), end, solid.mesh));
+                    mesh
+                }
+                Err(reason) => {
+                    print_dropped.push(DroppedPrint { core: name.clone(), end, reason });
+                    sealed.push(solid.mesh.clone());
+                    solid.mesh
+                }
+            },
+            _ => {
                 sealed.push(solid.mesh.clone());
                 solid.mesh
             }
