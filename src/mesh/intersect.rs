@@ -312,13 +312,8 @@ mod tests {
         // Points placed off a line or plane by multiples of the band (0.3 to 3 times it, both
         // sides of the threshold), at distances from the origin of a micrometre to a kilometre:
         // every orientation equals the plain band's, bit for bit.
-        let mut seed = 0x9e37_79b9_7f4a_7c15u64;
-        let mut rnd = || {
-            seed ^= seed << 13;
-            seed ^= seed >> 7;
-            seed ^= seed << 17;
-            (seed >> 11) as f64 / (1u64 << 53) as f64 - 0.5
-        };
+        let mut uniform = crate::mesh::test_rng::uniform(0x9e37_79b9_7f4a_7c15);
+        let mut rnd = || uniform() - 0.5;
         let (mut zeros, mut signs) = (0, 0);
         for trial in 0..20_000 {
             let scale = 10f64.powf(-6.0 + 9.0 * (rnd() + 0.5));

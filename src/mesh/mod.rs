@@ -34,6 +34,8 @@ mod queue;
 mod sha_ni;
 mod spatial;
 mod stl;
+#[cfg(test)]
+pub(crate) mod test_rng;
 mod triangles;
 mod unit;
 pub(crate) mod vec3;

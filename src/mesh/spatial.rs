@@ -404,13 +404,7 @@ mod tests {
     #[test]
     fn the_grid_finds_what_all_pairs_find() {
         // Seeded random triangle soups: the grid search must agree with testing every pair.
-        let mut seed = 0x2545_f491_4f6c_dd1du64;
-        let mut rnd = || {
-            seed ^= seed << 13;
-            seed ^= seed >> 7;
-            seed ^= seed << 17;
-            (seed >> 11) as f64 / (1u64 << 53) as f64
-        };
+        let mut rnd = crate::mesh::test_rng::uniform(0x2545_f491_4f6c_dd1d);
         let mut meeting = 0;
         for trial in 0..40 {
             let mut m = Mesh::new();

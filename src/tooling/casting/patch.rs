@@ -332,13 +332,7 @@ mod tests {
         // Random facets of all sizes and slants (some steep, some needles) and random points,
         // some on the facets' corners and edges: the facets under each point by the index are
         // those of a pass over every eligible facet, in the same order.
-        let mut seed = 0x2545_f491_4f6c_dd1du64;
-        let mut rnd = || {
-            seed ^= seed << 13;
-            seed ^= seed >> 7;
-            seed ^= seed << 17;
-            (seed >> 11) as f64 / (1u64 << 53) as f64
-        };
+        let mut rnd = crate::mesh::test_rng::uniform(0x2545_f491_4f6c_dd1d);
         let mut mesh = Mesh::new();
         let mut eligible = Vec::new();
         for t in 0..3000 {
