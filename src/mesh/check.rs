@@ -59,6 +59,51 @@ pub fn check_solid(
     part: &str,
     params: &CheckParams,
 ) -> Result<MeshSummary, MeshError> {
+    check_solid_keeping_shells(mesh, part, params).map(|(summary, _)| summary)
+}
+
+/// After [`check_solid_keeping_shells`] of a mesh, the check of `moved`, the same triangles on
+/// vertices moved a little (rounded as a file holds them): what depends on the triangles alone
+/// (indices, edge pairs, vertex fans, shells) was checked with the mesh, so `moved` is checked
+/// only for what its coordinates decide (finite, facets not degenerate, shells outward), in the
+/// order [`check_solid`] would check them, and fails as it would. Anything but the same
+/// triangles on as many vertices gets the whole [`check_solid`].
+pub(crate) fn check_moved(
+    moved: &Mesh,
+    of: &Mesh,
+    shells: &Shells,
+    part: &str,
+    params: &CheckParams,
+) -> Result<(), MeshError> {
+    if moved.triangles != of.triangles || moved.vertices.len() != of.vertices.len() {
+        return check_solid(moved, part, params).map(|_| ());
+    }
+    check_coordinates(moved, part, params)?;
+    check_shell_orientation(moved, part, params, shells)
+}
+
+/// Every vertex finite and every facet sound (not degenerate); the bounding box.
+fn check_coordinates(
+    mesh: &Mesh,
+    part: &str,
+    params: &CheckParams,
+) -> Result<BoundingBox, MeshError> {
+    for (vertex, p) in mesh.vertices.iter().enumerate() {
+        if !p.iter().all(|c| c.is_finite()) {
+            return Err(MeshError::NonFinite { part: part.to_string(), vertex });
+        }
+    }
+    let bbox = mesh.bounding_box().ok_or_else(|| MeshError::Empty { part: part.to_string() })?;
+    check_facets(mesh, part, params, bbox.diagonal())?;
+    Ok(bbox)
+}
+
+/// [`check_solid`], with the mesh's shells for [`check_moved`].
+pub(crate) fn check_solid_keeping_shells(
+    mesh: &Mesh,
+    part: &str,
+    params: &CheckParams,
+) -> Result<(MeshSummary, Shells), MeshError> {
     let place = |p: P3| Place { point: p, unit: params.unit };
     let name = || part.to_string();
     let nv = mesh.vertices.len();
@@ -67,13 +112,7 @@ pub fn check_solid(
             return Err(MeshError::Index { part: name(), triangle: t, index, count: nv });
         }
     }
-    for (vertex, p) in mesh.vertices.iter().enumerate() {
-        if !p.iter().all(|c| c.is_finite()) {
-            return Err(MeshError::NonFinite { part: name(), vertex });
-        }
-    }
-    let bbox = mesh.bounding_box().ok_or_else(|| MeshError::Empty { part: name() })?;
-    check_facets(mesh, part, params, bbox.diagonal())?;
+    let bbox = check_coordinates(mesh, part, params)?;
     let twins = pair_edges(mesh, part, params)?;
     check_vertex_fans(mesh, part, params, &twins)?;
     let shells = shells(mesh, &twins);
@@ -93,14 +132,15 @@ pub fn check_solid(
         mesh.triangles.iter().flatten().for_each(|&i| seen[i as usize] = true);
         seen.iter().filter(|&&s| s).count()
     };
-    Ok(MeshSummary {
+    let summary = MeshSummary {
         triangles: mesh.len(),
         vertices: used,
         shells: shells.count,
         volume: mesh.signed_volume(),
         area: mesh.area(),
         bounding_box: bbox,
-    })
+    };
+    Ok((summary, shells))
 }
 
 fn check_facets(mesh: &Mesh, part: &str, params: &CheckParams, diag: f64) -> Result<(), MeshError> {
@@ -258,7 +298,7 @@ fn check_vertex_fans(
 }
 
 /// Connected shells: the shell index of every triangle.
-struct Shells {
+pub(crate) struct Shells {
     of_triangle: Vec<u32>,
     count: usize,
 }
@@ -371,4 +411,41 @@ fn ray_hits(p: P3, [a, b, c]: [P3; 3]) -> bool {
         return false;
     }
     vec3::dot(e2, r) / det > 0.0
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::mesh::box_mesh;
+
+    #[test]
+    fn a_moved_mesh_is_judged_as_its_whole_check_judges_it() {
+        // A hollow box (two shells, the inner turned inward), its vertices moved: a little
+        // (sound), one corner onto another (a degenerate facet), mirrored (every shell turned
+        // inside out), one coordinate not finite. The short check after the mesh's own gives
+        // the whole check's verdict, word for word.
+        let mut hollow = box_mesh([0.0; 3], [1.0, 0.6, 0.4]);
+        let mut cavity = box_mesh([0.2, 0.1, 0.1], [0.8, 0.5, 0.3]);
+        cavity.flip();
+        hollow.merge(&cavity);
+        let params = CheckParams::default();
+        let (_, shells) = check_solid_keeping_shells(&hollow, "hollow", &params).unwrap();
+        let moves: [&dyn Fn(&mut Mesh); 4] = [
+            &|m| m.vertices.iter_mut().for_each(|p| p[0] += 1e-7 * p[1]),
+            &|m| m.vertices[1] = m.vertices[0],
+            &|m| m.vertices.iter_mut().for_each(|p| p[0] = -p[0]),
+            &|m| m.vertices[5][2] = f64::NAN,
+        ];
+        let mut failures = 0;
+        for (k, change) in moves.iter().enumerate() {
+            let mut moved = hollow.clone();
+            change(&mut moved);
+            let whole = check_solid(&moved, "hollow", &params).map(|_| ());
+            let short = check_moved(&moved, &hollow, &shells, "hollow", &params);
+            assert_eq!(format!("{short:?}"), format!("{whole:?}"), "move {k}");
+            failures += usize::from(whole.is_err());
+        }
+        // Three of the four moves must fail, or the comparison proves little.
+        assert_eq!(failures, 3);
+    }
 }

@@ -10,7 +10,7 @@ use super::word_hash::WordMap;
 use std::io::Write;
 use std::path::PathBuf;
 
-use super::check::{CheckParams, MeshSummary, check_solid};
+use super::check::{CheckParams, MeshSummary, check_moved, check_solid_keeping_shells};
 use super::error::{MeshError, Place};
 use super::queue::{each_part, in_order};
 use super::triangles::Mesh;
@@ -230,9 +230,13 @@ pub(crate) fn check_part_set(
         }
         let own =
             CheckParams { self_intersection: check.self_intersection && i < full, ..check.clone() };
-        let summary = check_solid(mesh, name, &own)?;
+        // The part, then the part as the file holds it (coordinates rounded; two vertices that
+        // round to one point fail in between): the triangles are the same, so what they alone
+        // decide is checked once.
+        let (summary, shells) = check_solid_keeping_shells(mesh, name, &own)?;
         let rounded = as_written(mesh, name, options.unit)?;
-        check_solid(&rounded, name, &CheckParams { self_intersection: false, ..check.clone() })?;
+        let written = CheckParams { self_intersection: false, ..check.clone() };
+        check_moved(&rounded, mesh, &shells, name, &written)?;
         Ok(WrittenPart {
             name: name.into(),
             path: PathBuf::from(format!("{name}.stl")),
