@@ -217,7 +217,7 @@ pub fn build_tooling(
     };
     // Each core lofted, and printed where it has a print (a print that cannot be made leaves
     // the core as with prints off, reported below).
-    type Lofted = Result<(LoftedSolid, Option<Result<PrintedCore, MeshError>>), MeshError>;
+    type Lofted = Result<(LoftedSolid, Option<(End, Result<PrintedCore, MeshError>)>), MeshError>;
     let core = |i: usize| -> Lofted {
         let ((cell, trims), span) = (&cells[i], &spans[i]);
         let name = format!("core-{}", i + 1);
@@ -234,7 +234,7 @@ pub fn build_tooling(
                     inset: 0.25 * params.min_core_thickness,
                     taper: print_taper(params.min_draft),
                 };
-                Some(print_or_fall(&name, &solid, end, cell, &set))
+                Some((end, print_or_fall(&name, &solid, end, cell, &set)))
             }
             _ => None,
         };
@@ -272,25 +272,23 @@ pub fn build_tooling(
     let mut plain = Vec::new();
     for (i, (lofted, span)) in lofted.into_iter().zip(&spans).enumerate() {
         let name = format!("core-{}", i + 1);
-        let (solid, printed_core) = lofted?;
-        if let Some(Err(())) = print_end(span) {
+        let (solid, print) = lofted?;
+        if matches!(print_end(span), Some(Err(()))) {
             unprinted.push(name.clone());
         }
-        let mesh = match (print_end(span), printed_core) {
-            (Some(Ok(end)), Some(result)) => match result {
-                Ok(p) => {
-                    let mesh = p.mesh.clone();
-                    printed.push(p);
-                    plain.push((parts.len(), end, solid.mesh));
-                    mesh
-                }
-                Err(reason) => {
-                    print_dropped.push(DroppedPrint { core: name.clone(), end, reason });
-                    sealed.push(solid.mesh.clone());
-                    solid.mesh
-                }
-            },
-            _ => {
+        let mesh = match print {
+            Some((end, Ok(p))) => {
+                let mesh = p.mesh.clone();
+                printed.push(p);
+                plain.push((parts.len(), end, solid.mesh));
+                mesh
+            }
+            Some((end, Err(reason))) => {
+                print_dropped.push(DroppedPrint { core: name.clone(), end, reason });
+                sealed.push(solid.mesh.clone());
+                solid.mesh
+            }
+            None => {
                 sealed.push(solid.mesh.clone());
                 solid.mesh
             }
