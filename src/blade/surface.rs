@@ -30,9 +30,9 @@
 
 use super::coverage::Surface;
 use super::{Blade, ResolvedPly};
-use crate::interp::CubicSpline;
+use crate::interp::{CubicSpline, KnotIndex};
 use crate::project::Region;
-use std::cell::{Cell, RefCell};
+use std::cell::RefCell;
 use std::sync::atomic::{AtomicU64, Ordering};
 
 /// Ply drops are ramped over this many ply thicknesses (a 1:20 taper, common practice for
@@ -48,6 +48,8 @@ pub const CORE_EDGE_TAPER: f64 = 3.0;
 struct StationCurve {
     x: CubicSpline,
     y: CubicSpline,
+    /// The table of the two splines' knots (one arc length), to find a point's segment.
+    knots: KnotIndex,
     s_le: f64,
     s_end: f64,
     blunt: bool,
@@ -65,6 +67,7 @@ impl StationCurve {
             s.push(last + (w[0][0] - w[1][0]).hypot(w[0][1] - w[1][1]));
         }
         StationCurve {
+            knots: KnotIndex::new(&s),
             x: CubicSpline::natural(&s, &pts.iter().map(|p| p[0]).collect::<Vec<_>>()),
             y: CubicSpline::natural(&s, &pts.iter().map(|p| p[1]).collect::<Vec<_>>()),
             s_le: s[outline.upper.len() - 1],
@@ -81,35 +84,23 @@ impl StationCurve {
         }
     }
 
-    /// Point (chord fractions) and its derivative in `u`. The two coordinates share their knots,
-    /// so the segment is found once for all four values, looked for first near the segment of
-    /// the last point asked for in hint slot `slot` on this thread (the points of a ring come in
-    /// order along a chain; any hint gives the same segment).
-    fn point(&self, surface: Surface, u: f64, slot: usize) -> ([f64; 2], [f64; 2]) {
+    /// Point (chord fractions) and its derivative in `u`. The two coordinates share their knots
+    /// (both splines are built on one arc length), so the segment, and the point's place on it,
+    /// are found once for all four values.
+    fn point(&self, surface: Surface, u: f64) -> ([f64; 2], [f64; 2]) {
         let (s, ds) = self.arc(surface, u);
-        let i = SEGMENT_HINTS.with(|h| {
-            let mut hints = h.get();
-            let i = self.x.segment_near(s, hints[slot]);
-            hints[slot] = i;
-            h.set(hints);
-            i
-        });
-        (
-            [self.x.eval_on(i, s), self.y.eval_on(i, s)],
-            [self.x.derivative_on(i, s) * ds, self.y.derivative_on(i, s) * ds],
-        )
+        let at = self.x.on_segment(self.x.segment_in(&self.knots, s), s);
+        let ([x, x_s], [y, y_s]) = (self.x.value_slope_at(&at), self.y.value_slope_at(&at));
+        ([x, y], [x_s * ds, y_s * ds])
     }
 
     /// [`StationCurve::point`] with the second derivative in `u`.
     fn point2(&self, surface: Surface, u: f64) -> ([f64; 2], [f64; 2], [f64; 2]) {
         let (s, ds) = self.arc(surface, u);
-        let i = self.x.segment(s);
+        let at = self.x.on_segment(self.x.segment_in(&self.knots, s), s);
+        let ([x, x_s, x_ss], [y, y_s, y_ss]) = (self.x.jet_at(&at), self.y.jet_at(&at));
         let dd = ds * ds;
-        (
-            [self.x.eval_on(i, s), self.y.eval_on(i, s)],
-            [self.x.derivative_on(i, s) * ds, self.y.derivative_on(i, s) * ds],
-            [self.x.second_on(i, s) * dd, self.y.second_on(i, s) * dd],
-        )
+        ([x, y], [x_s * ds, y_s * ds], [x_ss * dd, y_ss * dd])
     }
 }
 
@@ -288,9 +279,6 @@ struct RadiusMemo {
 }
 
 thread_local! {
-    /// The segments of the last points found on the station curves, for the next search: the
-    /// inner and outer stations of a blend, on the upper and the lower surface.
-    static SEGMENT_HINTS: Cell<[usize; 4]> = const { Cell::new([1; 4]) };
     static MEMO: RefCell<RadiusMemo> = const {
         RefCell::new(RadiusMemo {
             key: (0, 0),
@@ -430,12 +418,11 @@ impl BladeSurfaces<'_> {
         surface: Surface,
         u: f64,
     ) -> ([f64; 2], [f64; 2]) {
-        let side = usize::from(surface == Surface::Lower);
-        let (pa, da) = self.curves[i].point(surface, u, side);
+        let (pa, da) = self.curves[i].point(surface, u);
         if w == 0.0 {
             return (pa, da);
         }
-        let (pb, db) = self.curves[j].point(surface, u, 2 + side);
+        let (pb, db) = self.curves[j].point(surface, u);
         let mix = |a: [f64; 2], b: [f64; 2]| [a[0] + w * (b[0] - a[0]), a[1] + w * (b[1] - a[1])];
         (mix(pa, pb), mix(da, db))
     }
