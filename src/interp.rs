@@ -43,12 +43,12 @@ impl CubicSpline {
 
     /// The value at `t`, extrapolating linearly beyond the ends.
     pub(crate) fn eval(&self, t: f64) -> f64 {
-        self.eval_on(self.segment(t), t)
+        self.value_at(&self.on_segment(self.segment(t), t))
     }
 
     /// The first derivative at `t`, held at its end value beyond the ends.
     pub(crate) fn derivative(&self, t: f64) -> f64 {
-        self.derivative_on(self.segment(t), t)
+        self.slope_at(&self.on_segment(self.segment(t), t))
     }
 
     /// The segment `[x_{i-1}, x_i]` that `eval` and `derivative` use at `t`, as its index `i`:
@@ -64,37 +64,49 @@ impl CubicSpline {
         index.partition_point(&self.x, t).clamp(1, self.x.len() - 1)
     }
 
-    /// Where `t` falls on segment `i`: what [`CubicSpline::eval_on`],
-    /// [`CubicSpline::derivative_on`] and [`CubicSpline::second_on`] work out first, shared by
-    /// every spline on the same knots (see [`CubicSpline::jet_at`]).
+    /// Where `t` falls on segment `i` (from [`CubicSpline::segment`] or
+    /// [`CubicSpline::segment_in`]), shared by every spline on the same knots.
     pub(crate) fn on_segment(&self, i: usize, t: f64) -> OnSegment {
         let (x0, x1) = (self.x[i - 1], self.x[i]);
         let h = x1 - x0;
         OnSegment { i, h, a: (x1 - t) / h, b: (t - x0) / h }
     }
 
-    /// The value and the first derivative at `at` (from [`CubicSpline::on_segment`] of a spline
-    /// with the same knots): those of [`CubicSpline::eval_on`] and
-    /// [`CubicSpline::derivative_on`], bit for bit (the same operations in the same order).
-    pub(crate) fn value_slope_at(&self, at: &OnSegment) -> [f64; 2] {
+    /// The value at `at` (from [`CubicSpline::on_segment`] of a spline with the same knots):
+    /// the cubic between the knots (de Boor, ch. IV), a straight line beyond the ends.
+    fn value_at(&self, at: &OnSegment) -> f64 {
         let OnSegment { i, h, a, b } = *at;
         let (y0, y1, m0, m1) = (self.y[i - 1], self.y[i], self.m[i - 1], self.m[i]);
-        let value = a * y0 + b * y1 + ((a * a * a - a) * m0 + (b * b * b - b) * m1) * h * h / 6.0;
-        let (a, b) = (a.clamp(0.0, 1.0), b.clamp(0.0, 1.0));
-        let slope = (y1 - y0) / h + ((3.0 * b * b - 1.0) * m1 - (3.0 * a * a - 1.0) * m0) * h / 6.0;
-        [value, slope]
+        a * y0 + b * y1 + ((a * a * a - a) * m0 + (b * b * b - b) * m1) * h * h / 6.0
     }
 
-    /// [`CubicSpline::value_slope_at`] with the second derivative of
-    /// [`CubicSpline::second_on`], bit for bit.
+    /// The first derivative at `at`, held at its end value beyond the ends.
+    fn slope_at(&self, at: &OnSegment) -> f64 {
+        let OnSegment { i, h, a, b } = *at;
+        let (y0, y1, m0, m1) = (self.y[i - 1], self.y[i], self.m[i - 1], self.m[i]);
+        let (a, b) = (a.clamp(0.0, 1.0), b.clamp(0.0, 1.0));
+        (y1 - y0) / h + ((3.0 * b * b - 1.0) * m1 - (3.0 * a * a - 1.0) * m0) * h / 6.0
+    }
+
+    /// The value and the first derivative at `at`.
+    pub(crate) fn value_slope_at(&self, at: &OnSegment) -> [f64; 2] {
+        [self.value_at(at), self.slope_at(at)]
+    }
+
+    /// The value, the first and the second derivative at `at`; the second is linear between the
+    /// knots' second derivatives (de Boor, ch. IV), held at the segment's ends beyond them.
     pub(crate) fn jet_at(&self, at: &OnSegment) -> [f64; 3] {
         let [value, slope] = self.value_slope_at(at);
         let b = at.b.clamp(0.0, 1.0);
         [value, slope, (1.0 - b) * self.m[at.i - 1] + b * self.m[at.i]]
     }
 
+    // The formulas as first written, one quantity at a time: the references the shared
+    // evaluation must match bit for bit (see the tests).
+
     /// [`CubicSpline::eval`] on segment `i` (from [`CubicSpline::segment`] of a spline with the
     /// same knots).
+    #[cfg(test)]
     pub(crate) fn eval_on(&self, i: usize, t: f64) -> f64 {
         let (x0, x1) = (self.x[i - 1], self.x[i]);
         let h = x1 - x0;
@@ -107,7 +119,6 @@ impl CubicSpline {
 
     /// The second derivative on segment `i` (see [`CubicSpline::eval_on`]): linear between the
     /// knots' second derivatives (de Boor, ch. IV), held at the segment's ends beyond them.
-    /// The reference of [`CubicSpline::jet_at`]'s second derivative (its test compares them).
     #[cfg(test)]
     pub(crate) fn second_on(&self, i: usize, t: f64) -> f64 {
         let (x0, x1) = (self.x[i - 1], self.x[i]);
@@ -117,6 +128,7 @@ impl CubicSpline {
     }
 
     /// [`CubicSpline::derivative`] on segment `i` (see [`CubicSpline::eval_on`]).
+    #[cfg(test)]
     pub(crate) fn derivative_on(&self, i: usize, t: f64) -> f64 {
         let (x0, x1) = (self.x[i - 1], self.x[i]);
         let h = x1 - x0;
