@@ -150,15 +150,12 @@ pub(crate) fn casting_mould(
     let x_vent = vent.entry[0];
     let far_root = x_vent - x0 > x1 - x_vent;
     let mid = 0.5 * (x0 + x1);
-    let mut order: Vec<u32> = tops
-        .iter()
-        .copied()
-        .filter(|&v| {
-            let x = mesh.vertices[v as usize][0];
-            if far_root { x <= mid } else { x >= mid }
-        })
-        .collect();
-    let rest: Vec<u32> = tops.iter().copied().filter(|v| !order.contains(v)).collect();
+    let far_half = |v: u32| {
+        let x = mesh.vertices[v as usize][0];
+        if far_root { x <= mid } else { x >= mid }
+    };
+    // Those in the far half first, then the rest, each in height order (`tops` has no repeats).
+    let (mut order, rest): (Vec<u32>, Vec<u32>) = tops.iter().partition(|&&v| far_half(v));
     order.extend(rest);
     let sprue = place(params.sprue_diameter, &vent.facets, &order)?;
 
@@ -205,13 +202,7 @@ pub(crate) fn casting_mould(
         channels.push((entry, outlet, 2.0 * hole.radius, 2.0 * r_top, volume));
         outlets.push(top);
     }
-    metal.triangles = metal
-        .triangles
-        .iter()
-        .enumerate()
-        .filter(|(t, _)| !removed.contains(t))
-        .map(|(_, t)| *t)
-        .collect();
+    metal.triangles = kept(&metal.triangles, &[&removed]);
     metal.triangles.extend(metal_new);
     compact(&mut metal);
     // The top face of the upper half, holed by both outlets.
@@ -224,13 +215,7 @@ pub(crate) fn casting_mould(
         })
         .collect();
     let top_new = holed_face(&mut half, &top_faces, &outlets, &frame, &mut half_ids)?;
-    half.triangles = half
-        .triangles
-        .iter()
-        .enumerate()
-        .filter(|(t, _)| !half_removed.contains(t) && !top_faces.contains(t))
-        .map(|(_, t)| *t)
-        .collect();
+    half.triangles = kept(&half.triangles, &[&half_removed, &top_faces]);
     half.triangles.extend(half_new);
     half.triangles.extend(top_new);
     compact(&mut half);
@@ -287,4 +272,15 @@ pub(crate) fn casting_mould(
         metal,
         machining,
     })
+}
+
+/// The triangles whose index is in none of the lists `out`, in their order.
+fn kept(triangles: &[[u32; 3]], out: &[&[usize]]) -> Vec<[u32; 3]> {
+    let mut keep = vec![true; triangles.len()];
+    for &t in out.iter().flat_map(|o| o.iter()) {
+        if let Some(k) = keep.get_mut(t) {
+            *k = false;
+        }
+    }
+    triangles.iter().zip(keep).filter(|(_, k)| *k).map(|(t, _)| *t).collect()
 }
