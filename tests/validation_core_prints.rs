@@ -84,10 +84,18 @@ fn check_prints(t: &BladeTooling) -> usize {
     let part = |name: &str| t.parts.iter().find(|p| p.name == name).expect("part");
     let shell = &part("shell").mesh;
     check_solid(shell, "shell", &CheckParams::default()).expect("the shell is closed, outward");
+    // The check before writing leaves out the self-intersection test only for a mesh that
+    // passed it, to the bit, while the tooling was built: each printed core as written (unless
+    // scaled for shrinkage), never the shell, never a core moved by one bit.
+    assert!(!t.known_clear(shell));
     let e = t.ends;
     for p in &t.prints {
         let core = &part(&p.core).mesh;
         check_solid(core, &p.core, &CheckParams::default()).expect("the core is closed, outward");
+        assert_eq!(t.known_clear(core), t.params.core_shrink_factor == 1.0, "{}", p.core);
+        let mut nudged = core.clone();
+        nudged.vertices[0][1] = f64::from_bits(nudged.vertices[0][1].to_bits() + 1);
+        assert!(!t.known_clear(&nudged), "{}", p.core);
         // The drain point is the lowest point of the core stood as the summary says.
         let low = core.vertices.iter().map(|&v| dot(p.down, v)).fold(f64::NEG_INFINITY, f64::max);
         assert!(

@@ -24,6 +24,7 @@ use crate::support_stl::closed_outward;
 
 use layloft::mesh::{
     CheckParams, LengthUnit, Mesh, MeshError, StlFormat, StlOptions, box_mesh, check_solid,
+    encode_part_set_knowing,
 };
 use layloft::output::write_parts;
 use layloft::tooling::{
@@ -387,6 +388,39 @@ fn broken_meshes_are_refused_naming_the_place() {
     let e = check_solid(&touching, "core", &CheckParams::default()).unwrap_err();
     assert!(matches!(e, MeshError::NonManifoldVertex { fans: 2, .. }), "{e}");
     assert!(e.to_string().contains("(1000.000, 1000.000, 1000.000) mm"), "{e}");
+}
+
+#[test]
+fn a_part_known_clear_skips_the_self_intersection_test_alone() {
+    // Two overlapping closed boxes intersect (found by the test); flagged as known clear, the
+    // test is not repeated for that part only, and every other check still is.
+    let mut boxes = box_mesh([0.0; 3], [1.0; 3]);
+    boxes.merge(&box_mesh([0.5, 0.5, 0.5], [1.5, 1.5, 1.5]));
+    let good = box_mesh([3.0; 3], [4.0; 3]);
+    let options = StlOptions { unit: LengthUnit::Millimetre, format: StlFormat::Binary };
+    let run = |parts: &[(&str, &Mesh)], clear: &[bool]| {
+        encode_part_set_knowing(
+            parts,
+            &[],
+            clear,
+            &options,
+            &CheckParams::default(),
+            &mut |_, _, _| {},
+        )
+    };
+    let e = run(&[("a", &good), ("b", &boxes)], &[]).unwrap_err();
+    assert!(matches!(e, MeshError::SelfIntersection { .. }), "{e}");
+    let e = run(&[("a", &good), ("b", &boxes)], &[true]).unwrap_err();
+    assert!(matches!(e, MeshError::SelfIntersection { .. }), "only part a was flagged: {e}");
+    let e = run(&[("a", &good), ("b", &boxes)], &[false, false]).unwrap_err();
+    assert!(matches!(e, MeshError::SelfIntersection { .. }), "{e}");
+    let encoded = run(&[("a", &good), ("b", &boxes)], &[false, true]).expect("b flagged");
+    assert_eq!(encoded.len(), 2);
+    // A hole is still found in a part flagged clear.
+    let mut open = good.clone();
+    open.triangles.pop();
+    let e = run(&[("a", &open)], &[true]).unwrap_err();
+    assert!(matches!(e, MeshError::OpenEdge { .. }), "{e}");
 }
 
 #[test]

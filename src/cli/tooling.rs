@@ -16,8 +16,8 @@ use layloft::Error;
 use layloft::blade::Blade;
 use layloft::input::{Sources, read_project_sourced};
 use layloft::mesh::{
-    CheckParams, Mesh, MeshError, StlFormat, StlOptions, WrittenPart,
-    encode_part_set_with_progress, sha256_hex,
+    CheckParams, Mesh, MeshError, StlFormat, StlOptions, WrittenPart, encode_part_set_knowing,
+    sha256_hex,
 };
 use layloft::output::{FileSet, stale_files};
 use layloft::project::Project;
@@ -212,9 +212,12 @@ pub fn build_and_write(
         set.push(EXPLODED_FILE.into());
         let stale = stale_files(dir, &set);
         let bar = out.progress(2 * (parts.len() + copies.len()) as u64, "checking");
-        let checked = encode_part_set_with_progress(
+        // The printed cores passed the self-intersection test when their prints were made.
+        let clear: Vec<bool> = parts.iter().map(|(_, m)| tooling.known_clear(m)).collect();
+        let checked = encode_part_set_knowing(
             &parts,
             &copies,
+            &clear,
             stl,
             &CheckParams::default(),
             &mut |_, _, what| {

@@ -46,7 +46,8 @@ pub use digest::{Sha256, sha256_hex};
 pub use error::{End, MeshError, Place};
 pub use polygon::{polygon_area, triangulate_polygon};
 pub use stl::{
-    StlFormat, StlOptions, WrittenPart, binary_header, encode_part_set_with_progress, encode_stl,
+    StlFormat, StlOptions, WrittenPart, binary_header, encode_part_set_knowing,
+    encode_part_set_with_progress, encode_stl,
 };
 pub use triangles::{BoundingBox, Mesh, box_mesh};
 pub use unit::LengthUnit;

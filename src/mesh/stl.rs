@@ -176,8 +176,23 @@ pub fn encode_part_set_with_progress(
     check: &CheckParams,
     progress: &mut dyn FnMut(usize, usize, &str),
 ) -> Result<Vec<(WrittenPart, Vec<u8>)>, MeshError> {
+    encode_part_set_knowing(parts, copies, &[], options, check, progress)
+}
+
+/// [`encode_part_set_with_progress`] where `clear[i]` says that part `i` of `parts` is, to the
+/// bit, a mesh that has already passed the self-intersection test (see
+/// [`crate::tooling::BladeTooling::known_clear`]): that test alone is not repeated for it (its
+/// outcome depends on the mesh alone). Parts past the end of `clear` are tested.
+pub fn encode_part_set_knowing(
+    parts: &[(&str, &Mesh)],
+    copies: &[(&str, &Mesh)],
+    clear: &[bool],
+    options: &StlOptions,
+    check: &CheckParams,
+    progress: &mut dyn FnMut(usize, usize, &str),
+) -> Result<Vec<(WrittenPart, Vec<u8>)>, MeshError> {
     let total = 2 * (parts.len() + copies.len());
-    let done = check_part_set(parts, copies, options, check, &mut |i, what| {
+    let done = check_part_set(parts, copies, clear, options, check, &mut |i, what| {
         progress(i, total, what);
     })?;
     let all: Vec<(&str, &Mesh)> = parts.iter().chain(copies).copied().collect();
@@ -209,10 +224,12 @@ pub fn encode_part_set_with_progress(
 }
 
 /// The checks of a part set (see [`write_part_set_with_progress`]); each part's path is
-/// `NAME.stl`, relative. `progress(done, what)` after each part.
+/// `NAME.stl`, relative. A part `i` of `parts` with `clear[i]` has passed the self-intersection
+/// test already (see [`encode_part_set_knowing`]). `progress(done, what)` after each part.
 pub(crate) fn check_part_set(
     parts: &[(&str, &Mesh)],
     copies: &[(&str, &Mesh)],
+    clear: &[bool],
     options: &StlOptions,
     check: &CheckParams,
     progress: &mut dyn FnMut(usize, &str),
@@ -228,8 +245,9 @@ pub(crate) fn check_part_set(
         if parts[..i].iter().any(|&(other, _)| other == name) {
             return Err(MeshError::DuplicatePart(name.into()));
         }
+        let tested = i < full && !clear.get(i).copied().unwrap_or(false);
         let own =
-            CheckParams { self_intersection: check.self_intersection && i < full, ..check.clone() };
+            CheckParams { self_intersection: check.self_intersection && tested, ..check.clone() };
         // The part, then the part as the file holds it (coordinates rounded; two vertices that
         // round to one point fail in between): the triangles are the same, so what they alone
         // decide is checked once.

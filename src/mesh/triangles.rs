@@ -56,6 +56,15 @@ impl Mesh {
         Mesh::default()
     }
 
+    /// Whether `other` is this mesh to the bit: the same triangles, and vertices whose
+    /// coordinates have the same bits (so `-0.0` differs from `0.0`, and a NaN equals itself).
+    pub fn same_bits(&self, other: &Mesh) -> bool {
+        let bits = |v: &[f64; 3]| v.map(f64::to_bits);
+        self.triangles == other.triangles
+            && self.vertices.len() == other.vertices.len()
+            && self.vertices.iter().zip(&other.vertices).all(|(a, b)| bits(a) == bits(b))
+    }
+
     /// Number of triangles.
     pub fn len(&self) -> usize {
         self.triangles.len()
@@ -298,6 +307,24 @@ pub fn box_mesh(min: [f64; 3], max: [f64; 3]) -> Mesh {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn same_bits_tells_apart_what_equality_of_values_would_not() {
+        let a = box_mesh([0.0; 3], [1.0; 3]);
+        assert!(a.same_bits(&a.clone()));
+        // -0.0 == 0.0 as values, but not as bits.
+        let mut b = a.clone();
+        let k = b.vertices.iter().position(|v| v[0] == 0.0).expect("a corner at x = 0");
+        b.vertices[k][0] = -0.0;
+        assert!(b.vertices[k][0] == 0.0 && !a.same_bits(&b));
+        // The same corners in another triangle order, or one vertex more, differ.
+        let mut c = a.clone();
+        c.triangles.swap(0, 1);
+        assert!(!a.same_bits(&c));
+        let mut d = a.clone();
+        d.vertices.push([9.0; 3]);
+        assert!(!a.same_bits(&d));
+    }
 
     #[test]
     fn box_volume_area_and_centroid_are_exact() {

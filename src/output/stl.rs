@@ -74,7 +74,7 @@ pub fn write_part_set_with_progress(
     progress: &mut dyn FnMut(usize, usize, &str),
 ) -> Result<Vec<WrittenPart>, Error> {
     let total = 2 * (parts.len() + copies.len());
-    let mut done = check_part_set(parts, copies, options, check, &mut |i, what| {
+    let mut done = check_part_set(parts, copies, &[], options, check, &mut |i, what| {
         progress(i, total, what);
     })
     .map_err(Error::Mesh)?;

@@ -267,6 +267,7 @@ pub fn build_tooling(
     let mut parts = Vec::with_capacity(total);
     let (mut printed, mut sealed, mut unprinted) = (Vec::new(), Vec::new(), Vec::new());
     let mut print_dropped = Vec::new();
+    let mut clear = Vec::new();
     // Each printed core's part index, end and plain solid, in case the shell cannot take its
     // port (below).
     let mut plain = Vec::new();
@@ -279,6 +280,8 @@ pub fn build_tooling(
         let mesh = match print {
             Some((end, Ok(p))) => {
                 let mesh = p.mesh.clone();
+                // As `print_or_fall` checked it, self-intersection included.
+                clear.push(p.mesh.clone());
                 printed.push(p);
                 plain.push((parts.len(), end, solid.mesh));
                 mesh
@@ -436,6 +439,7 @@ pub fn build_tooling(
         casting,
         casting_notes,
         modular,
+        clear,
     })
 }
 

@@ -318,6 +318,10 @@ pub struct BladeTooling {
     /// The mould split along the span, when no single pull draws every section (see
     /// [`build_tooling`]); `None` for a mould of two halves.
     pub modular: Option<MouldModules>,
+    /// Meshes already found free of self-intersection while the tooling was built (each
+    /// printed core, by the check that decides whether it keeps its print), as they were
+    /// checked: see [`BladeTooling::known_clear`].
+    pub(crate) clear: Vec<Mesh>,
 }
 
 /// A mould split along the span into modules, each two halves with its own pull.
@@ -334,6 +338,13 @@ pub struct MouldModules {
 }
 
 impl BladeTooling {
+    /// Whether the self-intersection test of `mesh` is already done and passed: it is, to the
+    /// bit, a mesh that passed it while the tooling was built. The check before writing need not
+    /// repeat that test (its outcome depends on the mesh alone); every other check it repeats.
+    pub fn known_clear(&self, mesh: &Mesh) -> bool {
+        self.clear.iter().any(|m| m.same_bits(mesh))
+    }
+
     /// What each mould part is, in the order of the mould parts in [`BladeTooling::parts`]:
     /// the halves (of every module when the mould is split along the span), then the end pieces.
     pub fn mould_halves(&self) -> Vec<&MouldHalf> {
