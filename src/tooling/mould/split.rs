@@ -85,6 +85,10 @@ pub(super) fn undercut_regions(
     pull: P3,
     unit: LengthUnit,
 ) -> Vec<Undercut> {
+    // Most cavities draw: then there is nothing to group, and no adjacency to build.
+    if draft.undercuts.is_empty() {
+        return Vec::new();
+    }
     let mesh = &part.mesh;
     let mut under = vec![false; mesh.len()];
     for &t in &draft.undercuts {
