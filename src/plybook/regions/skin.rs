@@ -354,6 +354,14 @@ impl<'a> SkinLevel<'a> {
                 t += p.thickness * 0.0;
                 continue;
             };
+            if p.chord_edge == [false, false] {
+                // No chordwise ramp: `chord_factor_rates` would give `[f, 1, ±0, ±0]` (the ramp
+                // positive), and a signed zero adds nothing to `t_x` or `t_r` (sums from +0 never
+                // reach -0): the same bits without the ramp's divisions.
+                t += p.thickness * f;
+                t_r += p.thickness * f_r;
+                continue;
+            }
             let [factor, g, along_x, along_h] = p.chord_factor_rates(f, x, hx);
             t += p.thickness * factor;
             t_x += p.thickness * along_x;
@@ -583,6 +591,68 @@ mod tests {
             }
         });
         assert!(checked > 500, "{checked}");
+    }
+
+    /// `offset_rates` as first written, every ply's factor and rates from its ramps (the
+    /// reference for the plies without a chordwise ramp, which it adds up without them).
+    fn offset_rates_by_ramps(
+        level: &SkinLevel,
+        c: &RadiusCache,
+        rates: &Rates,
+        x: f64,
+    ) -> [f64; 3] {
+        let mut t: f64 = std::iter::empty::<f64>().sum();
+        let (mut t_x, mut t_r) = (0.0, 0.0);
+        for ((p, &(f, hx)), &[f_r, hx_r]) in
+            level.beneath.iter().zip(&c.beneath).zip(&rates.beneath)
+        {
+            let Some(f) = f else {
+                t += p.thickness * 0.0;
+                continue;
+            };
+            let [factor, g, along_x, along_h] = p.chord_factor_rates(f, x, hx);
+            t += p.thickness * factor;
+            t_x += p.thickness * along_x;
+            t_r += p.thickness * (f_r * g + along_h * hx_r);
+        }
+        [t, t_x, t_r]
+    }
+
+    /// The offset and its rates, bit for bit those of every ply's ramps, on every ply level of
+    /// both skins of three demo blades, over the span (span ramps included) and the chord.
+    #[test]
+    fn plies_without_a_chordwise_ramp_add_the_same_bits() {
+        let (mut plain, mut ramped, mut points) = (0, 0, 0);
+        each_demo_level(|demo, index, side, level, r0, r1| {
+            plain += level.beneath.iter().filter(|p| p.chord_edge == [false, false]).count();
+            ramped += level.beneath.iter().filter(|p| p.chord_edge != [false, false]).count();
+            for k in 0..41 {
+                let r = r0 + (r1 - r0) * (0.01 + 0.98 * ((k * 13 % 41) as f64 / 40.0));
+                level.with_radius(r, |c| {
+                    let Some(surface) = level.surfaces.radius_rates(&c.at, KINK_GUARD) else {
+                        return;
+                    };
+                    let beneath = level
+                        .beneath
+                        .iter()
+                        .map(|p| [p.span_rate(r), p.chord_ramp_rate(c.at.chord, surface.chord)])
+                        .collect();
+                    let rates = Rates { beneath, surface };
+                    for j in 0..=50 {
+                        let x = j as f64 / 50.0;
+                        let (t, t_x, t_r) = level.offset_rates(c, &rates, x);
+                        let want = offset_rates_by_ramps(level, c, &rates, x);
+                        assert_eq!(
+                            [t, t_x, t_r].map(f64::to_bits),
+                            want.map(f64::to_bits),
+                            "{demo} ply {index} {side:?} at r = {r}, x = {x}"
+                        );
+                        points += 1;
+                    }
+                });
+            }
+        });
+        assert!(plain > 0 && ramped > 0 && points > 10_000, "{plain} {ramped} {points}");
     }
 
     /// The continuation's frame beyond the trailing edges from derivatives against the central
