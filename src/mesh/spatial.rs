@@ -154,12 +154,15 @@ impl Grid {
     }
 
     /// The slots that hold two triangles or more, in the order of their lowest triangle, and
-    /// of the slot's index among slots with the same lowest triangle: a counting sort from one
-    /// pass over the table in its own order, where finding each triangle's slots from its cells
-    /// would hash every cell again and read the table at random.
-    fn slots_by_lowest_triangle(&self) -> Vec<u32> {
+    /// of the slot's index among slots with the same lowest triangle, each with its list of
+    /// triangles copied out in that order: a counting sort from one pass over the table in its
+    /// own order, where finding each triangle's slots from its cells would hash every cell again
+    /// and read the table at random; and the sweep then reads the lists one after the other,
+    /// where reading them in place would fetch each from a random place in the table.
+    fn slots_by_lowest_triangle(&self) -> SweepOrder {
         let n = self.ranges.len();
         let mut start = vec![0u32; n + 1];
+        let mut at = vec![0u32; n + 1];
         let lowest = |s: usize| -> Option<usize> {
             let (a, b) = (self.first[s] as usize, self.first[s + 1] as usize);
             (b - a >= 2).then(|| self.entry[a] as usize)
@@ -167,19 +170,30 @@ impl Grid {
         for s in 0..self.slots() {
             if let Some(t) = lowest(s) {
                 start[t + 1] += 1;
+                at[t + 1] += self.first[s + 1] - self.first[s];
             }
         }
         for t in 0..n {
             start[t + 1] += start[t];
+            at[t + 1] += at[t];
         }
-        let mut order = vec![0u32; start[n] as usize];
+        let count = start[n] as usize;
+        let mut slots = vec![0u32; count];
+        let mut first = vec![0u32; count + 1];
+        let mut entry = vec![0u32; at[n] as usize];
+        first[count] = at[n];
         for s in 0..self.slots() {
             if let Some(t) = lowest(s) {
-                order[start[t] as usize] = s as u32;
+                let list = self.list(s);
+                let (k, e) = (start[t] as usize, at[t] as usize);
+                slots[k] = s as u32;
+                first[k] = e as u32;
+                entry[e..e + list.len()].copy_from_slice(list);
                 start[t] += 1;
+                at[t] += list.len() as u32;
             }
         }
-        order
+        SweepOrder { slots, first, entry }
     }
 
     fn list(&self, s: usize) -> &[u32] {
@@ -195,6 +209,21 @@ impl Grid {
     #[inline]
     fn home_of(&self, la: Cell, lb: Cell, s: usize) -> bool {
         slot([la[0].max(lb[0]), la[1].max(lb[1]), la[2].max(lb[2])], self.bits) == s
+    }
+}
+
+/// The slots to sweep, in the order to sweep them, and each one's triangles (as
+/// [`Grid::list`]) stored in that order.
+struct SweepOrder {
+    slots: Vec<u32>,
+    first: Vec<u32>,
+    entry: Vec<u32>,
+}
+
+impl SweepOrder {
+    /// The slot at place `k` of the order and its triangles.
+    fn slot(&self, k: usize) -> (usize, &[u32]) {
+        (self.slots[k] as usize, &self.entry[self.first[k] as usize..self.first[k + 1] as usize])
     }
 }
 
@@ -220,12 +249,11 @@ fn range_of(b: &[P3; 2], origin: P3, inverse: [f64; 3]) -> [Cell; 2] {
 /// each pair whose boxes overlap tested in its home slot only.
 fn sweep_slot(
     grid: &Grid,
-    s: usize,
+    (s, list): (usize, &[u32]),
     table: &[Entry],
     local: &mut Vec<Entry>,
     test: &impl Fn(usize, usize) -> Option<(usize, usize)>,
 ) -> Option<(usize, usize)> {
-    let list = grid.list(s);
     if list.len() < 2 {
         return None;
     }
@@ -325,32 +353,34 @@ fn find_self_intersection_on(mesh: &Mesh, threads: usize) -> Option<(usize, usiz
     // stops the others); which pair is reported does not depend on it.
     let order = grid.slots_by_lowest_triangle();
     let found = AtomicBool::new(false);
-    let sweep = |share: &[u32]| {
+    let sweep = |share: std::ops::Range<usize>| {
         let mut local: Vec<Entry> = Vec::new();
-        for (k, &s) in share.iter().enumerate() {
+        for k in share {
             if k % 256 == 0 && found.load(Ordering::Relaxed) {
                 return;
             }
-            if sweep_slot(&grid, s as usize, &table, &mut local, &test).is_some() {
+            if sweep_slot(&grid, order.slot(k), &table, &mut local, &test).is_some() {
                 found.store(true, Ordering::Relaxed);
                 return;
             }
         }
     };
+    let swept = order.slots.len();
     if threads > 1 {
-        let ranges = crate::parallel::blocks(order.len(), threads);
+        let ranges = crate::parallel::blocks(swept, threads);
         std::thread::scope(|scope| {
             for r in ranges {
-                let (sweep, share) = (&sweep, &order[r]);
-                scope.spawn(move || sweep(share));
+                let sweep = &sweep;
+                scope.spawn(move || sweep(r));
             }
         });
     } else {
-        sweep(&order);
+        sweep(0..swept);
     }
+    drop(order);
     if found.into_inner() {
         for s in 0..grid.slots() {
-            if let Some(pair) = sweep_slot(&grid, s, &table, &mut local, &test) {
+            if let Some(pair) = sweep_slot(&grid, (s, grid.list(s)), &table, &mut local, &test) {
                 return Some(pair);
             }
         }
