@@ -17,7 +17,8 @@
 //! (every 4 mm or so, at least 48) as the least and greatest of `e · p` over the contour, `e` the
 //! direction across the pull in the section plane: 96 samples round the contour, refined by
 //! golden-section search between the neighbours of the best; along the span they are
-//! interpolated by the monotone cubic of Fritsch and Carlson (1980). A blunt trailing edge's base
+//! interpolated by the monotone cubic of Fritsch and Carlson (1980). The samples' points do not
+//! depend on the pull, so the pulls tried for one surface share them ([`ContourSamples`]). A blunt trailing edge's base
 //! is part of the contour (a short straight piece), so the back extreme moves along it where the
 //! base turns through the pull. Where the base closes up along the span (a trailing edge that
 //! changes kind), its share of the contour parameter shrinks with it (see
@@ -56,36 +57,40 @@ impl<'a> SilhouetteSurface<'a> {
     /// of a mould split along the span: beyond it the sections may not draw along this pull and
     /// their extremes may jump).
     pub fn over(base: &'a dyn SpanSurface, pull_angle: Angle, span: [f64; 2]) -> Self {
-        let blunt = base.ends().back == EndKind::Segment;
-        let period = 2.0 + if blunt { BASE_LENGTH } else { 0.0 };
-        let n = ((span[1] - span[0]) / 4e-3).ceil().clamp(48.0, 600.0) as usize;
-        let radii: Vec<f64> =
-            (0..=n).map(|i| span[0] + (span[1] - span[0]) * i as f64 / n as f64).collect();
-        let closing = blunt && radii.iter().any(|&x| base_share(base, x) < 1.0);
-        let mut front = Vec::with_capacity(radii.len());
-        let mut back = Vec::with_capacity(radii.len());
-        for &x in &radii {
+        Self::from_samples(base, &ContourSamples::over(base, span), pull_angle)
+    }
+
+    /// `base` parted for the pull of `pull_angle` (as [`SilhouetteSurface::over`] over the
+    /// samples' span), `samples` being `base`'s: several pulls tried for one surface share the
+    /// contour's samples, and each searches only between them.
+    pub(crate) fn from_samples(
+        base: &'a dyn SpanSurface,
+        samples: &ContourSamples,
+        pull_angle: Angle,
+    ) -> Self {
+        let ContourSamples { period, closing, .. } = *samples;
+        let (mut front, mut back) = (Vec::new(), Vec::new());
+        for (k, &x) in samples.radii.iter().enumerate() {
             let turn = (pull_angle - base.chord_angle(x)).rad();
             let e = [turn.cos(), turn.sin()];
-            let p = if closing { 2.0 + BASE_LENGTH * base_share(base, x) } else { period };
+            let p = samples.periods[k];
             let along = |t: f64| {
                 let q = contour(base, p, x, t);
                 q[0] * e[0] + q[1] * e[1]
             };
+            let [f, b] = samples.froms[k];
+            let dots = |points: &[[f64; 2]]| -> Vec<f64> {
+                points.iter().map(|q| q[0] * e[0] + q[1] * e[1]).collect()
+            };
             // The front extreme within half a period of the leading edge, the back one within
             // half a period of the trailing edge; each continuous along the span.
-            front.push(extreme(&along, -0.5 * p, false));
-            let from = if closing {
-                1.0 + 0.5 * (p - 2.0) - 0.5 * p
-            } else {
-                1.0 + 0.5 * BASE_LENGTH - 0.5 * p
-            };
-            back.push(extreme(&along, from, true));
+            front.push(extreme(&along, &dots(samples.front(k)), f, false));
+            back.push(extreme(&along, &dots(samples.back(k)), b, true));
         }
         SilhouetteSurface {
             base,
-            front: Pchip::new(&radii, &front),
-            back: Pchip::new(&radii, &back),
+            front: Pchip::new(&samples.radii, &front),
+            back: Pchip::new(&samples.radii, &back),
             period,
             closing,
         }
@@ -104,6 +109,67 @@ impl<'a> SilhouetteSurface<'a> {
     pub fn extremes(&self, x: f64) -> [f64; 2] {
         [self.front.eval(x), self.back.eval(x)]
     }
+}
+
+/// The contour points of a surface where [`SilhouetteSurface`] searches for the extremes
+/// before refining them, which no pull changes: at each sample radius, the samples round the
+/// contour from the front search's start and from the back search's (see [`extreme`]).
+pub(crate) struct ContourSamples {
+    period: f64,
+    closing: bool,
+    radii: Vec<f64>,
+    /// The contour's period at each radius.
+    periods: Vec<f64>,
+    /// Where the front and the back search start at each radius.
+    froms: Vec<[f64; 2]>,
+    /// `SAMPLES + 1` points for the front search, then as many for the back, at each radius.
+    points: Vec<[f64; 2]>,
+}
+
+impl ContourSamples {
+    /// The samples of `base` at radii spread over `span` (every 4 mm or so, 48 to 600 steps).
+    pub(crate) fn over(base: &dyn SpanSurface, span: [f64; 2]) -> Self {
+        let blunt = base.ends().back == EndKind::Segment;
+        let period = 2.0 + if blunt { BASE_LENGTH } else { 0.0 };
+        let n = ((span[1] - span[0]) / 4e-3).ceil().clamp(48.0, 600.0) as usize;
+        let radii: Vec<f64> =
+            (0..=n).map(|i| span[0] + (span[1] - span[0]) * i as f64 / n as f64).collect();
+        let closing = blunt && radii.iter().any(|&x| base_share(base, x) < 1.0);
+        let (mut periods, mut froms) = (Vec::new(), Vec::new());
+        let mut points = Vec::with_capacity(radii.len() * 2 * (SAMPLES + 1));
+        for &x in &radii {
+            let p = if closing { 2.0 + BASE_LENGTH * base_share(base, x) } else { period };
+            let back = if closing {
+                1.0 + 0.5 * (p - 2.0) - 0.5 * p
+            } else {
+                1.0 + 0.5 * BASE_LENGTH - 0.5 * p
+            };
+            for from in [-0.5 * p, back] {
+                points.extend((0..=SAMPLES).map(|i| contour(base, p, x, sample_at(from, i))));
+            }
+            periods.push(p);
+            froms.push([-0.5 * p, back]);
+        }
+        ContourSamples { period, closing, radii, periods, froms, points }
+    }
+
+    fn front(&self, k: usize) -> &[[f64; 2]] {
+        let m = SAMPLES + 1;
+        &self.points[2 * k * m..(2 * k + 1) * m]
+    }
+
+    fn back(&self, k: usize) -> &[[f64; 2]] {
+        let m = SAMPLES + 1;
+        &self.points[(2 * k + 1) * m..(2 * k + 2) * m]
+    }
+}
+
+/// The samples of [`extreme`]'s search: this many steps over one chain's length either way.
+const SAMPLES: usize = 96;
+
+/// The parameter of sample `i` of a search from `from`.
+fn sample_at(from: f64, i: usize) -> f64 {
+    from + 2.0 * i as f64 / SAMPLES as f64
 }
 
 /// The share of [`BASE_LENGTH`] the base takes at radius `x`: its length over a thousandth of
@@ -131,17 +197,17 @@ fn contour(s: &dyn SpanSurface, period: f64, x: f64, t: f64) -> [f64; 2] {
 }
 
 /// The parameter in `[from, from + 2]` (one chain's length either way of the middle) where
-/// `f` is least (or greatest when `greatest`): the best of 96 samples refined by golden-section
-/// search between its neighbours. Each sample is evaluated once, and a golden-section point
-/// that falls on the bits of one evaluated before takes its value (the search's points are
-/// worked out afresh each step, as they always were, so the result is the same to the bit).
-fn extreme(f: &dyn Fn(f64) -> f64, from: f64, greatest: bool) -> f64 {
-    const N: usize = 96;
-    let width = 2.0;
+/// `f` is least (or greatest when `greatest`): the best of the 96 steps' samples (`samples`, `f`
+/// at [`sample_at`], as [`ContourSamples`] keeps them) refined by golden-section search between
+/// its neighbours. A golden-section point that falls on the bits of one evaluated before takes
+/// its value (the search's points are worked out afresh each step, as they always were, so the
+/// result is the same to the bit).
+fn extreme(f: &dyn Fn(f64) -> f64, samples: &[f64], from: f64, greatest: bool) -> f64 {
+    const N: usize = SAMPLES;
     let g = |t: f64| if greatest { -f(t) } else { f(t) };
-    let at = |i: usize| from + width * i as f64 / N as f64;
-    let samples: Vec<f64> = (0..=N).map(|i| g(at(i))).collect();
-    let i = (0..=N).min_by(|&a, &b| samples[a].total_cmp(&samples[b])).unwrap_or(N / 2);
+    let at = |i: usize| sample_at(from, i);
+    let sample = |i: usize| if greatest { -samples[i] } else { samples[i] };
+    let i = (0..=N).min_by(|&a, &b| sample(a).total_cmp(&sample(b))).unwrap_or(N / 2);
     let (mut a, mut b) = (at(i.saturating_sub(1)), at((i + 1).min(N)));
     let phi = 0.5 * (5f64.sqrt() - 1.0);
     // The last two points evaluated, with their values.
@@ -377,4 +443,76 @@ fn cover(
     }
     finish(&cur, from, at(sets.len() - 1), &mut modules);
     Some(modules)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::tooling::FnSurface;
+    use crate::tooling::surface::ChainEnds;
+
+    /// The extremes as first written: every sample evaluated by the pull's own search.
+    fn extreme_evaluated(f: &dyn Fn(f64) -> f64, from: f64, greatest: bool) -> f64 {
+        let samples: Vec<f64> = (0..=SAMPLES).map(|i| f(sample_at(from, i))).collect();
+        extreme(f, &samples, from, greatest)
+    }
+
+    /// The front and back extremes at each sample radius, each pull searching its own samples.
+    fn extremes_evaluated(base: &dyn SpanSurface, pull: Angle) -> Vec<[f64; 2]> {
+        let s = ContourSamples::over(base, base.span());
+        (0..s.radii.len())
+            .map(|k| {
+                let (x, p) = (s.radii[k], s.periods[k]);
+                let turn = (pull - base.chord_angle(x)).rad();
+                let e = [turn.cos(), turn.sin()];
+                let along = |t: f64| {
+                    let q = contour(base, p, x, t);
+                    q[0] * e[0] + q[1] * e[1]
+                };
+                let [f, b] = s.froms[k];
+                [extreme_evaluated(&along, f, false), extreme_evaluated(&along, b, true)]
+            })
+            .collect()
+    }
+
+    #[test]
+    fn pulls_that_share_the_contours_samples_find_the_extremes_to_the_bit() {
+        // A twisted NACA 0012-like section (Abbott & von Doenhoff §6.4 thickness form, from
+        // memory), its trailing edge blunt at the root and closing to a point towards the tip
+        // (so the base's share of the contour shrinks), and a sharp-edged one.
+        let yt = |x: f64| {
+            0.6 * (0.2969 * x.sqrt() - 0.1260 * x - 0.3516 * x * x + 0.2843 * x.powi(3)
+                - 0.1036 * x.powi(4))
+        };
+        let base = |r: f64| 0.004 * (1.0 - r).max(0.0);
+        let blunt = FnSurface {
+            span: [0.2, 1.0],
+            upper: move |r: f64, u: f64| [u - 0.25, yt(u) + base(r) * u],
+            lower: move |r: f64, u: f64| [u - 0.25, -yt(u) - base(r) * u],
+            chord_angle: |r: f64| Angle::from_deg(40.0 - 30.0 * r),
+            ends: ChainEnds { front: EndKind::Point, back: EndKind::Segment },
+        };
+        let sharp = FnSurface {
+            span: [0.1, 0.5],
+            upper: move |_r: f64, u: f64| [u - 0.25, yt(u) * (1.0 - u)],
+            lower: move |_r: f64, u: f64| [u - 0.25, -0.5 * yt(u) * (1.0 - u)],
+            chord_angle: |r: f64| Angle::from_deg(25.0 - 20.0 * r),
+            ends: ChainEnds { front: EndKind::Point, back: EndKind::Point },
+        };
+        let mut compared = 0;
+        for surface in [&blunt as &dyn SpanSurface, &sharp] {
+            let samples = ContourSamples::over(surface, surface.span());
+            assert!(surface.ends().back == EndKind::Point || samples.closing);
+            for pull in [-20.0, 0.0, 17.5, 33.0, 85.0] {
+                let pull = Angle::from_deg(pull);
+                let shared = SilhouetteSurface::from_samples(surface, &samples, pull);
+                for (k, want) in extremes_evaluated(surface, pull).iter().enumerate() {
+                    let got = shared.extremes(samples.radii[k]);
+                    assert_eq!(got.map(f64::to_bits), want.map(f64::to_bits), "{pull:?} {k}");
+                    compared += 1;
+                }
+            }
+        }
+        assert!(compared > 1000, "{compared}");
+    }
 }

@@ -35,7 +35,7 @@ use super::mould::{
     ModularMould, MouldHalf, MouldParams, MouldParts, build_modular_mould, build_mould_parts,
     loft_modules,
 };
-use super::parting::{SilhouetteSurface, SpanModule, span_modules};
+use super::parting::{ContourSamples, SilhouetteSurface, SpanModule, span_modules};
 use super::prints::{CorePrint, PrintSetting, print_or_fall, print_taper, shell_with_ports};
 use super::surface::{EndKind, SpanSurface};
 use super::trim::{EndTrim, Trims};

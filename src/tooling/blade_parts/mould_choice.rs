@@ -259,9 +259,12 @@ pub(super) fn choose_pull(
     // A pull that does not draw every section may part the surface where it folds: the loft or
     // the mould can fail there, and the next candidate (or the split along the span, see
     // `choose_mould`) is tried.
+    // The contour's samples, which no pull changes, worked out once for all the pulls tried.
+    let samples = ContourSamples::over(outer, outer.span());
     let attempt = |angle: Angle| -> Result<(MouldParts, LoftedSolid), MeshError> {
-        let solid = loft_solid(&SilhouetteSurface::new(outer, angle), trims, loft)
-            .map_err(|e| MeshError::Geometry(format!("the outer mould line: {e}")))?;
+        let solid =
+            loft_solid(&SilhouetteSurface::from_samples(outer, &samples, angle), trims, loft)
+                .map_err(|e| MeshError::Geometry(format!("the outer mould line: {e}")))?;
         Ok((mould_parts(&solid, params, angle)?, solid))
     };
     let undercut =

@@ -37,9 +37,14 @@ pub(crate) fn casting_mould(
         None => None,
     };
     let mut best: Option<(LoftedSolid, f64, Angle, MouldParts, [f64; 2])> = None;
+    // The contour's samples, which no pull changes, worked out once for all the pulls tried.
+    let samples = ContourSamples::over(input.cell, input.cell.span());
     for angle in candidates {
-        let solid =
-            loft_solid(&SilhouetteSurface::new(input.cell, angle), input.trims, input.loft)?;
+        let solid = loft_solid(
+            &SilhouetteSurface::from_samples(input.cell, &samples, angle),
+            input.trims,
+            input.loft,
+        )?;
         let nominal = solid.mesh.signed_volume();
         let mut cavity = solid;
         cavity.mesh.scale(1.0 + s);

@@ -45,7 +45,7 @@ use super::mould::{
     MouldHalf, MouldParams, MouldParts, SeatedEnd, build_mould_parts, build_seated_mould_parts,
     seated_solid,
 };
-use super::parting::SilhouetteSurface;
+use super::parting::{ContourSamples, SilhouetteSurface};
 use super::prints::{CorePrint, casting_seat, scaled_trim};
 use super::surface::SpanSurface;
 use super::trim::Trims;
