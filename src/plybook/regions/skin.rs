@@ -129,7 +129,8 @@ const KINK_GUARD: f64 = 4e-6;
 /// What the points of a level at one radius share: the surfaces' quantities there, the rotation
 /// into the rotor frame, and each ply beneath's span factor and chordwise half ramp. The drape
 /// asks for several points at one radius in a row (the point and its chordwise differences, the
-/// Newton steps' frames), so the last radius is kept.
+/// Newton steps' frames), and beyond the blade's ends for points of three radii in turn, so the
+/// last few radii are kept (see [`RADII_KEPT`]).
 #[derive(Debug, Clone)]
 struct RadiusCache {
     at: AtRadius,
@@ -139,6 +140,13 @@ struct RadiusCache {
     rates: Option<Option<Rates>>,
     /// The plies' rates of an earlier radius, a buffer to reuse.
     spare: Vec<[f64; 2]>,
+}
+
+/// The quantities of the last [`RADII_KEPT`] radii worked out, and which to replace next.
+#[derive(Debug, Default)]
+struct RadiusCaches {
+    kept: Vec<RadiusCache>,
+    next: usize,
 }
 
 /// The span rates of a radius: the surfaces', and each ply beneath's span factor and half ramp.
@@ -159,7 +167,8 @@ pub(crate) struct SkinLevel<'a> {
     side: Surface,
     beneath: Vec<Beneath>,
     span: [f64; 2],
-    cache: RefCell<Option<RadiusCache>>,
+    /// The radii worked out last (see [`RADII_KEPT`]).
+    cache: RefCell<RadiusCaches>,
     edges: RefCell<Vec<Edge>>,
 }
 
@@ -173,6 +182,11 @@ struct Edge {
     along_r: Option<[f64; 3]>,
     along_u: Option<[f64; 3]>,
 }
+
+/// Radii whose quantities a level keeps: a point continued beyond the blade's ends takes its
+/// slope along the span from three radii inside (see [`DrapeSurface::point`]), and its
+/// neighbours' points, which the drape asks for next, take theirs from the same three.
+const RADII_KEPT: usize = 4;
 
 /// Clamped points whose continuation is kept.
 const EDGES_KEPT: usize = 4;
@@ -205,7 +219,7 @@ impl<'a> SkinLevel<'a> {
             side,
             beneath,
             span: [root, tip],
-            cache: RefCell::new(None),
+            cache: RefCell::new(RadiusCaches::default()),
             edges: RefCell::new(Vec::new()),
         }
     }
@@ -218,7 +232,7 @@ impl<'a> SkinLevel<'a> {
             side,
             beneath: Vec::new(),
             span,
-            cache: RefCell::new(None),
+            cache: RefCell::new(RadiusCaches::default()),
             edges: RefCell::new(Vec::new()),
         }
     }
@@ -230,22 +244,26 @@ impl<'a> SkinLevel<'a> {
         }
     }
 
-    /// Runs `f` with the quantities of radius `r` (worked out again only when `r` is not the
-    /// radius of the last call).
+    /// Runs `f` with the quantities of radius `r` (worked out again only when `r` is none of
+    /// the last [`RADII_KEPT`] radii worked out).
     fn with_radius<T>(&self, r: f64, f: impl FnOnce(&mut RadiusCache) -> T) -> T {
         let mut cache = self.cache.borrow_mut();
-        let mut c = match cache.take() {
-            Some(c) if c.at.r.to_bits() == r.to_bits() => c,
-            old => {
+        let RadiusCaches { kept, next } = &mut *cache;
+        let k = match kept.iter().position(|c| c.at.r.to_bits() == r.to_bits()) {
+            Some(k) => k,
+            None => {
+                // The radius worked out longest ago makes room, lending its buffers.
+                let k = *next;
+                *next = (k + 1) % RADII_KEPT;
                 let at = self.surfaces.at_radius(r);
                 let phi = (self.blade.twist(r) + self.blade.rotor().pitch).rad();
-                let (mut beneath, spare) = match old {
+                let (mut beneath, spare) = match kept.get_mut(k) {
                     Some(c) => {
-                        let spare = match c.rates {
+                        let spare = match c.rates.take() {
                             Some(Some(rates)) => rates.beneath,
-                            _ => c.spare,
+                            _ => std::mem::take(&mut c.spare),
                         };
-                        (c.beneath, spare)
+                        (std::mem::take(&mut c.beneath), spare)
                     }
                     None => Default::default(),
                 };
@@ -253,12 +271,16 @@ impl<'a> SkinLevel<'a> {
                 beneath.extend(
                     self.beneath.iter().map(|p| (p.span_factor(r), p.chord_ramp(at.chord))),
                 );
-                RadiusCache { at, sin_cos: phi.sin_cos(), beneath, rates: None, spare }
+                let c = RadiusCache { at, sin_cos: phi.sin_cos(), beneath, rates: None, spare };
+                if k < kept.len() {
+                    kept[k] = c;
+                } else {
+                    kept.push(c);
+                }
+                k
             }
         };
-        let out = f(&mut c);
-        *cache = Some(c);
-        out
+        f(&mut kept[k])
     }
 
     /// The offset of this level below the outer mould line at chord fraction `x`, m.
@@ -591,6 +613,42 @@ mod tests {
             }
         });
         assert!(checked > 500, "{checked}");
+    }
+
+    /// Frames and points asked for radius after radius, back and forth over more radii than the
+    /// level keeps, and beyond the blade's ends (where a point takes three radii inside), are
+    /// those of a level that keeps no radius (each asked with its memory cleared), to the bit.
+    #[test]
+    fn a_level_keeping_several_radii_gives_what_each_point_alone_gives() {
+        let mut compared = 0;
+        each_demo_level(|demo, index, side, level, r0, r1| {
+            if index % 3 != 0 {
+                return;
+            }
+            // Pairs of radii 20 µm apart (a Newton step's size), spread over the span and past
+            // both ends.
+            let radii: Vec<f64> = (0..=RADII_KEPT + 2)
+                .map(|k| r0 - 0.01 + (r1 - r0 + 0.02) * k as f64 / (RADII_KEPT + 2) as f64)
+                .flat_map(|r| [r, r + 2e-5])
+                .collect();
+            // Up the span, down again, then in strides that pass over the kept radii.
+            let n = radii.len();
+            let order: Vec<usize> =
+                (0..n).chain((0..n).rev()).chain((0..n).map(|k| k * 5 % n)).collect();
+            for (j, &k) in order.iter().enumerate() {
+                let p = [radii[k], -0.3 + 0.31 * (j % 5) as f64];
+                let kept = (level.frame(p), level.point(p));
+                *level.cache.borrow_mut() = RadiusCaches::default();
+                level.edges.borrow_mut().clear();
+                let alone = (level.frame(p), level.point(p));
+                let bits = |((x, n, [a, b]), q): (Frame, [f64; 3])| {
+                    [x, n, a, b, q].map(|v| v.map(f64::to_bits))
+                };
+                assert_eq!(bits(kept), bits(alone), "{demo} ply {index} {side:?} at {p:?}");
+                compared += 1;
+            }
+        });
+        assert!(compared > 200, "{compared}");
     }
 
     /// `offset_rates` as first written, every ply's factor and rates from its ramps (the
