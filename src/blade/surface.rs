@@ -450,8 +450,14 @@ impl BladeSurfaces<'_> {
                 present.clear();
                 half_ramps.clear();
                 for p in &self.surface_plies {
-                    present.push(p.thickness * p.span_factor(rc, p.covered));
-                    half_ramps.extend(p.chord_half_ramps(chord));
+                    let here = p.thickness * p.span_factor(rc, p.covered);
+                    present.push(here);
+                    // An absent ply's ramps are not read (see `thickness`); their places kept.
+                    if here == 0.0 {
+                        half_ramps.extend(p.wrap.iter().map(|_| 0.0));
+                    } else {
+                        half_ramps.extend(p.chord_half_ramps(chord));
+                    }
                 }
             }
             f(&m)
@@ -518,7 +524,9 @@ impl BladeSurfaces<'_> {
                 .map(|(p, &present)| {
                     let (own, rest) = h.split_at(p.wrap.len());
                     h = rest;
-                    present * p.chord_factor(w, own)
+                    // A ply absent at this radius adds +0, as `+0 × chord factor` would (the
+                    // chord factor is finite and not negative: its ramps have length).
+                    if present == 0.0 { 0.0 } else { present * p.chord_factor(w, own) }
                 })
                 .sum()
         })
@@ -597,5 +605,46 @@ mod tests {
         assert_eq!(smooth_step(-2.0), 0.0);
         assert_eq!(smooth_step(3.0), 1.0);
         assert_eq!(smooth_step(0.0), 0.5);
+    }
+
+    /// The laminate thickness with the plies absent at a radius left out equals, to the bit,
+    /// the sum over every ply of its thickness × span factor × chord factor, on the three demo
+    /// blades (ply drops along the span, a round root, a blunt trailing edge), at radii over and
+    /// past the span and chord fractions round both surfaces.
+    #[test]
+    fn absent_plies_leave_the_thickness_to_the_bit() {
+        let root = env!("CARGO_MANIFEST_DIR");
+        let (mut absent, mut points) = (0, 0);
+        for demo in ["small-wind", "mine-fan", "round-root"] {
+            let path = format!("{root}/layups/{demo}/blade.toml");
+            let project = crate::input::read_project(path.as_ref()).expect("demo");
+            let blade = Blade::from_project(&project).expect("demo blade");
+            let s = blade.surfaces();
+            let (r0, r1) = (blade.root_radius(), blade.tip_radius());
+            for k in 0..=60 {
+                let r = r0 - 0.02 + (r1 - r0 + 0.04) * k as f64 / 60.0;
+                let rc = s.clamp_r(r);
+                let chord = s.blade.chord(rc);
+                for surface in [Surface::Upper, Surface::Lower] {
+                    for j in 0..=40 {
+                        let x = j as f64 / 40.0;
+                        let w = if surface == Surface::Upper { x } else { -x };
+                        let every: f64 = s
+                            .surface_plies
+                            .iter()
+                            .map(|p| {
+                                let h: Vec<f64> = p.chord_half_ramps(chord).collect();
+                                p.thickness * p.span_factor(rc, p.covered) * p.chord_factor(w, &h)
+                            })
+                            .sum();
+                        assert_eq!(s.thickness(r, surface, x).to_bits(), every.to_bits());
+                        points += 1;
+                    }
+                }
+                absent +=
+                    s.surface_plies.iter().filter(|p| p.span_factor(rc, p.covered) == 0.0).count();
+            }
+        }
+        assert!(absent > 100 && points > 10_000, "{absent} {points}");
     }
 }
