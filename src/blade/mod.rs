@@ -158,6 +158,9 @@ pub struct Blade {
     resampled: loft::ResampledOutlines,
     /// The laminates' content per unit span on the integration grid, computed on first use.
     span_content: OnceLock<mass::SpanContent>,
+    /// The stations' outlines as splines in arc length, for [`Blade::surfaces`], made on first
+    /// use and shared by every surfaces value of the blade.
+    station_curves: OnceLock<Arc<[surface::StationCurve]>>,
 }
 
 impl Blade {
@@ -203,6 +206,7 @@ impl Blade {
             notes,
             resampled: loft::ResampledOutlines::default(),
             span_content: OnceLock::new(),
+            station_curves: OnceLock::new(),
         })
     }
 

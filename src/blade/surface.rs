@@ -33,6 +33,7 @@ use super::{Blade, ResolvedPly};
 use crate::interp::{CubicSpline, KnotIndex};
 use crate::project::Region;
 use std::cell::RefCell;
+use std::sync::Arc;
 use std::sync::atomic::{AtomicU64, Ordering};
 
 /// Ply drops are ramped over this many ply thicknesses (a 1:20 taper, common practice for
@@ -45,7 +46,7 @@ pub const CORE_EDGE_TAPER: f64 = 3.0;
 
 /// One station's outline as a spline in arc length.
 #[derive(Debug, Clone)]
-struct StationCurve {
+pub(crate) struct StationCurve {
     x: CubicSpline,
     y: CubicSpline,
     /// The table of the two splines' knots (one arc length), to find a point's segment.
@@ -249,7 +250,7 @@ pub(crate) struct OuterJet {
 #[derive(Debug, Clone)]
 pub struct BladeSurfaces<'a> {
     blade: &'a Blade,
-    curves: Vec<StationCurve>,
+    curves: Arc<[StationCurve]>,
     surface_plies: Vec<SmoothPly>,
     web_plies: Vec<SmoothPly>,
     /// Names these surfaces in the memo of the last radius (see [`RadiusMemo`]); a clone
@@ -297,9 +298,12 @@ impl Blade {
         let span = [self.root_radius(), self.tip_radius()];
         let plies: Vec<SmoothPly> = self.plies.iter().map(|p| SmoothPly::new(p, span)).collect();
         let (web_plies, surface_plies) = plies.into_iter().partition(|p| p.web.is_some());
+        let curves = self
+            .station_curves
+            .get_or_init(|| self.stations.iter().map(|s| StationCurve::new(&s.outline)).collect());
         BladeSurfaces {
             blade: self,
-            curves: self.stations.iter().map(|s| StationCurve::new(&s.outline)).collect(),
+            curves: Arc::clone(curves),
             surface_plies,
             web_plies,
             id: NEXT_ID.fetch_add(1, Ordering::Relaxed),
@@ -605,6 +609,31 @@ mod tests {
         assert_eq!(smooth_step(-2.0), 0.0);
         assert_eq!(smooth_step(3.0), 1.0);
         assert_eq!(smooth_step(0.0), 0.5);
+    }
+
+    /// Every surfaces value of a blade (and of its clones) reads one set of station curves, made
+    /// once, whose points are those of curves made afresh from the outlines.
+    #[test]
+    fn the_station_curves_are_made_once_per_blade() {
+        let root = env!("CARGO_MANIFEST_DIR");
+        let path = format!("{root}/layups/round-root/blade.toml");
+        let project = crate::input::read_project(path.as_ref()).expect("demo");
+        let blade = Blade::from_project(&project).expect("demo blade");
+        let (a, b) = (blade.surfaces(), blade.surfaces());
+        let copy = blade.clone();
+        assert!(
+            Arc::ptr_eq(&a.curves, &b.curves) && Arc::ptr_eq(&a.curves, &copy.surfaces().curves)
+        );
+        for (curve, station) in a.curves.iter().zip(&blade.stations) {
+            let fresh = StationCurve::new(&station.outline);
+            for k in 0..=20 {
+                let u = k as f64 / 20.0;
+                for side in [Surface::Upper, Surface::Lower] {
+                    let bits = |(p, d): ([f64; 2], [f64; 2])| [p, d].map(|v| v.map(f64::to_bits));
+                    assert_eq!(bits(curve.point(side, u)), bits(fresh.point(side, u)));
+                }
+            }
+        }
     }
 
     /// The laminate thickness with the plies absent at a radius left out equals, to the bit,
