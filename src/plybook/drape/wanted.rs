@@ -23,27 +23,8 @@ impl Wanted {
         let hi = [0, 1].map(|k| ((b[k] + margin).ceil() as i32 + 1).clamp(0, half));
         let dims = [hi[0] - lo[0] + 1, hi[1] - lo[1] + 1];
         let mut w = Wanted { lo, dims, need: vec![false; (dims[0] * dims[1]) as usize] };
-        // Inside: crossings of the polygon with each warp line `x = i`.
+        w.mark_inside(poly);
         let m = poly.len();
-        let mut cuts = Vec::new();
-        for i in lo[0]..=hi[0] {
-            let x = i as f64;
-            cuts.clear();
-            for k in 0..m {
-                let (p, q) = (poly[k], poly[(k + 1) % m]);
-                if (p[0] > x) != (q[0] > x) {
-                    cuts.push(p[1] + (q[1] - p[1]) * (x - p[0]) / (q[0] - p[0]));
-                }
-            }
-            cuts.sort_by(f64::total_cmp);
-            for pair in cuts.chunks_exact(2) {
-                let (j0, j1) =
-                    ((pair[0].ceil() as i32).max(lo[1]), (pair[1].floor() as i32).min(hi[1]));
-                for j in j0..=j1 {
-                    w.mark(i, j);
-                }
-            }
-        }
         // Within the margin of an edge.
         for k in 0..m {
             let (p, q) = (poly[k], poly[(k + 1) % m]);
@@ -99,6 +80,72 @@ impl Wanted {
         w
     }
 
+    /// Marks the nodes inside the polygon: its crossings with each warp line `x = i`, each
+    /// edge's crossings put on the lines it spans (the lines `x` with `min ≤ x < max` of its
+    /// ends), so that every line does not go through every edge.
+    fn mark_inside(&mut self, poly: &[[f64; 2]]) {
+        let (lo, hi) = (self.lo, [self.lo[0] + self.dims[0] - 1, self.lo[1] + self.dims[1] - 1]);
+        let m = poly.len();
+        // Inside: crossings of the polygon with each warp line `x = i`, each edge's crossings
+        // put on the lines it spans (the lines `x` with `min ≤ x < max` of its ends), so that
+        // every line does not go through every edge.
+        let mut lines: Vec<Vec<f64>> = vec![Vec::new(); self.dims[0] as usize];
+        for k in 0..m {
+            let (p, q) = (poly[k], poly[(k + 1) % m]);
+            let (first, last) = if p[0].is_nan() || q[0].is_nan() {
+                // (Every line, as the test below decides for a NaN end.)
+                (lo[0], hi[0])
+            } else {
+                let (from, to) = (p[0].min(q[0]), p[0].max(q[0]));
+                let first = from.ceil().max(f64::from(lo[0])) as i32;
+                (first, (to.ceil() - 1.0).min(f64::from(hi[0])) as i32)
+            };
+            for i in first..=last {
+                let x = f64::from(i);
+                if (p[0] > x) != (q[0] > x) {
+                    lines[(i - lo[0]) as usize]
+                        .push(p[1] + (q[1] - p[1]) * (x - p[0]) / (q[0] - p[0]));
+                }
+            }
+        }
+        for (i, cuts) in (lo[0]..=hi[0]).zip(&mut lines) {
+            cuts.sort_by(f64::total_cmp);
+            for pair in cuts.chunks_exact(2) {
+                let (j0, j1) =
+                    ((pair[0].ceil() as i32).max(lo[1]), (pair[1].floor() as i32).min(hi[1]));
+                for j in j0..=j1 {
+                    self.mark(i, j);
+                }
+            }
+        }
+    }
+
+    /// [`Wanted::mark_inside`] as first written: every line through every edge.
+    #[cfg(test)]
+    fn mark_inside_by_lines(&mut self, poly: &[[f64; 2]]) {
+        let (lo, hi) = (self.lo, [self.lo[0] + self.dims[0] - 1, self.lo[1] + self.dims[1] - 1]);
+        let m = poly.len();
+        let mut cuts = Vec::new();
+        for i in lo[0]..=hi[0] {
+            let x = i as f64;
+            cuts.clear();
+            for k in 0..m {
+                let (p, q) = (poly[k], poly[(k + 1) % m]);
+                if (p[0] > x) != (q[0] > x) {
+                    cuts.push(p[1] + (q[1] - p[1]) * (x - p[0]) / (q[0] - p[0]));
+                }
+            }
+            cuts.sort_by(f64::total_cmp);
+            for pair in cuts.chunks_exact(2) {
+                let (j0, j1) =
+                    ((pair[0].ceil() as i32).max(lo[1]), (pair[1].floor() as i32).min(hi[1]));
+                for j in j0..=j1 {
+                    self.mark(i, j);
+                }
+            }
+        }
+    }
+
     fn index(&self, i: i32, j: i32) -> Option<usize> {
         let (a, b) = (i - self.lo[0], j - self.lo[1]);
         (a >= 0 && b >= 0 && a < self.dims[0] && b < self.dims[1])
@@ -123,5 +170,40 @@ impl Wanted {
             .enumerate()
             .filter(|(_, v)| **v)
             .map(move |(k, _)| (k as i32 / n + self.lo[0], k as i32 % n + self.lo[1]))
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The crossings put on the lines each edge spans mark the nodes that every line through
+    /// every edge marks: seeded random polygons (star-shaped, concave), many corners on whole
+    /// net coordinates and edges along the lines, so that the half-open rule meets its ends, some
+    /// reaching past the box of nodes.
+    #[test]
+    fn crossings_by_edge_mark_what_crossings_by_line_mark() {
+        let mut rnd = crate::mesh::test_rng::uniform(0x5851_f42d_4c95_7f2d);
+        let mut marked = 0;
+        for trial in 0..300 {
+            let n = 3 + trial % 17;
+            let poly: Vec<[f64; 2]> = (0..n)
+                .map(|k| {
+                    let a = std::f64::consts::TAU * (k as f64 + 0.3 * rnd()) / n as f64;
+                    let r = 3.0 + 22.0 * rnd();
+                    let p = [r * a.cos() + 2.0 * rnd(), r * a.sin()];
+                    // Every third trial on whole coordinates.
+                    if trial % 3 == 0 { p.map(f64::round) } else { p }
+                })
+                .collect();
+            let (lo, dims) = ([-20, -20], [41, 41]);
+            let mut by_edge = Wanted { lo, dims, need: vec![false; 41 * 41] };
+            let mut by_line = by_edge.clone();
+            by_edge.mark_inside(&poly);
+            by_line.mark_inside_by_lines(&poly);
+            assert_eq!(by_edge.need, by_line.need, "trial {trial}: {poly:?}");
+            marked += by_edge.marked().count();
+        }
+        assert!(marked > 10_000, "{marked}");
     }
 }
