@@ -109,13 +109,18 @@ impl Wanted {
             }
         }
         for (i, cuts) in (lo[0]..=hi[0]).zip(&mut lines) {
-            cuts.sort_by(f64::total_cmp);
-            for pair in cuts.chunks_exact(2) {
-                let (j0, j1) =
-                    ((pair[0].ceil() as i32).max(lo[1]), (pair[1].floor() as i32).min(hi[1]));
-                for j in j0..=j1 {
-                    self.mark(i, j);
-                }
+            self.mark_between(i, cuts);
+        }
+    }
+
+    /// Marks the nodes of warp line `i` between each pair of its crossings `cuts` (sorted here).
+    fn mark_between(&mut self, i: i32, cuts: &mut [f64]) {
+        let (lo, hi) = (self.lo[1], self.lo[1] + self.dims[1] - 1);
+        cuts.sort_by(f64::total_cmp);
+        for pair in cuts.chunks_exact(2) {
+            let (j0, j1) = ((pair[0].ceil() as i32).max(lo), (pair[1].floor() as i32).min(hi));
+            for j in j0..=j1 {
+                self.mark(i, j);
             }
         }
     }
@@ -135,14 +140,7 @@ impl Wanted {
                     cuts.push(p[1] + (q[1] - p[1]) * (x - p[0]) / (q[0] - p[0]));
                 }
             }
-            cuts.sort_by(f64::total_cmp);
-            for pair in cuts.chunks_exact(2) {
-                let (j0, j1) =
-                    ((pair[0].ceil() as i32).max(lo[1]), (pair[1].floor() as i32).min(hi[1]));
-                for j in j0..=j1 {
-                    self.mark(i, j);
-                }
-            }
+            self.mark_between(i, &mut cuts);
         }
     }
 
