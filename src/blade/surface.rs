@@ -30,7 +30,7 @@
 
 use super::coverage::Surface;
 use super::{Blade, ResolvedPly};
-use crate::interp::{CubicSpline, KnotIndex};
+use crate::interp::{CubicSpline, KnotIndex, OnSegment};
 use crate::project::Region;
 use std::cell::RefCell;
 use std::sync::Arc;
@@ -85,20 +85,24 @@ impl StationCurve {
         }
     }
 
+    /// Where the point at `u` on `surface` falls on the splines' segments, and `ds/du`.
+    fn place(&self, surface: Surface, u: f64) -> (OnSegment, f64) {
+        let (s, ds) = self.arc(surface, u);
+        (self.x.on_segment(self.x.segment_in(&self.knots, s), s), ds)
+    }
+
     /// Point (chord fractions) and its derivative in `u`. The two coordinates share their knots
     /// (both splines are built on one arc length), so the segment, and the point's place on it,
     /// are found once for all four values.
     fn point(&self, surface: Surface, u: f64) -> ([f64; 2], [f64; 2]) {
-        let (s, ds) = self.arc(surface, u);
-        let at = self.x.on_segment(self.x.segment_in(&self.knots, s), s);
+        let (at, ds) = self.place(surface, u);
         let ([x, x_s], [y, y_s]) = (self.x.value_slope_at(&at), self.y.value_slope_at(&at));
         ([x, y], [x_s * ds, y_s * ds])
     }
 
     /// [`StationCurve::point`] with the second derivative in `u`.
     fn point2(&self, surface: Surface, u: f64) -> ([f64; 2], [f64; 2], [f64; 2]) {
-        let (s, ds) = self.arc(surface, u);
-        let at = self.x.on_segment(self.x.segment_in(&self.knots, s), s);
+        let (at, ds) = self.place(surface, u);
         let ([x, x_s, x_ss], [y, y_s, y_ss]) = (self.x.jet_at(&at), self.y.jet_at(&at));
         let dd = ds * ds;
         ([x, y], [x_s * ds, y_s * ds], [x_ss * dd, y_ss * dd])

@@ -18,11 +18,12 @@
 //! direction across the pull in the section plane: 96 samples round the contour, refined by
 //! golden-section search between the neighbours of the best; along the span they are
 //! interpolated by the monotone cubic of Fritsch and Carlson (1980). The samples' points do not
-//! depend on the pull, so the pulls tried for one surface share them ([`ContourSamples`]). A blunt trailing edge's base
-//! is part of the contour (a short straight piece), so the back extreme moves along it where the
-//! base turns through the pull. Where the base closes up along the span (a trailing edge that
-//! changes kind), its share of the contour parameter shrinks with it (see
-//! `SilhouetteSurface::period_at`), so no stretch of a chain stands still at a sharp station.
+//! depend on the pull, so the pulls tried for one surface share them ([`ContourSamples`]). A
+//! blunt trailing edge's base is part of the contour (a short straight piece), so the back
+//! extreme moves along it where the base turns through the pull. Where the base closes up along
+//! the span (a trailing edge that changes kind), its share of the contour parameter shrinks with
+//! it (see `SilhouetteSurface::period_at`), so no stretch of a chain stands still at a sharp
+//! station.
 
 use super::surface::{ChainEnds, EndKind, SpanSurface};
 use crate::interp::Pchip;
@@ -74,14 +75,11 @@ impl<'a> SilhouetteSurface<'a> {
             let turn = (pull_angle - base.chord_angle(x)).rad();
             let e = [turn.cos(), turn.sin()];
             let p = samples.periods[k];
-            let along = |t: f64| {
-                let q = contour(base, p, x, t);
-                q[0] * e[0] + q[1] * e[1]
-            };
+            let across = |q: [f64; 2]| q[0] * e[0] + q[1] * e[1];
+            let along = |t: f64| across(contour(base, p, x, t));
             let [f, b] = samples.froms[k];
-            let dots = |points: &[[f64; 2]]| -> Vec<f64> {
-                points.iter().map(|q| q[0] * e[0] + q[1] * e[1]).collect()
-            };
+            let dots =
+                |points: &[[f64; 2]]| -> Vec<f64> { points.iter().map(|&q| across(q)).collect() };
             // The front extreme within half a period of the leading edge, the back one within
             // half a period of the trailing edge; each continuous along the span.
             front.push(extreme(&along, &dots(samples.front(k)), f, false));

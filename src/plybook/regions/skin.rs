@@ -348,20 +348,23 @@ impl<'a> SkinLevel<'a> {
             if c.rates.is_none() {
                 let surface = self.surfaces.radius_rates(&c.at, g);
                 let mut beneath = std::mem::take(&mut c.spare);
-                c.rates =
-                    Some(surface.map(|surface| {
-                        beneath.clear();
-                        beneath.extend(self.beneath.iter().map(|p| {
-                            [p.span_rate(r), p.chord_ramp_rate(c.at.chord, surface.chord)]
-                        }));
-                        Rates { beneath, surface }
-                    }));
+                c.rates = Some(surface.map(|surface| {
+                    beneath.clear();
+                    beneath.extend(self.ply_rates(r, c.at.chord, surface.chord));
+                    Rates { beneath, surface }
+                }));
             }
             let rates = c.rates.as_ref()?.as_ref()?;
             let jet = self.surfaces.outer_jet(&c.at, &rates.surface, side, ua);
             let (t, t_x, t_r) = self.offset_rates(c, rates, jet.x);
             Some(self.assemble(c, &rates.surface, &jet, [t, t_x, t_r], self.sign() * turn))
         })
+    }
+
+    /// Each ply beneath's rates along the radius at `r`: of its span factor and of its half
+    /// ramp, the chord and its rate given.
+    fn ply_rates(&self, r: f64, chord: f64, chord_r: f64) -> impl Iterator<Item = [f64; 2]> + '_ {
+        self.beneath.iter().map(move |p| [p.span_rate(r), p.chord_ramp_rate(chord, chord_r)])
     }
 
     /// The offset of [`SkinLevel::offset`] and its rates along `x` and `r`.
@@ -690,11 +693,7 @@ mod tests {
                     let Some(surface) = level.surfaces.radius_rates(&c.at, KINK_GUARD) else {
                         return;
                     };
-                    let beneath = level
-                        .beneath
-                        .iter()
-                        .map(|p| [p.span_rate(r), p.chord_ramp_rate(c.at.chord, surface.chord)])
-                        .collect();
+                    let beneath = level.ply_rates(r, c.at.chord, surface.chord).collect();
                     let rates = Rates { beneath, surface };
                     for j in 0..=50 {
                         let x = j as f64 / 50.0;
