@@ -16,7 +16,10 @@ pub(crate) struct NetLocator<'a> {
     origin: [f64; 2],
     size: [f64; 2],
     dims: [usize; 2],
-    buckets: Vec<Vec<(i32, i32)>>,
+    /// The cells whose boxes reach each bucket, as indices into `cells`, bucket after bucket
+    /// (each in the cells' order); bucket `k`'s are `in_buckets[first[k]..first[k + 1]]`.
+    first: Vec<u32>,
+    in_buckets: Vec<u32>,
     /// Every complete cell in the net's order, with its corners and the lengths [`beyond_reach`]
     /// bounds it by, for the extrapolation's scan.
     cells: Vec<Reach>,
@@ -49,24 +52,44 @@ impl<'a> NetLocator<'a> {
         let dims = [nb, nb];
         let size =
             [((hi[0] - lo[0]) / nb as f64).max(1e-300), ((hi[1] - lo[1]) / nb as f64).max(1e-300)];
-        let mut buckets = vec![Vec::new(); nb * nb];
-        for (i, j, c) in &cells {
-            let (mut a, mut b) = ([f64::INFINITY; 2], [f64::NEG_INFINITY; 2]);
-            for p in c {
-                for k in 0..2 {
-                    a[k] = a[k].min(p[k]);
-                    b[k] = b[k].max(p[k]);
+        // The buckets each cell's box reaches, as ranges of bucket rows and columns.
+        let spans: Vec<[[usize; 2]; 2]> = cells
+            .iter()
+            .map(|(_, _, c)| {
+                let (mut a, mut b) = ([f64::INFINITY; 2], [f64::NEG_INFINITY; 2]);
+                for p in c {
+                    for k in 0..2 {
+                        a[k] = a[k].min(p[k]);
+                        b[k] = b[k].max(p[k]);
+                    }
+                }
+                let ka = |v: f64, k: usize| {
+                    (((v - lo[k]) / size[k]).floor().max(0.0) as usize).min(dims[k] - 1)
+                };
+                [[ka(a[0], 0), ka(b[0], 0)], [ka(a[1], 1), ka(b[1], 1)]]
+            })
+            .collect();
+        let each = |f: &mut dyn FnMut(usize, usize)| {
+            for (n, [[x0, x1], [y0, y1]]) in spans.iter().enumerate() {
+                for x in *x0..=*x1 {
+                    for y in *y0..=*y1 {
+                        f(x * nb + y, n);
+                    }
                 }
             }
-            let ka = |v: f64, k: usize| {
-                (((v - lo[k]) / size[k]).floor().max(0.0) as usize).min(dims[k] - 1)
-            };
-            for x in ka(a[0], 0)..=ka(b[0], 0) {
-                for y in ka(a[1], 1)..=ka(b[1], 1) {
-                    buckets[x * nb + y].push((*i, *j));
-                }
-            }
+        };
+        // Counted, summed, then filled in the cells' order.
+        let mut first = vec![0u32; nb * nb + 1];
+        each(&mut |k, _| first[k + 1] += 1);
+        for k in 0..nb * nb {
+            first[k + 1] += first[k];
         }
+        let mut next = first.clone();
+        let mut in_buckets = vec![0u32; first[nb * nb] as usize];
+        each(&mut |k, n| {
+            in_buckets[next[k] as usize] = n as u32;
+            next[k] += 1;
+        });
         let cells = cells
             .into_iter()
             .map(|(i, j, c)| {
@@ -74,7 +97,7 @@ impl<'a> NetLocator<'a> {
                 Reach { at: (i, j), corners: c, sides, twist }
             })
             .collect();
-        NetLocator { net, origin: lo, size, dims, buckets, cells }
+        NetLocator { net, origin: lo, size, dims, first, in_buckets, cells }
     }
 
     /// Net indices `(ξ, η)` of the parameter point `q`, or `None` outside the net (or more
@@ -96,9 +119,12 @@ impl<'a> NetLocator<'a> {
         };
         let (x, y) = (k(q[0], 0)?, k(q[1], 1)?);
         let mut best: Option<([f64; 2], f64)> = None;
-        for &(i, j) in &self.buckets[x * self.dims[1] + y] {
-            let Some(c) = cell_params(self.net, i, j) else { continue };
-            let Some(st) = inverse_bilinear(&c, q) else { continue };
+        let b = x * self.dims[1] + y;
+        let (from, to) = (self.first[b] as usize, self.first[b + 1] as usize);
+        for &n in &self.in_buckets[from..to] {
+            let Reach { at: (i, j), corners: c, .. } = &self.cells[n as usize];
+            let (i, j) = (*i, *j);
+            let Some(st) = inverse_bilinear(c, q) else { continue };
             // Distance outside the unit square (0 inside).
             let out = (-st[0]).max(st[0] - 1.0).max(-st[1]).max(st[1] - 1.0).max(0.0);
             if best.is_none_or(|(_, o)| out < o) {
