@@ -175,6 +175,99 @@ fn check_passes_the_demos_and_fails_an_impossible_demand() {
         .stderr(predicate::str::contains("no/such/blade.toml"));
 }
 
+/// A copy of the mine-fan demo in a temporary folder, its blade.toml and plies.csv edited.
+fn edited_fan(
+    blade: impl Fn(String) -> String,
+    plies: impl Fn(String) -> String,
+) -> tempfile::TempDir {
+    let dir = tempfile::tempdir().unwrap();
+    for entry in fs::read_dir("layups/mine-fan").unwrap() {
+        let entry = entry.unwrap();
+        fs::copy(entry.path(), dir.path().join(entry.file_name())).unwrap();
+    }
+    for (name, edit) in [("blade.toml", &blade as &dyn Fn(String) -> String), ("plies.csv", &plies)]
+    {
+        let text = fs::read_to_string(dir.path().join(name)).unwrap();
+        fs::write(dir.path().join(name), edit(text)).unwrap();
+    }
+    dir
+}
+
+/// The mine-fan blade.toml without its [criteria] table.
+fn without_criteria(toml: String) -> String {
+    let start = toml.find("[criteria]").unwrap();
+    let end = start + toml[start..].find("[tooling]").unwrap();
+    format!("{}{}", &toml[..start], &toml[end..])
+}
+
+#[test]
+fn a_failing_ply_fails_the_check_though_the_project_sets_no_criteria() {
+    // One thin twill skin and a one-ply web under thrice the surge loads: a ply fails (reserve
+    // factor below 1) and a skin panel buckles. With no [criteria] the check must not pass:
+    // a ply that fails under a load case is never a pass (common practice), so strength and
+    // buckling are held to a reserve factor of 1.
+    let thin = |_: String| {
+        "ply,material,angle_deg,r_start_m,r_end_m,region,from,to\n\
+         s1,carbon-twill,0,0.40,0.90,both,0,1\n\
+         w1,carbon-twill,45,0.40,0.90,web:main,,\n"
+            .to_string()
+    };
+    let dir = edited_fan(
+        |t| without_criteria(t).replace("load_factor = 1.35", "load_factor = 3.0"),
+        thin,
+    );
+    let blade = dir.path().join("blade.toml");
+    let out = layloft().arg("check").arg(&blade).arg("--json").output().unwrap();
+    assert_eq!(out.status.code(), Some(1), "{}", String::from_utf8_lossy(&out.stderr));
+    let j: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    assert_eq!(j["pass"], false);
+    let rows = j["criteria"].as_array().unwrap();
+    let keys: Vec<&str> = rows.iter().map(|c| c["criterion"].as_str().unwrap()).collect();
+    assert_eq!(keys, ["min_reserve_factor", "min_buckling_factor"]);
+    for row in rows {
+        assert_eq!(row["limit"], 1.0, "{row}");
+        assert!(row["found"].as_f64().unwrap() < 1.0, "{row}");
+        assert_eq!(row["pass"], false, "{row}");
+    }
+    // `stress` finds the same least reserve factor.
+    let stress = layloft().arg("stress").arg(&blade).arg("--json").output().unwrap();
+    assert_eq!(stress.status.code(), Some(1));
+    // The demo's own plies under its own loads still pass when only the criteria are gone.
+    let dir = edited_fan(without_criteria, |p| p);
+    layloft()
+        .arg("check")
+        .arg(dir.path().join("blade.toml"))
+        .assert()
+        .success()
+        .stdout(predicate::str::contains("Design check: PASS"))
+        .stdout(predicate::str::contains(">= 1.000"));
+}
+
+#[test]
+fn a_project_with_nothing_to_check_is_not_a_pass() {
+    // Neither [criteria] nor a load case: nothing is checked, and that is no pass (exit 1,
+    // "pass": false, "checked": false), so that a script never reads it as one.
+    let no_cases = |t: String| {
+        let t = without_criteria(t);
+        let start = t.find("[[load_case]]").unwrap();
+        let end = start + t[start..].find("[tooling]").unwrap();
+        format!("{}{}", &t[..start], &t[end..])
+    };
+    let dir = edited_fan(no_cases, |p| p);
+    let blade = dir.path().join("blade.toml");
+    let out = layloft().arg("check").arg(&blade).arg("--json").output().unwrap();
+    assert_eq!(out.status.code(), Some(1), "{}", String::from_utf8_lossy(&out.stderr));
+    let j: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    assert_eq!((&j["pass"], &j["checked"]), (&serde_json::json!(false), &serde_json::json!(false)));
+    assert_eq!(j["criteria"].as_array().unwrap().len(), 0);
+    layloft()
+        .arg("check")
+        .arg(&blade)
+        .assert()
+        .code(1)
+        .stdout(predicate::str::contains("Design check: NOT CHECKED"));
+}
+
 /// The stations are solved and recovered on several threads, in blocks joined in station
 /// order: the outputs must not depend on the number of threads, to the last digit (a law of
 /// the method: each station's arithmetic is the same on any thread, and the summaries are

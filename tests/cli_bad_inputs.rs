@@ -211,6 +211,25 @@ fn load_factor_below_one_is_a_warning_the_verdict_repeats() {
 }
 
 #[test]
+fn criteria_below_one_are_warnings_the_verdict_repeats() {
+    // A demand below 1 accepts a ply that breaks or a panel that buckles under the factored
+    // load (common practice: a reserve factor of 1 is failure); both are warned of alike.
+    let c = Copy::of("mine-fan");
+    c.edit(
+        "blade.toml",
+        "min_reserve_factor = 1.5",
+        "min_reserve_factor = 0.8\nmin_buckling_factor = 0.5",
+    );
+    let (code, stdout, stderr) = c.run("check", &[]);
+    assert_eq!(code, Some(0), "{stderr}");
+    assert!(stdout.contains("2 input warnings"), "{stdout}");
+    for key in ["criteria.min_reserve_factor = 0.8", "criteria.min_buckling_factor = 0.5"] {
+        assert!(stderr.contains(key), "{key}: {stderr}");
+        assert!(stdout.contains(key), "{key}: {stdout}");
+    }
+}
+
+#[test]
 fn the_report_banner_repeats_the_input_warnings() {
     // Issue 14: a value legal but unusual is seen with the verdict it led to, also in the HTML
     // report, inside the verdict banner (before the first section).

@@ -2,18 +2,26 @@
 
 use super::{Bound, CheckRow, DesignCheck, Place, Quantity};
 
+/// The reserve factor at which a ply fails or a wall panel buckles: what strength and buckling
+/// demand at least when the project sets no limit of its own.
+pub const FAILURE_LIMIT: f64 = 1.0;
+
 /// The design check of a model against its project's `[criteria]`, from the stress results of
 /// every load case and the modal analysis (either may be absent when its criterion is not set).
 /// The buckling criterion demands `min_buckling_factor`, or `min_reserve_factor` when that is
-/// not given.
+/// not given. When the project has load cases, strength and buckling are always checked: a
+/// criterion the project leaves out demands a reserve factor of 1 ([`FAILURE_LIMIT`]), for a
+/// ply that fails or a wall that buckles under a load case is never a pass.
 pub fn evaluate(
     model: &crate::analysis::BladeModel,
     stress: &[crate::stress::CaseStress],
     modal: Option<&crate::modal::ModalAnalysis>,
 ) -> DesignCheck {
     let c = &model.project.criteria;
+    let loaded = !model.project.load_cases.is_empty();
+    let strength = c.min_reserve_factor.or(loaded.then_some(FAILURE_LIMIT));
     let mut rows = Vec::new();
-    if let Some(limit) = c.min_reserve_factor {
+    if let Some(limit) = strength {
         let worst = stress
             .iter()
             .filter_map(|s| s.critical.as_ref().map(|k| (s, k)))
@@ -41,7 +49,7 @@ pub fn evaluate(
             location,
         ));
     }
-    if let Some(limit) = c.min_buckling_factor.or(c.min_reserve_factor) {
+    if let Some(limit) = c.min_buckling_factor.or(strength) {
         let worst = stress
             .iter()
             .filter_map(|s| s.least_buckling().map(|(i, j)| (s, i, j)))

@@ -8,7 +8,7 @@
 mod evaluate;
 mod place;
 
-pub use evaluate::evaluate;
+pub use evaluate::{FAILURE_LIMIT, evaluate};
 pub use place::Place;
 
 /// What the analysis does not cover, one line each (see [`crate::buckling::NOT_COVERED`]).
@@ -107,9 +107,16 @@ pub struct DesignCheck {
 }
 
 impl DesignCheck {
-    /// Whether every criterion passes (true for an empty check: nothing was demanded).
+    /// Whether the check checked anything: a project with neither `[criteria]` nor a load
+    /// case has nothing to check.
+    pub fn checked(&self) -> bool {
+        !self.rows.is_empty()
+    }
+
+    /// Whether every criterion passes; false for an empty check (nothing checked is not a
+    /// pass).
     pub fn passed(&self) -> bool {
-        self.rows.iter().all(|r| r.status == Status::Pass)
+        self.checked() && self.rows.iter().all(|r| r.status == Status::Pass)
     }
 }
 
@@ -150,6 +157,8 @@ mod tests {
         );
         assert_eq!(r.status, Status::Fail);
         assert!(!DesignCheck { rows: vec![r] }.passed());
-        assert!(DesignCheck::default().passed());
+        // Nothing checked is not a pass.
+        assert!(!DesignCheck::default().checked());
+        assert!(!DesignCheck::default().passed());
     }
 }

@@ -39,10 +39,8 @@ pub struct Args {
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let (model, sources) = load_model(&args.blade, out)?;
     let criteria = &model.project.criteria;
-    let needs_stress = criteria.min_reserve_factor.is_some()
-        || criteria.min_buckling_factor.is_some()
-        || criteria.max_tip_deflection_m.is_some();
-    let stress = if needs_stress && !model.project.load_cases.is_empty() {
+    // Strength and buckling are checked whenever there are load cases (see `evaluate`).
+    let stress = if !model.project.load_cases.is_empty() {
         analyse_cases_detail(&model, None, Detail::Summary).map_err(layloft::Error::from)?
     } else {
         Vec::new()

@@ -121,4 +121,11 @@ pub enum InputWarning {
         /// `criteria.min_reserve_factor`.
         min_reserve_factor: f64,
     },
+    /// A least buckling reserve factor below 1.
+    BucklingBelowOne {
+        /// The project file (`blade.toml`).
+        file: String,
+        /// `criteria.min_buckling_factor`.
+        min_buckling_factor: f64,
+    },
 }

@@ -93,6 +93,11 @@ impl fmt::Display for InputWarning {
                 "{file}: criteria.min_reserve_factor = {min_reserve_factor} accepts a failure \
                  index above 1 (a reserve factor below 1 means the factored load breaks a ply)"
             ),
+            InputWarning::BucklingBelowOne { file, min_buckling_factor } => write!(
+                f,
+                "{file}: criteria.min_buckling_factor = {min_buckling_factor} accepts a wall \
+                 panel that buckles under the factored load (a buckling reserve factor below 1)"
+            ),
         }
     }
 }

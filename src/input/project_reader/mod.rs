@@ -281,6 +281,12 @@ pub fn read_project_sourced(path: &Path) -> Result<(Project, Sources), InputErro
             min_reserve_factor: min_rf,
         });
     }
+    if let Some(min_bf) = criteria.min_buckling_factor.filter(|&v| v < 1.0) {
+        warnings.push(InputWarning::BucklingBelowOne {
+            file: display.clone(),
+            min_buckling_factor: min_bf,
+        });
+    }
     let station_radii = stations.iter().map(|s| s.r).collect();
     let sources =
         Sources { dir, file: display, files, station_lines, station_radii, ply_lines, warnings };

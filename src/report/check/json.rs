@@ -9,7 +9,7 @@ use crate::check::{Bound, DesignCheck, Status};
 /// The object of `layloft check --json`: every criterion with its limit, bound, value found
 /// (`null` when not computed or infinite), unit, place and pass, the limit and value again
 /// under keys that carry their unit, what the analysis does not cover and the cautions; the
-/// project's input warnings when there are any.
+/// project's input warnings when there are any; `"checked": false` when nothing was checked.
 pub fn check_json(
     project: &str,
     check: &DesignCheck,
@@ -44,6 +44,10 @@ pub fn check_json(
         "not_covered": crate::check::NOT_COVERED,
         "cautions": crate::CAUTIONS,
     });
+    // Only when nothing was checked (`pass` is then false): a check without rows is no pass.
+    if !check.checked() {
+        doc["checked"] = json!(false);
+    }
     // Only when there are any, so that the output of a project without them is unchanged.
     if !input_warnings.is_empty() {
         let words: Vec<String> = input_warnings.iter().map(ToString::to_string).collect();
@@ -66,5 +70,9 @@ pub fn check_file_json(project: &str, check: &DesignCheck) -> Value {
             })
         })
         .collect();
-    json!({ "project": project, "pass": check.passed(), "criteria": rows })
+    let mut doc = json!({ "project": project, "pass": check.passed(), "criteria": rows });
+    if !check.checked() {
+        doc["checked"] = json!(false);
+    }
+    doc
 }

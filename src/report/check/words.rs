@@ -107,10 +107,10 @@ pub fn place_text(place: &Place) -> String {
 
 /// The verdict in one line, naming every criterion that fails with its value and demand:
 /// "PASS (every criterion met)", "FAIL: least reserve factor 0.84, demand >= 1.5", or
-/// "NOT CHECKED (the project sets no \[criteria\])".
+/// "NOT CHECKED (the project sets no \[criteria\] and no load case)".
 pub fn verdict_line(check: &DesignCheck) -> String {
     if check.rows.is_empty() {
-        return "NOT CHECKED (the project sets no [criteria])".to_string();
+        return "NOT CHECKED (the project sets no [criteria] and no load case)".to_string();
     }
     if check.passed() {
         return "PASS (every criterion met)".to_string();
@@ -180,7 +180,7 @@ mod tests {
         );
         assert_eq!(
             verdict_line(&DesignCheck::default()),
-            "NOT CHECKED (the project sets no [criteria])"
+            "NOT CHECKED (the project sets no [criteria] and no load case)"
         );
     }
 
