@@ -289,6 +289,29 @@ fn two_cell_box_torsion_matches_multicell_equations() {
     }
 }
 
+/// Two webs whose laminates would fill one space are refused, naming both and the least
+/// spacing (common practice: a web's faces stand half its thickness either side of its
+/// midplane, so midplanes nearer than half the sum of the thicknesses overlap); spaced just
+/// beyond that, the three-cell box solves.
+#[test]
+fn webs_whose_laminates_overlap_are_refused() {
+    let (e, nu) = (70e9, 0.3);
+    let skin = single(&isotropic("skin", e, nu, 2e-3, 2700.0));
+    let web = single(&isotropic("web", e, nu, 6e-3, 2700.0));
+    let boxed = |gap: f64| {
+        let l =
+            with_web(rect(0.300, 0.100, 1, [0; 4], vec![skin.clone(), web.clone()]), "a", 0.120, 1);
+        with_web(l, "b", 0.120 + gap, 1)
+    };
+    let solve = |l: &SectionLayout| SolvedSection::solve(l, &SectionParams::default());
+    let err = solve(&boxed(1.4e-3)).expect_err("overlapping webs");
+    let text = err.to_string();
+    for part in ["web 'b'", "web 'a'", "6.00 mm thick", "1.40 mm apart", "at least 6.00 mm"] {
+        assert!(text.contains(part), "{part}: {text}");
+    }
+    assert!(solve(&boxed(6.2e-3)).is_ok());
+}
+
 fn two_cell_check(s: &SolvedSection, g: f64, e: f64, nu: f64, beam: bool) {
     // Midline: skins at z = ±49 mm, front wall y = 1 mm, rear wall y = 299 mm, web y = 120 mm.
     let (h, b1, b2) = (0.098, 0.119, 0.179);

@@ -518,10 +518,28 @@ fn web_order(layout: &SectionLayout, merge: Option<Point>) -> Result<Vec<usize>,
     }
     let mut order: Vec<usize> = (0..layout.webs.len()).collect();
     order.sort_by(|a, b| layout.webs[*a].y.total_cmp(&layout.webs[*b].y));
+    let thickness = |w: usize| layout.laminates[layout.webs[w].laminate].thickness();
     for pair in order.windows(2) {
-        if layout.webs[pair[1]].y - layout.webs[pair[0]].y <= 1e-6 * layout.chord {
-            let other = &layout.webs[pair[0]].name;
+        let gap = layout.webs[pair[1]].y - layout.webs[pair[0]].y;
+        let other = &layout.webs[pair[0]].name;
+        if gap <= 1e-6 * layout.chord {
             return Err(place(pair[1], format!("it stands at the same place as web '{other}'")));
+        }
+        // Two laminates cannot fill one space: each web's faces stand half its thickness
+        // either side of its midplane.
+        let (ta, tb) = (thickness(pair[0]), thickness(pair[1]));
+        if gap < 0.5 * (ta + tb) {
+            return Err(place(
+                pair[1],
+                format!(
+                    "its laminate ({:.2} mm thick) overlaps that of web '{other}' ({:.2} mm \
+                     thick): their midplanes stand {:.2} mm apart, expected at least {:.2} mm",
+                    tb * 1e3,
+                    ta * 1e3,
+                    gap * 1e3,
+                    0.5 * (ta + tb) * 1e3
+                ),
+            ));
         }
     }
     if let (Some(x), Some(&w)) = (merge, order.last())

@@ -78,7 +78,8 @@ pub enum SectionError {
         /// `upper` or `lower`.
         side: &'static str,
     },
-    /// A web behind the point where the trailing-edge walls meet, or two webs at one place.
+    /// A web behind the point where the trailing-edge walls meet, or two webs at one place or
+    /// whose laminates overlap.
     #[error("section at r = {r:.4} m: web '{web}' at y/c = {y_c:.4}: {reason}")]
     WebPlacement {
         /// Radius, m.
