@@ -178,6 +178,27 @@ impl Copy {
 }
 
 #[test]
+fn a_web_that_leaves_a_core_no_room_is_refused_with_what_to_change() {
+    // The mine fan's web moved to 2 % of the chord: ahead of it, the skins come within the
+    // least core thickness (common practice: a core needs depth), so the front core has no
+    // room. Refused as input (exit 2), naming the core's bounds and what to change, and no
+    // file written.
+    let c = Copy::of("mine-fan");
+    c.edit("blade.toml", "chord_frac = 0.33", "chord_frac = 0.02");
+    c.refused(
+        "tooling",
+        &["--out", "meshes"],
+        &[
+            "the core between the leading edge",
+            "and web 'main' has no room",
+            "min_core_thickness_mm",
+        ],
+    );
+    let written = fs::read_dir(c.path("meshes")).map_or(0, |d| d.count());
+    assert_eq!(written, 0, "no file of a refused set");
+}
+
+#[test]
 fn load_factor_far_below_one_is_refused() {
     // Issue case: 1e-300 on every case gave PASS with a reserve factor of 1e301.
     Copy::of("mine-fan").edit("blade.toml", "load_factor = 1.35", "load_factor = 1e-300").refused(

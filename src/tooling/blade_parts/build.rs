@@ -183,14 +183,32 @@ pub fn build_tooling(
                 s.web_y(x, k) + sign * 0.5 * s.web_thickness(xr, k)
             }
         };
+        // A bound outside the inner surface leaves the core no room: said with what bounds it
+        // and what to change, as bad input.
+        let bound_name = |b: Option<usize>, edge: &str| match b {
+            None => format!("the {edge} edge (where the skins come within min_core_thickness_mm)"),
+            Some(k) => format!("web '{}'", blade.webs()[k].name),
+        };
+        let no_room = |e: MeshError| match e {
+            MeshError::Geometry(text) => MeshError::Settings(format!(
+                "{text}: the core between {} and {} has no room there; expected each web at \
+                 least min_core_thickness_mm of core depth away from the edges and from the \
+                 other webs (move the web, or lower [tooling] min_core_thickness_mm)",
+                bound_name(c.front, "leading"),
+                bound_name(c.back, "trailing")
+            )),
+            other => other,
+        };
         let front = match c.front {
-            None => CutBound::new(&inner, &radii, |x| le_cut.eval(x))?,
-            Some(k) => CutBound::new(&inner, &radii, face(k, 1.0))?,
-        };
+            None => CutBound::new(&inner, &radii, |x| le_cut.eval(x)),
+            Some(k) => CutBound::new(&inner, &radii, face(k, 1.0)),
+        }
+        .map_err(no_room)?;
         let back = match c.back {
-            None => CutBound::new(&inner, &radii, |x| te_cut.eval(x))?,
-            Some(k) => CutBound::new(&inner, &radii, face(k, -1.0))?,
-        };
+            None => CutBound::new(&inner, &radii, |x| te_cut.eval(x)),
+            Some(k) => CutBound::new(&inner, &radii, face(k, -1.0)),
+        }
+        .map_err(no_room)?;
         cells.push((CoreCell { inner: &inner, front, back }, trims));
     }
 
