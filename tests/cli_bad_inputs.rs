@@ -196,6 +196,9 @@ fn a_web_that_leaves_a_core_no_room_is_refused_with_what_to_change() {
     );
     let written = fs::read_dir(c.path("meshes")).map_or(0, |d| d.count());
     assert_eq!(written, 0, "no file of a refused set");
+    // The report fails alike and leaves no folder of its own behind, empty or not.
+    c.refused("report", &["--out", "rep"], &["and web 'main' has no room"]);
+    assert!(!c.path("rep").exists(), "a failed report leaves no folder");
 }
 
 #[test]

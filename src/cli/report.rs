@@ -145,13 +145,26 @@ pub fn write_report(
     dest: &Destination,
     out: &Output,
 ) -> Result<DesignCheck, Failure> {
-    std::thread::scope(|s| {
+    // The folders this run makes, taken away again when it fails before writing into them:
+    // a failed report leaves no empty folder behind.
+    let made: Vec<&Path> =
+        [dest.out.as_path(), dest.meshes.as_path()].into_iter().filter(|d| !d.exists()).collect();
+    let result = std::thread::scope(|s| {
         let book =
             s.spawn(|| build_ply_book(&model.blade, &model.project, &PlyBookParams::default()));
         write_report_with(model, sources, dest, out, move || {
             book.join().unwrap_or_else(|e| std::panic::resume_unwind(e))
         })
-    })
+    });
+    if result.is_err() {
+        // Innermost first; `remove_dir` leaves a folder that holds anything.
+        let mut made = made;
+        made.sort_by_key(|d| std::cmp::Reverse(d.components().count()));
+        for dir in made {
+            let _ = std::fs::remove_dir(dir);
+        }
+    }
+    result
 }
 
 fn write_report_with(
