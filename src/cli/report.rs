@@ -179,6 +179,7 @@ fn write_report_with(
     let stress = if p.load_cases.is_empty() {
         Vec::new()
     } else {
+        layloft::stress::points_fit(model, p.load_cases.len()).map_err(layloft::Error::from)?;
         let bar = out.progress(p.load_cases.len() as u64, "load cases");
         let mut all = Vec::new();
         for case in &p.load_cases {

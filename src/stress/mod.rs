@@ -72,6 +72,71 @@ pub enum StressError {
         /// A material without CTEs.
         material: String,
     },
+    /// Every wall point of every case asked for would not fit in [`POINT_DETAIL_LIMIT`].
+    #[error(
+        "keeping every wall point of {cases} load case(s) at {stations} stations ({points} wall \
+         points with their plies) would take {gib:.1} GiB of memory, more than the {limit_gib:.0} \
+         GiB allowed: expected fewer [sections] contour_points or analysis_stations, or one \
+         case at a time (`layloft check` keeps only the summaries and has no such limit)",
+        gib = *bytes as f64 / GIB,
+        limit_gib = POINT_DETAIL_LIMIT as f64 / GIB
+    )]
+    TooManyPoints {
+        /// The load cases asked for.
+        cases: usize,
+        /// The analysis stations.
+        stations: usize,
+        /// Wall points over all stations of one case.
+        points: usize,
+        /// The memory they would take, bytes.
+        bytes: usize,
+    },
+}
+
+const GIB: f64 = (1u64 << 30) as f64;
+
+/// The most memory the wall points of [`Detail::Points`] may take over the cases asked for,
+/// bytes (4 GiB: the rest of a run and the machine keep room on an ordinary machine).
+pub const POINT_DETAIL_LIMIT: usize = 4 << 30;
+
+/// The wall points one load case keeps at [`Detail::Points`] and the memory they take, bytes:
+/// one point per wall element of every station, each with its plies (exact, heap included but
+/// for the names of webs).
+pub fn point_detail_size(model: &BladeModel) -> (usize, usize) {
+    point_detail_size_of(model)
+}
+
+/// Whether the wall points of `cases` load cases at [`Detail::Points`] fit in
+/// [`POINT_DETAIL_LIMIT`]; checked before any case is recovered, so that a run too large is
+/// refused with what to change instead of running out of memory.
+pub fn points_fit(model: &BladeModel, cases: usize) -> Result<(), StressError> {
+    points_fit_in(model, cases, POINT_DETAIL_LIMIT)
+}
+
+fn points_fit_in(model: &BladeModel, cases: usize, limit: usize) -> Result<(), StressError> {
+    let (points, bytes) = point_detail_size_of(model);
+    let bytes = bytes.saturating_mul(cases);
+    if bytes > limit {
+        return Err(StressError::TooManyPoints {
+            cases,
+            stations: model.stations.len(),
+            points,
+            bytes,
+        });
+    }
+    Ok(())
+}
+
+fn point_detail_size_of(model: &BladeModel) -> (usize, usize) {
+    let (mut points, mut bytes) = (0, 0);
+    for st in &model.stations {
+        for e in st.section.elements() {
+            let plies = st.layout.laminates.get(e.laminate).map_or(0, |l| l.plies().len());
+            points += 1;
+            bytes += std::mem::size_of::<PointStress>() + plies * std::mem::size_of::<PlyPoint>();
+        }
+    }
+    (points, bytes)
 }
 
 /// Where on a section a wall point lies.
@@ -467,6 +532,9 @@ pub fn analyse_cases_detail(
     only: Option<&str>,
     detail: Detail,
 ) -> Result<Vec<CaseStress>, StressError> {
+    if detail == Detail::Points {
+        points_fit(model, if only.is_some() { 1 } else { model.project.load_cases.len() })?;
+    }
     let panels = model_panels(model);
     match only {
         Some(name) => Ok(vec![analyse_case_detail(
@@ -481,5 +549,43 @@ pub fn analyse_cases_detail(
             .iter()
             .map(|c| analyse_case_detail(model, c, &panels, detail))
             .collect(),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn the_memory_of_the_wall_points_is_known_before_they_are_made() {
+        // The size is counted from the solved sections before any case is recovered; it must
+        // be the points the recovery keeps, each with its plies, to the byte (a count, so
+        // exact), or the guard against running out of memory guards nothing.
+        let root = env!("CARGO_MANIFEST_DIR");
+        let project =
+            crate::input::read_project(format!("{root}/layups/mine-fan/blade.toml").as_ref())
+                .expect("demo reads");
+        let model = BladeModel::build(project).expect("demo builds");
+        let cases = analyse_cases(&model, None).expect("demo recovers");
+        let (points, bytes) = point_detail_size(&model);
+        for case in &cases {
+            let kept: usize = case.stations.iter().map(|s| s.points.len()).sum();
+            let kept_bytes: usize = case
+                .stations
+                .iter()
+                .flat_map(|s| &s.points)
+                .map(|p| size_of::<PointStress>() + p.plies.len() * size_of::<PlyPoint>())
+                .sum();
+            assert_eq!((kept, kept_bytes), (points, bytes), "case {}", case.name);
+        }
+        // The guard refuses one byte over its limit, with the numbers, and passes at it.
+        let n = cases.len();
+        assert!(points_fit_in(&model, n, n * bytes).is_ok());
+        match points_fit_in(&model, n, n * bytes - 1) {
+            Err(StressError::TooManyPoints { cases, stations, points: p, bytes: b }) => {
+                assert_eq!((cases, stations, p, b), (n, model.stations.len(), points, n * bytes));
+            }
+            other => panic!("expected a refusal, got {other:?}"),
+        }
     }
 }
