@@ -28,6 +28,8 @@ pub struct TableReader<'s> {
     entries: Vec<(String, Spanned<DeValue<'s>>)>,
     used: Vec<bool>,
     asked: Vec<String>,
+    /// Every key the table may hold, once [`TableReader::expect_keys`] declared them.
+    known: Option<Vec<String>>,
 }
 
 impl<'s> TableReader<'s> {
@@ -54,7 +56,7 @@ impl<'s> TableReader<'s> {
         let entries: Vec<_> =
             table.into_iter().map(|(k, v)| (k.into_inner().into_owned(), v)).collect();
         let used = vec![false; entries.len()];
-        TableReader { source, path, span, entries, used, asked: Vec::new() }
+        TableReader { source, path, span, entries, used, asked: Vec::new(), known: None }
     }
 
     /// The dotted path of this table (`lamina.carbon-ud`), empty for the document.
@@ -95,6 +97,11 @@ impl<'s> TableReader<'s> {
     }
 
     fn take(&mut self, key: &str) -> Option<Spanned<DeValue<'s>>> {
+        debug_assert!(
+            self.known.as_ref().is_none_or(|known| known.iter().any(|k| k == key)),
+            "key '{key}' is read from [{}] but missing from the keys it declares",
+            self.path
+        );
         self.asked.push(key.to_string());
         let i = self.entries.iter().position(|(k, _)| k == key)?;
         self.used[i] = true;
@@ -332,26 +339,26 @@ impl<'s> TableReader<'s> {
         Ok(out)
     }
 
+    /// A required key that is absent. It is never blamed on another key of the table: a key
+    /// that is present may be a valid key not read yet (`Xc_MPa` missing while `Yt_MPa` waits
+    /// its turn), and only the list of keys the table may hold tells the two apart. A misspelt
+    /// key is refused before any key is read by [`TableReader::expect_keys`], which every table
+    /// with a required key declares.
     fn missing(&self, key: &str, what: impl std::fmt::Display) -> InputError {
-        // A misspelling of the missing key is the likelier fault: point at it.
-        let unused = self.entries.iter().zip(&self.used).filter(|(_, used)| !**used);
-        for ((other, value), _) in unused {
-            if closest(other, std::iter::once(key)).is_some() {
-                let loc = self.source.location(value.span().start).with_field(self.full_key(other));
-                return InputError::at(
-                    loc,
-                    format!("unknown key '{}'; did you mean '{key}'?", excerpt(other)),
-                );
-            }
-        }
+        debug_assert!(
+            self.known.is_some(),
+            "[{}] reads the required key '{key}' without declaring its keys (expect_keys)",
+            self.path
+        );
         let loc = self.location().with_field(self.full_key(key));
         InputError::at(loc, format!("missing key '{key}': expected {what}"))
     }
 
     /// Refuses, before any key is read, a key that is not one of `known`, with the closest known
     /// key as a hint; so that a misspelt required key (`E2_Gpa`) is reported as what it is rather
-    /// than as a missing `E2_GPa`.
-    pub fn expect_keys(&self, known: &[&str]) -> Result<(), InputError> {
+    /// than as a missing `E2_GPa`. Every key read afterwards must be one of `known`.
+    pub fn expect_keys(&mut self, known: &[&str]) -> Result<(), InputError> {
+        self.known = Some(known.iter().map(|k| k.to_string()).collect());
         for (key, value) in &self.entries {
             if !known.contains(&key.as_str()) {
                 let hint = closest(key, known.iter().copied())

@@ -8,6 +8,7 @@ pub(super) fn read_web(
     r_root: f64,
     r_tip: f64,
 ) -> Result<WebSpec, InputError> {
+    t.expect_keys(&["name", "chord_frac", "r_start_m", "r_end_m"])?;
     let name = t.required_str("name")?;
     let chord_frac = t.required_f64("chord_frac")?;
     if !(chord_frac > 0.0 && chord_frac < 1.0) {
@@ -34,6 +35,16 @@ pub(super) fn read_point_mass(
     r_root: f64,
     r_tip: f64,
 ) -> Result<PointMass, InputError> {
+    t.expect_keys(&[
+        "name",
+        "r_m",
+        "mass_kg",
+        "y_m",
+        "z_m",
+        "inertia_x_kg_m2",
+        "inertia_y_kg_m2",
+        "inertia_z_kg_m2",
+    ])?;
     let name = t.required_str("name")?;
     let r = t.required_f64("r_m")?;
     if r < r_root - 1e-9 || r > r_tip + 1e-9 {
@@ -79,6 +90,15 @@ pub(super) fn read_load_case(
     r_root: f64,
     r_tip: f64,
 ) -> Result<LoadCaseSpec, InputError> {
+    t.expect_keys(&[
+        "name",
+        "rpm",
+        "pitch_deg",
+        "distributed",
+        "gravity_m_s2",
+        "load_factor",
+        "delta_T_K",
+    ])?;
     let name = t.required_str("name")?;
     let rpm = t.required_f64("rpm")?;
     if rpm < 0.0 {

@@ -90,6 +90,21 @@ pub fn read_project_sourced(path: &Path) -> Result<(Project, Sources), InputErro
     let source = SourceText::read(path, &display)?;
     let dir = path.parent().map(Path::to_path_buf).unwrap_or_default();
     let mut doc = TableReader::parse_document(&source)?;
+    doc.expect_keys(&[
+        "name",
+        "rotor",
+        "files",
+        "web",
+        "point_mass",
+        "load_case",
+        "criteria",
+        "tooling",
+        "modal",
+        "sections",
+        "fluid",
+        "excitation",
+        "buckling",
+    ])?;
 
     let name = doc.required_str("name")?;
     let mut warnings = Vec::new();
@@ -129,6 +144,7 @@ pub fn read_project_sourced(path: &Path) -> Result<(Project, Sources), InputErro
     };
     let fluid = match doc.optional_table("fluid")? {
         Some(mut t) => {
+            t.expect_keys(&["density_kg_m3"])?;
             let density = t.required_positive("density_kg_m3")?;
             if density > MAX_FLUID_DENSITY {
                 return Err(t.error(

@@ -6,6 +6,17 @@ use super::*;
 pub(super) fn read_rotor(
     t: &mut TableReader<'_>,
 ) -> Result<(Rotor, bool, RotorPlaces), InputError> {
+    t.expect_keys(&[
+        "blades",
+        "hub_radius_m",
+        "tip_radius_m",
+        "rpm_nominal",
+        "rpm_max",
+        "pitch_deg",
+        "pitch_range_deg",
+        "root_clearance_m",
+        "tip_clearance_m",
+    ])?;
     let blades = t
         .optional_u32("blades")?
         .ok_or_else(|| t.error("blades", "missing key: expected the number of blades"))?;

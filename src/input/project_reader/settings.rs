@@ -56,6 +56,7 @@ pub(super) fn read_excitation(t: &mut TableReader<'_>) -> Result<ExcitationSpec,
         ));
     }
     for mut f in fixed_tables {
+        f.expect_keys(&["name", "frequency_Hz", "from_Hz", "to_Hz"])?;
         let name = f.required_str("name")?;
         let single = f.optional_positive("frequency_Hz")?;
         let from = f.optional_positive("from_Hz")?;
