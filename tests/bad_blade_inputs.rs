@@ -201,6 +201,17 @@ fn required_key_left_out_is_missing_not_a_misspelling() {
     );
 }
 
+/// Two point masses of one name are refused as two load cases of one name are (the second is
+/// likely a pasted copy that would double the mass); the message names the second one's line.
+/// What a message must say: common practice.
+#[test]
+fn point_mass_named_twice() {
+    let mass = |r: f64| format!("[[point_mass]]\nname = \"bolt\"\nr_m = {r}\nmass_kg = 0.1\n\n");
+    let m =
+        message("blade.toml", "[[load_case]]", &format!("{}{}[[load_case]]", mass(0.6), mass(0.7)));
+    assert_eq!(m, "DIR/blade.toml line 23, point_mass[2].name: point mass 'bolt' is defined twice");
+}
+
 #[test]
 fn negative_rpm_in_a_load_case() {
     let m = message("blade.toml", "rpm = 330", "rpm = -330");

@@ -228,8 +228,12 @@ pub fn read_project_sourced(path: &Path) -> Result<(Project, Sources), InputErro
 
     let mut point_masses = Vec::new();
     for mut t in masses_t {
-        point_masses.push(read_point_mass(&mut t, r_root, r_tip)?);
+        let mass = read_point_mass(&mut t, r_root, r_tip)?;
+        if point_masses.iter().any(|m: &PointMass| m.name == mass.name) {
+            return Err(t.error("name", format!("point mass '{}' is defined twice", mass.name)));
+        }
         t.finish()?;
+        point_masses.push(mass);
     }
 
     let mut load_cases: Vec<LoadCaseSpec> = Vec::new();
