@@ -40,7 +40,12 @@ impl<'s> TableReader<'s> {
                 Some(span) => source.location(span.start),
                 None => Location::file(source.name.clone()),
             };
-            InputError::at(loc, format!("not valid TOML: {}", e.message().trim_end()))
+            let message = e.message().trim_end();
+            let named = match e.span() {
+                Some(span) if message == "duplicate key" => duplicate_key(source, span),
+                _ => None,
+            };
+            InputError::at(loc, format!("not valid TOML: {}", named.as_deref().unwrap_or(message)))
         })?;
         let span = doc.span();
         let table: DeTable<'s> = doc.into_inner();
@@ -388,6 +393,28 @@ impl<'s> TableReader<'s> {
         }
         Ok(())
     }
+}
+
+/// The parser's "duplicate key" with the key it points at (the span of the second key, as
+/// written) and, when that key sits in a table header, the header: `None` when the span does not
+/// fall on the text.
+fn duplicate_key(source: &SourceText, span: Range<usize>) -> Option<String> {
+    let text = &source.text;
+    let key = text.get(span.clone()).filter(|k| !k.trim().is_empty())?;
+    let line_start = text.get(..span.start)?.rfind('\n').map_or(0, |i| i + 1);
+    let line = text.get(line_start..)?.lines().next().unwrap_or("");
+    let named = format!("duplicate key '{}'", excerpt(key.trim()));
+    let header = line.trim_start();
+    if !header.starts_with('[') {
+        return Some(format!("{named}: a key may be given once in a table"));
+    }
+    // The header up to its closing bracket(s) after the key (a comment may follow).
+    let after_key = span.end.checked_sub(line_start)?;
+    let close = line.get(after_key..)?.find(']')? + after_key;
+    let brackets = if header.starts_with("[[") { 2 } else { 1 };
+    let start = line.len() - header.len();
+    let shown = line.get(start..(close + brackets).min(line.len()))?;
+    Some(format!("{named}: the header {} names a table or key defined earlier", excerpt(shown)))
 }
 
 fn describe(v: &DeValue<'_>) -> String {
