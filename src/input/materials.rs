@@ -29,19 +29,32 @@ use crate::units::{GPA, MICROSTRAIN, MM, MPA, Temperature, fraction_of_pct};
 
 /// Reads and validates a materials file.
 pub fn read_materials(path: &Path) -> Result<MaterialLibrary, InputError> {
+    read_materials_placed(path).map(|(library, _)| library)
+}
+
+/// Reads materials from text held in memory; `name` is how messages name it.
+pub fn read_materials_str(text: &str, name: &str) -> Result<MaterialLibrary, InputError> {
+    read_source(&SourceText::new(name, text.to_string())).map(|(library, _)| library)
+}
+
+/// Where each record of a materials file is written: its name and its table header
+/// (`materials.toml line 18, lamina.carbon-ud`), kept apart from the library.
+pub(crate) type RecordPlaces = Vec<(String, Location)>;
+
+/// Reads a materials file as [`read_materials`] does, with the place of each record, for naming
+/// the record in a later error of the project.
+pub(crate) fn read_materials_placed(
+    path: &Path,
+) -> Result<(MaterialLibrary, RecordPlaces), InputError> {
     let display = path.display().to_string();
     let source = SourceText::read(path, &display)?;
     read_source(&source)
 }
 
-/// Reads materials from text held in memory; `name` is how messages name it.
-pub fn read_materials_str(text: &str, name: &str) -> Result<MaterialLibrary, InputError> {
-    read_source(&SourceText::new(name, text.to_string()))
-}
-
-fn read_source(source: &SourceText) -> Result<MaterialLibrary, InputError> {
+fn read_source(source: &SourceText) -> Result<(MaterialLibrary, RecordPlaces), InputError> {
     let mut doc = TableReader::parse_document(source)?;
     let mut library = MaterialLibrary::new();
+    let mut places = RecordPlaces::new();
     if let Some(laminae) = doc.optional_table("lamina")? {
         for (name, mut t) in laminae.named_tables()? {
             let lamina = read_lamina(&name, &mut t)?;
@@ -49,6 +62,7 @@ fn read_source(source: &SourceText) -> Result<MaterialLibrary, InputError> {
             insert(&mut library, Material::Lamina(lamina), &t)?;
             library.set_cutting(&name, cutting);
             t.finish()?;
+            places.push((name, t.location()));
         }
     }
     if let Some(solids) = doc.optional_table("isotropic")? {
@@ -59,6 +73,7 @@ fn read_source(source: &SourceText) -> Result<MaterialLibrary, InputError> {
             insert(&mut library, Material::Isotropic(iso), &t)?;
             library.set_cutting(&name, cutting);
             t.finish()?;
+            places.push((name, t.location()));
         }
     }
     doc.finish()?;
@@ -68,7 +83,7 @@ fn read_source(source: &SourceText) -> Result<MaterialLibrary, InputError> {
             "no materials: expected at least one [lamina.NAME] or [isotropic.NAME] table",
         ));
     }
-    Ok(library)
+    Ok((library, places))
 }
 
 fn insert(

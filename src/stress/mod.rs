@@ -60,7 +60,8 @@ pub enum StressError {
     /// Load case trouble.
     #[error(transparent)]
     Loads(#[from] LoadsError),
-    /// A temperature change on plies without expansion coefficients.
+    /// A temperature change on plies without expansion coefficients (a project read from its
+    /// files is refused before, by the reader, with the lines of the case and the record).
     #[error(
         "load case '{case}' has delta_T_K = {delta_t} but material '{material}' gives no a1_ustrain_K/a2_ustrain_K: give the CTEs or remove delta_T_K"
     )]

@@ -1,5 +1,5 @@
 //! The arrays of tables: `[[web]]`, `[[point_mass]]` and `[[load_case]]`, each checked against
-//! the blade and the rotor.
+//! the blade and the rotor, and a load case's temperature change against the plies' materials.
 
 use super::*;
 
@@ -209,6 +209,47 @@ pub(super) fn check_case(
         return Err(t.error(
             "gravity_m_s2",
             "expected a gravity vector of at most 100 m/s² (1 g is 9.81 m/s²): is it in mm/s²?",
+        ));
+    }
+    Ok(())
+}
+
+/// A load case with a temperature change against the plies: the residual stresses of the
+/// change come from the thermal expansion coefficients of every ply's material, so each must
+/// give them. Refused here, where the case's line and the record's line are known, rather than
+/// by the stress recovery, which knows neither.
+pub(super) fn check_case_expansion(
+    t: &TableReader<'_>,
+    case: &LoadCaseSpec,
+    plies: &[PlySpec],
+    materials: &MaterialLibrary,
+    records: &RecordPlaces,
+) -> Result<(), InputError> {
+    if case.delta_t == 0.0 {
+        return Ok(());
+    }
+    for ply in plies {
+        let keys = match materials.get(&ply.material) {
+            Ok(Material::Lamina(l)) if l.cte.is_none() => "a1_ustrain_K and a2_ustrain_K",
+            Ok(Material::Isotropic(i)) if i.cte.is_none() => "cte_ustrain_K",
+            // With its coefficients, or unknown (refused with the plies).
+            _ => continue,
+        };
+        let record = match records.iter().find(|(name, _)| *name == ply.material) {
+            Some((_, place)) => format!(" ({place})"),
+            None => String::new(),
+        };
+        return Err(t.error(
+            "delta_T_K",
+            format!(
+                "load case '{}' has delta_T_K = {} but ply '{}' is of material '{}', which gives \
+                 no thermal expansion coefficients{record}: add {keys} to the record, or remove \
+                 delta_T_K",
+                case.name,
+                case.delta_t,
+                excerpt(&ply.id),
+                ply.material
+            ),
         ));
     }
     Ok(())

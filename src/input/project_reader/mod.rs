@@ -14,7 +14,8 @@
 //!   the mass's own centre, axes parallel to the pitch axis, the chord and the chord normal);
 //! - `[[load_case]]`: `name`, `rpm` (required), `pitch_deg`, `distributed` (a CSV file with
 //!   `r_m, f_flap_N_m, f_edge_N_m, m_pitch_Nm_m`), `gravity_m_s2 = [x, y, z]` (rotor frame),
-//!   `load_factor` (1), `delta_T_K` (0);
+//!   `load_factor` (1), `delta_T_K` (0; when not 0, every ply's material needs its thermal
+//!   expansion coefficients);
 //! - `[criteria]`: `min_reserve_factor`, `frequency_margin_pct`, `harmonics` (12),
 //!   `max_mass_kg`, `max_tip_deflection_m`, `min_buckling_factor` (`min_reserve_factor`);
 //! - `[buckling]`: `edge_fixity` (`"simply_supported"`, `"clamped"` or a number from 0, simply
@@ -50,9 +51,10 @@ mod tooling;
 use std::path::Path;
 
 use super::location::{InputError, Location, SourceText};
+use super::materials::RecordPlaces;
 use super::sources::{InputWarning, ProjectFiles, Sources};
 use super::toml_table::{Scalar, TableReader};
-use crate::material::Material;
+use crate::material::{Material, MaterialLibrary};
 use crate::project::*;
 use crate::text::excerpt;
 use crate::units::{Angle, MM, Temperature, fraction_of_pct, rpm_of, rpm_to_rad_s};
@@ -170,7 +172,7 @@ pub fn read_project_sourced(path: &Path) -> Result<(Project, Sources), InputErro
     };
 
     let materials_path = dir.join(&materials_file);
-    let materials = super::materials::read_materials(&materials_path)
+    let (materials, material_places) = super::materials::read_materials_placed(&materials_path)
         .map_err(|e| named_by(&file_places[2], e))?;
     let (stations, station_lines) =
         read_stations(&dir, &stations_file).map_err(|e| named_by(&file_places[0], e))?;
@@ -259,6 +261,7 @@ pub fn read_project_sourced(path: &Path) -> Result<(Project, Sources), InputErro
         if load_cases.iter().any(|c| c.name == case.name) {
             return Err(t.error("name", format!("load case '{}' is defined twice", case.name)));
         }
+        check_case_expansion(&t, &case, &plies, &materials, &material_places)?;
         t.finish()?;
         load_cases.push(case);
     }
