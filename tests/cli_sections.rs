@@ -400,3 +400,69 @@ fn help_shows_an_example() {
     assert!(out.contains("Examples:") && out.contains("layloft sections layups/mine-fan"));
     assert!(out.contains("--at") && out.contains("--svg") && out.contains("--csv"));
 }
+
+#[test]
+fn a_twisted_blade_warns_of_the_area_its_sections_do_not_see() {
+    // A blade of constant chord and section (NACA 0006, pitch axis at 0.35 chord) twisted at a
+    // constant rate k = 300°/m: its surface is nearly a helicoid, whose area per unit radius
+    // over a chordwise line y ∈ [y0, y1] is ∫ √(1 + k² y²) dy = [y √(1 + k² y²) + asinh(k y) /
+    // k] / 2 (the helicoid's area element; do Carmo, *Differential Geometry of Curves and
+    // Surfaces*, §2-5, from memory). The sections, cut square to the span, see the chord
+    // length; the warning gives the ratio, here about 1.08, within 3 % of its excess (the
+    // section's thickness turns its normal from the chord's near the nose).
+    let dir = tempfile::tempdir().unwrap();
+    let root = Path::new(env!("CARGO_MANIFEST_DIR")).join("layups/mine-fan");
+    for entry in std::fs::read_dir(&root).unwrap() {
+        let entry = entry.unwrap();
+        std::fs::copy(entry.path(), dir.path().join(entry.file_name())).unwrap();
+    }
+    let (c, k_deg) = (0.25, 300.0);
+    let mut stations = String::from("r_m,chord_m,twist_deg,pitch_axis_frac,airfoil\n");
+    for i in 0..=5 {
+        let r = 0.40 + 0.1 * i as f64;
+        stations += &format!("{r:.2},{c},{:.3},0.35,naca0006\n", 80.0 - k_deg * (r - 0.40));
+    }
+    std::fs::write(dir.path().join("stations.csv"), stations).unwrap();
+    let project = read_project(&dir.path().join("blade.toml")).unwrap();
+    let model = BladeModel::build(project).unwrap();
+    let factor = model
+        .blade
+        .warnings()
+        .iter()
+        .find_map(|w| match w {
+            layloft::blade::BladeWarning::Leaning { factor, .. } => Some(*factor),
+            _ => None,
+        })
+        .expect("a leaning surface is warned of");
+    let k = f64::to_radians(k_deg);
+    let area = |y: f64| 0.5 * (y * (1.0 + k * k * y * y).sqrt() + (k * y).asinh() / k);
+    let helicoid = (area(0.65 * c) - area(-0.35 * c)) / c;
+    assert!(
+        ((factor - 1.0) / (helicoid - 1.0) - 1.0).abs() < 0.03,
+        "{factor} against the helicoid's {helicoid}"
+    );
+    // Untwisted, the same blade's surface runs along the span: no warning.
+    let flat = std::fs::read_to_string(dir.path().join("stations.csv"))
+        .unwrap()
+        .lines()
+        .map(|l| {
+            let f: Vec<&str> = l.split(',').collect();
+            if f[0] == "r_m" {
+                l.to_string()
+            } else {
+                format!("{},{},10,{},{}", f[0], f[1], f[3], f[4])
+            }
+        })
+        .collect::<Vec<_>>()
+        .join("\n");
+    std::fs::write(dir.path().join("stations.csv"), flat).unwrap();
+    let model = BladeModel::build(read_project(&dir.path().join("blade.toml")).unwrap()).unwrap();
+    assert!(
+        !model
+            .blade
+            .warnings()
+            .iter()
+            .any(|w| matches!(w, layloft::blade::BladeWarning::Leaning { .. })),
+        "no lean without twist or taper"
+    );
+}

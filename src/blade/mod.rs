@@ -49,6 +49,11 @@ use crate::material::{Lamina, MaterialError};
 use crate::project::{AirfoilSpec, PlySpec, Project, Rotor, WebSpec};
 use crate::units::Angle;
 
+/// The lean of the surface (its area over that of the strips a section sees) above which the
+/// blade warns: 5 % of laminate mass and wall stiffness not seen by the sections (common
+/// practice: a model error beyond about 5 % is worth saying).
+pub const LEAN_WARNING: f64 = 1.05;
+
 /// What can go wrong when building the blade or one of its sections. The errors name a station
 /// or ply by its index in the project and a place by its radius; the command line names the
 /// file and line (`Error::at_station`).
@@ -312,6 +317,11 @@ impl Blade {
         // Beam theory is strained below about two mean chords of span (common practice).
         if span < 2.0 * mean_chord {
             w.push(BladeWarning::Stubby { span, mean_chord });
+        }
+        if let Some((r, factor)) = self.surfaces().greatest_lean()
+            && factor > LEAN_WARNING
+        {
+            w.push(BladeWarning::Leaning { r, factor });
         }
         w
     }

@@ -418,6 +418,50 @@ impl BladeSurfaces<'_> {
         }
     }
 
+    /// Where the outer mould line leans most from the span direction, as `(r, factor)`:
+    /// `factor` is the surface's area over that of the strips the section sees at radius `r`
+    /// (strips cut square to the span, `dr` by `ds`), the mean round the contour by arc length
+    /// of `√(1 + s²)`, where `s` is the rate at which the surface moves along its normal per
+    /// unit radius: twist turns it by `φ' (n·Jp)` (`J` a quarter turn) and the stations'
+    /// blending, chord and pitch axis move it by `n·∂p/∂r`. With `∂P/∂r = e_x + a t + s n`
+    /// and the unit tangent `t`, `|∂P/∂r × t| = √(1 + s²)` (the area element of a surface
+    /// swept along the span; do Carmo, *Differential Geometry of Curves and Surfaces*, §2-8,
+    /// from memory). For a laminate of even thickness it is the ratio of its mass to the
+    /// section's. Sampled at nine radii between each pair of stations (the blending is linear,
+    /// so its rate jumps at a station) and 200 arcs of each surface.
+    pub(crate) fn greatest_lean(&self) -> Option<(f64, f64)> {
+        const N: usize = 200;
+        let st = &self.blade.stations;
+        let mut best: Option<(f64, f64)> = None;
+        for pair in st.windows(2) {
+            let (a, b) = (pair[0].r, pair[1].r);
+            for k in 1..10 {
+                let r = a + (b - a) * k as f64 / 10.0;
+                let at = self.at_radius(r);
+                let Some(rates) = self.radius_rates(&at, 1e-9 * (b - a)) else { continue };
+                let (mut area, mut length) = (0.0, 0.0);
+                for surface in [Surface::Upper, Surface::Lower] {
+                    for i in 0..N {
+                        // The middle of each arc, weighted by its length.
+                        let u = (i as f64 + 0.5) / N as f64;
+                        let jet = self.outer_jet(&at, &rates, surface, u);
+                        let (p, n) = (jet.p, jet.n);
+                        let turned = n[0] * -p[1] + n[1] * p[0];
+                        let s = n[0] * jet.p_r[0] + n[1] * jet.p_r[1] + rates.twist * turned;
+                        let ds = jet.p_u[0].hypot(jet.p_u[1]) / N as f64;
+                        area += (1.0 + s * s).sqrt() * ds;
+                        length += ds;
+                    }
+                }
+                let factor = area / length;
+                if factor.is_finite() && best.is_none_or(|(_, f)| factor > f) {
+                    best = Some((r, factor));
+                }
+            }
+        }
+        best
+    }
+
     /// The outer point in chord fractions and its derivative in `u`, between the stations
     /// `(i, j)` blended by `w`.
     fn outer_fractions_in(

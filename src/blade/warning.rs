@@ -14,4 +14,12 @@ pub enum BladeWarning {
         /// Mean chord over the span, m.
         mean_chord: f64,
     },
+    /// The surface leans from the span direction (twist, taper): the sections, cut square to
+    /// the span, see less laminate than the surface holds.
+    Leaning {
+        /// Radius where it leans most, m.
+        r: f64,
+        /// The surface's area over that of the strips the section sees there (at least 1).
+        factor: f64,
+    },
 }

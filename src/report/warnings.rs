@@ -50,6 +50,14 @@ impl fmt::Display for BladeWarning {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
             BladeWarning::CoordinateFile(note) => write!(f, "{note}"),
+            BladeWarning::Leaning { r, factor } => write!(
+                f,
+                "the surface leans from the span direction where twist and taper turn it: at r = \
+                 {r:.3} m it holds {:.1} % more area than the section's contour sweeps square to \
+                 the span, so the sections' laminate mass and wall stiffness there are low by \
+                 about that much (the ply book's patterns, on the surface itself, weigh more)",
+                100.0 * (factor - 1.0)
+            ),
             BladeWarning::Stubby { span, mean_chord } => write!(
                 f,
                 "the blade is short and stubby: span {span:.3} m is {:.1} mean chords; beam \
