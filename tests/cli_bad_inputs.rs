@@ -202,6 +202,26 @@ fn a_web_that_leaves_a_core_no_room_is_refused_with_what_to_change() {
 }
 
 #[test]
+fn plies_that_cannot_fit_in_the_section_are_refused() {
+    // Forty more unidirectional plies on both skins of the mine fan: aft of where the walls
+    // meet, the laminate the sections would hold exceeds the area its outline encloses, so the
+    // plies cannot be laid up (a part holds no more material than its mould cavity: common
+    // practice) and the thin-wall sums would count the excess. Refused at the section, naming
+    // both areas; the demo's own schedule stays well inside.
+    let extra: String =
+        (1..=40).map(|k| format!("extra-{k},carbon-ud,0,0.40,0.90,both,0,1\n")).collect();
+    let c = Copy::of("mine-fan");
+    c.edit("plies.csv", "skin-out,", &format!("{extra}skin-out,"));
+    let stderr =
+        c.refused("sections", &[], &["of laminate, more than the", "the outline encloses"]);
+    let areas: Vec<f64> =
+        stderr.split(" mm²").filter_map(|part| part.rsplit(' ').next()?.parse().ok()).collect();
+    assert!(areas.len() == 2 && areas[0] > areas[1], "{stderr}");
+    let (code, _, stderr) = Copy::of("mine-fan").run("sections", &[]);
+    assert_eq!(code, Some(0), "{stderr}");
+}
+
+#[test]
 fn load_factor_far_below_one_is_refused() {
     // Issue case: 1e-300 on every case gave PASS with a reserve factor of 1e301.
     Copy::of("mine-fan").edit("blade.toml", "load_factor = 1.35", "load_factor = 1e-300").refused(

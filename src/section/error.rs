@@ -91,6 +91,22 @@ pub enum SectionError {
         /// What is wrong.
         reason: String,
     },
+    /// The walls hold more laminate than the outline encloses.
+    #[error(
+        "section at r = {r:.4} m: the walls hold {:.0} mm² of laminate, more than the {:.0} mm² \
+         the outline encloses: the plies cannot fit; expected fewer or thinner plies here, or a \
+         deeper section",
+        laminate_area * 1e6,
+        outline_area * 1e6
+    )]
+    Overfull {
+        /// Radius, m.
+        r: f64,
+        /// Thickness times midline length summed over the walls and webs, m².
+        laminate_area: f64,
+        /// Area the outer mould line encloses, m².
+        outline_area: f64,
+    },
     /// The solved stiffness is not positive definite or not finite (a wall without stiffness).
     #[error("section at r = {r:.4} m: the section stiffness is {reason}")]
     Stiffness {

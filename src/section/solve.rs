@@ -73,6 +73,14 @@ impl SolvedSection {
             .collect::<Result<Vec<_>, _>>()?;
         let thickness: Vec<f64> = walls.iter().map(|w| w.thickness).collect();
         let contour = build_contour(layout, &thickness, params.web_elements, params.max_mitre)?;
+        // The walls' laminate cannot hold more area than the outline encloses: such plies
+        // would not fit in the mould, and the thin-wall sums would count the excess twice.
+        let laminate_area: f64 =
+            contour.elements.iter().map(|e| thickness[e.laminate] * e.length()).sum();
+        let outline_area = polygon_area(&layout.outer).abs();
+        if laminate_area > outline_area {
+            return Err(SectionError::Overfull { r, laminate_area, outline_area });
+        }
         let bad = |reason: &str| SectionError::Stiffness { r, reason: reason.to_string() };
         let mode = params.wall_curvature;
         let asm = assemble(&contour, &walls, mode)
