@@ -111,6 +111,15 @@ pub fn write_atomic_with(
             source: std::io::Error::other(format!("{} is a file, not a folder", dir.display())),
         });
     }
+    if !dir.exists() {
+        return Err(Error::Write {
+            path: path.display().to_string(),
+            source: std::io::Error::other(format!(
+                "the folder {} does not exist; expected an existing folder (create it first)",
+                dir.display()
+            )),
+        });
+    }
     remove_leftovers(dir);
     let mut builder = tempfile::Builder::new();
     builder.prefix(".layloft-").suffix(".tmp");
@@ -148,6 +157,16 @@ mod tests {
         assert!(failed.is_err());
         assert_eq!(std::fs::read(&path).unwrap(), b"first");
         assert_eq!(std::fs::read_dir(dir.path()).unwrap().count(), 1);
+    }
+
+    #[test]
+    fn a_file_in_a_missing_folder_is_refused_with_the_folder_named() {
+        // Common practice: say which folder is missing, not the system's "entity not found".
+        let dir = tempfile::tempdir().unwrap();
+        let path = dir.path().join("nodir").join("c.svg");
+        let text = write_atomic(&path, b"x").unwrap_err().to_string();
+        assert!(text.contains("nodir does not exist") && text.contains("c.svg"), "{text}");
+        assert!(!dir.path().join("nodir").exists());
     }
 
     #[cfg(unix)]
