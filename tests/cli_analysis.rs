@@ -232,6 +232,15 @@ fn a_failing_ply_fails_the_check_though_the_project_sets_no_criteria() {
     // `stress` finds the same least reserve factor.
     let stress = layloft().arg("stress").arg(&blade).arg("--json").output().unwrap();
     assert_eq!(stress.status.code(), Some(1));
+    // Its buckling table shows a reserve factor far below 1 in figures that say so, not 0.00.
+    let text = layloft().arg("stress").arg(&blade).output().unwrap();
+    let text = String::from_utf8_lossy(&text.stdout);
+    let row = text
+        .lines()
+        .find(|l| l.trim_start().starts_with("surge") && l.contains("panel buckling"))
+        .unwrap_or_else(|| panic!("a buckling row for 'surge': {text}"));
+    let rf: f64 = row.split_whitespace().nth(1).unwrap().parse().unwrap();
+    assert!(rf > 0.0 && rf < 0.1, "{row}");
     // The demo's own plies under its own loads still pass when only the criteria are gone.
     let dir = edited_fan(without_criteria, |p| p);
     layloft()

@@ -61,8 +61,11 @@ pub fn buckling_table(cases: &[CaseStress]) -> Table {
                 let k = &p.check;
                 t.row(vec![
                     c.name.clone(),
-                    if k.reserve_factor.is_finite() {
+                    if k.reserve_factor.is_finite() && k.reserve_factor >= 0.1 {
                         fixed(k.reserve_factor, 2)
+                    } else if k.reserve_factor.is_finite() {
+                        // Two decimals would show a panel far from holding as 0.00.
+                        sig4(k.reserve_factor)
                     } else {
                         "none".into()
                     },
