@@ -316,3 +316,50 @@ fn a_casting_mould_that_fails_its_check_costs_its_core_the_mould_not_the_set() {
         assert!(read_stl_file(&out.join(name)).closed_oriented, "{name}");
     }
 }
+
+#[test]
+fn a_round_root_that_blends_fast_into_an_airfoil_gets_its_cores() {
+    // The mine fan's first station made a 90 mm round tube (chord 0.090 m, pitch axis at the
+    // middle) that blends into the 250 mm NACA 4415 of the next station: within millimetres of
+    // the tube the section's back moves faster than the cores' trailing-edge closure,
+    // interpolated every 4 mm, follows, and the interpolated closure passed the inner
+    // surface's end (the tooling was refused). The closure is then solved at that radius; the
+    // cores are made, each inside the blade, and end inside the shell's ends.
+    let dir = tempfile::tempdir().unwrap();
+    let toml = demo_copy(dir.path(), &[]);
+    let stations = toml.with_file_name("stations.csv");
+    let text = std::fs::read_to_string(&stations).unwrap();
+    let text = text.replace("0.40,0.280,44.0,0.35,naca4418", "0.40,0.090,44.0,0.5,circle");
+    let text = text.replace("0.45,0.270,40.0,0.35,naca4416\n", "");
+    std::fs::write(&stations, text).unwrap();
+    let out = dir.path().join("out");
+    let (code, _, stderr) = layloft(&[
+        "tooling",
+        &toml.to_string_lossy(),
+        "--out",
+        &out.to_string_lossy(),
+        "--tolerance-mm",
+        "0.3",
+        "--json",
+    ]);
+    assert_eq!(code, Some(0), "{stderr}");
+    let summary: Value =
+        serde_json::from_str(&std::fs::read_to_string(out.join("tooling-summary.json")).unwrap())
+            .unwrap();
+    let parts = summary["parts"].as_array().unwrap();
+    let bbox = |name: &str| {
+        parts
+            .iter()
+            .find(|p| p["name"] == name)
+            .map(|p| p.clone())
+            .unwrap_or_else(|| panic!("{name} in {summary}"))
+    };
+    let shell = bbox("shell");
+    for core in ["core-1", "core-2"] {
+        let c = bbox(core);
+        assert!(f(&c["volume_m3"]) > 0.0, "{c}");
+        // Inside the shell's span.
+        let x = |part: &Value, end: &str| f(&part["bounding_box"][end]["x_m"]);
+        assert!(x(&c, "min") > x(&shell, "min") && x(&c, "max") < x(&shell, "max"), "{c}");
+    }
+}

@@ -106,10 +106,28 @@ impl CutBound {
         radii: &[f64],
         cut: impl Fn(f64) -> f64,
     ) -> Result<Self, MeshError> {
+        Self::with_fallback(surface, radii, cut, None)
+    }
+
+    /// [`CutBound::new`], with the cut solved afresh by `exact` at a radius where `cut` (an
+    /// interpolation of exact cuts) falls outside a chain: near a station where the section's
+    /// shape changes fast along the span (a round root blending into an airfoil), the
+    /// interpolation may pass a chain's end by more than the guard the exact cut keeps from it.
+    pub(crate) fn with_fallback(
+        surface: &dyn SpanSurface,
+        radii: &[f64],
+        cut: impl Fn(f64) -> f64,
+        exact: Option<&dyn Fn(f64) -> Result<f64, MeshError>>,
+    ) -> Result<Self, MeshError> {
         let mut up = Vec::with_capacity(radii.len());
         let mut lo = Vec::with_capacity(radii.len());
         for &x in radii {
-            let y = cut(x);
+            let mut y = cut(x);
+            if let Some(exact) = exact
+                && !Self::inside(surface, x, y)
+            {
+                y = exact(x)?;
+            }
             for (chain, out) in [(0, &mut up), (1, &mut lo)] {
                 let at =
                     |u: f64| if chain == 0 { surface.upper(x, u) } else { surface.lower(x, u) };
@@ -135,6 +153,16 @@ impl CutBound {
 
     fn at(&self, x: f64, upper: bool) -> f64 {
         if upper { self.upper.eval(x) } else { self.lower.eval(x) }
+    }
+
+    /// Whether `y` lies strictly inside both chains of `surface` at `x` (as [`CutBound::new`]
+    /// demands).
+    fn inside(surface: &dyn SpanSurface, x: f64, y: f64) -> bool {
+        [0, 1].into_iter().all(|chain| {
+            let at = |u: f64| if chain == 0 { surface.upper(x, u) } else { surface.lower(x, u) };
+            let u0 = if at(0.0)[0] < y { 0.0 } else { forward_parameter(&at) };
+            y > at(u0)[0] && y < at(1.0)[0]
+        })
     }
 }
 

@@ -199,13 +199,17 @@ pub fn build_tooling(
             )),
             other => other,
         };
+        let exact = |x: f64, k: usize| {
+            core_cuts(&inner, x, params.min_core_thickness, base(x)).map(|cuts| cuts[k])
+        };
+        let (exact_front, exact_back) = (|x: f64| exact(x, 0), |x: f64| exact(x, 1));
         let front = match c.front {
-            None => CutBound::new(&inner, &radii, |x| le_cut.eval(x)),
+            None => CutBound::with_fallback(&inner, &radii, |x| le_cut.eval(x), Some(&exact_front)),
             Some(k) => CutBound::new(&inner, &radii, face(k, 1.0)),
         }
         .map_err(no_room)?;
         let back = match c.back {
-            None => CutBound::new(&inner, &radii, |x| te_cut.eval(x)),
+            None => CutBound::with_fallback(&inner, &radii, |x| te_cut.eval(x), Some(&exact_back)),
             Some(k) => CutBound::new(&inner, &radii, face(k, -1.0)),
         }
         .map_err(no_room)?;
