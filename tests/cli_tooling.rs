@@ -351,7 +351,7 @@ fn a_round_root_that_blends_fast_into_an_airfoil_gets_its_cores() {
         parts
             .iter()
             .find(|p| p["name"] == name)
-            .map(|p| p.clone())
+            .cloned()
             .unwrap_or_else(|| panic!("{name} in {summary}"))
     };
     let shell = bbox("shell");
