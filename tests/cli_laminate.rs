@@ -236,3 +236,28 @@ fn ply_thickness_override_scales_the_thickness() {
     // Moduli do not depend on the ply thickness when every ply has the same one.
     assert!(rel(f(&v["Ex_Pa"]), 69.68e9) < 5e-4);
 }
+
+#[test]
+fn loads_and_temperatures_beyond_any_laminate_are_refused() {
+    // Common practice: 1e9 N/m is 100 GPa through 10 mm, far past any ply; such a value is a
+    // slip, and near the floating-point range it gave NaN stresses and "never fails". Refused
+    // with the key, the value and the bound (exit 2); a load just inside still runs.
+    let base = ["laminate", "--materials", KAW, "--material", "t300-5208", "--layup", "[0/45]T"];
+    for (option, value, part) in [
+        ("--load", "Nx=1e300", "Nx = 1e300 N/m lies beyond ±1e9 N/m"),
+        ("--load", "Nx=1e308,Mx=1e308", "Nx = 1e308 N/m"),
+        ("--load", "Mxy=-2e7", "Mxy = -2e7 N·m/m lies beyond ±1e7 N·m/m"),
+        ("--strains", "ex=2", "ex = 2e0 lies beyond ±1e0"),
+        ("--delta-t", "1e6", "within ±400 K"),
+    ] {
+        let mut args = base.to_vec();
+        args.extend([option, value]);
+        let (code, _, stderr) = layloft(&args);
+        assert_eq!(code, Some(2), "{option} {value}: {stderr}");
+        assert!(stderr.contains(part), "{option} {value}: {stderr}");
+    }
+    let mut args = base.to_vec();
+    args.extend(["--load", "Nx=9e8"]);
+    let (code, _, stderr) = layloft(&args);
+    assert_eq!(code, Some(1), "fails a ply, but runs: {stderr}");
+}

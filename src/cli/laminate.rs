@@ -102,10 +102,42 @@ fn material_context(e: MaterialError, file: &str, option: &str, value: &str) -> 
     Failure::Input(anyhow!(message))
 }
 
+/// The greatest magnitude of each key of `--load` (N/m for forces, N·m/m for moments) and of
+/// `--strains` (strains, 1/m for curvatures): far beyond any laminate (a force of 1e9 N/m is
+/// 100 GPa through 10 mm, a moment of 1e7 N·m/m as much at the faces of 25 mm; a strain of 1 is
+/// a doubling), so that a value beyond them is a slip of the keyboard, not a load case.
+const LOAD_LIMITS: [f64; 6] = [1e9, 1e9, 1e9, 1e7, 1e7, 1e7];
+const STRAIN_LIMITS: [f64; 6] = [1.0, 1.0, 1.0, 1e4, 1e4, 1e4];
+
+/// The least and greatest temperature change, K (as `delta_T_K` in a project).
+const DELTA_T_LIMIT: f64 = 400.0;
+
+/// `values` against `limits`, key by key.
+fn within(
+    option: &str,
+    keys: &[&str],
+    values: &[f64],
+    limits: &[f64],
+    units: [&str; 2],
+) -> Result<(), Failure> {
+    for (k, (&v, &limit)) in values.iter().zip(limits).enumerate() {
+        if v.abs() > limit {
+            let unit = units[k / 3];
+            return Err(Failure::Input(anyhow!(
+                "{option}: {} = {v:e}{unit} lies beyond ±{limit:e}{unit}; expected a value a \
+                 laminate can meet",
+                keys[k]
+            )));
+        }
+    }
+    Ok(())
+}
+
 fn load_from(args: &Args) -> Result<Option<LaminateLoad>, Failure> {
     let bad = |e: String| Failure::Input(anyhow!(e));
     if let Some(text) = &args.load {
         let v = parse_pairs("--load", text, &LOAD_KEYS).map_err(bad)?;
+        within("--load", &LOAD_KEYS, &v, &LOAD_LIMITS, [" N/m", " N·m/m"])?;
         return Ok(Some(LaminateLoad::Resultants(Resultants {
             n: Vector3::new(v[0], v[1], v[2]),
             m: Vector3::new(v[3], v[4], v[5]),
@@ -113,6 +145,7 @@ fn load_from(args: &Args) -> Result<Option<LaminateLoad>, Failure> {
     }
     if let Some(text) = &args.strains {
         let v = parse_pairs("--strains", text, &STRAIN_KEYS).map_err(bad)?;
+        within("--strains", &STRAIN_KEYS, &v, &STRAIN_LIMITS, ["", " 1/m"])?;
         return Ok(Some(LaminateLoad::Deformation(Deformation {
             strain: Vector3::new(v[0], v[1], v[2]),
             curvature: Vector3::new(v[3], v[4], v[5]),
@@ -149,6 +182,12 @@ fn configure(args: &Args) -> Result<Config, Failure> {
         Some(text) => number("--delta-t", text)?,
         None => 0.0,
     };
+    if delta_t.abs() > DELTA_T_LIMIT {
+        return Err(Failure::Input(anyhow!(
+            "--delta-t: expected a temperature change within ±{DELTA_T_LIMIT} K (as delta_T_K \
+             in a project), found {delta_t} K"
+        )));
+    }
     if delta_t != 0.0 {
         if let Some(p) = laminate.plies().iter().find(|p| p.material.cte.is_none()) {
             return Err(Failure::Input(anyhow!(
