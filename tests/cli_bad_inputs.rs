@@ -222,6 +222,17 @@ fn plies_that_cannot_fit_in_the_section_are_refused() {
 }
 
 #[test]
+fn a_distributed_load_beyond_any_blade_is_refused_at_its_cell() {
+    // Common practice: a large rotor's blade carries some 1e4 to 1e5 N/m; -1e300 is a slip and
+    // gave "no buckling" under a compression beyond the floating-point range.
+    Copy::of("mine-fan").edit("loads-surge.csv", "0.40,-800.0,", "0.40,-1e300,").refused(
+        "stress",
+        &[],
+        &["loads-surge.csv line 4, f_flap_N_m", "expected a load within ±1e9 N/m", "found -1e300"],
+    );
+}
+
+#[test]
 fn load_factor_far_below_one_is_refused() {
     // Issue case: 1e-300 on every case gave PASS with a reserve factor of 1e301.
     Copy::of("mine-fan").edit("blade.toml", "load_factor = 1.35", "load_factor = 1e-300").refused(

@@ -163,6 +163,9 @@ pub(super) fn read_plies(
     Ok((plies, lines))
 }
 
+/// The greatest magnitude of a distributed load's force (N/m) or moment (N·m/m).
+const LOAD_LIMIT: f64 = 1e9;
+
 /// A distributed load file: `r_m, f_flap_N_m, f_edge_N_m, m_pitch_Nm_m`.
 pub(super) fn read_distributed(
     dir: &Path,
@@ -196,11 +199,27 @@ pub(super) fn read_distributed(
                 );
             }
         }
+        // Far beyond any blade (a large rotor's blade carries some 1e4 to 1e5 N/m): a value
+        // beyond it is a slip, and near the floating-point range the sums lose every digit.
+        let bounded = |column: &str, v: f64, unit: &str| {
+            if v.abs() > LOAD_LIMIT {
+                Err(rec.error(
+                    column,
+                    format!("expected a load within ±{LOAD_LIMIT:e} {unit}, found {v:e}"),
+                ))
+            } else {
+                Ok(v)
+            }
+        };
         rows.push(DistributedLoadRow {
             r,
-            f_flap: rec.number("f_flap_N_m")?,
-            f_edge: rec.number("f_edge_N_m")?,
-            m_pitch: rec.optional_number("m_pitch_Nm_m")?.unwrap_or(0.0),
+            f_flap: bounded("f_flap_N_m", rec.number("f_flap_N_m")?, "N/m")?,
+            f_edge: bounded("f_edge_N_m", rec.number("f_edge_N_m")?, "N/m")?,
+            m_pitch: bounded(
+                "m_pitch_Nm_m",
+                rec.optional_number("m_pitch_Nm_m")?.unwrap_or(0.0),
+                "N·m/m",
+            )?,
         });
     }
     Ok(rows)
