@@ -133,6 +133,13 @@ fn modes_refuses_bad_speed_ranges_and_too_many_modes() {
         .assert()
         .code(2)
         .stderr(predicate::str::contains("100000"));
+    // Within the tool's bound but beyond what the demo's 40 elements resolve: refused alike
+    // the project's modal.modes key.
+    layloft()
+        .args(["modes", FAN, "--modes", "41"])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("expected at most 40 modes"));
 }
 
 #[test]

@@ -95,6 +95,17 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     }
     let (model, sources) = load_model(&args.blade, out)?;
     let p = &model.project;
+    // As the project's `modal.modes`: no more modes than the beam elements resolve.
+    if let Some(n) = args.modes
+        && n > p.modal.elements
+    {
+        return Err(Failure::Input(anyhow!(
+            "--modes: expected at most {} modes (no more than the {} beam elements of [modal] \
+             elements resolve), found {n}",
+            p.modal.elements,
+            p.modal.elements
+        )));
+    }
     let analysis = run_modal(&model, &sources, out, range, args.modes)?;
     let title = format!("Campbell diagram — {}", p.name);
     let rpm_nominal = rpm_of(p.rotor.omega_nominal);
