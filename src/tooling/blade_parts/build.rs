@@ -79,7 +79,9 @@ pub fn build_tooling(
         return Err(MeshError::Settings(format!(
             "the root sphere (hub_radius_m + root_clearance_m = {root_sphere:.4} m) does not reach \
              past the root section, which extends {reach:.4} m from the pitch axis: the sphere \
-             cannot end the blade"
+             cannot end the blade; expected hub_radius_m + root_clearance_m above {reach:.4} m, \
+             a sphere about the rotor centre wide enough to cut across the whole root section \
+             (the tooling carries the root section inboard from r = {r0:.4} m to that sphere)"
         )));
     }
     let x_lo = ((root_sphere * root_sphere - reach * reach).sqrt() - 0.05 * reach - 1e-3).max(0.0);
