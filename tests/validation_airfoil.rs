@@ -6,7 +6,9 @@
 //! thickness formula itself (Gauss–Legendre after the substitution x = u², which removes the
 //! square-root singularity at the leading edge), independently of the code under test.
 
-use layloft::airfoil::{Naca4, Outline, clustered_stations, parse_coordinates};
+use layloft::airfoil::{
+    Naca4, Outline, clustered_stations, parse_coordinates, parse_coordinates_noted,
+};
 
 /// Area per c² of a symmetric 4-digit section: 2 ∫ y_t dx by 20-point Gauss–Legendre in u with
 /// x = u², dx = 2u du (Abramowitz & Stegun, Handbook of Mathematical Functions, 1964, 25.4.30).
@@ -90,6 +92,31 @@ fn coordinate_file_round_trips_a_naca_outline() {
     let read = parse_coordinates(&text, "naca0015.dat").unwrap();
     assert!(read.blunt_te());
     assert!((read.area() - naca.area()).abs() / naca.area() < 1e-4);
+}
+
+#[test]
+fn a_file_in_millimetres_turned_off_its_chord_reads_as_fractions_and_says_so() {
+    // The NACA 0015 outline at a 190 mm chord, turned 5° (a rotation and a uniform scale keep
+    // the shape: the same area in chord fractions, Euclid), read back to the area of the
+    // fractions to 1e-4, with one note on the scale and one on the turn; the fractions' own
+    // file reads without either.
+    let naca = Outline::from_naca(&Naca4::parse("0015", false).unwrap(), 81);
+    let file = |scale: f64, turn_deg: f64| {
+        let (s, c) = turn_deg.to_radians().sin_cos();
+        let mut text = String::new();
+        for p in naca.upper.iter().rev().chain(&naca.lower[1..]) {
+            let (x, y) = (scale * p[0], scale * p[1]);
+            text.push_str(&format!("{:.9} {:.9}\n", x * c - y * s, x * s + y * c));
+        }
+        text
+    };
+    let (read, notes) = parse_coordinates_noted(&file(190.0, 5.0), "tip-mm.dat").unwrap();
+    assert!((read.area() - naca.area()).abs() / naca.area() < 1e-4);
+    assert_eq!(notes.len(), 2, "{notes:?}");
+    assert!(notes[0].contains("is 190.000 ") && notes[0].contains("scaled"), "{notes:?}");
+    assert!(notes[1].contains("turned 5.00°"), "{notes:?}");
+    let (_, notes) = parse_coordinates_noted(&file(1.0, 0.0), "tip.dat").unwrap();
+    assert!(notes.is_empty(), "{notes:?}");
 }
 
 #[test]

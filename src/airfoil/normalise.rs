@@ -134,6 +134,22 @@ fn orient_and_split(
         return Err(AirfoilError::NoArea);
     }
     let (s, c) = ((te[1] - le[1]) / chord, (te[0] - le[0]) / chord);
+    // Chord fractions are expected; a file in other units or turned off its chord line reads
+    // all the same, and says so (beyond 1 % of scale or 0.1° of turn: the round-off of a
+    // file's digits stays well inside these).
+    if (chord - 1.0).abs() > 0.01 {
+        notes.push(format!(
+            "the chord from the leading edge to the trailing edge's middle is {chord:.3} in the \
+             file's units, not 1: the points are scaled to chord fractions"
+        ));
+    }
+    let turn = s.atan2(c).to_degrees();
+    if turn.abs() > 0.1 {
+        notes.push(format!(
+            "the chord line is turned {turn:.2}° from the file's x axis: the points are turned \
+             onto it"
+        ));
+    }
     let norm = |p: P| {
         let (dx, dy) = (p[0] - le[0], p[1] - le[1]);
         [(dx * c + dy * s) / chord, (-dx * s + dy * c) / chord]
