@@ -234,6 +234,14 @@ pub fn tolerance_message(tolerance: f64, lo: f64, hi: f64) -> String {
         1.0 / MIN_TOLERANCE,
         hi * 1e3,
         MAX_TOLERANCE * 100.0,
-        tolerance * 1e3
+        mm_text(tolerance)
     )
+}
+
+/// A length (m) in mm to nine decimals with the trailing zeros dropped: as typed, without the
+/// round-off of the conversion (1e-6 mm, not 0.0000010000000000000002 mm).
+fn mm_text(length: f64) -> String {
+    let text = format!("{:.9}", length * 1e3);
+    let text = text.trim_end_matches('0').trim_end_matches('.');
+    if text.is_empty() || text == "-" || text == "-0" { "0".into() } else { text.into() }
 }
