@@ -199,6 +199,19 @@ fn without_a_tooling_table_defaults_apply_and_the_alloy_mass_is_not_computed() {
     }
 }
 
+/// `layloft tooling PROJECT --out OUT --tolerance-mm 0.3 EXTRA...` (a coarse tolerance keeps
+/// the run short): exit status, stdout, stderr.
+pub(crate) fn coarse_tooling(
+    project: &Path,
+    out: &Path,
+    extra: &[&str],
+) -> (Option<i32>, String, String) {
+    let (project, out) = (project.to_string_lossy(), out.to_string_lossy());
+    let mut args = vec!["tooling", &project, "--out", &out, "--tolerance-mm", "0.3"];
+    args.extend_from_slice(extra);
+    layloft(&args)
+}
+
 /// A copy of the mine-fan demo with `[tooling]` lines replaced.
 fn demo_copy(dir: &Path, replace: &[(&str, &str)]) -> PathBuf {
     let toml = crate::support_run::copy_demo("mine-fan", dir);
@@ -218,14 +231,7 @@ fn a_core_that_melts_before_the_resin_gels_fails_the_check_with_status_1() {
     let toml =
         demo_copy(dir.path(), &[("core_alloy = \"bi58sn42\"", "core_alloy = \"woods-metal\"")]);
     let out = dir.path().join("out");
-    let (code, stdout, stderr) = layloft(&[
-        "tooling",
-        &toml.to_string_lossy(),
-        "--out",
-        &out.to_string_lossy(),
-        "--tolerance-mm",
-        "0.3",
-    ]);
+    let (code, stdout, stderr) = coarse_tooling(&toml, &out, &[]);
     assert_eq!(code, Some(1), "{stderr}");
     assert!(stdout.contains("FAIL MELTS BEFORE THE RESIN GELS: solidus 70 °C"), "{stdout}");
     assert!(stdout.contains("contains lead and cadmium"), "{stdout}");
@@ -333,15 +339,7 @@ fn a_round_root_that_blends_fast_into_an_airfoil_gets_its_cores() {
     let text = text.replace("0.45,0.270,40.0,0.35,naca4416\n", "");
     std::fs::write(&stations, text).unwrap();
     let out = dir.path().join("out");
-    let (code, _, stderr) = layloft(&[
-        "tooling",
-        &toml.to_string_lossy(),
-        "--out",
-        &out.to_string_lossy(),
-        "--tolerance-mm",
-        "0.3",
-        "--json",
-    ]);
+    let (code, _, stderr) = coarse_tooling(&toml, &out, &["--json"]);
     assert_eq!(code, Some(0), "{stderr}");
     let summary: Value =
         serde_json::from_str(&std::fs::read_to_string(out.join("tooling-summary.json")).unwrap())

@@ -11,7 +11,6 @@
 
 use std::path::{Path, PathBuf};
 
-use crate::support_cli::layloft;
 use crate::support_stl::read_stl_file;
 use serde_json::Value;
 
@@ -45,15 +44,7 @@ fn demo(dir: &Path, rear: bool) -> PathBuf {
 }
 
 fn run(project: &Path, out: &Path) -> (Value, String, String) {
-    let (code, stdout, stderr) = layloft(&[
-        "tooling",
-        &project.to_string_lossy(),
-        "--out",
-        &out.to_string_lossy(),
-        "--tolerance-mm",
-        "0.3",
-        "--json",
-    ]);
+    let (code, stdout, stderr) = crate::cli_tooling::coarse_tooling(project, out, &["--json"]);
     assert_eq!(code, Some(0), "{stderr}");
     let json = serde_json::from_str(&stdout).unwrap_or_else(|e| panic!("{e}: {stdout}"));
     (json, stdout, stderr)
