@@ -309,7 +309,8 @@ impl Pchip {
         if n == 1 || t < self.x[0] || t >= self.x[n - 1] {
             return 0.0;
         }
-        let i = self.x.partition_point(|&v| v <= t).clamp(1, n - 1);
+        // The bisection's index, found from where `t` falls between the ends (see `locate`).
+        let i = locate(&self.x, t).clamp(1, n - 1);
         let (x0, x1) = (self.x[i - 1], self.x[i]);
         let h = x1 - x0;
         let s = (t - x0) / h;
