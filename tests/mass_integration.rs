@@ -17,18 +17,69 @@ fn a_prismatic_blade_with_one_drop_off_integrates_exactly() {
     let inboard = blade.ply_mass_per_length(1.0, 120).unwrap();
     let outboard = blade.ply_mass_per_length(2.0, 120).unwrap();
     assert!(inboard > outboard, "the cap adds mass inboard: {inboard} vs {outboard}");
-    // Closed form: M = m_in·1 m + m_out·1 m; S = m_in·1 m·1.0 m + m_out·1 m·2.0 m.
-    let (mass, moment) = (inboard + outboard, inboard + 2.0 * outboard);
-    let model = BladeModel::build(p).unwrap();
+    // Closed form of the table's integral: M = m_in·1 m + m_out·1 m (the tooling's schedule
+    // content, below); the blade's mass and first moment, S = m_in·1 m·1.0 m + m_out·1 m·2.0 m,
+    // with the sections' masses per length in place of the table's.
+    let mass = inboard + outboard;
+    // The blade's mass brings that table to the sections' own mass per length (each ply at its
+    // depth) by a factor interpolated between analysis stations; with stations either side of
+    // the drop-off 0.1 mm apart, the factor is constant on each side but for 0.1 mm, and the
+    // closed form holds with the sections' masses per length to 1e-6.
+    let radii = [0.5, 1.0, 1.4999, 1.5001, 2.0, 2.5];
+    let model = BladeModel::build_at(p.clone(), &radii).unwrap();
+    let section = |r: f64| {
+        let st = model.stations.iter().find(|s| s.layout.r == r).unwrap();
+        st.section.properties.mass_per_length
+    };
+    let (s_in, s_out) = (section(1.0), section(2.0));
+    let (m_sec, s_sec) = (s_in + s_out, s_in + 2.0 * s_out);
     let m = model.mass();
-    assert!((m.laminate_kg - mass).abs() <= 1e-12 * mass, "{} vs {mass}", m.laminate_kg);
+    assert!((m.laminate_kg - m_sec).abs() <= 1e-6 * m_sec, "{} vs {m_sec}", m.laminate_kg);
     assert!(
-        (m.static_moment_kg_m - moment).abs() <= 1e-12 * moment,
-        "{} vs {moment}",
+        (m.static_moment_kg_m - s_sec).abs() <= 1e-6 * s_sec,
+        "{} vs {s_sec}",
         m.static_moment_kg_m
     );
-    assert!((m.centre_radius_m - moment / mass).abs() < 1e-12);
+    assert!((m.centre_radius_m - s_sec / m_sec).abs() < 1e-6);
+    let model = BladeModel::build(p).unwrap();
     // The tooling's schedule content integrates the same table: the same laminate mass.
     let schedule = schedule_content(&model.blade);
     assert!((schedule.mass - mass).abs() <= 1e-12 * mass, "{} vs {mass}", schedule.mass);
+}
+
+#[test]
+fn a_tube_blade_weighs_its_ring_not_its_outer_surface() {
+    // Fixture (invented): a round aluminium tube, 100 mm outside, two 1 mm plies all round,
+    // from r = 0.20 m to 1.20 m. Its laminate is a ring: ρ π (R_o² − R_i²) L (geometry), where
+    // the outer surface times the wall would give ρ 2π R_o t L, 2 % more.
+    let dir = tempfile::tempdir().unwrap();
+    let write = |name: &str, text: &str| std::fs::write(dir.path().join(name), text).unwrap();
+    write(
+        "blade.toml",
+        "name = \"tube\"\n[rotor]\nblades = 2\nhub_radius_m = 0.20\ntip_radius_m = 1.20\n\
+         rpm_nominal = 600\nrpm_max = 1000\n[sections]\ncontour_points = 400\n",
+    );
+    let mut stations = String::from("r_m,chord_m,twist_deg,pitch_axis_frac,airfoil\n");
+    for r in [0.20, 0.45, 0.70, 0.95, 1.20] {
+        stations += &format!("{r},0.100,0,0.5,circle\n");
+    }
+    write("stations.csv", &stations);
+    write(
+        "plies.csv",
+        "ply,material,angle_deg,r_start_m,r_end_m,region,from,to\n\
+         p1,al,0,0.20,1.20,both,0,1\np2,al,0,0.20,1.20,both,0,1\n",
+    );
+    write(
+        "materials.toml",
+        "[isotropic.al]\nE_GPa = 70\nnu = 0.3\ndensity_kg_m3 = 2700\nply_thickness_mm = 1.0\n\
+         tensile_strength_MPa = 300\ncompressive_strength_MPa = 300\nshear_strength_MPa = 170\n",
+    );
+    let model = BladeModel::build(read_project(&dir.path().join("blade.toml")).unwrap()).unwrap();
+    let (ro, ri, length) = (0.05_f64, 0.048_f64, 1.0);
+    let ring = 2700.0 * std::f64::consts::PI * (ro * ro - ri * ri) * length;
+    let m = model.mass().laminate_kg;
+    // The 400-point polygon's area and perimeter stand within about 1e-4 of the circle's.
+    assert!((m - ring).abs() / ring < 2e-4, "{m} against the ring's {ring}");
+    // Its centre is the middle of the span (a uniform bar).
+    assert!((model.mass().centre_radius_m - 0.70).abs() < 1e-9);
 }

@@ -195,11 +195,36 @@ impl BladeModel {
 
     fn integrate_mass(&self) -> BladeMass {
         // The laminates' mass per unit span at the midpoints of equal intervals, shared with the
-        // tooling's schedule content.
+        // tooling's schedule content. The table counts each wall's laminate along the outer
+        // mould line, where a ply lies inside it along a shorter line (a tube of wall t and
+        // outer radius R holds 2πRt in the table against π(2R − t)t): at each analysis station
+        // the section's own mass per length, which keeps every ply at its depth, over the
+        // table's at that radius gives a factor, interpolated along the span, that brings the
+        // table to the sections while it keeps the drop-offs where they are.
         let table = self.blade.span_content();
+        let factors: Vec<(f64, f64)> = self
+            .stations
+            .iter()
+            .filter_map(|st| {
+                let r = st.layout.r;
+                let row = self.blade.content_row(r, crate::blade::SURFACE_INTERVALS).ok()?;
+                let section = st.section.properties.mass_per_length;
+                (row.mass > 0.0 && section.is_finite()).then(|| (r, section / row.mass))
+            })
+            .collect();
+        let factor = |r: f64| -> f64 {
+            match factors.iter().position(|&(x, _)| x > r) {
+                None => factors.last().map_or(1.0, |f| f.1),
+                Some(0) => factors[0].1,
+                Some(k) => {
+                    let ((a, fa), (b, fb)) = (factors[k - 1], factors[k]);
+                    fa + (fb - fa) * (r - a) / (b - a)
+                }
+            }
+        };
         let (mut m, mut s) = (0.0, 0.0);
         for row in &table.rows {
-            let w = row.mass * table.h;
+            let w = factor(row.r) * row.mass * table.h;
             m += w;
             s += w * row.r;
         }

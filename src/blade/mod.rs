@@ -34,6 +34,7 @@ mod coverage;
 mod layout;
 mod loft;
 mod mass;
+pub(crate) use mass::SURFACE_INTERVALS;
 mod surface;
 mod warning;
 pub(crate) use surface::{AtRadius, OuterJet, RadiusRates, smooth_step};
