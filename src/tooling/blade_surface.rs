@@ -123,28 +123,14 @@ impl CutBound {
         let mut lo = Vec::with_capacity(radii.len());
         for &x in radii {
             let mut y = cut(x);
-            if let Some(exact) = exact
-                && !Self::inside(surface, x, y)
-            {
+            let mut chains = Self::chains_at(surface, x, y);
+            if let (Some(exact), Err(_)) = (exact, &chains) {
                 y = exact(x)?;
+                chains = Self::chains_at(surface, x, y);
             }
-            for (chain, out) in [(0, &mut up), (1, &mut lo)] {
+            for (chain, (u0, out)) in chains?.into_iter().zip([&mut up, &mut lo]).enumerate() {
                 let at =
                     |u: f64| if chain == 0 { surface.upper(x, u) } else { surface.lower(x, u) };
-                // From the chain's start when the cut lies aft of it (a nose loop lies ahead of
-                // the start), else from the chain's most forward point.
-                let u0 = if at(0.0)[0] < y { 0.0 } else { forward_parameter(&at) };
-                let (front, back) = (at(u0)[0], at(1.0)[0]);
-                if !(y > front && y < back) {
-                    return Err(MeshError::Geometry(format!(
-                        "a core boundary at r = {x:.4} m (chord-frame y = {:.2} mm) lies outside \
-                         the {} inner surface ({:.2} to {:.2} mm)",
-                        y * 1e3,
-                        if chain == 0 { "upper" } else { "lower" },
-                        front * 1e3,
-                        back * 1e3
-                    )));
-                }
                 out.push(crossing(|v: f64| at(u0 + (1.0 - u0) * v), y) * (1.0 - u0) + u0);
             }
         }
@@ -155,14 +141,28 @@ impl CutBound {
         if upper { self.upper.eval(x) } else { self.lower.eval(x) }
     }
 
-    /// Whether `y` lies strictly inside both chains of `surface` at `x` (as [`CutBound::new`]
-    /// demands).
-    fn inside(surface: &dyn SpanSurface, x: f64, y: f64) -> bool {
-        [0, 1].into_iter().all(|chain| {
+    /// Where each chain of `surface` at `x` (upper, lower) is searched for the cut `y`: from
+    /// its start when the cut lies aft of it (a nose loop lies ahead of the start), else from
+    /// its most forward point; an error when `y` lies outside a chain.
+    fn chains_at(surface: &dyn SpanSurface, x: f64, y: f64) -> Result<[f64; 2], MeshError> {
+        let mut from = [0.0; 2];
+        for (chain, u) in from.iter_mut().enumerate() {
             let at = |u: f64| if chain == 0 { surface.upper(x, u) } else { surface.lower(x, u) };
             let u0 = if at(0.0)[0] < y { 0.0 } else { forward_parameter(&at) };
-            y > at(u0)[0] && y < at(1.0)[0]
-        })
+            let (front, back) = (at(u0)[0], at(1.0)[0]);
+            if !(y > front && y < back) {
+                return Err(MeshError::Geometry(format!(
+                    "a core boundary at r = {x:.4} m (chord-frame y = {:.2} mm) lies outside \
+                     the {} inner surface ({:.2} to {:.2} mm)",
+                    y * 1e3,
+                    if chain == 0 { "upper" } else { "lower" },
+                    front * 1e3,
+                    back * 1e3
+                )));
+            }
+            *u = u0;
+        }
+        Ok(from)
     }
 }
 
