@@ -200,15 +200,30 @@ impl BladeModel {
         // outer radius R holds 2πRt in the table against π(2R − t)t): at each analysis station
         // the section's own mass per length, which keeps every ply at its depth, over the
         // table's at that radius gives a factor, interpolated along the span, that brings the
-        // table to the sections while it keeps the drop-offs where they are.
+        // table to the sections while it keeps the drop-offs where they are. The factor is taken
+        // at the project's own analysis radii, whatever radii this model was solved at, so that
+        // the blade's mass does not depend on them (`sections --at`); a station of the model at
+        // such a radius is used as it is, any other is solved here.
         let table = self.blade.span_content();
+        let params = section_params(&self.project);
+        let contour_points = self.project.sections.contour_points;
+        let section_mass = |r: f64| -> Option<f64> {
+            match self.stations.iter().find(|st| st.layout.r.to_bits() == r.to_bits()) {
+                Some(st) => Some(st.section.properties.mass_per_length),
+                None => {
+                    let layout = self.blade.section_layout(r, contour_points).ok()?;
+                    let section = SolvedSection::solve(&layout, &params).ok()?;
+                    Some(section.properties.mass_per_length)
+                }
+            }
+        };
         let factors: Vec<(f64, f64)> = self
-            .stations
-            .iter()
-            .filter_map(|st| {
-                let r = st.layout.r;
+            .blade
+            .analysis_radii(self.project.sections.analysis_stations)
+            .into_iter()
+            .filter_map(|r| {
                 let row = self.blade.content_row(r, crate::blade::SURFACE_INTERVALS).ok()?;
-                let section = st.section.properties.mass_per_length;
+                let section = section_mass(r)?;
                 (row.mass > 0.0 && section.is_finite()).then(|| (r, section / row.mass))
             })
             .collect();
