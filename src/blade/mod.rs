@@ -167,6 +167,10 @@ pub struct Blade {
     /// The stations' outlines as splines in arc length, for [`Blade::surfaces`], made on first
     /// use and shared by every surfaces value of the blade.
     station_curves: OnceLock<Arc<[surface::StationCurve]>>,
+    /// Where the outer mould line leans most from the span direction and its area ratio there
+    /// (see `BladeSurfaces::greatest_lean`), worked out on first use: every list of the blade's
+    /// warnings holds it.
+    greatest_lean: OnceLock<Option<(f64, f64)>>,
 }
 
 impl Blade {
@@ -213,6 +217,7 @@ impl Blade {
             resampled: loft::ResampledOutlines::default(),
             span_content: OnceLock::new(),
             station_curves: OnceLock::new(),
+            greatest_lean: OnceLock::new(),
         })
     }
 
@@ -319,7 +324,8 @@ impl Blade {
         if span < 2.0 * mean_chord {
             w.push(BladeWarning::Stubby { span, mean_chord });
         }
-        if let Some((r, factor)) = self.surfaces().greatest_lean()
+        if let Some((r, factor)) =
+            *self.greatest_lean.get_or_init(|| self.surfaces().greatest_lean())
             && factor > LEAN_WARNING
         {
             w.push(BladeWarning::Leaning { r, factor });

@@ -104,7 +104,15 @@ pub const POINT_DETAIL_LIMIT: usize = 4 << 30;
 /// one point per wall element of every station, each with its plies (exact, heap included but
 /// for the names of webs).
 pub fn point_detail_size(model: &BladeModel) -> (usize, usize) {
-    point_detail_size_of(model)
+    let (mut points, mut bytes) = (0, 0);
+    for st in &model.stations {
+        for e in st.section.elements() {
+            let plies = st.layout.laminates.get(e.laminate).map_or(0, |l| l.plies().len());
+            points += 1;
+            bytes += std::mem::size_of::<PointStress>() + plies * std::mem::size_of::<PlyPoint>();
+        }
+    }
+    (points, bytes)
 }
 
 /// Whether the wall points of `cases` load cases at [`Detail::Points`] fit in
@@ -115,7 +123,7 @@ pub fn points_fit(model: &BladeModel, cases: usize) -> Result<(), StressError> {
 }
 
 fn points_fit_in(model: &BladeModel, cases: usize, limit: usize) -> Result<(), StressError> {
-    let (points, bytes) = point_detail_size_of(model);
+    let (points, bytes) = point_detail_size(model);
     let bytes = bytes.saturating_mul(cases);
     if bytes > limit {
         return Err(StressError::TooManyPoints {
@@ -126,18 +134,6 @@ fn points_fit_in(model: &BladeModel, cases: usize, limit: usize) -> Result<(), S
         });
     }
     Ok(())
-}
-
-fn point_detail_size_of(model: &BladeModel) -> (usize, usize) {
-    let (mut points, mut bytes) = (0, 0);
-    for st in &model.stations {
-        for e in st.section.elements() {
-            let plies = st.layout.laminates.get(e.laminate).map_or(0, |l| l.plies().len());
-            points += 1;
-            bytes += std::mem::size_of::<PointStress>() + plies * std::mem::size_of::<PlyPoint>();
-        }
-    }
-    (points, bytes)
 }
 
 /// Where on a section a wall point lies.
