@@ -147,7 +147,7 @@ pub fn write_report(
 ) -> Result<DesignCheck, Failure> {
     // The folders this run makes, taken away again when it fails before writing into them:
     // a failed report leaves no empty folder behind.
-    let made: Vec<&Path> =
+    let mut made: Vec<&Path> =
         [dest.out.as_path(), dest.meshes.as_path()].into_iter().filter(|d| !d.exists()).collect();
     let result = std::thread::scope(|s| {
         let book =
@@ -158,7 +158,6 @@ pub fn write_report(
     });
     if result.is_err() {
         // Innermost first; `remove_dir` leaves a folder that holds anything.
-        let mut made = made;
         made.sort_by_key(|d| std::cmp::Reverse(d.components().count()));
         for dir in made {
             let _ = std::fs::remove_dir(dir);

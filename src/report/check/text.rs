@@ -35,18 +35,13 @@ pub fn check_text(
     }
     if t.is_empty() {
         let _ = writeln!(out, "The project sets no [criteria] and no load case: nothing checked.");
-        let _ = writeln!(out);
-        out.push_str(&not_covered_text());
-        // The verdict is the last line: nothing checked is not a pass.
-        let _ = writeln!(out);
-        let _ = writeln!(out, "{}", verdict_text(check, input_warnings));
     } else {
         out.push_str(&t.render(2));
-        let _ = writeln!(out);
-        out.push_str(&not_covered_text());
-        // The verdict is the last line.
-        let _ = writeln!(out);
-        let _ = writeln!(out, "{}", verdict_text(check, input_warnings));
     }
+    let _ = writeln!(out);
+    out.push_str(&not_covered_text());
+    // The verdict is the last line (nothing checked is not a pass).
+    let _ = writeln!(out);
+    let _ = writeln!(out, "{}", verdict_text(check, input_warnings));
     out
 }
