@@ -39,12 +39,21 @@ pub(crate) fn casting_mould(
     let mut best: Option<(LoftedSolid, f64, Angle, MouldParts, [f64; 2])> = None;
     // The contour's samples, which no pull changes, worked out once for all the pulls tried.
     let samples = ContourSamples::over(input.cell, input.cell.span());
+    let mut first_error = None;
     for angle in candidates {
-        let solid = loft_solid(
+        let solid = match loft_solid(
             &SilhouetteSurface::from_samples(input.cell, &samples, angle),
             input.trims,
             input.loft,
-        )?;
+        ) {
+            Ok(solid) => solid,
+            // A pull whose parted surface cannot be lofted within the tolerance leaves the
+            // others to try (see the module docs).
+            Err(e) => {
+                first_error.get_or_insert(e);
+                continue;
+            }
+        };
         let nominal = solid.mesh.signed_volume();
         let mut cavity = solid;
         cavity.mesh.scale(1.0 + s);
@@ -75,8 +84,9 @@ pub(crate) fn casting_mould(
             break;
         }
     }
-    let (cavity, core_volume, pull_angle, set, _) =
-        best.ok_or_else(|| MeshError::Geometry("no pull to try".into()))?;
+    let (cavity, core_volume, pull_angle, set, _) = best.ok_or_else(|| {
+        first_error.unwrap_or_else(|| MeshError::Geometry("no pull to try".into()))
+    })?;
     // The metal's cavity is the core's with the print's seat.
     let (cavity, core_volume) = match (&seat_end, input.print) {
         (Some(at), Some(p)) => (seated_solid(&cavity, at)?, core_volume + p.volume),

@@ -17,6 +17,9 @@
 //!   cavity facet below the least draft is kept, else the one with the least undercut area, then
 //!   the least area below the least draft (a web face is parallel to a pull normal to its
 //!   chord, so a core bounded by a web drafts only with the pull turned off its chord angles).
+//!   A pull whose parted surface cannot be lofted within the tolerance is passed over; the
+//!   core goes without a casting mould only when no pull can be lofted (with the first one's
+//!   reason).
 //! - **Pouring position.** The block lies on the lower half's back face, the upper half's pull
 //!   pointing up. The **vent** rises from the cavity's highest point in that position (the
 //!   highest vertex of the cavity's mesh; where the hole would reach an end cap or a facet that
