@@ -1,6 +1,6 @@
 //! Small helpers on text shared by every module that names things in messages: the closest
-//! valid name to a misspelt one, and a short excerpt of a runaway value. They sit at the bottom of
-//! the module flow (beside `units`) so that a stage can suggest a name without the file reader.
+//! valid name to a misspelt one, a short excerpt of a runaway value, and JSON as text. They sit at
+//! the bottom of the module flow (beside `units`) so that a stage can suggest a name without the file reader.
 
 /// At most `MAX` characters of a value for a message, with `…` and the full length when cut, so
 /// that a runaway value (a 2 MB number) is not echoed whole.
@@ -23,4 +23,46 @@ pub fn closest<'a>(name: &str, candidates: impl Iterator<Item = &'a str>) -> Opt
         .filter(|(score, _)| *score > 0.75)
         .max_by(|a, b| a.0.total_cmp(&b.0))
         .map(|(_, c)| c.to_string())
+}
+
+/// `value` as pretty-printed JSON text, every negative zero written as `0.0`: a value that is
+/// zero has no sign a reader should act on, and `-0.0` (a clamped root's displacement, an axis
+/// component turned through 180°) reads as one.
+pub fn json_pretty(mut value: serde_json::Value) -> Result<String, serde_json::Error> {
+    unsign_zeros(&mut value);
+    serde_json::to_string_pretty(&value)
+}
+
+fn unsign_zeros(value: &mut serde_json::Value) {
+    use serde_json::Value;
+    match value {
+        Value::Number(n) => {
+            if n.as_f64().is_some_and(|x| x == 0.0 && x.is_sign_negative()) {
+                *value = Value::from(0.0);
+            }
+        }
+        Value::Array(items) => items.iter_mut().for_each(unsign_zeros),
+        Value::Object(map) => map.values_mut().for_each(unsign_zeros),
+        Value::Null | Value::Bool(_) | Value::String(_) => {}
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use serde_json::{Value, json};
+
+    #[test]
+    fn negative_zeros_are_written_as_zero_and_nothing_else_changes() {
+        let v = json!({"a": -0.0, "b": [1.5, -0.0, -2.0, 0], "c": {"d": -0.0, "e": "-0.0"}});
+        let text = json_pretty(v).unwrap();
+        let back: Value = serde_json::from_str(&text).unwrap();
+        assert!(!text.contains("-0.0,") && !text.contains("-0.0\n"), "{text}");
+        assert_eq!(back["b"][2], json!(-2.0));
+        assert_eq!(back["b"][3], json!(0));
+        assert_eq!(back["c"]["e"], json!("-0.0"), "strings are left as they are");
+        for x in [&back["a"], &back["b"][1], &back["c"]["d"]] {
+            assert!(x.as_f64().is_some_and(|x| x == 0.0 && x.is_sign_positive()), "{x}");
+        }
+    }
 }

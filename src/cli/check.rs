@@ -53,7 +53,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let p = &model.project;
     if args.json {
         let doc = check_json(&p.name, &check, &sources.warnings);
-        let text = serde_json::to_string_pretty(&doc)
+        let text = layloft::report::json_pretty(doc)
             .map_err(|e| Failure::Run(anyhow!("cannot format the JSON report: {e}")))?;
         out.data(&text);
     } else {

@@ -208,7 +208,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         LaminateReport::new(config.code.as_str(), config.laminate, config.load, config.delta_t)
             .map_err(|e| Failure::Input(layloft::Error::from(e).into()))?;
     if config.json {
-        let text = serde_json::to_string_pretty(&report.to_json())
+        let text = layloft::report::json_pretty(report.to_json())
             .map_err(|e| Failure::Run(anyhow!("cannot format the JSON report: {e}")))?;
         out.data(&text);
     } else {

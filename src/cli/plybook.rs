@@ -82,7 +82,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         out.warn(&plybook_error_text(e, &sources));
     }
     if args.json {
-        let json = serde_json::to_string_pretty(&plybook_json(
+        let json = layloft::report::json_pretty(plybook_json(
             &book,
             Some(laminate_kg),
             &sources.ply_lines,

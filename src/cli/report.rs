@@ -83,8 +83,8 @@ fn ensure_dir(dir: &Path) -> Result<(), Failure> {
     Ok(layloft::report::ensure_folder(dir)?)
 }
 
-fn json_text(v: &Value) -> Result<String, Failure> {
-    serde_json::to_string_pretty(v).map_err(|e| Failure::Run(anyhow!("cannot format JSON: {e}")))
+fn json_text(v: Value) -> Result<String, Failure> {
+    layloft::report::json_pretty(v).map_err(|e| Failure::Run(anyhow!("cannot format JSON: {e}")))
 }
 
 /// The tooling built, checked and written to `dest.meshes`, with its block for the report; the
@@ -211,7 +211,7 @@ fn write_report_with(
     put(
         "sections.json",
         "section properties at every station (JSON)",
-        json_text(&sections_report.to_json())?.as_bytes(),
+        json_text(sections_report.to_json())?.as_bytes(),
     )?;
     let mut csv = Vec::new();
     sections_report
@@ -222,7 +222,7 @@ fn write_report_with(
         put(
             "stress.json",
             "stress results of every load case (JSON)",
-            json_text(&stress_json(model, &stress))?.as_bytes(),
+            json_text(stress_json(model, &stress))?.as_bytes(),
         )?;
         put(
             "stress-plies.csv",
@@ -237,7 +237,7 @@ fn write_report_with(
         )?;
     }
     let mjson = modal_analysis_json(&modal);
-    put("modes.json", "modes, crossings and margins (JSON)", json_text(&mjson)?.as_bytes())?;
+    put("modes.json", "modes, crossings and margins (JSON)", json_text(mjson)?.as_bytes())?;
     put(
         "campbell.csv",
         "Campbell data, one row per speed and mode (CSV)",
@@ -258,7 +258,7 @@ fn write_report_with(
         mode_shapes_csv(&nominal).as_bytes(),
     )?;
     let cjson = layloft::report::check::check_file_json(&p.name, &check);
-    put("check.json", "the design check (JSON)", json_text(&cjson)?.as_bytes())?;
+    put("check.json", "the design check (JSON)", json_text(cjson)?.as_bytes())?;
 
     // Drawings of the root, mid-span and tip sections.
     let n = model.stations.len();

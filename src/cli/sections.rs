@@ -154,7 +154,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         out.note(&format!("wrote {count} section drawings into {}", dir.display()));
     }
     if args.json {
-        let text = serde_json::to_string_pretty(&report.to_json())
+        let text = layloft::report::json_pretty(report.to_json())
             .map_err(|e| Failure::Run(anyhow!("cannot format the JSON report: {e}")))?;
         out.data(&text);
         for w in &report.warnings {

@@ -77,7 +77,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         write_atomic(path, layloft::report::buckling_svg(&model, &cases).as_bytes())?;
     }
     if args.json {
-        let text = serde_json::to_string_pretty(&stress_json(&model, &cases))
+        let text = layloft::report::json_pretty(stress_json(&model, &cases))
             .map_err(|e| Failure::Run(anyhow!("cannot format the JSON report: {e}")))?;
         out.data(&text);
     } else {

@@ -258,7 +258,7 @@ pub fn build_and_write(
         written.push(w);
     }
     let result = Written { tooling, written, summary, format, stale };
-    let json = serde_json::to_string_pretty(&result.report(&project.name).to_json())
+    let json = layloft::report::json_pretty(result.report(&project.name).to_json())
         .map_err(|e| Failure::Run(anyhow!("cannot format the JSON summary: {e}")))?;
     let mut files: Vec<ManifestEntry> = result
         .written
@@ -359,7 +359,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     )?;
     let report = result.report(&config.project.name);
     if args.json {
-        let json = serde_json::to_string_pretty(&report.to_json())
+        let json = layloft::report::json_pretty(report.to_json())
             .map_err(|e| Failure::Run(anyhow!("cannot format the JSON summary: {e}")))?;
         out.data(&json);
     } else {

@@ -7,7 +7,7 @@ use super::modes::crossings_table;
 use super::stress::critical_table;
 use super::{
     Align, Table, campbell_svg, fixed, mass_svg, mode_shapes_svg, pitch_moment_svg, planform_svg,
-    sig4, stiffness_svg, stress_svg, twist_svg,
+    rpm_text, sig4, stiffness_svg, stress_svg, twist_svg,
 };
 use crate::analysis::BladeModel;
 use crate::check::DesignCheck;
@@ -75,12 +75,12 @@ pub fn blade_report(inp: &ReportInputs<'_>) -> String {
     let r = &p.rotor;
     let mut doc = HtmlReport::new(p.name.clone());
     doc.subtitle(format!(
-        "{} blades, radius {:.3}–{:.3} m, {:.0} rpm nominal, {:.0} rpm maximum",
+        "{} blades, radius {:.3}–{:.3} m, {} rpm nominal, {} rpm maximum",
         r.blades,
         r.hub_radius,
         r.tip_radius,
-        rpm_of(r.omega_nominal),
-        rpm_of(r.omega_max)
+        rpm_text(rpm_of(r.omega_nominal)),
+        rpm_text(rpm_of(r.omega_max))
     ));
     if let Some(d) = &inp.date {
         doc.date(d.clone());
@@ -153,9 +153,9 @@ fn blade_section(doc: &mut HtmlReport, m: &BladeModel) {
         (
             "speeds",
             format!(
-                "{:.0} rpm nominal, {:.0} rpm maximum",
-                rpm_of(r.omega_nominal),
-                rpm_of(r.omega_max)
+                "{} rpm nominal, {} rpm maximum",
+                rpm_text(rpm_of(r.omega_nominal)),
+                rpm_text(rpm_of(r.omega_max))
             ),
         ),
         (
@@ -354,12 +354,12 @@ fn vibration_section(
     s.paragraph(format!(
         "Rotating beam finite elements along the pitch axis with the coupled section stiffness, \
          mass offsets, pretwist, centrifugal stiffening, spin softening and the propeller moment. \
-         {} modes at each of {} speeds from {:.0} to {:.0} rpm, tracked by the modal assurance \
+         {} modes at each of {} speeds from {} to {} rpm, tracked by the modal assurance \
          criterion. Excitations: rotor orders 1P to {}P, the blade-passing orders{}.",
         a.campbell.speeds.first().map_or(0, |s| s.modes.len()),
         a.campbell.speeds.len(),
-        a.range.from.rpm(),
-        a.range.to.rpm(),
+        rpm_text(a.range.from.rpm()),
+        rpm_text(a.range.to.rpm()),
         p.criteria.harmonics,
         if a.excitations.iter().any(|e| !e.vanes.is_empty() || e.fixed.is_some()) {
             " and the machine's own excitations of [excitation]"
@@ -413,9 +413,9 @@ fn vibration_section(
         }
         s.table(
             format!(
-                "Margins at the {} speed, {:.0} rpm{}.",
+                "Margins at the {} speed, {} rpm{}.",
                 check.name,
-                check.speed.rpm(),
+                rpm_text(check.speed.rpm()),
                 check.required.map(|v| format!(" (required {} %)", pct_of(v))).unwrap_or_default()
             ),
             &t,
@@ -428,8 +428,11 @@ fn vibration_section(
     if let Some(set) = nominal {
         s.figure(
             "mode-shapes",
-            format!("The first mode shapes at the nominal speed, {:.0} rpm.", set.speed.rpm()),
-            mode_shapes_svg(set, 4, &format!("Mode shapes at {:.0} rpm", set.speed.rpm())),
+            format!(
+                "The first mode shapes at the nominal speed, {} rpm.",
+                rpm_text(set.speed.rpm())
+            ),
+            mode_shapes_svg(set, 4, &format!("Mode shapes at {} rpm", rpm_text(set.speed.rpm()))),
         );
     }
 }

@@ -44,6 +44,7 @@ mod warnings;
 pub use crate::output::{
     FileSet, SET_LIST, SetOutcome, ensure_folder, remove_leftovers, write_atomic, write_atomic_with,
 };
+pub use crate::text::json_pretty;
 pub use blade::{
     mass_svg, mode_shapes_svg, pitch_moment_svg, planform_svg, stiffness_svg, twist_svg,
 };
@@ -62,6 +63,6 @@ pub use stress::{
     buckling_svg, buckling_table, buckling_warning, not_covered_text, panel_place,
     ply_failure_warning, stress_csv, stress_json, stress_svg, stress_text,
 };
-pub use table::{Align, Table, cautions_text, fixed, sig4};
+pub use table::{Align, Table, cautions_text, fixed, rpm_text, sig4};
 pub use tooling::ToolingReport;
 pub use warnings::plybook_warnings;

@@ -141,6 +141,18 @@ pub fn sig4(v: f64) -> String {
     }
 }
 
+/// A rotor speed in rpm: whole revolutions from 100 rpm up (a fan's 1480 rpm), three
+/// significant digits below (a large rotor's 12.5 rpm, a creep speed's 0.0100 rpm), so that a
+/// slow rotor's speed is not rounded away.
+pub fn rpm_text(rpm: f64) -> String {
+    let a = rpm.abs();
+    if a >= 100.0 || a == 0.0 || !a.is_finite() {
+        fixed(rpm, 0)
+    } else {
+        fixed(rpm, (2 - a.log10().floor() as i32).clamp(0, 6) as usize)
+    }
+}
+
 /// `digits` decimals, without a "-0.00" for a value that rounds to zero.
 pub fn fixed(v: f64, digits: usize) -> String {
     let s = format!("{v:.digits$}");
@@ -153,6 +165,22 @@ pub fn fixed(v: f64, digits: usize) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn rotor_speeds_keep_three_digits_below_100_rpm() {
+        let cases = [
+            (1480.4, "1480"),
+            (100.0, "100"),
+            (99.94, "99.9"),
+            (12.5, "12.5"),
+            (2.0, "2.00"),
+            (0.01, "0.0100"),
+            (0.0, "0"),
+        ];
+        for (rpm, text) in cases {
+            assert_eq!(rpm_text(rpm), text, "{rpm} rpm");
+        }
+    }
 
     #[test]
     fn columns_align_by_kind() {

@@ -73,9 +73,8 @@ pub fn plybook_files(
         files.push((format!("nesting-{}.svg", m.material), nesting_svg(book, m).into_bytes()));
     }
     files.push(("kit.csv".to_string(), plybook_csv(book).into_bytes()));
-    let json =
-        serde_json::to_string_pretty(&plybook_json(book, laminate_mass_kg, ply_lines, warnings))
-            .unwrap_or_default();
+    let json = crate::text::json_pretty(plybook_json(book, laminate_mass_kg, ply_lines, warnings))
+        .unwrap_or_default();
     files.push(("plybook.json".to_string(), json.into_bytes()));
     Ok(files)
 }

@@ -87,11 +87,11 @@ pub fn place_text(place: &Place) -> String {
         Place::Mode { track, frequency_hz, wet, excitation, excitation_hz, speed, rotor_speed } => {
             format!(
                 "{} at {frequency_hz:.1} Hz{} against {} ({excitation_hz:.1} Hz), {speed} speed \
-                 {:.0} rpm",
+                 {} rpm",
                 track.as_deref().unwrap_or("a mode"),
                 if *wet { " (wet)" } else { "" },
                 excitation.label(),
-                rotor_speed.rpm(),
+                crate::report::rpm_text(rotor_speed.rpm()),
             )
         }
         Place::Mass { laminate_kg, point_masses_kg } => {

@@ -36,6 +36,9 @@ pub fn mode_shapes_csv(set: &ModeSet) -> String {
     for (i, m) in set.modes.iter().enumerate() {
         let track = m.track.map(|t| t.to_string()).unwrap_or_default();
         let sh = &m.shape;
+        // Adding +0 writes a negative zero (the clamped root's displacements) as 0 and leaves
+        // every other value as it is.
+        let v = |x: f64| x + 0.0;
         for n in 0..sh.r.len() {
             let _ = writeln!(
                 s,
@@ -44,10 +47,10 @@ pub fn mode_shapes_csv(set: &ModeSet) -> String {
                 m.frequency_hz,
                 m.kind.name(),
                 sh.r[n],
-                sh.axial[n],
-                sh.in_plane[n],
-                sh.out_of_plane[n],
-                sh.twist[n]
+                v(sh.axial[n]),
+                v(sh.in_plane[n]),
+                v(sh.out_of_plane[n]),
+                v(sh.twist[n])
             );
         }
     }

@@ -3,7 +3,7 @@
 use std::fmt::Write as _;
 
 use crate::modal::ModalAnalysis;
-use crate::report::{Align, Table, fixed, sig4};
+use crate::report::{Align, Table, fixed, rpm_text, sig4};
 use crate::units::pct_of;
 
 /// Frequencies at standstill and at the checked speeds, the margins with their verdicts, and
@@ -17,11 +17,11 @@ pub fn modal_text(project: &str, a: &ModalAnalysis) -> String {
     let mut headers: Vec<(String, Align)> =
         vec![("track".into(), Align::Right), ("mode".into(), Align::Left)];
     if let Some(s) = first {
-        headers.push((format!("f at {} rpm (Hz)", fixed(s.speed.rpm(), 0)), Align::Right));
+        headers.push((format!("f at {} rpm (Hz)", rpm_text(s.speed.rpm())), Align::Right));
     }
     for m in &a.margins {
         headers
-            .push((format!("f at {} {} rpm (Hz)", m.name, fixed(m.speed.rpm(), 0)), Align::Right));
+            .push((format!("f at {} {} rpm (Hz)", m.name, rpm_text(m.speed.rpm())), Align::Right));
         headers.push(("nearest".into(), Align::Left));
         headers.push(("margin (%)".into(), Align::Right));
     }
@@ -85,22 +85,22 @@ pub fn modal_text(project: &str, a: &ModalAnalysis) -> String {
             }
             _ => "no margin required ([criteria] frequency_margin_pct)".to_string(),
         };
-        let _ = writeln!(out, "  at {} speed ({} rpm): {verdict}", m.name, fixed(m.speed.rpm(), 0));
+        let _ = writeln!(out, "  at {} speed ({} rpm): {verdict}", m.name, rpm_text(m.speed.rpm()));
     }
     let _ = writeln!(out);
     if a.crossings.is_empty() {
         let _ = writeln!(
             out,
             "No mode crosses an excitation line between {} and {} rpm.",
-            fixed(a.range.from.rpm(), 0),
-            fixed(a.range.to.rpm(), 0)
+            rpm_text(a.range.from.rpm()),
+            rpm_text(a.range.to.rpm())
         );
     } else {
         let _ = writeln!(
             out,
             "Crossings of modes with excitation lines between {} and {} rpm:",
-            fixed(a.range.from.rpm(), 0),
-            fixed(a.range.to.rpm(), 0)
+            rpm_text(a.range.from.rpm()),
+            rpm_text(a.range.to.rpm())
         );
         let t = crossings_table(a);
         out.push_str(&t.render(2));
@@ -129,7 +129,7 @@ pub fn crossings_table(a: &ModalAnalysis) -> Table {
             (c.track + 1).to_string(),
             label,
             exc,
-            fixed(c.speed.rpm(), 0),
+            rpm_text(c.speed.rpm()),
             sig4(c.frequency_hz),
         ]);
     }
@@ -187,8 +187,8 @@ pub fn dry_table(a: &ModalAnalysis) -> Table {
     let mut headers: Vec<(String, Align)> =
         vec![("track".into(), Align::Right), ("mode".into(), Align::Left)];
     for d in &a.dry {
-        headers.push((format!("dry at {} rpm", fixed(d.speed.rpm(), 0)), Align::Right));
-        headers.push((format!("wet at {} rpm", fixed(d.speed.rpm(), 0)), Align::Right));
+        headers.push((format!("dry at {} rpm", rpm_text(d.speed.rpm())), Align::Right));
+        headers.push((format!("wet at {} rpm", rpm_text(d.speed.rpm())), Align::Right));
     }
     let refs: Vec<(&str, Align)> = headers.iter().map(|(h, a)| (h.as_str(), *a)).collect();
     let mut t = Table::new(&refs);

@@ -4,7 +4,7 @@
 use std::fmt::Write as _;
 
 use crate::analysis::BladeModel;
-use crate::report::{Align, Table, fixed, sig4};
+use crate::report::{Align, Table, fixed, rpm_text, sig4};
 use crate::stress::{CaseStress, PanelResult, WallLocation};
 use crate::units::rpm_of;
 
@@ -24,7 +24,7 @@ pub fn critical_table(cases: &[CaseStress]) -> Table {
         match &c.critical {
             Some(k) => t.row(vec![
                 c.name.clone(),
-                fixed(rpm_of(c.omega), 0),
+                rpm_text(rpm_of(c.omega)),
                 fixed(c.load_factor, 2),
                 fixed(k.reserve_factor, 2),
                 fixed(k.r, 3),
@@ -33,7 +33,7 @@ pub fn critical_table(cases: &[CaseStress]) -> Table {
                 format!("{}, {}", k.criterion.label(), k.mode.label()),
             ]),
             None => {
-                let rpm = fixed(rpm_of(c.omega), 0);
+                let rpm = rpm_text(rpm_of(c.omega));
                 t.row(vec![c.name.clone(), rpm, fixed(c.load_factor, 2), "none".into()])
             }
         }

@@ -37,6 +37,7 @@ use std::fmt::Write as _;
 use super::laminate_label;
 use crate::analysis::AnalysisStation;
 use crate::blade::Blade;
+use crate::report::fixed;
 use shapes::{Frame, INK, colour, esc, n, scale_length, symbol, wrap_lines};
 
 /// File names for drawings of sections at `radii` (m): `section-r0.600.svg`, with more decimals
@@ -107,7 +108,8 @@ fn drawing(project: &str, blade: &Blade, st: &AnalysisStation, text_px: Option<f
         };
         legend.push((Some(k), 0, format!("{place}{}", laminate_label(blade, st, k))));
     }
-    let at = |c: [f64; 2]| format!("y = {:.1} mm, z = {:.1} mm", c[0] * 1e3, c[1] * 1e3);
+    let at =
+        |c: [f64; 2]| format!("y = {} mm, z = {} mm", fixed(c[0] * 1e3, 1), fixed(c[1] * 1e3, 1));
     legend.push((None, 0, "pitch axis (origin of y, z) and chord line".into()));
     legend.push((None, 1, format!("elastic centre, {}", at(p.elastic_centre))));
     legend.push((None, 2, format!("shear centre, {}", at(p.shear_centre))));
