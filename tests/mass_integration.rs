@@ -41,28 +41,9 @@ fn a_tube_blade_weighs_its_ring_not_its_outer_surface() {
     // from r = 0.20 m to 1.20 m. Its laminate is a ring: ρ π (R_o² − R_i²) L (geometry), where
     // the outer surface times the wall would give ρ 2π R_o t L, 2 % more.
     let dir = tempfile::tempdir().unwrap();
-    let write = |name: &str, text: &str| std::fs::write(dir.path().join(name), text).unwrap();
-    write(
-        "blade.toml",
-        "name = \"tube\"\n[rotor]\nblades = 2\nhub_radius_m = 0.20\ntip_radius_m = 1.20\n\
-         rpm_nominal = 600\nrpm_max = 1000\n[sections]\ncontour_points = 400\n",
-    );
-    let mut stations = String::from("r_m,chord_m,twist_deg,pitch_axis_frac,airfoil\n");
-    for r in [0.20, 0.45, 0.70, 0.95, 1.20] {
-        stations += &format!("{r},0.100,0,0.5,circle\n");
-    }
-    write("stations.csv", &stations);
-    write(
-        "plies.csv",
-        "ply,material,angle_deg,r_start_m,r_end_m,region,from,to\n\
-         p1,al,0,0.20,1.20,both,0,1\np2,al,0,0.20,1.20,both,0,1\n",
-    );
-    write(
-        "materials.toml",
-        "[isotropic.al]\nE_GPa = 70\nnu = 0.3\ndensity_kg_m3 = 2700\nply_thickness_mm = 1.0\n\
-         tensile_strength_MPa = 300\ncompressive_strength_MPa = 300\nshear_strength_MPa = 170\n",
-    );
-    let model = BladeModel::build(read_project(&dir.path().join("blade.toml")).unwrap()).unwrap();
+    let plies = "p1,al,0,0.20,1.20,both,0,1\np2,al,0,0.20,1.20,both,0,1\n";
+    let project = crate::common::tube_project(dir.path(), plies, "");
+    let model = BladeModel::build(read_project(&project).unwrap()).unwrap();
     let (ro, ri, length) = (0.05_f64, 0.048_f64, 1.0);
     let ring = 2700.0 * std::f64::consts::PI * (ro * ro - ri * ri) * length;
     let m = model.mass().laminate_kg;

@@ -101,15 +101,17 @@ impl BucklingMode {
 }
 
 /// The load multiplier `lambda` with `lambda R_c + lambda² R_s² = 1` (infinite when neither
-/// ratio is positive).
+/// ratio is positive). The positive root is taken as `2 / (R_c + sqrt(R_c² + 4 R_s²))`, the
+/// form without cancellation: the textbook `(-R_c + sqrt(R_c² + 4 R_s²)) / (2 R_s²)` loses every
+/// digit when `R_s²` is below round-off of `R_c²`, and gave 0 for a compressed panel with a
+/// trace of shear.
 pub fn interaction_factor(r_c: f64, r_s: f64) -> f64 {
     let r_c = r_c.max(0.0);
     let r_s = r_s.abs();
-    if r_s <= 0.0 {
-        return if r_c > 0.0 { 1.0 / r_c } else { f64::INFINITY };
+    if r_c == 0.0 && r_s == 0.0 {
+        return f64::INFINITY;
     }
-    let s2 = r_s * r_s;
-    (-r_c + (r_c * r_c + 4.0 * s2).sqrt()) / (2.0 * s2)
+    2.0 / (r_c + (r_c * r_c + 4.0 * r_s * r_s).sqrt())
 }
 
 /// A panel's check under one load case.
@@ -193,5 +195,18 @@ mod tests {
         let (rc, rs) = (0.4, 0.7);
         let l = interaction_factor(rc, rs);
         assert!((l * rc + (l * rs).powi(2) - 1.0).abs() < 1e-12);
+    }
+
+    /// A compressed panel with a trace of shear (R_s² below round-off of R_c²) buckles at the
+    /// compression alone, 1/R_c; the textbook root gave 0 there.
+    #[test]
+    fn a_trace_of_shear_leaves_the_compression_factor() {
+        for (rc, rs) in [(5.66, 1e-14), (0.3, 1e-9), (2.0, 1e-6)] {
+            let l = interaction_factor(rc, rs);
+            assert!((l * rc - 1.0).abs() < 1e-11, "{rc} {rs}: {l}");
+            assert!((l * rc + (l * rs).powi(2) - 1.0).abs() < 1e-12);
+        }
+        // Shear alone: 1/R_s, however small.
+        assert!((interaction_factor(0.0, 1e-12) * 1e-12 - 1.0).abs() < 1e-12);
     }
 }

@@ -307,8 +307,15 @@ pub fn model_panels(model: &BladeModel) -> Vec<Vec<Arc<Panel>>> {
         .collect()
 }
 
+/// Wall resultants below this fraction of the station's largest (`N_x` or `N_xs`, N/m) are the
+/// section solve's round-off (a tube in pure tension carries some 1e-17 of its tension as shear
+/// flow) and are taken as zero by the panel checks: a reserve factor against them would be a
+/// number like 2e9 that measures the round-off, at a place it picks.
+const RESULTANT_ROUND_OFF: f64 = 1e-9;
+
 /// The panel checks of one station from the wall resultants `(N_x, N_xs)` of each element
-/// (indexed by element; an element without a point reads as unloaded).
+/// (indexed by element; an element without a point reads as unloaded; resultants within
+/// [`RESULTANT_ROUND_OFF`] of the station's largest read as zero).
 fn check_station(
     st: &crate::analysis::AnalysisStation,
     panels: &[Arc<Panel>],
@@ -316,6 +323,10 @@ fn check_station(
 ) -> StationBuckling {
     let elements = st.section.elements();
     let locator = Locator::new(&st.layout);
+    let largest =
+        by_element.iter().flatten().fold(0.0_f64, |m, &(nx, nxs)| m.max(nx.abs()).max(nxs.abs()));
+    let floor = RESULTANT_ROUND_OFF * largest;
+    let clean = |v: f64| if v.abs() <= floor { 0.0 } else { v };
     let mut res: Vec<(f64, f64)> = Vec::new();
     let results = panels
         .iter()
@@ -325,7 +336,8 @@ fn check_station(
                 panel
                     .elements
                     .iter()
-                    .map(|&k| by_element.get(k).copied().flatten().unwrap_or((0.0, 0.0))),
+                    .map(|&k| by_element.get(k).copied().flatten().unwrap_or((0.0, 0.0)))
+                    .map(|(nx, nxs)| (clean(nx), clean(nxs))),
             );
             let at = |k: usize| {
                 let e = &elements[k];

@@ -274,3 +274,35 @@ pub fn mine_fan_with_rear_web(
     }
     dir.join("blade.toml")
 }
+
+/// Writes an invented blade project into `dir`: a round aluminium tube, 100 mm outside, from
+/// r = 0.20 to 1.20 m, 400 contour points; its `plies` (the rows of `plies.csv` after the
+/// header, each ply 1 mm of material `al`: E 70 GPa, ν 0.3, 2700 kg/m³, strengths 300, 300 and
+/// 170 MPa) and `extra` appended to `blade.toml` (load cases, criteria, settings). Returns the
+/// path of `blade.toml`.
+pub fn tube_project(dir: &std::path::Path, plies: &str, extra: &str) -> std::path::PathBuf {
+    let write = |name: &str, text: &str| std::fs::write(dir.join(name), text).unwrap();
+    write(
+        "blade.toml",
+        &format!(
+            "name = \"tube (invented)\"\n[rotor]\nblades = 2\nhub_radius_m = 0.20\n\
+             tip_radius_m = 1.20\nrpm_nominal = 600\nrpm_max = 1000\n[sections]\n\
+             contour_points = 400\n{extra}"
+        ),
+    );
+    let mut stations = String::from("r_m,chord_m,twist_deg,pitch_axis_frac,airfoil\n");
+    for r in [0.20, 0.45, 0.70, 0.95, 1.20] {
+        stations += &format!("{r},0.100,0,0.5,circle\n");
+    }
+    write("stations.csv", &stations);
+    write(
+        "plies.csv",
+        &format!("ply,material,angle_deg,r_start_m,r_end_m,region,from,to\n{plies}"),
+    );
+    write(
+        "materials.toml",
+        "[isotropic.al]\nE_GPa = 70\nnu = 0.3\ndensity_kg_m3 = 2700\nply_thickness_mm = 1.0\n\
+         tensile_strength_MPa = 300\ncompressive_strength_MPa = 300\nshear_strength_MPa = 170\n",
+    );
+    dir.join("blade.toml")
+}
