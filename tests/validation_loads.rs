@@ -198,3 +198,50 @@ fn buoyancy_takes_the_displaced_weight_off_the_gravity_load() {
     let loads = span_loads(&LoadDistribution::new(&sections, &[], &c, Angle::ZERO).unwrap());
     assert_eq!(loads.root().force[2], 0.0);
 }
+
+#[test]
+fn a_load_over_part_of_the_span_with_steps_at_its_ends() {
+    // A uniform load w from r_a to r_b (steps from zero at both ends, between the sections):
+    // statics gives at a cut r <= r_a the shear V = w (r_b - r_a) and the moment
+    // M = w (r_b - r_a) ((r_a + r_b) / 2 - r) (the resultant at the load's centroid); a
+    // self-balancing couple (+w on one half of a stretch, -w on the other) gives no shear and
+    // the moment w (d/2)² at any cut inboard of it (d the stretch's length). Before, each step at
+    // a table's end added a force of w h / 24 (h the grid interval there): shear 1208.3 N
+    // against 1200 N for the first, and -416.7 N for the couple.
+    let (r0, r1) = (0.2, 1.2);
+    let sections = uniform_blade(r0, r1, 11, |r| plain(r, 1e-9));
+    let (w, ra, rb) = (2000.0, 0.6, 1.2);
+    let mut c = case(0.0);
+    c.distributed = vec![
+        DistributedLoadRow { r: ra, f_flap: w, f_edge: 0.0, m_pitch: 0.0 },
+        DistributedLoadRow { r: rb, f_flap: w, f_edge: 0.0, m_pitch: 0.0 },
+    ];
+    let loads = span_loads(&LoadDistribution::new(&sections, &[], &c, Angle::ZERO).unwrap());
+    for (r, res) in loads.r.iter().zip(&loads.rotor).filter(|(r, _)| **r <= ra + 1e-12) {
+        let v = w * (rb - ra);
+        assert_relative_eq!(res.force[2], v, max_relative = 1e-12);
+        assert_relative_eq!(res.moment[1].abs(), v * (0.5 * (ra + rb) - r), max_relative = 1e-12);
+    }
+    // The couple: +w over [1.0, 1.1], -w over [1.1, 1.2] (a step inside the table, on its own
+    // rows 0.2 mm apart, and steps from zero at both ends).
+    c.distributed = vec![
+        DistributedLoadRow { r: 1.0, f_flap: -w, f_edge: 0.0, m_pitch: 0.0 },
+        DistributedLoadRow { r: 1.0999, f_flap: -w, f_edge: 0.0, m_pitch: 0.0 },
+        DistributedLoadRow { r: 1.1001, f_flap: w, f_edge: 0.0, m_pitch: 0.0 },
+        DistributedLoadRow { r: 1.2, f_flap: w, f_edge: 0.0, m_pitch: 0.0 },
+    ];
+    let loads = span_loads(&LoadDistribution::new(&sections, &[], &c, Angle::ZERO).unwrap());
+    // Exact couple of the table as given (the linear ramp over 0.2 mm included): the moment of
+    // each part about the cut, summed; the lever arms cancel the cut's position.
+    let part = |a: f64, b: f64, fa: f64, fb: f64| {
+        // ∫ f(x) (x - r) dx for linear f, at r = 0 (the net force is zero, so r drops out).
+        let (h, s) = (b - a, fb - fa);
+        fa * (b * b - a * a) / 2.0
+            + s / h * ((b.powi(3) - a.powi(3)) / 3.0 - a * (b * b - a * a) / 2.0)
+    };
+    let couple = part(1.0, 1.0999, -w, -w) + part(1.0999, 1.1001, -w, w) + part(1.1001, 1.2, w, w);
+    for (_, res) in loads.r.iter().zip(&loads.rotor).filter(|(r, _)| **r <= 1.0 + 1e-12) {
+        assert!(res.force[2].abs() < 1e-9, "no shear inboard of a couple: {}", res.force[2]);
+        assert_relative_eq!(res.moment[1].abs(), couple.abs(), max_relative = 1e-9);
+    }
+}

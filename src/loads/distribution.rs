@@ -74,8 +74,19 @@ fn buoyant_at(sections: &[crate::project::BuoyantSection], r: f64) -> (f64, [f64
     }
 }
 
-fn external_at(rows: &[DistributedLoadRow], r: f64) -> (f64, f64, f64) {
-    if rows.len() < 2 || r < rows[0].r - 1e-12 || r > rows[rows.len() - 1].r + 1e-12 {
+fn external_at(rows: &[DistributedLoadRow], r: f64, within: [f64; 2]) -> (f64, f64, f64) {
+    // The table's ends are points of the integration grid, so an interval lies wholly inside
+    // the table or wholly outside it; the load on an interval outside is zero up to its end,
+    // where the table's first or last row would otherwise count (a step at a table's end gave
+    // a spurious force of the step times a twenty-fourth of the interval).
+    let (first, last) = match rows {
+        [first, .., last] => (first.r, last.r),
+        _ => return (0.0, 0.0, 0.0),
+    };
+    if within[0] < first - 1e-12 || within[1] > last + 1e-12 {
+        return (0.0, 0.0, 0.0);
+    }
+    if r < first - 1e-12 || r > last + 1e-12 {
         return (0.0, 0.0, 0.0);
     }
     let i = rows.partition_point(|row| row.r <= r).clamp(1, rows.len() - 1);
@@ -186,10 +197,11 @@ impl<'a> LoadDistribution<'a> {
         mass_at(self.sections, r).twist + self.pitch.rad()
     }
 
-    /// The factored line load at `r`: centrifugal and gravity on the section's mass centre, the
-    /// centrifugal twisting moment of its mass distribution, and the external loads on the pitch
-    /// axis.
-    pub(super) fn line_load(&self, r: f64) -> LineLoad {
+    /// The factored line load at `r` on the grid interval `within` (its limit from inside the
+    /// interval where the load file starts or ends with a step): centrifugal and gravity on the
+    /// section's mass centre, the centrifugal twisting moment of its mass distribution, and the
+    /// external loads on the pitch axis.
+    pub(super) fn line_load(&self, r: f64, within: [f64; 2]) -> LineLoad {
         let s = mass_at(self.sections, r);
         let phi = s.twist + self.pitch.rad();
         let (sn, cs) = phi.sin_cos();
@@ -202,7 +214,7 @@ impl<'a> LoadDistribution<'a> {
         let (s2, c2) = (2.0 * phi).sin_cos();
         let i_yz_rotor = 0.5 * (s.i_yy - s.i_zz) * s2 + s.i_yz * c2;
         let ctm = -w2 * i_yz_rotor;
-        let (flap, edge, m_pitch) = external_at(&self.case.distributed, r);
+        let (flap, edge, m_pitch) = external_at(&self.case.distributed, r, within);
         // The inertial force acts on the mass centre and the external force on the pitch axis.
         // Both are carried as one force on the mass-centre line; since the external force has no
         // X part, that changes only the torque about X, which `mx` corrects by the external

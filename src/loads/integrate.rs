@@ -112,7 +112,7 @@ pub fn span_loads(dist: &LoadDistribution<'_>) -> SpanLoads {
             for j in 0..SUB {
                 let lo = a + h * j as f64;
                 for (rho, w) in [(lo, 1.0), (lo + 0.5 * h, 4.0), (lo + h, 1.0)] {
-                    let l = dist.line_load(rho);
+                    let l = dist.line_load(rho, [a, b]);
                     add(&mut acc.force, l.f, w * h / 6.0);
                     add(&mut acc.moment, moment_density(&l, rho, a), w * h / 6.0);
                 }
