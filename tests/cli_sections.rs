@@ -77,12 +77,36 @@ const STATION_KEYS: [&str; 33] = [
     "stiffness_matrix_pitch_axis_SI",
 ];
 
+/// The model's stations: the evenly spaced analysis stations, and both sides of every ply or web
+/// edge inside the span (a ply covers its span up to, not including, its end: the station at
+/// the edge is the one outboard of it, one 1e-4 of the span inboard the one inside). A drop-off
+/// between two evenly spaced stations would leave its thinner side unchecked.
+fn check_edges_have_both_sides(m: &layloft::analysis::BladeModel) {
+    let radii = m.radii();
+    let (root, tip) = (m.blade.root_radius(), m.blade.tip_radius());
+    let delta = 1e-4 * (tip - root);
+    let has = |r: f64| radii.iter().any(|&x| (x - r).abs() < 1e-9 * (tip - root));
+    for r in m.blade.analysis_radii(m.project.sections.analysis_stations) {
+        assert!(has(r), "the analysis station at {r} m");
+    }
+    let plies =
+        (0..m.blade.ply_count()).filter_map(|k| m.blade.ply(k)).map(|p| [p.r_start, p.r_end]);
+    let webs = m.blade.webs().iter().map(|w| [w.r_start, w.r_end]);
+    let mut edges = 0;
+    for e in plies.chain(webs).flatten().filter(|&e| e - delta > root && e < tip) {
+        assert!(has(e) && has(e - delta), "both sides of the edge at {e} m: {radii:?}");
+        edges += 1;
+    }
+    assert!(edges > 0, "the demos drop plies inside the span");
+    assert!(radii.windows(2).all(|w| w[0] < w[1]), "radii in order, each once");
+}
+
 /// Every station of a JSON report: keys present, values the library's, laws obeyed.
 fn check_stations(project: &str, v: &Value) {
     let m = model(project);
     let stations = v["stations"].as_array().unwrap();
     assert_eq!(stations.len(), m.stations.len());
-    assert_eq!(stations.len(), m.project.sections.analysis_stations);
+    check_edges_have_both_sides(&m);
     for (s, st) in stations.iter().zip(&m.stations) {
         let p = &st.section.properties;
         for key in STATION_KEYS {
@@ -211,7 +235,7 @@ fn text_summary_shows_cautions_mass_stations_and_grouped_warnings() {
         let p = &st.section.properties;
         let row = out
             .lines()
-            .find(|l| l.trim_start().starts_with(&format!("{:.4} ", p.r)))
+            .find(|l| l.trim_start().starts_with(&format!("{:.5} ", p.r)))
             .unwrap_or_else(|| panic!("no row for r = {}:\n{out}", p.r));
         assert!(row.contains(&layloft::report::sig4(p.ea / 1e6)), "{row}");
         let ec = p.elastic_centre[0] / p.chord + st.layout.pitch_axis_frac;

@@ -95,7 +95,7 @@ impl BladeModel {
         progress: &mut dyn FnMut(usize, usize),
     ) -> Result<Self, AnalysisError> {
         let blade = Blade::from_project(&project)?;
-        let radii = blade.analysis_radii(project.sections.analysis_stations);
+        let radii = blade.check_radii(project.sections.analysis_stations);
         Self::solve_at(project, blade, &radii, progress)
     }
 
@@ -219,7 +219,7 @@ impl BladeModel {
         };
         let factors: Vec<(f64, f64)> = self
             .blade
-            .analysis_radii(self.project.sections.analysis_stations)
+            .check_radii(self.project.sections.analysis_stations)
             .into_iter()
             .filter_map(|r| {
                 let row = self.blade.content_row(r, crate::blade::SURFACE_INTERVALS).ok()?;

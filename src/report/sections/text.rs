@@ -55,7 +55,9 @@ pub(super) fn report(r: &SectionsReport<'_>) -> String {
         let p = &st.section.properties;
         let yc = |y: f64| fixed(y / p.chord + st.layout.pitch_axis_frac, 3);
         table.row(vec![
-            fixed(p.r, 4),
+            // Five decimals: the inboard side of a ply or web edge stands 1e-4 of the span
+            // inboard of it (`Blade::check_radii`), 0.05 mm on a 0.5 m span.
+            fixed(p.r, 5),
             fixed(p.chord, 4),
             fixed(p.twist.deg(), 2),
             sig4(p.ea / 1e6),
