@@ -4,10 +4,11 @@
 
 use crate::modal_support::*;
 use layloft::modal::{
-    BeamModel, BeamSection, LanczosParams, ModalError, ModeKind, SpeedRange, excitation_orders,
-    mac, solve_dense, solve_lowest,
+    BeamModel, BeamSection, LanczosParams, ModalAnalysis, ModalError, ModeKind, SpeedRange,
+    excitation_orders, mac, solve_dense, solve_lowest,
 };
 use layloft::output::export_matrix_market;
+use layloft::project::Criteria;
 use layloft::section::MassInertia;
 use layloft::units::{RotorSpeed, rpm_of};
 
@@ -308,4 +309,46 @@ fn massless_degrees_of_freedom_give_no_modes() {
         "{e}"
     );
     assert!(e.is_input());
+}
+
+/// A crossing between the nominal and the maximum speed fails the margin check: the rotor runs
+/// at every speed from the one to the other (a margin is demanded at the maximum). The uniform
+/// unit beam of the crossing test: flap 1 meets 2P where a bisection on directly solved modes
+/// puts it (as there); a rotor with that speed between its nominal and maximum has a least
+/// margin of 0 there, though the margins at both ends clear 10 %. Before, only the two ends were
+/// checked and the rotor passed.
+#[test]
+fn a_crossing_between_the_nominal_and_the_maximum_speed_fails_the_margin() {
+    let beam = BeamSection::uniform(0.0, 1e8, 1e6, 1.0, 1e4, 1.0);
+    let probe = rotor(2, 20.0 / RAD_S_PER_RPM, 24.0 / RAD_S_PER_RPM, 0.0);
+    let model = BeamModel::new(&uniform(&beam, 0.0, 1.0), &probe, &spec(30)).unwrap();
+    let g = |rpm: f64| {
+        model.modes(RotorSpeed::from_rpm(rpm), 1).unwrap().modes[0].frequency_hz - 2.0 * rpm / 60.0
+    };
+    let (mut lo, mut hi) = (0.0, rpm_of(probe.omega_max));
+    for _ in 0..50 {
+        let mid = 0.5 * (lo + hi);
+        if g(mid) > 0.0 { lo = mid } else { hi = mid }
+    }
+    let crossing = lo;
+    // Nominal 30 % below the crossing, maximum 30 % above: flap 1 stands well off 2P at both.
+    let r = rotor(2, 0.7 * crossing, 1.3 * crossing, 0.0);
+    let criteria = Criteria { frequency_margin: Some(0.1), harmonics: 2, ..Criteria::default() };
+    let sections = uniform(&beam, 0.0, 1.0);
+    let run =
+        ModalAnalysis::run(&sections, &r, &spec(30), &criteria, None, Some(4), &mut |_, _| {})
+            .unwrap();
+    let least = |m: &layloft::modal::MarginCheck| {
+        m.modes.iter().map(|x| x.margin).fold(f64::INFINITY, f64::min)
+    };
+    let ends: Vec<_> = run.margins.iter().filter(|m| m.name != "running").collect();
+    assert_eq!(ends.len(), 2);
+    assert!(ends.iter().all(|m| least(m) > 0.1 && m.pass == Some(true)), "{ends:?}");
+    let running = run.margins.iter().find(|m| m.name == "running").expect("the running check");
+    // The crossing's speed, found by linear interpolation along the sweep (< 0.1 %, as in the
+    // crossing test), with the margin of a mode on its excitation line.
+    assert!((running.speed.rpm() / crossing - 1.0).abs() < 1e-3, "{:?}", running.speed);
+    assert!(least(running) < 1e-9, "{running:?}");
+    assert_eq!(running.pass, Some(false));
+    assert_eq!(run.pass(), Some(false));
 }

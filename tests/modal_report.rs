@@ -124,7 +124,16 @@ fn the_whole_stage_runs_in_one_call_and_gives_a_verdict() {
     assert_eq!(calls, 61);
     assert_eq!(run.campbell.speeds.len(), 61);
     assert!(run.campbell.speeds.iter().all(|s| s.modes.len() == 5));
-    assert_eq!(run.margins.len(), 2);
+    // The nominal and the maximum speed, and the speed between them where the least margin is
+    // smaller than at both (this blade has one: a third check).
+    let names: Vec<&str> = run.margins.iter().map(|m| m.name.as_str()).collect();
+    assert_eq!(names, ["nominal", "maximum", "running"]);
+    let least = |m: &layloft::modal::MarginCheck| {
+        m.modes.iter().map(|x| x.margin).fold(f64::INFINITY, f64::min)
+    };
+    assert!(least(&run.margins[2]) < least(&run.margins[0]).min(least(&run.margins[1])));
+    let (lo, hi) = (run.margins[0].speed, run.margins[1].speed);
+    assert!(run.margins[2].speed > lo && run.margins[2].speed < hi);
     let all_pass = run.margins.iter().all(|m| m.modes.iter().all(|x| x.margin >= 0.03));
     assert_eq!(run.pass(), Some(all_pass));
     // No margin asked: no verdict. A range below the nominal speed: no margins checked there.

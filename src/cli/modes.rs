@@ -8,7 +8,8 @@ use anyhow::anyhow;
 use layloft::modal::SpeedRange;
 use layloft::output::export_matrix_market;
 use layloft::report::{
-    campbell_csv, campbell_svg, modal_analysis_json, modal_text, mode_shapes_csv, write_atomic,
+    campbell_csv, campbell_svg, modal_analysis_json, modal_text, mode_shapes_csv, rpm_text,
+    write_atomic,
 };
 use layloft::units::{RotorSpeed, rpm_of};
 
@@ -107,6 +108,22 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         )));
     }
     let analysis = run_modal(&model, &sources, out, range, args.modes)?;
+    // A sweep of its own (`--rpm`) that leaves out a design speed checks no margin there: say so,
+    // rather than let a missing margin pass for a clear one.
+    let outside: Vec<String> = [("nominal", p.rotor.omega_nominal), ("maximum", p.rotor.omega_max)]
+        .into_iter()
+        .filter(|(name, _)| !analysis.margins.iter().any(|m| m.name == *name))
+        .map(|(name, w)| format!("the {name} speed ({} rpm)", rpm_text(rpm_of(w))))
+        .collect();
+    if !outside.is_empty() {
+        out.warn(&format!(
+            "the sweep from {} to {} rpm does not reach {}: no frequency margin is checked there \
+             (sweep a range that holds it, or leave out --rpm)",
+            rpm_text(analysis.range.from.rpm()),
+            rpm_text(analysis.range.to.rpm()),
+            outside.join(" or ")
+        ));
+    }
     let title = format!("Campbell diagram — {}", p.name);
     let rpm_nominal = rpm_of(p.rotor.omega_nominal);
     if let Some(path) = &args.svg {
@@ -148,7 +165,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     }
     if args.json {
         let json = modal_analysis_json(&analysis);
-        let text = serde_json::to_string_pretty(&json)
+        let text = layloft::report::json_pretty(json)
             .map_err(|e| Failure::Run(anyhow!("cannot format the JSON report: {e}")))?;
         out.data(&text);
     } else {

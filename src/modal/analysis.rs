@@ -58,12 +58,52 @@ pub struct ModalAnalysis {
     pub excitations: Vec<Excitation>,
     /// Every crossing inside the sweep.
     pub crossings: Vec<Crossing>,
-    /// Margins at the nominal and maximum speeds (those inside the sweep).
+    /// Margins at the nominal and maximum speeds (those inside the sweep), and at the speed
+    /// between them with a smaller least margin than both, if any ([`RUNNING`]).
     pub margins: Vec<MarginCheck>,
     /// With a fluid: the dry frequencies at the first sweep speed and the checked speeds (the
     /// sweep, crossings and margins are wet). Empty without a fluid.
     pub dry: Vec<DryComparison>,
 }
+
+/// The least margin strictly between the nominal and the maximum speed, where the rotor runs
+/// on its way from one to the other (a margin is demanded at the maximum speed, so the rotor is
+/// taken to run there and at every speed below it down to the nominal): the margins at every
+/// sweep speed inside the band and at every crossing inside it (a mode on an excitation line,
+/// margin 0), the speed with the least margin named `running`. `None` when the band holds no
+/// such speed or none has a margin below the least at both ends (then the ends govern, as the
+/// margins of a mode that draws away from or towards its excitation over the band do).
+fn running_margins(
+    campbell: &Campbell,
+    excitations: &[Excitation],
+    crossings: &[Crossing],
+    [nominal, max]: [RotorSpeed; 2],
+    required: Option<f64>,
+    ends: &[MarginCheck],
+) -> Result<Option<MarginCheck>, ModalError> {
+    let least = |m: &MarginCheck| m.modes.iter().map(|mm| mm.margin).fold(f64::INFINITY, f64::min);
+    let tol = max.tolerance(1e-9);
+    let inside = |s: RotorSpeed| s > nominal + tol && s < max - tol;
+    let speeds = campbell
+        .speeds
+        .iter()
+        .map(|set| set.speed)
+        .chain(crossings.iter().map(|c| c.speed))
+        .filter(|&s| inside(s));
+    let mut worst: Option<(f64, MarginCheck)> = None;
+    for speed in speeds {
+        let check = campbell.margins(excitations, RUNNING, speed, required)?;
+        let m = least(&check);
+        if worst.as_ref().is_none_or(|(w, _)| m < *w) {
+            worst = Some((m, check));
+        }
+    }
+    let at_ends = ends.iter().map(least).fold(f64::INFINITY, f64::min);
+    Ok(worst.filter(|(m, _)| *m < at_ends).map(|(_, check)| check))
+}
+
+/// The name of the margin check between the nominal and the maximum speed.
+pub const RUNNING: &str = "running";
 
 impl ModalAnalysis {
     /// Builds the model, sweeps `range` (the rotor's 0..omega_max in `spec.omega_step` when `None`)
@@ -125,6 +165,18 @@ impl ModalAnalysis {
                     criteria.frequency_margin,
                 )?);
             }
+        }
+        if margins.len() == 2
+            && let Some(running) = running_margins(
+                &campbell,
+                &excitations,
+                &crossings,
+                [nominal, max],
+                criteria.frequency_margin,
+                &margins,
+            )?
+        {
+            margins.push(running);
         }
         let mut dry = Vec::new();
         if attachments.fluid.is_some() {
