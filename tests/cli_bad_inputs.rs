@@ -629,7 +629,25 @@ fn modes_and_sweep_steps_are_named_by_their_key() {
     Copy::of("mine-fan").edit("blade.toml", "modes = 8", "modes = 8\nrpm_step = 1e-9").refused(
         "modes",
         &[],
-        &["modal.rpm_step", "expected at most 1000"],
+        // The key's own line (the `[modal]` header's was named before).
+        &["blade.toml line 73, modal.rpm_step", "expected at most 1000"],
+    );
+    // Root springs near zero leave the blade free at standstill, where nothing spins: the
+    // message points at the springs, not at rpm_max and the spin (as it did).
+    let springs = "analysis_stations = 21\n[modal.root_springs]\naxial_N_m = 1e-9\n\
+                   flap_Nm_rad = 1e-9\nedge_Nm_rad = 1e-9\ntorsion_Nm_rad = 1e-9\n";
+    let err = Copy::of("mine-fan").edit("blade.toml", "analysis_stations = 21\n", springs).refused(
+        "modes",
+        &[],
+        &["blade.toml: modes at 0 rpm", "at standstill", "[modal.root_springs]"],
+    );
+    assert!(!err.contains("rpm_max"), "{err}");
+    // A step beyond the sweep's range is the step's fault, not rpm_max's (it was blamed on
+    // rotor.rpm_max).
+    Copy::of("mine-fan").edit("blade.toml", "modes = 8", "modes = 8\nrpm_step = 5000").refused(
+        "modes",
+        &[],
+        &["blade.toml line 73, modal.rpm_step", "at most rpm_max = 1090 rpm", "found 5000 rpm"],
     );
     Copy::of("mine-fan").refused(
         "modes",
@@ -685,4 +703,19 @@ fn a_missing_project_file_is_named_by_its_key() {
             &[],
             &["DIR/blade.toml line 48, load_case[3].distributed: cannot read DIR/loads-surges.csv"],
         );
+}
+
+#[test]
+fn an_isotropic_ply_material_without_a_compressive_strength_is_warned_of() {
+    // The mine fan's web core without its compressive strength (1.2 MPa, against 2.2 MPa in
+    // tension): its plies would be checked in compression at the tensile strength, and nothing
+    // said so. A warning names the record, and the verdict repeats it.
+    let c = Copy::of("mine-fan");
+    c.edit("materials.toml", "compressive_strength_MPa = 1.2\n", "");
+    let (code, stdout, stderr) = c.run("check", &[]);
+    assert!(code == Some(0) || code == Some(1), "{stderr}");
+    let part = "material 'pvc-foam' has tensile_strength_MPa = 2.2 and no compressive_strength_MPa";
+    assert!(stderr.contains(part), "{stderr}");
+    assert!(stderr.contains("DIR/materials.toml line 96"), "{stderr}");
+    assert!(stdout.contains("input warning"), "{stdout}");
 }

@@ -71,6 +71,18 @@ fn modal_failure(
     let modes_key =
         if modes_given { "--modes".to_string() } else { format!("{}, modal.modes", sources.file) };
     match &e {
+        // At standstill nothing spins: the blade is held by its sections and the root springs
+        // alone, so the cause lies there, not in the speed.
+        ModalError::Eigen { source: EigenError::NotPositiveDefinite { .. }, speed }
+            if speed.rpm() == 0.0 =>
+        {
+            Failure::Input(anyhow::anyhow!(
+                "{}: {e}; at standstill the blade is held by its structure and the root springs \
+                 alone: check [modal.root_springs] (a spring near zero leaves the blade free), the \
+                 point masses and the sections' stiffness",
+                sources.file
+            ))
+        }
         ModalError::Eigen { source: EigenError::NotPositiveDefinite { .. }, .. } => {
             Failure::Input(anyhow::anyhow!(
                 "{speed_key}: {e}; the spin softens the blade's in-plane stiffness more than its \

@@ -121,6 +121,16 @@ pub enum InputWarning {
         /// `criteria.min_reserve_factor`.
         min_reserve_factor: f64,
     },
+    /// An isotropic material of a ply with a tensile strength but no compressive strength: the
+    /// tensile strength is taken in compression (a foam or a core is weaker there).
+    CompressionFromTension {
+        /// Where the material's record is.
+        place: Location,
+        /// The material.
+        material: String,
+        /// Its tensile strength, Pa.
+        tensile: f64,
+    },
     /// A least buckling reserve factor below 1.
     BucklingBelowOne {
         /// The project file (`blade.toml`).

@@ -103,7 +103,11 @@ pub fn write_atomic_with(
         _ => Path::new("."),
     };
     if path.is_dir() {
-        return Err(err(std::io::Error::other("it is a folder; name a file")));
+        // Not through `plain`, which keeps only an OS error's code and would leave "other error".
+        return Err(Error::Write {
+            path: path.display().to_string(),
+            source: std::io::Error::other("it is a folder; name a file"),
+        });
     }
     if dir.exists() && !dir.is_dir() {
         return Err(Error::Write {
@@ -167,6 +171,14 @@ mod tests {
         let text = write_atomic(&path, b"x").unwrap_err().to_string();
         assert!(text.contains("nodir does not exist") && text.contains("c.svg"), "{text}");
         assert!(!dir.path().join("nodir").exists());
+    }
+
+    #[test]
+    fn a_folder_named_as_the_output_file_is_refused_in_words() {
+        // Common practice: say what is wrong ("other error" was all it said).
+        let dir = tempfile::tempdir().unwrap();
+        let text = write_atomic(dir.path(), b"x").unwrap_err().to_string();
+        assert!(text.contains("it is a folder; name a file"), "{text}");
     }
 
     #[cfg(unix)]

@@ -101,6 +101,14 @@ impl fmt::Display for InputWarning {
                 "{file}: criteria.min_reserve_factor = {min_reserve_factor} accepts a failure \
                  index above 1 (a reserve factor below 1 means the factored load breaks a ply)"
             ),
+            InputWarning::CompressionFromTension { place, material, tensile } => write!(
+                f,
+                "{place}: material '{material}' has tensile_strength_MPa = {} and no \
+                 compressive_strength_MPa: its plies are checked in compression at the tensile \
+                 strength, which a foam, a core or a cast resin does not reach; give the \
+                 compressive strength",
+                tensile / 1e6
+            ),
             InputWarning::BucklingBelowOne { file, min_buckling_factor } => write!(
                 f,
                 "{file}: criteria.min_buckling_factor = {min_buckling_factor} accepts a wall \

@@ -136,9 +136,10 @@ pub fn read_project_sourced(path: &Path) -> Result<(Project, Sources), InputErro
         None => Criteria { harmonics: 12, ..Criteria::default() },
     };
     let tooling_t = doc.optional_table("tooling")?;
-    let modal = match doc.optional_table("modal")? {
-        Some(mut t) => read_modal(&mut t)?,
-        None => ModalSpec::default(),
+    // The step's own place, for the check of the sweep's size against the greatest speed below.
+    let (modal, step_place) = match doc.optional_table("modal")? {
+        Some(mut t) => (read_modal(&mut t)?, t.location_of("rpm_step")),
+        None => (ModalSpec::default(), doc.location_of("modal")),
     };
     let sections = match doc.optional_table("sections")? {
         Some(mut t) => read_sections(&mut t)?,
@@ -197,10 +198,19 @@ pub fn read_project_sourced(path: &Path) -> Result<(Project, Sources), InputErro
         ));
     }
     let rpm_step = modal.omega_step.map(rpm_of);
+    if let Some(step) = rpm_step.filter(|&step| step > rpm_max) {
+        return Err(InputError::at(
+            step_place,
+            format!(
+                "expected a step of at most rpm_max = {rpm_max} rpm (the sweep runs from 0 to \
+                 rpm_max), found {step} rpm"
+            ),
+        ));
+    }
     if rpm_step.is_some_and(|step| rpm_max / step > MAX_SWEEP_STEPS) {
         let step = rpm_step.unwrap_or(1.0);
         return Err(InputError::at(
-            doc.location_of("modal").with_field("modal.rpm_step"),
+            step_place,
             format!(
                 "a step of {step} rpm up to rpm_max = {} rpm makes {:.0} speeds: expected at most \
                  {MAX_SWEEP_STEPS} (each speed is an eigen solution), a step of at least {} rpm",
@@ -302,6 +312,25 @@ pub fn read_project_sourced(path: &Path) -> Result<(Project, Sources), InputErro
         warnings.push(InputWarning::ReserveBelowOne {
             file: display.clone(),
             min_reserve_factor: min_rf,
+        });
+    }
+    // An isotropic ply material checked in compression at its tensile strength, once each.
+    let mut named: Vec<&str> = Vec::new();
+    for ply in &plies {
+        let Ok(Material::Isotropic(i)) = materials.get(&ply.material) else { continue };
+        if i.compressive_strength.is_some() || named.contains(&i.name.as_str()) {
+            continue;
+        }
+        let Some(tensile) = i.tensile_strength else { continue };
+        named.push(&i.name);
+        let place = match material_places.iter().find(|(name, _)| *name == i.name) {
+            Some((_, place)) => place.clone(),
+            None => Location::file(materials_path.display().to_string()),
+        };
+        warnings.push(InputWarning::CompressionFromTension {
+            place,
+            material: i.name.clone(),
+            tensile,
         });
     }
     if let Some(min_bf) = criteria.min_buckling_factor.filter(|&v| v < 1.0) {
