@@ -261,3 +261,23 @@ fn loads_and_temperatures_beyond_any_laminate_are_refused() {
     let (code, _, stderr) = layloft(&args);
     assert_eq!(code, Some(1), "fails a ply, but runs: {stderr}");
 }
+
+#[test]
+fn a_criterion_that_applies_to_no_ply_is_not_applicable_in_the_summary() {
+    // An isotropic foam sheet alone in uniaxial tension (invented load): Hashin does not apply
+    // to an isotropic layer, so its first-ply line says "n/a", as the ply table does; "none"
+    // would say that no multiple of the load fails. The other criteria name the ply.
+    let (code, out, err) = layloft(&[
+        "laminate",
+        "--materials",
+        "layups/mine-fan/materials.toml",
+        "--layup",
+        "[0:pvc-foam]T",
+        "--load",
+        "Nx=1e4",
+    ]);
+    assert_eq!(code, Some(0), "{err}");
+    let line = |c: &str| out.lines().find(|l| l.trim_start().starts_with(&format!("by {c}")));
+    assert!(line("Hashin").is_some_and(|l| l.trim_end().ends_with("n/a")), "{out}");
+    assert!(line("Tsai-Wu").is_some_and(|l| l.contains("at ply 1")), "{out}");
+}

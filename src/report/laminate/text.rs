@@ -8,7 +8,9 @@ use crate::report::table::wrap;
 use nalgebra::Matrix3;
 
 use super::{LaminateReport, face_state};
-use crate::failure::{CriteriaRatios, Criterion, FailureMode, FirstPlyFailure, StrengthRatio};
+use crate::failure::{
+    CriteriaRatios, Criterion, FailureMode, FirstPlyFailure, LaminateStrength, StrengthRatio,
+};
 use crate::laminate::{Deformation, LaminateLoad};
 
 /// A number with about four significant digits: fixed where that reads well, else scientific.
@@ -243,6 +245,9 @@ pub(super) fn report(r: &LaminateReport) -> String {
                         fc.face.label(),
                         fc.strength.mode.label()
                     ),
+                    // No ply the criterion applies to (Hashin on isotropic layers only): "n/a",
+                    // as in the ply table, not "none", which says no multiple fails.
+                    None if !applies_to_any(&strength, c) => "n/a".to_string(),
                     None => "none".to_string(),
                 };
                 let _ = writeln!(out, "  by {:<15} {line}", c.label());
@@ -273,4 +278,10 @@ mod tests {
         assert_eq!(fixed(-1e-19, 4), "0.0000");
         assert_eq!(fixed(-0.25, 2), "-0.25");
     }
+}
+
+/// Whether criterion `c` applies to any ply face of the laminate (Hashin applies to no
+/// isotropic layer).
+fn applies_to_any(strength: &LaminateStrength, c: Criterion) -> bool {
+    strength.plies.iter().any(|p| p.top.by(c).is_some() || p.bottom.by(c).is_some())
 }

@@ -108,7 +108,8 @@ pub fn modal_text(project: &str, a: &ModalAnalysis) -> String {
     out
 }
 
-/// The crossings of the modes with the excitation lines inside the speed range, one row each.
+/// The crossings of the modes with the excitation lines inside the speed range, one row each,
+/// by track and, within a track, by speed.
 pub fn crossings_table(a: &ModalAnalysis) -> Table {
     let mut t = Table::new(&[
         ("track", Align::Right),
@@ -117,7 +118,9 @@ pub fn crossings_table(a: &ModalAnalysis) -> Table {
         ("speed (rpm)", Align::Right),
         ("frequency (Hz)", Align::Right),
     ]);
-    for c in &a.crossings {
+    let mut crossings: Vec<_> = a.crossings.iter().collect();
+    crossings.sort_by(|p, q| p.track.cmp(&q.track).then(p.speed.total_cmp(&q.speed)));
+    for c in crossings {
         let label = a
             .campbell
             .tracks

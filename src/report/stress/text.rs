@@ -126,8 +126,8 @@ pub fn stress_text(model: &BladeModel, cases: &[CaseStress]) -> String {
     let _ = writeln!(out);
     let _ = writeln!(
         out,
-        "Lowest buckling reserve factor per load case (wall panels, edge fixity {}; sandwich modes):",
-        fixed(model.project.buckling.edge_fixity, 2)
+        "Lowest buckling reserve factor per load case (wall panels, {}; sandwich modes):",
+        fixity_words(model.project.buckling.edge_fixity)
     );
     out.push_str(&buckling_table(cases).render(2));
     let _ = writeln!(out);
@@ -210,4 +210,16 @@ pub fn buckling_warning(cases: &[CaseStress]) -> Option<String> {
         .collect();
     (!buckling.is_empty())
         .then(|| format!("a wall panel buckles under the factored load of {}", buckling.join(", ")))
+}
+
+/// The panels' edge support in words: simply supported (fixity 0), clamped (1) or the fixity
+/// between.
+pub(crate) fn fixity_words(fixity: f64) -> String {
+    if fixity == 0.0 {
+        "edges simply supported".to_string()
+    } else if fixity == 1.0 {
+        "edges clamped".to_string()
+    } else {
+        format!("edge fixity {} (0 simply supported, 1 clamped)", fixed(fixity, 2))
+    }
 }
