@@ -94,7 +94,10 @@ pub fn panel_place(p: &PanelResult) -> String {
             WallLocation::Surface { upper: u1, x_c: b, .. },
         ) => {
             let side = |u: &bool| if *u { "upper" } else { "lower" };
-            if u0 == u1 {
+            if u0 == u1 && format!("{a:.3}") == format!("{b:.3}") {
+                // A face across the chord line (a flat-back's base, a box's front): one x/c.
+                format!("{} skin at x/c {a:.3}", side(u0))
+            } else if u0 == u1 {
                 format!("{} skin x/c {:.3} to {:.3}", side(u0), a.min(*b), a.max(*b))
             } else {
                 format!("skin from {} x/c {a:.3} to {} x/c {b:.3}", side(u0), side(u1))
