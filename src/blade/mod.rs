@@ -277,13 +277,19 @@ impl Blade {
             .iter()
             .flat_map(|p| [p.spec.r_start, p.spec.r_end])
             .chain(self.webs.iter().flat_map(|w| [w.r_start, w.r_end]));
+        // A side within round-off of a radius already held is that radius (the analysis radii,
+        // the root and the tip among them, stay as they are).
+        let tol = 1e-9 * (tip - root);
         for e in edges {
             if e - delta > root && e < tip {
-                radii.extend([e - delta, e]);
+                for x in [e - delta, e] {
+                    if !radii.iter().any(|&y| (x - y).abs() <= tol) {
+                        radii.push(x);
+                    }
+                }
             }
         }
         radii.sort_by(f64::total_cmp);
-        radii.dedup_by(|a, b| (*a - *b).abs() <= 1e-9 * (tip - root));
         radii
     }
 
