@@ -257,3 +257,29 @@ fn the_tooling_files_do_not_depend_on_the_number_of_threads() {
         assert!(a == b, "{name} differs between one thread and two");
     }
 }
+
+#[test]
+fn a_core_sealed_between_bulkheads_fails_the_melt_out_with_status_1() {
+    // The rear web of `demo` moved inside the span, from r = 0.55 to 0.75 m: behind the main
+    // web, the cells between its two bulkheads reach neither end of the blade, so their alloy
+    // cannot leave the shell and the blade cannot be made as given. The run says so and ends
+    // with status 1, as an alloy that never melts out does (it ended with a PASS and 0).
+    let dir = tempfile::tempdir().unwrap();
+    let project = demo(dir.path(), true);
+    let text = std::fs::read_to_string(&project).unwrap();
+    let text = text.replace("r_end_m = 0.70", "r_start_m = 0.55\nr_end_m = 0.75");
+    std::fs::write(&project, text).unwrap();
+    let plies = dir.path().join("plies.csv");
+    let text = std::fs::read_to_string(&plies)
+        .unwrap()
+        .replace(",0.40,0.70,web:rear", ",0.55,0.75,web:rear");
+    std::fs::write(&plies, text).unwrap();
+    let (code, stdout, stderr) =
+        crate::cli_tooling::coarse_tooling(&project, &dir.path().join("out"), &[]);
+    assert_eq!(code, Some(1), "{stderr}");
+    assert!(stderr.contains("NO PRINT: bulkheads close both of its ends"), "{stderr}");
+    assert_eq!(
+        stdout.lines().last(),
+        Some("Core-alloy melting check: FAIL (see the warnings above)")
+    );
+}

@@ -47,7 +47,8 @@ in the folder is left alone. Every part is checked (closed,
 2-manifold, outward, no degenerate or intersecting facets) before any file is written. The
 [tooling] table of the project is optional; without it the stated defaults apply (mm, 0.1 mm
 tolerance, 30 mm block margin, 2 mm least core thickness) and the core-alloy mass is not computed.
-Exit status 1 when the core alloy would melt before the resin gels or never melt out.";
+Exit status 1 when the core alloy would melt before the resin gels or never melt out, or a core
+sealed between bulkheads could not drain.";
 
 /// Cores, laminate shell and the two mould halves of a blade as STL, with volumes, masses, the
 /// core alloy's melting check and the draft of each mould half.
@@ -343,7 +344,19 @@ pub fn tell(result: &Written, out: &Output) -> bool {
     for f in melt.findings.iter().filter(|f| f.passed == Some(false)) {
         out.warn(&format!("core alloy: {}", f.note));
     }
-    melt.failed()
+    // A core closed at both ends by bulkheads never melts out of the shell: the blade cannot be
+    // made as given, which fails the check as an alloy that never melts does. (A pool, or a
+    // print the shop must seat or drain by hand, is a warning in the summary, not a failure.)
+    let sealed: Vec<_> = result
+        .summary
+        .drain_findings
+        .iter()
+        .filter(|f| matches!(f.note, layloft::tooling::MeltNote::NoPrint { .. }))
+        .collect();
+    for f in &sealed {
+        out.warn(&format!("core alloy: {}", f.note));
+    }
+    melt.failed() || !sealed.is_empty()
 }
 
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
