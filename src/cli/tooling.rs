@@ -317,9 +317,9 @@ pub fn tell(result: &Written, out: &Output) -> bool {
     for h in result.tooling.mould_halves() {
         if !h.undercuts.is_empty() {
             out.note(&format!(
-                "the {} mould half has {:.1} cm² of undercut in {} regions (see the summary)",
+                "the {} mould half has {} cm² of undercut in {} regions (see the summary)",
                 h.side,
-                h.draft.undercut_area * 1e4,
+                layloft::report::sig4(h.draft.undercut_area * 1e4),
                 h.undercuts.len()
             ));
         }

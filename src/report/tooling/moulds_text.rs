@@ -63,11 +63,18 @@ impl ToolingReport<'_> {
         let t = self.tooling;
         let u = self.unit().symbol();
         s.push('\n');
+        // The pull is the first tried without an undercut facet, or, when every pull leaves
+        // some, the one with the least: say which.
+        let undercut = self.mould_parts().iter().any(|(_, h, _, _)| !h.undercuts.is_empty());
+        let chosen = if undercut {
+            "the pull with the least undercut area; none drew every facet"
+        } else {
+            "chosen so that no cavity facet undercuts"
+        };
         s.push_str(&wrap(
             &format!(
-                "Mould halves: pulled normal to a chord at {:.1}° (chosen so that no cavity facet \
-                 undercuts), parted along the blade's silhouette across the pull; least \
-                 acceptable draft {:.1}°",
+                "Mould halves: pulled normal to a chord at {:.1}° ({chosen}), parted along the \
+                 blade's silhouette across the pull; least acceptable draft {:.1}°",
                 t.mould_pull_angle.deg(),
                 t.params.min_draft.deg()
             ),
