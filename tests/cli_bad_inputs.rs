@@ -654,6 +654,18 @@ fn modes_and_sweep_steps_are_named_by_their_key() {
         &["--modes", "5000"],
         &["--modes: expected 1 to 100 modes"],
     );
+    // A sweep given on the command line keeps the project's bounds: the tip speed (0.9 m tip:
+    // 700 m/s at 7427 rpm) and at most 1000 speeds (both ran before, the first to 1885 m/s).
+    Copy::of("mine-fan").refused(
+        "modes",
+        &["--rpm", "0:20000:100"],
+        &["--rpm: 20000 rpm", "tip speed of 1885 m/s", "at most 7427 rpm"],
+    );
+    Copy::of("mine-fan").refused(
+        "modes",
+        &["--rpm", "0:2000:1"],
+        &["--rpm: a step of 1 rpm makes 2000 speeds", "expected at most 1000"],
+    );
 }
 
 /// `text` with every line end a lone carriage return.

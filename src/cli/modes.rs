@@ -96,6 +96,29 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     }
     let (model, sources) = load_model(&args.blade, out)?;
     let p = &model.project;
+    // The bounds the project's own sweep keeps (`rotor.rpm_max`, `modal.rpm_step`) hold for a
+    // sweep given here too: a tip speed a blade can reach, a number of eigen solutions in reason.
+    if let Some(r) = &range {
+        use layloft::input::limits::{MAX_SWEEP_STEPS, MAX_TIP_SPEED_M_S};
+        let (to, step) = (r.to.rpm(), r.step.rpm());
+        let tip_speed = to * std::f64::consts::PI / 30.0 * p.rotor.tip_radius;
+        if tip_speed > MAX_TIP_SPEED_M_S {
+            return Err(Failure::Input(anyhow!(
+                "--rpm: {} rpm at tip_radius_m = {} gives a tip speed of {tip_speed:.0} m/s: \
+                 expected at most {MAX_TIP_SPEED_M_S} m/s, at most {:.0} rpm",
+                rpm_text(to),
+                p.rotor.tip_radius,
+                MAX_TIP_SPEED_M_S * 30.0 / (std::f64::consts::PI * p.rotor.tip_radius)
+            )));
+        }
+        let count = (to - r.from.rpm()) / step;
+        if count > MAX_SWEEP_STEPS {
+            return Err(Failure::Input(anyhow!(
+                "--rpm: a step of {step} rpm makes {count:.0} speeds: expected at most \
+                 {MAX_SWEEP_STEPS} (each speed is an eigen solution)"
+            )));
+        }
+    }
     // As the project's `modal.modes`: no more modes than the beam elements resolve.
     if let Some(n) = args.modes
         && n > p.modal.elements
