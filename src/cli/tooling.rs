@@ -47,8 +47,7 @@ in the folder is left alone. Every part is checked (closed,
 2-manifold, outward, no degenerate or intersecting facets) before any file is written. The
 [tooling] table of the project is optional; without it the stated defaults apply (mm, 0.1 mm
 tolerance, 30 mm block margin, 2 mm least core thickness) and the core-alloy mass is not computed.
-Exit status 1 when the core alloy would melt before the resin gels or never melt out, or a core
-sealed between bulkheads could not drain.";
+Exit status 1 when the core alloy would melt before the resin gels or never melt out.";
 
 /// Cores, laminate shell and the two mould halves of a blade as STL, with volumes, masses, the
 /// core alloy's melting check and the draft of each mould half.
@@ -344,19 +343,30 @@ pub fn tell(result: &Written, out: &Output) -> bool {
     for f in melt.findings.iter().filter(|f| f.passed == Some(false)) {
         out.warn(&format!("core alloy: {}", f.note));
     }
-    // A core closed at both ends by bulkheads never melts out of the shell: the blade cannot be
-    // made as given, which fails the check as an alloy that never melts does. (A pool, or a
-    // print the shop must seat or drain by hand, is a warning in the summary, not a failure.)
-    let sealed: Vec<_> = result
+    // A core closed at both ends by bulkheads cannot drain through a print: said on stderr, not
+    // left to a line of the summary (the shop drills a drain to it and patches the shell, or the
+    // webs change; the melting check itself is about temperatures).
+    for core in sealed_cores(result) {
+        out.warn(&format!(
+            "core alloy: {core} is sealed between bulkheads: its alloy cannot leave the shell \
+             through a print; drill a drain to it and patch the shell, or run one of its webs to \
+             an end of the blade"
+        ));
+    }
+    melt.failed()
+}
+
+/// The cores closed at both ends by bulkheads (no print, see `MeltNote::NoPrint`).
+fn sealed_cores(result: &Written) -> Vec<&str> {
+    result
         .summary
         .drain_findings
         .iter()
-        .filter(|f| matches!(f.note, layloft::tooling::MeltNote::NoPrint { .. }))
-        .collect();
-    for f in &sealed {
-        out.warn(&format!("core alloy: {}", f.note));
-    }
-    melt.failed() || !sealed.is_empty()
+        .filter_map(|f| match &f.note {
+            layloft::tooling::MeltNote::NoPrint { core } => Some(core.as_str()),
+            _ => None,
+        })
+        .collect()
 }
 
 pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
@@ -406,6 +416,13 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
         } else {
             "NOT CHECKED (the project names no core alloy and temperatures in [tooling])"
         };
+        let sealed = sealed_cores(&result);
+        if !sealed.is_empty() {
+            out.data(&format!(
+                "Core drainage: {} sealed between bulkheads (see the warnings above)",
+                sealed.join(", ")
+            ));
+        }
         out.data(&format!("Core-alloy melting check: {verdict}"));
     }
     Ok(if failed { Outcome::CheckFailed } else { Outcome::Success })
