@@ -247,7 +247,7 @@ pub(super) fn report(r: &LaminateReport) -> String {
                     ),
                     // No ply the criterion applies to (Hashin on isotropic layers only): "n/a",
                     // as in the ply table, not "none", which says no multiple fails.
-                    None if !applies_to_any(&strength, c) => "n/a".to_string(),
+                    None if !applies_to_any(strength, c) => "n/a".to_string(),
                     None => "none".to_string(),
                 };
                 let _ = writeln!(out, "  by {:<15} {line}", c.label());
@@ -261,6 +261,12 @@ pub(super) fn report(r: &LaminateReport) -> String {
         }
     }
     out
+}
+
+/// Whether criterion `c` applies to any ply face of the laminate (Hashin applies to no
+/// isotropic layer).
+fn applies_to_any(strength: &LaminateStrength, c: Criterion) -> bool {
+    strength.plies.iter().any(|p| p.top.by(c).is_some() || p.bottom.by(c).is_some())
 }
 
 #[cfg(test)]
@@ -278,10 +284,4 @@ mod tests {
         assert_eq!(fixed(-1e-19, 4), "0.0000");
         assert_eq!(fixed(-0.25, 2), "-0.25");
     }
-}
-
-/// Whether criterion `c` applies to any ply face of the laminate (Hashin applies to no
-/// isotropic layer).
-fn applies_to_any(strength: &LaminateStrength, c: Criterion) -> bool {
-    strength.plies.iter().any(|p| p.top.by(c).is_some() || p.bottom.by(c).is_some())
 }
