@@ -101,6 +101,20 @@ fn both_modes_of_a_symmetric_pair_are_found() {
     assert_eq!(flap, 3);
 }
 
+/// The speed (rpm) below `max` where the lowest mode meets 2P: bisection on
+/// `g(rpm) = f1(rpm) - 2 rpm / 60` with directly solved modes.
+fn flap_1_on_2p(model: &BeamModel, max: f64) -> f64 {
+    let g = |rpm: f64| {
+        model.modes(RotorSpeed::from_rpm(rpm), 1).unwrap().modes[0].frequency_hz - 2.0 * rpm / 60.0
+    };
+    let (mut lo, mut hi) = (0.0, max);
+    for _ in 0..50 {
+        let mid = 0.5 * (lo + hi);
+        if g(mid) > 0.0 { lo = mid } else { hi = mid }
+    }
+    lo
+}
+
 #[test]
 fn tracks_follow_modes_through_the_sweep_and_crossings_are_found() {
     // Uniform unit beam, flap only (edge stiff): each track must keep its kind, and the crossing
@@ -127,15 +141,7 @@ fn tracks_follow_modes_through_the_sweep_and_crossings_are_found() {
     let orders = excitation_orders(4, 2, 1);
     let crossings = campbell.crossings(&orders);
     let c = crossings.iter().find(|c| c.track == 0 && c.order == 2).expect("flap 1 meets 2P");
-    // Bisection on g(rpm) = f1(rpm) - 2 rpm / 60 with directly solved modes.
-    let g = |rpm: f64| {
-        model.modes(RotorSpeed::from_rpm(rpm), 1).unwrap().modes[0].frequency_hz - 2.0 * rpm / 60.0
-    };
-    let (mut lo, mut hi) = (0.0, rpm_of(r.omega_max));
-    for _ in 0..50 {
-        let mid = 0.5 * (lo + hi);
-        if g(mid) > 0.0 { lo = mid } else { hi = mid }
-    }
+    let lo = flap_1_on_2p(&model, rpm_of(r.omega_max));
     // Linear interpolation over a step of rpm_max / 60: error of order step² f'' / 8, < 0.1 %.
     let rpm = c.speed.rpm();
     assert!((rpm / lo - 1.0).abs() < 1e-3, "{rpm} vs {lo} rpm");
@@ -322,15 +328,7 @@ fn a_crossing_between_the_nominal_and_the_maximum_speed_fails_the_margin() {
     let beam = BeamSection::uniform(0.0, 1e8, 1e6, 1.0, 1e4, 1.0);
     let probe = rotor(2, 20.0 / RAD_S_PER_RPM, 24.0 / RAD_S_PER_RPM, 0.0);
     let model = BeamModel::new(&uniform(&beam, 0.0, 1.0), &probe, &spec(30)).unwrap();
-    let g = |rpm: f64| {
-        model.modes(RotorSpeed::from_rpm(rpm), 1).unwrap().modes[0].frequency_hz - 2.0 * rpm / 60.0
-    };
-    let (mut lo, mut hi) = (0.0, rpm_of(probe.omega_max));
-    for _ in 0..50 {
-        let mid = 0.5 * (lo + hi);
-        if g(mid) > 0.0 { lo = mid } else { hi = mid }
-    }
-    let crossing = lo;
+    let crossing = flap_1_on_2p(&model, rpm_of(probe.omega_max));
     // Nominal 30 % below the crossing, maximum 30 % above: flap 1 stands well off 2P at both.
     let r = rotor(2, 0.7 * crossing, 1.3 * crossing, 0.0);
     let criteria = Criteria { frequency_margin: Some(0.1), harmonics: 2, ..Criteria::default() };
