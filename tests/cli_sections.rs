@@ -77,10 +77,11 @@ const STATION_KEYS: [&str; 33] = [
     "stiffness_matrix_pitch_axis_SI",
 ];
 
-/// The model's stations: the evenly spaced analysis stations, and both sides of every ply or web
-/// edge inside the span (a ply covers its span up to, not including, its end: the station at
-/// the edge is the one outboard of it, one 1e-4 of the span inboard the one inside). A drop-off
-/// between two evenly spaced stations would leave its thinner side unchecked.
+/// The model's stations: the evenly spaced analysis stations, and the thinner side of every ply
+/// edge inside the span (a ply covers its span up to, not including, its end: the station at a
+/// ply's end is the one without it, and the one without a ply that starts at `e` stands 1e-4 of
+/// the span inboard of `e`), and both sides of a web's edge. A drop-off between two evenly
+/// spaced stations would leave its thinner side unchecked.
 fn check_edges_have_both_sides(m: &layloft::analysis::BladeModel) {
     let radii = m.radii();
     let (root, tip) = (m.blade.root_radius(), m.blade.tip_radius());
@@ -89,13 +90,20 @@ fn check_edges_have_both_sides(m: &layloft::analysis::BladeModel) {
     for r in m.blade.analysis_radii(m.project.sections.analysis_stations) {
         assert!(has(r), "the analysis station at {r} m");
     }
-    let plies =
-        (0..m.blade.ply_count()).filter_map(|k| m.blade.ply(k)).map(|p| [p.r_start, p.r_end]);
-    let webs = m.blade.webs().iter().map(|w| [w.r_start, w.r_end]);
+    let inside = |e: f64| e > root + delta && e < tip;
     let mut edges = 0;
-    for e in plies.chain(webs).flatten().filter(|&e| e - delta > root && e < tip) {
-        assert!(has(e) && has(e - delta), "both sides of the edge at {e} m: {radii:?}");
-        edges += 1;
+    for p in (0..m.blade.ply_count()).filter_map(|k| m.blade.ply(k)) {
+        if inside(p.r_start) {
+            assert!(has(p.r_start - delta), "inboard of the start at {}: {radii:?}", p.r_start);
+            edges += 1;
+        }
+        if inside(p.r_end) {
+            assert!(has(p.r_end), "at the end at {}: {radii:?}", p.r_end);
+            edges += 1;
+        }
+    }
+    for e in m.blade.webs().iter().flat_map(|w| [w.r_start, w.r_end]).filter(|&e| inside(e)) {
+        assert!(has(e) && has(e - delta), "both sides of the web edge at {e} m: {radii:?}");
     }
     assert!(edges > 0, "the demos drop plies inside the span");
     assert!(radii.windows(2).all(|w| w[0] < w[1]), "radii in order, each once");

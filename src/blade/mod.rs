@@ -261,32 +261,38 @@ impl Blade {
         (0..n).map(|i| a + (b - a) * i as f64 / (n - 1) as f64).collect()
     }
 
-    /// The radii the model is solved and checked at: [`Blade::analysis_radii`] with both sides
-    /// of every step in the schedule inside the span. A ply or a web covers its span from its
-    /// start up to, not including, its end, so the section at an edge `e` is the one outboard of
-    /// it and the section at `e - δ` (`δ` = [`EDGE_SIDE`] of the span) the one inboard: a ply
-    /// dropped between two evenly spaced stations left its thinner side unchecked, where the
-    /// remaining plies carry the most strain (an invented tube with three plies ending between
-    /// stations passed at a reserve factor of 4.78 that is 4.07 just outboard of the drop).
+    /// The radii the model is solved and checked at: [`Blade::analysis_radii`] with the thinner
+    /// side of every step of the schedule inside the span. A ply covers its span from its start
+    /// up to, not including, its end, so the section at a ply's end `e` is the one without it,
+    /// and the one without a ply that starts at `e` stands at `e - δ` (`δ` = [`EDGE_SIDE`] of
+    /// the span): a ply dropped between two evenly spaced stations left that side unchecked,
+    /// where the remaining plies carry the most strain (an invented tube with three plies ending
+    /// between stations passed at a reserve factor of 4.78 that is 4.07 just outboard of the
+    /// drop). A web's edge changes the cells, not only the walls: both sides of it.
     pub fn check_radii(&self, n: usize) -> Vec<f64> {
         let mut radii = self.analysis_radii(n);
         let (root, tip) = (self.root_radius(), self.tip_radius());
         let delta = EDGE_SIDE * (tip - root);
-        let edges = self
-            .plies
-            .iter()
-            .flat_map(|p| [p.spec.r_start, p.spec.r_end])
-            .chain(self.webs.iter().flat_map(|w| [w.r_start, w.r_end]));
+        let inside = |e: &f64| *e > root && *e < tip;
+        let starts = self.plies.iter().map(|p| p.spec.r_start).filter(inside).map(|e| e - delta);
+        let ends = self.plies.iter().map(|p| p.spec.r_end).filter(inside);
+        let webs = self.webs.iter().flat_map(|w| [w.r_start, w.r_end]).filter(inside);
+        let mut sides: Vec<f64> = starts
+            .chain(ends)
+            .chain(webs.flat_map(|e| [e - delta, e]))
+            .filter(|&x| x > root)
+            .collect();
+        sides.sort_by(f64::total_cmp);
         // A side within round-off of a radius already held is that radius (the analysis radii,
         // the root and the tip among them, stay as they are).
         let tol = 1e-9 * (tip - root);
-        for e in edges {
-            if e - delta > root && e < tip {
-                for x in [e - delta, e] {
-                    if !radii.iter().any(|&y| (x - y).abs() <= tol) {
-                        radii.push(x);
-                    }
-                }
+        let held = radii.len();
+        for x in sides {
+            let k = radii[..held].partition_point(|&y| y < x - tol);
+            let near_held = radii[..held].get(k).is_some_and(|&y| (y - x).abs() <= tol);
+            let near_side = radii[held..].last().is_some_and(|&y| (x - y).abs() <= tol);
+            if !near_held && !near_side {
+                radii.push(x);
             }
         }
         radii.sort_by(f64::total_cmp);

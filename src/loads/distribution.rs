@@ -86,9 +86,6 @@ fn external_at(rows: &[DistributedLoadRow], r: f64, within: [f64; 2]) -> (f64, f
     if within[0] < first - 1e-12 || within[1] > last + 1e-12 {
         return (0.0, 0.0, 0.0);
     }
-    if r < first - 1e-12 || r > last + 1e-12 {
-        return (0.0, 0.0, 0.0);
-    }
     let i = rows.partition_point(|row| row.r <= r).clamp(1, rows.len() - 1);
     let (a, b) = (&rows[i - 1], &rows[i]);
     let w = ((r - a.r) / (b.r - a.r)).clamp(0.0, 1.0);
