@@ -99,17 +99,10 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     // The bounds the project's own sweep keeps (`rotor.rpm_max`, `modal.rpm_step`) hold for a
     // sweep given here too: a tip speed a blade can reach, a number of eigen solutions in reason.
     if let Some(r) = &range {
-        use layloft::input::limits::{MAX_SWEEP_STEPS, MAX_TIP_SPEED_M_S};
+        use layloft::input::limits::{MAX_SWEEP_STEPS, tip_speed_excess};
         let (to, step) = (r.to.rpm(), r.step.rpm());
-        let tip_speed = to * std::f64::consts::PI / 30.0 * p.rotor.tip_radius;
-        if tip_speed > MAX_TIP_SPEED_M_S {
-            return Err(Failure::Input(anyhow!(
-                "--rpm: {} rpm at tip_radius_m = {} gives a tip speed of {tip_speed:.0} m/s: \
-                 expected at most {MAX_TIP_SPEED_M_S} m/s, at most {:.0} rpm",
-                rpm_text(to),
-                p.rotor.tip_radius,
-                MAX_TIP_SPEED_M_S * 30.0 / (std::f64::consts::PI * p.rotor.tip_radius)
-            )));
+        if let Some(words) = tip_speed_excess(&to.to_string(), to, p.rotor.tip_radius) {
+            return Err(Failure::Input(anyhow!("--rpm: {words}")));
         }
         let count = (to - r.from.rpm()) / step;
         if count > MAX_SWEEP_STEPS {

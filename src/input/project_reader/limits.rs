@@ -4,6 +4,22 @@ pub const MAX_BLADES: u32 = 100;
 /// Greatest tip speed at `rpm_max`, m/s: the fastest composite fan blades (turbofan fans)
 /// run at about 450–500 m/s at the tip (common practice); beyond this the input is a typo.
 pub const MAX_TIP_SPEED_M_S: f64 = 700.0;
+
+/// The words of a rotor speed (`rpm`) that takes a tip at radius `tip_radius` (m) beyond
+/// [`MAX_TIP_SPEED_M_S`]: the tip speed found and the greatest speed allowed; `None` within it.
+/// `rpm` is echoed as written (`shown`).
+pub fn tip_speed_excess(shown: &str, rpm: f64, tip_radius: f64) -> Option<String> {
+    let per_rpm = std::f64::consts::PI / 30.0 * tip_radius;
+    let tip_speed = rpm * per_rpm;
+    (tip_speed > MAX_TIP_SPEED_M_S).then(|| {
+        format!(
+            "{shown} rpm at tip_radius_m = {tip_radius} gives a tip speed of {tip_speed:.0} m/s: \
+             expected at most {MAX_TIP_SPEED_M_S} m/s (the fastest composite fan blades run at \
+             about 500 m/s), at most {:.0} rpm",
+            MAX_TIP_SPEED_M_S / per_rpm
+        )
+    })
+}
 /// Least and greatest load factor: partial load factors of design codes run from about 0.9
 /// (favourable loads) to 2 (common practice); outside 0.5–10 the factor is a typo.
 pub const LOAD_FACTOR: (f64, f64) = (0.5, 10.0);

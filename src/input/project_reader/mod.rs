@@ -183,19 +183,9 @@ pub fn read_project_sourced(path: &Path) -> Result<(Project, Sources), InputErro
     // rotor speed given in rad/s or per hour, or a radius in mm, shows here.
     // The reader is an edge: the messages give the speeds in rpm, as they were written.
     let rpm_max = rpm_of(rotor.omega_max);
-    let tip_speed = rpm_max * std::f64::consts::PI / 30.0 * rotor.tip_radius;
-    if tip_speed > MAX_TIP_SPEED_M_S {
-        return Err(InputError::at(
-            places[2].clone(),
-            format!(
-                "rpm_max = {} rpm at tip_radius_m = {} gives a tip speed of {tip_speed:.0} m/s: \
-                 expected at most {MAX_TIP_SPEED_M_S} m/s (the fastest composite fan blades run \
-                 at about 500 m/s), at most {:.0} rpm",
-                excerpt(&rpm_max.to_string()),
-                rotor.tip_radius,
-                MAX_TIP_SPEED_M_S * 30.0 / (std::f64::consts::PI * rotor.tip_radius)
-            ),
-        ));
+    let shown = excerpt(&rpm_max.to_string());
+    if let Some(words) = limits::tip_speed_excess(&shown, rpm_max, rotor.tip_radius) {
+        return Err(InputError::at(places[2].clone(), format!("rpm_max = {words}")));
     }
     let rpm_step = modal.omega_step.map(rpm_of);
     if let Some(step) = rpm_step.filter(|&step| step > rpm_max) {
