@@ -731,3 +731,16 @@ fn an_isotropic_ply_material_without_a_compressive_strength_is_warned_of() {
     assert!(stderr.contains("DIR/materials.toml line 96"), "{stderr}");
     assert!(stdout.contains("input warning"), "{stdout}");
 }
+
+#[test]
+fn a_point_mass_far_off_the_pitch_axis_is_warned_of() {
+    // The mine fan's balance screw given 50 mm off the axis as 50 m (an offset typed in mm):
+    // accepted without a word before; now a warning at its key, and the verdict repeats it.
+    let c = Copy::of("mine-fan");
+    c.edit("blade.toml", "mass_kg = 0.012\n", "mass_kg = 0.012\ny_m = 50\n");
+    let (code, stdout, stderr) = c.run("check", &[]);
+    assert!(code == Some(0) || code == Some(1), "{stderr}");
+    let part = "point mass 'balance-screw' sits 50 m from the pitch axis, more than twice";
+    assert!(stderr.contains(part) && stderr.contains("point_mass[1].y_m"), "{stderr}");
+    assert!(stdout.contains("input warning"), "{stdout}");
+}

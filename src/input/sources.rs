@@ -131,6 +131,17 @@ pub enum InputWarning {
         /// Its tensile strength, Pa.
         tensile: f64,
     },
+    /// A point mass further from the pitch axis than twice the blade's largest chord.
+    MassFarOff {
+        /// Where its larger offset is given.
+        place: Location,
+        /// The point mass.
+        name: String,
+        /// Its distance from the pitch axis, m.
+        offset: f64,
+        /// The blade's largest chord, m.
+        chord: f64,
+    },
     /// A least buckling reserve factor below 1.
     BucklingBelowOne {
         /// The project file (`blade.toml`).

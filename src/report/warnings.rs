@@ -109,6 +109,11 @@ impl fmt::Display for InputWarning {
                  compressive strength",
                 tensile / 1e6
             ),
+            InputWarning::MassFarOff { place, name, offset, chord } => write!(
+                f,
+                "{place}: point mass '{name}' sits {offset} m from the pitch axis, more than twice \
+                 the blade's largest chord ({chord} m): a balance arm, or an offset in mm?"
+            ),
             InputWarning::BucklingBelowOne { file, min_buckling_factor } => write!(
                 f,
                 "{file}: criteria.min_buckling_factor = {min_buckling_factor} accepts a wall \

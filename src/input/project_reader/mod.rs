@@ -234,6 +234,18 @@ pub fn read_project_sourced(path: &Path) -> Result<(Project, Sources), InputErro
         if point_masses.iter().any(|m: &PointMass| m.name == mass.name) {
             return Err(t.error("name", format!("point mass '{}' is defined twice", mass.name)));
         }
+        // A mass further from the pitch axis than twice the largest chord: a balance arm, or an
+        // offset in the wrong unit.
+        let offset = mass.y.hypot(mass.z);
+        if offset > 2.0 * c_max {
+            let key = if mass.y.abs() >= mass.z.abs() { "y_m" } else { "z_m" };
+            warnings.push(InputWarning::MassFarOff {
+                place: t.location_of(key),
+                name: mass.name.clone(),
+                offset,
+                chord: c_max,
+            });
+        }
         t.finish()?;
         point_masses.push(mass);
     }
