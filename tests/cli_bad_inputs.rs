@@ -164,6 +164,17 @@ impl Copy {
         (out.status.code(), text(&out.stdout), text(&out.stderr))
     }
 
+    /// Runs the command on valid but unusual input: a verdict (status 0 or 1), every one of
+    /// `parts` in the warnings, and the verdict saying it has input warnings.
+    fn warned(&self, command: &str, parts: &[&str]) {
+        let (code, stdout, stderr) = self.run(command, &[]);
+        assert!(code == Some(0) || code == Some(1), "{stderr}");
+        for part in parts {
+            assert!(stderr.contains(part), "stderr lacks '{part}':\n{stderr}");
+        }
+        assert!(stdout.contains("input warning"), "{stdout}");
+    }
+
     /// Runs the command and expects exit status 2 with every one of `parts` in the message.
     fn refused(&self, command: &str, args: &[&str], parts: &[&str]) -> String {
         let (code, stdout, stderr) = self.run(command, args);
@@ -722,25 +733,26 @@ fn an_isotropic_ply_material_without_a_compressive_strength_is_warned_of() {
     // The mine fan's web core without its compressive strength (1.2 MPa, against 2.2 MPa in
     // tension): its plies would be checked in compression at the tensile strength, and nothing
     // said so. A warning names the record, and the verdict repeats it.
-    let c = Copy::of("mine-fan");
-    c.edit("materials.toml", "compressive_strength_MPa = 1.2\n", "");
-    let (code, stdout, stderr) = c.run("check", &[]);
-    assert!(code == Some(0) || code == Some(1), "{stderr}");
-    let part = "material 'pvc-foam' has tensile_strength_MPa = 2.2 and no compressive_strength_MPa";
-    assert!(stderr.contains(part), "{stderr}");
-    assert!(stderr.contains("DIR/materials.toml line 96"), "{stderr}");
-    assert!(stdout.contains("input warning"), "{stdout}");
+    Copy::of("mine-fan").edit("materials.toml", "compressive_strength_MPa = 1.2\n", "").warned(
+        "check",
+        &[
+            "material 'pvc-foam' has tensile_strength_MPa = 2.2 and no compressive_strength_MPa",
+            "DIR/materials.toml line 96",
+        ],
+    );
 }
 
 #[test]
 fn a_point_mass_far_off_the_pitch_axis_is_warned_of() {
     // The mine fan's balance screw given 50 mm off the axis as 50 m (an offset typed in mm):
     // accepted without a word before; now a warning at its key, and the verdict repeats it.
-    let c = Copy::of("mine-fan");
-    c.edit("blade.toml", "mass_kg = 0.012\n", "mass_kg = 0.012\ny_m = 50\n");
-    let (code, stdout, stderr) = c.run("check", &[]);
-    assert!(code == Some(0) || code == Some(1), "{stderr}");
-    let part = "point mass 'balance-screw' sits 50 m from the pitch axis, more than twice";
-    assert!(stderr.contains(part) && stderr.contains("point_mass[1].y_m"), "{stderr}");
-    assert!(stdout.contains("input warning"), "{stdout}");
+    Copy::of("mine-fan")
+        .edit("blade.toml", "mass_kg = 0.012\n", "mass_kg = 0.012\ny_m = 50\n")
+        .warned(
+            "check",
+            &[
+                "point mass 'balance-screw' sits 50 m from the pitch axis, more than twice",
+                "point_mass[1].y_m",
+            ],
+        );
 }
