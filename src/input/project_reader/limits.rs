@@ -5,6 +5,20 @@ pub const MAX_BLADES: u32 = 100;
 /// run at about 450–500 m/s at the tip (common practice); beyond this the input is a typo.
 pub const MAX_TIP_SPEED_M_S: f64 = 700.0;
 
+/// The words of a sweep step (`step`, rpm) that makes more than [`MAX_SWEEP_STEPS`] speeds over
+/// `span` (rpm; `what`, empty or starting with a space, names it): the count found and the
+/// least step allowed; `None` within it.
+pub fn sweep_excess(step: f64, span: f64, what: &str) -> Option<String> {
+    let count = span / step;
+    (count > MAX_SWEEP_STEPS).then(|| {
+        format!(
+            "a step of {step} rpm{what} makes {count:.0} speeds: expected at most \
+             {MAX_SWEEP_STEPS} (each speed is an eigen solution), a step of at least {} rpm",
+            span / MAX_SWEEP_STEPS
+        )
+    })
+}
+
 /// The words of a rotor speed (`rpm`) that takes a tip at radius `tip_radius` (m) beyond
 /// [`MAX_TIP_SPEED_M_S`]: the tip speed found and the greatest speed allowed; `None` within it.
 /// `rpm` is echoed as written (`shown`).

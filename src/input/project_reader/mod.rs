@@ -197,18 +197,9 @@ pub fn read_project_sourced(path: &Path) -> Result<(Project, Sources), InputErro
             ),
         ));
     }
-    if rpm_step.is_some_and(|step| rpm_max / step > MAX_SWEEP_STEPS) {
-        let step = rpm_step.unwrap_or(1.0);
-        return Err(InputError::at(
-            step_place,
-            format!(
-                "a step of {step} rpm up to rpm_max = {} rpm makes {:.0} speeds: expected at most \
-                 {MAX_SWEEP_STEPS} (each speed is an eigen solution), a step of at least {} rpm",
-                rpm_max,
-                rpm_max / step,
-                rpm_max / MAX_SWEEP_STEPS
-            ),
-        ));
+    let up_to = format!(" up to rpm_max = {rpm_max} rpm");
+    if let Some(words) = rpm_step.and_then(|step| sweep_excess(step, rpm_max, &up_to)) {
+        return Err(InputError::at(step_place, words));
     }
 
     let mut webs = Vec::new();
