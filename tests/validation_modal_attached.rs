@@ -252,8 +252,14 @@ fn the_rayleigh_quotient_of_each_mode_is_its_eigenvalue_and_the_mass_is_where_it
     let spec = spec(20);
     let node_r = 0.2 + 0.5 * 15.0 / 20.0;
     let mass = 0.08;
-    let att =
-        with_bodies(vec![PointBody { r: node_r, mass, offset: [0.0, 0.0], inertia: [0.0; 3] }]);
+    // The node's u, v, w are the shear centre's (the modal model bends the shear-centre line):
+    // the mass is put there, the sections' shear centre interpolated linearly as the model does.
+    let k = sections.partition_point(|s| s.r <= node_r).clamp(1, sections.len() - 1);
+    let (a, b) = (&sections[k - 1], &sections[k]);
+    let t = (node_r - a.r) / (b.r - a.r);
+    let offset = [0, 1].map(|i| a.shear_centre[i] + t * (b.shear_centre[i] - a.shear_centre[i]));
+    assert!(offset[0].abs() > 1e-3, "the check needs the shear centre off the pitch axis");
+    let att = with_bodies(vec![PointBody { r: node_r, mass, offset, inertia: [0.0; 3] }]);
     let with = BeamModel::with_attachments(&sections, &r, &spec, &att).unwrap();
     let without = BeamModel::new(&sections, &r, &spec).unwrap();
     let speed = RotorSpeed::from_rpm(3000.0);

@@ -6,6 +6,13 @@
 //! local degrees of freedom are the global `8 i .. 8 i + 14` and the half-bandwidth is 13. The
 //! root node is clamped (all six removed); with root springs only `v` and `w` are removed and
 //! springs act on `u`, `w'` (flap), `v'` (edge) and `theta` (torsion), in the rotor frame.
+//!
+//! The nodes' `u, v, w` are those of the shear centre (see `element.rs`), except at a root on
+//! springs: there the bearing holds the pitch axis, so the root node's `u, v, w` are the pitch
+//! axis's (`u_s = u_p - eta_s v' - zeta_s w'`, `v_s = v_p - zeta_s theta`,
+//! `w_s = w_p + eta_s theta`, the shear centre at `(eta_s, zeta_s)` in the rotor frame) and the
+//! root turns about the pitch axis on its torsion spring. A clamped root holds all six, which
+//! is the same at either point.
 
 use super::ModalError;
 use super::attached::Attachments;
@@ -94,6 +101,9 @@ pub struct BeamModel {
     rotor: Rotor,
     nodes: Vec<f64>,
     node_phi: Vec<f64>,
+    /// The shear centre from the pitch axis at each node, rotor frame `(eta, zeta)`, m (zero at
+    /// a root on springs, whose dofs are the pitch axis's).
+    node_shear_centre: Vec<[f64; 2]>,
     node_chord: Vec<f64>,
     dofs: Vec<Dof>,
     elastic: BandMatrix,
@@ -168,8 +178,23 @@ impl BeamModel {
         let mut elastic = BandMatrix::zeros(n, 13);
         let mut spin = BandMatrix::zeros(n, 13);
         let mut mass = BandMatrix::zeros(n, 13);
+        // At a root on springs, the root node's dofs taken at the pitch axis: d_s = T d_p.
+        let root_turn = spec.root_springs.as_ref().map(|_| {
+            let [eta_s, zeta_s] = span.at(root).shear_centre_rotor();
+            let mut t = super::element::ElementMatrix::identity();
+            t[(0, 4)] = -eta_s;
+            t[(0, 5)] = -zeta_s;
+            t[(1, 3)] = -zeta_s;
+            t[(2, 3)] = eta_s;
+            t
+        });
         for e in 0..n_el {
-            let em = element_matrices(&span, nodes[e], nodes[e + 1], e + 1 == n_el);
+            let mut em = element_matrices(&span, nodes[e], nodes[e + 1], e + 1 == n_el);
+            if let (0, Some(t)) = (e, &root_turn) {
+                em.elastic = t.transpose() * em.elastic * t;
+                em.spin = t.transpose() * em.spin * t;
+                em.mass = t.transpose() * em.mass * t;
+            }
             for a in 0..NE {
                 let Some(fa) = free[8 * e + a] else { continue };
                 for b in 0..=a {
@@ -188,6 +213,19 @@ impl BeamModel {
             elastic.add(3, 3, k.flap);
         }
         let node_phi = nodes.iter().map(|&r| span.at(r).phi).collect();
+        // Where the shear centre lies from the pitch axis at each node (rotor frame), to give
+        // mode shapes at the pitch axis; the root on springs has its dofs there already.
+        let node_shear_centre = nodes
+            .iter()
+            .enumerate()
+            .map(|(i, &r)| {
+                if i == 0 && spec.root_springs.is_some() {
+                    [0.0, 0.0]
+                } else {
+                    span.at(r).shear_centre_rotor()
+                }
+            })
+            .collect();
         let node_chord = nodes.iter().map(|&r| span.at(r).chord).collect();
         let family_mass = mass
             .lower_entries()
@@ -201,6 +239,7 @@ impl BeamModel {
             rotor: rotor.clone(),
             nodes,
             node_phi,
+            node_shear_centre,
             node_chord,
             dofs,
             elastic,
@@ -238,6 +277,12 @@ impl BeamModel {
     /// Chord angle (twist + pitch) at each node, rad from the plane of rotation.
     pub fn node_chord_angles(&self) -> &[f64] {
         &self.node_phi
+    }
+
+    /// Where each node's `u, v, w` are taken: the shear centre from the pitch axis, rotor frame
+    /// `(eta, zeta)`, m (zero at a root on springs).
+    pub(crate) fn node_shear_centres(&self) -> &[[f64; 2]] {
+        &self.node_shear_centre
     }
 
     /// Chord at each node, m.

@@ -41,6 +41,7 @@
 use nalgebra::{Matrix3, SMatrix, Vector3};
 
 use super::element::{DV, DW, Dens, NQ, TH, U, V, W};
+use super::span::SpanSection;
 
 /// What the blade carries besides its sections, for [`crate::modal::BeamModel::with_attachments`].
 #[derive(Debug, Clone, Default, PartialEq)]
@@ -166,13 +167,15 @@ fn maps() -> (SMatrix<f64, 3, NQ>, SMatrix<f64, 3, NQ>) {
 }
 
 /// Kinetic and centrifugal (per unit Omega²) densities of a rigid body with mass `m`, first
-/// moment `s` and second moments `p` about the point of the pitch axis at radius `r` (rotor
-/// frame), as matrices on the point state.
+/// moment `s` and second moments `p` about the reference point of the section (the shear
+/// centre, see `element.rs`; rotor frame), as matrices on the point state. The reference point
+/// lies at radius `r` and `eta_s` from the rotor's radial line through the pitch axis, in the
+/// plane of rotation (the centrifugal field sees the body where it is).
 pub(crate) fn rigid_body_densities(
     m: f64,
     s: Vector3<f64>,
     p: Matrix3<f64>,
-    r: f64,
+    [r, eta_s]: [f64; 2],
 ) -> (Dens, Dens) {
     let (T, Psi) = maps();
     let S = skew(s);
@@ -194,18 +197,20 @@ pub(crate) fn rigid_body_densities(
     let q = Matrix3::from_diagonal(&Vector3::new(1.0, 1.0, 0.0));
     let qcross = T.transpose() * q * S * Psi;
     let aqa = T.transpose() * q * T * m - qcross - qcross.transpose() + Psi.transpose() * jq * Psi;
-    let ex = Vector3::new(1.0, 0.0, 0.0);
-    let b = s * ex.transpose() * r + p * q;
-    let second =
-        (b + b.transpose()) * 0.5 - Matrix3::identity() * (r * s.x + p[(0, 0)] + p[(1, 1)]);
+    let at = Vector3::new(r, eta_s, 0.0);
+    let b = s * at.transpose() + p * q;
+    let second = (b + b.transpose()) * 0.5
+        - Matrix3::identity() * (r * s.x + eta_s * s.y + p[(0, 0)] + p[(1, 1)]);
     let ds = -aqa - Psi.transpose() * second * Psi;
     (dm, ds)
 }
 
-/// The densities of a point body whose section has chord angle `phi` (rad).
-pub(crate) fn point_body_densities(body: &PointBody, phi: f64) -> (Dens, Dens) {
-    let (sn, cs) = phi.sin_cos();
-    let [y, z] = body.offset;
+/// The densities of a point body on `section` (its chord angle and shear centre, the point the
+/// body's offset is measured from in the element; see `element.rs`).
+pub(crate) fn point_body_densities(body: &PointBody, section: &SpanSection) -> (Dens, Dens) {
+    let (sn, cs) = section.phi.sin_cos();
+    let [y, z] =
+        [body.offset[0] - section.shear_centre[0], body.offset[1] - section.shear_centre[1]];
     let d = Vector3::new(0.0, y * cs - z * sn, y * sn + z * cs);
     let [ix, iy, iz] = body.inertia;
     // Own second moments from the moments of inertia, chord frame, then turned about x.
@@ -216,14 +221,15 @@ pub(crate) fn point_body_densities(body: &PointBody, phi: f64) -> (Dens, Dens) {
     ));
     let rot = Matrix3::new(1.0, 0.0, 0.0, 0.0, cs, -sn, 0.0, sn, cs);
     let p = d * d.transpose() * body.mass + rot * own * rot.transpose();
-    rigid_body_densities(body.mass, d * body.mass, p, body.r)
+    rigid_body_densities(body.mass, d * body.mass, p, [body.r, section.shear_centre_rotor()[0]])
 }
 
-/// The added-mass density of the fluid at a section with chord angle `phi` (rad): added masses
-/// `[flap, edge, torsion]` (per length) acting at `centre` (chord frame, m).
-pub(crate) fn added_mass_density(added: [f64; 3], centre: [f64; 2], phi: f64) -> Dens {
-    let (sn, cs) = phi.sin_cos();
-    let [yc, zc] = centre;
+/// The added-mass density of the fluid at `section` (its chord angle and shear centre): added
+/// masses `[flap, edge, torsion]` (per length) acting at `centre` (chord frame from the pitch
+/// axis, m).
+pub(crate) fn added_mass_density(added: [f64; 3], centre: [f64; 2], section: &SpanSection) -> Dens {
+    let (sn, cs) = section.phi.sin_cos();
+    let [yc, zc] = [centre[0] - section.shear_centre[0], centre[1] - section.shear_centre[1]];
     let (eta, zeta) = (yc * cs - zc * sn, yc * sn + zc * cs);
     // Velocities of the centre along the chord and normal to it, and the twist rate.
     let mut a = SMatrix::<f64, 3, NQ>::zeros();
@@ -247,35 +253,53 @@ pub(crate) fn added_mass_density(added: [f64; 3], centre: [f64; 2], phi: f64) ->
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::modal::span::SpanSection;
     use nalgebra::Matrix4;
 
     /// A thin section given as a lamina of mass `m` with centre and second moments: the body
-    /// formulas must give exactly the section densities of the element.
+    /// formulas must give exactly the section densities of the element, with the shear centre
+    /// on the pitch axis and off it (both refer the section to its shear centre, by different
+    /// routes: the section shifts its moments and adds the in-plane centrifugal term of the
+    /// offset; the body takes its offset from the shear centre and its place in the field).
     #[test]
     fn a_thin_lamina_gives_the_section_densities() {
         let (m, ym, zm) = (1.3, 0.02, -0.004);
         let second = [0.004, 0.0007, 0.0003];
         let phi: f64 = 0.4;
         let r = 0.7;
-        let section = SpanSection {
-            r,
-            chord: 0.1,
-            phi,
-            stiffness: Matrix4::identity(),
-            mass: m,
-            mass_centre: [ym, zm],
-            second_moments: second,
-        };
-        let (_, dm_s, ds_s) = crate::modal::element::densities(&section, 0.0);
-        let (sn, cs) = phi.sin_cos();
-        let d = Vector3::new(0.0, ym * cs - zm * sn, ym * sn + zm * cs);
-        // Chord-frame second moments turned into the rotor frame.
-        let pc = Matrix3::new(0.0, 0.0, 0.0, 0.0, second[0], second[2], 0.0, second[2], second[1]);
-        let rot = Matrix3::new(1.0, 0.0, 0.0, 0.0, cs, -sn, 0.0, sn, cs);
-        let p = rot * pc * rot.transpose();
-        let (dm_b, ds_b) = rigid_body_densities(m, d * m, p, r);
-        assert!((dm_b - dm_s).abs().max() < 1e-14, "{dm_b} {dm_s}");
-        assert!((ds_b - ds_s).abs().max() < 1e-14, "{ds_b} {ds_s}");
+        for shear_centre in [[0.0, 0.0], [0.031, -0.006]] {
+            let section = SpanSection {
+                r,
+                chord: 0.1,
+                phi,
+                stiffness: Matrix4::identity(),
+                mass: m,
+                mass_centre: [ym, zm],
+                second_moments: second,
+                shear_centre,
+            };
+            let (_, dm_s, ds_s) = crate::modal::element::densities(&section, 0.0);
+            let (sn, cs) = phi.sin_cos();
+            let turn = |y: f64, z: f64| Vector3::new(0.0, y * cs - z * sn, y * sn + z * cs);
+            let [ys, zs] = shear_centre;
+            let d = turn(ym - ys, zm - zs);
+            // Chord-frame second moments about the shear centre turned into the rotor frame.
+            let pc = Matrix3::new(
+                0.0,
+                0.0,
+                0.0,
+                0.0,
+                second[0] - 2.0 * ys * m * ym + m * ys * ys,
+                second[2] - ys * m * zm - zs * m * ym + m * ys * zs,
+                0.0,
+                second[2] - ys * m * zm - zs * m * ym + m * ys * zs,
+                second[1] - 2.0 * zs * m * zm + m * zs * zs,
+            );
+            let rot = Matrix3::new(1.0, 0.0, 0.0, 0.0, cs, -sn, 0.0, sn, cs);
+            let p = rot * pc * rot.transpose();
+            let eta_s = turn(ys, zs).y;
+            let (dm_b, ds_b) = rigid_body_densities(m, d * m, p, [r, eta_s]);
+            assert!((dm_b - dm_s).abs().max() < 1e-14, "{dm_b} {dm_s}");
+            assert!((ds_b - ds_s).abs().max() < 1e-14, "{ds_b} {ds_s}");
+        }
     }
 }

@@ -9,6 +9,17 @@
 //!
 //! At a point the displacement "state" is `q = (u, v, w, theta, v', w', u', theta', v'', w'')`;
 //! each energy density is `½ qᵀ D q`.
+//!
+//! **Reference line.** `u, v, w` are the displacements of the section's shear centre and the
+//! section turns by `theta` about it, so the curvatures `v''`, `w''` are those of the shear-centre
+//! line: a section twisting about its shear centre does not bend, wherever the pitch axis lies.
+//! (Taken on the pitch axis instead, a twist varying along the span bent the pitch-axis line by
+//! `e theta''` and stored bending energy that is not there, `e` the shear centre's offset; the
+//! frequencies then depended on where the pitch axis was put.) Every section quantity is referred
+//! to the shear centre (`SpanSection::about_shear_centre`); only the centrifugal field sees the
+//! section where it is, from the rotor axis, and the root's bearing holds the pitch axis
+//! (`assemble.rs`). The shear centre's offset is taken as varying slowly along the span: terms in
+//! its rate are left out, as those of the mass and elastic centres' offsets are.
 
 #![allow(non_snake_case)]
 
@@ -81,7 +92,7 @@ pub(crate) fn element_matrices(span: &Span, ra: f64, rb: f64, last: bool) -> Ele
             let wt = weight * h * (x1 - x0);
             let (de, mut dm, ds) = densities(&s, n_hat);
             if let Some((added, centre)) = span.added_mass_at(r) {
-                dm += super::attached::added_mass_density(added, centre, s.phi);
+                dm += super::attached::added_mass_density(added, centre, &s);
             }
             out.elastic += phi.transpose() * de * phi * wt;
             out.mass += phi.transpose() * dm * phi * wt;
@@ -91,7 +102,7 @@ pub(crate) fn element_matrices(span: &Span, ra: f64, rb: f64, last: bool) -> Ele
     for body in span.bodies().iter().filter(|b| inside(b.r)) {
         let xi = (body.r - ra) / h;
         let phi = interpolation(xi, h);
-        let (dm, ds) = super::attached::point_body_densities(body, span.at(body.r).phi);
+        let (dm, ds) = super::attached::point_body_densities(body, &span.at(body.r));
         out.mass += phi.transpose() * dm * phi;
         out.spin += phi.transpose() * ds * phi;
     }
@@ -145,11 +156,12 @@ fn interpolation(xi: f64, h: f64) -> Interp {
 
 /// Energy densities at a section: elastic, kinetic (mass) and the Omega² stiffness.
 ///
-/// Rotor frame `(x, y, z)`: a point `(eta, zeta)` of the section (rotor frame, from the pitch
-/// axis) moves by `U = u - eta v' - zeta w'`, `V = v - zeta theta`, `W = w + eta theta`. The
+/// Rotor frame `(x, y, z)`: a point `(eta, zeta)` of the section (rotor frame, from the shear
+/// centre) moves by `U = u - eta v' - zeta w'`, `V = v - zeta theta`, `W = w + eta theta`. The
 /// chord frame is the rotor frame turned about `x` by `phi`: `eta = y cos phi - z sin phi`,
 /// `zeta = y sin phi + z cos phi`.
-pub(crate) fn densities(s: &SpanSection, n_hat: f64) -> (Dens, Dens, Dens) {
+pub(crate) fn densities(section: &SpanSection, n_hat: f64) -> (Dens, Dens, Dens) {
+    let s = &section.about_shear_centre();
     let (sn, cs) = s.phi.sin_cos();
     // Elastic: strains e = (u', theta', kappa_f, kappa_e) from the rotor-frame curvatures.
     let mut E = SMatrix::<f64, 4, NQ>::zeros();
@@ -220,5 +232,12 @@ pub(crate) fn densities(s: &SpanSection, n_hat: f64) -> (Dens, Dens, Dens) {
     set(&mut Ds, DV, DW, 0.5 * j_ez);
     set(&mut Ds, TH, DV, -0.5 * s.r * s_zeta);
     set(&mut Ds, TH, DW, 0.5 * s.r * s_eta);
+    // The in-plane centrifugal force at a point is Omega² times its distance from the rotor's
+    // radial line through the pitch axis, `eta_s + eta`: the part `eta_s` of the shear centre's
+    // own offset, on the same second-order displacement Y2.
+    let [eta_s, _] = section.shear_centre_rotor();
+    set(&mut Ds, TH, TH, eta_s * s_eta);
+    set(&mut Ds, DV, DV, eta_s * s_eta);
+    set(&mut Ds, DV, DW, 0.5 * eta_s * s_zeta);
     (De, Dm, Ds)
 }

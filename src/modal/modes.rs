@@ -178,6 +178,7 @@ fn shape(model: &BeamModel, x: &DVector<f64>) -> ModeShape {
         out_of_plane: vec![0.0; n],
         twist: vec![0.0; n],
     };
+    let (mut in_slope, mut out_slope) = (vec![0.0; n], vec![0.0; n]);
     for (i, d) in model.dofs().iter().enumerate() {
         let Some(node) = d.node else { continue };
         match d.kind {
@@ -185,8 +186,16 @@ fn shape(model: &BeamModel, x: &DVector<f64>) -> ModeShape {
             DofKind::InPlane => s.in_plane[node] = x[i],
             DofKind::OutOfPlane => s.out_of_plane[node] = x[i],
             DofKind::Twist => s.twist[node] = x[i],
-            _ => {}
+            DofKind::InPlaneSlope => in_slope[node] = x[i],
+            DofKind::OutOfPlaneSlope => out_slope[node] = x[i],
         }
+    }
+    // The dofs are the shear centre's (see `element.rs`); the shape is the pitch axis's.
+    for (i, &[eta_s, zeta_s]) in model.node_shear_centres().iter().enumerate().take(n) {
+        let twist = s.twist[i];
+        s.axial[i] += eta_s * in_slope[i] + zeta_s * out_slope[i];
+        s.in_plane[i] += zeta_s * twist;
+        s.out_of_plane[i] -= eta_s * twist;
     }
     let chords = model.node_chords();
     let mut largest = 0.0_f64;

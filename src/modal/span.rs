@@ -29,6 +29,9 @@ pub(crate) struct SpanSection {
     pub mass_centre: [f64; 2],
     /// Second moments of mass per length about the pitch axis, kg·m: `∫ρ y²`, `∫ρ z²`, `∫ρ yz`.
     pub second_moments: [f64; 3],
+    /// Shear centre (y, z) from the pitch axis, m: the line whose bending the beam's curvatures
+    /// are (see `element.rs`).
+    pub shear_centre: [f64; 2],
 }
 
 impl SpanSection {
@@ -49,7 +52,45 @@ impl SpanSection {
                 mix(a.second_moments[1], b.second_moments[1]),
                 mix(a.second_moments[2], b.second_moments[2]),
             ],
+            shear_centre: [
+                mix(a.shear_centre[0], b.shear_centre[0]),
+                mix(a.shear_centre[1], b.shear_centre[1]),
+            ],
         }
+    }
+}
+
+impl SpanSection {
+    /// The section referred to its shear centre instead of the pitch axis: stiffness for the
+    /// axial strain at the shear centre (`eps_p = eps_s - z_s kappa_f - y_s kappa_e`, so
+    /// `K_s = Aᵀ K_p A`), mass centre and second moments of mass from the shear centre. The
+    /// chord angle, mass and radius are the section's own; `shear_centre` becomes `[0, 0]`.
+    pub(crate) fn about_shear_centre(&self) -> SpanSection {
+        let [ys, zs] = self.shear_centre;
+        let mut a = Matrix4::identity();
+        a[(0, 2)] = -zs;
+        a[(0, 3)] = -ys;
+        let m = self.mass;
+        let [ym, zm] = self.mass_centre;
+        let [jyy, jzz, jyz] = self.second_moments;
+        SpanSection {
+            stiffness: a.transpose() * self.stiffness * a,
+            mass_centre: [ym - ys, zm - zs],
+            second_moments: [
+                jyy - 2.0 * ys * m * ym + m * ys * ys,
+                jzz - 2.0 * zs * m * zm + m * zs * zs,
+                jyz - ys * m * zm - zs * m * ym + m * ys * zs,
+            ],
+            shear_centre: [0.0, 0.0],
+            ..*self
+        }
+    }
+
+    /// The shear centre in the rotor frame `(eta, zeta)` from the pitch axis, m.
+    pub(crate) fn shear_centre_rotor(&self) -> [f64; 2] {
+        let (sn, cs) = self.phi.sin_cos();
+        let [ys, zs] = self.shear_centre;
+        [ys * cs - zs * sn, ys * sn + zs * cs]
     }
 }
 
@@ -271,6 +312,9 @@ fn check_section(s: &SectionProperties, pitch: f64) -> Result<SpanSection, Modal
     let [ym, zm] = s.mass_centre;
     finite("mass_centre", ym)?;
     finite("mass_centre", zm)?;
+    let [ys, zs] = s.shear_centre;
+    finite("shear_centre", ys)?;
+    finite("shear_centre", zs)?;
     let inertia = s.inertia;
     for (field, v) in [("inertia.flap", inertia.flap), ("inertia.edge", inertia.edge)] {
         if finite(field, v)? < 0.0 {
@@ -297,5 +341,6 @@ fn check_section(s: &SectionProperties, pitch: f64) -> Result<SpanSection, Modal
             inertia.flap + m * zm * zm,
             inertia.product + m * ym * zm,
         ],
+        shear_centre: [ys, zs],
     })
 }
