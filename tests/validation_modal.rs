@@ -407,3 +407,57 @@ fn torsion_under_centrifugal_tension_agrees_with_an_independent_shooting_solutio
     let without = shooting_torsion(gj, 0.01, 0.006, 0.0, l, omega_rot, 1);
     assert!(torsion[0] > 1.1 * without[0]);
 }
+
+/// The frequencies at standstill of an invented untwisted blade of constant chord (a cambered
+/// NACA 4418, 0.2 m chord from 0.3 to 1.3 m, glass skin, carbon cap and one web), its stations
+/// given with the pitch axis at `pitch_axis_frac` of the chord.
+fn untwisted_blade_frequencies(pitch_axis_frac: f64) -> Vec<f64> {
+    let dir = tempfile::tempdir().unwrap();
+    let write = |name: &str, text: &str| std::fs::write(dir.path().join(name), text).unwrap();
+    write(
+        "blade.toml",
+        "name = \"untwisted (invented)\"\n[rotor]\nblades = 3\nhub_radius_m = 0.30\n\
+         tip_radius_m = 1.30\nrpm_nominal = 300\nrpm_max = 400\n[[web]]\nname = \"spar\"\n\
+         chord_frac = 0.30\nr_start_m = 0.30\nr_end_m = 1.30\n[modal]\nmodes = 8\n",
+    );
+    let mut stations = String::from("r_m,chord_m,twist_deg,pitch_axis_frac,airfoil\n");
+    for k in 0..6 {
+        let r = 0.3 + 0.2 * k as f64;
+        stations += &format!("{r},0.200,0,{pitch_axis_frac},naca4418\n");
+    }
+    write("stations.csv", &stations);
+    write(
+        "plies.csv",
+        "ply,material,angle_deg,r_start_m,r_end_m,region,from,to\n\
+         skin,glass-biax,45,0.3,1.3,both,0,1\n\
+         cap,carbon-ud,0,0.3,1.3,both,0.15,0.45\n\
+         web,glass-biax,45,0.3,1.3,web:spar,,\n",
+    );
+    let materials = std::fs::read_to_string(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/layups/small-wind/materials.toml"
+    ))
+    .unwrap();
+    write("materials.toml", &materials);
+    let project = layloft::input::read_project(&dir.path().join("blade.toml")).unwrap();
+    let model = layloft::analysis::BladeModel::build(project).unwrap();
+    let p = &model.project;
+    let beam = BeamModel::new(&model.properties(), &p.rotor, &p.modal).unwrap();
+    beam.modes(RotorSpeed::ZERO, 8).unwrap().modes.iter().map(|m| m.frequency_hz).collect()
+}
+
+#[test]
+fn an_untwisted_blade_has_the_same_frequencies_wherever_its_pitch_axis_is_drawn() {
+    // One physical blade (no twist, constant chord: moving the pitch axis along the chord moves
+    // no material), so at standstill the frequencies cannot depend on where the axis is drawn
+    // (a law of the beam: the reference line is a choice of description). The shear centre of
+    // this section lies near 0.3 of the chord and the elastic centre elsewhere; bending the
+    // pitch-axis line instead of the shear centre's gave 183.9 against 198.5 Hz for the third
+    // mode of this blade. The sections are solved afresh for each axis (measured agreement
+    // 4e-6): 2e-5.
+    let quarter = untwisted_blade_frequencies(0.25);
+    let aft = untwisted_blade_frequencies(0.45);
+    for (k, (a, b)) in quarter.iter().zip(&aft).enumerate() {
+        assert!((a / b - 1.0).abs() < 2e-5, "mode {}: {a} Hz against {b} Hz", k + 1);
+    }
+}
