@@ -5,8 +5,9 @@ use std::f64::consts::PI;
 use std::sync::Arc;
 
 use layloft::buckling::{
-    EdgeSupport, LongPlate, PanelSolver, SandwichWall, ShearFlexibility, cylinder_classical,
-    interaction_factor, knock_down, orthotropic_long_plate_ss,
+    Curvature, EdgeSupport, LongPlate, PanelSolver, SandwichWall, ShearFlexibility,
+    cylinder_classical, cylinder_torsion, interaction_factor, knock_down,
+    orthotropic_long_plate_ss,
 };
 use layloft::input::read_materials_str;
 use layloft::laminate::{Laminate, LayupCode, Ply};
@@ -299,7 +300,7 @@ fn sandwich_panel_buckling_with_and_without_core_shear() {
         })
         .fold(f64::INFINITY, f64::min);
     let solver = PanelSolver::new(0.0);
-    let (with_core, ..) = solver.panel_critical(&abd, b, f64::INFINITY, Some(&sw));
+    let (with_core, ..) = solver.panel_critical(&abd, b, f64::INFINITY, false, Some(&sw));
     assert!(
         (with_core.compression / allen - 1.0).abs() < 1e-4,
         "{} against {allen}",
@@ -310,14 +311,14 @@ fn sandwich_panel_buckling_with_and_without_core_shear() {
         .critical(&abd.d, b, ShearFlexibility(s_hand))
         .compression;
     assert!((ritz / allen - 1.0).abs() < 1e-4, "{ritz} against {allen}");
-    let (rigid, ..) = solver.panel_critical(&abd, b, f64::INFINITY, None);
+    let (rigid, ..) = solver.panel_critical(&abd, b, f64::INFINITY, false, None);
     let k = k_of(rigid.compression, d, b);
     assert!((k - 4.0).abs() < 1e-3, "k = {k}");
     // The core's shear flexibility lowers the load, here by a few per cent (rho about 0.04).
     assert!(with_core.compression < 0.99 * rigid.compression);
     // A narrow panel on a thick core: as rho grows the load tends to S, the shear crimping load
     // (Allen 1969, ch. 4).
-    let narrow = solver.panel_critical(&abd, 0.01, f64::INFINITY, Some(&sw)).0.compression;
+    let narrow = solver.panel_critical(&abd, 0.01, f64::INFINITY, false, Some(&sw)).0.compression;
     assert!((narrow / s_hand - 1.0).abs() < 0.01, "{narrow} {s_hand}");
 }
 
@@ -534,4 +535,108 @@ fn walls_in_pure_tension_have_no_buckling_factor() {
         assert_eq!(p.check.reserve_factor, f64::INFINITY, "{:?}", p.check);
     }
     assert!(panels(1).any(|p| p.check.reserve_factor.is_finite() && p.check.r_c > 0.0));
+}
+
+/// Membrane stiffness `A` of an isotropic wall.
+fn isotropic_a(e: f64, nu: f64, t: f64) -> Matrix3<f64> {
+    Matrix3::new(1.0, nu, 0.0, nu, 1.0, 0.0, 0.0, 0.0, 0.5 * (1.0 - nu)) * (e * t / (1.0 - nu * nu))
+}
+
+#[test]
+fn long_tubes_in_torsion_give_the_classical_long_tube_value() {
+    // Timoshenko & Gere, Theory of Elastic Stability, 1961, §11.12, long thin tube in torsion
+    // (from memory): tau_cr = E (t/R)^(3/2) / (3 sqrt(2) (1 - nu²)^(3/4)). The asymptote holds
+    // when the axial wave is long against the circumference (alpha R of order sqrt(t/R)): at
+    // R/t = 500 and 2000 to 0.5 %.
+    let (e, nu, t) = (70e9, 0.3, 1e-3);
+    let (_, d) = isotropic_d(e, nu, t);
+    let c = isotropic_a(e, nu, t).try_inverse().unwrap();
+    for r in [0.5, 2.0] {
+        let tau = cylinder_torsion(&d, &c, r) / t;
+        let want = e * (t / r).powf(1.5) / (3.0 * 2f64.sqrt() * (1.0 - nu * nu).powf(0.75));
+        assert!((tau / want - 1.0).abs() < 5e-3, "R/t {}: {tau} against {want} Pa", r / t);
+    }
+}
+
+#[test]
+fn curved_panels_in_shear_gain_with_curvature_and_are_flat_plates_when_flat() {
+    // A simply supported aluminium panel 100 mm wide, 1 mm thick. Flat: k_s = 5.35 (Timoshenko
+    // & Gere 1961, §9.7, long plate; from memory) from the flat solver. Curved with a radius a
+    // million widths: the same to 1e-6. Tighter curvature raises the load (the membrane term
+    // is positive), by a factor that grows with Batdorf's Z = b² sqrt(1 - nu²) / (R t).
+    let (e, nu, t, b) = (70e9, 0.3, 1e-3, 0.1);
+    let (d0, d) = isotropic_d(e, nu, t);
+    let c = isotropic_a(e, nu, t).try_inverse().unwrap();
+    let plate = LongPlate::new(EdgeSupport::SimplySupported);
+    let flat = plate.shear(&d, b, NONE);
+    let curved =
+        |r: f64| plate.curved_shear(&d, b, &Curvature { radius: r, compliance: c }).unwrap();
+    let far = curved(1e6 * b);
+    for k in 0..2 {
+        assert!((far[k] / flat[k] - 1.0).abs() < 1e-6, "{far:?} against {flat:?}");
+    }
+    assert!((k_of(flat[0], d0, b) / 5.35 - 1.0).abs() < 5e-3, "{flat:?}");
+    let mut last = flat[0];
+    let mut k_at = Vec::new();
+    for r in [2.0, 1.0, 0.5, 0.2, 0.1] {
+        let n = curved(r)[0];
+        let z = b * b * (1.0 - nu * nu).sqrt() / (r * t);
+        assert!(n > last, "R {r} m (Z {z:.1}): {n} not above {last}");
+        last = n;
+        k_at.push((z, k_of(n, d0, b)));
+    }
+    // Strongly curved, a long panel buckles as a strip of a long tube, helically across its
+    // width: tau ~ E t^(3/2) / (b R^(1/2)) as the long tube's E (t/R)^(3/2) with b ~ R, so k_s
+    // grows as Z^(1/2) (dimensional argument from the long-tube value above).
+    let ((z1, k1), (z2, k2)) = (k_at[3], k_at[4]);
+    let growth = (k2 / k1).ln() / (z2 / z1).ln();
+    assert!((growth - 0.5).abs() < 0.1, "k_s grows as Z^{growth:.3} ({k_at:?})");
+    // Clamped edges have no sine basis: no curved solution is offered.
+    assert!(
+        LongPlate::new(EdgeSupport::Clamped)
+            .curved_shear(&d, b, &Curvature { radius: 0.2, compliance: c })
+            .is_none()
+    );
+}
+
+#[test]
+fn a_round_wall_is_one_closed_panel_that_buckles_in_shear_as_a_tube() {
+    // A round section of aluminium, R 50 mm, wall 1 mm, no webs: its skin is one panel that
+    // closes on itself. Its critical shear flow is the flat strip's (b = 2 pi R, k_s = 5.35,
+    // about 3.4 kN/m) plus the knock-down 0.67 (NASA SP-8007 for torsion, from memory) of the
+    // curvature's gain up to the long tube's classical value (Timoshenko & Gere 1961, §11.12,
+    // from memory: tau = E (t/R)^(3/2) / (3 sqrt(2) (1 - nu²)^(3/4)), about 50 kN/m here). So it
+    // lies between 0.67 and 1 times the tube's value (before the curvature counted it was the
+    // flat strip's, 0.07 of it).
+    use layloft::section::{SectionParams, SolvedSection};
+    let (e, nu, t, ro) = (70e9, 0.3, 1e-3, 0.0505);
+    let wall = crate::common::single(&crate::common::isotropic("al", e, nu, t, 2700.0));
+    let layout = crate::common::tube(ro, 240, wall);
+    let section = SolvedSection::solve(&layout, &SectionParams::default()).unwrap();
+    let library = read_materials_str(
+        "[isotropic.al]\nE_GPa = 70\nnu = 0.3\ndensity_kg_m3 = 2700\nply_thickness_mm = 1.0\n",
+        "al.toml",
+    )
+    .unwrap();
+    let panels =
+        layloft::buckling::find_panels(&layout, &section, &library, &PanelSolver::new(0.0));
+    assert_eq!(panels.len(), 1, "{panels:?}");
+    let p = &panels[0];
+    assert!(p.closed);
+    // The midline's radius; the panel's is its flattest third's, length over turn, and an open
+    // run of the closed loop counts one joint fewer than it has elements (1.3 % here).
+    let r = 0.05;
+    assert!((p.radius / r - 1.0).abs() < 0.02, "radius {}", p.radius);
+    let tube = t * e * (t / r).powf(1.5) / (3.0 * 2f64.sqrt() * (1.0 - nu * nu).powf(0.75));
+    // The same wall as an open panel held at one line (the leading edge's rule for open skins)
+    // buckles above the tube, whose helical buckles that line would stop: the tube governs.
+    let (_, d) = isotropic_d(e, nu, t);
+    let c = isotropic_a(e, nu, t).try_inverse().unwrap();
+    let held = LongPlate::new(EdgeSupport::SimplySupported)
+        .curved_shear(&d, p.width, &Curvature { radius: p.radius, compliance: c })
+        .unwrap();
+    assert!(held[0] > tube, "{held:?} against the tube's {tube} N/m");
+    for n in [p.critical.shear_positive, p.critical.shear_negative] {
+        assert!(n > 0.67 * tube && n < tube, "{n} N/m against the tube's {tube} N/m");
+    }
 }

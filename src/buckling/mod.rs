@@ -13,9 +13,11 @@
 //!   safe side). Checks: isotropic long plates k = 4 and 6.97 in compression, 5.35 and 8.98 in
 //!   shear (Timoshenko & Gere, *Theory of Elastic Stability*, 1961), Whitney's orthotropic
 //!   closed form (`tests/validation_buckling.rs`).
-//! - **Curvature** ([`curvature_gain`]): the gain of a curved panel over the flat one in
-//!   compression, by the shallow-shell equations with the NASA SP-8007 knock-down; no credit in
-//!   shear.
+//! - **Curvature** ([`curvature_gain`], [`LongPlate::curved_shear`], [`cylinder_torsion`]): the
+//!   gain of a curved panel over the flat one in compression, by the shallow-shell equations with
+//!   the NASA SP-8007 knock-down, and in shear, by the same membrane term in the Ritz solution
+//!   (simply supported edges), a closed wall also as a long tube in torsion, the gain knocked
+//!   down to [`SHEAR_KNOCK_DOWN`].
 //! - **Sandwich** ([`SandwichWall`]): the core's transverse shear flexibility lowers the panel
 //!   load; face wrinkling, shear crimping and core shear are checked.
 //! - **Interaction** of compression and shear: `R_c + R_s² = 1`, `R_c = -N_x/N_cr`,
@@ -45,10 +47,13 @@ mod panels;
 mod plate;
 mod sandwich;
 
-pub use curved::{curvature_gain, curved_panel_compression, cylinder_classical, knock_down};
-pub use panels::{Panel, PanelPart, PanelSolver, find_panels};
+pub use curved::{
+    SHEAR_KNOCK_DOWN, curvature_gain, curved_panel_compression, cylinder_classical,
+    cylinder_torsion, knock_down,
+};
+pub use panels::{CurvatureGain, Panel, PanelPart, PanelSolver, find_panels};
 pub use plate::{
-    EdgeSupport, LongPlate, PlateCritical, ShearFlexibility, orthotropic_long_plate_ss,
+    Curvature, EdgeSupport, LongPlate, PlateCritical, ShearFlexibility, orthotropic_long_plate_ss,
     reduced_bending_stiffness,
 };
 pub use sandwich::{SandwichFactors, SandwichWall};

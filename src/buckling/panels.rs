@@ -23,9 +23,9 @@ use std::sync::Arc;
 
 use nalgebra::Matrix3;
 
-use super::curved::{curvature_gain, knock_down};
+use super::curved::{SHEAR_KNOCK_DOWN, curvature_gain, cylinder_torsion, knock_down};
 use super::plate::{
-    EdgeSupport, LongPlate, PlateCritical, ShearFlexibility, reduced_bending_stiffness,
+    Curvature, EdgeSupport, LongPlate, PlateCritical, ShearFlexibility, reduced_bending_stiffness,
 };
 use super::sandwich::SandwichWall;
 use crate::material::MaterialLibrary;
@@ -65,8 +65,13 @@ pub struct Panel {
     pub knock_down: f64,
     /// Gain of the compressive critical load from the curvature, N/m.
     pub curvature_gain: f64,
-    /// Critical loads, N/m: compression includes the curvature gain; the edge fixity and, for a
-    /// sandwich, the core's shear flexibility are applied.
+    /// Gains of the critical shear flows from the curvature `[positive, negative]`, N/m (see
+    /// [`PanelSolver::panel_critical`]).
+    pub shear_curvature_gain: [f64; 2],
+    /// Whether the panel closes on itself (a round section's whole wall).
+    pub closed: bool,
+    /// Critical loads, N/m: compression and shear include the curvature gains; the edge fixity
+    /// and, for a sandwich, the core's shear flexibility are applied (to the flat values).
     pub critical: PlateCritical,
     /// The sandwich description when the laminate holds a core.
     pub sandwich: Option<Arc<SandwichWall>>,
@@ -76,6 +81,18 @@ pub struct Panel {
     pub compression_scale: Vec<f64>,
     /// Per element: the sandwich description of its own laminate.
     pub element_sandwich: Vec<Option<Arc<SandwichWall>>>,
+}
+
+/// The gains of a panel's critical loads from its curvature across its width, N/m (zero for a
+/// flat panel; see [`PanelSolver::panel_critical`]).
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct CurvatureGain {
+    /// Compression, with the SP-8007 knock-down.
+    pub compression: f64,
+    /// Positive shear flow, with [`SHEAR_KNOCK_DOWN`].
+    pub shear_positive: f64,
+    /// Negative shear flow (magnitude), with [`SHEAR_KNOCK_DOWN`].
+    pub shear_negative: f64,
 }
 
 /// What the panel finder needs besides the section. It keeps the critical loads of every
@@ -194,26 +211,52 @@ impl PanelSolver {
     }
 
     /// Critical loads of a panel of laminate stiffness `abd`, width `b` and radius `r` (m),
-    /// with the sandwich description where there is one; returns the loads, the knock-down and
-    /// the curvature gain.
+    /// with the sandwich description where there is one; `closed` for a panel that closes on
+    /// itself (the whole wall of a round section). Returns the loads, the compressive
+    /// knock-down and the curvature gains.
+    ///
+    /// The gain in shear is [`SHEAR_KNOCK_DOWN`] times the simply supported curved panel's
+    /// classical shear load less the flat one's (solid wall), the curved value of a closed
+    /// panel being the lower of the panel's and the long closed tube's in torsion
+    /// ([`cylinder_torsion`]): a closed wall has no edges to hold it, and the panel's edges at
+    /// the leading edge would stiffen the helical buckles of a tube.
     pub fn panel_critical(
         &self,
         abd: &crate::laminate::Abd,
         b: f64,
         r: f64,
+        closed: bool,
         sandwich: Option<&SandwichWall>,
-    ) -> (PlateCritical, f64, f64) {
+    ) -> (PlateCritical, f64, CurvatureGain) {
         let d = reduced_bending_stiffness(abd).unwrap_or(abd.d);
         let s = ShearFlexibility(sandwich.map_or(f64::INFINITY, |w| w.shear_stiffness));
         let mut c = self.flat_critical(&d, b, s);
-        let (gamma, gain) = match abd.a.try_inverse() {
+        let mut gain = CurvatureGain::default();
+        let gamma = match abd.a.try_inverse() {
             Some(compliance) if r.is_finite() => {
                 let gamma = knock_down(r, &abd.a, &d);
-                (gamma, curvature_gain(&d, &compliance, b, r, gamma))
+                gain.compression = curvature_gain(&d, &compliance, b, r, gamma);
+                let curvature = Curvature { radius: r, compliance };
+                if let Some(mut curved) = self.simply_supported.curved_shear(&d, b, &curvature) {
+                    if closed {
+                        let tube = cylinder_torsion(&d, &compliance, r);
+                        curved = curved.map(|v| v.min(tube));
+                    }
+                    let flat = self.support_critical(false, &d, b, ShearFlexibility(f64::INFINITY));
+                    let over = |curved: f64, flat: f64| {
+                        let g = SHEAR_KNOCK_DOWN * (curved - flat);
+                        if g.is_finite() && g > 0.0 { g } else { 0.0 }
+                    };
+                    gain.shear_positive = over(curved[0], flat.shear_positive);
+                    gain.shear_negative = over(curved[1], flat.shear_negative);
+                }
+                gamma
             }
-            _ => (1.0, 0.0),
+            _ => 1.0,
         };
-        c.compression += gain;
+        c.compression += gain.compression;
+        c.shear_positive += gain.shear_positive;
+        c.shear_negative += gain.shear_negative;
         (c, gamma, gain)
     }
 }
@@ -386,6 +429,10 @@ pub fn find_panels(
                 return None;
             }
             let radius = run_radius(section, &run);
+            // A run that closes on itself: the whole skin in one panel, its two ends one point.
+            let closed = matches!(part, PanelPart::Skin)
+                && run.len() == skin.len()
+                && close(elements[run[0]].start, elements[run[run.len() - 1]].end, tol);
             let compression_scale = run
                 .iter()
                 .map(|&k| {
@@ -396,8 +443,8 @@ pub fn find_panels(
             let element_sandwich =
                 run.iter().map(|&k| sandwiches[elements[k].laminate].clone()).collect();
             let sandwich = sandwiches[laminate].clone();
-            let (critical, knock_down, curvature_gain) =
-                solver.panel_critical(&abd[laminate], width, radius, sandwich.as_deref());
+            let (critical, knock_down, gain) =
+                solver.panel_critical(&abd[laminate], width, radius, closed, sandwich.as_deref());
             Some(Panel {
                 elements: run,
                 part,
@@ -405,7 +452,9 @@ pub fn find_panels(
                 width,
                 radius,
                 knock_down,
-                curvature_gain,
+                curvature_gain: gain.compression,
+                shear_curvature_gain: [gain.shear_positive, gain.shear_negative],
+                closed,
                 critical,
                 sandwich,
                 compression_scale,

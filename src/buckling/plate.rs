@@ -176,6 +176,17 @@ pub struct PlateCritical {
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct ShearFlexibility(pub f64);
 
+/// A panel's curvature across its width for the shallow-shell (Donnell) membrane term: its
+/// radius, m, and the wall's membrane compliance `A^-1` (m/N, `x` along the span, `s` across;
+/// `a16`, `a26` not used).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Curvature {
+    /// Radius of curvature, m.
+    pub radius: f64,
+    /// Membrane compliance `A^-1`, m/N.
+    pub compliance: Matrix3<f64>,
+}
+
 impl LongPlate {
     /// The solver for one edge support.
     pub fn new(support: EdgeSupport) -> Self {
@@ -306,19 +317,70 @@ impl LongPlate {
     /// multiplier of either sign is the largest singular value of `M`, the root of the largest
     /// eigenvalue of `M'M`. This is the same eigenproblem as the real embedding of twice the size
     /// in [`LongPlate::shear_at`], solved at a tenth of the cost.
-    fn orthotropic_shear_multiplier(&self, d: &Matrix3<f64>, b: f64, alpha: f64) -> Option<f64> {
+    fn orthotropic_shear_multiplier(
+        &self,
+        d: &Matrix3<f64>,
+        b: f64,
+        alpha: f64,
+        membrane: Option<&[f64; TERMS]>,
+    ) -> Option<f64> {
         let [p00, p11, p22, p20, p10] = &self.unit.fixed;
         let (d11, d12, d22, d66) = (d[(0, 0)], d[(0, 1)], d[(1, 1)], d[(2, 2)]);
         let a2 = alpha * alpha;
         // The same terms and width scaling as `stiffness`, without the D16, D26 part.
-        let s = p00 * (b * d11 * a2 * a2) - p20 * (2.0 * d12 * a2 / b)
+        let mut s = p00 * (b * d11 * a2 * a2) - p20 * (2.0 * d12 * a2 / b)
             + p22 * (d22 / (b * b * b))
             + p11 * (4.0 * d66 * a2 / b);
+        if let Some(m) = membrane {
+            for (i, v) in m.iter().enumerate() {
+                s[(i, i)] += v;
+            }
+        }
         let a = p10 * (-2.0 * alpha);
         let li = s.cholesky()?.l().try_inverse()?;
         let m = li * a * li.transpose();
         let mtm = m.transpose() * m;
         let top = (0.5 * (mtm + mtm.transpose()))
+            .symmetric_eigenvalues()
+            .iter()
+            .copied()
+            .fold(f64::NEG_INFINITY, f64::max);
+        Some(top.max(0.0).sqrt())
+    }
+
+    /// [`LongPlate::orthotropic_shear_multiplier`] for simply supported edges, by the sine
+    /// basis's structure: every integral but `p10` is diagonal, so `S` is diagonal and
+    /// `M = S^-1/2 A S^-1/2` needs no factorisation; and `p10` couples only sines of odd with
+    /// sines of even order, so `M` is `[[0, B], [-Bᵀ, 0]]` in that order and its largest
+    /// singular value is `B`'s, from the 5x5 `BᵀB`. The same number to round-off (unit test).
+    fn ss_orthotropic_shear_multiplier(
+        &self,
+        d: &Matrix3<f64>,
+        b: f64,
+        alpha: f64,
+        membrane: &[f64; TERMS],
+    ) -> Option<f64> {
+        const HALF: usize = TERMS / 2;
+        let [p00, p11, p22, p20, p10] = &self.unit.fixed;
+        let (d11, d12, d22, d66) = (d[(0, 0)], d[(0, 1)], d[(1, 1)], d[(2, 2)]);
+        let a2 = alpha * alpha;
+        let mut root = [0.0; TERMS];
+        for (k, slot) in root.iter_mut().enumerate() {
+            let s = p00[(k, k)] * (b * d11 * a2 * a2) - p20[(k, k)] * (2.0 * d12 * a2 / b)
+                + p22[(k, k)] * (d22 / (b * b * b))
+                + p11[(k, k)] * (4.0 * d66 * a2 / b)
+                + membrane[k];
+            if !(s > 0.0) {
+                return None;
+            }
+            *slot = s.sqrt();
+        }
+        // Odd orders are the even indices (k = 1, 3, ...), even orders the odd ones.
+        let m = SMatrix::<f64, HALF, HALF>::from_fn(|i, j| {
+            let (r, c) = (2 * i, 2 * j + 1);
+            -2.0 * alpha * p10[(r, c)] / (root[r] * root[c])
+        });
+        let top = (m.transpose() * m)
             .symmetric_eigenvalues()
             .iter()
             .copied()
@@ -335,7 +397,7 @@ impl LongPlate {
         alpha: f64,
         s: ShearFlexibility,
     ) -> f64 {
-        match self.orthotropic_shear_multiplier(d, b, alpha) {
+        match self.orthotropic_shear_multiplier(d, b, alpha, None) {
             None => f64::NAN,
             Some(mu) if mu <= 0.0 => f64::INFINITY,
             Some(mu) => {
@@ -343,6 +405,78 @@ impl LongPlate {
                 if s.0.is_finite() { 1.0 / (1.0 / n_b + 1.0 / s.0) } else { n_b }
             }
         }
+    }
+
+    /// The shallow-shell membrane stiffness of a panel curved across its width (see
+    /// [`Curvature`]) at wave number `alpha`, one term per sine of the simply supported basis:
+    /// `p00_kk b alpha⁴ / (R² a*(alpha, beta_k))`, `beta_k = k pi / b`. The compatibility
+    /// operator of an orthotropic wall maps each sine mode onto itself, so the term is diagonal
+    /// (as in Batdorf's Galerkin solution for curved panels, NACA TN 1341, 1947). `None` for
+    /// clamped edges, whose basis is not made of sines.
+    fn membrane_terms(&self, b: f64, alpha: f64, c: &Curvature) -> Option<[f64; TERMS]> {
+        if self.support != EdgeSupport::SimplySupported {
+            return None;
+        }
+        let a = &c.compliance;
+        let a2 = alpha * alpha;
+        let mut out = [0.0; TERMS];
+        for (k, slot) in out.iter_mut().enumerate() {
+            let beta2 = ((k + 1) as f64 * std::f64::consts::PI / b).powi(2);
+            let am = a[(1, 1)] * a2 * a2
+                + (2.0 * a[(0, 1)] + a[(2, 2)]) * a2 * beta2
+                + a[(0, 0)] * beta2 * beta2;
+            *slot = self.unit.p00[(k, k)] * b * a2 * a2 / (c.radius * c.radius * am);
+        }
+        Some(out)
+    }
+
+    /// Critical shear flows `[positive, negative magnitude]` (N/m) of a long simply supported
+    /// panel of width `b` curved across its width, least over the half-wavelength: the flat
+    /// plate's Ritz solution (see [`LongPlate::shear`], solid wall) with the curvature's membrane
+    /// stiffness added to each sine term (see [`LongPlate::membrane_terms`]). The classical
+    /// value, without a knock-down; for a wall with `D16`, `D26` the lower of the two signs for
+    /// both. `None` for clamped edges.
+    pub fn curved_shear(&self, d: &Matrix3<f64>, b: f64, c: &Curvature) -> Option<[f64; 2]> {
+        self.membrane_terms(b, 1.0, c)?;
+        let aspect = (d[(0, 0)] / d[(1, 1)]).powf(0.25);
+        let base = b * if aspect.is_finite() && aspect > 0.0 { aspect } else { 1.0 };
+        let alpha = |l: f64| std::f64::consts::PI / (base * l);
+        let at = |l: f64| -> [f64; 2] {
+            let a = alpha(l);
+            let Some(m) = self.membrane_terms(b, a, c) else { return [f64::NAN; 2] };
+            let mut k = self.stiffness(d, b, a);
+            for (i, v) in m.iter().enumerate() {
+                k[(i, i)] += v;
+                k[(TERMS + i, TERMS + i)] += v;
+            }
+            let Some((hi, lo)) = Self::inverse_multipliers(&k, &self.shear_load(a)) else {
+                return [f64::NAN; 2];
+            };
+            let invert = |mu: f64| if mu <= 0.0 { f64::INFINITY } else { 1.0 / mu };
+            [invert(hi), invert(-lo)]
+        };
+        let tol = 1e-12 * (d[(0, 0)] + d[(1, 1)]);
+        if d[(0, 2)].abs() <= tol && d[(1, 2)].abs() <= tol {
+            // Without D16, D26 both signs buckle alike (see `orthotropic_shear_multiplier`, to
+            // which the membrane terms add on the diagonal).
+            let both = minimise(|l| {
+                let a = alpha(l);
+                let Some(m) = self.membrane_terms(b, a, c) else { return f64::NAN };
+                match self.ss_orthotropic_shear_multiplier(d, b, a, &m) {
+                    None => f64::NAN,
+                    Some(mu) if mu <= 0.0 => f64::INFINITY,
+                    Some(mu) => 1.0 / mu,
+                }
+            });
+            return Some([both, both]);
+        }
+        // With D16, D26 the two signs differ; the lower is taken for both (one search instead
+        // of two, on the safe side: the curvature's gain is what the curved value adds).
+        let both = minimise(|l| {
+            let [p, n] = at(l);
+            p.min(n)
+        });
+        Some([both, both])
     }
 
     /// The least critical compression `-N_x` (N/m) over the half-wavelength (see
@@ -452,6 +586,25 @@ mod tests {
     use super::*;
 
     #[test]
+    fn the_sine_structure_gives_the_full_shear_multiplier() {
+        // An orthotropic wall (invented), curved and flat: the 5x5 route of
+        // `ss_orthotropic_shear_multiplier` against the full factorisation.
+        let plate = LongPlate::new(EdgeSupport::SimplySupported);
+        let d = Matrix3::new(12.0, 3.1, 0.0, 3.1, 5.0, 0.0, 0.0, 0.0, 3.7);
+        let a = Matrix3::new(9e7, 2e7, 0.0, 2e7, 4e7, 0.0, 0.0, 0.0, 1.5e7);
+        let c = Curvature { radius: 0.3, compliance: a.try_inverse().unwrap() };
+        for (b, alpha) in [(0.1, 20.0), (0.25, 7.0), (0.6, 40.0)] {
+            let m = plate.membrane_terms(b, alpha, &c).unwrap();
+            let fast = plate.ss_orthotropic_shear_multiplier(&d, b, alpha, &m).unwrap();
+            let full = plate.orthotropic_shear_multiplier(&d, b, alpha, Some(&m)).unwrap();
+            assert!((fast / full - 1.0).abs() < 1e-10, "{fast} vs {full}");
+            let flat = plate.ss_orthotropic_shear_multiplier(&d, b, alpha, &[0.0; TERMS]).unwrap();
+            let full = plate.orthotropic_shear_multiplier(&d, b, alpha, None).unwrap();
+            assert!((flat / full - 1.0).abs() < 1e-10, "{flat} vs {full}");
+        }
+    }
+
+    #[test]
     fn gauss_legendre_integrates_polynomials_exactly() {
         let q = gauss_legendre(8);
         let s: f64 = q.iter().map(|(x, w)| w * x.powi(9)).sum();
@@ -489,7 +642,9 @@ mod tests {
                         let k = plate.stiffness(d, b, alpha);
                         let g = plate.shear_load(alpha);
                         let (hi, lo) = LongPlate::inverse_multipliers(&k, &g).expect("solvable");
-                        let mu = plate.orthotropic_shear_multiplier(d, b, alpha).expect("solvable");
+                        let mu = plate
+                            .orthotropic_shear_multiplier(d, b, alpha, None)
+                            .expect("solvable");
                         assert!(
                             (mu - hi).abs() <= 1e-10 * hi,
                             "{support:?} b {b} l {l}: {mu} {hi}"
