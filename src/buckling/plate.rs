@@ -370,7 +370,7 @@ impl LongPlate {
                 + p22[(k, k)] * (d22 / (b * b * b))
                 + p11[(k, k)] * (4.0 * d66 * a2 / b)
                 + membrane[k];
-            if !(s > 0.0) {
+            if s.is_nan() || s <= 0.0 {
                 return None;
             }
             *slot = s.sqrt();
@@ -433,7 +433,7 @@ impl LongPlate {
     /// Critical shear flows `[positive, negative magnitude]` (N/m) of a long simply supported
     /// panel of width `b` curved across its width, least over the half-wavelength: the flat
     /// plate's Ritz solution (see [`LongPlate::shear`], solid wall) with the curvature's membrane
-    /// stiffness added to each sine term (see [`LongPlate::membrane_terms`]). The classical
+    /// stiffness added to each sine term (`p00_kk b alpha⁴ / (R² a*(alpha, beta_k))`, `beta_k = k pi / b`). The classical
     /// value, without a knock-down; for a wall with `D16`, `D26` the lower of the two signs for
     /// both. `None` for clamped edges.
     pub fn curved_shear(&self, d: &Matrix3<f64>, b: f64, c: &Curvature) -> Option<[f64; 2]> {
