@@ -433,9 +433,9 @@ impl LongPlate {
     /// Critical shear flows `[positive, negative magnitude]` (N/m) of a long simply supported
     /// panel of width `b` curved across its width, least over the half-wavelength: the flat
     /// plate's Ritz solution (see [`LongPlate::shear`], solid wall) with the curvature's membrane
-    /// stiffness added to each sine term (`p00_kk b alpha⁴ / (R² a*(alpha, beta_k))`, `beta_k = k pi / b`). The classical
-    /// value, without a knock-down; for a wall with `D16`, `D26` the lower of the two signs for
-    /// both. `None` for clamped edges.
+    /// stiffness added to each sine term, `p00_kk b alpha⁴ / (R² a*(alpha, beta_k))` with
+    /// `beta_k = k pi / b`. The classical value, without a knock-down; for a wall with `D16`,
+    /// `D26` the lower of the two signs for both. `None` for clamped edges.
     pub fn curved_shear(&self, d: &Matrix3<f64>, b: f64, c: &Curvature) -> Option<[f64; 2]> {
         self.membrane_terms(b, 1.0, c)?;
         let aspect = (d[(0, 0)] / d[(1, 1)]).powf(0.25);
