@@ -437,7 +437,9 @@ impl LongPlate {
     /// `beta_k = k pi / b`. The classical value, without a knock-down; for a wall with `D16`,
     /// `D26` the lower of the two signs for both. `None` for clamped edges.
     pub fn curved_shear(&self, d: &Matrix3<f64>, b: f64, c: &Curvature) -> Option<[f64; 2]> {
-        self.membrane_terms(b, 1.0, c)?;
+        if self.support != EdgeSupport::SimplySupported {
+            return None;
+        }
         let aspect = (d[(0, 0)] / d[(1, 1)]).powf(0.25);
         let base = b * if aspect.is_finite() && aspect > 0.0 { aspect } else { 1.0 };
         let alpha = |l: f64| std::f64::consts::PI / (base * l);
