@@ -17,23 +17,26 @@
 //!
 //! Hermite cubic bending in both planes, quadratic axial and torsion (an interior node per
 //! element), 4-point Gauss quadrature; section properties interpolated linearly in radius
-//! between stations (see [`BeamSection`] for beam data given directly). Strain energy uses the
-//! full 4x4 section stiffness about the pitch axis (`stiffness_pitch_axis`, coupling terms
-//! included) with the curvatures of the rotor-frame displacements resolved into the local chord
-//! frame, so pretwist turns the stiffness along the span. The kinetic energy is that of rigid
-//! sections with the mass centre offset and the section's second moments of mass about the pitch
-//! axis (consistent mass with rotary inertia). Classical (Euler–Bernoulli, Saint-Venant torsion)
-//! theory: no transverse shear, no restrained warping; the shear centre does not enter the
-//! classical 4x4 model, which carries bend–twist behaviour through its coupling terms only (so
-//! `shear_centre` is not read).
+//! between stations (see [`BeamSection`] for beam data given directly). The nodes' `u, v, w` are
+//! the displacements of the section's shear centre, about which it twists, so the curvatures
+//! are the shear-centre line's and a twist varying along the span bends nothing (at a root on
+//! springs the root node's are the pitch axis's, where the bearing holds it; mode shapes are
+//! given at the pitch axis). Strain energy uses the full 4x4 section stiffness
+//! (`stiffness_pitch_axis`, coupling terms included) referred to the shear centre, with the
+//! curvatures of the rotor-frame displacements resolved into the local chord frame, so pretwist
+//! turns the stiffness along the span. The kinetic energy is that of rigid sections with the
+//! mass centre offset and the section's second moments of mass about the shear centre
+//! (consistent mass with rotary inertia). Classical (Euler–Bernoulli, Saint-Venant torsion)
+//! theory: no transverse shear, no restrained warping; the shear centre's rate along the span is
+//! left out, as the mass and elastic centres' are.
 //!
 //! # Rotating terms (all proportional to `Omega²`)
 //!
 //! - Centrifugal stiffening: the tension `N(r) = Omega² ∫_r^tip m rho drho` acts at the elastic
 //!   centre as a uniform strain, giving
 //!   `½ N [v'² + w'² + 2 theta' (eta_c w' - zeta_c v') + k_A² theta'²]`, where
-//!   `k_A² = (S_22 + S_33) / S_00` of the pitch-axis stiffness is the modulus-weighted polar
-//!   radius of gyration (the `T k_A²` torsion term of Hodges & Dowell, NASA TN D-7818, 1974,
+//!   `k_A² = (S_22 + S_33) / S_00` of the stiffness about the shear centre is the
+//!   modulus-weighted polar radius of gyration about it (offsets `eta_c`, `zeta_c` from it too) (the `T k_A²` torsion term of Hodges & Dowell, NASA TN D-7818, 1974,
 //!   from memory).
 //! - Spin softening: `-½ Omega² ∫ rho (U² + V²) dA`, the centrifugal potential of radial and
 //!   in-plane motion (`omega_lag² = omega_flap² - Omega²` for a uniform beam).
