@@ -14,17 +14,21 @@ use super::band::BandMatrix;
 /// The three files of the export as `(name, contents)`: `stiffness.mtx`, `mass.mtx` and
 /// `dofs.csv`. Writing them is the caller's (`report::export_matrix_market`).
 pub fn matrix_market_files(matrices: &SystemMatrices) -> Vec<(&'static str, Vec<u8>)> {
+    // The nodes' displacements are the shear centre's (a root on springs: the pitch axis's).
+    let nodes =
+        "displacements u, v, w of the shear centre (of the pitch axis at a root on springs)";
     let k_note = format!(
-        "layloft constrained stiffness K = K_elastic + Omega^2 K_spin at {} rpm; rows as in dofs.csv",
+        "layloft constrained stiffness K = K_elastic + Omega^2 K_spin at {} rpm; rows as in dofs.csv\n{nodes}",
         matrices.speed.rpm()
     );
-    let m_note = "layloft constrained consistent mass matrix; rows as in dofs.csv";
+    let m_note =
+        format!("layloft constrained consistent mass matrix; rows as in dofs.csv\n{nodes}");
     let mut k = Vec::new();
     let mut m = Vec::new();
     let mut dofs = Vec::new();
     // Writing into a Vec cannot fail.
     let _ = write_matrix_market(&mut k, &matrices.stiffness, &k_note);
-    let _ = write_matrix_market(&mut m, &matrices.mass, m_note);
+    let _ = write_matrix_market(&mut m, &matrices.mass, &m_note);
     let _ = writeln!(dofs, "dof,node,r_m,quantity");
     for (i, d) in matrices.dofs.iter().enumerate() {
         let node = d.node.map_or(String::from("interior"), |n| n.to_string());
