@@ -209,8 +209,7 @@ pub(crate) fn rigid_body_densities(
 /// body's offset is measured from in the element; see `element.rs`).
 pub(crate) fn point_body_densities(body: &PointBody, section: &SpanSection) -> (Dens, Dens) {
     let (sn, cs) = section.phi.sin_cos();
-    let [y, z] =
-        [body.offset[0] - section.shear_centre[0], body.offset[1] - section.shear_centre[1]];
+    let [y, z] = section.offset_from_shear_centre(body.offset);
     let d = Vector3::new(0.0, y * cs - z * sn, y * sn + z * cs);
     let [ix, iy, iz] = body.inertia;
     // Own second moments from the moments of inertia, chord frame, then turned about x.
@@ -229,7 +228,7 @@ pub(crate) fn point_body_densities(body: &PointBody, section: &SpanSection) -> (
 /// axis, m).
 pub(crate) fn added_mass_density(added: [f64; 3], centre: [f64; 2], section: &SpanSection) -> Dens {
     let (sn, cs) = section.phi.sin_cos();
-    let [yc, zc] = [centre[0] - section.shear_centre[0], centre[1] - section.shear_centre[1]];
+    let [yc, zc] = section.offset_from_shear_centre(centre);
     let (eta, zeta) = (yc * cs - zc * sn, yc * sn + zc * cs);
     // Velocities of the centre along the chord and normal to it, and the twist rate.
     let mut a = SMatrix::<f64, 3, NQ>::zeros();

@@ -191,7 +191,7 @@ fn shape(model: &BeamModel, x: &DVector<f64>) -> ModeShape {
         }
     }
     // The dofs are the shear centre's (see `element.rs`); the shape is the pitch axis's.
-    for (i, &[eta_s, zeta_s]) in model.node_shear_centres().iter().enumerate().take(n) {
+    for (i, &[eta_s, zeta_s]) in model.node_shear_centres().iter().enumerate() {
         let twist = s.twist[i];
         s.axial[i] += eta_s * in_slope[i] + zeta_s * out_slope[i];
         s.in_plane[i] += zeta_s * twist;

@@ -58,9 +58,7 @@ impl SpanSection {
             ],
         }
     }
-}
 
-impl SpanSection {
     /// The section referred to its shear centre instead of the pitch axis: stiffness for the
     /// axial strain at the shear centre (`eps_p = eps_s - z_s kappa_f - y_s kappa_e`, so
     /// `K_s = Aᵀ K_p A`), mass centre and second moments of mass from the shear centre. The
@@ -75,7 +73,7 @@ impl SpanSection {
         let [jyy, jzz, jyz] = self.second_moments;
         SpanSection {
             stiffness: a.transpose() * self.stiffness * a,
-            mass_centre: [ym - ys, zm - zs],
+            mass_centre: self.offset_from_shear_centre([ym, zm]),
             second_moments: [
                 jyy - 2.0 * ys * m * ym + m * ys * ys,
                 jzz - 2.0 * zs * m * zm + m * zs * zs,
@@ -84,6 +82,13 @@ impl SpanSection {
             shear_centre: [0.0, 0.0],
             ..*self
         }
+    }
+
+    /// A point given in the chord frame from the pitch axis, taken from the shear centre
+    /// instead (chord frame, m): how the element places masses and the water (see
+    /// `element.rs`).
+    pub(crate) fn offset_from_shear_centre(&self, [y, z]: [f64; 2]) -> [f64; 2] {
+        [y - self.shear_centre[0], z - self.shear_centre[1]]
     }
 
     /// The shear centre in the rotor frame `(eta, zeta)` from the pitch axis, m.
