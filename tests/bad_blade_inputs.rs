@@ -150,6 +150,23 @@ fn unknown_key_in_blade_toml() {
     );
 }
 
+/// The least operating speed lies between 0 and the nominal speed (it starts the band over
+/// which the frequency margin is demanded); above the nominal, zero or negative it is refused
+/// at its key with what was expected (what a message must say: common practice).
+#[test]
+fn least_operating_speed_outside_zero_to_nominal() {
+    for bad in ["310", "0", "-50"] {
+        let m = message("blade.toml", "rpm_max = 330", &format!("rpm_max = 330\nrpm_min = {bad}"));
+        assert_eq!(
+            m,
+            format!(
+                "DIR/blade.toml line 10, rotor.rpm_min: expected the least operating speed, more \
+                 than 0 and at most rpm_nominal = 300, found {bad}"
+            )
+        );
+    }
+}
+
 #[test]
 fn web_ply_naming_an_unknown_web() {
     let m = message("plies.csv", "web:spar", "web:spr");

@@ -105,3 +105,54 @@ fn in_water_behind_vanes_the_check_uses_the_wet_frequencies_and_the_vane_orders(
     assert!(svg.contains("11P (11 vanes)") && svg.contains("gear mesh 150 Hz"));
     assert!(svg.contains("vane passing") && svg.contains("fixed frequency"));
 }
+
+/// A fan on a variable-speed drive (`rpm_min`, the least operating speed): the band over which
+/// the margin is demanded runs from it to `rpm_max`. Below the speed where the demo's flap 1
+/// meets a blade-passing order (its own crossing, read from `crossings[]`) the check fails with
+/// a margin of 0 there (a mode on an excitation line: the margin's definition); from a least
+/// speed above the crossing it passes, as the demo does without one.
+#[test]
+fn a_least_operating_speed_below_a_crossing_fails_the_margin() {
+    let dir = tempfile::tempdir().unwrap();
+    let path = demo_with(dir.path(), "");
+    let toml = fs::read_to_string(&path).unwrap();
+    let j = modes_json(&path);
+    assert_eq!(j["rpm_min"], j["rpm_nominal"], "no least speed given: the nominal");
+    let first = &j["crossings"][0];
+    let crossing = first["rpm"].as_f64().unwrap();
+    let nominal = j["rpm_nominal"].as_f64().unwrap();
+    assert!(crossing < nominal, "the demo's crossing lies below its nominal speed");
+    let check = |least: f64| {
+        let line = format!("[rotor]\nrpm_min = {least}");
+        fs::write(&path, toml.replacen("[rotor]", &line, 1)).unwrap();
+        let out = layloft().arg("check").arg(&path).arg("--json").output().unwrap();
+        let c: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+        let row = c["criteria"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .find(|r| r["criterion"] == "frequency_margin_pct")
+            .unwrap()
+            .clone();
+        (out.status.code(), row, modes_json(&path))
+    };
+    let (code, row, j) = check((0.8 * crossing).round());
+    assert_eq!(code, Some(1));
+    assert_eq!(row["pass"], false);
+    assert_eq!(j["rpm_min"], (0.8 * crossing).round());
+    let names: Vec<&str> =
+        j["margins"].as_array().unwrap().iter().map(|m| m["speed"].as_str().unwrap()).collect();
+    assert_eq!(names, ["minimum", "nominal", "maximum", "running"]);
+    let running = &j["margins"][3];
+    assert!((running["rpm"].as_f64().unwrap() / crossing - 1.0).abs() < 1e-3, "{running}");
+    let least = running["modes"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|m| m["margin_pct"].as_f64().unwrap())
+        .fold(f64::INFINITY, f64::min);
+    assert!(least < 1e-6, "{running}");
+    let (code, row, _) = check((crossing + 0.5 * (nominal - crossing)).round());
+    assert_eq!(code, Some(0), "{row}");
+    assert_eq!(row["pass"], true);
+}

@@ -10,7 +10,7 @@ use layloft::modal::{
 use layloft::output::export_matrix_market;
 use layloft::project::Criteria;
 use layloft::section::MassInertia;
-use layloft::units::{RotorSpeed, rpm_of};
+use layloft::units::{RotorSpeed, rpm_of, rpm_to_rad_s};
 
 fn blade_model(elements: usize, springs: bool) -> BeamModel {
     let spec = if springs {
@@ -315,6 +315,44 @@ fn massless_degrees_of_freedom_give_no_modes() {
         "{e}"
     );
     assert!(e.is_input());
+}
+
+/// With a least operating speed (`rpm_min`, a variable-speed drive) the band over which the
+/// margin is demanded starts there: the uniform unit beam's flap 1 on 2P (placed by bisection
+/// on directly solved modes, as in the crossing test) between the least and the nominal speed
+/// fails the margin, though the margins at the least, nominal and maximum speed all clear 10 %;
+/// the same rotor without a least speed (the band nominal to maximum) passes.
+#[test]
+fn a_crossing_between_the_least_and_the_nominal_speed_fails_the_margin() {
+    let beam = BeamSection::uniform(0.0, 1e8, 1e6, 1.0, 1e4, 1.0);
+    let probe = rotor(2, 20.0 / RAD_S_PER_RPM, 24.0 / RAD_S_PER_RPM, 0.0);
+    let model = BeamModel::new(&uniform(&beam, 0.0, 1.0), &probe, &spec(30)).unwrap();
+    let crossing = flap_1_on_2p(&model, rpm_of(probe.omega_max));
+    let criteria = Criteria { frequency_margin: Some(0.1), harmonics: 2, ..Criteria::default() };
+    let sections = uniform(&beam, 0.0, 1.0);
+    let least = |m: &layloft::modal::MarginCheck| {
+        m.modes.iter().map(|x| x.margin).fold(f64::INFINITY, f64::min)
+    };
+    // Least 30 % below the crossing, nominal 25 % and maximum 30 % above it.
+    let fixed = rotor(2, 1.25 * crossing, 1.3 * crossing, 0.0);
+    let run = |r: &layloft::project::Rotor| {
+        ModalAnalysis::run(&sections, r, &spec(30), &criteria, None, Some(4), &mut |_, _| {})
+            .unwrap()
+    };
+    let without = run(&fixed);
+    let names: Vec<&str> = without.margins.iter().map(|m| m.name.as_str()).collect();
+    assert_eq!(names, ["nominal", "maximum"]);
+    assert_eq!(without.pass(), Some(true));
+    let variable = layloft::project::Rotor { omega_min: rpm_to_rad_s(0.7 * crossing), ..fixed };
+    let with = run(&variable);
+    let names: Vec<&str> = with.margins.iter().map(|m| m.name.as_str()).collect();
+    assert_eq!(names, ["minimum", "nominal", "maximum", "running"]);
+    assert!(with.margins[..3].iter().all(|m| least(m) > 0.1 && m.pass == Some(true)));
+    assert!((with.margins[0].speed.rpm() / (0.7 * crossing) - 1.0).abs() < 1e-9);
+    let running = &with.margins[3];
+    assert!((running.speed.rpm() / crossing - 1.0).abs() < 1e-3, "{:?}", running.speed);
+    assert!(least(running) < 1e-9, "{running:?}");
+    assert_eq!(with.pass(), Some(false));
 }
 
 /// A crossing between the nominal and the maximum speed fails the margin check: the rotor runs

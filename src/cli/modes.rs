@@ -121,7 +121,9 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let analysis = run_modal(&model, &sources, out, range, args.modes)?;
     // A sweep of its own (`--rpm`) that leaves out a design speed checks no margin there: say so,
     // rather than let a missing margin pass for a clear one.
-    let outside: Vec<String> = [("nominal", p.rotor.omega_nominal), ("maximum", p.rotor.omega_max)]
+    let outside: Vec<String> = p
+        .rotor
+        .design_speeds()
         .into_iter()
         .filter(|(name, _)| !analysis.margins.iter().any(|m| m.name == *name))
         .map(|(name, w)| format!("the {name} speed ({} rpm)", rpm_text(rpm_of(w))))
@@ -142,7 +144,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
             &analysis.campbell,
             &analysis.excitations,
             &analysis.crossings,
-            (rpm_nominal, rpm_of(p.rotor.omega_max)),
+            (rpm_of(p.rotor.omega_min), rpm_of(p.rotor.omega_max)),
             &title,
         );
         write_atomic(path, svg.as_bytes())?;

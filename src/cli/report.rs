@@ -190,7 +190,6 @@ fn write_report_with(
         all
     };
     let modal = run_modal(model, sources, out, None, None)?;
-    let rpm_nominal = rpm_of(p.rotor.omega_nominal);
     let nominal_speed = RotorSpeed::from_rad_s(p.rotor.omega_nominal);
     let nominal = match modal.at_speed(nominal_speed) {
         Some(set) => set.clone(),
@@ -248,7 +247,7 @@ fn write_report_with(
         &modal.campbell,
         &modal.excitations,
         &modal.crossings,
-        (rpm_nominal, rpm_of(p.rotor.omega_max)),
+        (rpm_of(p.rotor.omega_min), rpm_of(p.rotor.omega_max)),
         &title,
     );
     put("campbell.svg", "Campbell diagram (SVG)", csvg.as_bytes())?;

@@ -66,24 +66,25 @@ pub struct ModalAnalysis {
     pub dry: Vec<DryComparison>,
 }
 
-/// The least margin strictly between the nominal and the maximum speed, where the rotor runs
-/// on its way from one to the other (a margin is demanded at the maximum speed, so the rotor is
-/// taken to run there and at every speed below it down to the nominal): the margins at every
-/// sweep speed inside the band and at every crossing inside it (a mode on an excitation line,
-/// margin 0), the speed with the least margin named `running`. `None` when the band holds no
-/// such speed or none has a margin below the least at both ends (then the ends govern, as the
-/// margins of a mode that draws away from or towards its excitation over the band do).
+/// The least margin strictly between the least and the greatest design speed, where the rotor
+/// runs on its way from one to the other (a margin is demanded at the maximum speed, so the
+/// rotor is taken to run there and at every speed below it down to the nominal, or down to the
+/// least operating speed when one is given): the margins at every sweep speed inside the band
+/// and at every crossing inside it (a mode on an excitation line, margin 0), the speed with the
+/// least margin named `running`. `None` when the band holds no such speed or none has a margin
+/// below the least at the design speeds (then these govern, as the margins of a mode that draws
+/// away from or towards its excitation over the band do).
 fn running_margins(
     campbell: &Campbell,
     excitations: &[Excitation],
     crossings: &[Crossing],
-    [nominal, max]: [RotorSpeed; 2],
+    [low, max]: [RotorSpeed; 2],
     required: Option<f64>,
     ends: &[MarginCheck],
 ) -> Result<Option<MarginCheck>, ModalError> {
     let least = |m: &MarginCheck| m.modes.iter().map(|mm| mm.margin).fold(f64::INFINITY, f64::min);
     let tol = max.tolerance(1e-9);
-    let inside = |s: RotorSpeed| s > nominal + tol && s < max - tol;
+    let inside = |s: RotorSpeed| s > low + tol && s < max - tol;
     let speeds = campbell
         .speeds
         .iter()
@@ -102,7 +103,7 @@ fn running_margins(
     Ok(worst.filter(|(m, _)| *m < at_ends).map(|(_, check)| check))
 }
 
-/// The name of the margin check between the nominal and the maximum speed.
+/// The name of the margin check between the design speeds.
 pub const RUNNING: &str = "running";
 
 impl ModalAnalysis {
@@ -143,9 +144,13 @@ impl ModalAnalysis {
             None => SpeedRange::for_rotor(rotor, spec.omega_step.map(RotorSpeed::from_rad_s))?,
         };
         // The rotor's speeds join the grid as the numbers the input gave (see `RotorSpeed`).
-        let nominal = RotorSpeed::from_rad_s(rotor.omega_nominal);
-        let max = RotorSpeed::from_rad_s(rotor.omega_max);
-        let speeds = range.speeds(&[nominal, max]);
+        let design: Vec<(&str, RotorSpeed)> = rotor
+            .design_speeds()
+            .into_iter()
+            .map(|(name, w)| (name, RotorSpeed::from_rad_s(w)))
+            .collect();
+        let design_grid: Vec<RotorSpeed> = design.iter().map(|&(_, s)| s).collect();
+        let speeds = range.speeds(&design_grid);
         let count = modes.unwrap_or(spec.modes);
         let campbell = model.campbell(&speeds, count, progress)?;
         let excitations = machine_excitations(
@@ -156,7 +161,7 @@ impl ModalAnalysis {
         );
         let crossings = campbell.crossings(&excitations);
         let mut margins = Vec::new();
-        for (name, speed) in [("nominal", nominal), ("maximum", max)] {
+        for &(name, speed) in &design {
             if speed >= range.from && speed <= range.to {
                 margins.push(campbell.margins(
                     &excitations,
@@ -166,12 +171,12 @@ impl ModalAnalysis {
                 )?);
             }
         }
-        if margins.len() == 2
+        if margins.len() == design.len()
             && let Some(running) = running_margins(
                 &campbell,
                 &excitations,
                 &crossings,
-                [nominal, max],
+                [design_grid[0], design_grid[design_grid.len() - 1]],
                 criteria.frequency_margin,
                 &margins,
             )?

@@ -521,27 +521,19 @@ impl Campbell {
         Ok(MarginCheck { name: name.to_string(), speed, required, modes, pass })
     }
 
-    /// The margins at the rotor's nominal and maximum speeds.
+    /// The margins at the rotor's design speeds ([`Rotor::design_speeds`]: the least operating
+    /// speed when it lies below the nominal, the nominal and the maximum).
     pub fn rotor_margins(
         &self,
         rotor: &Rotor,
         excitations: &[Excitation],
         required: Option<f64>,
     ) -> Result<Vec<MarginCheck>, ModalError> {
-        Ok(vec![
-            self.margins(
-                excitations,
-                "nominal",
-                RotorSpeed::from_rad_s(rotor.omega_nominal),
-                required,
-            )?,
-            self.margins(
-                excitations,
-                "maximum",
-                RotorSpeed::from_rad_s(rotor.omega_max),
-                required,
-            )?,
-        ])
+        rotor
+            .design_speeds()
+            .into_iter()
+            .map(|(name, w)| self.margins(excitations, name, RotorSpeed::from_rad_s(w), required))
+            .collect()
     }
 
     /// `(track, frequency_hz)` at `speed`: the solved modes when `speed` is a sweep speed, else

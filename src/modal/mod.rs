@@ -75,6 +75,7 @@
 //!     tip_radius: 1.0,
 //!     omega_nominal: rpm_to_rad_s(300.0),
 //!     omega_max: rpm_to_rad_s(360.0),
+//!     omega_min: rpm_to_rad_s(300.0),
 //!     pitch: Angle::ZERO,
 //!     pitch_range: (Angle::ZERO, Angle::ZERO),
 //!     root_clearance: 0.0,

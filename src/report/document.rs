@@ -75,10 +75,11 @@ pub fn blade_report(inp: &ReportInputs<'_>) -> String {
     let r = &p.rotor;
     let mut doc = HtmlReport::new(p.name.clone());
     doc.subtitle(format!(
-        "{} blades, radius {:.3}–{:.3} m, {} rpm nominal, {} rpm maximum",
+        "{} blades, radius {:.3}–{:.3} m, {}{} rpm nominal, {} rpm maximum",
         r.blades,
         r.hub_radius,
         r.tip_radius,
+        least_speed_text(r),
         rpm_text(rpm_of(r.omega_nominal)),
         rpm_text(rpm_of(r.omega_max))
     ));
@@ -153,7 +154,8 @@ fn blade_section(doc: &mut HtmlReport, m: &BladeModel) {
         (
             "speeds",
             format!(
-                "{} rpm nominal, {} rpm maximum",
+                "{}{} rpm nominal, {} rpm maximum",
+                least_speed_text(r),
                 rpm_text(rpm_of(r.omega_nominal)),
                 rpm_text(rpm_of(r.omega_max))
             ),
@@ -379,7 +381,7 @@ fn vibration_section(
     s.figure(
         "campbell",
         "Campbell diagram: natural frequencies against rotor speed, excitation lines, crossings, and the operating range shaded.",
-        campbell_svg(&a.campbell, &a.excitations, &a.crossings, (rpm_of(p.rotor.omega_nominal), rpm_of(p.rotor.omega_max)), &format!("Campbell diagram — {}", p.name)),
+        campbell_svg(&a.campbell, &a.excitations, &a.crossings, (rpm_of(p.rotor.omega_min), rpm_of(p.rotor.omega_max)), &format!("Campbell diagram — {}", p.name)),
     );
     for check in &a.margins {
         let mut t = Table::new(&[
@@ -434,5 +436,15 @@ fn vibration_section(
             ),
             mode_shapes_svg(set, 4, &format!("Mode shapes at {} rpm", rpm_text(set.speed.rpm()))),
         );
+    }
+}
+
+/// `"<least> rpm least, "` when the rotor's least operating speed lies below its nominal speed
+/// (`rpm_min`), else nothing.
+fn least_speed_text(r: &crate::project::Rotor) -> String {
+    if r.omega_min < r.omega_nominal {
+        format!("{} rpm least, ", rpm_text(rpm_of(r.omega_min)))
+    } else {
+        String::new()
     }
 }

@@ -16,6 +16,7 @@ pub fn rotor(blades: u32, rpm_nominal: f64, rpm_max: f64, pitch_deg: f64) -> Rot
         tip_radius: 1.0,
         omega_nominal: rpm_to_rad_s(rpm_nominal),
         omega_max: rpm_to_rad_s(rpm_max),
+        omega_min: rpm_to_rad_s(rpm_nominal),
         pitch: Angle::from_deg(pitch_deg),
         pitch_range: (Angle::from_deg(-10.0), Angle::from_deg(30.0)),
         root_clearance: 0.0,

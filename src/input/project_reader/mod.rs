@@ -4,8 +4,9 @@
 //!
 //! - top level: `name` (required);
 //! - `[rotor]` (required): `blades`, `hub_radius_m`, `tip_radius_m`, `rpm_nominal`, `rpm_max`
-//!   (required); `pitch_deg` (0), `pitch_range_deg = [least, greatest]` (the pitch setting),
-//!   `root_clearance_m` (0), `tip_clearance_m` (0);
+//!   (required); `rpm_min` (the least operating speed, `rpm_nominal` by default), `pitch_deg`
+//!   (0), `pitch_range_deg = [least, greatest]` (the pitch setting), `root_clearance_m` (0),
+//!   `tip_clearance_m` (0);
 //! - `[files]`: `stations` ("stations.csv"), `plies` ("plies.csv"), `materials`
 //!   ("materials.toml");
 //! - `[[web]]`: `name`, `chord_frac` (required), `r_start_m`, `r_end_m` (the whole blade);

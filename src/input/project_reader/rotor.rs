@@ -12,6 +12,7 @@ pub(super) fn read_rotor(
         "tip_radius_m",
         "rpm_nominal",
         "rpm_max",
+        "rpm_min",
         "pitch_deg",
         "pitch_range_deg",
         "root_clearance_m",
@@ -51,6 +52,19 @@ pub(super) fn read_rotor(
             format!("expected at least rpm_nominal = {rpm_nominal}, found {rpm_max}"),
         ));
     }
+    let rpm_min = match t.optional_f64("rpm_min")? {
+        None => rpm_nominal,
+        Some(v) if v > 0.0 && v <= rpm_nominal => v,
+        Some(v) => {
+            return Err(t.error(
+                "rpm_min",
+                format!(
+                    "expected the least operating speed, more than 0 and at most rpm_nominal = \
+                     {rpm_nominal}, found {v}"
+                ),
+            ));
+        }
+    };
     let pitch_deg = t.optional_f64("pitch_deg")?.unwrap_or(0.0);
     if pitch_deg.abs() > MAX_PITCH_DEG {
         return Err(t.error(
@@ -125,6 +139,7 @@ pub(super) fn read_rotor(
         tip_radius,
         omega_nominal: rpm_to_rad_s(rpm_nominal),
         omega_max: rpm_to_rad_s(rpm_max),
+        omega_min: rpm_to_rad_s(rpm_min),
         pitch,
         pitch_range,
         root_clearance,

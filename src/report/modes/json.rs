@@ -1,6 +1,7 @@
 //! Modal results as JSON, units in every field name.
 //!
-//! JSON (`modal_json`): `rpm_nominal`, `rpm_max`, `blades`; `speeds[]` with `rpm` and `modes[]`
+//! JSON (`modal_json`): `rpm_nominal`, `rpm_max`, `rpm_min` (the least operating speed, the
+//! nominal when the project gives none), `blades`; `speeds[]` with `rpm` and `modes[]`
 //! (`frequency_hz`, `kind`, `track` and the kinetic energy shares `flap_share` ...);
 //! `tracks[]` (`track`, `track_number` from 1, `label`, `kind`, `family`, `mean_*_share`);
 //! `excitations[]` (`harmonic`, `blade_passing`, `label`, `vanes`, `fixed_name`,
@@ -123,6 +124,7 @@ pub fn modal_json(
     json!({
         "rpm_nominal": rpm_of(rotor.omega_nominal),
         "rpm_max": rpm_of(rotor.omega_max),
+        "rpm_min": rpm_of(rotor.omega_min),
         "blades": rotor.blades,
         "speeds": speeds,
         "tracks": tracks,
