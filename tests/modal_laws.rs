@@ -4,11 +4,11 @@
 
 use crate::modal_support::*;
 use layloft::modal::{
-    BeamModel, BeamSection, LanczosParams, ModalAnalysis, ModalError, ModeKind, SpeedRange,
-    excitation_orders, mac, solve_dense, solve_lowest,
+    Attachments, BeamModel, BeamSection, LanczosParams, ModalAnalysis, ModalError, ModalInputs,
+    ModeKind, SpeedRange, excitation_orders, mac, solve_dense, solve_lowest,
 };
 use layloft::output::export_matrix_market;
-use layloft::project::Criteria;
+use layloft::project::{Criteria, ExcitationSpec, FixedExcitation};
 use layloft::section::MassInertia;
 use layloft::units::{RotorSpeed, rpm_of, rpm_to_rad_s};
 
@@ -315,6 +315,53 @@ fn massless_degrees_of_freedom_give_no_modes() {
         "{e}"
     );
     assert!(e.is_input());
+}
+
+/// The modes solved cover the excitations: a mode may lie within the margin of an excitation
+/// only if it lies below the highest excitation times `1 + margin`, so the count asked for is
+/// raised until the highest mode solved lies above that. The uniform unit cantilever (EI = 1,
+/// m = 1, L = 1, edge and torsion far above) turning at 0.1 rpm (the spin shifts the
+/// frequencies by about 1e-8): its third flap mode stands at (7.8548²/2π) sqrt(EI/(m L⁴)) =
+/// 9.8195 Hz (Blevins, Formulas for Natural Frequency and Mode Shape, table 8-1, clamped-free,
+/// from memory). A fixed excitation there, with two modes asked for, was cleared by the two
+/// modes solved; now four are solved (the fourth lies above 1.1 × 9.8195 Hz) and the third
+/// fails the margin.
+#[test]
+fn the_modes_solved_reach_past_the_highest_excitation() {
+    let beam = BeamSection::uniform(0.0, 1e8, 1e6, 1.0, 1e4, 1.0);
+    let sections = uniform(&beam, 0.0, 1.0);
+    let r = rotor(2, 0.1, 0.12, 0.0);
+    let f3 = 7.8548_f64.powi(2) / (2.0 * std::f64::consts::PI);
+    let excitation = ExcitationSpec {
+        fixed: vec![FixedExcitation { name: "shaker".into(), from_hz: f3, to_hz: f3 }],
+        ..ExcitationSpec::default()
+    };
+    let criteria = Criteria { frequency_margin: Some(0.1), harmonics: 2, ..Criteria::default() };
+    let attachments = Attachments::default();
+    let inputs = ModalInputs {
+        sections: &sections,
+        rotor: &r,
+        spec: &spec(30),
+        criteria: &criteria,
+        attachments: &attachments,
+        excitation: &excitation,
+    };
+    let run = ModalAnalysis::run_inputs(&inputs, None, Some(2), &mut |_, _| {}).unwrap();
+    let c = run.coverage;
+    assert_eq!((c.asked, c.solved), (2, 4), "{c:?}");
+    assert!(c.covered() && (c.needed_hz / (1.1 * f3) - 1.0).abs() < 1e-12, "{c:?}");
+    // Flap 4 at (10.9955²/2π) Hz (the same table).
+    let f4 = 10.9955_f64.powi(2) / (2.0 * std::f64::consts::PI);
+    assert!((c.highest_hz / f4 - 1.0).abs() < 1e-3, "{c:?}");
+    let third = run.margins[0].modes.iter().find(|m| m.track == 2).expect("flap 3 is checked");
+    assert!((third.frequency_hz / f3 - 1.0).abs() < 1e-4, "{third:?}");
+    assert!(third.margin < 1e-4 && third.pass == Some(false), "{third:?}");
+    assert_eq!(run.pass(), Some(false));
+    // Without the fixed excitation the two modes asked for reach past 1.1 × 2P: none is added.
+    let plain =
+        ModalAnalysis::run(&sections, &r, &spec(30), &criteria, None, Some(2), &mut |_, _| {})
+            .unwrap();
+    assert_eq!((plain.coverage.solved, plain.pass()), (2, Some(true)));
 }
 
 /// With a least operating speed (`rpm_min`, a variable-speed drive) the band over which the

@@ -52,6 +52,13 @@ pub fn run_modal(
     })
     .map_err(|e| modal_failure(sources, range.is_some(), modes.is_some(), e))?;
     bar.finish();
+    // Modes the elements cannot resolve, near an excitation: the margin check cannot see them.
+    if !analysis.coverage.covered() {
+        out.warn(&layloft::report::coverage_statement(
+            &analysis.coverage,
+            analysis.model.elements(),
+        ));
+    }
     Ok(analysis)
 }
 

@@ -64,6 +64,83 @@ pub struct ModalAnalysis {
     /// With a fluid: the dry frequencies at the first sweep speed and the checked speeds (the
     /// sweep, crossings and margins are wet). Empty without a fluid.
     pub dry: Vec<DryComparison>,
+    /// How many modes were asked for and solved, against the highest excitation to cover.
+    pub coverage: ModeCoverage,
+}
+
+/// The modes solved against the excitations they must cover: every mode below the highest
+/// excitation frequency times `1 + margin` must be checked, since it may lie within the margin
+/// of that excitation; a mode above it clears every excitation by the margin. So the count
+/// asked for is raised until the highest mode solved lies above that frequency at every speed
+/// checked, up to what the beam elements resolve.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct ModeCoverage {
+    /// Modes asked for (`[modal] modes`, or `--modes`).
+    pub asked: usize,
+    /// Modes solved at every speed of the sweep (at least `asked`).
+    pub solved: usize,
+    /// The highest excitation frequency times `1 + margin`, Hz, at the speed where the highest
+    /// mode solved stands lowest against it.
+    pub needed_hz: f64,
+    /// The highest mode solved at that speed, Hz.
+    pub highest_hz: f64,
+    /// That speed.
+    pub speed: RotorSpeed,
+}
+
+impl ModeCoverage {
+    /// Whether the highest mode solved lies above [`ModeCoverage::needed_hz`] (every mode that
+    /// may lie within the margin of an excitation is checked).
+    pub fn covered(&self) -> bool {
+        self.highest_hz > self.needed_hz
+    }
+}
+
+/// The fewest modes, at least `asked` and at most `cap`, whose highest frequency lies above the
+/// highest excitation times `1 + margin` at each of `speeds` (see [`ModeCoverage`]): the count
+/// is doubled until it does. A model with fewer modes with mass than asked stops the raise at
+/// the last count it could solve.
+fn modes_covering(
+    model: &BeamModel,
+    excitations: &[Excitation],
+    speeds: &[RotorSpeed],
+    margin: f64,
+    asked: usize,
+    cap: usize,
+) -> Result<ModeCoverage, ModalError> {
+    let needed = |speed: RotorSpeed| {
+        excitations.iter().map(|e| e.range_hz(speed).1).fold(0.0, f64::max) * (1.0 + margin)
+    };
+    let worst = |count: usize| -> Result<ModeCoverage, ModalError> {
+        let mut worst: Option<ModeCoverage> = None;
+        for &speed in speeds {
+            let set = model.modes(speed, count)?;
+            let highest_hz = set.modes.last().map_or(0.0, |m| m.frequency_hz);
+            let here =
+                ModeCoverage { asked, solved: count, needed_hz: needed(speed), highest_hz, speed };
+            let slack = |c: &ModeCoverage| c.highest_hz - c.needed_hz;
+            if worst.as_ref().is_none_or(|w| slack(&here) < slack(w)) {
+                worst = Some(here);
+            }
+        }
+        Ok(worst.unwrap_or(ModeCoverage {
+            asked,
+            solved: count,
+            needed_hz: 0.0,
+            highest_hz: f64::INFINITY,
+            speed: RotorSpeed::ZERO,
+        }))
+    };
+    let mut best = worst(asked)?;
+    while !best.covered() && best.solved < cap {
+        let more = (2 * best.solved).min(cap);
+        match worst(more) {
+            Ok(c) => best = c,
+            Err(e) if e.is_input() => break,
+            Err(e) => return Err(e),
+        }
+    }
+    Ok(best)
 }
 
 /// The least margin strictly between the least and the greatest design speed, where the rotor
@@ -151,14 +228,34 @@ impl ModalAnalysis {
             .collect();
         let design_grid: Vec<RotorSpeed> = design.iter().map(|&(_, s)| s).collect();
         let speeds = range.speeds(&design_grid);
-        let count = modes.unwrap_or(spec.modes);
-        let campbell = model.campbell(&speeds, count, progress)?;
         let excitations = machine_excitations(
             criteria.harmonics,
             rotor.blades,
             BLADE_PASSING_MULTIPLES,
             excitation,
         );
+        // The design speeds inside the sweep, and the middles between them: the excitations
+        // rise along straight lines, a mode's frequency (about `sqrt(f0² + k Ω²)`) along a
+        // convex curve, which may pass below a line it clears at both ends.
+        let inside: Vec<RotorSpeed> =
+            design_grid.iter().copied().filter(|&s| s >= range.from && s <= range.to).collect();
+        // The sweep's first speed leads, so that a blade the model cannot hold fails there, as
+        // the sweep would (at standstill a failure is the root's, not the spin's).
+        let mut checked = vec![range.from];
+        checked.extend(inside.iter().copied());
+        checked.extend(inside.windows(2).map(|w| w[0] + (w[1] - w[0]) * 0.5));
+        let asked = modes.unwrap_or(spec.modes);
+        let cap = spec.elements.min(model.dof_count()).max(asked);
+        let coverage = modes_covering(
+            &model,
+            &excitations,
+            &checked,
+            criteria.frequency_margin.unwrap_or(0.0),
+            asked,
+            cap,
+        )?;
+        let count = coverage.solved;
+        let campbell = model.campbell(&speeds, count, progress)?;
         let crossings = campbell.crossings(&excitations);
         let mut margins = Vec::new();
         for &(name, speed) in &design {
@@ -216,7 +313,7 @@ impl ModalAnalysis {
                 dry.push(DryComparison { speed, modes });
             }
         }
-        Ok(ModalAnalysis { model, range, campbell, excitations, crossings, margins, dry })
+        Ok(ModalAnalysis { model, range, campbell, excitations, crossings, margins, dry, coverage })
     }
 
     /// The modes of the sweep at `speed`, when the sweep holds that speed (the nominal and

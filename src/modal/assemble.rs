@@ -290,6 +290,11 @@ impl BeamModel {
         &self.node_chord
     }
 
+    /// The number of beam elements.
+    pub fn elements(&self) -> usize {
+        self.nodes.len() - 1
+    }
+
     /// The rotor the model was built for.
     pub fn rotor(&self) -> &Rotor {
         &self.rotor

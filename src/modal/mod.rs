@@ -108,7 +108,9 @@ mod span;
 mod track;
 mod tridiagonal;
 
-pub use analysis::{BLADE_PASSING_MULTIPLES, DryComparison, ModalAnalysis, ModalInputs, RUNNING};
+pub use analysis::{
+    BLADE_PASSING_MULTIPLES, DryComparison, ModalAnalysis, ModalInputs, ModeCoverage, RUNNING,
+};
 pub use assemble::{BeamModel, Dof, DofKind, MAX_ELEMENTS, SystemMatrices};
 pub use attached::{Attachments, FluidSection, PointBody, ellipse_added_mass};
 pub use band::BandMatrix;

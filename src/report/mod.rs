@@ -53,8 +53,8 @@ pub use html::HtmlReport;
 pub use laminate::LaminateReport;
 pub use materials::materials_text;
 pub use modes::{
-    campbell_csv, campbell_svg, kind_colour, modal_analysis_json, modal_json, modal_text,
-    mode_shapes_csv, model_statement,
+    campbell_csv, campbell_svg, coverage_statement, kind_colour, modal_analysis_json, modal_json,
+    modal_text, mode_shapes_csv, model_statement,
 };
 pub use plybook::{plybook_block, plybook_error_text, plybook_links};
 pub use sections::{SectionsReport, laminate_label};

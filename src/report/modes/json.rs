@@ -138,7 +138,10 @@ pub fn modal_json(
 /// `root_springs` with `axial_N_m`, `flap_Nm_rad`, `edge_Nm_rad`, `torsion_Nm_rad`,
 /// `point_masses[]` with `r_m`, `mass_kg`, `y_m`, `z_m`, `inertia_x_kg_m2` ..., `fluid_density_kg_m3`)
 /// and, with a fluid, `dry_wet[]`: `rpm` and `modes[]` with `track`, `frequency_wet_Hz`,
-/// `frequency_dry_Hz`, `mac_dry_wet` (the sweep's `frequency_hz` are then wet).
+/// `frequency_dry_Hz`, `mac_dry_wet` (the sweep's `frequency_hz` are then wet); and
+/// `mode_coverage` (`modes_asked`, `modes_solved`, `highest_excitation_with_margin_Hz`,
+/// `highest_mode_Hz`, `rpm`, `covered`: whether every mode that may lie within the margin of an
+/// excitation was solved).
 pub fn modal_analysis_json(a: &ModalAnalysis) -> Value {
     let mut v = modal_json(&a.campbell, a.model.rotor(), &a.excitations, &a.crossings, &a.margins);
     let att = a.model.attachments();
@@ -196,6 +199,18 @@ pub fn modal_analysis_json(a: &ModalAnalysis) -> Value {
         obj.insert("point_masses".into(), Value::Array(bodies));
         obj.insert("fluid_density_kg_m3".into(), json!(att.fluid.as_ref().map(|f| f.0)));
         obj.insert("dry_wet".into(), Value::Array(dry));
+        let c = &a.coverage;
+        obj.insert(
+            "mode_coverage".into(),
+            json!({
+                "modes_asked": c.asked,
+                "modes_solved": c.solved,
+                "highest_excitation_with_margin_Hz": c.needed_hz,
+                "highest_mode_Hz": c.highest_hz,
+                "rpm": c.speed.rpm(),
+                "covered": c.covered(),
+            }),
+        );
     }
     v
 }

@@ -9,4 +9,4 @@ mod text;
 pub use campbell::{campbell_svg, kind_colour};
 pub use csv::{campbell_csv, mode_shapes_csv};
 pub use json::{modal_analysis_json, modal_json};
-pub use text::{crossings_table, dry_table, modal_text, model_statement};
+pub use text::{coverage_statement, crossings_table, dry_table, modal_text, model_statement};

@@ -2,7 +2,7 @@
 
 use std::fmt::Write as _;
 
-use crate::modal::ModalAnalysis;
+use crate::modal::{ModalAnalysis, ModeCoverage};
 use crate::report::{Align, Table, fixed, rpm_text, sig4};
 use crate::units::pct_of;
 
@@ -182,6 +182,7 @@ pub fn model_statement(a: &ModalAnalysis) -> String {
             let _ = writeln!(out, "Fluid: none (air's added mass neglected).");
         }
     }
+    let _ = writeln!(out, "{}", coverage_statement(&a.coverage, a.model.elements()));
     out
 }
 
@@ -218,4 +219,32 @@ pub fn dry_table(a: &ModalAnalysis) -> Table {
         }
     }
     t
+}
+
+/// What the modes solved cover: the highest excitation with the margin against the highest mode
+/// (see [`ModeCoverage`]).
+pub fn coverage_statement(c: &ModeCoverage, elements: usize) -> String {
+    let at = format!("{} Hz at {} rpm", sig4(c.highest_hz), rpm_text(c.speed.rpm()));
+    let needed = sig4(c.needed_hz);
+    if !c.covered() {
+        format!(
+            "Modes: {}, the most the {elements} beam elements resolve; the highest ({at}) lies \
+             below {needed} Hz, the highest excitation with the margin: modes above it are NOT \
+             checked against the excitations near them.",
+            c.solved
+        )
+    } else if c.solved > c.asked {
+        format!(
+            "Modes: {} solved ({} asked for), so that the highest ({at}) lies above {needed} Hz, \
+             the highest excitation with the margin: every mode that may lie near an excitation \
+             is checked.",
+            c.solved, c.asked
+        )
+    } else {
+        format!(
+            "Modes: {}; the highest ({at}) lies above {needed} Hz, the highest excitation with \
+             the margin: every mode that may lie near an excitation is checked.",
+            c.solved
+        )
+    }
 }
