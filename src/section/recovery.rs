@@ -8,7 +8,10 @@
 //! and, with `N_s = 0` and `kappa_s = 0`, the wall's full midplane deformation, which
 //! [`Laminate::response`](crate::laminate::Laminate::response) turns into ply stresses.
 //! Integrated round the section, the recovered `N_x`, `M_x`, `N_xs` and `M_xs` give back the
-//! beam resultants.
+//! beam resultants when the strains come from [`SolvedSection::strains_under_shear`] (or from
+//! [`SolvedSection::strains`] without shear forces): a wall with membrane–shear coupling turns
+//! the transverse shear flow into wall axial forces, whose resultants the beam strains must
+//! leave to it.
 
 use nalgebra::{Vector3, Vector4};
 
@@ -57,6 +60,19 @@ impl SolvedSection {
     /// resultants `(N, T, M_f, M_e)` about it, by the section compliance.
     pub fn strains(&self, resultants: &Vector4<f64>) -> Vector4<f64> {
         self.compliance * resultants
+    }
+
+    /// Generalised strains `(eps, kappa_t, kappa_f, kappa_e)` about the elastic centre under
+    /// resultants `(N, T, M_f, M_e)` about it (the torque about the shear centre) together with
+    /// shear forces `shear = [V_flap, V_edge]` (N, along z and y) through the shear centre: the
+    /// compliance times the resultants less those the transverse shear flow carries through the
+    /// walls' membrane–shear coupling (zero for walls without it). These are the strains for
+    /// [`SolvedSection::wall_states`] with the same shear forces.
+    pub fn strains_under_shear(&self, resultants: &Vector4<f64>, shear: [f64; 2]) -> Vector4<f64> {
+        let [flap, edge] = &self.shear.coupling;
+        let carried =
+            shift(self.properties.elastic_centre).transpose() * (flap * shear[0] + edge * shear[1]);
+        self.compliance * (resultants - carried)
     }
 
     /// The state of every wall element at its midpoint under generalised strains about the

@@ -15,11 +15,21 @@
 //! walls' transverse shear, not through the shear flow: the membrane flow then carries the shear
 //! force less that part (order `(t/h)²` for symmetric walls, `t/h` for unsymmetric ones); the
 //! shear centre is placed by the membrane flow's own resultant.
+//!
+//! A wall with membrane–shear coupling (`c ≠ 0` in the mixed law of `wall.rs`: an off-axis or
+//! unbalanced laminate) turns the transverse shear flow into wall axial forces and moments,
+//! `(N_x, M_x, M_xs) = c N_xs` at zero beam strain. Their beam resultants
+//! ([`ShearSolution::coupling`], per unit shear force) are part of what the section carries: the
+//! beam strains under a shear force are those of the applied resultants less these (see
+//! [`super::SolvedSection::strains_under_shear`]), so that the recovered walls hold the applied
+//! moments. For a uniform round tube of a `[30]` wall under a flapwise shear force this puts the
+//! edgewise curvature that cancels the coupled `N_x` (the recovered walls carried an edgewise
+//! moment of `c V R` before, `c = A16/A66` of the wall).
 
 use nalgebra::{DVector, Matrix4, Vector4};
 
 use super::contour::{Contour, Node};
-use super::outline::cross;
+use super::outline::{cross, lerp};
 use super::stiffness::{Assembly, kinematics, solve_cells};
 use super::wall::{WallCurvature, WallStiffness};
 
@@ -54,6 +64,9 @@ pub(crate) struct ShearSolution {
     pub flap: Vec<ShearField>,
     pub edge: Vec<ShearField>,
     pub centre: [f64; 2],
+    /// Beam resultants `(N, T, M_f, M_e)` about the origin that the walls' membrane–shear
+    /// coupling makes of the unit flap and edge fields at zero beam strain.
+    pub coupling: [Vector4<f64>; 2],
 }
 
 pub(crate) fn solve_shear(
@@ -82,7 +95,34 @@ pub(crate) fn solve_shear(
     let (_, fz, mf) = resultant(&flap);
     let (fy, _, me) = resultant(&edge);
     let centre = [mf / fz, -me / fy];
-    centre.iter().all(|v| v.is_finite()).then_some(ShearSolution { flap, edge, centre })
+    let coupling = [
+        coupling_resultants(contour, walls, &flap, mode),
+        coupling_resultants(contour, walls, &edge, mode),
+    ];
+    let finite = centre.iter().chain(coupling.iter().flat_map(|c| c.iter())).all(|v| v.is_finite());
+    finite.then_some(ShearSolution { flap, edge, centre, coupling })
+}
+
+/// `Σ ∫ Gᵀ c q ds` over the elements: the beam resultants about the origin of the wall forces
+/// `(N_x, M_x, M_xs) = c q` that a shear flow field `q` makes through the coupling `c` of each
+/// wall, at zero beam strain (by virtual work, as the stiffness in `stiffness.rs`). Simpson's
+/// rule is exact: `q` is quadratic along an element and `G` linear.
+fn coupling_resultants(
+    contour: &Contour,
+    walls: &[WallStiffness],
+    field: &[ShearField],
+    mode: WallCurvature,
+) -> Vector4<f64> {
+    let mut r = Vector4::zeros();
+    for (e, q) in contour.elements.iter().zip(field) {
+        let c = walls[e.laminate].mixed_coupling();
+        let l = e.length();
+        for (fraction, weight) in [(0.0, 1.0), (0.5, 4.0), (1.0, 1.0)] {
+            let g = kinematics(lerp(e.start, e.end, fraction), e.normal(), mode);
+            r += g.transpose() * c * (q.at(fraction * l, l) * weight * l / 6.0);
+        }
+    }
+    r
 }
 
 /// The zero-twist shear flow for the strain rate `rate` (about the pitch axis).

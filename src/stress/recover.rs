@@ -73,7 +73,7 @@ pub(crate) fn section_states(
     resultants: &BeamResultants,
 ) -> Vec<crate::section::WallState> {
     let (res, shear) = section_resultants(section, resultants);
-    let strains = section.strains(&res);
+    let strains = section.strains_under_shear(&res, shear);
     section.wall_states(&strains, shear)
 }
 
