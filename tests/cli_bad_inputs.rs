@@ -213,6 +213,42 @@ fn a_web_that_leaves_a_core_no_room_is_refused_with_what_to_change() {
 }
 
 #[test]
+fn ply_edges_less_than_a_micrometre_apart_share_one_vertex() {
+    // cap-2 of the mine fan starting 5e-7 of the chord behind cap-1's start, as a spreadsheet's
+    // round-off gives: the two edges made two thickness steps on one outline vertex, and the
+    // section failed ("degenerate outer contour ... repeated point", placed on stations.csv).
+    // The same within one ply (cap-1 covering 1e-7 of the chord) failed alike.
+    let stiffness = |c: &Copy| -> Vec<f64> {
+        let (code, stdout, stderr) = c.run("sections", &["--json"]);
+        assert_eq!(code, Some(0), "{stderr}");
+        let json: serde_json::Value = serde_json::from_str(&stdout).expect("JSON");
+        let stations = json["stations"].as_array().expect("stations");
+        stations.iter().map(|s| s["EA_N"].as_f64().expect("EA_N")).collect()
+    };
+    let demo = stiffness(&Copy::of("mine-fan"));
+    let moved = Copy::of("mine-fan");
+    moved.edit(
+        "plies.csv",
+        "cap-2,carbon-ud,0,0.40,0.80,both,0.15,",
+        "cap-2,carbon-ud,0,0.40,0.80,both,0.1500005,",
+    );
+    let moved = stiffness(&moved);
+    assert_eq!(moved.len(), demo.len());
+    for (m, d) in moved.iter().zip(&demo) {
+        // Closed form of the strip that moves: 2 surfaces x 5e-7 x 0.28 m chord x 0.2 mm x
+        // 135 GPa = 7.6 N against a root EA near 2e7 N, 4e-7 of it.
+        assert!((m - d).abs() <= 1e-6 * d.abs(), "EA {m} against the demo's {d}");
+    }
+    let thin = Copy::of("mine-fan");
+    thin.edit(
+        "plies.csv",
+        "cap-1,carbon-ud,0,0.40,0.90,both,0.15,0.50",
+        "cap-1,carbon-ud,0,0.40,0.90,both,0.15,0.1500001",
+    );
+    assert_eq!(stiffness(&thin).len(), demo.len());
+}
+
+#[test]
 fn plies_that_cannot_fit_in_the_section_are_refused() {
     // Forty more unidirectional plies on both skins of the mine fan: aft of where the walls
     // meet, the laminate the sections would hold exceeds the area its outline encloses, so the

@@ -34,7 +34,7 @@ impl Blade {
         let n = (contour_points / 2).max(8);
         let mut outline = self.outline(r, n)?;
         // A vertex at every ply edge, so that each segment lies under one laminate.
-        let edges = |surface: Surface| -> Vec<f64> {
+        let edges = |surface: Surface| -> Vec<(f64, f64)> {
             let mut e: Vec<f64> = self
                 .plies
                 .iter()
@@ -51,22 +51,33 @@ impl Blade {
                 .filter(|&x| x > 1e-6 && x < 1.0 - 1e-6)
                 .collect();
             e.sort_by(f64::total_cmp);
-            e.dedup_by(|a, b| (*a - *b).abs() < 1e-9);
-            e
+            // Edges closer than `EDGE_MERGE` are one vertex (the first of them): `insert_edges`
+            // puts no second vertex that close, and two thickness steps on one vertex would
+            // give it two ramps whose ends all but coincide. Each entry is the cluster's first
+            // and last edge, so that the step is taken across all of it.
+            let mut clusters: Vec<(f64, f64)> = Vec::new();
+            for x in e {
+                match clusters.last_mut() {
+                    Some(last) if x - last.1 < EDGE_MERGE => last.1 = x,
+                    _ => clusters.push((x, x)),
+                }
+            }
+            clusters
         };
         let chord = self.chord(r);
         for (surface, points) in
             [(Surface::Upper, &mut outline.upper), (Surface::Lower, &mut outline.lower)]
         {
-            let e = edges(surface);
+            let clusters = edges(surface);
+            let e: Vec<f64> = clusters.iter().map(|c| c.0).collect();
             insert_edges(points, &e);
             // Where the thickness steps, the wall midline ramps from one offset to the other
             // over the two segments beside the step; their length is fixed here (see
             // `fix_ramps`) so that the stiffness converges as the outline gets more points.
-            let steps: Vec<(f64, f64)> = e
+            let steps: Vec<(f64, f64)> = clusters
                 .iter()
-                .map(|&x| {
-                    let step = self.surface_thickness(r, surface, x + 1e-7)
+                .map(|&(x, last)| {
+                    let step = self.surface_thickness(r, surface, last + 1e-7)
                         - self.surface_thickness(r, surface, x - 1e-7);
                     (x, PLY_DROP_RAMP * step.abs() / chord)
                 })
@@ -168,13 +179,18 @@ impl Blade {
 /// Inserts a point at each chord fraction in `edges` (sorted) on a surface running from the
 /// leading edge to the trailing edge, on the straight segment that straddles it; a point within
 /// 1e-6 chord of an existing one is taken as already there.
+/// Ply edges closer than this (chord fraction) along a surface share one vertex of the outline,
+/// as an edge this close to an outline point does (`insert_edges`): a micrometre on a metre of
+/// chord, far below how closely cloth is cut.
+const EDGE_MERGE: f64 = 1e-6;
+
 fn insert_edges(surface: &mut Vec<[f64; 2]>, edges: &[f64]) {
     for &x in edges {
         let Some(i) = surface.windows(2).position(|w| w[0][0] <= x && x < w[1][0]) else {
             continue;
         };
         let (a, b) = (surface[i], surface[i + 1]);
-        if (x - a[0]).abs() < 1e-6 || (b[0] - x).abs() < 1e-6 {
+        if (x - a[0]).abs() < EDGE_MERGE || (b[0] - x).abs() < EDGE_MERGE {
             continue;
         }
         let w = (x - a[0]) / (b[0] - a[0]);
@@ -209,7 +225,7 @@ fn fix_ramps(surface: &mut Vec<[f64; 2]>, edges: &[f64], steps: &[(f64, f64)]) {
         s[i] = s[i - 1] + (b[0] - a[0]).hypot(b[1] - a[1]);
     }
     let total = s[s.len() - 1];
-    let index_of = |x: f64| surface.iter().position(|p| (p[0] - x).abs() < 1e-6);
+    let index_of = |x: f64| surface.iter().position(|p| (p[0] - x).abs() < EDGE_MERGE);
     let edge_s: Vec<f64> = edges.iter().filter_map(|&e| index_of(e)).map(|i| s[i]).collect();
     // Arc positions of new ramp ends, and open arc intervals to clear of outline vertices.
     let (mut ends, mut clear) = (Vec::new(), Vec::new());
