@@ -249,6 +249,22 @@ fn ply_edges_less_than_a_micrometre_apart_share_one_vertex() {
 }
 
 #[test]
+fn the_working_folder_as_output_is_refused_before_anything_is_written() {
+    // `--out .` from inside the project: the set is put in place by exchanging the folder for a
+    // new one, which "." does not allow (the error was "Device or resource busy (os error 16)"),
+    // and the report had already put its meshes in place when it failed.
+    let c = Copy::of("round-root");
+    let before = fs::read_dir(c.path(".")).expect("folder").count();
+    for command in ["plybook", "report"] {
+        let (code, _, stderr) = c.run(command, &["--out", "."]);
+        assert_eq!(code, Some(3), "{stderr}");
+        assert!(stderr.contains("cannot write .: it is the working folder"), "{stderr}");
+        assert!(stderr.contains("name a folder inside it"), "{stderr}");
+        assert_eq!(fs::read_dir(c.path(".")).expect("folder").count(), before, "nothing written");
+    }
+}
+
+#[test]
 fn plies_that_cannot_fit_in_the_section_are_refused() {
     // Forty more unidirectional plies on both skins of the mine fan: aft of where the walls
     // meet, the laminate the sections would hold exceeds the area its outline encloses, so the

@@ -174,6 +174,10 @@ fn write_report_with(
     ply_book: impl FnOnce() -> Result<PlyBook, PlyBookError>,
 ) -> Result<DesignCheck, Failure> {
     ensure_dir(&dest.out)?;
+    // Both folders checked before either is written: a report folder that cannot take its set
+    // would otherwise fail after the meshes were put in place.
+    FileSet::check_target(&dest.out)?;
+    FileSet::check_target(&dest.meshes)?;
     let p = &model.project;
     let stress = if p.load_cases.is_empty() {
         Vec::new()

@@ -11,6 +11,12 @@
 //! reported as stale. A staging folder that a killed run left behind is removed by the next run
 //! into the same parent folder once it is a minute old (see [`super::remove_leftovers`]); it
 //! never holds the only copy of a file.
+//!
+//! Before anything is written the target is checked ([`FileSet::check_target`]): a link to a
+//! folder is followed (the link stays; the files go where it points), the new folder takes the
+//! old one's permissions and, where the system lets it, its owner and group; a folder without
+//! write permission, the working folder and a mount point are refused, the first because its
+//! owner protected it, the other two because a folder cannot be exchanged there.
 
 use std::collections::BTreeSet;
 use std::path::{Component, Path, PathBuf};
@@ -77,6 +83,61 @@ impl FileSet {
         self.files.iter().map(|(p, _)| p.as_path())
     }
 
+    /// Checks that a set can be put in place at `target` before anything is written, and gives
+    /// the folder it goes to: `target` itself, or the folder a link at `target` points to.
+    /// Refused with the reason: a file in the way, a link to nothing, a folder without write
+    /// permission (its owner protected it: the exchange would replace it all the same), the
+    /// working folder (the shell in it would be left in the old, removed folder) and a mount
+    /// point (a folder there cannot be exchanged). A missing target is fine: it is made.
+    pub fn check_target(target: &Path) -> Result<PathBuf, Error> {
+        let fail = |why: &str| Error::Write {
+            path: target.display().to_string(),
+            source: std::io::Error::other(why.to_string()),
+        };
+        let link = match std::fs::symlink_metadata(target) {
+            Ok(m) => m.file_type().is_symlink(),
+            Err(e) if e.kind() == std::io::ErrorKind::NotFound => {
+                return Ok(target.to_path_buf());
+            }
+            Err(e) => return Err(fail(&format!("cannot read it: {}", e.kind()))),
+        };
+        let resolved = if link {
+            std::fs::canonicalize(target).map_err(|_| {
+                fail("it is a link to nothing; name a folder, or make the one it points to")
+            })?
+        } else {
+            target.to_path_buf()
+        };
+        let meta = std::fs::metadata(&resolved)
+            .map_err(|e| fail(&format!("cannot read it: {}", e.kind())))?;
+        if !meta.is_dir() {
+            return Err(fail("it is a file, not a folder; name a folder"));
+        }
+        if meta.permissions().readonly() || !writable(&resolved) {
+            return Err(fail(
+                "the folder is read-only: expected a folder you may write in (make it \
+                 writable, or name another folder)",
+            ));
+        }
+        let real = std::fs::canonicalize(&resolved)
+            .map_err(|e| fail(&format!("cannot read it: {}", e.kind())))?;
+        let here = std::env::current_dir().and_then(std::fs::canonicalize);
+        if here.is_ok_and(|h| h == real) {
+            return Err(fail(
+                "it is the working folder: the new files are put in place by exchanging the \
+                 folder for a new one, which would leave the shell in the old one; name a \
+                 folder inside it",
+            ));
+        }
+        if mount_point(&real, &meta) {
+            return Err(fail(
+                "it is a mount point: the new files are put in place by exchanging the folder \
+                 for a new one, which a mount point does not allow; name a folder inside it",
+            ));
+        }
+        Ok(resolved)
+    }
+
     /// Writes the set into the folder `target` (created with its parents when missing), as the
     /// module documentation describes.
     pub fn commit(self, target: &Path) -> Result<SetOutcome, Error> {
@@ -93,9 +154,8 @@ impl FileSet {
                 )));
             }
         }
-        if target.exists() && !target.is_dir() {
-            return Err(fail("it is a file, not a folder; name a folder".into()));
-        }
+        let resolved = Self::check_target(target)?;
+        let target = resolved.as_path();
         let parent = match target.parent() {
             Some(p) if !p.as_os_str().is_empty() => p.to_path_buf(),
             _ => PathBuf::from("."),
@@ -105,11 +165,21 @@ impl FileSet {
         let io = |what: &str, p: &Path, e: std::io::Error| {
             fail(format!("{what} {}: {e}", p.strip_prefix(&parent).unwrap_or(p).display()))
         };
-        let staging = tempfile::Builder::new()
-            .prefix(".layloft-set-")
-            .tempdir_in(&parent)
-            .map_err(|e| fail(format!("cannot make a staging folder beside it: {}", e.kind())))?;
+        let staging =
+            tempfile::Builder::new().prefix(".layloft-set-").tempdir_in(&parent).map_err(|e| {
+                fail(format!(
+                    "cannot make a staging folder beside it in {}: {} (the new files are written \
+                     beside the folder and exchanged for it in one step, so the folder it is in \
+                     must be writable too)",
+                    parent.display(),
+                    e.kind()
+                ))
+            })?;
         let stage = staging.path();
+        // The new folder as the old one: its owner and group where the system lets them be
+        // given (a set-group folder's group also goes to the files made in it), and its
+        // permissions, with the owner's own kept open until the files are in.
+        let old_mode = take_ownership(target, stage);
 
         let mut outcome = SetOutcome::default();
         let mut list = String::new();
@@ -184,6 +254,9 @@ impl FileSet {
                 }
                 outcome.kept.push(rel);
             }
+            if let Some(mode) = old_mode {
+                set_mode(stage, mode);
+            }
             exchange(stage, target)
                 .map_err(|e| fail(format!("cannot put the new files in place: {e}")))?;
             // The staging path now holds the previous folder; dropping `staging` removes it.
@@ -197,6 +270,62 @@ impl FileSet {
         Ok(outcome)
     }
 }
+
+/// Whether the user may write in the folder `dir` (the system's own answer, which knows the
+/// owner, the groups and the access lists).
+#[cfg(unix)]
+fn writable(dir: &Path) -> bool {
+    rustix::fs::access(dir, rustix::fs::Access::WRITE_OK).is_ok()
+}
+
+#[cfg(not(unix))]
+fn writable(_dir: &Path) -> bool {
+    true
+}
+
+/// Whether the folder `real` (a canonical path, `meta` its metadata) is a mount point or the
+/// root: its parent lies on another device, or it has none.
+#[cfg(unix)]
+fn mount_point(real: &Path, meta: &std::fs::Metadata) -> bool {
+    use std::os::unix::fs::MetadataExt;
+    match real.parent() {
+        None => true,
+        Some(parent) => std::fs::metadata(parent).is_ok_and(|p| p.dev() != meta.dev()),
+    }
+}
+
+#[cfg(not(unix))]
+fn mount_point(real: &Path, _meta: &std::fs::Metadata) -> bool {
+    real.parent().is_none()
+}
+
+/// Gives the staging folder `stage` the owner and group of the folder `target` (where the
+/// system allows; each on its own, failures ignored) and its permissions with the owner's read,
+/// write and search added; returns the target's permission bits to put back at the end.
+#[cfg(unix)]
+fn take_ownership(target: &Path, stage: &Path) -> Option<u32> {
+    use std::os::unix::fs::MetadataExt;
+    let meta = std::fs::metadata(target).ok().filter(|m| m.is_dir())?;
+    let _ = rustix::fs::chown(stage, None, Some(rustix::fs::Gid::from_raw(meta.gid())));
+    let _ = rustix::fs::chown(stage, Some(rustix::fs::Uid::from_raw(meta.uid())), None);
+    let mode = meta.mode() & 0o7777;
+    set_mode(stage, mode | 0o700);
+    Some(mode)
+}
+
+#[cfg(not(unix))]
+fn take_ownership(_target: &Path, _stage: &Path) -> Option<u32> {
+    None
+}
+
+#[cfg(unix)]
+fn set_mode(dir: &Path, mode: u32) {
+    use std::os::unix::fs::PermissionsExt;
+    let _ = std::fs::set_permissions(dir, std::fs::Permissions::from_mode(mode));
+}
+
+#[cfg(not(unix))]
+fn set_mode(_dir: &Path, _mode: u32) {}
 
 fn write_file(path: &Path, bytes: &[u8]) -> std::io::Result<()> {
     use std::io::Write;
@@ -294,6 +423,56 @@ mod tests {
         // Nothing is left beside the target.
         let beside: Vec<_> = std::fs::read_dir(tmp.path()).unwrap().collect();
         assert_eq!(beside.len(), 1);
+    }
+
+    #[cfg(unix)]
+    #[test]
+    fn a_link_to_a_folder_is_followed_and_stays_a_link() {
+        // A shop links its output to a shared folder; the link was replaced by a new folder
+        // and the shared one never got the files.
+        let tmp = tempfile::tempdir().unwrap();
+        let real = tmp.path().join("share");
+        std::fs::create_dir(&real).unwrap();
+        let link = tmp.path().join("out");
+        std::os::unix::fs::symlink(&real, &link).unwrap();
+        set(&[("a.txt", "1")]).commit(&link).unwrap();
+        set(&[("a.txt", "2")]).commit(&link).unwrap();
+        assert!(std::fs::symlink_metadata(&link).unwrap().file_type().is_symlink());
+        assert_eq!(std::fs::read_to_string(real.join("a.txt")).unwrap(), "2");
+    }
+
+    #[cfg(unix)]
+    #[test]
+    fn a_read_only_folder_is_refused_and_left_as_it_was() {
+        // A folder its owner made read-only (a released tool set) was exchanged for a new,
+        // writable one all the same: the rename needs only the parent's permission.
+        use std::os::unix::fs::PermissionsExt;
+        let tmp = tempfile::tempdir().unwrap();
+        let target = tmp.path().join("out");
+        set(&[("a.txt", "1")]).commit(&target).unwrap();
+        std::fs::set_permissions(&target, std::fs::Permissions::from_mode(0o555)).unwrap();
+        let e = set(&[("a.txt", "2")]).commit(&target).unwrap_err().to_string();
+        std::fs::set_permissions(&target, std::fs::Permissions::from_mode(0o755)).unwrap();
+        assert!(e.contains("the folder is read-only"), "{e}");
+        assert_eq!(std::fs::read_to_string(target.join("a.txt")).unwrap(), "1");
+        assert_eq!(std::fs::read_dir(tmp.path()).unwrap().count(), 1, "nothing left beside it");
+    }
+
+    #[cfg(unix)]
+    #[test]
+    fn the_new_folder_keeps_the_old_ones_permissions() {
+        // A folder shared with a group (group-writable, set-group so new files join the
+        // group) came back as a private 0755 folder of the user who ran the tool.
+        use std::os::unix::fs::{MetadataExt, PermissionsExt};
+        let tmp = tempfile::tempdir().unwrap();
+        let target = tmp.path().join("out");
+        std::fs::create_dir(&target).unwrap();
+        std::fs::set_permissions(&target, std::fs::Permissions::from_mode(0o2770)).unwrap();
+        set(&[("a.txt", "1")]).commit(&target).unwrap();
+        let meta = std::fs::metadata(&target).unwrap();
+        assert_eq!(meta.mode() & 0o7777, 0o2770);
+        let file = std::fs::metadata(target.join("a.txt")).unwrap();
+        assert_eq!(file.gid(), meta.gid(), "files made in a set-group folder take its group");
     }
 
     #[test]
