@@ -640,3 +640,69 @@ fn a_round_wall_is_one_closed_panel_that_buckles_in_shear_as_a_tube() {
         assert!(n > 0.67 * tube && n < tube, "{n} N/m against the tube's {tube} N/m");
     }
 }
+
+/// The panels either side of the leading edge: a flat front (a box's) is one panel across the
+/// leading edge, held at the box's corners, and buckles as a long simply supported plate of the
+/// face's whole width, N_cr = 4 π² D / b² (Timoshenko & Gere, Theory of Elastic Stability,
+/// §9.2, k = 4 for a long plate, from memory); the leading edge cut it into two halves of four
+/// times that (unconservative). A round tube's front arc between two webs is likewise one panel.
+/// An airfoil's nose, curved far more than the skins either side, still holds them (the usual
+/// rule for blade skins).
+#[test]
+fn the_nose_holds_the_skins_only_where_it_is_curved_far_more_than_they() {
+    use layloft::section::{SectionParams, SolvedSection};
+    let (e, nu, t) = (70e9, 0.3, 1e-3);
+    let library = read_materials_str(
+        "[isotropic.al]\nE_GPa = 70\nnu = 0.3\ndensity_kg_m3 = 2700\nply_thickness_mm = 1.0\n",
+        "al.toml",
+    )
+    .unwrap();
+    let wall = || crate::common::single(&crate::common::isotropic("al", e, nu, t, 2700.0));
+    let panels = |layout: &layloft::section::SectionLayout| {
+        let section = SolvedSection::solve(layout, &SectionParams::default()).unwrap();
+        let skin = section
+            .elements()
+            .iter()
+            .filter(|e| matches!(e.part, layloft::section::WallPart::Skin { .. }))
+            .count();
+        let panels =
+            layloft::buckling::find_panels(layout, &section, &library, &PanelSolver::new(0.0));
+        (panels, skin)
+    };
+    // Box 300 x 90 mm (outer), 1 mm wall: four faces, the front one across the leading edge.
+    let (w, h) = (0.3, 0.09);
+    let (box_panels, skin) = panels(&crate::common::rect(w, h, 24, [0; 4], vec![wall()]));
+    assert_eq!(box_panels.len(), 4, "{box_panels:?}");
+    let front = box_panels
+        .iter()
+        .find(|p| p.elements.contains(&0) && p.elements.contains(&(skin - 1)))
+        .expect("one panel across the leading edge");
+    let b = h - t;
+    assert!((front.width / b - 1.0).abs() < 1e-9, "width {} against {b}", front.width);
+    let (d, _) = isotropic_d(e, nu, t);
+    let n_cr = 4.0 * PI * PI * d / (b * b);
+    assert!((front.critical.compression / n_cr - 1.0).abs() < 1e-3, "{:?}", front.critical);
+    // A round tube (R 50 mm midline) with webs at ±30 mm from its centre: the front arc from
+    // web to web, 2 R acos(0.6) long, is one panel across the leading edge.
+    let ro = 0.0505;
+    let tube = crate::common::tube(ro, 240, wall());
+    let tube =
+        crate::common::with_web(crate::common::with_web(tube, "front", -0.03, 0), "aft", 0.03, 0);
+    let (tube_panels, skin) = panels(&tube);
+    let arc = tube_panels
+        .iter()
+        .find(|p| p.elements.contains(&0) && p.elements.contains(&(skin - 1)))
+        .expect("one panel across the leading edge");
+    let expected = 2.0 * 0.05 * (0.03_f64 / 0.05).acos();
+    assert!((arc.width / expected - 1.0).abs() < 0.02, "{} against {expected}", arc.width);
+    // NACA 0012, chord 0.3 m, a web at 30 % of the chord: the nose holds the skins either side,
+    // so no panel runs across the leading edge.
+    let foil = crate::common::naca00(0.12, 0.3, 200, &[], vec![wall()], |_, _| 0);
+    // The leading edge lies at y = -0.25 c: the web at 30 % of the chord at y = 0.05 c.
+    let foil = crate::common::with_web(foil, "spar", 0.05 * 0.3, 0);
+    let (foil_panels, skin) = panels(&foil);
+    assert!(
+        foil_panels.iter().all(|p| !(p.elements.contains(&0) && p.elements.contains(&(skin - 1)))),
+        "{foil_panels:?}"
+    );
+}

@@ -2,9 +2,12 @@
 //!
 //! A panel is a run of wall elements of one part (the skin loop or one web) between supports:
 //! the ends of a web, the points where a web meets the skin, the leading edge (where the skin
-//! loop starts: the nose, curved far more than the panels either side, is taken as their
-//! support, as is usual for blade skins), corners (a turn of more than 30° between neighbouring
-//! elements, e.g. at a blunt trailing edge), and the edges of a ply region
+//! loop starts) when the nose is curved far more than the panels either side (a turn of more
+//! than 30° within a tenth of the narrower panel's width either side of it, a rounded corner:
+//! an airfoil's nose, taken as the support of the skins either side, as is usual for blade
+//! skins; a flat or gently rounded front, a box's or a round root's, is no support and its
+//! panel runs on across the leading edge), corners (a turn of more than 30° between
+//! neighbouring elements, e.g. at a blunt trailing edge), and the edges of a ply region
 //! (a change of laminate). A ply drop is the exception: where one laminate is the other with
 //! plies left out (in order) and their flexural stiffnesses `sqrt(D11 D22)` lie within a factor
 //! of 2 (the tapered edge of a spar cap), the run goes on and takes the weaker laminate (a rule of
@@ -29,10 +32,15 @@ use super::plate::{
 };
 use super::sandwich::SandwichWall;
 use crate::material::MaterialLibrary;
-use crate::section::{SectionLayout, SolvedSection, WallPart};
+use crate::section::{SectionLayout, SolvedSection, WallElement, WallPart};
 
 /// Turn between neighbouring elements beyond which their joint is a corner, rad (30°).
 const CORNER: f64 = std::f64::consts::PI / 6.0;
+/// The reach either side of the leading edge, as a fraction of the narrower panel's width,
+/// within which the nose must turn by more than [`CORNER`] to support the panels either side (a
+/// rule of this program: a corner rounded to a radius well below the panels' widths still holds
+/// their edges).
+const NOSE_REACH: f64 = 0.1;
 /// Flexural stiffness ratio below which a change of laminate is not a support.
 const PLY_DROP_RATIO: f64 = 2.0;
 
@@ -283,6 +291,33 @@ fn is_drop(a: &crate::laminate::Laminate, b: &crate::laminate::Laminate) -> bool
     short.iter().all(|p| it.any(|q| same(p, q)))
 }
 
+/// The turn of the skin at the leading edge, rad: the leading edge's own joint (between the
+/// `before` run's last element and the `after` run's first, in loop order) and the joints of
+/// either run at most `reach` (m) along the midline from it.
+fn nose_turn(elements: &[WallElement], before: &[usize], after: &[usize], reach: f64) -> f64 {
+    let (Some(&end), Some(&start)) = (before.last(), after.first()) else {
+        return 0.0;
+    };
+    let mut total = turn(elements[end].tangent(), elements[start].tangent());
+    let mut along = 0.0;
+    for w in after.windows(2) {
+        along += elements[w[0]].length();
+        if along > reach {
+            break;
+        }
+        total += turn(elements[w[0]].tangent(), elements[w[1]].tangent());
+    }
+    along = 0.0;
+    for w in before.windows(2).rev() {
+        along += elements[w[1]].length();
+        if along > reach {
+            break;
+        }
+        total += turn(elements[w[0]].tangent(), elements[w[1]].tangent());
+    }
+    total
+}
+
 fn close(a: [f64; 2], b: [f64; 2], tol: f64) -> bool {
     ((a[0] - b[0]).powi(2) + (a[1] - b[1]).powi(2)).sqrt() <= tol
 }
@@ -414,6 +449,38 @@ pub fn find_panels(
     }
     if !current.is_empty() {
         runs.push((current, weakest));
+    }
+    // The skin loop's first and last runs meet at the leading edge: one panel across it, unless
+    // the nose supports them or the joint breaks a run by the rules above.
+    if let (Some(&first), Some(&last)) = (skin.first(), skin.last()) {
+        let head = runs.iter().position(|(r, _)| r.first() == Some(&first));
+        let tail = runs.iter().position(|(r, _)| r.last() == Some(&last));
+        if let (Some(i), Some(j)) = (head, tail)
+            && i < j
+        {
+            let range = |run: &[usize]| {
+                run.iter()
+                    .map(|&k| flex[elements[k].laminate])
+                    .fold((f64::INFINITY, 0.0f64), |(lo, hi), f| (lo.min(f), hi.max(f)))
+            };
+            let ((lo_i, hi_i), (lo_j, hi_j)) = (range(&runs[i].0), range(&runs[j].0));
+            let (lo, hi) = (lo_i.min(lo_j), hi_i.max(hi_j));
+            let width = |run: &[usize]| run.iter().map(|&k| elements[k].length()).sum::<f64>();
+            let reach = NOSE_REACH * width(&runs[i].0).min(width(&runs[j].0));
+            let same_laminates = hi <= lo || (lo > 0.0 && hi <= PLY_DROP_RATIO * lo);
+            if same_laminates
+                && !breaks(last, first, lo, hi)
+                && nose_turn(elements, &runs[j].0, &runs[i].0, reach).abs() <= CORNER
+            {
+                let (mut merged, tail_weakest) = runs.remove(j);
+                let (run, weakest) = &mut runs[i];
+                merged.append(run);
+                *run = merged;
+                if flex[tail_weakest] < flex[*weakest] {
+                    *weakest = tail_weakest;
+                }
+            }
+        }
     }
     let sandwiches: Vec<Option<Arc<SandwichWall>>> =
         layout.laminates.iter().map(|l| SandwichWall::of(l, library).map(Arc::new)).collect();
