@@ -99,7 +99,16 @@ impl FileSet {
             Err(e) if e.kind() == std::io::ErrorKind::NotFound => {
                 return Ok(target.to_path_buf());
             }
-            Err(e) => return Err(fail(&format!("cannot read it: {}", e.kind()))),
+            Err(e) => {
+                // A file on the way (`FILE/out`) is named as the file in the way.
+                if let Some(file) = target.ancestors().skip(1).find(|a| a.is_file()) {
+                    return Err(Error::Write {
+                        path: file.display().to_string(),
+                        source: std::io::Error::other("it is a file, not a folder; name a folder"),
+                    });
+                }
+                return Err(fail(&format!("cannot read it: {}", e.kind())));
+            }
         };
         let resolved = if link {
             std::fs::canonicalize(target).map_err(|_| {
