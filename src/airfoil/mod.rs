@@ -8,8 +8,8 @@
 //! files come in one loop (trailing edge, upper surface, leading edge, lower surface) or as two
 //! surfaces, in either direction, with or without a repeated closing point or a line of counts
 //! (`file.rs`); the loop is then oriented, its trailing edge (a point or a straight base) and
-//! leading edge found, and normalised to the chord line (`normalise.rs`), refusing a loop that
-//! crosses or touches itself.
+//! leading edge found (a file already on its chord line keeps its frame), and normalised to the
+//! chord line (`normalise.rs`), refusing a loop that crosses or touches itself.
 //!
 //! ```
 //! use layloft::airfoil::{Naca4, Outline, clustered_stations};

@@ -13,9 +13,19 @@
 //!    the straight base between the first and last points of an open loop. A base given as points
 //!    along it, or a straight face at the back that turns sharply off the surface before it, is
 //!    taken whole: the outline then has a blunt trailing edge between the base's two corners.
-//! 4. Leading edge: the point farthest from the trailing-edge midpoint; on a flat front face (a
-//!    box) the middle of that face.
-//! 5. The chord line runs from the leading edge to the trailing-edge midpoint; points are scaled
+//! 4. A file already drawn on its chord line keeps its frame: when the trailing-edge midpoint
+//!    lies within [`ON_CHORD`] of (1, 0), a point of the outline within [`ON_CHORD`] of (0, 0)
+//!    is the leading edge (the nearest such point), and no point reaches more than 1 % of the
+//!    chord farther from the trailing edge, nothing is turned or scaled beyond what puts these
+//!    two exactly on (0, 0) and (1, 0) (at most [`ON_CHORD`], below the notes' thresholds). This
+//!    is how a cambered section is drawn (NACA 4412: the mean line starts at (0, 0), and the
+//!    upper surface curves round ahead of it, so the point farthest from the trailing edge lies
+//!    a little above and ahead of the leading edge: taking it would turn the section by about
+//!    0.27°). Ahead of such a leading edge a surface may run forward round the nose before it
+//!    advances along the chord.
+//! 5. Otherwise the leading edge is the point farthest from the trailing-edge midpoint; on a flat
+//!    front face (a box) the middle of that face.
+//! 6. The chord line runs from the leading edge to the trailing-edge midpoint; points are scaled
 //!    and turned so that these are (0, 0) and (1, 0).
 
 use super::AirfoilError;
@@ -30,6 +40,16 @@ const FACE_CORNER: f64 = 60.0 * std::f64::consts::PI / 180.0;
 /// A straight run counts as a face across the chord when it is steeper than this to the chord
 /// line (sine of the angle).
 const STEEP: f64 = 0.7;
+
+/// How close to (0, 0) and (1, 0), in the file's units, a file's leading-edge point and
+/// trailing-edge midpoint must lie for the file to count as drawn on its chord line (rule 4):
+/// 1e-4 of the chord, well above the round-off of a file's usual 5 to 8 decimals and well below
+/// any scale or turn a file is given on purpose.
+const ON_CHORD: f64 = 1e-4;
+
+/// A file on its chord line may reach this fraction of the chord beyond its leading edge (a
+/// cambered nose, rule 4); one that reaches farther is normalised as any other.
+const NOSE_REACH: f64 = 0.01;
 
 /// A closed loop of distinct points from a file.
 #[derive(Debug, Clone)]
@@ -82,7 +102,7 @@ pub(crate) fn outline_from_loop(
     }
 }
 
-/// Steps 2 to 5 of the module doc on a loop that does not cross itself.
+/// Steps 2 to 6 of the module doc on a loop that does not cross itself.
 fn orient_and_split(
     mut pts: Vec<P>,
     mut lines: Vec<usize>,
@@ -127,7 +147,11 @@ fn orient_and_split(
         .unwrap_or(1);
     let (mut path, mut path_lines): (Vec<P>, Vec<usize>) =
         (order.iter().map(|&k| pts[k]).collect(), order.iter().map(|&k| lines[k]).collect());
-    let ile = front_face(&mut path, &mut path_lines, far, te);
+    let on_chord = on_chord_line(&path, far, te);
+    let ile = match on_chord {
+        Some(k) => k,
+        None => front_face(&mut path, &mut path_lines, far, te),
+    };
     let le = path[ile];
     let chord = dist(le, te);
     if chord <= 1e-9 * extent {
@@ -162,9 +186,37 @@ fn orient_and_split(
     if upper.len() < 2 || lower.len() < 2 {
         return Err(AirfoilError::NoLeadingEdge);
     }
-    check_advancing(&upper, &upper_lines, "upper")?;
-    check_advancing(&lower, &lower_lines, "lower")?;
+    // On its own chord line a surface may first run forward round the nose (rule 4).
+    let (su, sl) = match on_chord {
+        Some(_) => (nose_run(&upper), nose_run(&lower)),
+        None => (0, 0),
+    };
+    check_advancing(&upper[su..], &upper_lines[su..], "upper")?;
+    check_advancing(&lower[sl..], &lower_lines[sl..], "lower")?;
     Ok(Outline { upper, lower })
+}
+
+/// The index in `path` (upper corner → leading edge → lower corner) of the leading edge of a
+/// file drawn on its chord line (rule 4 of the module doc), or `None` when the file is not.
+fn on_chord_line(path: &[P], far: usize, te: P) -> Option<usize> {
+    if dist(te, [1.0, 0.0]) > ON_CHORD || path.len() < 3 {
+        return None;
+    }
+    let k = (1..path.len() - 1)
+        .min_by(|&a, &b| dist(path[a], [0.0, 0.0]).total_cmp(&dist(path[b], [0.0, 0.0])))?;
+    let chord = dist(path[k], te);
+    (dist(path[k], [0.0, 0.0]) <= ON_CHORD && dist(path[far], te) <= (1.0 + NOSE_REACH) * chord)
+        .then_some(k)
+}
+
+/// The number of steps at the start of a surface (from the leading edge, normalised) that run
+/// forward ahead of the leading edge: round the nose of a cambered section on its chord line.
+fn nose_run(surface: &[P]) -> usize {
+    let mut k = 0;
+    while k + 1 < surface.len() && surface[k + 1][0] < surface[k][0] && surface[k + 1][0] < 0.0 {
+        k += 1;
+    }
+    k
 }
 
 fn extent(pts: &[P]) -> f64 {

@@ -25,8 +25,9 @@ pub fn clustered_stations(n: usize) -> Vec<f64> {
 impl Outline {
     /// Builds an outline from a closed point sequence in the usual file order (trailing edge,
     /// upper surface, leading edge, lower surface, trailing edge; the other way round is reversed),
-    /// normalised so the leading edge (the point farthest from the trailing-edge midpoint, or the
-    /// middle of a flat front face) is at (0, 0) and the trailing-edge midpoint at (1, 0). `lines`
+    /// normalised so the leading edge (the point at (0, 0) of points already on their chord line;
+    /// otherwise the point farthest from the trailing-edge midpoint, or the middle of a flat front
+    /// face) is at (0, 0) and the trailing-edge midpoint at (1, 0). `lines`
     /// gives the file line of each point for messages. Consecutive repeated points are removed.
     pub fn from_file_order(points: &[[f64; 2]], lines: &[usize]) -> Result<Self, AirfoilError> {
         const MIN_POINTS: usize = 10;
