@@ -377,3 +377,23 @@ fn carriage_return_line_ends_in_the_project_files() {
     );
     assert_eq!(m, "DIR/stations.csv line 3, chord_m: 'x' is not a number");
 }
+
+#[test]
+fn chord_cells_on_a_web_ply() {
+    // A web ply covers the web's whole height (docs/conventions.md, plies.csv): chord fractions
+    // in its from/to cells would be ignored, so they are refused at the cell; empty cells, or
+    // 0 and 1 (the whole height), are taken.
+    let m = message("plies.csv", "web:spar,,", "web:spar,0.1,0.2");
+    assert_eq!(
+        m,
+        "DIR/plies.csv line 4, from: expected an empty cell for a web ply (ply 'web' on web:spar \
+         covers the web's whole height; from and to are chord fractions of the upper, lower or \
+         both regions), found '0.1'"
+    );
+    let m = message("plies.csv", "web:spar,,", "web:spar,,0.9");
+    assert!(m.starts_with("DIR/plies.csv line 4, to: expected an empty cell"), "{m}");
+    assert!(m.ends_with("found '0.9'"), "{m}");
+    // The whole height written out reads as the empty cells do: the next fault is reported.
+    let m = message("plies.csv", "web:spar,,\n", "web:spar,0,1\nweb2,glass,0,0.5,2.5,web:x,,\n");
+    assert!(m.contains("line 5, region: no web named 'x'"), "{m}");
+}

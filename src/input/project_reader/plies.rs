@@ -133,11 +133,28 @@ pub(super) fn read_plies(
                 }
             },
         };
-        let (from, to) = match region {
-            Region::Web(_) => (
-                rec.optional_number("from")?.unwrap_or(0.0),
-                rec.optional_number("to")?.unwrap_or(1.0),
-            ),
+        let (from, to) = match &region {
+            Region::Web(name) => {
+                // A web ply covers the web's whole height: its chord cells stay empty (0 and 1,
+                // the whole height, are taken as written); anything else would be ignored.
+                for (column, whole) in [("from", 0.0), ("to", 1.0)] {
+                    let cell = rec.text(column);
+                    if !cell.is_empty() && cell.parse::<f64>().ok() != Some(whole) {
+                        return Err(rec.error(
+                            column,
+                            format!(
+                                "expected an empty cell for a web ply (ply '{}' on web:{} covers \
+                                 the web's whole height; from and to are chord fractions of the \
+                                 upper, lower or both regions), found '{}'",
+                                crate::text::excerpt(&id),
+                                crate::text::excerpt(name),
+                                crate::text::excerpt(cell)
+                            ),
+                        ));
+                    }
+                }
+                (0.0, 1.0)
+            }
             _ => (rec.number("from")?, rec.number("to")?),
         };
         if !(0.0..=1.0).contains(&from) || !(0.0..=1.0).contains(&to) || from >= to {
