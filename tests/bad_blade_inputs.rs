@@ -397,3 +397,34 @@ fn chord_cells_on_a_web_ply() {
     let m = message("plies.csv", "web:spar,,\n", "web:spar,0,1\nweb2,glass,0,0.5,2.5,web:x,,\n");
     assert!(m.contains("line 5, region: no web named 'x'"), "{m}");
 }
+
+#[test]
+fn a_table_separated_by_tabs_or_semicolons() {
+    // A spreadsheet saved as tab- or semicolon-separated text reads as one column named after
+    // the whole header; the message says what separates the columns and that commas are
+    // expected (docs/conventions.md: the CSV files are comma-separated).
+    let stations = "r_m\tchord_m\ttwist_deg\tpitch_axis_frac\tairfoil\n0.5\t0.4\t0\t0.3\tnaca0015\n\
+                    2.5\t0.4\t0\t0.3\tnaca0015\n";
+    let m = message("stations.csv", "", stations);
+    assert_eq!(
+        m,
+        "DIR/stations.csv line 1: the columns are separated by tabs: expected commas between \
+         them, as in 'r_m,chord_m,twist_deg,pitch_axis_frac,airfoil'"
+    );
+    let plies = "ply;material;angle_deg;r_start_m;r_end_m;region;from;to\n\
+                 skin;glass;0;0,5;2,5;both;0;1\n";
+    let m = message("plies.csv", "", plies);
+    assert_eq!(
+        m,
+        "DIR/plies.csv line 1: the columns are separated by semicolons: expected commas between \
+         them, as in 'ply,material,angle_deg,r_start_m,r_end_m,region,from,to' (and numbers \
+         with a decimal point: 0.5, not 0,5)"
+    );
+    // A comma-separated header over rows separated by tabs: the row's line.
+    let m = message("stations.csv", "1.5,0.4,0,0.3,naca0015", "1.5\t0.4\t0\t0.3\tnaca0015");
+    assert_eq!(
+        m,
+        "DIR/stations.csv line 3: the cells are separated by tabs: expected commas between them, \
+         as in the header"
+    );
+}

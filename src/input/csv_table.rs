@@ -50,7 +50,22 @@ impl CsvTable {
             if record.iter().all(str::is_empty) {
                 continue;
             }
-            if record.len() != headers.len() {
+            if record.len() == 1 && headers.len() > 1 {
+                if let Some(name) = separator(&record[0]) {
+                    return Err(InputError::at(
+                        Location::line(display, line),
+                        format!(
+                            "the cells are separated by {name}: expected commas between them, as \
+                             in the header{}",
+                            decimal_note(name)
+                        ),
+                    ));
+                }
+            }
+            // A header in one column with another separator is reported by `check_columns`,
+            // which can show the header expected.
+            let foreign = headers.len() == 1 && separator(&headers[0]).is_some();
+            if record.len() != headers.len() && !foreign {
                 return Err(InputError::at(
                     Location::line(display, line),
                     format!(
@@ -74,6 +89,20 @@ impl CsvTable {
     /// `optional`; a misspelt column gets the closest known name as a hint.
     pub fn check_columns(&self, required: &[&str], optional: &[&str]) -> Result<(), InputError> {
         let known = || required.iter().chain(optional).copied();
+        // One column holding the whole header: another separator than the comma.
+        if let [header] = self.headers.as_slice()
+            && let Some(name) = separator(header)
+        {
+            return Err(InputError::at(
+                Location::line(&self.file, 1),
+                format!(
+                    "the columns are separated by {name}: expected commas between them, as in \
+                     '{}'{}",
+                    required.join(","),
+                    decimal_note(name)
+                ),
+            ));
+        }
         for (i, h) in self.headers.iter().enumerate() {
             if self.headers[..i].contains(h) {
                 return Err(InputError::at(
@@ -122,6 +151,23 @@ impl CsvTable {
     pub fn is_empty(&self) -> bool {
         self.rows.is_empty()
     }
+}
+
+/// The separator, named for a message, of a line read as one cell that holds tabs or semicolons
+/// (a spreadsheet's export in another form than comma-separated).
+fn separator(cell: &str) -> Option<&'static str> {
+    if cell.contains('\t') {
+        Some("tabs")
+    } else if cell.contains(';') {
+        Some("semicolons")
+    } else {
+        None
+    }
+}
+
+/// A file separated by semicolons often comes with decimal commas: say what numbers look like.
+fn decimal_note(separator: &str) -> &'static str {
+    if separator == "semicolons" { " (and numbers with a decimal point: 0.5, not 0,5)" } else { "" }
 }
 
 /// The 1-based line of the first record-bearing line at or after `byte` (the csv crate places a
