@@ -3,16 +3,50 @@
 //! the bottom of the module flow (beside `units`) so that a stage can suggest a name without the file reader.
 
 /// At most `MAX` characters of a value for a message, with `…` and the full length when cut, so
-/// that a runaway value (a 2 MB number) is not echoed whole.
+/// that a runaway value (a 2 MB number) is not echoed whole; control characters written as
+/// escapes ([`printable`]).
 pub fn excerpt(text: &str) -> String {
     const MAX: usize = 40;
     let count = text.chars().count();
     if count <= MAX {
-        text.to_string()
+        printable(text).into_owned()
     } else {
         let head: String = text.chars().take(MAX).collect();
-        format!("{head}… ({count} characters)")
+        format!("{}… ({count} characters)", printable(&head))
     }
+}
+
+/// `text` with every control character, and every invisible character that reorders or hides
+/// text (bidirectional controls, zero-width spaces and joiners, the byte-order mark), written as
+/// its escape (`\u{0}` for a NUL, `\t` for a tab, `\u{202e}`), so that a message shows what a
+/// file holds and cannot move the terminal's cursor, ring its bell or turn its text round.
+pub fn printable(text: &str) -> std::borrow::Cow<'_, str> {
+    escape(text, false)
+}
+
+/// [`printable`] for a whole message, which may run over several lines: its line breaks stay.
+pub fn printable_lines(text: &str) -> std::borrow::Cow<'_, str> {
+    escape(text, true)
+}
+
+fn escape(text: &str, keep_lines: bool) -> std::borrow::Cow<'_, str> {
+    let hidden = |c: char| {
+        (c.is_control() && !(keep_lines && c == '\n'))
+            || matches!(c, '\u{200b}'..='\u{200f}' | '\u{202a}'..='\u{202e}' | '\u{2060}'..='\u{2064}'
+                | '\u{2066}'..='\u{2069}' | '\u{feff}')
+    };
+    if !text.chars().any(hidden) {
+        return std::borrow::Cow::Borrowed(text);
+    }
+    let mut out = String::with_capacity(text.len() + 8);
+    for c in text.chars() {
+        if hidden(c) {
+            out.extend(c.escape_default());
+        } else {
+            out.push(c);
+        }
+    }
+    std::borrow::Cow::Owned(out)
 }
 
 /// The candidate closest to `name` by Jaro–Winkler similarity, when it is close enough to be a
@@ -51,6 +85,19 @@ fn unsign_zeros(value: &mut serde_json::Value) {
 mod tests {
     use super::*;
     use serde_json::{Value, json};
+
+    #[test]
+    fn control_and_invisible_characters_are_escaped_and_nothing_else() {
+        assert_eq!(printable("gl\0ass"), "gl\\u{0}ass");
+        assert_eq!(printable("a\tb\r\n\u{1b}[2J"), "a\\tb\\r\\n\\u{1b}[2J");
+        assert_eq!(printable("x\u{202e}y\u{200b}"), "x\\u{202e}y\\u{200b}");
+        assert_eq!(printable_lines("one\ntwo\0"), "one\ntwo\\u{0}");
+        let plain = "naca4412 — 0.5 m, ü, 翼";
+        assert!(matches!(printable(plain), std::borrow::Cow::Borrowed(t) if t == plain));
+        assert_eq!(excerpt("bo\0th"), "bo\\u{0}th");
+        let long = format!("{}\0", "x".repeat(50));
+        assert_eq!(excerpt(&long), format!("{}… (51 characters)", "x".repeat(40)));
+    }
 
     #[test]
     fn negative_zeros_are_written_as_zero_and_nothing_else_changes() {

@@ -428,3 +428,25 @@ fn a_table_separated_by_tabs_or_semicolons() {
          as in the header"
     );
 }
+
+#[test]
+fn control_characters_in_a_cell_are_escaped_in_the_message() {
+    // A NUL, an escape or a bidirectional override copied into a cell is shown as its escape
+    // (`\u{0}`), never raw: a raw one hides the rest of the line on a terminal or rewrites it.
+    let m = message("plies.csv", "skin,glass", "skin,gl\0ass");
+    assert_eq!(
+        m,
+        "DIR/plies.csv line 2, material: no material named 'gl\\u{0}ass'; did you mean 'glass'?"
+    );
+    let m = message("plies.csv", "both,0,1", "bo\u{1b}[2Jth,0,1");
+    assert_eq!(
+        m,
+        "DIR/plies.csv line 2, region: expected upper, lower, both or web:NAME, found \
+         'bo\\u{1b}[2Jth'"
+    );
+    let m = message("stations.csv", "0.5,0.4,0,0.3,naca0015", "0.5,0.4,0,0.3,naca\u{202e}0015");
+    assert!(m.contains("airfoil: '\\u{202e}0015' is not a NACA"), "{m}");
+    let m = message("plies.csv", "skin,glass,0", "skin,glass,0\t\0");
+    assert!(m.ends_with("angle_deg: '0\\t\\u{0}' is not a number"), "{m}");
+    assert!(!m.chars().any(|c| c.is_control()), "{m:?}");
+}

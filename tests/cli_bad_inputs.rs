@@ -808,3 +808,17 @@ fn a_point_mass_far_off_the_pitch_axis_is_warned_of() {
             ],
         );
 }
+
+#[test]
+fn a_control_character_in_a_cell_is_shown_escaped() {
+    // A NUL pasted into a cell: the message shows it as `\u{0}`, and stderr carries no control
+    // character but its line ends.
+    let c = Copy::of("mine-fan");
+    c.edit("plies.csv", "skin-out,carbon-twill", "skin-out,carbon\0-twill");
+    let m = c.refused(
+        "sections",
+        &[],
+        &["plies.csv line 4, material: no material named 'carbon\\u{0}-twill'"],
+    );
+    assert!(!m.chars().any(|c| c.is_control() && c != '\n'), "{m:?}");
+}

@@ -7,6 +7,7 @@
 use std::io::{IsTerminal, Write};
 
 use indicatif::{ProgressBar, ProgressStyle};
+use layloft::text::printable_lines;
 
 /// The terminal side of a run.
 #[derive(Debug, Clone)]
@@ -67,14 +68,14 @@ impl Output {
             err,
             "{} {}",
             self.paint("1;31", "layloft: error:"),
-            compact_numbers(&e.to_string())
+            compact_numbers(&printable_lines(&e.to_string()))
         );
         let mut said = e.to_string();
         for cause in e.chain().skip(1) {
             // A message that already quotes its cause (`{source}` in the text) says it once.
             let text = cause.to_string();
             if !said.contains(&text) {
-                let _ = writeln!(err, "  caused by: {}", compact_numbers(&text));
+                let _ = writeln!(err, "  caused by: {}", compact_numbers(&printable_lines(&text)));
                 said.push_str(&text);
             }
         }
@@ -83,7 +84,12 @@ impl Output {
     /// A note on stderr, unless quiet.
     pub fn note(&self, text: &str) {
         if !self.quiet {
-            let _ = writeln!(std::io::stderr().lock(), "{} {text}", self.paint("36", "layloft:"));
+            let _ = writeln!(
+                std::io::stderr().lock(),
+                "{} {}",
+                self.paint("36", "layloft:"),
+                printable_lines(text)
+            );
         }
     }
 
@@ -94,7 +100,7 @@ impl Output {
                 std::io::stderr().lock(),
                 "{} {}",
                 self.paint("33", "layloft: warning:"),
-                compact_numbers(text)
+                compact_numbers(&printable_lines(text))
             );
         }
     }

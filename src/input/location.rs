@@ -1,5 +1,6 @@
 //! Where in which file something is, and the input error that says so.
 
+use crate::text::{printable, printable_lines};
 use std::fmt;
 use std::path::{Path, PathBuf};
 
@@ -34,12 +35,12 @@ impl Location {
 
 impl fmt::Display for Location {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        f.write_str(&self.file)?;
+        f.write_str(&printable(&self.file))?;
         if let Some(line) = self.line {
             write!(f, " line {line}")?;
         }
         if let Some(field) = &self.field {
-            write!(f, ", {field}")?;
+            write!(f, ", {}", printable(field))?;
         }
         Ok(())
     }
@@ -49,7 +50,7 @@ impl fmt::Display for Location {
 #[derive(Debug, thiserror::Error)]
 pub enum InputError {
     /// A file that cannot be read.
-    #[error("{file}: cannot read the file: {source}")]
+    #[error("{}: cannot read the file: {source}", printable(file))]
     Read {
         /// The file.
         file: String,
@@ -58,7 +59,7 @@ pub enum InputError {
         source: std::io::Error,
     },
     /// A value, key, row or reference that is wrong.
-    #[error("{location}: {message}")]
+    #[error("{location}: {}", printable_lines(message))]
     Invalid {
         /// Where.
         location: Location,
