@@ -24,6 +24,20 @@ fn demo_with(dir: &Path, extra: &str) -> std::path::PathBuf {
     path
 }
 
+/// `layloft check --json` of the project: the exit status and the frequency margin's row.
+fn frequency_row(path: &Path) -> (Option<i32>, serde_json::Value) {
+    let out = layloft().arg("check").arg(path).arg("--json").output().unwrap();
+    let c: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    let row = c["criteria"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .find(|r| r["criterion"] == "frequency_margin_pct")
+        .unwrap()
+        .clone();
+    (out.status.code(), row)
+}
+
 fn modes_json(path: &Path) -> serde_json::Value {
     let out = layloft().arg("modes").arg(path).arg("--json").output().unwrap();
     assert!(out.status.code() == Some(0) || out.status.code() == Some(1));
@@ -88,15 +102,8 @@ fn in_water_behind_vanes_the_check_uses_the_wet_frequencies_and_the_vane_orders(
         j["excitations"].as_array().unwrap().iter().find(|e| e["fixed_name"] == "gear mesh");
     assert_eq!(fixed.unwrap()["harmonic"], serde_json::Value::Null);
     // The demo's 10 % margin is not met in water: check fails on frequency with exit 1.
-    let out = layloft().arg("check").arg(&path).arg("--json").output().unwrap();
-    assert_eq!(out.status.code(), Some(1));
-    let c: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
-    let row = c["criteria"]
-        .as_array()
-        .unwrap()
-        .iter()
-        .find(|r| r["criterion"] == "frequency_margin_pct")
-        .unwrap();
+    let (code, row) = frequency_row(&path);
+    assert_eq!(code, Some(1));
     assert_eq!(row["pass"], false);
     // The SVG draws the vane orders and the fixed line with their names.
     let svg = dir.path().join("c.svg");
@@ -125,16 +132,8 @@ fn a_least_operating_speed_below_a_crossing_fails_the_margin() {
     let check = |least: f64| {
         let line = format!("[rotor]\nrpm_min = {least}");
         fs::write(&path, toml.replacen("[rotor]", &line, 1)).unwrap();
-        let out = layloft().arg("check").arg(&path).arg("--json").output().unwrap();
-        let c: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
-        let row = c["criteria"]
-            .as_array()
-            .unwrap()
-            .iter()
-            .find(|r| r["criterion"] == "frequency_margin_pct")
-            .unwrap()
-            .clone();
-        (out.status.code(), row, modes_json(&path))
+        let (code, row) = frequency_row(&path);
+        (code, row, modes_json(&path))
     };
     let (code, row, j) = check((0.8 * crossing).round());
     assert_eq!(code, Some(1));

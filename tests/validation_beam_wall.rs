@@ -388,14 +388,10 @@ fn integrate(s: &SolvedSection, strains: &Vector4<f64>) -> Vector4<f64> {
     out
 }
 
-/// Recovered wall resultants reproduce the beam resultants (virtual work; the section stiffness
-/// and the recovery use one wall law): a two-cell NACA 0015 section, chord 0.3 m, with
+/// The two-cell NACA 0015 section of the recovery tests, chord 0.3 m (invented test geometry):
 /// unsymmetric skin-over-cap walls [45/−45/0/0/0/0] between x/c = 0.15 and 0.45, unsymmetric
-/// skins [45/−45/0] elsewhere, a web [45/−45]s at x/c = 0.30 (invented test geometry; its thin
-/// trailing edge closes the cell ahead of the edge, leaving open solid branches), under
-/// each unit beam resultant. Exact integration: 1e-9 of the largest term.
-#[test]
-fn recovered_wall_resultants_reproduce_beam_resultants() {
+/// skins [45/−45/0] elsewhere, a web [45/−45]s at x/c = 0.30.
+fn two_cell_coupled_section() -> layloft::section::SectionLayout {
     let m = t300();
     let lams = vec![
         common::plies(&m, &[45.0, -45.0, 0.0]),
@@ -406,7 +402,18 @@ fn recovered_wall_resultants_reproduce_beam_resultants() {
     let base = common::naca00(0.15, chord, 160, &[0.15, 0.45], lams, |x, _| {
         if (0.15..0.45).contains(&x) { 1 } else { 0 }
     });
-    let layout = common::with_web(base, "spar", (0.30 - 0.25) * chord, 2);
+    common::with_web(base, "spar", (0.30 - 0.25) * chord, 2)
+}
+
+/// Recovered wall resultants reproduce the beam resultants (virtual work; the section stiffness
+/// and the recovery use one wall law): a two-cell NACA 0015 section, chord 0.3 m, with
+/// unsymmetric skin-over-cap walls [45/−45/0/0/0/0] between x/c = 0.15 and 0.45, unsymmetric
+/// skins [45/−45/0] elsewhere, a web [45/−45]s at x/c = 0.30 (invented test geometry; its thin
+/// trailing edge closes the cell ahead of the edge, leaving open solid branches), under
+/// each unit beam resultant. Exact integration: 1e-9 of the largest term.
+#[test]
+fn recovered_wall_resultants_reproduce_beam_resultants() {
+    let layout = two_cell_coupled_section();
     for mode in MODES {
         let s = solve(&layout, mode);
         assert_eq!(s.cells(), 2);
@@ -546,17 +553,7 @@ fn project_key_selects_the_wall_model() {
 /// that was not applied.
 #[test]
 fn recovered_wall_resultants_hold_shear_forces_on_coupled_walls() {
-    let m = t300();
-    let lams = vec![
-        common::plies(&m, &[45.0, -45.0, 0.0]),
-        common::plies(&m, &[45.0, -45.0, 0.0, 0.0, 0.0, 0.0]),
-        common::plies(&m, &[45.0, -45.0, -45.0, 45.0]),
-    ];
-    let chord = 0.3;
-    let base = common::naca00(0.15, chord, 160, &[0.15, 0.45], lams, |x, _| {
-        if (0.15..0.45).contains(&x) { 1 } else { 0 }
-    });
-    let layout = common::with_web(base, "spar", (0.30 - 0.25) * chord, 2);
+    let layout = two_cell_coupled_section();
     let applied = Vector4::new(2.0e4, 30.0, 150.0, -80.0);
     for mode in MODES {
         let s = solve(&layout, mode);
