@@ -81,8 +81,9 @@ impl Error {
             }
             BladeError::TooThick { r, station, x, upper_mm, lower_mm, depth_mm } => {
                 let text = format!(
-                    "at r = {r:.4} m (station near line {}), x/c = {x:.3} {}",
+                    "at r = {r:.4} m (station near line {}), x/c = {} {}",
                     sources.station_line(station),
+                    crate::text::fixed(x, 3),
                     BladeError::thicker_text(upper_mm, lower_mm, depth_mm)
                 );
                 InputError::at(plies, text).into()

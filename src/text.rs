@@ -49,6 +49,16 @@ fn escape(text: &str, keep_lines: bool) -> std::borrow::Cow<'_, str> {
     std::borrow::Cow::Owned(out)
 }
 
+/// `digits` decimals, without a "-0.00" for a value that rounds to zero: a place or a value in a
+/// message or a table shows no sign a reader should act on when it is zero at the digits shown.
+pub fn fixed(v: f64, digits: usize) -> String {
+    let s = format!("{v:.digits$}");
+    match s.strip_prefix('-') {
+        Some(rest) if rest.chars().all(|c| c == '0' || c == '.') => rest.to_string(),
+        _ => s,
+    }
+}
+
 /// The candidate closest to `name` by Jaro–Winkler similarity, when it is close enough to be a
 /// likely typo.
 pub fn closest<'a>(name: &str, candidates: impl Iterator<Item = &'a str>) -> Option<String> {

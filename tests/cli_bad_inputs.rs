@@ -822,3 +822,21 @@ fn a_control_character_in_a_cell_is_shown_escaped() {
     );
     assert!(!m.chars().any(|c| c.is_control() && c != '\n'), "{m:?}");
 }
+
+#[test]
+fn a_place_that_rounds_to_zero_has_no_sign() {
+    // A schedule of web plies only leaves the skin bare from the leading edge, where NACA 44xx's
+    // upper surface runs a little ahead of x/c = 0: the place is shown as 0.000, without the
+    // sign of the tiny negative value (docs/conventions.md, "Numbers shown").
+    let c = Copy::of("mine-fan");
+    let plies = fs::read_to_string(c.path("plies.csv")).expect("plies");
+    let webs: String =
+        plies.lines().filter(|l| !l.contains(",both,")).map(|l| format!("{l}\n")).collect();
+    fs::write(c.path("plies.csv"), webs).expect("write");
+    let m = c.refused(
+        "sections",
+        &[],
+        &["plies.csv: no ply covers the upper surface at x/c = 0.000, r = 0.4000 m"],
+    );
+    assert!(!m.contains("-0.0"), "{m}");
+}

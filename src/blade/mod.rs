@@ -83,7 +83,8 @@ pub enum BladeError {
     },
     /// A point of the skin that no ply covers.
     #[error(
-        "no ply covers the {surface} surface at x/c = {x:.3}, r = {r:.4} m: the skin has a hole there"
+        "no ply covers the {surface} surface at x/c = {}, r = {r:.4} m: the skin has a hole there",
+        crate::text::fixed(*x, 3)
     )]
     NoPlies {
         /// Which surface.
@@ -105,8 +106,9 @@ pub enum BladeError {
     },
     /// Walls that fill the section depth where the section must be hollow.
     #[error(
-        "at r = {r:.4} m (station {} from the root is the nearest), x/c = {x:.3} {}",
+        "at r = {r:.4} m (station {} from the root is the nearest), x/c = {} {}",
         .station + 1,
+        crate::text::fixed(*x, 3),
         BladeError::thicker_text(*upper_mm, *lower_mm, *depth_mm)
     )]
     TooThick {

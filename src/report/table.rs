@@ -153,14 +153,7 @@ pub fn rpm_text(rpm: f64) -> String {
     }
 }
 
-/// `digits` decimals, without a "-0.00" for a value that rounds to zero.
-pub fn fixed(v: f64, digits: usize) -> String {
-    let s = format!("{v:.digits$}");
-    match s.strip_prefix('-') {
-        Some(rest) if rest.chars().all(|c| c == '0' || c == '.') => rest.to_string(),
-        _ => s,
-    }
-}
+pub use crate::text::fixed;
 
 #[cfg(test)]
 mod tests {

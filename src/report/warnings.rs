@@ -10,6 +10,7 @@ use crate::blade::BladeWarning;
 use crate::input::InputWarning;
 use crate::plybook::{PatternPlace, PlyBook, PlyBookIssue, PlyBookWarning};
 use crate::section::SectionWarning;
+use crate::text::fixed;
 use crate::units::rpm_of;
 
 impl fmt::Display for SectionWarning {
@@ -18,25 +19,28 @@ impl fmt::Display for SectionWarning {
             SectionWarning::WallsMeet { at_y_c, converging_from_y_c, limit_ratio } => {
                 write!(
                     f,
-                    "the upper and lower walls meet at y/c = {at_y_c:.3}, ahead of the trailing \
+                    "the upper and lower walls meet at y/c = {}, ahead of the trailing \
                      edge: aft of it the walls are taken as solid laminate on the mean line, \
-                     carrying no torsional shear flow"
+                     carrying no torsional shear flow",
+                    fixed(*at_y_c, 3)
                 )?;
                 if let Some(y) = converging_from_y_c {
                     write!(
                         f,
-                        "; the walls pass {:.0} % of the local depth from y/c = {y:.3} aft",
-                        100.0 * limit_ratio
+                        "; the walls pass {:.0} % of the local depth from y/c = {} aft",
+                        100.0 * limit_ratio,
+                        fixed(*y, 3)
                     )?;
                 }
                 Ok(())
             }
             SectionWarning::ThickWall { ratio, at_y_c, limit_ratio } => write!(
                 f,
-                "wall thickness reaches {:.0} % of the local depth at y/c = {at_y_c:.3}; \
+                "wall thickness reaches {:.0} % of the local depth at y/c = {}; \
                  thin-wall theory is usually trusted below about {:.0} % (common practice), so \
                  the stiffness there is approximate",
                 100.0 * ratio,
+                fixed(*at_y_c, 3),
                 100.0 * limit_ratio
             ),
             SectionWarning::NoMass => {
@@ -159,9 +163,9 @@ impl fmt::Display for GroupedWarning {
 /// radius and height fraction on a web.
 fn pattern_place(at: &PatternPlace, web: bool) -> String {
     if web {
-        format!("r = {:.3} m, height {:.2}", at.r, at.along)
+        format!("r = {:.3} m, height {}", at.r, fixed(at.along, 2))
     } else {
-        format!("r = {:.3} m, x/c = {:.3}", at.r, at.along)
+        format!("r = {:.3} m, x/c = {}", at.r, fixed(at.along, 3))
     }
 }
 

@@ -159,8 +159,8 @@ pub(crate) fn build_contour(
         let l = norm(d);
         if l.is_nan() || l <= tiny {
             return Err(degenerate(format!(
-                "edge {i} at y/c = {:.4} has no length (repeated point)",
-                y_c(layout, pts[i][0])
+                "edge {i} at y/c = {} has no length (repeated point)",
+                crate::text::fixed(y_c(layout, pts[i][0]), 4)
             )));
         }
         tang.push(scale(d, 1.0 / l));
@@ -546,8 +546,8 @@ fn web_order(layout: &SectionLayout, merge: Option<Point>) -> Result<Vec<usize>,
         && layout.webs[w].y >= x[0]
     {
         let reason = format!(
-            "it stands behind y/c = {:.4}, where the trailing-edge walls meet",
-            y_c(layout, x[0])
+            "it stands behind y/c = {}, where the trailing-edge walls meet",
+            crate::text::fixed(y_c(layout, x[0]), 4)
         );
         return Err(place(w, reason));
     }

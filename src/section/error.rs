@@ -1,6 +1,7 @@
 //! What can make a section unsolvable.
 
 use crate::laminate::LaminateError;
+use crate::text::fixed;
 
 /// A section layout that cannot be solved. Every variant names the radius `r` (m) and, where
 /// there is one, the chordwise place as `y/c` measured from the leading edge.
@@ -47,7 +48,10 @@ pub enum SectionError {
         r: f64,
     },
     /// The outline crosses itself.
-    #[error("section at r = {r:.4} m: the outer contour crosses itself at y/c = {y_c:.4}")]
+    #[error(
+        "section at r = {r:.4} m: the outer contour crosses itself at y/c = {}",
+        fixed(*y_c, 4)
+    )]
     SelfCrossing {
         /// Radius, m.
         r: f64,
@@ -57,8 +61,9 @@ pub enum SectionError {
     /// Walls thicker than the local depth: the upper and lower wall midlines cross away from
     /// the trailing edge.
     #[error(
-        "section at r = {r:.4} m: the laminates are thicker than the local depth at y/c = {y_c:.4}: \
-         the upper and lower wall midlines cross there (thinner plies or a deeper section needed)"
+        "section at r = {r:.4} m: the laminates are thicker than the local depth at y/c = {}: \
+         the upper and lower wall midlines cross there (thinner plies or a deeper section needed)",
+        fixed(*y_c, 4)
     )]
     WallsMeet {
         /// Radius, m.
@@ -67,7 +72,10 @@ pub enum SectionError {
         y_c: f64,
     },
     /// A web whose line does not reach the upper or lower wall midline.
-    #[error("section at r = {r:.4} m: web '{web}' at y/c = {y_c:.4} misses the {side} wall")]
+    #[error(
+        "section at r = {r:.4} m: web '{web}' at y/c = {} misses the {side} wall",
+        fixed(*y_c, 4)
+    )]
     WebMissesWall {
         /// Radius, m.
         r: f64,
@@ -80,7 +88,7 @@ pub enum SectionError {
     },
     /// A web behind the point where the trailing-edge walls meet, or two webs at one place or
     /// whose laminates overlap.
-    #[error("section at r = {r:.4} m: web '{web}' at y/c = {y_c:.4}: {reason}")]
+    #[error("section at r = {r:.4} m: web '{web}' at y/c = {}: {reason}", fixed(*y_c, 4))]
     WebPlacement {
         /// Radius, m.
         r: f64,

@@ -162,11 +162,14 @@ impl std::fmt::Display for WallLocation {
         match self {
             WallLocation::Surface { upper, x_c, solid } => write!(
                 f,
-                "{} surface at x/c = {x_c:.3}{}",
+                "{} surface at x/c = {}{}",
                 if *upper { "upper" } else { "lower" },
+                crate::text::fixed(*x_c, 3),
                 if *solid { " (solid trailing edge)" } else { "" }
             ),
-            WallLocation::Web { name, z } => write!(f, "web '{name}' at z = {:.1} mm", z * 1e3),
+            WallLocation::Web { name, z } => {
+                write!(f, "web '{name}' at z = {} mm", crate::text::fixed(z * 1e3, 1))
+            }
         }
     }
 }
