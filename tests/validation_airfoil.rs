@@ -324,10 +324,11 @@ fn a_naca_4412_file_gives_the_built_in_section_on_a_blade() {
     let (p0, _) = solve(dir.path());
     let (upper, lower) = naca4_surfaces(0.04, 0.4, 0.12, 801);
     let (selig, _) = selig_and_lednicer(&upper, &lower, |p| p);
-    std::fs::write(dir.path().join("section-4412.dat"), selig).unwrap();
+    // Named for the section it holds: a file, not the code `4412.dat` (which was refused).
+    std::fs::write(dir.path().join("naca4412.dat"), selig).unwrap();
     let stations = std::fs::read_to_string(dir.path().join("stations.csv")).unwrap();
     assert!(stations.contains(",naca4412\n"));
-    let stations = stations.replace(",naca4412\n", ",section-4412.dat\n");
+    let stations = stations.replace(",naca4412\n", ",naca4412.dat\n");
     std::fs::write(dir.path().join("stations.csv"), stations).unwrap();
     let (p, notes) = solve(dir.path());
     assert!(!notes.iter().any(|w| matches!(w, BladeWarning::CoordinateFile(_))), "{notes:?}");

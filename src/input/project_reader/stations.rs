@@ -175,8 +175,9 @@ fn check_station_spacing(
 const MAX_RADIUS_M: f64 = 200.0;
 
 /// `0012`, `naca0012`, `NACA 4412`, with `-closed` for a closed trailing edge; `circle`;
-/// `ellipse:T` (thickness over chord); anything else is a coordinate file relative to the project
-/// folder.
+/// `ellipse:T` (thickness over chord); anything else, or a name of a file next to the project
+/// (`naca4412.dat`: a file named for the section it holds), is a coordinate file relative to the
+/// project folder.
 fn parse_airfoil(rec: &CsvRecord<'_>, dir: &Path) -> Result<AirfoilSpec, InputError> {
     let text = rec.required_text("airfoil")?;
     if let Some(shape) =
@@ -192,12 +193,14 @@ fn parse_airfoil(rec: &CsvRecord<'_>, dir: &Path) -> Result<AirfoilSpec, InputEr
     let digits = body.trim_start_matches("naca").trim();
     let looks_naca = lower.starts_with("naca")
         || (digits.len() == 4 && digits.chars().all(|c| c.is_ascii_digit()));
-    if looks_naca {
+    // A file of that name, or a name with a file's extension or folder, is a coordinate file.
+    let path = dir.join(text);
+    let file_like = path.is_file() || text.contains(['.', '/', '\\']);
+    if looks_naca && !file_like {
         crate::airfoil::Naca4::parse(digits, closed_te)
             .map_err(|e| rec.error("airfoil", e.to_string()))?;
         return Ok(AirfoilSpec::Naca4 { code: digits.to_string(), closed_te });
     }
-    let path = dir.join(text);
     if !path.is_file() {
         return Err(rec.error(
             "airfoil",
