@@ -442,3 +442,41 @@ fn the_readme_examples_read() {
     assert_eq!(o.upper[0], [0.0, 0.0]);
     assert_eq!(o.corners().len(), 2, "the two front corners: {:?}", o.corners());
 }
+
+/// A line of point counts that does not match the surfaces (a surface's last point counted to
+/// the other) is named at the counts line with what it says, not as a surface doubling back at
+/// a point's line; the right counts read. The surfaces are NACA 0012's (Abbott & von Doenhoff,
+/// Theory of Wing Sections, §6.4), each from the leading edge to the trailing edge, as the
+/// counted layout of the coordinate files has them (common practice).
+#[test]
+fn point_counts_that_do_not_match_the_surfaces_are_named_at_their_line() {
+    let half = |x: f64| {
+        0.6 * (0.2969 * x.sqrt() - 0.1260 * x - 0.3516 * x * x + 0.2843 * x.powi(3)
+            - 0.1015 * x.powi(4))
+    };
+    let xs: Vec<f64> =
+        (0..=30).map(|k| 0.5 * (1.0 - (std::f64::consts::PI * k as f64 / 30.0).cos())).collect();
+    let file = |counts: &str| {
+        let mut text = format!("NACA 0012 (test data)\n{counts}\n\n");
+        for sign in [1.0, -1.0] {
+            for &x in &xs {
+                text.push_str(&format!("{x:.6} {:.6}\n", sign * half(x)));
+            }
+            text.push('\n');
+        }
+        text
+    };
+    let (o, _) = parse_coordinates_noted(&file("31 31"), "counted.dat").unwrap();
+    assert!((o.max_depth().1 - 0.12).abs() < 0.002, "{:?}", o.max_depth());
+    for wrong in ["30 32", "32 30"] {
+        let e = parse_coordinates_noted(&file(wrong), "counted.dat").unwrap_err().to_string();
+        let (u, l) = wrong.split_once(' ').unwrap();
+        assert!(
+            e.starts_with(&format!(
+                "counted.dat line 2: the point counts ({u} upper, {l} lower) do not match the \
+                 surfaces"
+            )),
+            "{e}"
+        );
+    }
+}

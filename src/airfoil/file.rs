@@ -133,8 +133,46 @@ fn arrange(
     let same = |a: P, b: P| dist(a, b) <= 1e-9 * extent;
 
     let (upper, lower): (Points, Option<Points>) = match counts {
-        Some((_, nu)) => {
+        Some((count_line, nu)) => {
             let lower = points.split_off(nu);
+            // Both surfaces run from one end of the chord to the other, the same way: a count
+            // that is off moves a point from one surface to the other, and a surface then
+            // starts or ends mid-chord. Named at the counts line (it was named as a surface
+            // doubling back, at a point's line).
+            let (xmin, xmax) = points
+                .iter()
+                .chain(&lower)
+                .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), (_, p)| {
+                    (a.min(p[0]), b.max(p[0]))
+                });
+            let end = |x: f64| {
+                if (x - xmin).abs() <= 0.01 * (xmax - xmin) {
+                    Some(false)
+                } else if (xmax - x).abs() <= 0.01 * (xmax - xmin) {
+                    Some(true)
+                } else {
+                    None
+                }
+            };
+            let ends = |v: &Points| match (v.first(), v.last()) {
+                (Some(a), Some(b)) => (end(a.1[0]), end(b.1[0])),
+                _ => (None, None),
+            };
+            let (eu, el) = (ends(&points), ends(&lower));
+            let one_way = eu == el && eu.0.is_some() && eu.1.is_some() && eu.0 != eu.1;
+            if !one_way {
+                return Err(CoordinateError::at(
+                    display,
+                    Some(count_line),
+                    format!(
+                        "the point counts ({nu} upper, {} lower) do not match the surfaces: \
+                         split there, a surface does not run from one end of the chord to the \
+                         other (expected the number of points of each surface, each from the \
+                         leading edge to the trailing edge)",
+                        lower.len()
+                    ),
+                ));
+            }
             (points, Some(lower))
         }
         None => {
