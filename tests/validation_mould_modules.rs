@@ -46,7 +46,11 @@ r_m,chord_m,twist_deg,pitch_axis_frac,airfoil
 /// Doenhoff, Theory of Wing Sections, 1959, section 6.4), with the last coefficient −0.1036 in
 /// place of −0.1015 so that the trailing edge closes (a common variant, from memory): a sharp
 /// trailing edge (a blunt base parallel to a module's pull draws at a few thousandths of a degree
-/// either way, see docs/decisions.md, 2026-12-03).
+/// either way, see docs/decisions.md, 2026-12-03). Written in percent of the chord, so that it
+/// is normalised from the point farthest from the trailing edge (0.17° off the file's own chord
+/// line), the frame this blade's mould was built and checked in: read on its own chord line the
+/// first module's upper half shows an undercut of 0.34 mm² at −0.38° (docs/decisions.md,
+/// 2026-12-06, found and left).
 fn arc_section() -> String {
     let (t, h) = (0.08, 0.15);
     let r = (0.25 + h * h) / (2.0 * h);
@@ -69,7 +73,7 @@ fn arc_section() -> String {
         "INVENTED TEST SECTION (circular-arc camber 15 %, 8 % thick, sharp trailing edge)\n",
     );
     for (x, y) in upper.iter().rev().chain(lower.iter().skip(1)) {
-        text.push_str(&format!("{x:.6} {y:.6}\n"));
+        text.push_str(&format!("{:.4} {:.4}\n", 100.0 * x, 100.0 * y));
     }
     text
 }
