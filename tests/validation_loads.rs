@@ -245,3 +245,33 @@ fn a_load_over_part_of_the_span_with_steps_at_its_ends() {
         assert_relative_eq!(res.moment[1].abs(), couple.abs(), max_relative = 1e-9);
     }
 }
+
+/// Walls whose membrane–shear coupling carries part of the resultants under a shear force
+/// (`SolvedSection::shear_carried`) bend by what is left: a cantilever of uniform sections whose
+/// walls carry an edgewise moment `k V` per flapwise shear force `V`, under a tip load `P` along
+/// the flapwise axis, has the edgewise curvature `k P / EI_e` along its whole length, so its
+/// in-plane tip deflection is `k P L² / (2 EI_e)` (a constant curvature integrated twice from
+/// a clamped root, as under an end couple: Roark's Formulas for Stress and Strain, 7th ed.,
+/// Table 8.1; from memory), besides the flapwise `P L³ / (3 EI_f)`. Without the carried part (the old reading)
+/// the in-plane deflection was zero.
+#[test]
+fn a_cantilever_whose_walls_carry_an_edgewise_moment_under_shear_bends_in_plane() {
+    use nalgebra::Vector4;
+    let (r0, r1, ei_f, ei_e, k) = (1.0, 3.0, 2.0e5, 5.0e5, 0.02);
+    let len = r1 - r0;
+    let sections = uniform_blade(r0, r1, 5, |r| {
+        beam_section(r, 1e9, 1e5, ei_f, ei_e, 1e-9, [0.0, 0.0], MassInertia::default(), 0.0)
+    });
+    let carried = vec![[Vector4::new(0.0, 0.0, 0.0, k), Vector4::zeros()]; sections.len()];
+    let mut c = case(0.0);
+    c.gravity = Some([0.0, 0.0, 9.81]);
+    let pm = PointMass { name: "tip".into(), r: r1, mass: 10.0, y: 0.0, z: 0.0, inertia: [0.0; 3] };
+    let fine =
+        span_loads(&LoadDistribution::new(&sections, &[pm], &c, Angle::ZERO).unwrap().refine(64));
+    let p = 98.1;
+    let d = layloft::loads::tip_deflection_carrying(&sections, &carried, &fine).unwrap();
+    assert_relative_eq!(d.out_of_plane, p * len.powi(3) / (3.0 * ei_f), max_relative = 1e-3);
+    assert_relative_eq!(d.in_plane, k * p * len * len / (2.0 * ei_e), max_relative = 1e-3);
+    let plain = tip_deflection(&sections, &fine).unwrap();
+    assert!(plain.in_plane.abs() < 1e-12, "{plain:?}");
+}

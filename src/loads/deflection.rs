@@ -28,6 +28,19 @@ pub fn tip_deflection(
     sections: &[SectionProperties],
     loads: &SpanLoads,
 ) -> Result<TipDeflection, LoadsError> {
+    tip_deflection_carrying(sections, &[], loads)
+}
+
+/// [`tip_deflection`] with, per section, the resultants about the pitch axis that its walls'
+/// membrane–shear coupling carries per unit shear force `[flap, edge]`
+/// ([`crate::section::SolvedSection::shear_carried`], interpolated as the compliance): the
+/// curvatures are those of the resultants less what the shear forces make the walls carry, as
+/// in the stress recovery. Empty `carried`: none (walls without coupling).
+pub fn tip_deflection_carrying(
+    sections: &[SectionProperties],
+    carried: &[[Vector4<f64>; 2]],
+    loads: &SpanLoads,
+) -> Result<TipDeflection, LoadsError> {
     let compliances = sections
         .iter()
         .map(|s| s.stiffness_pitch_axis.try_inverse().ok_or(LoadsError::SingularSection { r: s.r }))
@@ -39,7 +52,13 @@ pub fn tip_deflection(
         let w = ((r - sections[i - 1].r) / (sections[i].r - sections[i - 1].r)).clamp(0.0, 1.0);
         let c = compliances[i - 1] * (1.0 - w) + compliances[i] * w;
         let b = &loads.chord[k];
-        let e = c * Vector4::new(b.n, b.t, b.m_flap, b.m_edge);
+        let mut applied = Vector4::new(b.n, b.t, b.m_flap, b.m_edge);
+        if let (Some(ka), Some(kb)) = (carried.get(i - 1), carried.get(i)) {
+            for (s, v) in [b.v_flap, b.v_edge].into_iter().enumerate() {
+                applied -= (ka[s] * (1.0 - w) + kb[s] * w) * v;
+            }
+        }
+        let e = c * applied;
         // Chord-frame deflection curvatures: w'' = -kappa_f, v'' = -kappa_e; to the rotor frame.
         let (s, co) = loads.chord_angle[k].sin_cos();
         let (v2, w2) = (-e[3], -e[2]);

@@ -31,7 +31,7 @@ mod distribution;
 mod integrate;
 mod pitch;
 
-pub use deflection::{TipDeflection, tip_deflection};
+pub use deflection::{TipDeflection, tip_deflection, tip_deflection_carrying};
 pub use distribution::LoadDistribution;
 pub use integrate::{BeamResultants, Resultant, SpanLoads, span_loads};
 pub use pitch::{PitchReaction, root_reactions_over_pitch};

@@ -75,6 +75,14 @@ impl SolvedSection {
         self.compliance * (resultants - carried)
     }
 
+    /// The beam resultants `(N, T, M_f, M_e)` about the pitch axis (the chord frame's origin)
+    /// that the walls' membrane–shear coupling makes of a unit shear force `[V_flap, V_edge]`
+    /// through the shear centre: the part of the applied resultants the beam strains leave to
+    /// the walls (see [`SolvedSection::strains_under_shear`]); zero for walls without coupling.
+    pub fn shear_carried(&self) -> [Vector4<f64>; 2] {
+        self.shear.coupling
+    }
+
     /// The state of every wall element at its midpoint under generalised strains about the
     /// elastic centre and shear forces `shear = [V_flap, V_edge]` (N, along z and y) acting
     /// through the shear centre (the torque behind `strains` is then the torque about the shear

@@ -419,7 +419,8 @@ pub fn analyse_case_detail(
     let dist = LoadDistribution::new(&props, &model.project.point_masses, case, pitch)?;
     let loads = span_loads(&dist);
     let fine = span_loads(&dist.clone().refine(8));
-    let tip_deflection = crate::loads::tip_deflection(&props, &fine)?;
+    let carried: Vec<_> = model.stations.iter().map(|st| st.section.shear_carried()).collect();
+    let tip_deflection = crate::loads::tip_deflection_carrying(&props, &carried, &fine)?;
     // The stations are independent: recovered in blocks on all cores, each block folding its
     // own summary; the blocks' results are joined in station order, which gives the same
     // summary, to the bit, as one pass (see [`summary::Summary::join`]).
