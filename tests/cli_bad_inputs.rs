@@ -682,6 +682,28 @@ fn a_runaway_number_is_quoted_short() {
     assert!(m.len() < 300, "{m}");
 }
 
+/// A tooling material the file does not hold: the closest name when one is close, else the
+/// file's isotropic records, the kind a core alloy or a mould material must be (what a message
+/// must say: common practice, the file, the key, what was expected and what was found).
+#[test]
+fn an_unknown_tooling_material_names_the_records_it_could_be() {
+    Copy::of("mine-fan")
+        .edit("blade.toml", "core_alloy = \"bi58sn42\"", "core_alloy = \"bi58-sn42\"")
+        .refused("check", &[], &["tooling.core_alloy", "did you mean 'bi58sn42'?"]);
+    Copy::of("mine-fan")
+        .edit("blade.toml", "core_alloy = \"bi58sn42\"", "core_alloy = \"cerrobend\"")
+        .refused(
+            "check",
+            &[],
+            &[
+                "tooling.core_alloy: no material named 'cerrobend': expected one of the isotropic \
+                 records",
+                "'bi58sn42'",
+                "'woods-metal'",
+            ],
+        );
+}
+
 #[test]
 fn modes_and_sweep_steps_are_named_by_their_key() {
     Copy::of("mine-fan").edit("blade.toml", "modes = 8", "modes = 500").refused(

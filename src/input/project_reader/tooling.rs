@@ -3,6 +3,33 @@
 
 use super::*;
 
+/// The message of a tooling material the file does not hold: with the closest name when one is
+/// close, else with the file's isotropic records (those a core alloy or a mould material can
+/// be), so that the reader sees what to write.
+fn unknown_record(
+    e: crate::material::MaterialError,
+    materials: &crate::material::MaterialLibrary,
+) -> String {
+    let text = e.to_string();
+    if !matches!(e, crate::material::MaterialError::Unknown { hint: None, .. }) {
+        return text;
+    }
+    let names: Vec<String> = materials
+        .iter()
+        .filter_map(|m| match m {
+            Material::Isotropic(i) => Some(format!("'{}'", i.name)),
+            Material::Lamina(_) => None,
+        })
+        .collect();
+    if names.is_empty() {
+        format!(
+            "{text}: expected the name of an [isotropic.NAME] record, and the materials file has none"
+        )
+    } else {
+        format!("{text}: expected one of the isotropic records {}", names.join(", "))
+    }
+}
+
 pub(super) fn read_tooling(
     t: &mut TableReader<'_>,
     materials: &crate::material::MaterialLibrary,
@@ -26,7 +53,7 @@ pub(super) fn read_tooling(
             Ok(Material::Lamina(_)) => {
                 return Err(t.error("core_alloy", format!("'{name}' is a lamina: expected an [isotropic.NAME] record with a melting range")));
             }
-            Err(e) => return Err(t.error("core_alloy", e.to_string())),
+            Err(e) => return Err(t.error("core_alloy", unknown_record(e, materials))),
         }
     }
     let mould_material = t.optional_str("mould_material")?;
@@ -42,7 +69,7 @@ pub(super) fn read_tooling(
             Ok(Material::Lamina(_)) => {
                 return Err(t.error("mould_material", format!("'{name}' is a lamina: expected an [isotropic.NAME] record with density_kg_m3 (a tooling board, an aluminium alloy)")));
             }
-            Err(e) => return Err(t.error("mould_material", e.to_string())),
+            Err(e) => return Err(t.error("mould_material", unknown_record(e, materials))),
         }
     }
     let stl_unit = t.optional_str("stl_unit")?.unwrap_or(d.stl_unit);
