@@ -323,3 +323,48 @@ fn a_shear_force_on_an_off_axis_tube_leaves_its_walls_in_equilibrium() {
         assert!((got - want).norm() < 2e-4 * scale, "ply stress at {a}: {got} vs {want}");
     }
 }
+
+/// A temperature change on a section whose walls would expand by different amounts is warned
+/// of with the verdict: each wall is taken free to expand, so the stresses walls of different
+/// expansion put on each other are not computed. An aluminium tube (α 23e-6/K) with a
+/// symmetric steel–aluminium–steel cap over 30–70 % of the chord (steel α 12e-6/K, E 200 GPa,
+/// 0.5 mm a side): the cap's free axial strain is the stiffness-weighted mean of its layers'
+/// (layers of one Poisson's ratio, curvatures free by symmetry: Kaw, Mechanics of Composite
+/// Materials, §4.6, from memory), (70·1·23 + 200·1·12)/(70 + 200) · 1e-6 · ΔT, against the
+/// skin's 23e-6 · ΔT. Without a temperature change, no warning.
+#[test]
+fn a_temperature_change_on_walls_of_different_expansion_is_warned_of() {
+    use layloft::analysis::Warning;
+    let dir = tempfile::tempdir().unwrap();
+    let plies = "s1,steel,0,0.20,1.20,both,0.3,0.7\np1,al,0,0.20,1.20,both,0,1\n\
+                 s2,steel,0,0.20,1.20,both,0.3,0.7\n";
+    let extra = "[[load_case]]\nname = \"cool\"\nrpm = 0\ndelta_T_K = -80\n";
+    let project = common::tube_project(dir.path(), plies, extra);
+    std::fs::write(
+        dir.path().join("materials.toml"),
+        "[isotropic.al]\nE_GPa = 70\nnu = 0.3\ndensity_kg_m3 = 2700\nply_thickness_mm = 1.0\n\
+         cte_ustrain_K = 23\ntensile_strength_MPa = 300\ncompressive_strength_MPa = 300\n\
+         shear_strength_MPa = 170\n\
+         [isotropic.steel]\nE_GPa = 200\nnu = 0.3\ndensity_kg_m3 = 7850\nply_thickness_mm = 0.5\n\
+         cte_ustrain_K = 12\ntensile_strength_MPa = 500\ncompressive_strength_MPa = 500\n\
+         shear_strength_MPa = 290\n",
+    )
+    .unwrap();
+    let model = BladeModel::build(read_project(&project).unwrap()).unwrap();
+    let warnings = model.verdict_warnings();
+    let [Warning::ThermalMismatch { case, delta_t, strains, .. }] = warnings.as_slice() else {
+        panic!("one thermal warning: {warnings:?}");
+    };
+    assert_eq!((case.as_str(), *delta_t), ("cool", -80.0));
+    let cap = (70.0 * 23.0 + 200.0 * 12.0) / 270.0 * 1e-6 * -80.0;
+    let skin = 23e-6 * -80.0;
+    assert!((strains[0] / skin - 1.0).abs() < 1e-9, "{strains:?} against {skin}");
+    assert!((strains[1] / cap - 1.0).abs() < 1e-9, "{strains:?} against {cap}");
+    let texts = model.verdict_warning_texts(&[]);
+    assert!(texts[0].contains("each wall is taken free to expand"), "{texts:?}");
+    // The same tube without the temperature change: nothing to warn of.
+    std::fs::write(&project, std::fs::read_to_string(&project).unwrap().replace("-80", "0"))
+        .unwrap();
+    let model = BladeModel::build(read_project(&project).unwrap()).unwrap();
+    assert!(model.verdict_warnings().is_empty());
+}

@@ -263,6 +263,59 @@ impl BladeModel {
         self.warnings_with(&[])
     }
 
+    /// The warnings the verdict repeats besides the input's: what the analysis leaves out that
+    /// may make its strength verdict unsafe (a temperature change on walls of different
+    /// expansion, [`Warning::ThermalMismatch`]).
+    pub fn verdict_warnings(&self) -> Vec<Warning> {
+        self.project
+            .load_cases
+            .iter()
+            .filter(|c| c.delta_t != 0.0)
+            .filter_map(|case| {
+                let (strains, r) = self.thermal_mismatch(case.delta_t)?;
+                Some(Warning::ThermalMismatch {
+                    case: case.name.clone(),
+                    delta_t: case.delta_t,
+                    strains,
+                    r,
+                })
+            })
+            .collect()
+    }
+
+    /// The input's warnings and then the model's (see [`BladeModel::verdict_warnings`]), worded,
+    /// for the verdict.
+    pub fn verdict_warning_texts(&self, input: &[InputWarning]) -> Vec<String> {
+        input
+            .iter()
+            .map(ToString::to_string)
+            .chain(self.verdict_warnings().iter().map(ToString::to_string))
+            .collect()
+    }
+
+    /// The least and greatest free axial thermal strain of the walls of one station under a
+    /// temperature change `delta_t` (each wall's laminate free of load, its curvatures free),
+    /// at the station where they differ most, with its radius; `None` when no station's walls
+    /// differ by more than [`THERMAL_MISMATCH`].
+    fn thermal_mismatch(&self, delta_t: f64) -> Option<([f64; 2], f64)> {
+        let mut worst: Option<([f64; 2], f64)> = None;
+        for st in &self.stations {
+            let free = st.layout.laminates.iter().filter_map(|l| {
+                let (n, m) = l.thermal_resultants(delta_t);
+                let c = l.abd().compliance()?;
+                let e = c * nalgebra::Vector6::new(n[0], n[1], n[2], m[0], m[1], m[2]);
+                e[0].is_finite().then_some(e[0])
+            });
+            let (lo, hi) =
+                free.fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), e| (a.min(e), b.max(e)));
+            let spread = |w: &([f64; 2], f64)| w.0[1] - w.0[0];
+            if hi - lo > THERMAL_MISMATCH && worst.as_ref().is_none_or(|w| hi - lo > spread(w)) {
+                worst = Some(([lo, hi], st.layout.r));
+            }
+        }
+        worst
+    }
+
     /// The input's warnings, then the warnings of the blade and its sections
     /// ([`BladeModel::warnings`]).
     pub fn warnings_with(&self, input: &[InputWarning]) -> Vec<GroupedWarning> {
@@ -284,6 +337,9 @@ impl BladeModel {
                 radii: vec![],
             });
         }
+        groups.extend(
+            self.verdict_warnings().into_iter().map(|w| GroupedWarning { first: w, radii: vec![] }),
+        );
         for st in &self.stations {
             for w in &st.section.properties.warnings {
                 let alike = |g: &GroupedWarning| match &g.first {
@@ -329,7 +385,24 @@ pub enum Warning {
     },
     /// About one section (the station's radius is kept by the [`GroupedWarning`]).
     Section(SectionWarning),
+    /// A load case with a temperature change on a section whose walls would expand by different
+    /// amounts: each wall is taken free to expand, so the stresses the walls put on each other
+    /// (a glass cap on a carbon skin) are not computed.
+    ThermalMismatch {
+        /// The load case.
+        case: String,
+        /// Its temperature change, K.
+        delta_t: f64,
+        /// The least and greatest free axial thermal strain of the walls there.
+        strains: [f64; 2],
+        /// The radius of the station where they differ most, m.
+        r: f64,
+    },
 }
+
+/// The spread of the walls' free axial thermal strains beyond which a temperature change is
+/// warned of (about 1.4 MPa in a carbon ply held against it; a rule of this program).
+pub const THERMAL_MISMATCH: f64 = 1e-5;
 
 /// A warning and the radii where it (or one of its kind with other numbers) occurs; no radii for
 /// a warning about the whole blade.

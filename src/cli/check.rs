@@ -51,13 +51,14 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     };
     let check = evaluate(&model, &stress, modal.as_ref());
     let p = &model.project;
+    let warnings = model.verdict_warning_texts(&sources.warnings);
     if args.json {
-        let doc = check_json(&p.name, &check, &sources.warnings);
+        let doc = check_json(&p.name, &check, &warnings);
         let text = layloft::report::json_pretty(doc)
             .map_err(|e| Failure::Run(anyhow!("cannot format the JSON report: {e}")))?;
         out.data(&text);
     } else {
-        out.data(&check_text(&p.name, &check, &sources.warnings));
+        out.data(&check_text(&p.name, &check, &warnings));
     }
     Ok(if check.passed() { Outcome::Success } else { Outcome::CheckFailed })
 }

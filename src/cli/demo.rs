@@ -121,7 +121,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     }
     let check = write_report(&model, &sources, &dest, out)?;
     out.note(&format!("open {} in a browser", dest.out.join("report.html").display()));
-    out.data(&super::verdict(&check, &sources));
+    out.data(&super::verdict(&check, &model, &sources));
     let passed = check.passed();
     Ok(if passed { Outcome::Success } else { Outcome::CheckFailed })
 }

@@ -83,9 +83,14 @@ impl From<layloft::Error> for Failure {
     }
 }
 
-/// The verdict line of a design check, last on stdout, with the project's input warnings.
-pub fn verdict(check: &layloft::check::DesignCheck, sources: &layloft::input::Sources) -> String {
-    layloft::report::check::verdict_text(check, &sources.warnings)
+/// The verdict line of a design check, last on stdout, with the project's input warnings and
+/// the model's (see `BladeModel::verdict_warnings`).
+pub fn verdict(
+    check: &layloft::check::DesignCheck,
+    model: &layloft::analysis::BladeModel,
+    sources: &layloft::input::Sources,
+) -> String {
+    layloft::report::check::verdict_text(check, &model.verdict_warning_texts(&sources.warnings))
 }
 
 /// Parses the arguments, runs the command and maps the result to the exit status.

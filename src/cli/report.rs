@@ -340,7 +340,7 @@ pub fn run(args: Args, out: &Output) -> Result<Outcome, Failure> {
     let check =
         write_report(&model, &sources, &Destination { out: args.out.clone(), meshes }, out)?;
     // The verdict is the last line, on stdout, so that it is seen and a script can read it.
-    out.data(&super::verdict(&check, &sources));
+    out.data(&super::verdict(&check, &model, &sources));
     let passed = check.passed();
     Ok(if passed { Outcome::Success } else { Outcome::CheckFailed })
 }

@@ -88,7 +88,7 @@ pub fn blade_report(inp: &ReportInputs<'_>) -> String {
     }
     doc.meta("project file", inp.sources.file.clone());
     doc.design_check(inp.check);
-    doc.verdict_warnings(inp.sources.warnings.iter().map(ToString::to_string));
+    doc.verdict_warnings(m.verdict_warning_texts(&inp.sources.warnings));
 
     blade_section(&mut doc, m);
     sections_section(&mut doc, m, inp.sources, &inp.section_drawings);

@@ -140,6 +140,14 @@ impl fmt::Display for Warning {
                 rpm_of(*omega_max)
             ),
             Warning::Section(w) => write!(f, "{w}"),
+            Warning::ThermalMismatch { case, delta_t, strains, r } => write!(
+                f,
+                "load case '{case}' (delta_T_K = {delta_t}): at r = {r:.3} m the walls would \
+                 expand freely by {:.3e} to {:.3e} (axial strain); each wall is taken free to \
+                 expand, so the stresses walls of different expansion put on each other are not \
+                 computed: check the thermal stresses of this section by other means",
+                strains[0], strains[1]
+            ),
         }
     }
 }
