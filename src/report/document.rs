@@ -75,13 +75,11 @@ pub fn blade_report(inp: &ReportInputs<'_>) -> String {
     let r = &p.rotor;
     let mut doc = HtmlReport::new(p.name.clone());
     doc.subtitle(format!(
-        "{} blades, radius {:.3}–{:.3} m, {}{} rpm nominal, {} rpm maximum",
+        "{} blades, radius {:.3}–{:.3} m, {}",
         r.blades,
         r.hub_radius,
         r.tip_radius,
-        least_speed_text(r),
-        rpm_text(rpm_of(r.omega_nominal)),
-        rpm_text(rpm_of(r.omega_max))
+        speeds_text(r)
     ));
     if let Some(d) = &inp.date {
         doc.date(d.clone());
@@ -151,15 +149,7 @@ fn blade_section(doc: &mut HtmlReport, m: &BladeModel) {
                 m.blade.tip_radius()
             ),
         ),
-        (
-            "speeds",
-            format!(
-                "{}{} rpm nominal, {} rpm maximum",
-                least_speed_text(r),
-                rpm_text(rpm_of(r.omega_nominal)),
-                rpm_text(rpm_of(r.omega_max))
-            ),
-        ),
+        ("speeds", speeds_text(r)),
         (
             "pitch",
             format!(
@@ -439,12 +429,17 @@ fn vibration_section(
     }
 }
 
-/// `"<least> rpm least, "` when the rotor's least operating speed lies below its nominal speed
-/// (`rpm_min`), else nothing.
-fn least_speed_text(r: &crate::project::Rotor) -> String {
-    if r.omega_min < r.omega_nominal {
+/// The rotor's speeds in words: `"<n> rpm nominal, <m> rpm maximum"`, led by `"<l> rpm least, "`
+/// when its least operating speed (`rpm_min`) lies below the nominal.
+fn speeds_text(r: &crate::project::Rotor) -> String {
+    let least = if r.omega_min < r.omega_nominal {
         format!("{} rpm least, ", rpm_text(rpm_of(r.omega_min)))
     } else {
         String::new()
-    }
+    };
+    format!(
+        "{least}{} rpm nominal, {} rpm maximum",
+        rpm_text(rpm_of(r.omega_nominal)),
+        rpm_text(rpm_of(r.omega_max))
+    )
 }
